@@ -1,0 +1,370 @@
+"""Segment kinds of a profile: straight lines, circular arcs and expression curves.
+
+Segments are immutable value objects in the sketch plane (coordinates ``x``,
+``y`` as plain floats). Each may carry a ``face`` name, used to group surface
+results, and a :class:`Where` telling the file and line it came from, used in
+error messages. A segment may also carry its exact inputs (sympy numbers) so
+that ``--exact`` can produce closed forms; numeric work never needs them.
+
+The integrals of each kind live in :mod:`revolve.geometry.integrals`; this
+module only builds and transforms segments.
+
+Examples
+--------
+>>> seg = Line((0.0, 1.0), (3.0, 1.0), face="bore")
+>>> seg.length()
+3.0
+>>> arc = arc_from_radius((1.0, 0.0), (0.0, 1.0), radius=1.0, side="left")
+>>> round(arc.centre[0], 12), round(arc.centre[1], 12), arc.clockwise
+(0.0, 0.0, False)
+>>> round(arc.sweep(), 12) == round(math.pi / 2, 12)
+True
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from functools import cached_property
+from typing import Any, Callable, Optional, Tuple, Union
+
+from revolve.errors import SegmentError
+
+Point = Tuple[float, float]
+
+
+@dataclass(frozen=True)
+class Where:
+    """Where a segment came from, for error messages.
+
+    >>> str(Where(file="a.toml", line=7, place="loop 1, segment 2"))
+    'a.toml:7: loop 1, segment 2'
+    >>> str(Where())
+    ''
+    """
+
+    file: Optional[str] = None
+    line: Optional[int] = None
+    place: Optional[str] = None
+
+    def __str__(self) -> str:
+        head = ""
+        if self.file:
+            head = self.file + (f":{self.line}" if self.line is not None else "")
+        return ": ".join(p for p in (head, self.place) if p)
+
+
+def _finite_point(p: Any, what: str, where: Optional[Where]) -> Point:
+    try:
+        x, y = float(p[0]), float(p[1])
+    except (TypeError, ValueError, IndexError):
+        raise _error(f"{what} must be a pair of numbers, got {p!r}", where)
+    if not (math.isfinite(x) and math.isfinite(y)):
+        raise _error(f"{what} ({x}, {y}) is not a finite number", where)
+    return (x, y)
+
+
+def _error(message: str, where: Optional[Where]) -> SegmentError:
+    where = where or Where()
+    return SegmentError(message, file=where.file, line=where.line, place=where.place)
+
+
+@dataclass(frozen=True)
+class Line:
+    """A straight segment from ``start`` to ``end``.
+
+    >>> Line((0.0, 0.0), (3.0, 4.0)).length()
+    5.0
+    >>> Line((1.0, 1.0), (1.0, 1.0)).length()
+    0.0
+    """
+
+    start: Point
+    end: Point
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False)
+    exact: Optional[tuple] = field(default=None, compare=False)
+
+    kind = "line"
+
+    def length(self) -> float:
+        return math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+
+    def point_at(self, s: float) -> Point:
+        """Point at fraction ``s`` in [0, 1] of the way along.
+
+        >>> Line((0.0, 0.0), (2.0, 0.0)).point_at(0.25)
+        (0.5, 0.0)
+        """
+        return (self.start[0] + s * (self.end[0] - self.start[0]),
+                self.start[1] + s * (self.end[1] - self.start[1]))
+
+    def reversed(self) -> "Line":
+        return replace(self, start=self.end, end=self.start,
+                       exact=None if self.exact is None else self.exact[2:] + self.exact[:2])
+
+    def split(self, s: float = 0.5) -> tuple["Line", "Line"]:
+        m = self.point_at(s)
+        return replace(self, end=m, exact=None), replace(self, start=m, exact=None)
+
+
+@dataclass(frozen=True)
+class Arc:
+    """A circular arc from ``start`` to ``end`` about ``centre``.
+
+    ``clockwise`` gives the direction of travel; the sweep is always below one
+    full turn. Build arcs with :func:`arc_from_radius` or :func:`arc_from_centre`,
+    which check the inputs.
+
+    >>> a = arc_from_centre((2.0, 0.0), (-2.0, 0.0), centre=(0.0, 0.0), clockwise=False)
+    >>> round(a.length(), 12) == round(2 * math.pi, 12)
+    True
+    """
+
+    start: Point
+    end: Point
+    centre: Point
+    clockwise: bool
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False)
+    exact: Optional[tuple] = field(default=None, compare=False)
+
+    kind = "arc"
+
+    @property
+    def radius(self) -> float:
+        return math.hypot(self.start[0] - self.centre[0], self.start[1] - self.centre[1])
+
+    def angles(self) -> tuple[float, float]:
+        """Start angle and end angle (radians); their difference is the signed sweep."""
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        return a0, a0 + self.sweep()
+
+    def sweep(self) -> float:
+        """Signed sweep in radians: positive counter-clockwise, never a full turn.
+
+        >>> arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, side="left").sweep() < 0
+        True
+        """
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        a1 = math.atan2(self.end[1] - self.centre[1], self.end[0] - self.centre[0])
+        d = a1 - a0
+        if self.clockwise:
+            while d >= 0:
+                d -= 2 * math.pi
+            while d < -2 * math.pi:
+                d += 2 * math.pi
+        else:
+            while d <= 0:
+                d += 2 * math.pi
+            while d > 2 * math.pi:
+                d -= 2 * math.pi
+        return d
+
+    def length(self) -> float:
+        return self.radius * abs(self.sweep())
+
+    def point_at(self, s: float) -> Point:
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        a = a0 + s * self.sweep()
+        R = self.radius
+        return (self.centre[0] + R * math.cos(a), self.centre[1] + R * math.sin(a))
+
+    def reversed(self) -> "Arc":
+        return replace(self, start=self.end, end=self.start, clockwise=not self.clockwise,
+                       exact=None)
+
+    def split(self, s: float = 0.5) -> tuple["Arc", "Arc"]:
+        m = self.point_at(s)
+        return replace(self, end=m, exact=None), replace(self, start=m, exact=None)
+
+
+def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
+                    major: bool = False, face: Optional[str] = None,
+                    where: Optional[Where] = None, exact: Optional[tuple] = None) -> Arc:
+    """An arc through two points with a given radius.
+
+    ``side`` says on which side of the chord, looking from ``start`` to
+    ``end``, the arc lies ("left" or "right"). ``major=True`` takes the arc
+    longer than a half circle. A radius shorter than half the chord is refused.
+
+    >>> a = arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, side="right")
+    >>> [round(v, 12) for v in a.centre], a.clockwise
+    ([1.0, 0.0], False)
+    >>> arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=0.9)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc radius 0.9 is shorter than half the chord (1); make the radius at least 1
+    """
+    start = _finite_point(start, "arc start", where)
+    end = _finite_point(end, "arc end", where)
+    try:
+        radius = float(radius)
+    except (TypeError, ValueError):
+        raise _error(f"arc radius must be a number, got {radius!r}", where)
+    if not math.isfinite(radius) or radius <= 0:
+        raise _error(f"arc radius must be a positive finite number, got {radius}", where)
+    if side not in ("left", "right"):
+        raise _error(f"arc side must be 'left' or 'right', got {side!r}", where)
+    dx, dy = end[0] - start[0], end[1] - start[1]
+    chord = math.hypot(dx, dy)
+    if chord == 0:
+        raise _error("arc start and end are the same point; an arc needs two distinct ends", where)
+    half = chord / 2
+    if radius < half * (1 - 1e-12):
+        raise _error(f"arc radius {radius:g} is shorter than half the chord ({half:g}); "
+                     f"make the radius at least {half:g}", where)
+    h = math.sqrt(max(radius * radius - half * half, 0.0))
+    mx, my = (start[0] + end[0]) / 2, (start[1] + end[1]) / 2
+    lx, ly = -dy / chord, dx / chord  # unit normal pointing left of the chord
+    # A minor arc lying on the left has its centre on the right, and vice versa.
+    sign = -1.0 if side == "left" else 1.0
+    if major:
+        sign = -sign
+    centre = (mx + sign * h * lx, my + sign * h * ly)
+    # Arc on the left of the chord is travelled clockwise (bowing up then down).
+    clockwise = side == "left"
+    return Arc(start, end, centre, clockwise, face=face, where=where, exact=exact)
+
+
+def arc_from_centre(start: Point, end: Point, centre: Point, clockwise: bool,
+                    face: Optional[str] = None, where: Optional[Where] = None,
+                    tolerance: float = 1e-9, exact: Optional[tuple] = None) -> Arc:
+    """An arc about a given centre; start and end must be equally far from it.
+
+    >>> arc_from_centre((1.0, 0.0), (0.0, 2.0), (0.0, 0.0), clockwise=False)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc start is 1 from the centre but the end is 2; they must be equal
+    """
+    start = _finite_point(start, "arc start", where)
+    end = _finite_point(end, "arc end", where)
+    centre = _finite_point(centre, "arc centre", where)
+    r0 = math.hypot(start[0] - centre[0], start[1] - centre[1])
+    r1 = math.hypot(end[0] - centre[0], end[1] - centre[1])
+    if r0 == 0:
+        raise _error("arc centre coincides with its start point", where)
+    if abs(r0 - r1) > tolerance * max(r0, r1):
+        raise _error(f"arc start is {r0:g} from the centre but the end is {r1:g}; "
+                     "they must be equal", where)
+    if start == end:
+        raise _error("arc start and end are the same point; split a full circle into two arcs",
+                     where)
+    return Arc(start, end, centre, bool(clockwise), face=face, where=where, exact=exact)
+
+
+@dataclass(frozen=True)
+class Curve:
+    """A curve given by expressions ``x(t)``, ``y(t)`` for ``t`` from ``t_start`` to ``t_end``.
+
+    ``x_expr`` and ``y_expr`` are sympy expressions in the symbol ``t`` that
+    came from the whitelist parser (:mod:`revolve.expr`), never from ``eval``.
+    An explicit curve ``y = f(x)`` is the parametric curve ``(t, f(t))``.
+    Numeric functions are compiled once and cached.
+    """
+
+    x_expr: Any
+    y_expr: Any
+    t_start: float
+    t_end: float
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False)
+    exact: Optional[tuple] = field(default=None, compare=False)  # exact (t_start, t_end)
+
+    kind = "curve"
+
+    @cached_property
+    def _functions(self) -> tuple[Callable, Callable, Callable, Callable]:
+        import numpy as np
+        import sympy
+
+        t = sympy.Symbol("t", real=True)
+        fx = [sympy.lambdify(t, e, modules="numpy")
+              for e in (self.x_expr, self.y_expr,
+                        sympy.diff(self.x_expr, t), sympy.diff(self.y_expr, t))]
+
+        def vectorised(f):
+            def g(tt):
+                tt = np.asarray(tt, dtype=float)
+                return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
+            return g
+
+        return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+
+    def evaluate(self, t):
+        """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
+        fx, fy, dfx, dfy = self._functions
+        return fx(t), fy(t), dfx(t), dfy(t)
+
+    @property
+    def start(self) -> Point:
+        x, y, _, _ = self.evaluate([self.t_start])
+        return (float(x[0]), float(y[0]))
+
+    @property
+    def end(self) -> Point:
+        x, y, _, _ = self.evaluate([self.t_end])
+        return (float(x[0]), float(y[0]))
+
+    def length(self) -> float:
+        from revolve.geometry.integrals import curve_integrals
+        return float(curve_integrals(self).values["length"])
+
+    def point_at(self, s: float) -> Point:
+        t = self.t_start + s * (self.t_end - self.t_start)
+        x, y, _, _ = self.evaluate([t])
+        return (float(x[0]), float(y[0]))
+
+    def reversed(self) -> "Curve":
+        import sympy
+        t = sympy.Symbol("t", real=True)
+        # t -> t_start + t_end - t keeps the same parameter interval.
+        sub = {t: self.t_start + self.t_end - t}
+        return replace(self, x_expr=self.x_expr.subs(sub), y_expr=self.y_expr.subs(sub),
+                       exact=None)
+
+    def split(self, s: float = 0.5) -> tuple["Curve", "Curve"]:
+        tm = self.t_start + s * (self.t_end - self.t_start)
+        return replace(self, t_end=tm, exact=None), replace(self, t_start=tm, exact=None)
+
+
+Segment = Union[Line, Arc, Curve]
+
+
+def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,
+                           exact=None) -> Curve:
+    """Build a parametric curve, checking the interval and that it evaluates finitely.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = curve_from_expressions(t, 2 * t, 0, 1)
+    >>> [round(v, 12) for v in c.end]
+    [1.0, 2.0]
+    >>> curve_from_expressions(t, 1 / t, 0, 1)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: the curve is not finite at t = 0; keep the interval where it is defined
+    """
+    import numpy as np
+
+    try:
+        t0, t1 = float(t_start), float(t_end)
+    except (TypeError, ValueError):
+        raise _error("the curve's interval must be two numbers", where)
+    if not (math.isfinite(t0) and math.isfinite(t1)):
+        raise _error("the curve's interval must be finite", where)
+    if t0 == t1:
+        raise _error("the curve's interval is empty (start equals end)", where)
+    c = Curve(x_expr, y_expr, t0, t1, face=face, where=where, exact=exact)
+    tt = np.linspace(t0, t1, 257)
+    with np.errstate(all="ignore"):
+        try:
+            vals = c.evaluate(tt)
+        except Exception as exc:  # a compiled expression failing is the input's fault
+            raise _error(f"the curve cannot be evaluated ({exc})", where)
+    for arr in vals:
+        bad = ~np.isfinite(arr)
+        if bad.any():
+            raise _error(f"the curve is not finite at t = {tt[np.argmax(bad)]:g}; "
+                         "keep the interval where it is defined", where)
+    return c
