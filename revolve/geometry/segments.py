@@ -14,7 +14,7 @@ Examples
 >>> seg = Line((0.0, 1.0), (3.0, 1.0), face="bore")
 >>> seg.length()
 3.0
->>> arc = arc_from_radius((1.0, 0.0), (0.0, 1.0), radius=1.0, side="left")
+>>> arc = arc_from_radius((1.0, 0.0), (0.0, 1.0), radius=1.0, side="right")
 >>> round(arc.centre[0], 12), round(arc.centre[1], 12), arc.clockwise
 (0.0, 0.0, False)
 >>> round(arc.sweep(), 12) == round(math.pi / 2, 12)
@@ -82,8 +82,8 @@ class Line:
     start: Point
     end: Point
     face: Optional[str] = None
-    where: Optional[Where] = field(default=None, compare=False)
-    exact: Optional[tuple] = field(default=None, compare=False)
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[tuple] = field(default=None, compare=False, repr=False)
 
     kind = "line"
 
@@ -126,8 +126,8 @@ class Arc:
     centre: Point
     clockwise: bool
     face: Optional[str] = None
-    where: Optional[Where] = field(default=None, compare=False)
-    exact: Optional[tuple] = field(default=None, compare=False)
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[tuple] = field(default=None, compare=False, repr=False)
 
     kind = "arc"
 
@@ -268,8 +268,8 @@ class Curve:
     t_start: float
     t_end: float
     face: Optional[str] = None
-    where: Optional[Where] = field(default=None, compare=False)
-    exact: Optional[tuple] = field(default=None, compare=False)  # exact (t_start, t_end)
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[tuple] = field(default=None, compare=False, repr=False)  # exact (t_start, t_end)
 
     kind = "curve"
 
@@ -307,8 +307,8 @@ class Curve:
         return (float(x[0]), float(y[0]))
 
     def length(self) -> float:
-        from revolve.geometry.integrals import curve_integrals
-        return float(curve_integrals(self).values["length"])
+        from revolve.geometry.integrals import curve_integrals_numeric
+        return float(curve_integrals_numeric(self)[0][0])
 
     def point_at(self, s: float) -> Point:
         t = self.t_start + s * (self.t_end - self.t_start)

@@ -1,0 +1,202 @@
+"""Profiles, axes and revolutions: the value objects the engine measures.
+
+A :class:`Profile` is one or more closed :class:`Loop` s (a solid section;
+loops inside other loops are holes, whatever their direction) and/or open
+:class:`Chain` s (a surface only: a sheet, a shell, a tank wall). An
+:class:`Axis` is any line in the sketch plane. A :class:`Revolution` puts a
+profile, an axis and an angle together; it is what
+:func:`revolve.geometry.measure.measure` takes.
+
+Examples
+--------
+>>> from revolve.geometry.segments import Line
+>>> square = Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)])
+>>> len(square.segments), square.segments[-1].end
+(4, (0.0, 1.0))
+>>> Axis.x().direction, Axis.y().direction
+((1.0, 0.0), (0.0, 1.0))
+>>> rev = Revolution(Profile(loops=(square,)), Axis.x(), 90.0)
+>>> round(rev.angle_radians, 12) == round(math.pi / 2, 12)
+True
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+from typing import Iterable, Optional, Sequence, Tuple
+
+from revolve.errors import ProfileError
+from revolve.geometry.segments import Line, Point, Segment, Where
+
+
+@dataclass(frozen=True)
+class Loop:
+    """A closed sequence of segments, each starting where the previous one ends."""
+
+    segments: Tuple[Segment, ...]
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+
+    closed = True
+
+    @classmethod
+    def from_points(cls, points: Iterable[Sequence[float]], face: Optional[str] = None,
+                    where: Optional[Where] = None) -> "Loop":
+        """A polygon loop through ``points``, closed back to the first point.
+
+        >>> Loop.from_points([(0, 0), (1, 0), (0, 1)]).segments[2]
+        Line(start=(0.0, 1.0), end=(0.0, 0.0), face=None)
+        """
+        pts = [(float(p[0]), float(p[1])) for p in points]
+        if len(pts) >= 2 and pts[0] == pts[-1]:
+            pts = pts[:-1]
+        segs = tuple(Line(pts[i], pts[(i + 1) % len(pts)], face=face)
+                     for i in range(len(pts)))
+        return cls(segs, where=where)
+
+
+@dataclass(frozen=True)
+class Chain:
+    """An open sequence of segments: a surface without a section (sheet or shell)."""
+
+    segments: Tuple[Segment, ...]
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+
+    closed = False
+
+    @classmethod
+    def from_points(cls, points: Iterable[Sequence[float]], face: Optional[str] = None,
+                    where: Optional[Where] = None) -> "Chain":
+        """An open polyline through ``points``.
+
+        >>> len(Chain.from_points([(0, 1), (1, 1), (2, 2)]).segments)
+        2
+        """
+        pts = [(float(p[0]), float(p[1])) for p in points]
+        return cls(tuple(Line(pts[i], pts[i + 1], face=face) for i in range(len(pts) - 1)),
+                   where=where)
+
+
+@dataclass(frozen=True)
+class Profile:
+    """A half-profile: closed loops (section) and open chains (surface only).
+
+    ``unit`` is the length unit of every coordinate (a plain name such as
+    ``"mm"``); the engine itself is unit-free.
+    """
+
+    loops: Tuple[Loop, ...] = ()
+    chains: Tuple[Chain, ...] = ()
+    unit: str = "mm"
+    name: Optional[str] = None
+    file: Optional[str] = None
+
+    @property
+    def paths(self) -> Tuple:
+        """Loops first, then chains."""
+        return tuple(self.loops) + tuple(self.chains)
+
+    def segments(self) -> Tuple[Segment, ...]:
+        """Every segment, loops first.
+
+        >>> Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)).segments()[0].kind
+        'line'
+        """
+        return tuple(s for p in self.paths for s in p.segments)
+
+    def faces(self) -> Tuple[str, ...]:
+        """Face names in order of first appearance; unnamed segments are grouped as 'other'.
+
+        >>> Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)], face="cone"),)).faces()
+        ('cone',)
+        """
+        seen: dict = {}
+        for s in self.segments():
+            seen.setdefault(s.face or UNNAMED_FACE, None)
+        return tuple(seen)
+
+
+UNNAMED_FACE = "other"
+
+
+@dataclass(frozen=True)
+class Axis:
+    """The axis of revolution: a point on it and a direction, in sketch coordinates.
+
+    >>> Axis((0, 0), (0, 5)).unit_direction()
+    (0.0, 1.0)
+    >>> Axis((0, 0), (0, 0)).unit_direction()
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the axis direction is zero; give a direction such as 1,0
+    """
+
+    point: Point = (0.0, 0.0)
+    direction: Point = (1.0, 0.0)
+    exact: Optional[tuple] = field(default=None, compare=False, repr=False)
+
+    @classmethod
+    def x(cls) -> "Axis":
+        return cls((0.0, 0.0), (1.0, 0.0))
+
+    @classmethod
+    def y(cls) -> "Axis":
+        return cls((0.0, 0.0), (0.0, 1.0))
+
+    def unit_direction(self) -> Point:
+        dx, dy = float(self.direction[0]), float(self.direction[1])
+        n = math.hypot(dx, dy)
+        if not math.isfinite(n) or n == 0:
+            raise ProfileError("the axis direction is zero; give a direction such as 1,0")
+        return (dx / n, dy / n)
+
+    def to_frame(self, x, y):
+        """Axial position ``z`` and signed distance ``r`` (left of the direction is positive).
+
+        Works on floats and numpy arrays.
+
+        >>> Axis.y().to_frame(3.0, 4.0)
+        (4.0, -3.0)
+        """
+        ux, uy = self.unit_direction()
+        px, py = float(self.point[0]), float(self.point[1])
+        dx, dy = x - px, y - py
+        return dx * ux + dy * uy, ux * dy - uy * dx
+
+    def from_frame(self, z, r, side: float = 1.0):
+        """Sketch coordinates of axial position ``z`` and distance ``r`` on ``side`` (+1 or -1).
+
+        >>> Axis.y().from_frame(4.0, 3.0, side=-1.0)
+        (3.0, 4.0)
+        """
+        ux, uy = self.unit_direction()
+        px, py = float(self.point[0]), float(self.point[1])
+        r = r * side
+        return px + z * ux - r * uy, py + z * uy + r * ux
+
+
+@dataclass(frozen=True)
+class Revolution:
+    """A profile swept about an axis through ``angle_degrees`` in (0, 360]."""
+
+    profile: Profile
+    axis: Axis = field(default_factory=Axis.x)
+    angle_degrees: float = 360.0
+
+    def __post_init__(self):
+        a = self.angle_degrees
+        try:
+            a = float(a)
+        except (TypeError, ValueError):
+            raise ProfileError(f"the revolution angle must be a number, got {a!r}")
+        if not math.isfinite(a) or not (0.0 < a <= 360.0):
+            raise ProfileError(f"the revolution angle must be above 0 and at most 360 degrees, "
+                               f"got {a:g}")
+
+    @property
+    def angle_radians(self) -> float:
+        return math.radians(float(self.angle_degrees))
+
+    @property
+    def full(self) -> bool:
+        return float(self.angle_degrees) == 360.0
