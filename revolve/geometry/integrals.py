@@ -176,10 +176,16 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13):
 
     f = _curve_integrand(curve)
     t0, t1 = curve.t_start, curve.t_end
-    # Break the interval so that quad_vec sees the shape of the curve from the start.
-    pts = np.linspace(t0, t1, 9)[1:-1]
+    mid, half = (t0 + t1) / 2, (t1 - t0) / 2
+
+    # t = mid - half cos φ: square-root behaviour at an end (a vertical tangent)
+    # becomes smooth in φ, so the quadrature converges fast there too.
+    def g(phi):
+        return f(mid - half * math.cos(phi)) * (half * math.sin(phi))
+
+    pts = np.linspace(0.0, math.pi, 9)[1:-1]
     with np.errstate(all="ignore"):
-        val, err = quad_vec(lambda s: f(s), t0, t1, epsabs=0.0, epsrel=rel_tol,
+        val, err = quad_vec(g, 0.0, math.pi, epsabs=0.0, epsrel=rel_tol,
                             points=list(pts), norm="max", limit=2000)
     val = np.asarray(val, dtype=float)
     # quad_vec's err is a norm over all columns; attribute it to each column.

@@ -293,8 +293,11 @@ class Curve:
 
     def evaluate(self, t):
         """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
+        import numpy as np
+
         fx, fy, dfx, dfy = self._functions
-        return fx(t), fy(t), dfx(t), dfy(t)
+        with np.errstate(all="ignore"):
+            return fx(t), fy(t), dfx(t), dfy(t)
 
     @property
     def start(self) -> Point:
@@ -362,8 +365,12 @@ def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None
             vals = c.evaluate(tt)
         except Exception as exc:  # a compiled expression failing is the input's fault
             raise _error(f"the curve cannot be evaluated ({exc})", where)
-    for arr in vals:
+    for k, arr in enumerate(vals):
         bad = ~np.isfinite(arr)
+        if k >= 2:
+            # A derivative may be infinite at an end (a vertical tangent): the integrals
+            # stay finite and the quadrature maps such ends smoothly.
+            bad[[0, -1]] = False
         if bad.any():
             raise _error(f"the curve is not finite at t = {tt[np.argmax(bad)]:g}; "
                          "keep the interval where it is defined", where)

@@ -1,0 +1,293 @@
+"""Predicates on profiles: closure, the side of the axis, self-intersection, nesting.
+
+:func:`prepare` runs every check the engine relies on and returns the profile
+placed in the axis frame (see :mod:`revolve.geometry.frame`). A failed check
+raises :class:`~revolve.errors.ProfileError` naming the segment and, where
+the segment came from a file, the file and line.
+
+Examples
+--------
+>>> from revolve.geometry.profile import Loop, Profile, Axis
+>>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),))
+>>> prep = prepare(ring, Axis.x())
+>>> prep.side, prep.depths
+(1.0, (0,))
+>>> crossing = Profile(loops=(Loop.from_points([(0, -1), (2, -1), (2, 3), (0, 3)]),))
+>>> prepare(crossing, Axis.x())
+Traceback (most recent call last):
+...
+revolve.errors.ProfileError: loop 1, segment 1: the profile crosses the axis here (point (0, -1) is on the other side); a section must lie on one side of the axis, touching it at most
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Optional, Sequence, Tuple
+
+import numpy as np
+
+from revolve.errors import ProfileError
+from revolve.geometry.frame import to_frame
+from revolve.geometry.profile import Axis, Profile
+from revolve.geometry.segments import Arc, Curve, Line, Segment
+
+#: Relative tolerance (of the profile's size) for closure, axis contact and touching.
+RELATIVE_TOLERANCE = 1e-9
+
+
+@dataclass(frozen=True)
+class PreparedProfile:
+    """A checked profile in the axis frame.
+
+    ``paths`` holds the frame segments of each loop, then each chain;
+    ``closed`` says which paths are loops; ``depths`` is each loop's nesting
+    depth (odd = a hole); ``side`` is +1 when the sketch profile lies on the
+    left of the axis direction, -1 when on the right; ``size`` is the diagonal
+    of its bounding box.
+    """
+
+    paths: Tuple[Tuple[Segment, ...], ...]
+    closed: Tuple[bool, ...]
+    depths: Tuple[int, ...]
+    side: float
+    size: float
+    tolerance: float
+
+
+def _place(seg: Segment, path_no: int, seg_no: int, closed: bool) -> str:
+    return f"{'loop' if closed else 'chain'} {path_no}, segment {seg_no}"
+
+
+def _fail(message: str, seg: Optional[Segment] = None, place: Optional[str] = None):
+    where = getattr(seg, "where", None)
+    return ProfileError(message,
+                        file=where.file if where else None,
+                        line=where.line if where else None,
+                        place=(where.place if where and where.place else place))
+
+
+def flatten(seg: Segment, max_angle: float = math.pi / 36, curve_pieces: int = 64) -> np.ndarray:
+    """Points along a segment, start and end included, shape (m + 1, 2).
+
+    >>> flatten(Line((0.0, 0.0), (1.0, 1.0))).tolist()
+    [[0.0, 0.0], [1.0, 1.0]]
+    """
+    if isinstance(seg, Line):
+        return np.array([seg.start, seg.end], dtype=float)
+    if isinstance(seg, Arc):
+        a0, a1 = seg.angles()
+        m = max(2, int(math.ceil(abs(a1 - a0) / max_angle)))
+        a = np.linspace(a0, a1, m + 1)
+        pts = np.column_stack([seg.centre[0] + seg.radius * np.cos(a),
+                               seg.centre[1] + seg.radius * np.sin(a)])
+        pts[0], pts[-1] = seg.start, seg.end
+        return pts
+    if isinstance(seg, Curve):
+        t = np.linspace(seg.t_start, seg.t_end, curve_pieces + 1)
+        x, y, _, _ = seg.evaluate(t)
+        return np.column_stack([x, y])
+    raise TypeError(type(seg).__name__)
+
+
+def _min_distance_from_axis(seg: Segment) -> Tuple[float, Tuple[float, float]]:
+    """Lowest ``r`` along a frame segment and where it occurs (exact for lines and arcs)."""
+    pts = flatten(seg, max_angle=math.pi / 180, curve_pieces=512)
+    if isinstance(seg, Arc):
+        a0, a1 = seg.angles()
+        lo, hi = min(a0, a1), max(a0, a1)
+        k = math.ceil((lo + math.pi / 2) / (2 * math.pi))
+        bottom = -math.pi / 2 + 2 * math.pi * k
+        if lo < bottom < hi:
+            pts = np.vstack([pts, [seg.centre[0], seg.centre[1] - seg.radius]])
+    i = int(np.argmin(pts[:, 1]))
+    return float(pts[i, 1]), (float(pts[i, 0]), float(pts[i, 1]))
+
+
+def _segments_cross(p, q, r, s, tol):
+    """Vectorised test: does chord p-q meet chord r-s (touching counts)?"""
+    def orient(a, b, c):
+        return (b[:, 0] - a[:, 0]) * (c[:, 1] - a[:, 1]) - (b[:, 1] - a[:, 1]) * (c[:, 0] - a[:, 0])
+
+    d1, d2 = orient(r, s, p), orient(r, s, q)
+    d3, d4 = orient(p, q, r), orient(p, q, s)
+    len_pq = np.hypot(*(q - p).T)
+    len_rs = np.hypot(*(s - r).T)
+    # Orientation values are areas: compare with tolerance × length.
+    t_rs = tol * np.maximum(len_rs, tol)
+    t_pq = tol * np.maximum(len_pq, tol)
+    proper = (((d1 > t_rs) & (d2 < -t_rs)) | ((d1 < -t_rs) & (d2 > t_rs))) & \
+             (((d3 > t_pq) & (d4 < -t_pq)) | ((d3 < -t_pq) & (d4 > t_pq)))
+
+    def on_segment(a, b, c, d, t):
+        # c lies on a-b (|d| small) within its bounding box
+        inside = (np.minimum(a[:, 0], b[:, 0]) - tol <= c[:, 0]) & (c[:, 0] <= np.maximum(a[:, 0], b[:, 0]) + tol) & \
+                 (np.minimum(a[:, 1], b[:, 1]) - tol <= c[:, 1]) & (c[:, 1] <= np.maximum(a[:, 1], b[:, 1]) + tol)
+        return (np.abs(d) <= t) & inside
+
+    touch = on_segment(r, s, p, d1, t_rs) | on_segment(r, s, q, d2, t_rs) | \
+        on_segment(p, q, r, d3, t_pq) | on_segment(p, q, s, d4, t_pq)
+    return proper | touch
+
+
+def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
+                           chunk: int = 2_000_000) -> Optional[Tuple[int, int, int, int]]:
+    """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
+
+    ``chains`` holds each path's points (m + 1, 2). Candidate pairs come from a
+    sweep over x extents, so a profile with n chords costs about O(n log n).
+
+    >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
+    >>> find_self_intersection(bow, [True], 1e-9)
+    (0, 0, 0, 2)
+    >>> square = [np.array([[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]], dtype=float)]
+    >>> find_self_intersection(square, [True], 1e-9) is None
+    True
+    """
+    starts, ends, path_of, index_of, count_of = [], [], [], [], []
+    for k, pts in enumerate(chains):
+        m = len(pts) - 1
+        starts.append(pts[:-1])
+        ends.append(pts[1:])
+        path_of.append(np.full(m, k))
+        index_of.append(np.arange(m))
+        count_of.append(np.full(m, m))
+    if not starts:
+        return None
+    a = np.vstack(starts)
+    b = np.vstack(ends)
+    path = np.concatenate(path_of)
+    idx = np.concatenate(index_of)
+    cnt = np.concatenate(count_of)
+    is_closed = np.asarray(closed, dtype=bool)[path]
+    xmin = np.minimum(a[:, 0], b[:, 0]) - tol
+    xmax = np.maximum(a[:, 0], b[:, 0]) + tol
+    order = np.argsort(xmin, kind="stable")
+    xs = xmin[order]
+    hi = np.searchsorted(xs, xmax[order], side="right")
+    span = hi - np.arange(len(order)) - 1
+    span = np.maximum(span, 0)
+    total = int(span.sum())
+    best = None
+    pos = 0
+    starts_cum = np.concatenate([[0], np.cumsum(span)])
+    while pos < total:
+        stop = min(total, pos + chunk)
+        # Pairs numbered pos..stop: owner i (sorted position) and partner j.
+        k = np.arange(pos, stop)
+        i_sorted = np.searchsorted(starts_cum, k, side="right") - 1
+        j_sorted = i_sorted + 1 + (k - starts_cum[i_sorted])
+        i, j = order[i_sorted], order[j_sorted]
+        same = path[i] == path[j]
+        diff = np.abs(idx[i] - idx[j])
+        adjacent = same & ((diff == 1) | (is_closed[i] & (diff == cnt[i] - 1)))
+        ymin_i = np.minimum(a[i, 1], b[i, 1]); ymax_i = np.maximum(a[i, 1], b[i, 1])
+        ymin_j = np.minimum(a[j, 1], b[j, 1]); ymax_j = np.maximum(a[j, 1], b[j, 1])
+        keep = (~adjacent) & (i != j) & (ymin_i <= ymax_j + tol) & (ymin_j <= ymax_i + tol)
+        i, j = i[keep], j[keep]
+        if i.size:
+            hit = _segments_cross(a[i], b[i], a[j], b[j], tol)
+            if hit.any():
+                cand = [(int(path[x]), int(idx[x]), int(path[y]), int(idx[y]))
+                        for x, y in zip(i[hit], j[hit])]
+                cand = [c if (c[0], c[1]) <= (c[2], c[3]) else (c[2], c[3], c[0], c[1]) for c in cand]
+                m = min(cand)
+                best = m if best is None else min(best, m)
+        pos = stop
+    return best
+
+
+def _point_in_polygon(px: float, py: float, poly: np.ndarray) -> bool:
+    """Even-odd rule, vectorised over the polygon's edges."""
+    x0, y0 = poly[:-1, 0], poly[:-1, 1]
+    x1, y1 = poly[1:, 0], poly[1:, 1]
+    crosses = (y0 > py) != (y1 > py)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        xi = x0 + (py - y0) * (x1 - x0) / (y1 - y0)
+    return bool(np.count_nonzero(crosses & (px < xi)) % 2)
+
+
+def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
+    """Check a profile against an axis and place it in the axis frame."""
+    paths = profile.paths
+    if not paths:
+        raise ProfileError("the profile has no loops or chains; give at least one closed loop")
+    closed = tuple(p.closed for p in paths)
+    # Sketch points of every segment, for size, side and intersections.
+    flat = [[flatten(s) for s in p.segments] for p in paths]
+    allpts = np.vstack([f for fs in flat for f in fs]) if any(flat) else np.zeros((0, 2))
+    if allpts.size == 0:
+        raise ProfileError("the profile has no segments")
+    if not np.all(np.isfinite(allpts)):
+        raise ProfileError("the profile has a coordinate that is not a finite number")
+    size = float(np.hypot(*(allpts.max(axis=0) - allpts.min(axis=0))))
+    if size == 0:
+        raise ProfileError("the profile has zero size: every point is the same")
+    tol = RELATIVE_TOLERANCE * size
+    for k, p in enumerate(paths, start=1):
+        segs = p.segments
+        if not segs:
+            raise ProfileError(f"{'loop' if p.closed else 'chain'} {k} has no segments")
+        for j, s in enumerate(segs, start=1):
+            if s.length() <= tol:
+                raise _fail("this segment has zero length; remove it", s, _place(s, k, j, p.closed))
+            if j > 1:
+                prev = segs[j - 2].end
+                gap = math.hypot(s.start[0] - prev[0], s.start[1] - prev[1])
+                if gap > tol:
+                    raise _fail(f"this segment starts at ({s.start[0]:g}, {s.start[1]:g}) but the "
+                                f"previous one ends at ({prev[0]:g}, {prev[1]:g}); segments must join",
+                                s, _place(s, k, j, p.closed))
+        if p.closed:
+            first, last = segs[0].start, segs[-1].end
+            gap = math.hypot(first[0] - last[0], first[1] - last[1])
+            if gap > tol:
+                s = segs[-1]
+                raise _fail(f"the loop is not closed: it ends at ({last[0]:g}, {last[1]:g}) but "
+                            f"starts at ({first[0]:g}, {first[1]:g}); add a segment back to the start",
+                            s, _place(s, k, len(segs), True))
+    # Which side of the axis?
+    z_all, r_all = axis.to_frame(allpts[:, 0], allpts[:, 1])
+    far = int(np.argmax(np.abs(r_all)))
+    if abs(r_all[far]) <= tol:
+        raise ProfileError("the whole profile lies on the axis; it would sweep nothing")
+    side = 1.0 if r_all[far] > 0 else -1.0
+    frame_paths = []
+    for k, p in enumerate(paths, start=1):
+        fsegs = tuple(to_frame(s, axis, side) for s in p.segments)
+        for j, (s, fs) in enumerate(zip(p.segments, fsegs), start=1):
+            rmin, (zq, rq) = _min_distance_from_axis(fs)
+            if rmin < -tol:
+                x, y = axis.from_frame(zq, rq, side)
+                raise _fail(f"the profile crosses the axis here (point ({x:.6g}, {y:.6g}) is on the "
+                            "other side); a section must lie on one side of the axis, touching it "
+                            "at most", s, _place(s, k, j, p.closed))
+        frame_paths.append(fsegs)
+    # Self-intersection, loops and chains together (in the sketch: a rigid map changes nothing).
+    chords = [np.vstack([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2)) for fs in flat]
+    hit = find_self_intersection(chords, closed, tol)
+    if hit is not None:
+        pa, ca, pb, cb = hit
+        sa = _chord_owner(flat[pa], ca)
+        sb = _chord_owner(flat[pb], cb)
+        seg_a = paths[pa].segments[sa]
+        other = _place(None, pb + 1, sb + 1, closed[pb])
+        raise _fail(f"the profile intersects itself: this segment meets {other}; "
+                    "a section boundary must not cross or touch itself", seg_a,
+                    _place(seg_a, pa + 1, sa + 1, closed[pa]))
+    # Nesting depth of each loop (odd = hole).
+    loops = [chords[k] for k in range(len(paths)) if closed[k]]
+    depths = []
+    for k, poly in enumerate(loops):
+        px, py = poly[0]
+        if len(poly) > 1:
+            px, py = (poly[0] + poly[1]) / 2
+        depths.append(sum(_point_in_polygon(px, py, other)
+                          for m, other in enumerate(loops) if m != k))
+    return PreparedProfile(tuple(frame_paths), closed, tuple(depths), side, size, tol)
+
+
+def _chord_owner(flat_segments: Sequence[np.ndarray], chord: int) -> int:
+    """Index of the segment that a path's chord number belongs to."""
+    counts = np.cumsum([len(f) - 1 for f in flat_segments])
+    return int(np.searchsorted(counts, chord, side="right"))
