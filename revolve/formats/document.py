@@ -1,0 +1,79 @@
+"""What a profile reader returns: the profile and the settings written beside it.
+
+Examples
+--------
+>>> from revolve.geometry.profile import Loop, Profile
+>>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)))
+>>> doc.axis is None, doc.angle_degrees, doc.exact, doc.name
+(True, None, True, None)
+>>> doc.line_of("angle") is None
+True
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Mapping, Optional
+
+from revolve.geometry.profile import Axis, Profile
+from revolve.geometry.segments import Where
+
+
+@dataclass(frozen=True)
+class ProfileDocument:
+    """A profile read from a file, with the axis, angle and material the file gives.
+
+    Attributes
+    ----------
+    profile : Profile
+        The loops and chains, with ``unit`` and ``file`` set.
+    axis : Axis or None
+        The axis the file gives, or None when it gives none (the caller's
+        default then applies, normally the sketch x axis).
+    angle_degrees : float or None
+        Sweep angle in (0, 360], or None when not given.
+    material : str or None
+        Material name as written (the caller looks it up).
+    density : str or None
+        Density text as written, e.g. ``"7850 kg/m^3"`` (the caller resolves it).
+    exact : bool
+        True when every number came from an integer, a decimal literal or an
+        expression, so exact results can be derived from the segments'
+        ``exact`` inputs.
+    source_lines : Mapping[str, int]
+        Line numbers of parts of the file (``"material"``, ``"density"``,
+        ``"angle"``, ``"axis"``, ``"loop 1"``, ``"loop 1, segment 3"``, ...)
+        so that later errors about them can name the line.
+    """
+
+    profile: Profile
+    axis: Optional[Axis] = None
+    angle_degrees: Optional[float] = None
+    material: Optional[str] = None
+    density: Optional[str] = None
+    exact: bool = True
+    source_lines: Mapping[str, int] = field(default_factory=dict, compare=False, hash=False)
+
+    @property
+    def name(self) -> Optional[str]:
+        """The profile's name, if the file gives one."""
+        return self.profile.name
+
+    @property
+    def file(self) -> Optional[str]:
+        """The file name as given to the reader."""
+        return self.profile.file
+
+    def line_of(self, part: str) -> Optional[int]:
+        """Line number of ``part`` (e.g. ``"density"``), or None when unknown."""
+        return self.source_lines.get(part)
+
+    def where(self, part: str) -> Where:
+        """A :class:`Where` for errors about ``part`` of the file.
+
+        >>> from revolve.geometry.profile import Profile
+        >>> doc = ProfileDocument(Profile(file="a.toml"), source_lines={"density": 4})
+        >>> str(doc.where("density"))
+        'a.toml:4: density'
+        """
+        return Where(file=self.file, line=self.line_of(part), place=part)

@@ -1,0 +1,549 @@
+'''The project's profile file (TOML): its schema and its reader.
+
+Schema
+------
+Every length is in the file's ``units``; every number may be an integer, a
+decimal, or a string holding an expression (``"sqrt(3)*10"``, ``"pi/2"``) that
+is read by the whitelist parser in :mod:`revolve.expr`::
+
+    name = "Flanged bushing"      # optional
+    units = "mm"                  # optional, default "mm": the unit of every coordinate
+    material = "carbon steel"     # optional; or density = "7850 kg/m^3" (not both)
+    angle = 360                   # optional, degrees, above 0 and at most 360
+
+    [axis]                        # optional; without it the caller's default (sketch x axis)
+    along = "x"                   # "x" or "y"; or instead both of
+    # point = [0, 0]
+    # direction = [1, 0]
+
+    [[loop]]                      # a closed loop; repeat for more (a loop inside another is a hole)
+    face = "outside"              # optional face name for segments that give none
+    start = [0, 10]
+    segments = [
+      { line_to = [40, 10], face = "bore" },
+      { arc_to = [50, 20], radius = 10, side = "left" },   # optional major = true
+      { arc_to = [60, 10], centre = [60, 20], turn = "cw" },
+      { y = "40 - x^2/90", to_x = 60 },
+      { x = "12 + y^2/50", to_y = 0 },
+      { x = "25*cos(t)", y = "25*sin(t)", t_from = 0, t_to = "pi/2" },
+      { close = true },
+    ]
+
+    [[chain]]                     # an open chain: a surface only (sheet, shell)
+    start = [0, 50]
+    segments = [ { line_to = [10, 50] } ]
+
+Segment kinds, each written as one inline table and each starting where the
+previous one ended (the first at ``start``):
+
+``line_to = [x, y]``
+    a straight line to the point.
+``arc_to = [x, y], radius = r, side = "left" | "right"``
+    a circular arc of radius ``r`` lying on that side of the chord, looking
+    from its start to its end; ``major = true`` takes the arc longer than a
+    half circle.
+``arc_to = [x, y], centre = [cx, cy], turn = "cw" | "ccw"``
+    a circular arc about the centre, clockwise or counter-clockwise.
+``y = "f(x)", to_x = b``
+    the curve y = f(x) from the current point to x = b.
+``x = "g(y)", to_y = b``
+    the curve x = g(y) from the current point to y = b.
+``x = "x(t)", y = "y(t)", t_from = a, t_to = b``
+    a parametric curve.
+``close = true``
+    a straight line back to the loop's start (last segment of a loop only;
+    nothing is added when the loop is already back at its start).
+
+Every segment may carry ``face = "name"``. A curve must start at the current
+point (within 1e-9 of the profile's size). Whether loops close and do not
+cross is checked later, by the engine.
+
+Examples
+--------
+>>> doc = parse_profile_text("""
+... units = "mm"
+... angle = 180
+... [[loop]]
+... start = [0, 10]
+... segments = [
+...   { line_to = [40, 10], face = "bore" },
+...   { line_to = [40, 20] },
+...   { arc_to = [0, 20], radius = 20, side = "left" },
+...   { close = true },
+... ]
+... """, file="bush.toml")
+>>> doc.angle_degrees, doc.profile.unit, len(doc.profile.loops[0].segments)
+(180.0, 'mm', 4)
+>>> seg = doc.profile.loops[0].segments[0]
+>>> seg.end, seg.face, str(seg.where)
+((40.0, 10.0), 'bore', 'bush.toml:7: loop 1, segment 1')
+>>> parse_profile_text("unit = 'mm'", file="a.toml")
+Traceback (most recent call last):
+...
+revolve.errors.FormatError: a.toml:1: unknown key "unit"; did you mean "units"?
+'''
+
+from __future__ import annotations
+
+import difflib
+import math
+import re
+from decimal import Decimal
+from fractions import Fraction
+from typing import Any, Dict, Iterable, List, Optional, Tuple
+
+try:  # Python 3.11+
+    import tomllib
+except ModuleNotFoundError:  # pragma: no cover - Python 3.10
+    import tomli as tomllib  # type: ignore[no-redef]
+
+from revolve.errors import ExpressionError, FormatError, SegmentError
+from revolve.formats.document import ProfileDocument
+from revolve.formats.files import read_text
+from revolve.formats.source_lines import scan_lines
+from revolve.formats.values import (Value, check_length_unit, describe, exact_to_sympy, fail,
+                                    number, point)
+from revolve.geometry.profile import Axis, Chain, Loop, Profile
+from revolve.geometry.segments import (Line, Where, arc_from_centre, arc_from_radius,
+                                       curve_from_expressions)
+
+#: Keys allowed at the top of the file.
+TOP_KEYS = ("name", "units", "material", "density", "angle", "axis", "loop", "chain")
+#: Keys allowed in a [[loop]] or [[chain]] table.
+PATH_KEYS = ("face", "start", "segments")
+#: Keys allowed in the [axis] table.
+AXIS_KEYS = ("along", "point", "direction")
+#: Required and optional keys of each segment shape.
+SHAPES: Dict[str, Tuple[Tuple[str, ...], Tuple[str, ...]]] = {
+    "line": (("line_to",), ("face",)),
+    "arc by radius": (("arc_to", "radius", "side"), ("major", "face")),
+    "arc by centre": (("arc_to", "centre", "turn"), ("face",)),
+    "curve y(x)": (("y", "to_x"), ("face",)),
+    "curve x(y)": (("x", "to_y"), ("face",)),
+    "parametric curve": (("x", "y", "t_from", "t_to"), ("face",)),
+    "close": (("close",), ("face",)),
+}
+#: Every key a segment may have.
+SEGMENT_KEYS = tuple(dict.fromkeys(k for req, opt in SHAPES.values() for k in req + opt))
+_CURVE_KEYS = ("x", "y", "to_x", "to_y", "t_from", "t_to")
+#: Largest allowed distance of a curve's start from the current point, times the profile's size.
+CURVE_START_TOLERANCE = 1e-9
+
+_DEFAULT_UNIT = "mm"
+
+
+def read_profile_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
+    """Read a profile file (TOML) from ``path``.
+
+    Parameters
+    ----------
+    path : str
+        File name; used as given in every message and ``Where``.
+    unit : str, optional
+        Length unit to use when the file gives no ``units``; a file that
+        gives a different one is refused rather than silently rescaled.
+
+    Returns
+    -------
+    ProfileDocument
+
+    Examples
+    --------
+    >>> read_profile_file("missing.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: missing.toml: no such file; check the name and folder
+    """
+    return parse_profile_text(read_text(path), file=path, unit=unit)
+
+
+def parse_profile_text(text: str, *, file: Optional[str] = None,
+                       unit: Optional[str] = None) -> ProfileDocument:
+    """Read a profile from the text of a profile file.
+
+    Parameters
+    ----------
+    text : str
+        The TOML text.
+    file : str, optional
+        File name for messages.
+    unit : str, optional
+        As for :func:`read_profile_file`.
+
+    Returns
+    -------
+    ProfileDocument
+
+    Raises
+    ------
+    FormatError
+        Malformed TOML, unknown keys, wrong types, NaN or infinity, both
+        material and density, an empty loop, an unknown axis, ``close`` in a
+        chain, an empty file.
+    SegmentError
+        An impossible segment (arc radius too short, curve not starting at
+        the current point, ...).
+    ExpressionError
+        An expression refused by :mod:`revolve.expr`, located at its segment.
+
+    Examples
+    --------
+    >>> parse_profile_text('units = "mm"\\nangle = ]', file="a.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:2: malformed TOML: Invalid value (at line 2, column 9)
+    >>> parse_profile_text("  \\n", file="a.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml: the file is empty
+    """
+    if not text.strip():
+        raise FormatError("the file is empty", file=file)
+    try:
+        data = tomllib.loads(text, parse_float=Decimal)
+    except tomllib.TOMLDecodeError as exc:
+        message = str(exc)
+        found = re.search(r"at line (\d+)", message)
+        raise FormatError(f"malformed TOML: {message}", file=file,
+                          line=int(found.group(1)) if found else None) from None
+    return _Reader(file, scan_lines(text)).document(data, unit)
+
+
+def _suggestion(key: str, options: Iterable[str]) -> str:
+    """'; did you mean "x"?' or the list of valid keys."""
+    options = list(options)
+    close = difflib.get_close_matches(key, options, n=1, cutoff=0.6)
+    if close:
+        return f'; did you mean "{close[0]}"?'
+    return "; the keys here are " + ", ".join(options)
+
+
+class _Reader:
+    """Turns decoded TOML into a document; knows the file and the line map."""
+
+    def __init__(self, file: Optional[str], lines: Dict[str, int]):
+        self.file = file
+        self.lines = lines
+        self.curve_checks: List[tuple] = []
+
+    def where(self, key: str, place: Optional[str] = None) -> Where:
+        """Where for the part ``key`` of the line map, shown as ``place``."""
+        line = self.lines.get(key)
+        if line is None and "." in key:
+            line = self.lines.get(key.rsplit(".", 1)[0])
+        return Where(self.file, line, place)
+
+    # -- the whole file ---------------------------------------------------------------
+
+    def document(self, data: Dict[str, Any], unit: Optional[str]) -> ProfileDocument:
+        for key in data:
+            if key not in TOP_KEYS:
+                hint = _suggestion(key, TOP_KEYS)
+                if key in PATH_KEYS or key in SEGMENT_KEYS:
+                    hint = "; it belongs under a [[loop]] or [[chain]] header"
+                raise fail(f'unknown key "{key}"{hint}', self.where(key))
+        name = self.text(data, "name")
+        units = self.units(data, unit)
+        material = self.text(data, "material")
+        density = data.get("density")
+        if density is not None and not isinstance(density, str):
+            raise fail(f"density needs its unit: write it as text such as "
+                       f'density = "7850 kg/m^3", got {describe(density)}',
+                       self.where("density", "density"))
+        if density is not None and not density.strip():
+            raise fail("density is empty", self.where("density", "density"))
+        if material is not None and density is not None:
+            raise fail("give material or density, not both",
+                       self.where("density", "density"))
+        angle = self.angle(data.get("angle"))
+        axis = self.axis(data["axis"]) if "axis" in data else None
+        loops = tuple(self.path("loop", i, t) for i, t in self.tables(data, "loop"))
+        chains = tuple(self.path("chain", i, t) for i, t in self.tables(data, "chain"))
+        if not loops and not chains:
+            raise FormatError("the file has no [[loop]] or [[chain]]; a profile needs at least "
+                              "one", file=self.file)
+        self.check_curve_starts(loops + chains)
+        profile = Profile(loops=loops, chains=chains, unit=units, name=name, file=self.file)
+        return ProfileDocument(profile=profile, axis=axis, angle_degrees=angle,
+                               material=material, density=density, exact=True,
+                               source_lines=dict(self.lines))
+
+    def text(self, data: Dict[str, Any], key: str) -> Optional[str]:
+        value = data.get(key)
+        if value is None:
+            return None
+        if not isinstance(value, str) or not value.strip():
+            raise fail(f"{key} must be a non-empty text in quotes, got {describe(value)}",
+                       self.where(key, key))
+        return value.strip()
+
+    def units(self, data: Dict[str, Any], unit: Optional[str]) -> str:
+        written = self.text(data, "units")
+        where = self.where("units", "units")
+        if written is not None and unit is not None and written != unit:
+            raise fail(f'the file gives units = "{written}" but "{unit}" was asked for; '
+                       "remove one of the two", where)
+        chosen = written or unit or _DEFAULT_UNIT
+        check_length_unit(chosen, where if written is not None else Where(self.file))
+        return chosen
+
+    def angle(self, raw: Any) -> Optional[float]:
+        if raw is None:
+            return None
+        where = self.where("angle", "angle")
+        value = number(raw, "angle", where).value
+        if not 0.0 < value <= 360.0:
+            raise fail(f"angle must be above 0 and at most 360 degrees, got {value:g}", where)
+        return value
+
+    def tables(self, data: Dict[str, Any], kind: str) -> List[Tuple[int, Any]]:
+        raw = data.get(kind, [])
+        if isinstance(raw, dict):
+            raise fail(f"write [[{kind}]] with two brackets, one header for each {kind}",
+                       self.where(kind, kind))
+        if not isinstance(raw, list):
+            raise fail(f"{kind} must be given as [[{kind}]] tables, got {describe(raw)}",
+                       self.where(kind, kind))
+        return list(enumerate(raw, 1))
+
+    # -- axis -------------------------------------------------------------------------
+
+    def axis(self, raw: Any) -> Axis:
+        where = self.where("axis", "axis")
+        if not isinstance(raw, dict):
+            raise fail(f'axis must be a table ([axis] with along = "x", or point and direction), '
+                       f"got {describe(raw)}", where)
+        for key in raw:
+            if key not in AXIS_KEYS:
+                raise fail(f'unknown key "{key}" in the axis{_suggestion(key, AXIS_KEYS)}',
+                           self.where(f"axis.{key}", "axis"))
+        zero, one = Fraction(0), Fraction(1)
+        if "along" in raw:
+            if "point" in raw or "direction" in raw:
+                raise fail("give the axis as along, or as point and direction, not both", where)
+            along = raw["along"]
+            if along in ("x", "y"):
+                direction = (one, zero) if along == "x" else (zero, one)
+                return Axis((0.0, 0.0), (float(direction[0]), float(direction[1])),
+                            exact=((zero, zero), direction))
+            raise fail(f'unknown axis {describe(along)}: along must be "x" or "y" '
+                       "(or give point and direction)", self.where("axis.along", "axis"))
+        if "point" not in raw or "direction" not in raw:
+            raise fail('the axis needs along = "x" or "y", or both point and direction', where)
+        px, py = point(raw["point"], "axis point", self.where("axis.point", "axis"))
+        dx, dy = point(raw["direction"], "axis direction", self.where("axis.direction", "axis"))
+        if dx.value == 0 and dy.value == 0:
+            raise fail("the axis direction is zero; give a direction such as [1, 0]",
+                       self.where("axis.direction", "axis"))
+        return Axis((px.value, py.value), (dx.value, dy.value),
+                    exact=((px.exact, py.exact), (dx.exact, dy.exact)))
+
+    # -- loops and chains -------------------------------------------------------------
+
+    def path(self, kind: str, index: int, table: Any):
+        label = f"{kind} {index}"
+        where = self.where(label, label)
+        if not isinstance(table, dict):
+            raise fail(f"{label} must be a table, got {describe(table)}", where)
+        for key in table:
+            if key not in PATH_KEYS:
+                hint = _suggestion(key, PATH_KEYS)
+                if key in SEGMENT_KEYS:
+                    hint = "; segment keys belong inside segments = [ {...}, ... ]"
+                raise fail(f'unknown key "{key}" in the {kind}{hint}',
+                           self.where(f"{label}.{key}", label))
+        face = self.face(table.get("face"), self.where(f"{label}.face", label))
+        if "start" not in table:
+            raise fail(f"the {kind} has no start point; add start = [x, y]", where)
+        start = point(table["start"], "start", self.where(f"{label}.start", f"{label}, start"))
+        raw_segments = table.get("segments")
+        if raw_segments is None or raw_segments == []:
+            raise fail(f"the {kind} has no segments; add segments = [ {{ line_to = [x, y] }}, ... ]",
+                       where)
+        if not isinstance(raw_segments, list):
+            raise fail(f"segments must be a list of inline tables, got {describe(raw_segments)}",
+                       self.where(f"{label}.segments", label))
+        current = start
+        segments = []
+        for j, raw in enumerate(raw_segments, 1):
+            place = f"{label}, segment {j}"
+            seg_where = Where(self.file, self.lines.get(place), place)
+            segment, current = self.segment(raw, kind, current, start, face, seg_where,
+                                             last=j == len(raw_segments))
+            if segment is not None:
+                segments.append(segment)
+        if not segments:
+            raise fail(f"the {kind} has no segments besides close", where)
+        return (Loop if kind == "loop" else Chain)(tuple(segments), where=where)
+
+    def face(self, raw: Any, where: Where) -> Optional[str]:
+        if raw is None:
+            return None
+        if not isinstance(raw, str) or not raw.strip():
+            raise fail(f"face must be a non-empty name in quotes, got {describe(raw)}", where)
+        return raw.strip()
+
+    # -- segments ---------------------------------------------------------------------
+
+    def shape(self, raw: Dict[str, Any], where: Where) -> str:
+        kinds = [k for k in ("line_to", "arc_to", "close") if k in raw]
+        if any(k in raw for k in _CURVE_KEYS):
+            kinds.append("a curve (x/y)")
+        if not kinds:
+            raise fail("the segment has no kind; give line_to, arc_to, a curve (x and/or y) "
+                       "or close = true", where)
+        if len(kinds) > 1:
+            raise fail(f"the segment is ambiguous: it has {' and '.join(kinds)}; "
+                       "give one kind per segment", where)
+        kind = kinds[0]
+        if kind == "line_to":
+            return "line"
+        if kind == "close":
+            return "close"
+        if kind == "arc_to":
+            if "radius" in raw and "centre" in raw:
+                raise fail("give the arc a radius (with side) or a centre (with turn), not both",
+                           where)
+            if "radius" in raw:
+                return "arc by radius"
+            if "centre" in raw:
+                return "arc by centre"
+            raise fail('arc_to needs radius = r with side = "left" or "right", '
+                       'or centre = [x, y] with turn = "cw" or "ccw"', where)
+        if "x" in raw and "y" in raw:
+            return "parametric curve"
+        if "y" in raw:
+            return "curve y(x)"
+        if "x" in raw:
+            return "curve x(y)"
+        raise fail('a curve needs expressions: y = "f(x)" with to_x, x = "g(y)" with to_y, '
+                   "or x and y of t with t_from and t_to", where)
+
+    def segment(self, raw: Any, kind: str, current, start, default_face, where: Where,
+                last: bool):
+        """One segment from ``current``; returns it (or None) and the new current point."""
+        if not isinstance(raw, dict):
+            raise fail("a segment must be an inline table such as { line_to = [x, y] }, "
+                       f"got {describe(raw)}", where)
+        for key in raw:
+            if key not in SEGMENT_KEYS:
+                raise fail(f'unknown key "{key}" in the segment{_suggestion(key, SEGMENT_KEYS)}',
+                           where)
+        shape = self.shape(raw, where)
+        required, optional = SHAPES[shape]
+        for key in raw:
+            if key not in required and key not in optional:
+                raise fail(f'"{key}" does not belong in a segment that is a {shape}', where)
+        for key in required:
+            if key not in raw:
+                raise fail(f'a {shape} needs "{key}"', where)
+        face = self.face(raw.get("face"), where) or default_face
+        p0 = (current[0].value, current[1].value)
+        e0 = (current[0].exact, current[1].exact)
+        if shape == "close":
+            if raw["close"] is not True:
+                raise fail(f"close must be true, got {describe(raw['close'])}; "
+                           "remove it if the loop is not to be closed here", where)
+            if kind == "chain":
+                raise fail("close belongs in a loop only; a chain is open (end it with line_to, "
+                           "or make it a [[loop]])", where)
+            if not last:
+                raise fail("close must be the last segment of its loop", where)
+            if p0 == (start[0].value, start[1].value):
+                return None, current
+            return Line(p0, (start[0].value, start[1].value), face=face, where=where,
+                        exact=e0 + (start[0].exact, start[1].exact)), start
+        if shape == "line":
+            x1, y1 = point(raw["line_to"], "line_to", where)
+            return Line(p0, (x1.value, y1.value), face=face, where=where,
+                        exact=e0 + (x1.exact, y1.exact)), (x1, y1)
+        if shape.startswith("arc"):
+            x1, y1 = point(raw["arc_to"], "arc_to", where)
+            p1, e1 = (x1.value, y1.value), (x1.exact, y1.exact)
+            if shape == "arc by radius":
+                radius = number(raw["radius"], "radius", where)
+                side = self.choice(raw["side"], "side", ("left", "right"), where)
+                major = raw.get("major", False)
+                if not isinstance(major, bool):
+                    raise fail(f"major must be true or false, got {describe(major)}", where)
+                arc = arc_from_radius(p0, p1, radius.value, side=side, major=major, face=face,
+                                      where=where,
+                                      exact=("radius", e0, e1, radius.exact, side, major))
+            else:
+                cx, cy = point(raw["centre"], "centre", where)
+                turn = self.choice(raw["turn"], "turn", ("cw", "ccw"), where)
+                arc = arc_from_centre(p0, p1, (cx.value, cy.value), clockwise=turn == "cw",
+                                      face=face, where=where,
+                                      exact=("centre", e0, e1, (cx.exact, cy.exact),
+                                             turn == "cw"))
+            return arc, (x1, y1)
+        return self.curve(raw, shape, current, face, where)
+
+    def choice(self, raw: Any, key: str, options: Tuple[str, ...], where: Where) -> str:
+        if raw in options:
+            return raw
+        listed = " or ".join(f'"{o}"' for o in options)
+        raise fail(f"{key} must be {listed}, got {describe(raw)}", where)
+
+    def expression(self, raw: Any, key: str, variable: str, where: Where):
+        if not isinstance(raw, str):
+            example = {"x": "12 + y^2/50", "y": "40 - x^2/90"}[key] if variable != "t" \
+                else "25*cos(t)"
+            raise fail(f'{key} must be an expression in quotes such as {key} = "{example}", '
+                       f"got {describe(raw)}", where)
+        from revolve.expr import parse_expression
+
+        try:
+            return parse_expression(raw, variables=(variable,))
+        except ExpressionError as exc:
+            raise exc.located(file=where.file, line=where.line, place=where.place) from None
+
+    def curve(self, raw: Dict[str, Any], shape: str, current, face, where: Where):
+        import sympy
+
+        t = sympy.Symbol("t", real=True)
+        if shape == "parametric curve":
+            x_expr = self.expression(raw["x"], "x", "t", where)
+            y_expr = self.expression(raw["y"], "y", "t", where)
+            t0 = number(raw["t_from"], "t_from", where)
+            t1 = number(raw["t_to"], "t_to", where)
+            end_exact = None
+        elif shape == "curve y(x)":
+            x = sympy.Symbol("x", real=True)
+            x_expr, y_expr = t, self.expression(raw["y"], "y", "x", where).xreplace({x: t})
+            t0, t1 = current[0], number(raw["to_x"], "to_x", where)
+            end_exact = (t1.exact, None)
+        else:
+            y = sympy.Symbol("y", real=True)
+            x_expr, y_expr = self.expression(raw["x"], "x", "y", where).xreplace({y: t}), t
+            t0, t1 = current[1], number(raw["to_y"], "to_y", where)
+            end_exact = (None, t1.exact)
+        curve = curve_from_expressions(x_expr, y_expr, t0.value, t1.value, face=face,
+                                       where=where, exact=(t0.exact, t1.exact))
+        self.curve_checks.append((curve, (current[0].value, current[1].value), where))
+        t_end = exact_to_sympy(t1.exact)
+        ex = end_exact[0] if end_exact and end_exact[0] is not None else x_expr.xreplace({t: t_end})
+        ey = end_exact[1] if end_exact and end_exact[1] is not None else y_expr.xreplace({t: t_end})
+        x_end, y_end = curve.end
+        return curve, (Value(x_end, ex), Value(y_end, ey))
+
+    def check_curve_starts(self, paths) -> None:
+        """Each curve must start at the current point, within a tolerance scaled to the size."""
+        if not self.curve_checks:
+            return
+        xs, ys = [], []
+        for path in paths:
+            for seg in path.segments:
+                for px, py in (seg.start, seg.end):
+                    xs.append(px)
+                    ys.append(py)
+        size = math.hypot(max(xs) - min(xs), max(ys) - min(ys))
+        tolerance = CURVE_START_TOLERANCE * size
+        for curve, expected, where in self.curve_checks:
+            sx, sy = curve.start
+            if math.hypot(sx - expected[0], sy - expected[1]) > tolerance:
+                raise SegmentError(
+                    f"the curve starts at ({sx:.12g}, {sy:.12g}) but the current point is "
+                    f"({expected[0]:.12g}, {expected[1]:.12g}); make the curve start where the "
+                    "previous segment ends", file=where.file, line=where.line,
+                    place=where.place)

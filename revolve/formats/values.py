@@ -1,0 +1,364 @@
+"""Numbers in profile files: plain literals kept exact, expression strings parsed safely.
+
+A number in a profile file is an integer, a decimal literal or a string
+holding an expression such as ``"sqrt(3)*10"``. Each is turned into a
+:class:`Value`: the float the engine works with and the exact input, which is
+
+* a :class:`fractions.Fraction` for integers and decimal literals (no sympy
+  is imported for these, to keep start-up fast),
+* the original string for an expression (parsed by
+  :func:`revolve.expr.parse_number`, never by Python's own evaluator), or
+* a sympy expression for a coordinate that was computed, e.g. the end of a
+  curve.
+
+:func:`exact_to_sympy` turns any of the three into a sympy number and
+:func:`exact_literal` writes one back as TOML text.
+
+Examples
+--------
+>>> from decimal import Decimal, localcontext
+>>> number(Decimal("0.1"), "x")
+Value(value=0.1, exact=Fraction(1, 10))
+>>> number(7, "x")
+Value(value=7.0, exact=Fraction(7, 1))
+>>> number("2.5e1", "x")
+Value(value=25.0, exact=Fraction(25, 1))
+>>> number(True, "radius")
+Traceback (most recent call last):
+...
+revolve.errors.FormatError: radius must be a number, got true
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from decimal import Decimal, localcontext
+from fractions import Fraction
+from typing import Any, NamedTuple, Optional
+
+from revolve.errors import ExpressionError, FormatError
+from revolve.geometry.segments import Where
+
+#: A plain decimal literal (what ``Fraction`` reads exactly), with optional sign and exponent.
+PLAIN_NUMBER = re.compile(r"\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*\Z")
+
+#: Digits carried when evaluating an exact expression to a float (then rounded once).
+EVALUATION_DIGITS = 30
+
+
+class Value(NamedTuple):
+    """A number as the engine uses it (``value``) and as it was written (``exact``)."""
+
+    value: float
+    exact: Any
+
+
+def fail(message: str, where: Optional[Where]) -> FormatError:
+    """A :class:`FormatError` at ``where``.
+
+    >>> str(fail("bad", Where("a.toml", 3, "loop 1")))
+    'a.toml:3: loop 1: bad'
+    """
+    where = where or Where()
+    return FormatError(message, file=where.file, line=where.line, place=where.place)
+
+
+def check_length_unit(unit: str, where: Optional[Where] = None) -> None:
+    """Refuse a unit that is not a length unit, with the place in the file.
+
+    Common units are checked from a small table without importing pint.
+
+    >>> check_length_unit("in")
+    >>> check_length_unit("kg", Where("a.toml", 2, "units"))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: a.toml:2: units: 'kg' is a mass unit, not a length unit
+    """
+    from revolve.errors import UnitError
+    from revolve.units import factor
+
+    where = where or Where()
+    try:
+        factor(unit, "length")
+    except UnitError as exc:
+        raise exc.located(file=where.file, line=where.line, place=where.place) from None
+
+
+def describe(value: Any) -> str:
+    """How a TOML value is named in messages.
+
+    >>> describe(True), describe("ab"), describe([1, 2]), describe({"a": 1})
+    ('true', '"ab"', 'a list', 'a table')
+    """
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, str):
+        return '"' + value + '"' if len(value) <= 40 else '"' + value[:37] + '..."'
+    if isinstance(value, list):
+        return "a list"
+    if isinstance(value, dict):
+        return "a table"
+    if isinstance(value, Decimal):
+        return str(value)
+    return repr(value) if not isinstance(value, (int, float)) else str(value)
+
+
+def number(raw: Any, what: str, where: Optional[Where] = None) -> Value:
+    """Read one number: an integer, a decimal, or a string holding an expression.
+
+    Parameters
+    ----------
+    raw : int, Decimal, float or str
+        The value as TOML decoded it (decimals as :class:`~decimal.Decimal`).
+    what : str
+        What the number is, for messages (``"radius"``, ``"start x"``).
+    where : Where, optional
+        The place in the file, for messages.
+
+    Returns
+    -------
+    Value
+        The float and the exact input.
+
+    Raises
+    ------
+    FormatError
+        For a value of the wrong type, NaN or infinity.
+    ExpressionError
+        For an expression the whitelist parser refuses (location filled in).
+
+    Examples
+    --------
+    >>> from decimal import Decimal, localcontext
+    >>> number(Decimal("nan"), "radius", Where("a.toml", 4, "loop 1, segment 2"))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:4: loop 1, segment 2: radius is not a finite number (nan and inf are refused)
+    >>> number([1, 2], "angle")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: angle must be a number, got a list
+    """
+    if isinstance(raw, bool) or not isinstance(raw, (int, Decimal, float, str)):
+        raise fail(f"{what} must be a number, got {describe(raw)}", where)
+    if isinstance(raw, str):
+        if PLAIN_NUMBER.match(raw):
+            exact: Any = Fraction(raw.strip())
+        else:
+            value = _expression_value(raw, what, where)
+            return Value(value, raw)
+    elif isinstance(raw, Decimal):
+        if not raw.is_finite():
+            raise fail(f"{what} is not a finite number (nan and inf are refused)", where)
+        exact = Fraction(raw)
+    elif isinstance(raw, float):
+        if not math.isfinite(raw):
+            raise fail(f"{what} is not a finite number (nan and inf are refused)", where)
+        exact = Fraction(raw)
+    else:
+        exact = Fraction(raw)
+    try:
+        value = float(exact)
+    except OverflowError:
+        raise fail(f"{what} is too large for a floating-point number", where) from None
+    if not math.isfinite(value):
+        raise fail(f"{what} is too large for a floating-point number", where)
+    return Value(value, exact)
+
+
+def point(raw: Any, what: str, where: Optional[Where] = None) -> tuple[Value, Value]:
+    """Read a pair ``[x, y]`` of numbers.
+
+    Examples
+    --------
+    >>> [v.value for v in point([0, "1/4"], "start")]
+    [0.0, 0.25]
+    >>> point([1, 2, 3], "line_to", Where("a.toml", 9, "loop 1, segment 1"))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:9: loop 1, segment 1: line_to must be a pair [x, y], got a list of 3
+    """
+    if not isinstance(raw, list):
+        raise fail(f"{what} must be a pair [x, y], got {describe(raw)}", where)
+    if len(raw) != 2:
+        raise fail(f"{what} must be a pair [x, y], got a list of {len(raw)}", where)
+    return number(raw[0], f"{what} x", where), number(raw[1], f"{what} y", where)
+
+
+def _expression_value(text: str, what: str, where: Optional[Where]) -> float:
+    """Float value of an expression string, located errors."""
+    where = where or Where()
+    try:
+        from revolve.expr import parse_number
+
+        expr = parse_number(text)
+    except ExpressionError as exc:
+        raise exc.located(file=where.file, line=where.line, place=where.place) from None
+    try:
+        value = exact_to_float(expr)
+    except (TypeError, ValueError, OverflowError, ArithmeticError):
+        raise fail(f"{what} {describe(text)} is not a real number", where) from None
+    if not math.isfinite(value):
+        raise fail(f"{what} {describe(text)} is not a finite number", where)
+    return value
+
+
+def exact_to_float(exact: Any) -> float:
+    """The float nearest an exact value (Fraction, expression string or sympy number).
+
+    Sympy numbers are evaluated to 30 digits and rounded once, so the same
+    input always gives the same float.
+
+    >>> exact_to_float(Fraction(1, 3)) == 1 / 3
+    True
+    """
+    if isinstance(exact, (Fraction, int)):
+        return float(exact)
+    if isinstance(exact, str):
+        if PLAIN_NUMBER.match(exact):
+            return float(Fraction(exact.strip()))
+        from revolve.expr import parse_number
+
+        exact = parse_number(exact)
+    import sympy
+
+    value = sympy.N(exact, EVALUATION_DIGITS)
+    if not value.is_real:
+        raise ValueError("not a real number")
+    return float(value)
+
+
+def exact_to_sympy(exact: Any):
+    """The sympy number of an exact value (imports sympy).
+
+    >>> exact_to_sympy(Fraction(3, 4))
+    3/4
+    """
+    import sympy
+
+    if isinstance(exact, Fraction):
+        return sympy.Rational(exact.numerator, exact.denominator)
+    if isinstance(exact, int):
+        return sympy.Integer(exact)
+    if isinstance(exact, str):
+        if PLAIN_NUMBER.match(exact):
+            f = Fraction(exact.strip())
+            return sympy.Rational(f.numerator, f.denominator)
+        from revolve.expr import parse_number
+
+        return parse_number(exact)
+    return exact
+
+
+def decimal_text(value: Fraction) -> Optional[str]:
+    """The exact decimal literal of a fraction, or None when it has no finite one.
+
+    >>> decimal_text(Fraction(1, 8)), decimal_text(Fraction(-5)), decimal_text(Fraction(1, 3))
+    ('0.125', '-5', None)
+    >>> decimal_text(Fraction(3, 10**20))
+    '3e-20'
+    """
+    den = value.denominator
+    twos = fives = 0
+    while den % 2 == 0:
+        den //= 2
+        twos += 1
+    while den % 5 == 0:
+        den //= 5
+        fives += 1
+    if den != 1:
+        return None
+    if value.denominator == 1:
+        return str(value.numerator)
+    places = max(twos, fives)
+
+    with localcontext() as ctx:
+        ctx.prec = len(str(abs(value.numerator))) + places + 5
+        d = Decimal(value.numerator) / Decimal(value.denominator)
+    text = format(d.normalize(), "f") if places <= 12 else format(d.normalize(), "e")
+    if "e" in text:
+        mantissa, exponent = text.split("e")
+        text = f"{mantissa}e{int(exponent)}"
+    return text
+
+
+def float_literal(value: float) -> str:
+    """TOML text of a float that reads back as the same float (shortest repr).
+
+    >>> float_literal(0.1), float_literal(1e16), float_literal(-0.0), float_literal(3.0)
+    ('0.1', '1e+16', '-0.0', '3.0')
+    """
+    value = float(value)
+    if not math.isfinite(value):
+        raise ValueError(f"cannot write the non-finite number {value!r}")
+    return repr(value)
+
+
+def expression_text(expr) -> str:
+    """Text of a sympy expression in the project's expression syntax (``^`` for powers).
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> expression_text(3 * t**2 / 90 + sympy.sqrt(2))
+    't^2/30 + sqrt(2)'
+    """
+    from sympy.printing.str import StrPrinter
+
+    class Printer(StrPrinter):
+        """Sympy's string printer with the spellings revolve.expr reads."""
+
+        def _print_Float(self, expr):
+            if expr._prec <= 53:
+                return float_literal(float(expr))
+            return StrPrinter({"full_prec": True})._print_Float(expr)
+
+        def _print_Exp1(self, expr):
+            return "exp(1)"
+
+        def _print_Abs(self, expr):
+            return "abs(" + self._print(expr.args[0]) + ")"
+
+        def _print_ImaginaryUnit(self, expr):
+            raise ValueError("the expression is not real")
+
+    return Printer().doprint(expr).replace("**", "^")
+
+
+def exact_literal(exact: Any) -> str:
+    """TOML text of an exact value: a plain literal when possible, else a quoted expression.
+
+    >>> exact_literal(Fraction(5, 2)), exact_literal(Fraction(1, 3)), exact_literal("pi/2")
+    ('2.5', '"1/3"', '"pi/2"')
+    """
+    if isinstance(exact, int):
+        exact = Fraction(exact)
+    if isinstance(exact, Fraction):
+        text = decimal_text(exact)
+        if text is not None:
+            return text
+        return toml_string(f"{exact.numerator}/{exact.denominator}")
+    if isinstance(exact, str):
+        return exact.strip() if PLAIN_NUMBER.match(exact) else toml_string(exact)
+    return toml_string(expression_text(exact))
+
+
+def toml_string(text: str) -> str:
+    """A TOML basic string holding ``text``.
+
+    >>> print(toml_string('a "b" \\\\ c'))
+    "a \\"b\\" \\\\ c"
+    """
+    out = ['"']
+    for ch in text:
+        code = ord(ch)
+        if ch == '"':
+            out.append('\\"')
+        elif ch == "\\":
+            out.append("\\\\")
+        elif code < 0x20 or code == 0x7F:
+            out.append(f"\\u{code:04x}")
+        else:
+            out.append(ch)
+    out.append('"')
+    return "".join(out)

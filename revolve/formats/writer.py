@@ -1,0 +1,300 @@
+'''Writing a profile as the project's profile file (TOML).
+
+The writer is the reader's inverse: ``load_profile(write_profile(x))``
+rebuilds the same geometry, float for float. Lines are written as
+``line_to`` (the last line of a loop that returns to its start as
+``close = true``), arcs as ``arc_to`` with ``centre`` and ``turn``, curves as
+parametric ``x``/``y`` expressions of ``t``. Where a segment carries its exact
+inputs (as the readers set them) and they agree with its floats, those are
+written instead (an arc given by its radius keeps its radius and side), so
+exact results survive a round trip too. Floats are written with Python's
+shortest round-tripping ``repr`` (at most 17 significant digits).
+
+Files are written atomically: a temporary file beside the target, then a
+rename.
+
+Examples
+--------
+>>> from revolve.geometry.profile import Loop, Profile, Axis
+>>> from revolve.geometry.segments import Line, arc_from_centre
+>>> loop = Loop((Line((0.0, 1.0), (2.0, 1.0), face="bore"),
+...              arc_from_centre((2.0, 1.0), (2.0, 3.0), (2.0, 2.0), clockwise=False),
+...              Line((2.0, 3.0), (0.0, 1.0))))
+>>> print(profile_text(Profile(loops=(loop,), unit="mm"), axis=Axis.x(), angle=360))
+# Profile file of revolve; every coordinate is in the units below.
+units = "mm"
+angle = 360
+<BLANKLINE>
+[axis]
+along = "x"
+<BLANKLINE>
+[[loop]]
+start = [0.0, 1.0]
+segments = [
+  { line_to = [2.0, 1.0], face = "bore" },
+  { arc_to = [2.0, 3.0], centre = [2.0, 2.0], turn = "ccw" },
+  { close = true },
+]
+<BLANKLINE>
+'''
+
+from __future__ import annotations
+
+import math
+import os
+from typing import Any, List, Optional, Sequence, Tuple, Union
+
+from revolve.errors import ExpressionError, FormatError, ProfileError
+from revolve.formats.document import ProfileDocument
+from revolve.formats.files import write_text_atomically
+from revolve.formats.profile_file import CURVE_START_TOLERANCE
+from revolve.formats.values import (exact_literal, exact_to_float, expression_text,
+                                    float_literal, toml_string)
+from revolve.geometry.profile import Axis, Profile
+from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, arc_from_radius
+
+_HEADER = "# Profile file of revolve; every coordinate is in the units below."
+
+
+def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_stream: Any, *,
+                  axis: Optional[Axis] = None, angle: Optional[float] = None,
+                  material: Optional[str] = None, density: Optional[str] = None,
+                  name: Optional[str] = None) -> None:
+    """Write a profile as a profile file, atomically.
+
+    Parameters
+    ----------
+    document_or_profile : ProfileDocument or Profile
+        What to write. A document's axis, angle, material, density and name
+        are written unless overridden by the keyword arguments.
+    path_or_stream : str, os.PathLike or text stream
+        A file name (written through a temporary file and a rename) or an
+        open text stream (anything with ``write``).
+    axis, angle, material, density, name : optional
+        Settings to write; ``material`` and ``density`` exclude each other.
+
+    Raises
+    ------
+    ProfileError
+        A segment that does not start where the previous one ends.
+    FormatError
+        Both material and density, a curve whose expression cannot be
+        written in the file's syntax, a file that cannot be written.
+
+    Examples
+    --------
+    >>> import io
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> out = io.StringIO()
+    >>> write_profile(Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)), out,
+    ...               density="1000 kg/m^3")
+    >>> print(out.getvalue().splitlines()[2])
+    density = "1000 kg/m^3"
+    """
+    text = profile_text(document_or_profile, axis=axis, angle=angle, material=material,
+                        density=density, name=name)
+    if hasattr(path_or_stream, "write"):
+        path_or_stream.write(text)
+    else:
+        write_text_atomically(os.fspath(path_or_stream), text)
+
+
+def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
+                 axis: Optional[Axis] = None, angle: Optional[float] = None,
+                 material: Optional[str] = None, density: Optional[str] = None,
+                 name: Optional[str] = None) -> str:
+    """The text of the profile file for a profile (see :func:`write_profile`).
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Chain, Profile
+    >>> print(profile_text(Profile(chains=(Chain.from_points([(0, 5), (3, 5)]),), unit="in")))
+    # Profile file of revolve; every coordinate is in the units below.
+    units = "in"
+    <BLANKLINE>
+    [[chain]]
+    start = [0.0, 5.0]
+    segments = [
+      { line_to = [3.0, 5.0] },
+    ]
+    <BLANKLINE>
+    """
+    if isinstance(document_or_profile, ProfileDocument):
+        doc = document_or_profile
+        profile = doc.profile
+        axis = axis if axis is not None else doc.axis
+        angle = angle if angle is not None else doc.angle_degrees
+        if material is None and density is None:
+            material, density = doc.material, doc.density
+    elif isinstance(document_or_profile, Profile):
+        profile = document_or_profile
+    else:
+        raise TypeError(f"expected a ProfileDocument or a Profile, got "
+                        f"{type(document_or_profile).__name__}")
+    name = name if name is not None else profile.name
+    if material is not None and density is not None:
+        raise FormatError("give material or density, not both")
+    out = [_HEADER]
+    if name is not None:
+        out.append(f"name = {toml_string(name)}")
+    out.append(f"units = {toml_string(profile.unit)}")
+    if material is not None:
+        out.append(f"material = {toml_string(material)}")
+    if density is not None:
+        out.append(f"density = {toml_string(density)}")
+    if angle is not None:
+        out.append(f"angle = {_plain(float(angle))}")
+    if axis is not None:
+        out += [""] + _axis_lines(axis)
+    size = _size(profile)
+    for kind, paths in (("loop", profile.loops), ("chain", profile.chains)):
+        for index, path in enumerate(paths, 1):
+            out += [""] + _path_lines(kind, index, path, size)
+    return "\n".join(out) + "\n"
+
+
+def _plain(value: float) -> str:
+    """An integral float as an integer literal, any other as its repr."""
+    if value.is_integer() and abs(value) < 2 ** 53:
+        return str(int(value))
+    return float_literal(value)
+
+
+def _agrees(exact: Any, value: float) -> bool:
+    """Whether an exact input still gives exactly this float."""
+    try:
+        return exact is not None and exact_to_float(exact) == float(value)
+    except (TypeError, ValueError, ArithmeticError, ExpressionError):
+        return False
+
+
+def _number(exact: Any, value: float) -> str:
+    return exact_literal(exact) if _agrees(exact, value) else float_literal(value)
+
+
+def _pair(exact: Optional[Sequence], value: Sequence[float]) -> str:
+    ex = exact if exact is not None else (None, None)
+    return f"[{_number(ex[0], value[0])}, {_number(ex[1], value[1])}]"
+
+
+def _axis_lines(axis: Axis) -> List[str]:
+    point = (float(axis.point[0]), float(axis.point[1]))
+    direction = (float(axis.direction[0]), float(axis.direction[1]))
+    if point == (0.0, 0.0) and direction in ((1.0, 0.0), (0.0, 1.0)):
+        return ["[axis]", f'along = "{"x" if direction == (1.0, 0.0) else "y"}"']
+    exact = axis.exact or (None, None)
+    return ["[axis]", f"point = {_pair(exact[0], point)}",
+            f"direction = {_pair(exact[1], direction)}"]
+
+
+def _size(profile: Profile) -> float:
+    xs: List[float] = []
+    ys: List[float] = []
+    for seg in profile.segments():
+        for px, py in (seg.start, seg.end):
+            xs.append(px)
+            ys.append(py)
+    if not xs:
+        return 0.0
+    return math.hypot(max(xs) - min(xs), max(ys) - min(ys))
+
+
+def _start_exact(seg) -> Optional[Tuple]:
+    if seg.exact is None:
+        return None
+    if isinstance(seg, Line):
+        return tuple(seg.exact[:2])
+    if isinstance(seg, Arc):
+        return tuple(seg.exact[1])
+    return None
+
+
+def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
+    segments = path.segments
+    if not segments:
+        raise ProfileError(f"{kind} {index} has no segments; there is nothing to write")
+    start = segments[0].start
+    lines = [f"[[{kind}]]", f"start = {_pair(_start_exact(segments[0]), start)}",
+             "segments = ["]
+    current = start
+    for j, seg in enumerate(segments, 1):
+        gap = math.hypot(seg.start[0] - current[0], seg.start[1] - current[1])
+        if gap > CURVE_START_TOLERANCE * size:
+            raise ProfileError(f"segment {j} starts at {seg.start} but the previous one ends at "
+                               f"{current}; a profile file cannot hold a gap",
+                               place=f"{kind} {index}, segment {j}")
+        closing = kind == "loop" and j == len(segments)
+        body = _segment_body(seg, current, start if closing else None)
+        if seg.face is not None:
+            body += f", face = {toml_string(seg.face)}"
+        lines.append(f"  {{ {body} }},")
+        current = seg.end
+    lines.append("]")
+    return lines
+
+
+def _segment_body(seg, current, loop_start) -> str:
+    if isinstance(seg, Line):
+        if loop_start is not None and seg.end == loop_start:
+            return "close = true"
+        exact = seg.exact[2:] if seg.exact is not None else None
+        return f"line_to = {_pair(exact, seg.end)}"
+    if isinstance(seg, Arc):
+        return _arc_body(seg, current)
+    if isinstance(seg, Curve):
+        return _curve_body(seg)
+    raise TypeError(f"cannot write a segment of type {type(seg).__name__}")
+
+
+def _arc_body(arc: Arc, current) -> str:
+    exact = arc.exact
+    if exact is not None and exact[0] == "radius":
+        _, _, e1, radius, side, major = exact
+        try:
+            radius_value: Optional[float] = exact_to_float(radius)
+        except (TypeError, ValueError, ArithmeticError, ExpressionError):
+            radius_value = None
+        if radius_value is not None and _agrees(e1[0], arc.end[0]) and _agrees(e1[1], arc.end[1]):
+            try:
+                again: Optional[Arc] = arc_from_radius(current, arc.end, radius_value,
+                                                       side=side, major=major)
+            except ProfileError:
+                again = None
+            if again is not None and again.centre == arc.centre \
+                    and again.clockwise == arc.clockwise:
+                text = (f"arc_to = {_pair(e1, arc.end)}, radius = {exact_literal(radius)}, "
+                        f'side = "{side}"')
+                return text + (", major = true" if major else "")
+    end_exact = centre_exact = None
+    if exact is not None and exact[0] == "centre" and bool(exact[4]) == arc.clockwise:
+        end_exact, centre_exact = exact[2], exact[3]
+    # the reader rebuilds the arc with these checks; fail here rather than write a bad file
+    arc_from_centre(current, arc.end, arc.centre, arc.clockwise, where=arc.where)
+    return (f"arc_to = {_pair(end_exact, arc.end)}, centre = {_pair(centre_exact, arc.centre)}, "
+            f'turn = "{"cw" if arc.clockwise else "ccw"}"')
+
+
+def _curve_body(curve: Curve) -> str:
+    import sympy
+
+    from revolve.expr import parse_expression
+
+    t = sympy.Symbol("t", real=True)
+    texts = []
+    for expr in (curve.x_expr, curve.y_expr):
+        if isinstance(expr, (int, float)):
+            expr = sympy.Integer(expr) if isinstance(expr, int) else sympy.Float(expr)
+        expr = expr.xreplace({s: t for s in expr.free_symbols if s.name == "t"})
+        others = sorted(s.name for s in expr.free_symbols if s != t)
+        if others:
+            raise FormatError(f"cannot write a curve in {', '.join(others)}: a curve's "
+                              "expressions may use only t", place=str(curve.where or "") or None)
+        try:
+            text = expression_text(expr)
+            parse_expression(text, variables=("t",))
+        except (ExpressionError, ValueError) as exc:
+            raise FormatError(f"cannot write the curve expression {expr} ({exc})") from None
+        texts.append(text)
+    exact = curve.exact or (None, None)
+    return (f"x = {toml_string(texts[0])}, y = {toml_string(texts[1])}, "
+            f"t_from = {_number(exact[0], curve.t_start)}, t_to = {_number(exact[1], curve.t_end)}")
