@@ -188,6 +188,8 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13):
         val, err = quad_vec(g, 0.0, math.pi, epsabs=0.0, epsrel=rel_tol,
                             points=list(pts), norm="max", limit=2000)
     val = np.asarray(val, dtype=float)
+    if t1 < t0:  # ds = |p'(t)| |dt|: lengths stay positive when t runs backwards
+        val[:3] = -val[:3]
     # quad_vec's err is a norm over all columns; attribute it to each column.
     err_cols = np.full(val.shape, float(err))
     return val, err_cols
@@ -244,8 +246,11 @@ def curve_integrals_symbolic(curve: Curve, budget: float = SYMBOLIC_BUDGET_SECON
                                          for a, b in EXPONENTS]
     results = []
     deadline_each = budget / len(integrands)
-    for g in integrands:
+    backwards = bool(curve.t_end < curve.t_start)
+    for k, g in enumerate(integrands):
         r = _run_with_budget(lambda g=g: sympy.integrate(g, (t, t0, t1)), deadline_each)
+        if r is not None and k < 3 and backwards:
+            r = -r  # ds = |p'(t)| |dt|
         if r is not None and (r.has(sympy.Integral) or not r.is_number or r.has(sympy.zoo, sympy.nan)):
             r = None
         results.append(r)

@@ -1,0 +1,3 @@
+from revolve.cli.app import main
+
+main()
