@@ -13,7 +13,7 @@ True
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Mapping, Optional
+from typing import Any, Mapping, Optional
 
 from revolve.geometry.profile import Axis, Profile
 from revolve.geometry.segments import Where
@@ -40,6 +40,9 @@ class ProfileDocument:
         True when every number came from an integer, a decimal literal or an
         expression, so exact results can be derived from the segments'
         ``exact`` inputs.
+    angle_exact : Fraction, str or None
+        The angle as written (a Fraction for a plain number, the text of an
+        expression), for exact results.
     source_lines : Mapping[str, int]
         Line numbers of parts of the file (``"material"``, ``"density"``,
         ``"angle"``, ``"axis"``, ``"loop 1"``, ``"loop 1, segment 3"``, ...)
@@ -53,6 +56,7 @@ class ProfileDocument:
     density: Optional[str] = None
     exact: bool = True
     source_lines: Mapping[str, int] = field(default_factory=dict, compare=False, hash=False)
+    angle_exact: Any = field(default=None, compare=False)
 
     @property
     def name(self) -> Optional[str]:

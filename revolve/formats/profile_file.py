@@ -209,6 +209,13 @@ def parse_profile_text(text: str, *, file: Optional[str] = None,
     return _Reader(file, scan_lines(text)).document(data, unit)
 
 
+def _plain_exact(value: Any) -> Any:
+    """A sympy rational as a Fraction (like every plain number); anything else unchanged."""
+    if getattr(value, "is_Rational", False):
+        return Fraction(int(value.p), int(value.q))
+    return value
+
+
 def _suggestion(key: str, options: Iterable[str]) -> str:
     """'; did you mean "x"?' or the list of valid keys."""
     options = list(options)
@@ -225,6 +232,7 @@ class _Reader:
         self.file = file
         self.lines = lines
         self.curve_checks: List[tuple] = []
+        self.angle_exact: Any = None
 
     def where(self, key: str, place: Optional[str] = None) -> Where:
         """Where for the part ``key`` of the line map, shown as ``place``."""
@@ -266,6 +274,7 @@ class _Reader:
         profile = Profile(loops=loops, chains=chains, unit=units, name=name, file=self.file)
         return ProfileDocument(profile=profile, axis=axis, angle_degrees=angle,
                                material=material, density=density, exact=True,
+                               angle_exact=self.angle_exact,
                                source_lines=dict(self.lines))
 
     def text(self, data: Dict[str, Any], key: str) -> Optional[str]:
@@ -291,10 +300,12 @@ class _Reader:
         if raw is None:
             return None
         where = self.where("angle", "angle")
-        value = number(raw, "angle", where).value
-        if not 0.0 < value <= 360.0:
-            raise fail(f"angle must be above 0 and at most 360 degrees, got {value:g}", where)
-        return value
+        value = number(raw, "angle", where)
+        if not 0.0 < value.value <= 360.0:
+            raise fail(f"angle must be above 0 and at most 360 degrees, got {value.value:g}",
+                       where)
+        self.angle_exact = value.exact
+        return value.value
 
     def tables(self, data: Dict[str, Any], kind: str) -> List[Tuple[int, Any]]:
         raw = data.get(kind, [])
@@ -525,7 +536,7 @@ class _Reader:
         ex = end_exact[0] if end_exact and end_exact[0] is not None else x_expr.xreplace({t: t_end})
         ey = end_exact[1] if end_exact and end_exact[1] is not None else y_expr.xreplace({t: t_end})
         x_end, y_end = curve.end
-        return curve, (Value(x_end, ex), Value(y_end, ey))
+        return curve, (Value(x_end, _plain_exact(ex)), Value(y_end, _plain_exact(ey)))
 
     def check_curve_starts(self, paths) -> None:
         """Each curve must start at the current point, within a tolerance scaled to the size."""

@@ -9,8 +9,9 @@ strings and comments, and records
   ``"axis.along"`` etc. for its keys;
 * ``"loop 2"``, ``"chain 1"``: the ``[[loop]]`` / ``[[chain]]`` headers, and
   ``"loop 2.start"`` etc. for their keys;
-* ``"loop 2, segment 3"``: the line where that segment's inline table opens in
-  the ``segments = [...]`` array (or its ``[[loop.segments]]`` header).
+* ``"loop 2, segment 3"``: the line where that segment's value (normally an
+  inline table) starts in the ``segments = [...]`` array, or its
+  ``[[loop.segments]]`` header.
 
 A file laid out some other way simply has fewer entries; callers then leave
 the line out of their messages. The scan assumes the text is valid TOML
@@ -118,6 +119,7 @@ def scan_lines(text: str) -> Dict[str, int]:
     depth: list = []    # brackets open in the current value
     pending = None      # a "segments =" key was just read for this path
     array_owner = None  # the path whose segments array is open at depth 1
+    element = False     # the next value in that array starts a segment
     line = 1
     i, n = 0, len(text)
     line_start = True
@@ -163,21 +165,24 @@ def scan_lines(text: str) -> Dict[str, int]:
                 i = m.end()
                 continue
         line_start = False
+        if element and array_owner and depth == ["["] and c not in "],":
+            segment_counts[array_owner] = segment_counts.get(array_owner, 0) + 1
+            found.setdefault(f"{array_owner}, segment {segment_counts[array_owner]}", line)
+            element = False
         if c in "\"'":
             i, newlines = _skip_string(text, i)
             line += newlines
             continue
         if c in "[{":
             if c == "[" and not depth and pending:
-                array_owner, pending = pending, None
-            elif c == "{" and array_owner and depth == ["["]:
-                segment_counts[array_owner] = segment_counts.get(array_owner, 0) + 1
-                found.setdefault(f"{array_owner}, segment {segment_counts[array_owner]}", line)
+                array_owner, pending, element = pending, None, True
             depth.append(c)
         elif c in "]}":
             if depth:
                 depth.pop()
             if not depth:
                 array_owner = None
+        elif c == "," and array_owner and depth == ["["]:
+            element = True
         i += 1
     return found

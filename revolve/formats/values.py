@@ -333,6 +333,8 @@ def exact_literal(exact: Any) -> str:
     """
     if isinstance(exact, int):
         exact = Fraction(exact)
+    if getattr(exact, "is_Rational", False):
+        exact = Fraction(int(exact.p), int(exact.q))
     if isinstance(exact, Fraction):
         text = decimal_text(exact)
         if text is not None:

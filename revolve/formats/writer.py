@@ -119,11 +119,13 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
     ]
     <BLANKLINE>
     """
+    angle_exact = None
     if isinstance(document_or_profile, ProfileDocument):
         doc = document_or_profile
         profile = doc.profile
         axis = axis if axis is not None else doc.axis
-        angle = angle if angle is not None else doc.angle_degrees
+        if angle is None:
+            angle, angle_exact = doc.angle_degrees, doc.angle_exact
         if material is None and density is None:
             material, density = doc.material, doc.density
     elif isinstance(document_or_profile, Profile):
@@ -143,7 +145,8 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
     if density is not None:
         out.append(f"density = {toml_string(density)}")
     if angle is not None:
-        out.append(f"angle = {_plain(float(angle))}")
+        angle = float(angle)
+        out.append(f"angle = {_number(angle_exact, angle) if angle_exact is not None else _plain(angle)}")
     if axis is not None:
         out += [""] + _axis_lines(axis)
     size = _size(profile)
