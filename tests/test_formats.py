@@ -657,6 +657,13 @@ def test_writer_settings_and_overrides(tmp_path):
         write_profile(doc.profile, io.StringIO(), material="a", density="1 kg/m^3")
 
 
+def test_writer_refuses_curves_it_cannot_write():
+    # longer than the 200 characters revolve.expr accepts
+    long = curve_from_expressions(sum(T ** k / (k + 1) for k in range(1, 40)), T, 0.0, 1.0)
+    with pytest.raises(FormatError, match="chain 1, segment 1: cannot write the curve"):
+        profile_text(Profile(chains=(Chain((long,)),)))
+
+
 def test_writer_refuses_a_gap():
     loop = Loop((Line((0.0, 1.0), (1.0, 1.0)), Line((1.0, 1.5), (0.0, 1.0))))
     with pytest.raises(ProfileError, match="cannot hold a gap"):

@@ -369,8 +369,8 @@ class _Reader:
         start = point(table["start"], "start", self.where(f"{label}.start", f"{label}, start"))
         raw_segments = table.get("segments")
         if raw_segments is None or raw_segments == []:
-            raise fail(f"the {kind} has no segments; add segments = [ {{ line_to = [x, y] }}, ... ]",
-                       where)
+            raise fail(f"the {kind} has no segments; add "
+                       "segments = [ { line_to = [x, y] }, ... ]", where)
         if not isinstance(raw_segments, list):
             raise fail(f"segments must be a list of inline tables, got {describe(raw_segments)}",
                        self.where(f"{label}.segments", label))

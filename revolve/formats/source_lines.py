@@ -43,13 +43,13 @@ _HEADER = re.compile(r"\[\[\s*([^\[\]\n]*?)\s*\]\]|\[\s*([^\[\]\n]*?)\s*\]")
 _KEY = re.compile(r"((?:[A-Za-z0-9_-]+|\"[^\"\n]*\"|'[^'\n]*')"
                   r"(?:\s*\.\s*(?:[A-Za-z0-9_-]+|\"[^\"\n]*\"|'[^'\n]*'))*)\s*=")
 _PATH_KINDS = ("loop", "chain")
+_DOT_OUTSIDE_QUOTES = re.compile(r"\.(?=(?:[^\"']*[\"'][^\"']*[\"'])*[^\"']*$)")
 
 
 def _clean_key(key: str) -> str:
     """``a . "b"`` -> ``a.b``."""
-    parts = [p.strip().strip("\"'") for p in re.split(r"\.(?=(?:[^\"']*[\"'][^\"']*[\"'])*[^\"']*$)",
-                                                     key)]
-    return ".".join(parts)
+    parts = _DOT_OUTSIDE_QUOTES.split(key)
+    return ".".join(p.strip().strip("\"'") for p in parts)
 
 
 def _skip_string(text: str, i: int) -> tuple[int, int]:
@@ -107,7 +107,8 @@ def scan_lines(text: str) -> Dict[str, int]:
     --------
     >>> scan_lines("")
     {}
-    >>> found = scan_lines('[axis]\\nalong = "y"\\n[[chain]]\\n[[chain.segments]]\\nline_to = [1, 2]\\n')
+    >>> found = scan_lines('[axis]\\nalong = "y"\\n[[chain]]\\n'
+    ...                    '[[chain.segments]]\\nline_to = [1, 2]\\n')
     >>> found["axis"], found["axis.along"], found["chain 1"], found["chain 1, segment 1"]
     (1, 2, 3, 4)
     """

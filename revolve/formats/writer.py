@@ -146,7 +146,8 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
         out.append(f"density = {toml_string(density)}")
     if angle is not None:
         angle = float(angle)
-        out.append(f"angle = {_number(angle_exact, angle) if angle_exact is not None else _plain(angle)}")
+        text = _number(angle_exact, angle) if angle_exact is not None else _plain(angle)
+        out.append(f"angle = {text}")
     if axis is not None:
         out += [""] + _axis_lines(axis)
     size = _size(profile)
@@ -227,7 +228,8 @@ def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
                                f"{current}; a profile file cannot hold a gap",
                                place=f"{kind} {index}, segment {j}")
         closing = kind == "loop" and j == len(segments)
-        body = _segment_body(seg, current, start if closing else None)
+        body = _segment_body(seg, current, start if closing else None,
+                             place=f"{kind} {index}, segment {j}")
         if seg.face is not None:
             body += f", face = {toml_string(seg.face)}"
         lines.append(f"  {{ {body} }},")
@@ -236,7 +238,7 @@ def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
     return lines
 
 
-def _segment_body(seg, current, loop_start) -> str:
+def _segment_body(seg, current, loop_start, place: str) -> str:
     if isinstance(seg, Line):
         if loop_start is not None and seg.end == loop_start:
             return "close = true"
@@ -245,7 +247,7 @@ def _segment_body(seg, current, loop_start) -> str:
     if isinstance(seg, Arc):
         return _arc_body(seg, current)
     if isinstance(seg, Curve):
-        return _curve_body(seg)
+        return _curve_body(seg, place)
     raise TypeError(f"cannot write a segment of type {type(seg).__name__}")
 
 
@@ -277,7 +279,7 @@ def _arc_body(arc: Arc, current) -> str:
             f'turn = "{"cw" if arc.clockwise else "ccw"}"')
 
 
-def _curve_body(curve: Curve) -> str:
+def _curve_body(curve: Curve, place: str) -> str:
     import sympy
 
     from revolve.expr import parse_expression
@@ -291,12 +293,13 @@ def _curve_body(curve: Curve) -> str:
         others = sorted(s.name for s in expr.free_symbols if s != t)
         if others:
             raise FormatError(f"cannot write a curve in {', '.join(others)}: a curve's "
-                              "expressions may use only t", place=str(curve.where or "") or None)
+                              "expressions may use only t", place=place)
         try:
             text = expression_text(expr)
             parse_expression(text, variables=("t",))
         except (ExpressionError, ValueError) as exc:
-            raise FormatError(f"cannot write the curve expression {expr} ({exc})") from None
+            raise FormatError(f"cannot write the curve expression {expr} ({exc})",
+                              place=place) from None
         texts.append(text)
     exact = curve.exact or (None, None)
     return (f"x = {toml_string(texts[0])}, y = {toml_string(texts[1])}, "
