@@ -155,7 +155,10 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
     # Density is kg/m³; the engine works in the profile's unit: kg per (unit)³.
-    m = measure(rev, density=None if dens is None else dens * u.si_length ** 3)
+    try:
+        m = measure(rev, density=None if dens is None else dens * u.si_length ** 3)
+    except RevolveError as e:
+        raise e.located(file=doc.file)
     exact_out = None
     if exact:
         from revolve.geometry.exact import exact_results

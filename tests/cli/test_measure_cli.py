@@ -1,0 +1,215 @@
+"""`revolve measure` end to end: every bundled example, JSON keys, exit codes, bad input.
+
+Figures here are checked against published formulas (sources beside each);
+the bundled examples are invented scenarios and are only run, never used as
+check values.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from revolve.cli.app import main
+
+ROOT = Path(__file__).resolve().parents[2]
+PROFILES = sorted((ROOT / "profiles").glob("*.toml")) + sorted((ROOT / "profiles").glob("*.txt"))
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(list(args))
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def write(tmp_path, name, text):
+    p = tmp_path / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+SQUARE = """
+units = "mm"
+[[loop]]
+start = [0, 1]
+segments = [
+  { line_to = [2, 1] },
+  { line_to = [2, 3] },
+  { line_to = [0, 3] },
+  { close = true },
+]
+"""
+
+
+@pytest.mark.parametrize("path", PROFILES, ids=lambda p: p.name)
+def test_every_example_profile_measures_and_cross_checks(path, capsys):
+    code, out, err = run(["measure", str(path), "--json"], capsys)
+    assert code == 0, err
+    data = json.loads(out)
+    for key in ("area", "centroid", "perimeter", "volume", "surface_area", "crosscheck"):
+        assert key in data
+    assert data["crosscheck"]["agrees"] is True
+    assert data["volume"] > 0
+    assert math.isclose(data["crosscheck"]["volume"], data["volume"], rel_tol=1e-9)
+
+
+def test_every_example_profile_prints_a_table(capsys):
+    for path in PROFILES:
+        code, out, err = run(["measure", str(path)], capsys)
+        assert code == 0, err
+        assert "volume" in out and "Cross-check" in out
+
+
+def test_hollow_cylinder_json(tmp_path, capsys):
+    # Washer/cylinder volume π (R² − r²) h — CRC Standard Mathematical Tables (from memory)
+    code, out, _ = run(["measure", write(tmp_path, "sq.toml", SQUARE), "--json"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    assert math.isclose(d["volume"], math.pi * (9 - 1) * 2, rel_tol=1e-13)
+    assert math.isclose(d["area"], 4, rel_tol=1e-14)
+    assert d["centroid"] == pytest.approx([1, 2], rel=1e-14)
+    assert math.isclose(d["perimeter"], 8, rel_tol=1e-14)
+    # lateral areas 2π r h of both cylinders plus two annuli π (R² − r²) — CRC (from memory)
+    assert math.isclose(d["surface_area"], 2 * math.pi * 2 * (1 + 3) + 2 * math.pi * 8, rel_tol=1e-13)
+
+
+def test_output_units(tmp_path, capsys):
+    # 1 L = 10⁶ mm³ (SI definition); 1 in = 25.4 mm (1959 international agreement)
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, _ = run(["measure", f, "--json", "--volume-unit", "L", "--length-unit", "in"], capsys)
+    d = json.loads(out)
+    assert math.isclose(d["volume"], 16 * math.pi * 1e-6, rel_tol=1e-13)
+    assert math.isclose(d["perimeter"], 8 / 25.4, rel_tol=1e-13)
+    assert math.isclose(d["area"], 4 / 25.4 ** 2, rel_tol=1e-13)
+
+
+def test_mass_and_inertia_of_a_cylinder(tmp_path, capsys):
+    # solid cylinder: m = ρ π r² h, I = m r²/2 — any dynamics text, e.g. Beer & Johnston (from memory)
+    f = write(tmp_path, "rod.toml", 'units = "m"\n[[loop]]\nstart = [0, 0]\nsegments = [\n'
+              '  { line_to = [2, 0] },\n  { line_to = [2, 0.5] },\n  { line_to = [0, 0.5] },\n'
+              '  { close = true },\n]\n')
+    code, out, _ = run(["measure", f, "--json", "--density", "1000 kg/m^3", "--length-unit", "m"], capsys)
+    d = json.loads(out)
+    m = 1000 * math.pi * 0.25 * 2
+    assert math.isclose(d["mass"], m, rel_tol=1e-13)
+    assert math.isclose(d["inertia_axis"], m * 0.25 / 2, rel_tol=1e-12)
+    assert d["cautions"], "mass output must carry the lifting caution"
+
+
+def test_exact_closed_form(tmp_path, capsys):
+    # cylinder shell volume π (3² − 1²)·2 = 16π exactly (CRC, from memory)
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, _ = run(["measure", f, "--json", "--exact"], capsys)
+    d = json.loads(out)
+    assert d["exact"]["volume"] == "16*pi"
+
+
+def test_partial_angle_reports_cut_faces(tmp_path, capsys):
+    # Pappus–Guldinus with θ = π/2: V = θ d A (Stewart, Calculus, from memory)
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, _ = run(["measure", f, "--json", "--angle", "90"], capsys)
+    d = json.loads(out)
+    assert math.isclose(d["volume"], math.pi / 2 * 2 * 4, rel_tol=1e-13)
+    assert math.isclose(d["cut_face_area"], 4, rel_tol=1e-14)
+
+
+def test_axis_option_changes_the_axis(tmp_path, capsys):
+    # the same square about the line y = 1 (its bottom edge): cylinder π 2² · 2 (CRC)
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, _ = run(["measure", f, "--json", "--axis", "0,1,1,0"], capsys)
+    assert math.isclose(json.loads(out)["volume"], math.pi * 4 * 2, rel_tol=1e-13)
+
+
+def test_disagreement_exits_1(tmp_path, capsys, monkeypatch):
+    import revolve.geometry.measure as gm
+
+    real = gm.washer_volume
+    monkeypatch.setattr(gm, "washer_volume", lambda *a, **k: (real(*a, **k)[0] * (1 + 1e-6), 0.0))
+    code, out, err = run(["measure", write(tmp_path, "sq.toml", SQUARE)], capsys)
+    assert code == 1
+    assert "disagree" in err
+
+
+BAD = {
+    "not closed": ('units = "mm"\n[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 1] },\n'
+                   '  { line_to = [2, 3] },\n  { line_to = [0, 3] },\n]\n', ["not closed", ":7:", "segment 3"]),
+    "self-intersecting": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 3] },\n'
+                          '  { line_to = [2, 1] },\n  { line_to = [0, 3] },\n  { close = true },\n]\n',
+                          ["intersects itself", "segment"]),
+    "crossing the axis": ('[[loop]]\nstart = [0, -1]\nsegments = [\n  { line_to = [2, -1] },\n'
+                          '  { line_to = [2, 3] },\n  { line_to = [0, 3] },\n  { close = true },\n]\n',
+                          ["crosses the axis", ":4:", "segment 1"]),
+    "zero area": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 1] },\n  { close = true },\n]\n',
+                  ["zero"]),
+    "nan": ('[[loop]]\nstart = [0, nan]\nsegments = [\n  { line_to = [2, 1] },\n  { line_to = [2, 3] },\n'
+            '  { close = true },\n]\n', ["finite"]),
+    "inf": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [inf, 1] },\n  { line_to = [2, 3] },\n'
+            '  { close = true },\n]\n', ["finite"]),
+    "arc radius too short": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [4, 1] },\n'
+                             '  { arc_to = [0, 1], radius = 1, side = "left" },\n]\n',
+                             ["shorter than half the chord", ":5:"]),
+    "unknown unit": ('units = "bananas"\n[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 1] },\n'
+                     '  { line_to = [2, 3] },\n  { close = true },\n]\n', ["bananas"]),
+    "unknown material": ('material = "unobtainium"\n[[loop]]\nstart = [0, 1]\nsegments = [\n'
+                         '  { line_to = [2, 1] },\n  { line_to = [2, 3] },\n  { close = true },\n]\n',
+                         ["unobtainium", ":1:"]),
+    "malformed file": ('[[loop]\nstart = [0, 1]\n', ["line"]),
+    "unknown key": ('colour = "red"\n[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 1] },\n'
+                    '  { line_to = [2, 3] },\n  { close = true },\n]\n', ["colour"]),
+    "unknown segment key": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_too = [2, 1] },\n'
+                            '  { line_to = [2, 3] },\n  { close = true },\n]\n', ["line_too", ":4:"]),
+    "hostile expression": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [2, 1] },\n'
+                           '  { y = "__import__(\'os\').system(\'touch PWNED\')", to_x = 0 },\n]\n',
+                           [":5:"]),
+    "zero-length segment": ('[[loop]]\nstart = [0, 1]\nsegments = [\n  { line_to = [0, 1] },\n'
+                            '  { line_to = [2, 1] },\n  { line_to = [2, 3] },\n  { close = true },\n]\n',
+                            ["zero length"]),
+}
+
+
+@pytest.mark.parametrize("case", sorted(BAD))
+def test_bad_input_is_one_line_exit_2(case, tmp_path, capsys, monkeypatch):
+    monkeypatch.chdir(tmp_path)
+    text, needles = BAD[case]
+    f = write(tmp_path, "bad.toml", text)
+    code, out, err = run(["measure", f], capsys)
+    assert code == 2, (case, out, err)
+    lines = err.strip().splitlines()
+    assert len(lines) == 1, err
+    assert "Traceback" not in err and out == ""
+    assert "bad.toml" in err, err
+    for n in needles:
+        assert n in err, (case, err)
+    assert not (tmp_path / "PWNED").exists()
+
+
+def test_bad_options(tmp_path, capsys):
+    f = write(tmp_path, "sq.toml", SQUARE)
+    for args, needle in ((["--angle", "0"], "angle"), (["--angle", "400"], "angle"),
+                         (["--axis", "1,2"], "--axis"), (["--volume-unit", "parsec"], "parsec"),
+                         (["--material", "steel", "--density", "7850"], "not both"),
+                         (["--density", "-5 kg/m^3"], "density")):
+        code, out, err = run(["measure", f, *args], capsys)
+        assert code == 2, (args, err)
+        assert needle in err and "Traceback" not in err, (args, err)
+
+
+def test_missing_file_and_points_file(tmp_path, capsys):
+    code, out, err = run(["measure", str(tmp_path / "nope.toml")], capsys)
+    assert code == 2 and "nope.toml" in err
+    p = write(tmp_path, "pts.txt", "0,1\n2,1\n2,oops\n0,3\n")
+    code, out, err = run(["measure", p], capsys)
+    assert code == 2 and "pts.txt:3" in err
+
+
+def test_console_script_subprocess_has_no_traceback(tmp_path):
+    f = write(tmp_path, "bad.toml", BAD["crossing the axis"][0])
+    r = subprocess.run([sys.executable, "-m", "revolve", "measure", f], capture_output=True, text=True)
+    assert r.returncode == 2
+    assert "Traceback" not in r.stderr and r.stderr.count("\n") == 1
