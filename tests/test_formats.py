@@ -401,6 +401,8 @@ def test_units_checked_and_conflict_refused():
     _, message = error(FormatError, loop_text("{ line_to = [1, 1] }"), unit="in")
     assert 'the file gives units = "mm" but "in" was asked for' in message
     assert parse_profile_text(loop_text("{ line_to = [1, 1] }"), unit="mm").profile.unit == "mm"
+    # two spellings of one unit are no conflict
+    assert parse_profile_text(loop_text("{ line_to = [1, 1] }"), unit="millimetre").profile.unit == "mm"
 
 
 def test_impossible_arc_is_located():

@@ -216,6 +216,17 @@ def _plain_exact(value: Any) -> Any:
     return value
 
 
+def _same_length_unit(a: str, b: str) -> bool:
+    """Whether two spellings name the same length unit ("mm", "millimetre")."""
+    from revolve.errors import UnitError
+    from revolve.units import factor
+
+    try:
+        return factor(a, "length") == factor(b, "length")
+    except UnitError:
+        return False
+
+
 def _suggestion(key: str, options: Iterable[str]) -> str:
     """'; did you mean "x"?' or the list of valid keys."""
     options = list(options)
@@ -289,7 +300,8 @@ class _Reader:
     def units(self, data: Dict[str, Any], unit: Optional[str]) -> str:
         written = self.text(data, "units")
         where = self.where("units", "units")
-        if written is not None and unit is not None and written != unit:
+        if written is not None and unit is not None and written != unit \
+                and not _same_length_unit(written, unit):
             raise fail(f'the file gives units = "{written}" but "{unit}" was asked for; '
                        "remove one of the two", where)
         chosen = written or unit or _DEFAULT_UNIT
