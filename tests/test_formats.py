@@ -724,3 +724,14 @@ def test_line_and_arc_profile_does_not_import_heavy_libraries(tmp_path):
     result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                             env=env, cwd=str(tmp_path), check=True)
     assert result.stdout.strip() == "none"
+
+
+@pytest.mark.parametrize("path", sorted(str(p) for p in (ROOT / "profiles").glob("*")
+                                        if p.suffix in READERS))
+def test_example_profiles_round_trip(path):
+    doc = load_profile(path)
+    again, _ = reload(doc)
+    for a, b in zip(doc.profile.paths, again.profile.paths):
+        assert_same_geometry(a.segments, b.segments)
+    assert (again.axis, again.angle_degrees, again.material, again.density) == \
+        (doc.axis, doc.angle_degrees, doc.material, doc.density)
