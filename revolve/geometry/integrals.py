@@ -334,3 +334,53 @@ def segment_integrals(segments: Sequence[Segment], symbolic: bool = True) -> Seg
     if closed.any():
         errors[closed] = np.abs(values[closed]) * 8 * np.finfo(float).eps
     return SegmentIntegrals(values, errors, tuple(method))
+
+
+def polygon_moments(x, y, lengths: bool = True, block: int = 1 << 15) -> np.ndarray:
+    """Sums of every column over a closed polygon given by its vertex arrays, shape (10,).
+
+    The fast path for long point lists: the same closed forms as
+    :func:`line_integrals`, summed with dot products and no per-segment table,
+    in blocks that stay in the processor's cache, so a 10⁶-vertex outline costs
+    a few passes over memory. ``lengths=False`` skips the three length columns
+    (left as NaN) when only the section is wanted.
+
+    >>> v = polygon_moments(np.array([0.0, 1.0, 1.0, 0.0]), np.array([0.0, 0.0, 1.0, 1.0]))
+    >>> [float(v[COL[k]]) for k in ("length", "M00", "M10", "M01", "M11")]
+    [4.0, 1.0, 0.5, 0.5, 0.25]
+    >>> polygon_moments(np.array([]), np.array([]))[COL["M00"]]
+    np.float64(0.0)
+    """
+    x = np.asarray(x, dtype=float)
+    y = np.asarray(y, dtype=float)
+    out = np.zeros(len(COLUMNS))
+    n = x.size
+    if n == 0:
+        return out
+    xc = np.concatenate([x, x[:1]])
+    yc = np.concatenate([y, y[:1]])
+    acc = np.zeros(len(COLUMNS))
+    for i in range(0, n, block):
+        j = min(n, i + block)
+        x0, x1, y0, y1 = xc[i:j], xc[i + 1:j + 1], yc[i:j], yc[i + 1:j + 1]
+        c = x0 * y1
+        c -= x1 * y0
+        sx = x0 + x1
+        sy = y0 + y1
+        q = y0 * y1
+        acc[3] += c.sum()
+        acc[4] += c @ sx
+        acc[5] += c @ sy
+        acc[6] += c @ (sx * sx) - c @ (x0 * x1)
+        acc[7] += c @ (sx * sy) + c @ (x0 * y0) + c @ (x1 * y1)
+        acc[8] += c @ (sy * sy) - c @ q
+        acc[9] += c @ (sy * sy * sy) - 2 * (c @ (sy * q))
+        if lengths:
+            L = np.hypot(x1 - x0, y1 - y0)
+            acc[0] += L.sum()
+            acc[1] += L @ sx
+            acc[2] += L @ sy
+    out[:] = acc / np.array([1, 2, 2, 2, 6, 6, 12, 24, 12, 20])
+    if not lengths:
+        out[:3] = np.nan
+    return out
