@@ -1,0 +1,885 @@
+'''Coating estimates: areas to coat by face, coats, spreading rates and quantities.
+
+Everything here is a pure function of the engine's
+:class:`~revolve.geometry.measure.Measurement` and of plain numbers; the
+command line (``revolve coat``) reads files and renders the results.
+
+Areas to coat
+-------------
+:func:`surfaces` splits the swept surface of a measurement into
+:class:`Surface` pieces, one per face name and the way it faces:
+
+``outside``
+    faces of a solid whose outward normal points away from the axis (outside
+    diameters, domes seen from outside, the bottom of a groove);
+``inside``
+    faces of a solid that look towards the axis (bores);
+``ends``
+    faces of a solid that look along the axis: flat or nearly flat faces whose
+    mean outward normal is nearer the axis direction than the radial one
+    (within 45°);
+``cut``
+    the two flat faces left by a partial revolution (angle below 360°), each
+    the section's area; counted only when asked for.
+
+Each segment is put whole into one group by its mean outward normal
+(weighted by the swept area), so a face with several segments may appear in
+several groups. An open chain (a sheet or shell) has no thickness: it is one
+curve with two sides of equal area, its *outer side* (group ``outside``) and
+its *inner side* (group ``inside``). Both sides carry the same area, so which
+physical side is called inner is only a label.
+
+:func:`select` then keeps what the estimator asks for: face names or group
+words to include (a face name written in the profile wins over a group word
+of the same spelling), names to mask (exclude), the chain sides to count
+(``both``, ``outer`` or ``inner``) and whether to count cut faces. The areas
+are the engine's own: for each face, the pieces add up to the measurement's
+surface of that face.
+
+Coats
+-----
+A :class:`Coat` has a dry film thickness (DFT, stored in µm), volume solids
+(VS, %), a loss factor (%: overspray, losses on the part, left in the tin)
+and optionally a price per litre. Its figures follow the trade's formulas
+(common practice, no source):
+
+* theoretical spreading rate, m²/L = 10 × VS / DFT(µm);
+* practical spreading rate = theoretical × (1 − loss / 100);
+* wet film thickness WFT = DFT × 100 / VS;
+* litres to buy = area / practical spreading rate.
+
+In US units the theoretical rate is 1604.17 × (VS / 100) / DFT(mils) ft² per
+US gallon (231 in³ spread 0.001 in thick covers 231 000 in² = 1604.17 ft²);
+:func:`spreading_rate_in` converts with the exact unit definitions.
+
+Coating-system file
+-------------------
+Several coats are given in a small TOML file (read with :mod:`tomllib`;
+every key not listed here is refused with its file and line)::
+
+    name = "Two-coat epoxy for idler rollers"   # optional
+    currency = "EUR"                            # optional label for prices
+
+    [[coat]]                       # one table per coat, in the order applied
+    name = "zinc epoxy primer"     # optional, default "coat 1", "coat 2", ...
+    dft_um = 60                    # dry film thickness in µm; or dft_mils = 2.4
+    volume_solids = 58             # volume solids, %: above 0, at most 100
+    loss = 35                      # loss factor, %: at least 0, below 100
+    price_per_litre = 21.5         # optional; or price_per_us_gallon = 81.4
+
+    [[coat]]
+    name = "polyurethane finish"
+    dft_mils = 2
+    volume_solids = 52
+    loss = 35
+
+Numbers are plain TOML integers or decimals (no units, no expressions).
+
+Examples
+--------
+>>> c = make_coat("primer", dft_um=75, volume_solids=60, loss=25, price_per_litre=20)
+>>> c.spreading_rate_theoretical, c.spreading_rate_practical, c.wet_film_um
+(8.0, 6.0, 125.0)
+>>> round(c.litres_for(30.0), 12), c.cost_for(5.0)
+(5.0, 100.0)
+'''
+
+from __future__ import annotations
+
+import difflib
+import math
+import re
+from dataclasses import dataclass
+from typing import Any, Dict, Iterable, List, Mapping, Optional, Sequence, Tuple
+
+from revolve.errors import FormatError, RevolveError
+
+#: The groups a surface can face, besides its face name.
+GROUPS = ("outside", "inside", "ends")
+#: Group of the two flat faces of a partial revolution.
+CUT = "cut"
+#: Face name given to the cut faces.
+CUT_FACE = "cut faces"
+#: Choices for the sides of an open chain.
+SIDES = ("both", "outer", "inner")
+#: Word that selects every surface.
+ALL = "all"
+
+#: Litres in one US gallon: 231 in³ with 1 in = 25.4 mm (exact by definition).
+US_GALLON_LITRES = 231 * 2.54 ** 3 / 1000
+#: Square feet spread by one US gallon at 1 mil and 100 % volume solids: 231 in³ / 0.001 in / 144.
+US_RATE_CONSTANT = 231 / 0.001 / 144
+#: Micrometres in one mil (0.001 in).
+UM_PER_MIL = 25.4
+#: Thickest dry film accepted, µm (50 mm): above this a unit was almost certainly mixed up.
+MAX_DFT_UM = 50_000.0
+
+
+class CoatingError(RevolveError):
+    """A coat or coating system is invalid (film thickness, solids, loss, price, faces)."""
+
+
+# -- areas to coat ------------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class Surface:
+    """One piece of the surface to coat, in the profile's unit squared.
+
+    ``facing`` is one of :data:`GROUPS` or :data:`CUT`; ``side`` is "outer" or
+    "inner" for a side of an open chain and None for a solid's face; ``kind``
+    is "solid", "chain" or "cut".
+    """
+
+    face: str
+    facing: str
+    area: float
+    kind: str = "solid"
+    side: Optional[str] = None
+
+    @property
+    def label(self) -> str:
+        """The face name with its side for a chain, e.g. ``"shell, inner side"``.
+
+        >>> Surface("shell", "inside", 2.0, "chain", "inner").label
+        'shell, inner side'
+        >>> Surface("bore", "inside", 2.0).label
+        'bore'
+        """
+        return f"{self.face}, {self.side} side" if self.side else self.face
+
+
+@dataclass(frozen=True)
+class Chosen:
+    """A surface with whether it is counted and, if not, why."""
+
+    surface: Surface
+    included: bool
+    reason: Optional[str] = None
+
+
+def _segment_facing(seg, factor: float) -> Tuple[float, float]:
+    """Mean outward normal (axial, radial) of a frame segment, weighted by r ds (not normalised).
+
+    ``factor`` is the loop's factor from the section (+1 solid counter-clockwise
+    or hole clockwise, -1 the other way); the outward normal of the solid is the
+    right-hand normal of the segment's direction times ``factor``.
+    """
+    from revolve.geometry.checks import flatten
+
+    pts = flatten(seg)
+    z, r = pts[:, 0], pts[:, 1]
+    rm = (r[:-1] + r[1:]) / 2
+    return (factor * float((rm * (r[1:] - r[:-1])).sum()),
+            -factor * float((rm * (z[1:] - z[:-1])).sum()))
+
+
+def classify(normal_axial: float, normal_radial: float) -> str:
+    """Group of a solid face from its mean outward normal: outside, inside or ends.
+
+    >>> classify(0.0, 2.0), classify(0.0, -2.0), classify(3.0, 1.0), classify(-1.0, 1.0)
+    ('outside', 'inside', 'ends', 'outside')
+    """
+    if abs(normal_axial) > abs(normal_radial) * (1 + 1e-9):
+        return "ends"
+    return "outside" if normal_radial >= 0 else "inside"
+
+
+def surfaces(measurement) -> Tuple[Surface, ...]:
+    """Every surface of a measured revolution, by face name and facing, in profile unit².
+
+    Chains give two surfaces per face (outer and inner side); a partial
+    revolution of a solid adds the cut faces (both together). Pieces that
+    sweep no area (segments on the axis) are left out. For each face name the
+    solid pieces plus one side of its chain pieces add up to the
+    measurement's ``surface_by_face``.
+
+    Parameters
+    ----------
+    measurement : Measurement
+        From :func:`revolve.geometry.measure.measure`.
+
+    Returns
+    -------
+    tuple of Surface
+        In order of first appearance of each face.
+
+    Examples
+    --------
+    A tube 10 long, bore radius 1, outside radius 2, about the x axis.
+
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Loop, Profile, Revolution
+    >>> tube = Loop.from_points([(0, 1), (10, 1), (10, 2), (0, 2)])
+    >>> [(s.facing, round(s.area / math.pi, 9)) for s in surfaces(measure(Revolution(Profile(loops=(tube,)))))]
+    [('inside', 20.0), ('ends', 6.0), ('outside', 40.0)]
+    """
+    import numpy as np
+
+    from revolve.geometry.checks import prepare
+    from revolve.geometry.integrals import COL, segment_integrals
+    from revolve.geometry.profile import UNNAMED_FACE
+
+    m = measurement
+    rev = m.revolution
+    prep = prepare(rev.profile, rev.axis)
+    theta = rev.angle_radians
+    factors = iter(m.section.loop_factors)
+    entries: List[Tuple[str, str, str]] = []   # (face, facing, kind) per segment
+    segments = []
+    for closed, path in zip(prep.closed, prep.paths):
+        f = next(factors) if closed else 0.0
+        for seg in path:
+            face = seg.face or UNNAMED_FACE
+            if closed:
+                entries.append((face, classify(*_segment_facing(seg, f)), "solid"))
+            else:
+                entries.append((face, "", "chain"))
+            segments.append(seg)
+    raw = theta * segment_integrals(segments, symbolic=False).values[:, COL["length_y"]] \
+        if segments else np.zeros(0)
+    # Scale each face's pieces so they add up to the engine's figure for that face.
+    totals: Dict[str, float] = {}
+    for (face, _, _), a in zip(entries, raw):
+        totals[face] = totals.get(face, 0.0) + float(a)
+    pieces: Dict[Tuple[str, str, str], float] = {}
+    for (face, facing, kind), a in zip(entries, raw):
+        want = m.surface_by_face.get(face, 0.0)
+        scale = want / totals[face] if totals[face] > 0 else 0.0
+        key = (face, facing, kind)
+        pieces[key] = pieces.get(key, 0.0) + float(a) * scale
+    out: List[Surface] = []
+    for (face, facing, kind), area in pieces.items():
+        if not area > 0:
+            continue
+        if kind == "chain":
+            out.append(Surface(face, "outside", area, "chain", "outer"))
+            out.append(Surface(face, "inside", area, "chain", "inner"))
+        else:
+            out.append(Surface(face, facing, area, "solid"))
+    if m.cut_face_area is not None and m.cut_face_area > 0:
+        out.append(Surface(CUT_FACE, CUT, 2.0 * m.cut_face_area, "cut"))
+    return tuple(out)
+
+
+def face_names(found: Iterable[Surface]) -> Tuple[str, ...]:
+    """Face names in order of first appearance.
+
+    >>> face_names([Surface("a", "ends", 1.0), Surface("b", "inside", 1.0), Surface("a", "outside", 1.0)])
+    ('a', 'b')
+    """
+    return tuple(dict.fromkeys(s.face for s in found))
+
+
+def split_names(values: Optional[Iterable[str]]) -> Tuple[str, ...]:
+    """Names from options that may each hold a comma-separated list; blanks dropped.
+
+    >>> split_names(["bore, end face", "rim"]), split_names(None)
+    (('bore', 'end face', 'rim'), ())
+    """
+    out: List[str] = []
+    for value in values or ():
+        out.extend(p.strip() for p in value.split(",") if p.strip())
+    return tuple(out)
+
+
+def check_names(names: Sequence[str], known_faces: Iterable[str], option: str,
+                file: Optional[str] = None) -> None:
+    """Refuse names that are neither a face of any profile nor a group word, with close names.
+
+    Parameters
+    ----------
+    names : sequence of str
+        What the user wrote.
+    known_faces : iterable of str
+        Face names of every profile in the run.
+    option : str
+        The option, for the message (``"--faces"``).
+    file : str, optional
+        The profile file when there is only one.
+
+    Examples
+    --------
+    >>> check_names(["bore", "ends"], ["bore", "rim"], "--faces")
+    >>> check_names(["bor"], ["bore", "rim"], "--faces", file="a.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: a.toml: --faces: no face or group "bor"; did you mean "bore"? The faces are bore, rim; the groups outside, inside, ends, all
+    """
+    known = list(dict.fromkeys(known_faces))
+    words = list(GROUPS) + [ALL]
+    for name in names:
+        if name in known or name in words:
+            continue
+        close = difflib.get_close_matches(name, known + words, n=2, cutoff=0.6)
+        if not close:
+            lowered = {k.lower(): k for k in known + words}
+            close = [lowered[c] for c in difflib.get_close_matches(name.lower(), list(lowered),
+                                                                   n=2, cutoff=0.6)]
+        hint = (" did you mean " + " or ".join(f'"{c}"' for c in close) + "?") if close else ""
+        raise CoatingError(f'no face or group "{name}";{hint} The faces are '
+                           f"{', '.join(known) or '(none)'}; the groups {', '.join(words)}",
+                           file=file, place=option)
+
+
+def _matches(s: Surface, name: str, faces: Sequence[str]) -> bool:
+    if name == ALL:
+        return True
+    if name in faces:          # a face name written in the profile wins
+        return s.face == name
+    return s.facing == name
+
+
+def select(found: Sequence[Surface], include: Sequence[str] = (), mask: Sequence[str] = (),
+           sides: str = "both", cut_faces: bool = False) -> Tuple[Chosen, ...]:
+    """Decide which surfaces are coated.
+
+    Parameters
+    ----------
+    found : sequence of Surface
+        From :func:`surfaces`.
+    include : sequence of str
+        Face names or group words (outside, inside, ends, all); empty means all.
+    mask : sequence of str
+        Face names or group words to leave out (masked); masking wins.
+    sides : {"both", "outer", "inner"}
+        Which sides of open chains to count.
+    cut_faces : bool
+        Count the cut faces of a partial revolution.
+
+    Returns
+    -------
+    tuple of Chosen
+
+    Examples
+    --------
+    >>> found = (Surface("bore", "inside", 3.0), Surface("rim", "outside", 5.0),
+    ...          Surface("shell", "outside", 2.0, "chain", "outer"),
+    ...          Surface("shell", "inside", 2.0, "chain", "inner"))
+    >>> [c.included for c in select(found, mask=["bore"], sides="inner")]
+    [False, True, False, True]
+    >>> [c.reason for c in select(found, include=["outside"])]
+    ['not chosen', None, None, 'not chosen']
+    >>> coated_area(select(found))
+    12.0
+    """
+    if sides not in SIDES:
+        raise CoatingError(f'--sides must be one of {", ".join(SIDES)}, got "{sides}"')
+    faces = face_names(found)
+    out = []
+    for s in found:
+        reason = None
+        if s.kind == "cut" and not cut_faces:
+            reason = "add --cut-faces to count them"
+        elif include and not any(_matches(s, n, faces) for n in include):
+            reason = "not chosen"
+        elif any(_matches(s, n, faces) for n in mask):
+            reason = "masked"
+        elif s.side is not None and sides not in ("both", s.side):
+            reason = f"only the {sides} side"
+        out.append(Chosen(s, reason is None, reason))
+    return tuple(out)
+
+
+def coated_area(chosen: Iterable[Chosen]) -> float:
+    """Sum of the areas counted.
+
+    >>> coated_area([Chosen(Surface("a", "ends", 1.5), True), Chosen(Surface("b", "ends", 4.0), False)])
+    1.5
+    """
+    return float(math.fsum(c.surface.area for c in chosen if c.included))
+
+
+def area_by_face(chosen: Iterable[Chosen]) -> Dict[str, float]:
+    """Counted area per face name (sides and groups of a face added together).
+
+    >>> area_by_face([Chosen(Surface("a", "ends", 1.5), True), Chosen(Surface("a", "outside", 2.0), True)])
+    {'a': 3.5}
+    """
+    out: Dict[str, float] = {}
+    for c in chosen:
+        if c.included:
+            out[c.surface.face] = out.get(c.surface.face, 0.0) + c.surface.area
+    return out
+
+
+# -- coats --------------------------------------------------------------------------
+
+
+def spreading_rate_theoretical(volume_solids: float, dft_um: float) -> float:
+    """Theoretical spreading rate in m²/L: 10 × VS(%) / DFT(µm) (common practice, no source).
+
+    >>> spreading_rate_theoretical(100, 100), spreading_rate_theoretical(50, 125)
+    (10.0, 4.0)
+    """
+    return 10.0 * volume_solids / dft_um
+
+
+def spreading_rate_practical(theoretical: float, loss: float) -> float:
+    """Practical spreading rate: theoretical × (1 − loss %/100) (common practice, no source).
+
+    >>> spreading_rate_practical(8.0, 25)
+    6.0
+    """
+    return theoretical * (1.0 - loss / 100.0)
+
+
+def wet_film_um(dft_um: float, volume_solids: float) -> float:
+    """Wet film thickness: DFT × 100 / VS(%), same unit as the DFT (common practice, no source).
+
+    >>> wet_film_um(75, 60)
+    125.0
+    """
+    return dft_um * 100.0 / volume_solids
+
+
+def spreading_rate_in(rate_m2_per_litre: float, area_unit: str, volume_unit: str) -> float:
+    """A spreading rate in m²/L converted to ``area_unit`` per ``volume_unit``.
+
+    >>> round(spreading_rate_in(10.0 * 100 / UM_PER_MIL, "ft^2", "US_gal"), 2)  # 1 mil, 100 %
+    1604.17
+    """
+    from revolve import units
+
+    return rate_m2_per_litre / units.factor(area_unit, "area") * (
+        units.factor(volume_unit, "volume") / units.factor("L", "volume"))
+
+
+@dataclass(frozen=True)
+class Coat:
+    """One coat: dry film (µm), volume solids (%), loss factor (%), price per litre or None."""
+
+    name: str
+    dft_um: float
+    volume_solids: float
+    loss: float
+    price_per_litre: Optional[float] = None
+
+    @property
+    def spreading_rate_theoretical(self) -> float:
+        """m²/L at the dry film thickness, no losses."""
+        return spreading_rate_theoretical(self.volume_solids, self.dft_um)
+
+    @property
+    def spreading_rate_practical(self) -> float:
+        """m²/L after the loss factor."""
+        return spreading_rate_practical(self.spreading_rate_theoretical, self.loss)
+
+    @property
+    def wet_film_um(self) -> float:
+        """Wet film thickness to apply, µm."""
+        return wet_film_um(self.dft_um, self.volume_solids)
+
+    def litres_for(self, area_m2: float) -> float:
+        """Litres to buy for ``area_m2`` square metres, losses included."""
+        return area_m2 / self.spreading_rate_practical
+
+    def litres_theoretical_for(self, area_m2: float) -> float:
+        """Litres that end up as film on ``area_m2``, no losses."""
+        return area_m2 / self.spreading_rate_theoretical
+
+    def cost_for(self, litres: float) -> Optional[float]:
+        """Cost of ``litres``, or None without a price."""
+        return None if self.price_per_litre is None else litres * self.price_per_litre
+
+
+def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any = None,
+              volume_solids: Any = None, loss: Any = None, price_per_litre: Any = None,
+              price_per_us_gallon: Any = None, where: Optional[Mapping[str, Tuple]] = None,
+              number: int = 1) -> Coat:
+    """Check one coat's inputs and build it.
+
+    Parameters
+    ----------
+    name : str, optional
+        Default ``"coat N"`` with N = ``number``.
+    dft_um, dft_mils : float
+        Dry film thickness in µm or in mils (0.001 in): exactly one.
+    volume_solids : float
+        Percent, above 0 and at most 100.
+    loss : float
+        Loss factor, percent, at least 0 and below 100.
+    price_per_litre, price_per_us_gallon : float, optional
+        At most one; at least 0.
+    where : mapping, optional
+        For each input name, ``(file, line, place)`` to put in an error.
+    number : int
+        The coat's position, for the default name.
+
+    Raises
+    ------
+    CoatingError
+        Missing or impossible values.
+
+    Examples
+    --------
+    >>> make_coat(dft_mils=2, volume_solids=50, loss=0).dft_um
+    50.8
+    >>> make_coat(dft_um=75, volume_solids=0, loss=10)
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: volume_solids: the volume solids must be above 0 and at most 100 %, got 0
+    >>> make_coat(dft_um=75, volume_solids=60, loss=100, where={"loss": ("s.toml", 9, "coat 2, loss")})
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: s.toml:9: coat 2, loss: the loss factor must be at least 0 and below 100 %, got 100
+    """
+    where = dict(where or {})
+
+    def fail(key: str, message: str) -> CoatingError:
+        file, line, place = where.get(key, (None, None, key))
+        return CoatingError(message, file=file, line=line, place=place)
+
+    def value(key: str, raw: Any, what: str) -> Optional[float]:
+        if raw is None:
+            return None
+        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+            raise fail(key, f"{what} must be a number, got {raw!r}")
+        v = float(raw)
+        if not math.isfinite(v):
+            raise fail(key, f"{what} must be a finite number, got {raw!r}")
+        return v
+
+    if dft_um is not None and dft_mils is not None:
+        raise fail("dft_mils", "give the dry film thickness once: in µm or in mils, not both")
+    if dft_um is None and dft_mils is None:
+        raise fail("dft", "the dry film thickness is missing; give it in µm or in mils")
+    if dft_um is not None:
+        dft = value("dft_um", dft_um, "the dry film thickness")
+        key, shown = "dft_um", f"{dft:g} µm"
+    else:
+        mils = value("dft_mils", dft_mils, "the dry film thickness")
+        key, shown, dft = "dft_mils", f"{mils:g} mils", mils * UM_PER_MIL
+    if not dft > 0:
+        raise fail(key, f"the dry film thickness must be above 0, got {shown}")
+    if dft > MAX_DFT_UM:
+        raise fail(key, f"a dry film of {shown} is thicker than 50 mm; is the unit right "
+                        "(µm, or mils = 0.001 in)?")
+    vs = value("volume_solids", volume_solids, "the volume solids")
+    if vs is None:
+        raise fail("volume_solids", "the volume solids (%) are missing; see the data sheet")
+    if not 0 < vs <= 100:
+        raise fail("volume_solids", f"the volume solids must be above 0 and at most 100 %, got {vs:g}")
+    lf = value("loss", loss, "the loss factor")
+    if lf is None:
+        raise fail("loss", "the loss factor (%) is missing; give 0 for none")
+    if not 0 <= lf < 100:
+        raise fail("loss", f"the loss factor must be at least 0 and below 100 %, got {lf:g}")
+    if price_per_litre is not None and price_per_us_gallon is not None:
+        raise fail("price_per_us_gallon", "give the price per litre or per US gallon, not both")
+    price = value("price_per_litre", price_per_litre, "the price per litre")
+    if price_per_us_gallon is not None:
+        gal = value("price_per_us_gallon", price_per_us_gallon, "the price per US gallon")
+        if gal < 0:
+            raise fail("price_per_us_gallon", f"the price must be at least 0, got {gal:g}")
+        price = gal / US_GALLON_LITRES
+    if price is not None and price < 0:
+        raise fail("price_per_litre", f"the price must be at least 0, got {price:g}")
+    if name is not None and (not isinstance(name, str) or not name.strip()):
+        raise fail("name", f"the coat's name must be a non-empty text, got {name!r}")
+    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price)
+
+
+def parse_film_thickness(text: str, default_unit: str = "um") -> float:
+    """A dry film thickness from text, in µm: ``"75"`` (in ``default_unit``), ``"3 mil"``, ``"0.1 mm"``.
+
+    >>> parse_film_thickness("75"), parse_film_thickness("2 mils"), parse_film_thickness("2", "mil")
+    (75.0, 50.8, 50.8)
+    >>> parse_film_thickness("thick")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: --dft: give the dry film thickness as a number (µm) or with its unit, e.g. 75 um or 3 mil; got 'thick'
+    """
+    from fractions import Fraction
+
+    from revolve import units
+
+    found = re.fullmatch(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*", text or "")
+    if found:
+        unit = found.group(2) or default_unit
+        try:
+            exact = units.exact_factor(unit, "length")
+            if exact is not None:
+                return float(Fraction(found.group(1)) * exact * 1_000_000)
+            return float(found.group(1)) * units.factor(unit, "length") * 1e6
+        except RevolveError:
+            pass
+    raise CoatingError("give the dry film thickness as a number "
+                       f"({units.canonical(default_unit)}) or with its unit, e.g. 75 um or 3 mil; "
+                       f"got {text!r}", place="--dft")
+
+
+@dataclass(frozen=True)
+class CoatingSystem:
+    """Coats in the order they are applied, with an optional name and currency label."""
+
+    coats: Tuple[Coat, ...]
+    name: Optional[str] = None
+    currency: Optional[str] = None
+    file: Optional[str] = None
+
+    @property
+    def dft_um(self) -> float:
+        """Total dry film of the system, µm."""
+        return float(math.fsum(c.dft_um for c in self.coats))
+
+
+#: Keys of the coating-system file.
+SYSTEM_KEYS = ("name", "currency", "coat")
+#: Keys of one ``[[coat]]`` table.
+COAT_KEYS = ("name", "dft_um", "dft_mils", "volume_solids", "loss", "price_per_litre",
+             "price_per_us_gallon")
+
+_HEADER = re.compile(r"\s*(\[\[?)\s*([A-Za-z0-9_.\"' -]+?)\s*\]\]?\s*(?:#.*)?$")
+_KEY = re.compile(r"\s*([A-Za-z0-9_-]+|\"[^\"]*\"|'[^']*')\s*[.=]")
+
+
+def key_lines(text: str) -> Dict[str, int]:
+    """Line of each key of a coating-system file: ``"name"``, ``"coat 2"``, ``"coat 2.loss"``.
+
+    A light scan of the text that tomllib has already accepted; layouts it does
+    not follow simply give fewer lines.
+
+    >>> key_lines('name = "x"\\n[[coat]]\\ndft_um = 5\\n\\n[[coat]]\\n# c\\nloss = 3\\n')
+    {'name': 1, 'coat 1': 2, 'coat 1.dft_um': 3, 'coat 2': 5, 'coat 2.loss': 7}
+    """
+    found: Dict[str, int] = {}
+    table = ""
+    count = 0
+    in_string = None
+    for number, line in enumerate(text.splitlines(), 1):
+        if in_string:
+            if line.count(in_string) % 2:
+                in_string = None
+            continue
+        for quote in ('"""', "'''"):
+            if line.count(quote) % 2:
+                in_string = quote
+        m = _HEADER.match(line)
+        if m:
+            name = m.group(2).strip().strip("\"'")
+            if m.group(1) == "[[" and name == "coat":
+                count += 1
+                table = f"coat {count}"
+            else:
+                table = name
+            found.setdefault(table, number)
+            continue
+        m = _KEY.match(line)
+        if m:
+            key = m.group(1).strip("\"'")
+            found.setdefault(f"{table}.{key}" if table else key, number)
+    return found
+
+
+def _suggest_key(key: str, options: Sequence[str]) -> str:
+    close = difflib.get_close_matches(key, list(options), n=2, cutoff=0.6)
+    if close:
+        return "; did you mean " + " or ".join(f'"{c}"' for c in close) + "?"
+    return "; the keys here are " + ", ".join(options)
+
+
+def parse_coating_system(text: str, file: Optional[str] = None) -> CoatingSystem:
+    """Read a coating-system file (see the module docstring for its keys).
+
+    Parameters
+    ----------
+    text : str
+        The TOML text.
+    file : str, optional
+        The file name, for messages.
+
+    Raises
+    ------
+    FormatError
+        Malformed TOML, unknown keys, wrong types, no coats.
+    CoatingError
+        Impossible values (VS 0, loss 100 %, negative film...), with file and line.
+
+    Examples
+    --------
+    >>> s = parse_coating_system('name = "one coat"\\n[[coat]]\\ndft_um = 80\\nvolume_solids = 80\\nloss = 20\\n')
+    >>> s.name, s.coats[0].name, s.coats[0].spreading_rate_practical
+    ('one coat', 'coat 1', 8.0)
+    >>> parse_coating_system('[[coat]]\\ndft = 80\\n', file="s.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: s.toml:2: coat 1: unknown key "dft"; did you mean "dft_um"?
+    """
+    try:
+        import tomllib
+    except ModuleNotFoundError:  # pragma: no cover - Python 3.10
+        import tomli as tomllib  # type: ignore[no-redef]
+
+    if not text.strip():
+        raise FormatError("the coating-system file is empty", file=file)
+    try:
+        data = tomllib.loads(text)
+    except tomllib.TOMLDecodeError as exc:
+        found = re.search(r"at line (\d+)", str(exc))
+        raise FormatError(f"malformed TOML: {exc}", file=file,
+                          line=int(found.group(1)) if found else None) from None
+    lines = key_lines(text)
+
+    def where(key: str, place: Optional[str] = None) -> Tuple:
+        line = lines.get(key)
+        if line is None and "." in key:
+            line = lines.get(key.split(".", 1)[0])
+        return (file, line, place)
+
+    def fail(message: str, key: str, place: Optional[str] = None) -> FormatError:
+        f, line, p = where(key, place)
+        return FormatError(message, file=f, line=line, place=p)
+
+    for key in data:
+        if key not in SYSTEM_KEYS:
+            hint = _suggest_key(key, SYSTEM_KEYS)
+            if key in COAT_KEYS:
+                hint = "; it belongs under a [[coat]] header"
+            raise fail(f'unknown key "{key}"{hint}', key)
+    texts = {}
+    for key in ("name", "currency"):
+        v = data.get(key)
+        if v is not None and (not isinstance(v, str) or not v.strip()):
+            raise fail(f"{key} must be a non-empty text in quotes, got {v!r}", key, key)
+        texts[key] = v.strip() if v else None
+    raw = data.get("coat")
+    if raw is None or raw == []:
+        raise FormatError("the file has no [[coat]]; a coating system needs at least one coat",
+                          file=file)
+    if isinstance(raw, dict):
+        raise fail("write [[coat]] with two brackets, one header for each coat", "coat", "coat")
+    if not isinstance(raw, list):
+        raise fail(f"coat must be given as [[coat]] tables, got {raw!r}", "coat", "coat")
+    coats = []
+    for i, table in enumerate(raw, 1):
+        label = f"coat {i}"
+        if not isinstance(table, dict):
+            raise fail(f"{label} must be a table, got {table!r}", label, label)
+        for key in table:
+            if key not in COAT_KEYS:
+                raise fail(f'unknown key "{key}"{_suggest_key(key, COAT_KEYS)}',
+                           f"{label}.{key}", label)
+        places = {k: where(f"{label}.{k}", f"{label}, {k}") for k in COAT_KEYS}
+        places["dft"] = where(label, label)
+        coats.append(make_coat(table.get("name"), dft_um=table.get("dft_um"),
+                               dft_mils=table.get("dft_mils"),
+                               volume_solids=table.get("volume_solids"), loss=table.get("loss"),
+                               price_per_litre=table.get("price_per_litre"),
+                               price_per_us_gallon=table.get("price_per_us_gallon"),
+                               where=places, number=i))
+    return CoatingSystem(tuple(coats), texts["name"], texts["currency"], file)
+
+
+# -- quantities for a batch -----------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class PartArea:
+    """One kind of part in the batch: area to coat on one part (m²) and how many.
+
+    ``by_face`` holds (face, m² on one part) pairs.
+    """
+
+    name: str
+    area_each: float
+    quantity: int = 1
+    by_face: Tuple[Tuple[str, float], ...] = ()
+
+    @property
+    def area_total(self) -> float:
+        return self.area_each * self.quantity
+
+
+@dataclass(frozen=True)
+class CoatQuantity:
+    """One coat over an area (m²): litres to buy, litres left as film, cost (None: no price)."""
+
+    coat: Coat
+    area: float
+    litres: float
+    litres_theoretical: float
+    cost: Optional[float]
+
+
+@dataclass(frozen=True)
+class PartEstimate:
+    """A part of the batch with its coats (for its whole quantity)."""
+
+    part: PartArea
+    coats: Tuple[CoatQuantity, ...]
+
+    @property
+    def litres(self) -> float:
+        return float(math.fsum(c.litres for c in self.coats))
+
+    @property
+    def cost(self) -> Optional[float]:
+        return _cost_sum(self.coats)
+
+
+@dataclass(frozen=True)
+class Estimate:
+    """Coating quantities for a batch: per part and per coat, and the totals (m², L, money)."""
+
+    system: CoatingSystem
+    parts: Tuple[PartEstimate, ...]
+    coats: Tuple[CoatQuantity, ...]
+
+    @property
+    def area(self) -> float:
+        """Area coated by each coat, m² (every coat covers the whole batch)."""
+        return float(math.fsum(p.part.area_total for p in self.parts))
+
+    @property
+    def quantity(self) -> int:
+        return sum(p.part.quantity for p in self.parts)
+
+    @property
+    def litres(self) -> float:
+        return float(math.fsum(c.litres for c in self.coats))
+
+    @property
+    def cost(self) -> Optional[float]:
+        """Total cost of the priced coats; None when no coat has a price."""
+        return _cost_sum(self.coats)
+
+    @property
+    def cost_complete(self) -> bool:
+        """Whether every coat has a price."""
+        return all(c.price_per_litre is not None for c in self.system.coats)
+
+
+def _cost_sum(quantities: Sequence[CoatQuantity]) -> Optional[float]:
+    costs = [q.cost for q in quantities if q.cost is not None]
+    return float(math.fsum(costs)) if costs else None
+
+
+def coat_quantity(coat: Coat, area_m2: float) -> CoatQuantity:
+    """Litres and cost of one coat over ``area_m2``.
+
+    >>> q = coat_quantity(Coat("finish", 50, 50, 20, 10.0), 16.0)
+    >>> q.litres, q.litres_theoretical, q.cost
+    (2.0, 1.6, 20.0)
+    """
+    litres = coat.litres_for(area_m2)
+    return CoatQuantity(coat, area_m2, litres, coat.litres_theoretical_for(area_m2),
+                        coat.cost_for(litres))
+
+
+def estimate(system: CoatingSystem, parts: Sequence[PartArea]) -> Estimate:
+    """Quantities of every coat for every part of a batch, and in total.
+
+    Examples
+    --------
+    >>> system = CoatingSystem((Coat("primer", 100, 50, 0, 2.0), Coat("finish", 50, 50, 50)))
+    >>> e = estimate(system, [PartArea("a", 1.5, 4), PartArea("b", 2.0, 2)])
+    >>> e.area, [c.litres for c in e.coats], e.cost, e.cost_complete
+    (10.0, [2.0, 2.0], 4.0, False)
+    >>> [p.litres for p in e.parts]
+    [2.4, 1.6]
+    """
+    per_part = tuple(PartEstimate(p, tuple(coat_quantity(c, p.area_total) for c in system.coats))
+                     for p in parts)
+    total_area = float(math.fsum(p.area_total for p in parts))
+    return Estimate(system, per_part, tuple(coat_quantity(c, total_area) for c in system.coats))
