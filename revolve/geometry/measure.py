@@ -77,10 +77,12 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
     segs = [s for p in prep.paths for s in p]
     owner = np.concatenate([np.full(len(p), k) for k, p in enumerate(prep.paths)]) \
         if segs else np.zeros(0, dtype=int)
-    # Shift z to the middle of the profile so sector moments lose no digits.
-    zs = np.array([c for s in segs for c in (s.start[0], s.end[0])], dtype=float)
-    z_ref = float((zs.min() + zs.max()) / 2) if zs.size else 0.0
-    shifted = [_shift(s, -z_ref) for s in segs]
+    # Take sector moments about the middle of the profile, not the axis, so that a
+    # small section far from the axis loses no digits; shift them back below.
+    ends = np.array([c for s in segs for c in (s.start, s.end)], dtype=float).reshape(-1, 2)
+    z_ref = float((ends[:, 0].min() + ends[:, 0].max()) / 2) if ends.size else 0.0
+    r_ref = float((ends[:, 1].min() + ends[:, 1].max()) / 2) if ends.size else 0.0
+    shifted = [_shift(s, -z_ref, -r_ref) for s in segs]
     res = segment_integrals(shifted, symbolic=symbolic)
     vals, errs = res.values, res.errors
     # Loop factors: solid loops count positive, holes negative, whatever their direction.
@@ -100,16 +102,22 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
     m = {name: float((vals[:, COL[name]] * seg_factor).sum())
          for name in ("M00", "M10", "M01", "M20", "M11", "M02", "M03")}
     merr = {name: float(errs[:, COL[name]].sum()) for name in m}
-    # Undo the shift: z = z' + z_ref.
-    m10s, m20s, m11s = m["M10"], m["M20"], m["M11"]
-    m["M10"] = m10s + z_ref * m["M00"]
-    m["M20"] = m20s + 2 * z_ref * m10s + z_ref * z_ref * m["M00"]
-    m["M11"] = m11s + z_ref * m["M01"]
+    # Undo the shift: z = z' + z_ref, r = r' + r_ref (binomial expansion of each moment).
+    a, zr, rr = m["M00"], z_ref, r_ref
+    m10, m01, m20, m11, m02, m03 = m["M10"], m["M01"], m["M20"], m["M11"], m["M02"], m["M03"]
+    m["M10"] = m10 + zr * a
+    m["M01"] = m01 + rr * a
+    m["M20"] = m20 + 2 * zr * m10 + zr * zr * a
+    m["M11"] = m11 + zr * m01 + rr * m10 + zr * rr * a
+    m["M02"] = m02 + 2 * rr * m01 + rr * rr * a
+    m["M03"] = m03 + 3 * rr * m02 + 3 * rr * rr * m01 + rr ** 3 * a
     length = vals[:, COL["length"]]
     closed_mask = np.array([prep.closed[k] for k in owner], dtype=bool) if segs else np.zeros(0, bool)
     L = float(length.sum())
     faces: Dict[str, float] = {}
     faces_r: Dict[str, float] = {}
+    vals[:, COL["length_x"]] += z_ref * length
+    vals[:, COL["length_y"]] += r_ref * length
     for s, l_, rl in zip(segs, length, vals[:, COL["length_y"]]):
         name = s.face or UNNAMED_FACE
         faces[name] = faces.get(name, 0.0) + float(l_)
@@ -119,26 +127,33 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
            "length_r": float(errs[:, COL["length_y"]].sum())}
     return Section(area=m["M00"], moments=m, perimeter=float(length[closed_mask].sum()),
                    boundary_length=L,
-                   boundary_z=(float(vals[:, COL["length_x"]].sum()) / L + z_ref) if L else float("nan"),
+                   boundary_z=float(vals[:, COL["length_x"]].sum()) / L if L else float("nan"),
                    boundary_r=float(vals[:, COL["length_y"]].sum()) / L if L else float("nan"),
                    face_length=faces, face_r_length=faces_r, loop_factors=tuple(factors),
                    error=err, methods=res.method)
 
 
-def _shift(seg, dz: float):
+def _shift(seg, dz: float, dr: float = 0.0):
     from dataclasses import replace
     from revolve.geometry.segments import Arc, Curve, Line
 
-    if dz == 0:
+    if dz == 0 and dr == 0:
         return seg
+
+    def mv(p):
+        return (p[0] + dz, p[1] + dr)
+
     if isinstance(seg, Line):
-        return replace(seg, start=(seg.start[0] + dz, seg.start[1]), end=(seg.end[0] + dz, seg.end[1]))
+        return replace(seg, start=mv(seg.start), end=mv(seg.end))
     if isinstance(seg, Arc):
-        return replace(seg, start=(seg.start[0] + dz, seg.start[1]), end=(seg.end[0] + dz, seg.end[1]),
-                       centre=(seg.centre[0] + dz, seg.centre[1]))
+        return replace(seg, start=mv(seg.start), end=mv(seg.end), centre=mv(seg.centre))
     if isinstance(seg, Curve):
         import sympy
-        return replace(seg, x_expr=seg.x_expr + sympy.Float(dz, 17))
+
+        def add(e, v):
+            return e if v == 0 else e + (sympy.Integer(int(v)) if float(v).is_integer()
+                                         else sympy.Float(v, 17))
+        return replace(seg, x_expr=add(seg.x_expr, dz), y_expr=add(seg.y_expr, dr))
     raise TypeError(type(seg).__name__)
 
 
