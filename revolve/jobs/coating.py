@@ -533,6 +533,9 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
     def value(key: str, raw: Any, what: str) -> Optional[float]:
         if raw is None:
             return None
+        if isinstance(raw, str):
+            raise fail(key, f"{what} must be a plain number, without quotes, units or a % sign; "
+                            f"got {raw!r}")
         if isinstance(raw, bool) or not isinstance(raw, (int, float)):
             raise fail(key, f"{what} must be a number, got {raw!r}")
         v = float(raw)
