@@ -418,14 +418,14 @@ def run_coat(profiles: List[str], quantity: Optional[List[int]], faces: Optional
                "cut_faces": cut_faces}
     csv_out = csv_text(parts, est, u) if csv_file else None
     bad = [p for p in parts if not p.m.crosscheck.surface_difference <= tolerance]
+    if csv_out is not None:  # before any output, so a failed write leaves nothing half done
+        from revolve.formats.files import write_text_atomically
+
+        write_text_atomically(csv_file, csv_out)
     if as_json:
         common.print_json(estimate_dict(parts, est, u, options, notes, tolerance))
     else:
         _print_estimate(parts, est, u, notes, options)
-    if csv_out is not None:
-        from revolve.formats.files import write_text_atomically
-
-        write_text_atomically(csv_file, csv_out)
     if bad:
         for p in bad:
             print(f"revolve: {p.doc.file}: the two surface computations disagree by "
@@ -493,7 +493,7 @@ def register(app: typer.Typer) -> None:
                                                                   "faces of a revolution below "
                                                                   "360°."),
         system_file: Optional[str] = typer.Option(
-            None, "--system", help="Coating-system file (TOML) with one [[coat]] table per coat: "
+            None, "--system", help="Coating-system file (TOML) with one \\[\\[coat]] table per coat: "
                                    "name, dft_um or dft_mils, volume_solids, loss, "
                                    "price_per_litre or price_per_us_gallon."),
         coat_name: Optional[str] = typer.Option(None, "--coat-name", help="Name of the one coat."),
@@ -537,9 +537,13 @@ def register(app: typer.Typer) -> None:
     ) -> None:
         """Coating estimate: areas to coat by face, and paint per coat for a batch of parts.
 
-        Spreading rate (m²/L) = 10 × volume solids % ÷ DFT µm; practical = theoretical ×
-        (1 − loss); WFT = DFT × 100 ÷ volume solids. Output units: areas m², paint L, films
-        µm unless --area-unit, --volume-unit, --film-unit or --us say otherwise.
+        Theoretical spreading rate, m²/L = 10 × volume solids % ÷ DFT in µm.
+        Practical = theoretical × (1 − loss %/100). WFT = DFT × 100 ÷ volume solids %.
+        Paint to buy = area ÷ practical spreading rate, for each coat.
+        Units: areas m², paint L, films µm, rates m²/L; --us gives ft², US gal, mils.
+        JSON: area (per_face, total); parts; coats, each with dft, wet_film,
+        spreading_rate_theoretical, spreading_rate_practical, volume and cost;
+        total; units (the unit of every figure); notes; cautions.
         """
         code = run_coat(profiles, quantity, faces, mask, sides, cut_faces, system_file,
                         coat_name, dft, volume_solids, loss, price_litre, price_gallon, currency,

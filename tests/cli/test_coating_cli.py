@@ -1,0 +1,388 @@
+"""`revolve coat` end to end: JSON keys and units, human estimate, CSV, exit codes, bad input.
+
+References, named beside each check:
+
+* trade formulas — "common practice, no source": theoretical spreading rate
+  m²/L = 10 × volume solids % / DFT µm, practical = theoretical × (1 − loss),
+  WFT = DFT × 100 / volume solids %;
+* US units — "derived from unit definitions": 1604.17 ft²/US gal at 1 mil and
+  100 % solids (231 in³ / 0.001 in / 144; 1 US gal = 231 in³, 1 in = 25.4 mm);
+* areas — CRC *Standard Mathematical Tables and Formulae* (from memory):
+  cylinder lateral 2πrh, disc πr², sphere 4πr².
+
+The bundled example profiles and coating system are invented scenarios: they
+are run, and only checked against figures that a formula gives independently.
+"""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import math
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from revolve.cli.app import main
+from revolve.cli.common import CAUTIONS
+
+ROOT = Path(__file__).resolve().parents[2]
+SYSTEM = str(ROOT / "profiles" / "coating-idler-system.toml")
+PI = math.pi
+
+# A pipe spool 2 m long, bore radius 0.4 m, outside radius 0.5 m (invented), in metres.
+PIPE = """
+name = "Pipe spool"
+units = "m"
+[[loop]]
+start = [0, 0.4]
+segments = [
+  { line_to = [2, 0.4], face = "bore" },
+  { line_to = [2, 0.5], face = "flange face" },
+  { line_to = [0, 0.5], face = "outside" },
+  { close = true, face = "flange face" },
+]
+"""
+R_IN, R_OUT, LENGTH = 0.4, 0.5, 2.0
+BORE = 2 * PI * R_IN * LENGTH              # cylinder lateral 2πrh — CRC (from memory)
+OUTSIDE = 2 * PI * R_OUT * LENGTH          # same
+ENDS = 2 * PI * (R_OUT ** 2 - R_IN ** 2)   # two annuli π (R² − r²) — CRC (from memory)
+
+# A ball of radius 100 mm (invented): sphere 4πr² — CRC (from memory)
+BALL = """
+name = "Float ball"
+units = "mm"
+[[loop]]
+start = [100, 0]
+segments = [
+  { arc_to = [-100, 0], centre = [0, 0], turn = "ccw", face = "shell" },
+  { close = true },
+]
+"""
+
+# A cylindrical sheet of radius 1 m and length 3 m (invented): 2πrh per side — CRC
+SHEET = """
+units = "m"
+[[chain]]
+start = [0, 1]
+segments = [ { line_to = [3, 1], face = "sheet" } ]
+"""
+
+ONE_COAT = ["--dft", "100", "--volume-solids", "50", "--loss", "20"]  # 5 m²/L, 4 m²/L practical
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(list(args))
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def write(tmp_path, name, text):
+    p = tmp_path / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+def rel(a, b):
+    return abs(a - b) / abs(b)
+
+
+def assert_one_line_error(code, out, err, *fragments):
+    assert code == 2
+    assert "Traceback" not in err and "Traceback" not in out
+    lines = err.strip().splitlines()
+    assert len(lines) == 1, err
+    for fragment in fragments:
+        assert fragment in lines[0], lines[0]
+    return lines[0]
+
+
+# -- JSON -------------------------------------------------------------------------------
+
+
+def test_json_keys_units_and_caution(tmp_path, capsys):
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert set(d["area"]) >= {"per_face", "total"}
+    for key in ("spreading_rate_theoretical", "spreading_rate_practical", "wet_film", "volume"):
+        assert key in d["coats"][0]
+    assert d["units"]["area"] == "m²" and d["units"]["volume"] == "L"
+    assert d["units"]["film"] == "µm" and d["units"]["spreading_rate"] == "m²/L"
+    assert d["cautions"] == [CAUTIONS["coating"]]
+
+
+def test_json_areas_by_face_against_formulas(tmp_path, capsys):
+    path = write(tmp_path, "pipe.toml", PIPE)
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "-n", "3"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    part = d["parts"][0]
+    faces = part["area"]["per_face"]
+    assert rel(faces["bore"], BORE) < 1e-13
+    assert rel(faces["outside"], OUTSIDE) < 1e-13
+    assert rel(faces["flange face"], ENDS) < 1e-13
+    assert rel(part["area"]["total"], BORE + OUTSIDE + ENDS) < 1e-13
+    assert rel(part["area"]["batch"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
+    assert rel(d["area"]["total"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
+    assert rel(d["area"]["per_face"]["bore"], 3 * BORE) < 1e-13
+    assert part["surface_crosscheck"]["agrees"] is True
+
+
+def test_json_coat_figures_common_practice(tmp_path, capsys):
+    # common practice, no source: 10 × 50 / 100 = 5 m²/L; × (1 − 0.20) = 4 m²/L;
+    # WFT = 100 × 100 / 50 = 200 µm; litres = area / 4
+    code, out, _ = run(["coat", write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--json",
+                        "--price-per-litre", "12.5", "--currency", "EUR"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    (c,) = d["coats"]
+    area = BORE + OUTSIDE + ENDS
+    assert c["spreading_rate_theoretical"] == pytest.approx(5.0, rel=1e-15)
+    assert c["spreading_rate_practical"] == pytest.approx(4.0, rel=1e-15)
+    assert c["wet_film"] == pytest.approx(200.0, rel=1e-15)
+    assert rel(c["volume"], area / 4) < 1e-13
+    assert rel(c["volume_theoretical"], area / 5) < 1e-13
+    assert rel(c["cost"], 12.5 * area / 4) < 1e-13
+    assert rel(d["total"]["volume"], area / 4) < 1e-13
+    assert d["units"]["cost"] == "EUR" and d["units"]["price"] == "EUR per L"
+
+
+def test_us_units(tmp_path, capsys):
+    # 1604.17 ft²/US gal at 1 mil and 100 % solids — derived from unit definitions;
+    # here 4 mils at 80 %: 1604.17 × 0.8 / 4; WFT = 4 × 100 / 80 = 5 mils (common practice)
+    code, out, _ = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--us", "--dft", "4",
+                        "--volume-solids", "80", "--loss", "0", "--json"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    assert d["units"]["area"] == "ft²" and d["units"]["volume"] == "US gal"
+    assert d["units"]["film"] == "mil" and d["units"]["spreading_rate"] == "ft²/US gal"
+    (c,) = d["coats"]
+    constant = 231 / 0.001 / 144
+    assert rel(c["spreading_rate_theoretical"], constant * 0.8 / 4) < 1e-12
+    assert c["dft"] == pytest.approx(4.0, rel=1e-14) and c["wet_film"] == pytest.approx(5.0, rel=1e-14)
+    ft2 = (12 * 0.0254) ** 2                      # 1 ft = 12 in, 1 in = 25.4 mm (1959)
+    area_ft2 = (BORE + OUTSIDE + ENDS) / ft2
+    assert rel(d["area"]["total"], area_ft2) < 1e-12
+    assert rel(c["volume"], area_ft2 / (constant * 0.8 / 4)) < 1e-12
+
+
+def test_units_mixed_by_option(tmp_path, capsys):
+    coat = ["--dft", "100 um", "--volume-solids", "50", "--loss", "20"]
+    code, out, _ = run(["coat", write(tmp_path, "pipe.toml", PIPE), *coat, "--json",
+                        "--area-unit", "ft^2", "--volume-unit", "L", "--film-unit", "mil"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    c = d["coats"][0]
+    assert d["units"]["spreading_rate"] == "ft²/L"
+    assert c["dft"] == pytest.approx(100 / 25.4, rel=1e-14)   # 1 mil = 25.4 µm (1959)
+    assert rel(c["spreading_rate_theoretical"], 5.0 / (0.3048 ** 2)) < 1e-13
+    # a bare --dft number is in the film unit: 4 with --film-unit mil is 4 mils = 101.6 µm
+    code, out, _ = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--dft", "4",
+                        "--volume-solids", "50", "--loss", "0", "--film-unit", "mil", "--json"],
+                       capsys)
+    c = json.loads(out)["coats"][0]
+    assert c["dft"] == pytest.approx(4.0, rel=1e-14)
+    assert rel(c["spreading_rate_theoretical"], 10 * 50 / 101.6) < 1e-13  # common practice
+
+
+def test_faces_mask_and_groups(tmp_path, capsys):
+    path = write(tmp_path, "pipe.toml", PIPE)
+    base = ["coat", path, *ONE_COAT, "--json"]
+    code, out, _ = run(base + ["--mask", "bore"], capsys)
+    assert code == 0
+    masked = json.loads(out)
+    # masking removes exactly the bore, 2πrh — CRC (from memory)
+    assert rel(masked["area"]["total"], OUTSIDE + ENDS) < 1e-13
+    assert "bore" not in masked["parts"][0]["area"]["per_face"]
+    reasons = {s["face"]: s["reason"] for s in masked["parts"][0]["surfaces"]}
+    assert reasons["bore"] == "masked" and reasons["outside"] is None
+    code, out, _ = run(base + ["--faces", "outside,ends"], capsys)
+    assert rel(json.loads(out)["area"]["total"], OUTSIDE + ENDS) < 1e-13
+    code, out, _ = run(base + ["--faces", "inside"], capsys)
+    assert rel(json.loads(out)["area"]["total"], BORE) < 1e-13
+    code, out, _ = run(base + ["--faces", "all", "--mask", "ends", "--mask", "outside"], capsys)
+    assert rel(json.loads(out)["area"]["total"], BORE) < 1e-13
+
+
+def test_sphere_area(tmp_path, capsys):
+    # sphere 4πr² — CRC (from memory); r = 100 mm = 0.1 m
+    code, out, _ = run(["coat", write(tmp_path, "ball.toml", BALL), *ONE_COAT, "--json"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    assert rel(d["area"]["total"], 4 * PI * 0.1 ** 2) < 1e-13
+    assert [s["facing"] for s in d["parts"][0]["surfaces"]] == ["outside"]
+
+
+def test_chain_sides(tmp_path, capsys):
+    # one side: 2πrh — CRC (from memory); both sides double it
+    path = write(tmp_path, "sheet.toml", SHEET)
+    one = 2 * PI * 1 * 3
+    totals = {}
+    for sides in ("both", "inner", "outer"):
+        code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--sides", sides], capsys)
+        assert code == 0
+        totals[sides] = json.loads(out)["area"]["total"]
+    assert rel(totals["both"], 2 * one) < 1e-13
+    assert rel(totals["inner"], one) < 1e-13 and rel(totals["outer"], one) < 1e-13
+    code, out, _ = run(["coat", path, *ONE_COAT], capsys)
+    assert "outer side" in out and "inner side" in out and "both sides counted" in out
+
+
+def test_partial_revolution_cut_faces(tmp_path, capsys):
+    # a half revolution of the pipe: half of each lateral area and two cut faces, each the
+    # section's area 2 × 0.1 — Pappus–Guldinus (Stewart, Calculus, from memory)
+    path = write(tmp_path, "pipe.toml", PIPE)
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--angle", "180"], capsys)
+    half = (BORE + OUTSIDE + ENDS) / 2
+    d = json.loads(out)
+    assert rel(d["area"]["total"], half) < 1e-13
+    assert any("--cut-faces" in n for n in d["notes"])
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--angle", "180", "--cut-faces"],
+                       capsys)
+    assert rel(json.loads(out)["area"]["total"], half + 2 * (2.0 * 0.1)) < 1e-13
+
+
+def test_several_profiles_one_row_each_and_a_total(tmp_path, capsys):
+    pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
+    code, out, _ = run(["coat", pipe, ball, "-n", "2", "-n", "10", "--system", SYSTEM, "--json"],
+                       capsys)
+    assert code == 0
+    d = json.loads(out)
+    pipe_area, ball_area = BORE + OUTSIDE + ENDS, 4 * PI * 0.1 ** 2
+    assert [p["quantity"] for p in d["parts"]] == [2, 10]
+    assert rel(d["area"]["total"], 2 * pipe_area + 10 * ball_area) < 1e-13
+    assert d["total"]["quantity"] == 12
+    assert len(d["coats"]) == 2
+    for i, c in enumerate(d["coats"]):
+        # every coat covers the whole batch; parts add up to the coat's total
+        assert rel(c["area"], d["area"]["total"]) < 1e-15
+        assert rel(sum(p["coats"][i]["volume"] for p in d["parts"]), c["volume"]) < 1e-13
+        # common practice, no source
+        assert rel(c["volume"], c["area"] / c["spreading_rate_practical"]) < 1e-13
+        assert rel(c["spreading_rate_theoretical"], 10 * c["volume_solids"] / c["dft"]) < 1e-13
+    assert rel(d["total"]["cost"], sum(c["cost"] for c in d["coats"])) < 1e-13
+    assert d["system"]["file"] == SYSTEM and d["units"]["cost"] == "EUR"
+
+
+def test_one_quantity_applies_to_every_profile(tmp_path, capsys):
+    pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
+    code, out, _ = run(["coat", pipe, ball, "-n", "4", *ONE_COAT, "--json"], capsys)
+    assert [p["quantity"] for p in json.loads(out)["parts"]] == [4, 4]
+
+
+# -- human output and CSV ---------------------------------------------------------------
+
+
+def test_human_estimate_reads_like_one(capsys):
+    code, out, err = run(["coat", str(ROOT / "profiles" / "flanged-bushing.toml"),
+                          str(ROOT / "profiles" / "grooved-pulley.toml"), "-n", "50", "-n", "12",
+                          "--system", SYSTEM, "--mask", "bore"], capsys)
+    assert code == 0, err
+    for words in ("Coating estimate", "62 parts", "outside diameter", "not counted: masked",
+                  "Parts", "zinc epoxy primer", "polyurethane finish", "practical", "WFT",
+                  "m²/L", "EUR", "Caution", "Quantities are estimates"):
+        assert words in out, words
+    assert "Traceback" not in out + err
+
+
+def test_csv_rows_and_atomic_write(tmp_path, capsys):
+    target = tmp_path / "estimate.csv"
+    pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
+    code, _, _ = run(["coat", pipe, ball, "-n", "2", "-n", "10", "--system", SYSTEM,
+                      "--csv", str(target)], capsys)
+    assert code == 0
+    rows = list(csv.DictReader(io.StringIO(target.read_text(encoding="utf-8"))))
+    assert len(rows) == 2 * 2 + 2 + 1      # part × coat, each coat for all parts, total
+    assert rows[0]["part"] == "Pipe spool" and rows[0]["coat"] == "zinc epoxy primer"
+    assert rel(float(rows[0]["area (m²)"]), 2 * (BORE + OUTSIDE + ENDS)) < 1e-13
+    total = rows[-1]
+    assert total["coat"] == "all coats"
+    assert rel(float(total["volume (L)"]),
+               sum(float(r["volume (L)"]) for r in rows[4:6])) < 1e-13
+    assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".")] == []
+
+
+# -- bad input: exit 2, one line naming the place, nothing written ----------------------
+
+
+@pytest.mark.parametrize("options, fragments", [
+    (["--dft", "100", "--volume-solids", "0", "--loss", "5"], ["--volume-solids", "above 0"]),
+    (["--dft", "100", "--volume-solids", "120", "--loss", "5"], ["--volume-solids", "at most 100"]),
+    (["--dft", "-100", "--volume-solids", "50", "--loss", "5"], ["--dft", "above 0"]),
+    (["--dft", "100", "--volume-solids", "50", "--loss", "100"], ["--loss", "below 100"]),
+    (["--dft", "100", "--volume-solids", "50", "--loss", "-3"], ["--loss", "at least 0"]),
+    (["--dft", "100", "--volume-solids", "50"], ["--loss", "missing"]),
+    (["--dft", "thin", "--volume-solids", "50", "--loss", "5"], ["--dft"]),
+    ([*ONE_COAT, "--faces", "bor"], ["pipe.toml", "--faces", 'did you mean "bore"']),
+    ([*ONE_COAT, "--mask", "flange fase"], ["pipe.toml", "--mask", '"flange face"']),
+    ([*ONE_COAT, "--faces", "inside", "--mask", "bore"], ["nothing to coat"]),
+    ([*ONE_COAT, "--sides", "top"], ["--sides"]),
+    ([*ONE_COAT, "-n", "0"], ["--quantity"]),
+    ([*ONE_COAT, "-n", "1", "-n", "2"], ["--quantity", "once per profile"]),
+    ([*ONE_COAT, "--area-unit", "kg"], ["--area-unit"]),
+    ([*ONE_COAT, "--volume-unit", "m"], ["--volume-unit"]),
+    ([*ONE_COAT, "--system", SYSTEM], ["--system"]),
+    ([], ["no coating given"]),
+    (["--system", "no-such-system.toml"], ["no-such-system.toml"]),
+])
+def test_bad_options_exit_2_one_line_nothing_written(tmp_path, capsys, options, fragments):
+    target = tmp_path / "out.csv"
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), *options,
+                          "--csv", str(target)], capsys)
+    assert_one_line_error(code, out, err, *fragments)
+    assert not target.exists()
+    assert out == ""
+
+
+@pytest.mark.parametrize("text, fragment", [
+    ('[[coat]]\ndft_um = 60\nvolume_solid = 58\nloss = 5\n', ':3: coat 1: unknown key'),
+    ('[[coat]]\ndft_um = 60\nvolume_solids = 0\nloss = 5\n', ':3: coat 1, volume_solids'),
+    ('[[coat]]\ndft_um = 60\nvolume_solids = 50\nloss = 5\n[[coat]]\ndft_mils = -1\n'
+     'volume_solids = 50\nloss = 5\n', ':6: coat 2, dft_mils'),
+    ('[[coat]]\ndft_um = 60\nvolume_solids = 50\nloss = 100\n', ':4: coat 1, loss'),
+    ('[[coat]\n', ':1: malformed TOML'),
+    ('name = "empty"\n', 'no [[coat]]'),
+])
+def test_bad_coating_file_exit_2_naming_file_and_line(tmp_path, capsys, text, fragment):
+    system = write(tmp_path, "system.toml", text)
+    target = tmp_path / "out.csv"
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--system", system,
+                          "--csv", str(target)], capsys)
+    line = assert_one_line_error(code, out, err, fragment)
+    assert system in line
+    assert not target.exists()
+
+
+def test_bad_profile_exit_2(tmp_path, capsys):
+    code, out, err = run(["coat", str(tmp_path / "missing.toml"), *ONE_COAT], capsys)
+    assert_one_line_error(code, out, err, "missing.toml")
+
+
+def test_unwritable_csv_exit_2(tmp_path, capsys):
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--csv",
+                          str(tmp_path / "no" / "such" / "dir.csv"), "--json"], capsys)
+    assert_one_line_error(code, out, err, "dir.csv", "cannot write")
+    assert out == ""
+
+
+def test_subprocess_exit_codes_and_no_heavy_imports(tmp_path):
+    pipe = write(tmp_path, "pipe.toml", PIPE)
+    bad = subprocess.run([sys.executable, "-m", "revolve", "coat", pipe, "--dft", "50",
+                          "--volume-solids", "0", "--loss", "5"], capture_output=True, text=True,
+                         cwd=ROOT)
+    assert bad.returncode == 2 and "Traceback" not in bad.stderr
+    assert bad.stderr.strip().count("\n") == 0 and "--volume-solids" in bad.stderr
+    good = subprocess.run([sys.executable, "-m", "revolve", "coat", pipe, *ONE_COAT, "--json"],
+                          capture_output=True, text=True, cwd=ROOT)
+    assert good.returncode == 0 and json.loads(good.stdout)["coats"][0]["volume"] > 0
+    # the command module imports nothing heavy at start-up (RULES: start-up budget)
+    probe = ("import sys, revolve.cli.commands.coating; "
+             "print(sorted(m for m in ('sympy', 'scipy', 'pint', 'matplotlib', 'ezdxf', "
+             "'revolve.jobs.coating') if m in sys.modules))")
+    res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, cwd=ROOT)
+    assert res.stdout.strip() == "[]", res.stdout + res.stderr
