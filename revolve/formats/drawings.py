@@ -1,0 +1,296 @@
+"""Profiles from drawings: the readers' shared report, checks, and lazy entry points.
+
+The drawing readers live in :mod:`revolve.formats.svg` (SVG path data and
+SVG files) and :mod:`revolve.formats.dxf` (DXF through ezdxf). Importing
+this module imports neither of them, nor sympy, numpy or ezdxf: the reader
+functions here import the real reader when they are called, so registering
+them costs nothing at start-up. :data:`DRAWING_READERS` maps file endings to
+them, for :func:`revolve.formats.register_reader`.
+
+Each reader returns a :class:`~revolve.formats.document.ProfileDocument`
+and, through its ``*_drawing`` function, a :class:`DrawingReport`: the
+loops and open chains it found, the gaps it closed, what it skipped and why,
+where the unit and the axis came from.
+
+Examples
+--------
+>>> sorted(DRAWING_READERS)
+['.dxf', '.svg', '.svgpath']
+>>> report = DrawingReport(source="a.svg", kind="SVG file", unit="mm",
+...                        unit_source="assumed: the drawing does not say")
+>>> report.as_dict()["loops"], report.summary_line()
+([], 'a.svg (SVG file): no loops, no open chains; unit mm (assumed: the drawing does not say)')
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any, Dict, Optional, Sequence, Tuple
+
+from revolve.errors import ProfileError
+from revolve.formats.document import ProfileDocument
+
+
+@dataclass(frozen=True)
+class PathFound:
+    """One loop or open chain a reader found.
+
+    Attributes
+    ----------
+    kind : str
+        ``"loop"`` or ``"chain"``.
+    index : int
+        Its number among the profile's loops (or chains), from 1.
+    lines, arcs, curves : int
+        How many segments of each kind it has.
+    start : tuple of float
+        Its first point, in the profile's coordinates.
+    source : str
+        Where it came from: a subpath and its position in the path data, or
+        the drawing entities it was chained from.
+    """
+
+    kind: str
+    index: int
+    lines: int
+    arcs: int
+    curves: int
+    start: Tuple[float, float]
+    source: str
+
+    def as_dict(self) -> Dict[str, Any]:
+        return {"kind": self.kind, "index": self.index, "lines": self.lines, "arcs": self.arcs,
+                "curves": self.curves, "start": list(self.start), "source": self.source}
+
+    def describe(self) -> str:
+        """One line, e.g. ``loop 1: 3 lines, 1 arc from subpath 1 (character 1)``.
+
+        >>> PathFound("loop", 1, 3, 1, 0, (0.0, 0.0), "subpath 1").describe()
+        'loop 1: 3 lines, 1 arc; from subpath 1'
+        """
+        parts = [f"{n} {word}{'' if n == 1 else 's'}"
+                 for n, word in ((self.lines, "line"), (self.arcs, "arc"), (self.curves, "curve"))
+                 if n]
+        return f"{self.kind} {self.index}: {', '.join(parts) or 'no segments'}; from {self.source}"
+
+
+@dataclass(frozen=True)
+class GapClosed:
+    """A gap between two ends that the reader closed because it was within the tolerance.
+
+    ``how`` says what was done: an end of a straight line moved onto the other
+    end, or a short straight line added across the gap.
+    """
+
+    at: Tuple[float, float]
+    size: float
+    between: Tuple[str, str]
+    how: str
+
+    def as_dict(self) -> Dict[str, Any]:
+        return {"at": list(self.at), "size": self.size, "between": list(self.between),
+                "how": self.how}
+
+    def describe(self) -> str:
+        """One line.
+
+        >>> GapClosed((1.0, 2.0), 1e-7, ("LINE #1", "ARC #2"), "moved the line's end").describe()
+        "gap of 1e-07 at (1, 2) between LINE #1 and ARC #2: moved the line's end"
+        """
+        return (f"gap of {self.size:.3g} at ({self.at[0]:.6g}, {self.at[1]:.6g}) between "
+                f"{self.between[0]} and {self.between[1]}: {self.how}")
+
+
+@dataclass(frozen=True)
+class Skipped:
+    """Something in the drawing that is not part of the profile, and why."""
+
+    what: str
+    reason: str
+
+    def as_dict(self) -> Dict[str, str]:
+        return {"what": self.what, "reason": self.reason}
+
+
+@dataclass(frozen=True)
+class DrawingReport:
+    """What a drawing reader found, for the ``convert`` command to print.
+
+    Attributes
+    ----------
+    source : str
+        The file name, or ``"path data"`` for a ``d`` string given directly.
+    kind : str
+        ``"SVG path data"``, ``"SVG file"``, ``"DXF drawing"``, ...
+    unit, unit_source : str
+        The profile's length unit and where it came from.
+    loops, chains : tuple of PathFound
+    gaps_closed : tuple of GapClosed
+    skipped : tuple of Skipped
+    axis : str or None
+        Where the axis came from, when the drawing gives one.
+    tolerance : float or None
+        The gap tolerance used for chaining, in the profile's unit.
+    notes : tuple of str
+        Anything else worth knowing (a coordinate flip, an assumption).
+    """
+
+    source: str
+    kind: str
+    unit: str
+    unit_source: str
+    loops: Tuple[PathFound, ...] = ()
+    chains: Tuple[PathFound, ...] = ()
+    gaps_closed: Tuple[GapClosed, ...] = ()
+    skipped: Tuple[Skipped, ...] = ()
+    axis: Optional[str] = None
+    tolerance: Optional[float] = None
+    notes: Tuple[str, ...] = field(default=())
+
+    def as_dict(self) -> Dict[str, Any]:
+        """The report as plain JSON-ready values."""
+        return {"source": self.source, "kind": self.kind, "unit": self.unit,
+                "unit_source": self.unit_source,
+                "loops": [p.as_dict() for p in self.loops],
+                "chains": [p.as_dict() for p in self.chains],
+                "gaps_closed": [g.as_dict() for g in self.gaps_closed],
+                "skipped": [s.as_dict() for s in self.skipped],
+                "axis": self.axis, "tolerance": self.tolerance, "notes": list(self.notes)}
+
+    def summary_line(self) -> str:
+        """One line: how many loops and chains, and the unit."""
+        def count(n: int, word: str) -> str:
+            return f"no {word}s" if n == 0 else f"{n} {word}{'' if n == 1 else 's'}"
+
+        return (f"{self.source} ({self.kind}): {count(len(self.loops), 'loop')}, "
+                f"{count(len(self.chains), 'open chain')}; unit {self.unit} ({self.unit_source})")
+
+
+def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> Tuple[
+        Tuple[PathFound, ...], Tuple[PathFound, ...]]:
+    """:class:`PathFound` entries for a profile's loops and chains.
+
+    ``sources`` and ``kind_of`` run over ``profile.paths`` (loops first).
+
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> loops, chains = summarise_paths(
+    ...     Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)), ["points"], ["loop"])
+    >>> loops[0].describe(), chains
+    ('loop 1: 3 lines; from points', ())
+    """
+    loops, chains = [], []
+    for path, source, kind in zip(profile.paths, sources, kind_of):
+        kinds = [s.kind for s in path.segments]
+        start = path.segments[0].start if path.segments else (float("nan"), float("nan"))
+        target = loops if kind == "loop" else chains
+        target.append(PathFound(kind, len(target) + 1, kinds.count("line"), kinds.count("arc"),
+                                kinds.count("curve"), (float(start[0]), float(start[1])), source))
+    return tuple(loops), tuple(chains)
+
+
+def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") -> None:
+    """Refuse a profile whose loops and chains cross or touch one another or themselves.
+
+    The test is the engine's own (:func:`revolve.geometry.checks.find_self_intersection`
+    on the flattened segments, tolerance 1e-9 of the profile's size); it needs
+    no axis, so a drawing can be checked before one is known. The message
+    names both segments by their ``where`` (the drawing entity or the place
+    in the path data).
+
+    Parameters
+    ----------
+    profile : Profile
+    file : str, optional
+        File name for the message when a segment carries none.
+    after : str, optional
+        Words put before the message, e.g. ``"after chaining, "``.
+
+    Raises
+    ------
+    ProfileError
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> check_no_crossings(Profile(loops=(Loop.from_points([(0, 0), (2, 0), (2, 2), (0, 2)]),)))
+    >>> bow = Profile(loops=(Loop.from_points([(0, 0), (2, 2), (2, 0), (0, 2)]),))
+    >>> check_no_crossings(bow, file="bow.svg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: bow.svg: loop 1, segment 1: the profile intersects itself: this segment meets loop 1, segment 3; a boundary must not cross or touch itself
+    """
+    import numpy as np
+
+    from revolve.geometry.checks import (RELATIVE_TOLERANCE, _chord_owner, find_self_intersection,
+                                         flatten)
+
+    paths = profile.paths
+    if not paths:
+        return
+    flat = [[flatten(s) for s in p.segments] for p in paths]
+    points = [f for fs in flat for f in fs]
+    if not points:
+        return
+    allpts = np.vstack(points)
+    size = float(np.hypot(*(allpts.max(axis=0) - allpts.min(axis=0))))
+    chords = [np.vstack([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2))
+              for fs in flat]
+    closed = [p.closed for p in paths]
+    hit = find_self_intersection(chords, closed, RELATIVE_TOLERANCE * size)
+    if hit is None:
+        return
+    pa, ca, pb, cb = hit
+    sa, sb = _chord_owner(flat[pa], ca), _chord_owner(flat[pb], cb)
+
+    def name(k: int, j: int) -> str:
+        seg = paths[k].segments[j]
+        where = getattr(seg, "where", None)
+        if where is not None and where.place:
+            return where.place
+        return f"{'loop' if closed[k] else 'chain'} {k + 1}, segment {j + 1}"
+
+    seg = paths[pa].segments[sa]
+    where = getattr(seg, "where", None)
+    raise ProfileError(f"{after}the profile intersects itself: this segment meets "
+                       f"{name(pb, sb)}; a boundary must not cross or touch itself",
+                       file=(where.file if where is not None and where.file else file),
+                       place=name(pa, sa))
+
+
+# -- lazy entry points -----------------------------------------------------------------
+
+def read_svg_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
+    """Read the one ``<path>`` of an SVG file (see :func:`revolve.formats.svg.read_svg`).
+
+    >>> read_svg_file("no_such_drawing.svg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no_such_drawing.svg: no such file; check the name and folder
+    """
+    from revolve.formats.svg import read_svg
+
+    return read_svg(path, unit=unit)[0]
+
+
+def read_svg_path_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
+    """Read a file holding bare SVG path data (see :func:`revolve.formats.svg.read_path_data_file`)."""
+    from revolve.formats.svg import read_path_data_file
+
+    return read_path_data_file(path, unit=unit)[0]
+
+
+def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
+    """Read a DXF drawing (see :func:`revolve.formats.dxf.read_dxf`); ezdxf is imported now.
+
+    >>> read_dxf_file("no_such_drawing.dxf")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no_such_drawing.dxf: no such file; check the name and folder
+    """
+    from revolve.formats.dxf import read_dxf
+
+    return read_dxf(path, unit=unit)[0]
+
+
+#: Readers of drawings by file name ending, for :func:`revolve.formats.register_reader`.
+DRAWING_READERS = {".svg": read_svg_file, ".svgpath": read_svg_path_file, ".dxf": read_dxf_file}
