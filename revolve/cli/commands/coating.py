@@ -255,7 +255,8 @@ def csv_text(parts, est, u: _Units) -> str:
     for q in est.coats:
         w.writerow(["all parts", "", est.quantity, "", num(est.area * A)] + coat_cells(q))
     w.writerow(["all parts", "", est.quantity, "", num(est.area * A), "all coats"]
-               + [""] * 6 + [num(est.litres * V), num(_fsum(q.litres_theoretical for q in est.coats) * V),
+               + [""] * 6 + [num(est.litres * V),
+                             num(_fsum(q.litres_theoretical for q in est.coats) * V),
                              "", num(est.cost)])
     return buf.getvalue()
 
