@@ -1,0 +1,655 @@
+"""Pictures of a profile and of its revolved solid (PNG or SVG, matplotlib).
+
+:func:`profile_picture` draws the half-profile as the user drew it: the
+section filled and hatched, every face in its own colour with a legend, the
+axis as a centre line (long dash, short dash), the section centroid and the
+boundary centroid marked and labelled with their distances from the axis,
+the bounding box dimensioned, and the key results in a caption.
+
+:func:`solid_picture` draws the revolved solid in 3-D (shaded triangles of
+:func:`revolve.geometry.mesh.revolve_mesh`, faces in the same colours); a
+partial revolution is shown open, its cut faces in the section's grey.
+
+matplotlib is imported inside the functions (never at start-up) and only its
+object interface is used (``Figure`` with the Agg canvas), so no global
+backend is switched. Colours come from matplotlib's default ``tab10`` cycle.
+Files are written atomically: a temporary file beside the target, then a
+rename. The picture has exactly the requested size in pixels (PNG) or in
+points at 72 per inch for ``dpi`` pixels per inch (SVG).
+
+Examples
+--------
+>>> picture_format("part.PNG"), picture_format("part.svg")
+('png', 'svg')
+>>> picture_format("part.jpg")
+Traceback (most recent call last):
+...
+revolve.errors.FormatError: part.jpg: pictures are written as .png or .svg, not ".jpg"
+"""
+
+from __future__ import annotations
+
+import math
+import os
+import tempfile
+import textwrap
+from typing import Dict, List, Optional, Sequence, Tuple
+
+import numpy as np
+
+from revolve.errors import FormatError, RevolveError
+
+#: Picture formats by file name ending.
+FORMATS = {".png": "png", ".svg": "svg"}
+
+#: Fill, hatch and outline colours of the section (and of cut faces in 3-D).
+SECTION_FILL = "#ececec"
+SECTION_HATCH = "#b4b4b4"
+CUT_FACE_COLOUR = "#c9c9c9"
+AXIS_COLOUR = "#444444"
+
+#: Line styles used after the ten colours of tab10 have been used once each.
+_STYLES = ("-", (0, (6, 2)), (0, (1, 1.5)), (0, (6, 2, 1, 2)))
+
+
+def picture_format(path: str) -> str:
+    """``"png"`` or ``"svg"`` from the file name's ending; anything else is refused."""
+    ext = os.path.splitext(os.fspath(path))[1].lower()
+    if ext not in FORMATS:
+        raise FormatError(f'pictures are written as .png or .svg, not "{ext or path}"', file=path)
+    return FORMATS[ext]
+
+
+def face_styles(names: Sequence[str]) -> Dict[str, Tuple[str, object]]:
+    """Colour and line style of each face: tab10 in order, then again with other dashes.
+
+    >>> s = face_styles([f"f{i}" for i in range(12)])
+    >>> s["f0"][0] == s["f10"][0], s["f0"][1] == s["f10"][1]
+    (True, False)
+    """
+    from matplotlib import colormaps
+
+    colours = colormaps["tab10"].colors
+    return {name: (colours[k % 10], _STYLES[(k // 10) % len(_STYLES)]) for k, name in enumerate(names)}
+
+
+def _figure(width: int, height: int, dpi: int):
+    from matplotlib.figure import Figure
+
+    if not (isinstance(width, int) and isinstance(height, int)) or width < 200 or height < 150 \
+            or width > 10000 or height > 10000:
+        raise RevolveError(f"the picture size must be whole pixels, at least 200 × 150 and at most "
+                           f"10000 × 10000, got {width} × {height}")
+    if not (isinstance(dpi, int) and 30 <= dpi <= 1200):
+        raise RevolveError(f"the picture resolution must be 30 to 1200 pixels per inch, got {dpi}")
+    # A hair over the size: the canvas takes the whole part of width × dpi.
+    return Figure(figsize=((width + 1e-3) / dpi, (height + 1e-3) / dpi), dpi=dpi)
+
+
+def save_figure(fig, path: str) -> None:
+    """Save a figure atomically in the format its name says (PNG or SVG)."""
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    kind = picture_format(path)
+    FigureCanvasAgg(fig)
+    folder = os.path.dirname(os.path.abspath(path))
+    try:
+        fd, temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=folder)
+    except OSError as exc:
+        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
+    try:
+        with os.fdopen(fd, "wb") as handle:
+            fig.savefig(handle, format=kind, dpi=fig.dpi,
+                        metadata={"Software": "revolve"} if kind == "png" else {"Creator": "revolve"})
+        umask = os.umask(0)
+        os.umask(umask)
+        os.chmod(temporary, 0o666 & ~umask)
+        os.replace(temporary, path)
+    except BaseException as exc:
+        try:
+            os.unlink(temporary)
+        except OSError:
+            pass
+        if isinstance(exc, OSError):
+            raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
+        raise
+
+
+# -- the profile --------------------------------------------------------------------
+
+def _sketch_paths(profile, size: float):
+    """Flattened sketch points of every segment, grouped by path."""
+    from revolve.geometry.mesh import flatten_segment
+
+    tol = size / 3000.0
+    return [[flatten_segment(s, tol) for s in p.segments] for p in profile.paths]
+
+
+def _loop_polygon(pieces: List[np.ndarray]) -> np.ndarray:
+    return np.vstack([p[:-1] for p in pieces])
+
+
+def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequence[str] = ()) -> List[str]:
+    from revolve.cli.common import fmt
+
+    f = lambda v: fmt(v, 6)  # noqa: E731
+    first = [f"revolved {float(revolution.angle_degrees):g}° about {_axis_text(revolution.axis)}"]
+    if m.has_solid:
+        first.append(f"section area {f(m.area * u.area_factor)} {u.area}")
+        first.append(f"volume {f(m.volume * u.volume_factor)} {u.volume}")
+    surface = f"surface {f(m.surface_total * u.area_factor)} {u.area}"
+    if m.cut_face_area is not None:
+        surface += f" swept + 2 × {f(m.cut_face_area * u.area_factor)} {u.area} cut faces"
+    first.append(surface)
+    lines = ["   ·   ".join(first)]
+    if m.mass is not None:
+        lines.append(f"mass {f(m.mass * u.mass_factor)} {u.mass}"
+                     + (f"   ·   {density_label}" if density_label else ""))
+    if m.crosscheck is not None:
+        parts = []
+        if m.has_solid:
+            parts.append(f"volume {m.crosscheck.volume_difference:.1e}")
+        parts.append(f"surface {m.crosscheck.surface_difference:.1e}")
+        lines.append("second computation (washers, quadrature of r ds), relative difference: "
+                     + ", ".join(parts))
+    lines += list(extra)
+    return lines
+
+
+def _axis_text(axis) -> str:
+    from revolve.cli.common import fmt
+
+    d = axis.unit_direction()
+    p = (float(axis.point[0]), float(axis.point[1]))
+    if p == (0.0, 0.0) and d == (1.0, 0.0):
+        return "the sketch x axis"
+    if p == (0.0, 0.0) and d == (0.0, 1.0):
+        return "the sketch y axis"
+    return (f"the axis through ({fmt(p[0], 6)}, {fmt(p[1], 6)}) "
+            f"along ({fmt(d[0], 4)}, {fmt(d[1], 4)})")
+
+
+def _dimension(ax, a, b, offset_dir, gap, text, colour="#333333", fontsize=9):
+    """A dimension line between points a and b, moved by ``gap`` along ``offset_dir``.
+
+    Returns sample points of the ink it put down (for placing labels clear of it).
+    """
+    a, b, o = np.asarray(a, float), np.asarray(b, float), np.asarray(offset_dir, float)
+    pa, pb = a + o * gap, b + o * gap
+    ink = []
+    for p, q in ((a, pa), (b, pb)):  # extension lines, starting a little off the part
+        e0, e1 = p + o * gap * 0.15, q + o * gap * 0.25
+        ax.plot([e0[0], e1[0]], [e0[1], e1[1]], color=colour, lw=0.6, zorder=4)
+        ink.append(np.linspace(e0, e1, 12))
+    ax.annotate("", xy=pb, xytext=pa, zorder=4,
+                arrowprops=dict(arrowstyle="<|-|>", color=colour, lw=0.8, shrinkA=0, shrinkB=0,
+                                mutation_scale=9))
+    ink.append(np.linspace(pa, pb, 60))
+    mid = (pa + pb) / 2
+    vertical = abs(b[1] - a[1]) > abs(b[0] - a[0])
+    ax.text(mid[0], mid[1], text, rotation=90 if vertical else 0, ha="center", va="center",
+            fontsize=fontsize, color=colour, zorder=5,
+            bbox=dict(boxstyle="round,pad=0.2", fc="white", ec="none"))
+    return np.vstack(ink)
+
+
+def _resample(points: np.ndarray, spacing: float) -> np.ndarray:
+    """Points along a polyline no farther apart than ``spacing``."""
+    out = [points[:1]]
+    for p, q in zip(points[:-1], points[1:]):
+        n = max(1, int(math.ceil(float(np.hypot(*(q - p))) / spacing)))
+        out.append(p + (q - p) * (np.arange(1, n + 1)[:, None] / n))
+    return np.vstack(out)
+
+
+def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: int) -> None:
+    """Label each mark where its box covers the least ink, inside the axes, clear of other labels.
+
+    ``marks`` holds (text, data point); ``ink_data`` are sample points (data
+    coordinates) of lines already drawn. Candidate places lie around the mark
+    at a few distances; the first label's box is an obstacle for the second.
+    """
+    renderer = fig.canvas.get_renderer()
+    to_px = ax.transData.transform
+    ink = to_px(ink_data) if len(ink_data) else np.zeros((0, 2))
+    bounds = ax.get_window_extent(renderer)
+    taken: List[Tuple[float, float, float, float]] = []
+    px_per_pt = dpi / 72.0
+    marks_px = [to_px(np.asarray(p, float)[None])[0] for _, p in marks]
+    angles = np.radians([45, 135, -45, -135, 90, -90, 0, 180, 22, 158, -22, -158, 68, 112, -68, -112])
+    for (text, p), anchor in zip(marks, marks_px):
+        probe = ax.text(0, 0, text, fontsize=fontsize * 0.9, transform=None)
+        box = probe.get_window_extent(renderer)
+        probe.remove()
+        w, h = box.width + 10 * px_per_pt, box.height + 8 * px_per_pt
+        best, best_score = None, None
+        for radius in (34, 56, 84, 120):
+            r = radius * px_per_pt
+            for k, a in enumerate(angles):
+                dx, dy = r * math.cos(a), r * 0.75 * math.sin(a)
+                x0 = anchor[0] + dx - (0 if dx > 1 else (w if dx < -1 else w / 2))
+                y0 = anchor[1] + dy - (0 if dy > 1 else (h if dy < -1 else h / 2))
+                x1, y1 = x0 + w, y0 + h
+                score = 0.0
+                out = max(0.0, bounds.x0 - x0) + max(0.0, x1 - bounds.x1) + \
+                    max(0.0, bounds.y0 - y0) + max(0.0, y1 - bounds.y1)
+                score += 50.0 * out
+                if len(ink):
+                    inside = (ink[:, 0] > x0) & (ink[:, 0] < x1) & (ink[:, 1] > y0) & (ink[:, 1] < y1)
+                    score += 4.0 * float(np.count_nonzero(inside))
+                for q in marks_px:  # never cover a mark
+                    if x0 - 6 < q[0] < x1 + 6 and y0 - 6 < q[1] < y1 + 6:
+                        score += 400.0
+                for (tx0, ty0, tx1, ty1) in taken:
+                    ox = max(0.0, min(x1, tx1) - max(x0, tx0))
+                    oy = max(0.0, min(y1, ty1) - max(y0, ty0))
+                    score += 5.0 * ox * oy / px_per_pt
+                score += 0.6 * radius + 0.5 * k  # near and in the usual places first
+                if best_score is None or score < best_score:
+                    best_score, best = score, (dx, dy, (x0, y0, x1, y1))
+        dx, dy, rect = best
+        taken.append(rect)
+        ax.annotate(text, xy=p, xytext=(dx / px_per_pt, dy / px_per_pt), textcoords="offset points",
+                    fontsize=fontsize * 0.9, ha="left" if dx > 1 else ("right" if dx < -1 else "center"),
+                    va="bottom" if dy > 1 else ("top" if dy < -1 else "center"), zorder=7,
+                    bbox=dict(boxstyle="round,pad=0.3", fc="white", ec="#999999", lw=0.6, alpha=0.94),
+                    arrowprops=dict(arrowstyle="-", color="#555555", lw=0.7, shrinkA=0, shrinkB=5))
+
+
+def profile_picture(revolution, measurement, path: str, *, units, title: Optional[str] = None,
+                    density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                    dpi: int = 100) -> None:
+    """Draw the profile with its axis, centroids, faces, dimensions and key results.
+
+    Parameters
+    ----------
+    revolution : revolve.geometry.profile.Revolution
+    measurement : revolve.geometry.measure.Measurement
+        Its results go into the caption and place the centroids.
+    path : str
+        ``.png`` or ``.svg`` file, written atomically.
+    units : revolve.cli.common.OutputUnits
+        Units of the dimensions and the caption.
+    title : str, optional
+        Heading (the profile's name).
+    density_label : str, optional
+        Where the density came from, shown beside the mass.
+    width, height, dpi : int
+        Picture size in pixels and its resolution.
+
+    Examples
+    --------
+    >>> import os, tempfile
+    >>> from revolve.cli.common import output_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> out = os.path.join(tempfile.mkdtemp(), "ring.png")
+    >>> profile_picture(rev, measure(rev), out, units=output_units("mm"), width=400, height=300)
+    >>> import matplotlib.image
+    >>> matplotlib.image.imread(out).shape[:2]
+    (300, 400)
+    """
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+    from matplotlib.lines import Line2D
+    from matplotlib.patches import Patch, PathPatch
+    from matplotlib.path import Path as MplPath
+
+    from revolve.cli.common import fmt
+    from revolve.geometry.checks import prepare
+    from revolve.geometry.mesh import signed_area
+    from revolve.geometry.profile import UNNAMED_FACE
+
+    picture_format(path)
+    m, u = measurement, units
+    profile, axis = revolution.profile, revolution.axis
+    prep = prepare(profile, axis)
+    size = prep.size
+    L = u.length_factor
+    flat = _sketch_paths(profile, size)
+    allpts = np.vstack([q for fs in flat for q in fs])
+    lo, hi = allpts.min(axis=0), allpts.max(axis=0)
+    ux, uy = axis.unit_direction()
+    along = np.array([ux, uy])
+    origin = np.array([float(axis.point[0]), float(axis.point[1])])
+    towards = prep.side * np.array([-uy, ux])  # from the axis towards the profile
+    centre = (lo + hi) / 2
+    axis_distance = abs(float(np.dot(centre - origin, towards)))
+    show_axis = axis_distance <= 6.0 * size
+
+    fig = _figure(width, height, dpi)
+    FigureCanvasAgg(fig)
+    scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
+    fs = max(6.0, 10.0 * scale)
+    caption = _caption_lines(m, u, revolution, density_label)
+    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
+    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
+    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
+    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
+    ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
+    ax.set_axis_off()
+
+    # The section: solid loops anticlockwise, holes clockwise, one compound path.
+    verts, codes = [], []
+    loop_no = 0
+    for pieces, closed in zip(flat, prep.closed):
+        if not closed:
+            continue
+        poly = _loop_polygon(pieces)
+        depth = prep.depths[loop_no]
+        loop_no += 1
+        if (signed_area(poly) > 0) != (depth % 2 == 0):
+            poly = poly[::-1]
+        verts += [poly, poly[:1]]
+        codes += [MplPath.MOVETO] + [MplPath.LINETO] * (len(poly) - 1) + [MplPath.CLOSEPOLY]
+    if verts:
+        ax.add_patch(PathPatch(MplPath(np.vstack(verts), codes), facecolor=SECTION_FILL,
+                               edgecolor=SECTION_HATCH, hatch="////", lw=0, zorder=1))
+
+    # Faces: one colour each.
+    styles = face_styles(profile.faces())
+    for path_pieces, p in zip(flat, profile.paths):
+        for pts, seg in zip(path_pieces, p.segments):
+            colour, style = styles[seg.face or UNNAMED_FACE]
+            ax.plot(pts[:, 0], pts[:, 1], color=colour, linestyle=style,
+                    lw=2.2 if p.closed else 3.0, solid_capstyle="round", zorder=3)
+
+    # The view: the profile, the foot of the axis beside it, room for the dimensions.
+    view_lo, view_hi = lo.copy(), hi.copy()
+    if show_axis:
+        corners = np.array([[lo[0], lo[1]], [lo[0], hi[1]], [hi[0], lo[1]], [hi[0], hi[1]]])
+        feet = origin + ((corners - origin) @ along)[:, None] * along
+        view_lo = np.minimum(view_lo, feet.min(axis=0))
+        view_hi = np.maximum(view_hi, feet.max(axis=0))
+    else:
+        reach = float(np.max(np.abs((allpts - centre) @ towards)))
+        arrow_start = centre - towards * (reach + 0.12 * size)
+        arrow_end = arrow_start - towards * 0.15 * size
+        view_lo = np.minimum(view_lo, np.minimum(arrow_start, arrow_end) - 0.1 * size)
+        view_hi = np.maximum(view_hi, np.maximum(arrow_start, arrow_end) + 0.1 * size)
+    span = float(np.max(view_hi - view_lo)) or size
+    gap = 0.07 * span
+    up = 1.0 if towards[1] >= -1e-12 else -1.0      # dimensions go on the side away from the axis
+    right = 1.0 if towards[0] >= -1e-12 else -1.0
+    y_dim = hi[1] if up > 0 else lo[1]
+    x_dim = hi[0] if right > 0 else lo[0]
+    view_lo, view_hi = view_lo - 0.06 * span, view_hi + 0.06 * span
+    if up > 0:
+        view_hi[1] = max(view_hi[1], y_dim + 1.6 * gap)
+    else:
+        view_lo[1] = min(view_lo[1], y_dim - 1.6 * gap)
+    if right > 0:
+        view_hi[0] = max(view_hi[0], x_dim + 1.6 * gap)
+    else:
+        view_lo[0] = min(view_lo[0], x_dim - 1.6 * gap)
+    # Widen the view to the axes' own shape so that equal scales need no other change.
+    box_w = ax.get_position().width * width
+    box_h = ax.get_position().height * height
+    vw, vh = view_hi - view_lo
+    mid = (view_lo + view_hi) / 2
+    if vw / vh < box_w / box_h:
+        vw = vh * box_w / box_h
+    else:
+        vh = vw * box_h / box_w
+    view_lo, view_hi = mid - (vw / 2, vh / 2), mid + (vw / 2, vh / 2)
+    ax.set_xlim(view_lo[0], view_hi[0])
+    ax.set_ylim(view_lo[1], view_hi[1])
+    ax.set_aspect("equal", adjustable="box")
+
+    ink = [_resample(np.vstack([p[:-1] for p in pieces] + [pieces[-1][-1:]]), span / 400.0)
+           for pieces in flat]
+    if hi[0] - lo[0] > 1e-12 * size:
+        ink.append(_dimension(ax, (lo[0], y_dim), (hi[0], y_dim), (0, up), gap,
+                              f"{fmt((hi[0] - lo[0]) * L, 5)} {u.length}", fontsize=fs * 0.95))
+    if hi[1] - lo[1] > 1e-12 * size:
+        ink.append(_dimension(ax, (x_dim, lo[1]), (x_dim, hi[1]), (right, 0), gap,
+                              f"{fmt((hi[1] - lo[1]) * L, 5)} {u.length}", fontsize=fs * 0.95))
+
+    # The axis: a centre line across the view, its direction arrowed and named.
+    if show_axis:
+        box = np.array([[view_lo[0], view_lo[1]], [view_lo[0], view_hi[1]],
+                        [view_hi[0], view_lo[1]], [view_hi[0], view_hi[1]]])
+        t = (box - origin) @ along
+        a_pt, b_pt = origin + t.min() * along, origin + t.max() * along
+        # Keep the arrow and the name inside the view: walk back from the far end.
+        inside = lambda q: bool(np.all(q >= view_lo) and np.all(q <= view_hi))  # noqa: E731
+        tip = b_pt
+        for frac in np.linspace(1.0, 0.5, 51):
+            tip = a_pt + frac * (b_pt - a_pt)
+            if inside(tip) and inside(tip - 0.06 * span * along):
+                break
+        tip = tip - 0.05 * span * along
+        ax.plot([a_pt[0], b_pt[0]], [a_pt[1], b_pt[1]], color=AXIS_COLOUR, lw=1.0,
+                linestyle=(0, (14, 3, 2, 3)), zorder=2)
+        ax.annotate("", xy=tip + 0.04 * span * along, xytext=tip, zorder=2,
+                    arrowprops=dict(arrowstyle="-|>", color=AXIS_COLOUR, lw=1.0, mutation_scale=12))
+        label_at = tip - 0.035 * span * towards
+        angle = math.degrees(math.atan2(uy, ux))
+        if angle > 90 or angle < -90:
+            angle -= 180 * np.sign(angle)
+        ax.text(label_at[0], label_at[1], "axis", rotation=angle, rotation_mode="anchor",
+                ha="center", va="center", fontsize=fs, color=AXIS_COLOUR, style="italic", zorder=5,
+                bbox=dict(boxstyle="round,pad=0.15", fc="white", ec="none", alpha=0.8))
+        ink.append(np.linspace(a_pt, b_pt, 400))
+        ink.append(np.repeat(label_at[None], 8, axis=0))
+    else:
+        ax.annotate(f"axis {fmt(axis_distance * L, 5)} {u.length} away", xy=arrow_end,
+                    xytext=arrow_start, ha="center", va="center", fontsize=fs, color=AXIS_COLOUR,
+                    style="italic", zorder=5, bbox=dict(boxstyle="round,pad=0.2", fc="white", ec="none"),
+                    arrowprops=dict(arrowstyle="-|>", color=AXIS_COLOUR, lw=1.0))
+        ink.append(np.linspace(arrow_start - 0.1 * size * along, arrow_start + 0.1 * size * along, 20))
+
+    # Centroids: marked, then labelled where the labels cover the least.
+    marks = []
+    if m.has_solid and np.all(np.isfinite(m.centroid)):
+        p = np.array(m.centroid)
+        ax.plot([p[0]], [p[1]], marker="o", markersize=11, markerfacecolor="none",
+                markeredgecolor="black", markeredgewidth=1.3, linestyle="none", zorder=6)
+        ax.plot([p[0]], [p[1]], marker="+", markersize=15, color="black", mew=0.9, zorder=6)
+        marks.append((f"section centroid\n{fmt(m.centroid_distance * L, 5)} {u.length} from the axis", p))
+    if np.all(np.isfinite(m.boundary_centroid)):
+        p = np.array(m.boundary_centroid)
+        ax.plot([p[0]], [p[1]], marker="D", markersize=5, markerfacecolor="black",
+                markeredgecolor="white", markeredgewidth=0.6, linestyle="none", zorder=6.5)
+        marks.append((f"boundary centroid\n{fmt(m.boundary_centroid_distance * L, 5)} {u.length} "
+                      "from the axis", p))
+    _place_labels(fig, ax, marks, np.vstack(ink), fs, dpi)
+
+    # Legend of faces, outside the drawing on the right.
+    handles = [Line2D([], [], color=c, linestyle=s, lw=2.4) for c, s in styles.values()]
+    chain_only = _chain_faces(profile) - _loop_faces(profile)
+    labels = [f"{n} (surface only)" if n in chain_only else n for n in styles]
+    if verts:
+        handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
+        labels.append("section")
+    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=(0, (14, 3, 2, 3))))
+    labels.append("axis")
+    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01), frameon=False,
+               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
+               ncols=1 if len(labels) <= 24 else 2, handlelength=2.6)
+    if title:
+        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
+                 fontweight="bold", va="top", ha="left")
+    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
+             linespacing=1.45, color="#222222")
+    save_figure(fig, path)
+
+
+def _chain_faces(profile) -> set:
+    from revolve.geometry.profile import UNNAMED_FACE
+    return {s.face or UNNAMED_FACE for c in profile.chains for s in c.segments}
+
+
+def _loop_faces(profile) -> set:
+    from revolve.geometry.profile import UNNAMED_FACE
+    return {s.face or UNNAMED_FACE for c in profile.loops for s in c.segments}
+
+
+# -- the solid --------------------------------------------------------------------------
+
+#: Triangles the 3-D picture aims to stay under (matplotlib sorts and draws each one).
+PICTURE_TRIANGLES = 40_000
+
+
+def picture_mesh(revolution, tolerance: Optional[float] = None):
+    """A mesh fine enough to look smooth and coarse enough to draw quickly."""
+    from revolve.geometry.checks import prepare
+    from revolve.geometry.mesh import revolve_mesh
+
+    if tolerance is not None:
+        return revolve_mesh(revolution, tolerance)
+    size = prepare(revolution.profile, revolution.axis).size
+    tol = size / 2000.0
+    mesh = revolve_mesh(revolution, tol)
+    while len(mesh.triangles) > PICTURE_TRIANGLES:
+        tol *= 2.0
+        mesh = revolve_mesh(revolution, tol)
+    return mesh
+
+
+def _rotate(v: np.ndarray, k: np.ndarray, angle: float) -> np.ndarray:
+    """Rotate vectors ``v`` (n, 3) by ``angle`` about the unit vector ``k`` (Rodrigues).
+
+    >>> _rotate(np.array([[1.0, 0.0, 0.0]]), np.array([0.0, 0.0, 1.0]), math.pi / 2).round(12).tolist()
+    [[0.0, 1.0, 0.0]]
+    """
+    c, s = math.cos(angle), math.sin(angle)
+    return v * c + np.cross(k, v) * s + np.outer(v @ k, k) * (1.0 - c)
+
+
+def _opening_turn(revolution, turn: np.ndarray, axis_dir: np.ndarray, view: np.ndarray) -> float:
+    """Angle about the axis that brings the middle of the missing wedge towards the viewer."""
+    from revolve.geometry.checks import prepare
+
+    side = prepare(revolution.profile, revolution.axis).side
+    ux, uy = revolution.axis.unit_direction()
+    u3 = np.array([ux, uy, 0.0])
+    n3 = side * np.array([-uy, ux, 0.0])
+    w3 = np.cross(u3, n3)
+    theta = revolution.angle_radians
+    middle = theta + (2 * math.pi - theta) / 2
+    gap = turn @ (math.cos(middle) * n3 + math.sin(middle) * w3)
+    target = view - (view @ axis_dir) * axis_dir
+    if np.linalg.norm(target) < 1e-9:  # looking along the axis: any turn will do
+        return 0.0
+    target = target / np.linalg.norm(target)
+    return math.atan2(float(np.cross(gap, target) @ axis_dir), float(gap @ target))
+
+
+def solid_picture(revolution, measurement, path: str, *, units, title: Optional[str] = None,
+                  density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                  dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
+                  azimuth: float = -58.0):
+    """Draw the revolved solid in 3-D, shaded, faces coloured; returns the mesh drawn.
+
+    The sketch plane faces the viewer as in :func:`profile_picture` (sketch
+    ``x`` to the right, ``y`` up) and the sweep comes out of it towards the
+    viewer, so a partial revolution shows its open side and its cut faces.
+
+    Examples
+    --------
+    >>> import os, tempfile
+    >>> from revolve.cli.common import output_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)),
+    ...                  Axis.x(), 270)
+    >>> out = os.path.join(tempfile.mkdtemp(), "ring.svg")
+    >>> mesh = solid_picture(rev, measure(rev), out, units=output_units("mm"), width=400, height=300)
+    >>> open(out).read(200).lstrip().startswith("<?xml")
+    True
+    """
+    from matplotlib.patches import Patch
+    from mpl_toolkits.mplot3d.art3d import Line3DCollection, Poly3DCollection
+    from matplotlib.colors import to_rgb
+
+    from revolve.geometry.mesh import CUT_FACE_END, CUT_FACE_START
+
+    picture_format(path)
+    mesh = picture_mesh(revolution, tolerance)
+    m, u = measurement, units
+    # Sketch (x, y, z) -> picture (x, -z, y): the sketch plane stands facing the viewer.
+    turn = np.array([[1.0, 0.0, 0.0], [0.0, 0.0, -1.0], [0.0, 1.0, 0.0]])
+    vertices = mesh.vertices @ turn.T
+    normals = mesh.normals() @ turn.T
+    e, a = math.radians(elevation), math.radians(azimuth)
+    view = np.array([math.cos(e) * math.cos(a), math.cos(e) * math.sin(a), math.sin(e)])
+    ux, uy = revolution.axis.unit_direction()
+    d3 = turn @ np.array([ux, uy, 0.0])
+    p3 = turn @ np.array([float(revolution.axis.point[0]), float(revolution.axis.point[1]), 0.0])
+    if not revolution.full:
+        # Turn the part about its axis so that the middle of the missing wedge faces the viewer.
+        alpha = _opening_turn(revolution, turn, d3, view)
+        vertices = p3 + _rotate(vertices - p3, d3, alpha)
+        normals = _rotate(normals, d3, alpha)
+    corners = vertices[mesh.triangles]
+    right = np.cross(np.array([0.0, 0.0, 1.0]), view)
+    right /= np.linalg.norm(right) or 1.0
+    light = view + 0.6 * np.array([0.0, 0.0, 1.0]) - 0.35 * right
+    light /= np.linalg.norm(light)
+    lambert = normals @ light
+    if not mesh.closed:  # open surfaces are seen from both sides
+        lambert = np.abs(lambert)
+    shade = 0.42 + 0.58 * ((np.clip(lambert, -1.0, 1.0) + 1.0) / 2.0) ** 1.6  # soft, wrapped light
+
+    names = list(mesh.face_names)
+    styles = face_styles([n for n in names if n not in (CUT_FACE_START, CUT_FACE_END)])
+    base = np.array([to_rgb(styles[n][0]) if n in styles else to_rgb(CUT_FACE_COLOUR) for n in names])
+    base = base if len(base) else np.zeros((0, 3))
+    rgb = np.clip(base[mesh.face_of] * shade[:, None], 0.0, 1.0) if len(mesh.face_of) else np.zeros((0, 3))
+    # A closed surface never shows the back of a triangle: leaving those out also spares
+    # matplotlib's painter's sort (one depth per triangle) most of its mistakes.
+    front = (normals @ view > 0) if mesh.closed else np.ones(len(corners), dtype=bool)
+    corners, rgb = corners[front], rgb[front]
+
+    fig = _figure(width, height, dpi)
+    scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi
+    fs = max(6.0, 10.0 * scale)
+    extra = [f"drawn from a mesh of {len(mesh.triangles):,} triangles "
+             f"(chord tolerance {mesh.tolerance * u.length_factor:.3g} {u.length})"]
+    caption = _caption_lines(m, u, revolution, density_label, extra)
+    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
+    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
+    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
+    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
+    ax = fig.add_axes([0.0, caption_height, 0.78, top - caption_height], projection="3d")
+    ax.set_proj_type("ortho")
+    ax.computed_zorder = False  # the centre line is drawn over the part, as on a drawing
+    ax.view_init(elev=elevation, azim=azimuth)
+    ax.set_axis_off()
+    poly = Poly3DCollection(corners, facecolors=rgb, edgecolors=rgb, linewidths=0.6, zorder=1)
+    ax.add_collection3d(poly)
+
+    lo, hi = vertices.min(axis=0), vertices.max(axis=0)
+    span = hi - lo
+    biggest = float(span.max()) or 1.0
+    # The axis of revolution, a centre line a little longer than the part.
+    t = (vertices - p3) @ d3
+    ends = p3 + np.outer([t.min() - 0.12 * biggest, t.max() + 0.12 * biggest], d3)
+    ax.add_collection3d(Line3DCollection([ends], colors=AXIS_COLOUR, linewidths=1.0,
+                                         linestyles=[(0, (14, 3, 2, 3))], zorder=3))
+    lo = np.minimum(lo, ends.min(axis=0))
+    hi = np.maximum(hi, ends.max(axis=0))
+    span = np.maximum(hi - lo, 0.02 * biggest)
+    middle = (lo + hi) / 2
+    ax.set_xlim(middle[0] - span[0] / 2, middle[0] + span[0] / 2)
+    ax.set_ylim(middle[1] - span[1] / 2, middle[1] + span[1] / 2)
+    ax.set_zlim(middle[2] - span[2] / 2, middle[2] + span[2] / 2)
+    ax.set_box_aspect(tuple(span), zoom=1.25)
+
+    used = {names[k] for k in np.unique(mesh.face_of)}
+    handles = [Patch(facecolor=styles[n][0]) for n in styles if n in used]
+    labels = [n for n in styles if n in used]
+    if any(n in (CUT_FACE_START, CUT_FACE_END) for n in names):
+        handles.append(Patch(facecolor=CUT_FACE_COLOUR))
+        labels.append("cut faces")
+    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.78, top - 0.01), frameon=False,
+               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
+               ncols=1 if len(labels) <= 24 else 2)
+    if title:
+        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
+                 fontweight="bold", va="top", ha="left")
+    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
+             linespacing=1.45, color="#222222")
+    save_figure(fig, path)
+    return mesh
