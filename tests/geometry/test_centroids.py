@@ -88,7 +88,7 @@ def test_quarter_circle(r, cx, cy, beta):
         assert abs(got - 4 * r / (3 * math.pi)) <= LINE_ARC_TOL * r, (edge, got)
 
 
-@pytest.mark.parametrize("alpha", [0.05, math.pi / 6, math.pi / 3, 3 * math.pi / 4, 0.95 * math.pi])
+@pytest.mark.parametrize("alpha", [1e-3, 0.05, math.pi / 6, math.pi / 3, 3 * math.pi / 4, 0.95 * math.pi])
 @pytest.mark.parametrize("reverse", [False, True], ids=["ccw", "cw"])
 def test_sector(alpha, reverse):
     r, c, beta = 2.0, (1.0, 5.0), 0.4     # bisector at angle beta
