@@ -82,8 +82,7 @@ def _figure(width: int, height: int, dpi: int):
                            f"10000 × 10000, got {width} × {height}")
     if not (isinstance(dpi, int) and 30 <= dpi <= 1200):
         raise RevolveError(f"the picture resolution must be 30 to 1200 pixels per inch, got {dpi}")
-    # A hair over the size: the canvas takes the whole part of width × dpi.
-    return Figure(figsize=((width + 1e-3) / dpi, (height + 1e-3) / dpi), dpi=dpi)
+    return Figure(figsize=(width / dpi, height / dpi), dpi=dpi)
 
 
 def save_figure(fig, path: str) -> None:
@@ -143,7 +142,7 @@ def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequen
     first.append(surface)
     lines = ["   ·   ".join(first)]
     if m.mass is not None:
-        lines.append(f"mass {f(m.mass * u.mass_factor)} {u.mass}"
+        lines.append(f"mass {f(m.mass * u.mass_factor)} {u.mass} (estimate from nominal geometry)"
                      + (f"   ·   {density_label}" if density_label else ""))
     if m.crosscheck is not None:
         parts = []
