@@ -1,0 +1,386 @@
+"""`revolve turn` end to end: the quote table, JSON in SI, CSV, many parts, bad input.
+
+Figures are checked against hand-worked values with the CHECKS.md turning
+formulas (common practice, no source) and solids from CRC *Standard
+Mathematical Tables* (from memory); units by their definitions (1 in =
+25.4 mm, international yard and pound agreement, 1959; 1 lb = 0.45359237 kg,
+same agreement). The example profiles are invented inputs, never check values.
+"""
+
+from __future__ import annotations
+
+import csv
+import json
+import math
+import os
+import re
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from revolve.cli.app import main
+
+ROOT = Path(__file__).resolve().parents[2]
+SHAFT = str(ROOT / "profiles" / "turned-stepped-shaft.toml")
+SLEEVE = str(ROOT / "profiles" / "turned-sleeve-inch.toml")
+INCH = 0.0254            # 1959 agreement
+# The sleeve by hand, π Σ (R² − r²) L per step, in inches (CRC, from memory): 0.96875 π in³
+SLEEVE_IN3 = 0.96875 * math.pi
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(["turn", *map(str, args)])
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def rel(a, b):
+    return abs(a - b) / abs(b)
+
+
+def write(folder, name, text):
+    p = Path(folder) / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+PIN = """
+name = "Plain pin"
+units = "mm"
+material = "carbon steel"
+[[loop]]
+start = [0, 0]
+segments = [
+  { line_to = [50, 0], face = "axis" },
+  { line_to = [50, 15], face = "end" },
+  { line_to = [0, 15], face = "outside" },
+  { close = true, face = "end" },
+]
+"""
+
+
+# -- one part ---------------------------------------------------------------------------
+
+
+def test_one_part_quote_table_reads_like_a_quote(capsys):
+    code, out, err = run([SHAFT, "-q", "200", "--stock-price", "2.40/kg", "--machine-rate", "85",
+                          "--setup-time", "45", "--currency", "EUR"], capsys)
+    assert code == 0, err
+    assert err == ""
+    for text in ("Stepped shaft, crowned collar", "round bar", "42 mm", "stock length per part",
+                 "parts per bar", "bars for 200 parts", "utilisation", "roughing", "finishing",
+                 "spindle speed", "Cost, batch of 200", "EUR", "Caution"):
+        assert text in out, text
+    assert "Times and costs are estimates" in out
+    # parts per bar floor((3000 − 100) / 85) = 34 (common practice, no source)
+    assert re.search(r"parts per bar\s+│\s+34\b", out)
+    # n = 1000 vc / (π D) = 1000 · 200 / (π · 42) = 1516 rev/min (common practice, no source)
+    assert re.search(r"stock diameter\s+│\s+1516\s+│ rev/min", out)
+
+
+def test_json_keys_and_hand_worked_figures(capsys):
+    code, out, err = run([SHAFT, "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    for key in ("part_volume", "part_mass", "stock_diameter", "stock_length", "stock_mass",
+                "removed_volume", "utilisation", "chip_mass", "bars", "times", "cost", "units",
+                "cautions"):
+        assert key in d, key
+    assert d["units"]["length"] == "m" and d["units"]["mass"] == "kg"
+    # ⌀40 (crown) + 2 allowance = the 42 mm bar; 80 + 2·1 + 3 + 0 = 85 mm (common practice)
+    assert d["stock_diameter"] == 0.042
+    assert rel(d["stock_length"], 0.085) < 1e-12
+    # stock V = π r² L (CRC, from memory); mass at 7850 kg/m³ (common practice, no source)
+    assert rel(d["stock_volume"], math.pi * 0.021 ** 2 * 0.085) < 1e-12
+    assert rel(d["stock_mass"], 7850 * math.pi * 0.021 ** 2 * 0.085) < 1e-12
+    assert d["removed_volume"] == d["stock_volume"] - d["part_volume"]
+    assert d["utilisation"] == pytest.approx(d["part_mass"] / d["stock_mass"], rel=1e-15)
+    assert d["bars"]["parts_per_bar"] == 34 and d["bars"]["bars_needed"] == 1
+    # Q = vc ap f = 200 m/min × 3 mm × 0.3 mm/rev = 180 cm³/min (common practice, no source)
+    assert rel(d["metal_removal_rate"], 180e-6 / 60) < 1e-12
+    assert rel(d["times"]["roughing"], d["chip_volume"] / (180e-6 / 60)) < 1e-12
+    # finishing A / (vc f) with vc 260 m/min, f 0.12 mm/rev (the steel table row)
+    assert rel(d["times"]["finishing"], d["finished_surface"] / (260 / 60 * 0.12e-3)) < 1e-12
+    assert rel(d["spindle_speed_rpm"]["roughing_at_stock_diameter"],
+               1000 * 200 / (math.pi * 42)) < 1e-12
+    assert d["cost"]["per_part"] is None and d["cost"]["complete"] is False
+    assert d["cautions"] == [
+        "Times and costs are estimates; cutting data comes from the tool supplier. Guard rotating "
+        "stock and respect the machine's speed limit for the part's size and balance."]
+
+
+def test_costs_by_hand(capsys):
+    code, out, err = run([SHAFT, "--json", "-q", "200", "--stock-price", "12/m", "--machine-rate",
+                          "1.5/min", "--setup-time", "0.75 h", "--handling-time", "30 s"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    c, t = d["cost"], d["times"]
+    assert t["handling"] == 30.0 and t["setup"] == 2700.0
+    assert rel(c["stock_per_part"], 12 * 0.085) < 1e-12              # per metre × stock length
+    assert rel(c["machine_per_part"], 90 * t["cycle"] / 3600) < 1e-12   # 1.5/min = 90/h
+    assert rel(c["setup_batch"], 90 * 0.75) < 1e-12
+    assert rel(c["batch"], 200 * (c["stock_per_part"] + c["machine_per_part"]) + 67.5) < 1e-12
+    assert rel(c["per_part"], c["batch"] / 200) < 1e-12
+    # whole bars: 6 bars of 3 m at 12/m
+    code, out, err = run([SHAFT, "--json", "-q", "200", "--stock-price", "12/m", "--whole-bars"],
+                         capsys)
+    d = json.loads(out)
+    assert d["bars"]["bars_needed"] == 6
+    assert rel(d["cost"]["stock_batch"], 6 * 3.0 * 12) < 1e-12
+
+
+def test_price_per_pound_round_trip(capsys):
+    # 1.10 per lb is 1.10 / 0.45359237 per kg (1 lb = 0.45359237 kg, 1959 agreement)
+    _, out_lb, _ = run([SHAFT, "--json", "--stock-price", "1.10/lb"], capsys)
+    _, out_kg, _ = run([SHAFT, "--json", "--stock-price", f"{1.10 / 0.45359237!r}/kg"], capsys)
+    a, b = json.loads(out_lb)["cost"], json.loads(out_kg)["cost"]
+    assert rel(a["stock_per_part"], b["stock_per_part"]) < 1e-12
+
+
+def test_cutting_data_override_scales_the_time(capsys):
+    _, base, _ = run([SHAFT, "--json"], capsys)
+    _, fast, _ = run([SHAFT, "--json", "--roughing", "vc=400", "--finishing", "f=0.24"], capsys)
+    b, f = json.loads(base), json.loads(fast)
+    # t = V / (vc ap f) and A / (vc f): doubling vc or f halves the time (common practice)
+    assert rel(f["times"]["roughing"], b["times"]["roughing"] / 2) < 1e-12
+    assert rel(f["times"]["finishing"], b["times"]["finishing"] / 2) < 1e-12
+    assert f["cutting_data"]["source"] == "given"
+    assert b["cutting_data"]["source"] == "typical, common practice, no source"
+
+
+def test_speed_limit_is_flagged_and_used(capsys):
+    code, out, err = run([SHAFT, "--json", "--max-speed", "1200"], capsys)
+    assert code == 0
+    d = json.loads(out)
+    s = d["spindle_speed_rpm"]
+    assert s["limit"] == 1200 and s["roughing_over_limit"] and s["finishing_over_limit"]
+    assert "over the machine limit" in err and err.count("\n") == 1
+    assert any("over the machine limit" in n for n in d["notes"])
+    _, free, _ = run([SHAFT, "--json"], capsys)
+    assert d["times"]["finishing"] > json.loads(free)["times"]["finishing"]
+    # a limit well above every speed needed changes nothing but the solid part's centre,
+    # where the spindle would pass any limit; a high limit still costs only a little time
+    _, high, err = run([SHAFT, "--json", "--max-speed", "100000"], capsys)
+    h = json.loads(high)
+    assert err == "" and not h["spindle_speed_rpm"]["roughing_over_limit"]
+    assert rel(h["times"]["roughing"], json.loads(free)["times"]["roughing"]) < 1e-3
+
+
+def test_no_finish_leaves_a_face_out(capsys):
+    _, out, _ = run([SHAFT, "--json", "--no-finish", "right end", "--no-finish", "left end"],
+                    capsys)
+    d = json.loads(out)
+    assert "right end" not in d["finished_surface_by_face"]
+    # end faces are discs and annuli: π r² (CRC, from memory): right end r = 18, left end r = 9
+    _, full, _ = run([SHAFT, "--json"], capsys)
+    f = json.loads(full)
+    assert rel(f["finished_surface"] - d["finished_surface"],
+               math.pi * (0.018 ** 2 + 0.009 ** 2)) < 1e-12
+
+
+def test_blank_of_given_length(capsys):
+    code, out, err = run([SHAFT, "--json", "--blank", "45", "--blank-length", "90"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["stock_kind"] == "blank" and d["bars"] is None
+    assert d["stock_diameter"] == 0.045 and d["stock_length"] == 0.09
+    assert rel(d["stock_volume"], math.pi * 0.0225 ** 2 * 0.09) < 1e-12
+
+
+# -- inch ---------------------------------------------------------------------------------
+
+
+def test_inch_part_inch_list_and_units(capsys):
+    code, out, err = run([SLEEVE, "--json", "--stock", "lighter"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["stock_label"] == "2 × 1 in"
+    assert d["stock_diameter"] == 2 * INCH and d["stock_inside_diameter"] == 1 * INCH
+    assert rel(d["part_volume"], SLEEVE_IN3 * INCH ** 3) < 1e-12
+    # 2.5 + 2/32 + 1/8 = 2.6875 in; floor((144 − 4) / 2.6875) = 52 (common practice, no source)
+    assert rel(d["stock_length"], 2.6875 * INCH) < 1e-12
+    assert d["bars"]["parts_per_bar"] == 52
+    code, out, err = run([SLEEVE], capsys)
+    assert "in³" in out and " lb " in out and "2 in" in out
+
+
+def test_inch_csv_round_trip_with_a_millimetre_drawing(tmp_path, capsys):
+    # The same sleeve drawn in mm (× 25.4) quoted from the inch list gives the same CSV row.
+    text = Path(SLEEVE).read_text(encoding="utf-8")
+    mm = re.sub(r"(?<![\w.])(\d+\.?\d*)(?=[,\]])", lambda k: repr(float(k.group(1)) * 25.4),
+                text).replace('units = "in"', 'units = "mm"')
+    mm_file = write(tmp_path, "sleeve-mm.toml", mm)
+    out_csv = tmp_path / "q.csv"
+    code, out, err = run([SLEEVE, mm_file, "--bar-list", "inch", "--csv", out_csv], capsys)
+    assert code == 0, err
+    rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
+    assert len(rows) == 2
+    a, b = rows
+    for key in a:
+        if key in ("file", "name"):
+            continue
+        try:
+            x, y = float(a[key]), float(b[key])
+        except ValueError:
+            assert a[key] == b[key], key
+            continue
+        assert x == pytest.approx(y, rel=1e-11), key
+    assert float(a["stock_diameter_in"]) == 2.0 and float(a["part_volume_in³"]) == \
+        pytest.approx(SLEEVE_IN3, rel=1e-11)
+    # lb from kg: 1 lb = 0.45359237 kg (1959 agreement)
+    assert float(a["part_mass_lb"]) == pytest.approx(
+        8800 * SLEEVE_IN3 * INCH ** 3 / 0.45359237, rel=1e-11)
+
+
+# -- many parts ---------------------------------------------------------------------------
+
+
+def test_many_parts_one_row_each_and_csv(tmp_path, capsys):
+    pin = write(tmp_path, "pin.toml", PIN)
+    out_csv = tmp_path / "quote.csv"
+    code, out, err = run([SHAFT, SLEEVE, pin, "-q", "10", "--stock-price", "2/kg",
+                          "--machine-rate", "60", "--csv", out_csv], capsys)
+    assert code == 0, err
+    assert "3 turned parts" in out and "10 of each" in out and "total" in out
+    for stem in ("turned-stepped-shaft", "turned-sleeve-inch", "pin"):
+        assert stem in out
+    rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
+    assert [r["file"] for r in rows] == [SHAFT, SLEEVE, pin]
+    pin_row = rows[2]
+    # pin ⌀30 × 50: 32 mm bar, 50 + 2 + 3 = 55 mm, V = π 15² 50 (CRC, from memory)
+    assert pin_row["stock"] == "32 mm" and float(pin_row["stock_length_mm"]) == 55.0
+    assert float(pin_row["part_volume_cm³"]) == pytest.approx(math.pi * 15 ** 2 * 50 / 1000,
+                                                               rel=1e-11)
+    assert float(pin_row["utilisation_percent"]) == pytest.approx(100 * 30 ** 2 * 50 / (32 ** 2 * 55),
+                                                                  rel=1e-11)
+    assert [n for n in os.listdir(tmp_path) if n.startswith(".")] == []   # no temporary left
+
+
+def test_many_parts_json_and_quantity_per_part(tmp_path, capsys):
+    pin = write(tmp_path, "pin.toml", PIN)
+    code, out, err = run([SHAFT, pin, "--json", "-q", "5", "-q", "7"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert [p["cost"]["quantity"] for p in d["parts"]] == [5, 7]
+    assert d["units"]["volume"] == "m³"
+
+
+def test_folder_of_profiles_leaves_out_other_inputs(tmp_path, capsys):
+    write(tmp_path, "a-pin.toml", PIN)
+    write(tmp_path, "b-pin.toml", PIN.replace("Plain pin", "Second pin"))
+    write(tmp_path, "paint.toml", 'name = "a coating system"\n[[coat]]\ndft_um = 60\n')
+    code, out, err = run([tmp_path], capsys)
+    assert code == 0, err
+    assert "2 turned parts" in out and "left out" in out and "paint.toml" in out
+
+
+# -- bad input: exit 2, one line naming the file or option, nothing written ----------------
+
+
+def _bad(tmp_path, capsys, args, *must):
+    out_csv = tmp_path / "never.csv"
+    code, out, err = run([*args, "--csv", out_csv], capsys)
+    assert code == 2, (out, err)
+    assert out == ""
+    assert err.count("\n") == 1 and err.startswith("revolve: error: "), err
+    assert "Traceback" not in err
+    for text in must:
+        assert text in err, (text, err)
+    assert not out_csv.exists()
+    assert [n for n in os.listdir(tmp_path) if n.startswith(".")] == []
+    return err
+
+
+def test_unknown_material(tmp_path, capsys):
+    _bad(tmp_path, capsys, [SHAFT, "--material", "unobtainium"], "--material", "unknown material")
+
+
+def test_material_in_the_file_unknown(tmp_path, capsys):
+    f = write(tmp_path, "p.toml", PIN.replace("carbon steel", "cheese"))
+    _bad(tmp_path, capsys, [f], f, ":4:", "material", "cheese")
+
+
+def test_liquid_cannot_be_turned(tmp_path, capsys):
+    _bad(tmp_path, capsys, [SHAFT, "--material", "water"], "--material", "cannot be turned")
+
+
+@pytest.mark.parametrize("option", ["--turning-allowance", "--facing-allowance", "--parting-width",
+                                    "--holding-length", "--bore-allowance", "--remnant"])
+def test_negative_allowance(tmp_path, capsys, option):
+    _bad(tmp_path, capsys, [SHAFT, option, "-1"], option, "zero or positive")
+
+
+def test_part_larger_than_every_bar(tmp_path, capsys):
+    big = write(tmp_path, "wheel.toml", PIN.replace("15]", "400]").replace("[50, 15]", "[50, 400]")
+                .replace("[0, 15]", "[0, 400]"))
+    _bad(tmp_path, capsys, [big], big, "stock", "largest in the list is 300 mm")
+
+
+def test_empty_folder(tmp_path, capsys):
+    folder = tmp_path / "parts"
+    folder.mkdir()
+    _bad(tmp_path, capsys, [folder], str(folder), "no profile files")
+
+
+def test_bad_file_among_good_ones_writes_nothing(tmp_path, capsys):
+    broken = write(tmp_path, "broken.toml", PIN.replace("{ close = true, face = \"end\" },", ""))
+    _bad(tmp_path, capsys, [SHAFT, broken], broken, "not closed")
+
+
+def test_not_a_profile_file(tmp_path, capsys):
+    junk = write(tmp_path, "junk.toml", "this is = = not toml")
+    _bad(tmp_path, capsys, [junk], junk)
+
+
+def test_missing_file(tmp_path, capsys):
+    _bad(tmp_path, capsys, [tmp_path / "nope.toml"], "nope.toml", "no such file")
+
+
+@pytest.mark.parametrize("args, must", [
+    (["--stock-price", "3"], "--stock-price"),
+    (["--stock-price", "3/h"], "neither a mass nor a length"),
+    (["--roughing", "vc=fast"], "--roughing"),
+    (["--finishing", "vc=0"], "--finishing"),
+    (["--max-speed", "-5"], "--max-speed"),
+    (["--setup-time", "3 kg"], "--setup-time"),
+    (["--bar-list", "imperial"], "--bar-list"),
+    (["--stock", "pipe"], "--stock"),
+    (["--stock", "tube"], "no through bore"),
+    (["--blank", "39"], "--blank"),
+    (["--blank-length", "90"], "--blank-length"),
+    (["--bar-length", "150"], "--bar-length"),
+    (["--no-finish", "crownn"], "--no-finish"),
+    (["-q", "0"], "--quantity"),
+    (["-q", "2", "-q", "3"], "--quantity"),
+])
+def test_bad_options(tmp_path, capsys, args, must):
+    _bad(tmp_path, capsys, [SHAFT, *args], must)
+
+
+def test_part_revolution_is_refused(tmp_path, capsys):
+    f = write(tmp_path, "half.toml", PIN.replace('units = "mm"', 'units = "mm"\nangle = 180'))
+    _bad(tmp_path, capsys, [f], f, "full revolution")
+
+
+# -- start-up -------------------------------------------------------------------------------
+
+
+def test_quoting_lines_and_arcs_imports_no_heavy_library(tmp_path):
+    code = (
+        "import sys\n"
+        "import revolve.cli.commands.turning\n"
+        "assert 'revolve.jobs.turning' not in sys.modules, 'jobs imported at start-up'\n"
+        "from revolve.cli.app import main\n"
+        "try:\n"
+        f"    main(['turn', {SHAFT!r}, '--json', '--max-speed', '2000'])\n"
+        "except SystemExit:\n"
+        "    pass\n"
+        "heavy = [m for m in ('scipy', 'sympy', 'pint', 'matplotlib', 'ezdxf', 'trimesh')"
+        " if m in sys.modules]\n"
+        "print('HEAVY', heavy, file=sys.stderr)\n"
+    )
+    r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=tmp_path)
+    assert "HEAVY []" in r.stderr, r.stderr[-2000:]
