@@ -134,7 +134,7 @@ def blank_option(text: Optional[str], length: Optional[str], unit: str):
 
     >>> b = blank_option("60x30", "85", "mm")
     >>> b.outside_diameter, b.inside_diameter, b.length, b.label
-    (0.06, 0.03, 0.085, 'blank 60 × 30 mm')
+    (0.06, 0.03, 0.085, '60 × 30 mm')
     >>> blank_option(None, "85", "mm")
     Traceback (most recent call last):
     ...
@@ -158,7 +158,7 @@ def blank_option(text: Optional[str], length: Optional[str], unit: str):
     blen = None if length is None else length_option(length, "--blank-length", unit, 0.0,
                                                      positive=True)
     f = factor(unit, "length")
-    label = f"blank {od / f:.6g}" + (f" × {idia / f:.6g}" if idia else "") + f" {unit}"
+    label = f"{od / f:.6g}" + (f" × {idia / f:.6g}" if idia else "") + f" {unit}"
     return StockSize(od, idia, label, "blank", "given", blen)
 
 
@@ -539,6 +539,10 @@ def _notes(pq: PartQuote) -> List[str]:
             out.append(f"finishing at the part's largest diameter needs "
                        f"{t.finishing_speed * 60:.0f} rev/min, over the machine limit of "
                        f"{lim:.0f} rev/min; the times use the limit")
+    if t.speed_limit is None and q.part.envelope.min_radius < 0.25 * q.part.envelope.max_radius:
+        out.append("no --max-speed given: the times assume the cutting speed holds down to the "
+                   "smallest diameter (facing to the centre); give the machine's limit for "
+                   "realistic times")
     if not pq.agrees:
         out.append("the engine's two volume/surface computations disagree; do not use these "
                    "figures without finding out why")
@@ -626,8 +630,8 @@ def _quote_table(pq: PartQuote, u: DisplayUnits, currency: Optional[str]):
         "not finished: " + ", ".join(skipped) if skipped else "every face")
     tb.add_section()
     row("[bold]Stock", "", "", "")
-    kind = {"bar": "round bar", "tube": "tube (hollow bar)", "blank": "blank"}[s.size.kind]
-    src = f"{u.system} list, {s.size.source}" if s.size.kind != "blank" else "given"
+    kind = {"bar": "round bar", "tube": "tube (hollow bar)", "blank": "blank (given)"}[s.size.kind]
+    src = f"{u.system} list, {s.size.source}" if s.size.kind != "blank" else ""
     row(kind, s.size.label, "", src)
     if s.size.kind != "blank":
         row("  needed outside diameter", ln(e.diameter + a.turning), u.length,
@@ -673,9 +677,13 @@ def _quote_table(pq: PartQuote, u: DisplayUnits, currency: Optional[str]):
     row("  spindle speed at the largest diameter", f"{t.finishing_speed * 60:.0f}", "rev/min",
         f"D = {ln(e.diameter)} {u.length}" + ("  OVER THE LIMIT" if t.finishing_limited else ""))
     if t.speed_limit is not None:
+        def below(d, what):
+            if d >= s.size.outside_diameter:
+                return f"all of the {what}"
+            return f"{what} below ⌀{ln(d)} {u.length}"
         row("  machine speed limit", f"{t.speed_limit * 60:.0f}", "rev/min",
-            f"reached below ⌀{ln(t.roughing_limit_diameter)} {u.length} roughing, "
-            f"⌀{ln(t.finishing_limit_diameter)} {u.length} finishing; the times use the limit there "
+            f"reached in {below(t.roughing_limit_diameter, 'roughing')} and "
+            f"{below(t.finishing_limit_diameter, 'finishing')}; the times use the limit there "
             f"(t = L / (f n))")
     if t.handling:
         row("handling", _minutes(t.handling), "min", "given")
@@ -706,16 +714,19 @@ def _cost_table(pq: PartQuote, currency: Optional[str], price_text: Optional[str
         if pr.whole_bars and pq.quote.bars is not None:
             stock_how += f", {pq.quote.bars.bars_needed} whole bars"
     rate_how = "no --machine-rate given" if pr.machine_rate is None else \
-        f"{pr.machine_rate:.6g} per hour" + (f" ({rate_text.strip()})" if "/" in rate_text else "")
+        f"{pr.machine_rate:.6g} per hour × cycle" + (f" ({rate_text.strip()})" if "/" in rate_text
+                                                     else "")
     tb.add_row("stock", _money(c.stock_per_part, currency), _money(c.stock_batch, currency),
                stock_how)
     tb.add_row("machine time", _money(c.machine_per_part, currency),
-               _money(c.machine_batch, currency), rate_how + " × cycle")
+               _money(c.machine_batch, currency), rate_how)
     tb.add_row("set-up", _money(c.setup_per_part, currency), _money(c.setup_batch, currency),
                "rate × set-up time, shared over the batch")
     tb.add_section()
     tb.add_row("[bold]total", _money(c.per_part, currency), _money(c.batch, currency),
-               "" if c.complete else "incomplete: give --stock-price and --machine-rate",
+               "" if c.complete else "incomplete: give " + " and ".join(
+                   o for o, v in (("--stock-price", pr.stock_price), ("--machine-rate", pr.machine_rate))
+                   if v is None),
                style="bold")
     return tb
 
@@ -752,8 +763,11 @@ def _rows_table(pqs: List[PartQuote], u: DisplayUnits, currency: Optional[str]):
         if c.batch is not None:
             total += c.batch
             any_cost = True
+        label = q.stock.size.label
+        if q.stock.size.kind == "blank":
+            label = "blank " + label
         cells = [os.path.splitext(os.path.basename(pq.file))[0], pq.material.key,
-                 f"{f(e.diameter * L)} × {f(e.length * L)}", q.stock.size.label,
+                 f"{f(e.diameter * L)} × {f(e.length * L)}", label,
                  f(q.stock.length * L), f(q.part.mass * M), f(q.stock.mass * M),
                  f"{q.removal.utilisation * 100:.0f}"]
         if not one_qty:
