@@ -594,3 +594,73 @@ def test_bad_tables_are_refused():
     with pytest.raises(FormatError, match="inside diameter"):
         td.parse_bar_sizes('[metric]\nunit = "mm"\nround_bar = { source = "x", diameters = [5] }\n'
                            'tube = { source = "x", sizes = [[10, 12]] }', "metric")
+
+
+# -- independent integrations (scipy.integrate) ------------------------------------------
+
+
+def test_envelope_of_a_curve_with_an_interior_crest():
+    # r = 10 + 4 sin(π z / 20) for z in [0, 20]: the crest r = 14 at z = 10 lies inside the
+    # curve, not at an end (calculus: the sine's maximum).
+    from revolve.geometry.segments import curve_from_expressions
+    t = sympy.Symbol("t", real=True)
+    bulge = curve_from_expressions(t, 10 + 4 * sympy.sin(sympy.pi * t / 20), 0, 20)
+    loop = Loop((Line((0.0, 0.0), (20.0, 0.0)), Line((20.0, 0.0), (20.0, 10.0)),
+                 bulge.reversed(), Line((0.0, 10.0), (0.0, 0.0))))
+    env = tu.envelope(prepare(Profile(loops=(loop,)), Axis.x()))
+    assert env.max_radius == pytest.approx(14.0, rel=1e-12)
+
+
+def test_limited_roughing_of_the_sleeve_against_scipy_dblquad():
+    # time = (1/(ap f)) ∫∫ 2πr / min(vc, 2πr n) dA over the chip region (stock minus part);
+    # the sleeve is made of rectangles, so scipy.integrate.dblquad integrates each exactly.
+    from scipy.integrate import dblquad
+
+    m, prep, f = figures(SLEEVE)
+    stock = tu.StockSize(2 * INCH, 1 * INCH, kind="tube")
+    cut_length = 2.6875 * INCH
+    vc, n = ROUGH.cutting_speed, 1500 / 60
+    rc = vc / (2 * math.pi * n)
+    assert stock.inside_diameter / 2 < rc < stock.outside_diameter / 2
+
+    def w(r, z):
+        return 2 * math.pi * r / min(vc, 2 * math.pi * r * n)
+
+    def box(z0, z1, r0, r1):
+        pieces = sorted({r0, r1, min(max(rc, r0), r1)})
+        return sum(dblquad(w, z0, z1, a, b, epsabs=0, epsrel=1e-13)[0]
+                   for a, b in zip(pieces, pieces[1:]) if b > a)
+
+    stock_part = box(0.0, cut_length, INCH / 2, INCH)
+    # the part: body r 0.5625..0.8125 in over 2.5 in, flange r 0.8125..0.9375 in over 0.5 in
+    part_integral = (box(0.0, 2.5 * INCH, 0.5625 * INCH, 0.8125 * INCH)
+                     + box(0.0, 0.5 * INCH, 0.8125 * INCH, 0.9375 * INCH))
+    want = (stock_part - part_integral) / (ROUGH.depth_of_cut * ROUGH.feed)
+    chips = stock.section_area * cut_length - 0.96875 * math.pi * INCH ** 3
+    got = tu.roughing_time_limited(chips, cut_length, stock, prep, ROUGH, n, f)
+    assert rel(got, want) < 1e-9
+
+
+def test_limited_finishing_of_the_crown_arc_against_scipy_quad():
+    # The crown is an arc of radius 26 about (70, −6) mm from (60, 18) to (80, 18);
+    # time = (1/f) ∫ 2πr / min(vc, 2πr n) ds, integrated along the arc by scipy.integrate.quad.
+    from scipy.integrate import quad
+
+    m, prep, f = figures(SHAFT)
+    vc, feed, n = FINISH.cutting_speed, FINISH.feed, 2180 / 60
+    rc = vc / (2 * math.pi * n)
+    R, cz, cr = 0.026, 0.070, -0.006
+    half = math.asin(10 / 26)
+    assert 0.018 < rc < 0.020        # the limit cuts across the crown
+
+    def integrand(phi):
+        r = cr + R * math.cos(phi)
+        return 2 * math.pi * r / min(vc, 2 * math.pi * r * n) * R / feed
+
+    edges = sorted([-half, half] + [s * math.acos((rc - cr) / R) for s in (-1, 1)])
+    want = sum(quad(integrand, a, b, epsabs=0, epsrel=1e-13)[0] for a, b in zip(edges, edges[1:]))
+    area = m.surface_by_face["crown"] * f * f
+    got = tu.finishing_time_limited(prep, ["crown"], area, FINISH, n, f)
+    # the correction is summed over 0.25° chords of the arc: a few parts per million of it
+    assert rel(got, want) < 1e-6
+    assert got > tu.finishing_time(area, FINISH)
