@@ -281,8 +281,8 @@ class Part:
     """The finished part, in SI units.
 
     ``centre_of_mass_axial`` is along the axis from its point (as in
-    ``revolve measure``); ``centre_of_mass_from_start`` from the part's end
-    nearest the axis point's low side (``envelope.z_start``).
+    ``revolve measure``); ``centre_of_mass_from_start`` from the part's first
+    end along the axis direction (``envelope.z_start``).
     ``surface_by_face`` is every face's swept area, including faces that are
     not finished (see :func:`finished_faces`).
     """

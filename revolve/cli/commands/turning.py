@@ -356,7 +356,14 @@ class DisplayUnits:
         return cls("metric", "mm", "cm²", "cm³", "kg", 1e3, 1e4, 1e6, 1.0)
 
     def cutting(self, cd) -> str:
-        """vc, f, ap as the trade writes them in this system."""
+        """vc, f, ap as the trade writes them in this system.
+
+        >>> from revolve.jobs.turning import CuttingData
+        >>> DisplayUnits.of("metric").cutting(CuttingData.from_trade_units(200, 0.3, 3))
+        'vc 200 m/min, f 0.3 mm/rev, ap 3 mm'
+        >>> DisplayUnits.of("inch").cutting(CuttingData.from_trade_units(304.8, 0.254, 2.54))
+        'vc 1000 ft/min, f 0.01 in/rev, ap 0.1 in'
+        """
         if self.system == "inch":
             return (f"vc {cd.cutting_speed * 60 / 0.3048:.4g} ft/min, f {cd.feed / 0.0254:.4g} "
                     f"in/rev, ap {cd.depth_of_cut / 0.0254:.4g} in")
@@ -364,7 +371,11 @@ class DisplayUnits:
         return f"vc {vc:.4g} m/min, f {f:.4g} mm/rev, ap {ap:.4g} mm"
 
     def rate(self, q: float) -> str:
-        """A metal removal rate, in cm³/min or in³/min."""
+        """A metal removal rate (m³/s), in cm³/min or in³/min.
+
+        >>> DisplayUnits.of("metric").rate(180e-6 / 60)
+        '180 cm³/min'
+        """
         return f"{q * 60 * self.volume_factor:.4g} {self.volume}/min"
 
 
@@ -444,7 +455,7 @@ def _quote_one(path: str, settings: dict, quantity: int) -> PartQuote:
 # -- JSON and CSV -------------------------------------------------------------------------
 
 
-def quote_dict(pq: PartQuote, currency: Optional[str]) -> Dict:
+def _quote_dict(pq: PartQuote, currency: Optional[str]) -> Dict:
     """A part's quote as a JSON object, SI units (see the module docs)."""
     q = pq.quote
     p, s, r, t, c, job = q.part, q.stock, q.removal, q.times, q.cost, q.job
@@ -549,7 +560,7 @@ def _notes(pq: PartQuote) -> List[str]:
     return out
 
 
-def csv_row(pq: PartQuote, u: DisplayUnits, currency: Optional[str]) -> Dict:
+def _csv_row(pq: PartQuote, u: DisplayUnits, currency: Optional[str]) -> Dict:
     """One CSV row of a part, in the display units (named in each column)."""
     q = pq.quote
     p, s, r, t, c = q.part, q.stock, q.removal, q.times, q.cost
@@ -852,9 +863,9 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
     if csv_file is not None:
         from revolve.cli.tables import write_csv
 
-        write_csv([csv_row(pq, u, currency) for pq in pqs], csv_file)
+        write_csv([_csv_row(pq, u, currency) for pq in pqs], csv_file)
     if as_json:
-        objs = [quote_dict(pq, currency) for pq in pqs]
+        objs = [_quote_dict(pq, currency) for pq in pqs]
         if len(objs) == 1:
             common.print_json(objs[0])
         else:
@@ -908,7 +919,7 @@ def register(app: typer.Typer) -> None:
                                                "list; bare numbers in options are in its units "
                                                "(mm or in). Default: inch for inch profiles."),
         stock: str = typer.Option("bar", "--stock", help="bar (round bar), tube (hollow bar "
-                                  "suiting the bore), or lighter (whichever is lighter)."),
+                                  "suiting the bore), or lighter (whichever weighs less)."),
         blank: Optional[str] = typer.Option(None, "--blank", help="Your own blank instead of the "
                                             "list: OD or OD x ID, e.g. 60 or 60x30."),
         blank_length: Optional[str] = typer.Option(None, "--blank-length", help="Length of the "
