@@ -275,6 +275,15 @@ def test_folder_of_profiles_leaves_out_other_inputs(tmp_path, capsys):
     code, out, err = run([tmp_path], capsys)
     assert code == 0, err
     assert "2 turned parts" in out and "left out" in out and "paint.toml" in out
+    assert "no [[loop]] or [[chain]]" in out
+
+
+def test_names_with_brackets_are_shown_as_written(tmp_path, capsys):
+    f = write(tmp_path, "seal.toml", PIN.replace('face = "outside"', 'face = "[seal] land"')
+              .replace("Plain pin", "Pin [rev B]"))
+    code, out, err = run([f], capsys)
+    assert code == 0, err
+    assert "finished: [seal] land" in out and "Pin [rev B]" in out
 
 
 # -- bad input: exit 2, one line naming the file or option, nothing written ----------------

@@ -616,8 +616,10 @@ def _quote_table(pq: PartQuote, u: DisplayUnits, currency: Optional[str]):
     L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
     f = lambda v, d=6: common.fmt(v, d)  # noqa: E731
     ln = lambda v: f(v * L)  # noqa: E731
-    title = (f"{pq.name}  ({pq.file})\n{pq.material.name}, {pq.material.density:g} kg/m³ "
-             f"({pq.material.source}); {pq.material.group} cutting data")
+    from rich.markup import escape
+
+    title = escape(f"{pq.name}  ({pq.file})\n{pq.material.name}, {pq.material.density:g} kg/m³ "
+                   f"({pq.material.source}); {pq.material.group} cutting data")
     tb = Table(title=title, title_justify="left", show_edge=False, pad_edge=False)
     tb.add_column("")
     tb.add_column("value", justify="right")
@@ -635,15 +637,15 @@ def _quote_table(pq: PartQuote, u: DisplayUnits, currency: Optional[str]):
     row("centre of mass from the first end", ln(p.centre_of_mass_from_start), u.length,
         "along the axis")
     for face in t.finished_faces:
-        row(f"  finished: {face}", f(p.surface_by_face[face] * A), u.area, "")
+        row(escape(f"  finished: {face}"), f(p.surface_by_face[face] * A), u.area, "")
     skipped = [k for k, v in p.surface_by_face.items() if v > 0 and k not in t.finished_faces]
     row("finished surface", f(t.finished_area * A), u.area,
-        "not finished: " + ", ".join(skipped) if skipped else "every face")
+        escape("not finished: " + ", ".join(skipped)) if skipped else "every face")
     tb.add_section()
     row("[bold]Stock", "", "", "")
     kind = {"bar": "round bar", "tube": "tube (hollow bar)", "blank": "blank (given)"}[s.size.kind]
     src = f"{u.system} list, {s.size.source}" if s.size.kind != "blank" else ""
-    row(kind, s.size.label, "", src)
+    row(kind, escape(s.size.label), "", src)
     if s.size.kind != "blank":
         row("  needed outside diameter", ln(e.diameter + a.turning), u.length,
             f"{ln(e.diameter)} + turning allowance {ln(a.turning)} on the diameter")
@@ -743,6 +745,7 @@ def _cost_table(pq: PartQuote, currency: Optional[str], price_text: Optional[str
 
 
 def _rows_table(pqs: List[PartQuote], u: DisplayUnits, currency: Optional[str]):
+    from rich.markup import escape
     from rich.table import Table
 
     L, M = u.length_factor, u.mass_factor
@@ -785,7 +788,7 @@ def _rows_table(pqs: List[PartQuote], u: DisplayUnits, currency: Optional[str]):
             cells.append(str(c.quantity))
         cells += ["—" if b is None else str(b.bars_needed), _minutes(q.times.cycle),
                   _money(c.per_part, None), _money(c.batch, None)]
-        tb.add_row(*cells)
+        tb.add_row(*(escape(c) for c in cells))
     if any_cost:
         tb.add_section()
         tb.add_row("[bold]total", *([""] * (len(heads) - 2)), _money(total, currency))
@@ -884,13 +887,13 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
             wide = Console(width=None if sys.stdout.isatty() else 160, highlight=False)
             wide.print(_rows_table(pqs, u, currency))
         for pq in pqs:
+            stem = os.path.splitext(os.path.basename(pq.file))[0]
             for note in _notes(pq):
-                con.print(f"note: {pq.name if len(pqs) > 1 else ''}{': ' if len(pqs) > 1 else ''}"
-                          f"{note}")
+                con.print(f"note: {stem + ': ' if len(pqs) > 1 else ''}{note}", markup=False)
         for other in left_out:
-            con.print(f"left out {other}: not a profile (no [[loop]] or [[chain]])")
+            con.print(f"left out {other}: not a profile (no [[loop]] or [[chain]])", markup=False)
         if csv_file is not None:
-            con.print(f"wrote {csv_file}")
+            con.print(f"wrote {csv_file}", markup=False)
         con.print()
         con.print(common.caution_panel(["turning"]))
     bad = [pq for pq in pqs if not pq.agrees]
