@@ -589,8 +589,11 @@ def _csv_row(pq: PartQuote, u: DisplayUnits, currency: Optional[str]) -> Dict:
         f"setup_per_part{money}": c.setup_per_part, f"cost_per_part{money}": c.per_part,
         f"batch_cost{money}": c.batch,
     }
-    # 12 significant digits: drops the noise of converting to SI and back (45.00000000000001).
-    return {k: float(f"{v:.12g}") if isinstance(v, float) else v for k, v in row.items()}
+    # Plain ASCII column names (cm3, in2) for spreadsheets and scripts; 12 significant digits
+    # drop the noise of converting to SI and back (45.00000000000001).
+    ascii_name = str.maketrans({"²": "2", "³": "3"})
+    return {k.translate(ascii_name): float(f"{v:.12g}") if isinstance(v, float) else v
+            for k, v in row.items()}
 
 
 # -- tables --------------------------------------------------------------------------------
