@@ -1,0 +1,237 @@
+"""`revolve mesh` end to end, and the CSV/JSON writers of result tables (revolve.cli.tables).
+
+References, named beside each check:
+
+* reference library trimesh (``trimesh.load``, ``.volume``, ``.area``,
+  ``.is_watertight``) measuring the STL files the command writes;
+* CRC *Standard Mathematical Tables and Formulae* (from memory): torus,
+  hollow cylinder;
+* 1 in = 25.4 mm (international yard and pound agreement, 1959);
+* the standard library's ``csv`` and ``json`` modules reading what we write.
+
+The bundled example profiles are invented scenarios: they are only run and
+compared with the engine's own exact figures, never used as check values.
+"""
+
+from __future__ import annotations
+
+import csv
+import json
+import math
+import subprocess
+import sys
+from pathlib import Path
+
+import numpy as np
+import pytest
+import trimesh
+
+from revolve.cli.app import main
+
+ROOT = Path(__file__).resolve().parents[2]
+# Profiles only (profiles/ also holds other inputs, such as coating systems).
+PROFILES = [p for p in sorted((ROOT / "profiles").glob("*.toml"))
+            if "[[loop]]" in p.read_text(encoding="utf-8") or "[[chain]]" in p.read_text(encoding="utf-8")]
+PROFILES += sorted((ROOT / "profiles").glob("*.txt"))
+
+TORUS = """
+units = "mm"
+[[loop]]
+start = [1, 3]
+segments = [
+  { arc_to = [-1, 3], centre = [0, 3], turn = "ccw", face = "tube" },
+  { arc_to = [1, 3], centre = [0, 3], turn = "ccw", face = "tube" },
+]
+"""
+
+TUBE = """
+units = "mm"
+[[loop]]
+start = [0, 1]
+segments = [
+  { line_to = [2, 1], face = "bore" },
+  { line_to = [2, 3], face = "end" },
+  { line_to = [0, 3], face = "outside" },
+  { close = true, face = "end" },
+]
+"""
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main([str(a) for a in args])
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def write(tmp_path, name, text):
+    p = tmp_path / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+@pytest.mark.parametrize("path", PROFILES, ids=lambda p: p.name)
+def test_every_example_meshes_watertight(path, tmp_path, capsys):
+    stl = tmp_path / "part.stl"
+    code, out, err = run(["mesh", path, "-o", stl, "--json"], capsys)
+    assert code == 0, err
+    data = json.loads(out)
+    tm = trimesh.load(str(stl))
+    assert tm.is_watertight and tm.is_winding_consistent and tm.volume > 0
+    assert len(tm.faces) == data["triangles"]
+    # The command's own report agrees with trimesh's reading of the file (float32 corners).
+    assert math.isclose(tm.volume, data["mesh_volume"], rel_tol=1e-5)
+    assert math.isclose(tm.area, data["mesh_area"], rel_tol=1e-5)
+    # The default tolerance (1/1000 of the size) keeps the volume within about 1 %.
+    assert data["volume_relative_difference"] < 1e-2
+
+
+def test_torus_stl_approaches_crc_as_the_tolerance_shrinks(tmp_path, capsys):
+    # CRC (from memory): V = 2π² R r², S = 4π² R r with R = 3, r = 1 (mm).
+    profile = write(tmp_path, "torus.toml", TORUS)
+    tolerances = (0.04, 0.02, 0.01, 0.005)
+    errs = []
+    for tol in tolerances:
+        stl = tmp_path / f"t{tol}.stl"
+        code, _, err = run(["mesh", profile, "-o", stl, "--tolerance", tol], capsys)
+        assert code == 0, err
+        tm = trimesh.load(str(stl))
+        assert tm.is_watertight
+        errs.append((abs(tm.volume / (2 * math.pi ** 2 * 3) - 1), abs(tm.area / (4 * math.pi ** 2 * 3) - 1)))
+    errs = np.array(errs)
+    for col in (0, 1):
+        assert np.all(np.diff(errs[:, col]) < 0)
+        ratio = errs[:, col] / np.array(tolerances)
+        assert ratio.max() / ratio.min() < 2.0
+
+
+def test_partial_angle_and_inches(tmp_path, capsys):
+    # A hollow cylinder r = 1..3, h = 2 (mm), swept 90°: V = (θ/2) (R² − r²) h (CRC sector,
+    # from memory); written in inches (1 in = 25.4 mm): the volume is divided by 25.4³.
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl = tmp_path / "quarter.stl"
+    code, out, err = run(["mesh", profile, "-o", stl, "--angle", 90, "--tolerance", "0.001 mm",
+                          "--length-unit", "in", "--json"], capsys)
+    assert code == 0, err
+    data = json.loads(out)
+    assert data["units"]["length"] == "in"
+    tm = trimesh.load(str(stl))
+    assert tm.is_watertight and tm.is_winding_consistent
+    exact_mm3 = math.pi / 4 * (9 - 1) * 2
+    assert math.isclose(tm.volume * 25.4 ** 3, exact_mm3, rel_tol=1e-3)
+    assert math.isclose(data["exact_volume"] * 25.4 ** 3, exact_mm3, rel_tol=1e-12)
+    # A bare tolerance is in the STL's unit: 0.001 in is 0.0254 mm.
+    code, out, _ = run(["mesh", profile, "-o", stl, "--tolerance", 0.001, "--length-unit", "in",
+                        "--json"], capsys)
+    assert math.isclose(json.loads(out)["chord_tolerance"], 0.001, rel_tol=1e-12)
+
+
+def test_table_output_and_csv(tmp_path, capsys):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl, table = tmp_path / "t.stl", tmp_path / "t.csv"
+    code, out, err = run(["mesh", profile, "-o", stl, "--csv", table], capsys)
+    assert code == 0, err
+    assert "mesh written to" in out and "volume, relative difference" in out
+    rows = list(csv.DictReader(table.open(encoding="utf-8")))
+    byname = {r["quantity"]: r for r in rows}
+    assert int(byname["triangles"]["value"]) == len(trimesh.load(str(stl)).faces)
+    # CRC (from memory): hollow cylinder V = π (R² − r²) h.
+    assert math.isclose(float(byname["exact volume"]["value"]), math.pi * 8 * 2, rel_tol=1e-12)
+    assert byname["exact volume"]["unit"] == "mm³"
+
+
+# -- bad input: exit 2, one line, nothing written ----------------------------------------
+
+@pytest.mark.parametrize("extra, message", [
+    (["--tolerance", "0"], "--tolerance"),
+    (["--tolerance", "-0.1"], "--tolerance"),
+    (["--tolerance", "3 kg"], "--tolerance"),
+    (["--tolerance", "1e-13"], "use a larger tolerance"),
+    (["--angle", "0"], "--angle"),
+    (["--angle", "361"], "--angle"),
+    (["--axis", "1,2"], "--axis"),
+    (["--length-unit", "furlongs_per_week"], ""),
+    (["--csv", "table.txt"], "table.txt"),
+])
+def test_bad_options(tmp_path, capsys, monkeypatch, extra, message):
+    monkeypatch.chdir(tmp_path)
+    profile = write(tmp_path, "tube.toml", TUBE)
+    code, out, err = run(["mesh", profile, "-o", "part.stl"] + extra, capsys)
+    assert code == 2
+    assert err.count("\n") == 1 and err.startswith("revolve: error:") and message in err
+    assert "Traceback" not in err
+    assert not (tmp_path / "part.stl").exists()
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["tube.toml"]
+
+
+def test_bad_files(tmp_path, capsys):
+    crossing = write(tmp_path, "cross.toml", TUBE.replace("[0, 1]", "[0, -1]").replace("[2, 1]", "[2, -1]"))
+    for args, message in [
+        (["mesh", crossing, "-o", tmp_path / "a.stl"], "cross.toml"),
+        (["mesh", tmp_path / "missing.toml", "-o", tmp_path / "a.stl"], "no such file"),
+        (["mesh", write(tmp_path, "t.toml", TUBE), "-o", tmp_path / "a.obj"], "a.obj"),
+        (["mesh", write(tmp_path, "t.toml", TUBE), "-o", tmp_path / "none" / "a.stl"], "folder"),
+    ]:
+        code, _, err = run(args, capsys)
+        assert code == 2 and err.count("\n") == 1 and message in err, err
+    assert not list(tmp_path.glob("*.stl")) and not list(tmp_path.glob("*.obj"))
+
+
+def test_old_file_kept_on_error(tmp_path, capsys):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl = tmp_path / "part.stl"
+    stl.write_bytes(b"previous")
+    code, _, _ = run(["mesh", profile, "-o", stl, "--tolerance", "1e-12"], capsys)
+    assert code == 2 and stl.read_bytes() == b"previous"
+
+
+def test_subprocess_error_has_no_traceback(tmp_path):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    res = subprocess.run([sys.executable, "-m", "revolve", "mesh", profile, "-o",
+                          str(tmp_path / "p.stl"), "--tolerance", "nonsense"],
+                         capture_output=True, text=True, cwd=str(tmp_path))
+    assert res.returncode == 2
+    assert res.stderr.count("\n") == 1 and "Traceback" not in res.stderr
+    assert not (tmp_path / "p.stl").exists()
+
+
+# -- result tables as CSV and JSON (revolve.cli.tables) --------------------------------------
+
+def test_measure_rows_match_the_measure_json(tmp_path, capsys):
+    from revolve.cli.common import output_units
+    from revolve.cli.tables import measure_rows, write_csv
+    from revolve.formats import load_profile
+    from revolve.geometry.measure import measure
+    from revolve.geometry.profile import Axis, Revolution
+
+    profile = write(tmp_path, "tube.toml", TUBE)
+    code, out, _ = run(["measure", profile, "--json", "--volume-unit", "L"], capsys)
+    assert code == 0
+    js = json.loads(out)
+    doc = load_profile(profile)
+    m = measure(Revolution(doc.profile, doc.axis or Axis.x()))
+    rows = measure_rows(m, output_units("mm", volume="L"), tolerance=1e-9)
+    path = tmp_path / "m.csv"
+    write_csv(rows, str(path))
+    back = {(r["table"], r["quantity"]): r for r in csv.DictReader(path.open(encoding="utf-8"))}
+    # Full precision survives the CSV (repr of floats), and agrees with the JSON.
+    assert float(back[("results", "volume")]["value"]) == js["volume"]
+    assert back[("results", "volume")]["unit"] == "L"
+    assert float(back[("results", "section area")]["value"]) == js["area"]
+    assert float(back[("results", "surface: bore")]["value"]) == js["surface_by_face"]["bore"]
+    assert float(back[("cross-check", "volume, washers")]["value"]) == js["crosscheck"]["volume"]
+    # CRC (from memory): hollow cylinder V = π (R² − r²) h = 16π mm³ = 16π·1e-6 L.
+    assert math.isclose(float(back[("results", "volume")]["value"]), 16 * math.pi * 1e-6, rel_tol=1e-13)
+    assert back[("cross-check", "agrees within the tolerance")]["value"] == "1.0"
+
+
+def test_write_json_is_strict_and_atomic(tmp_path):
+    from revolve.cli.tables import write_json
+    from revolve.errors import FormatError
+
+    path = tmp_path / "r.json"
+    write_json({"volume": 1 / 3, "missing": float("nan"), "unit": "mm³"}, str(path))
+    assert json.loads(path.read_text(encoding="utf-8")) == {"volume": 1 / 3, "missing": None, "unit": "mm³"}
+    with pytest.raises(FormatError):
+        write_json({}, str(tmp_path / "no" / "r.json"))
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["r.json"]
