@@ -359,6 +359,8 @@ def test_missing_file(tmp_path, capsys):
     (["--stock", "tube"], "no through bore"),
     (["--blank", "39"], "--blank"),
     (["--blank-length", "90"], "--blank-length"),
+    (["--blank", "45", "--whole-bars"], "--whole-bars"),
+    (["--blank", "45", "--stock", "tube"], "--blank"),
     (["--bar-length", "150"], "--bar-length"),
     (["--no-finish", "crownn"], "--no-finish"),
     (["-q", "0"], "--quantity"),

@@ -11,6 +11,12 @@ bar and bars for the quantity; roughing time V / Q with Q = vc · ap · f,
 finishing time A / (vc · f), spindle speeds n = 1000 vc / (π D); and the cost
 of stock, machine time and set-up per part and per batch.
 
+The times are estimates: roughing counts every chip (facing and parting
+included) at the roughing rate, finishing one pass over each finished face;
+put loading, a slower parting-off and gauging in ``--handling-time``. Without
+``--max-speed`` the cutting speed is taken to hold right down to the centre;
+with it, the spindle is capped and the times follow t = L / (f n) there.
+
 Units. Bare numbers in options are in the bar list's units: ``--bar-list
 metric`` (mm; vc in m/min, f in mm/rev, ap in mm) or ``--bar-list inch`` (in;
 vc in ft/min, f and ap in in). The default list follows the profile's unit.
@@ -847,6 +853,9 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
     the_blank = blank_option(blank, blank_length, unit)
     if the_blank is not None and stock != "bar":
         raise RevolveError("give either --blank or --stock tube/lighter, not both", place="--blank")
+    if the_blank is not None and whole_bars:
+        raise RevolveError("a blank is not cut from bars; leave out --whole-bars or --blank",
+                           place="--whole-bars")
     price, basis = stock_price_option(stock_price)
     prices = turning.Prices(stock_price=price, basis=basis, machine_rate=rate_option(machine_rate),
                             setup_time=time_option(setup_time, "--setup-time"),
