@@ -1,0 +1,235 @@
+"""`revolve convert` end to end: drawings to profile files, the report, and bad input.
+
+References, named beside each check:
+
+* profiles built directly with revolve.geometry constructors (the Bézier
+  from its Bernstein form written here with sympy): an imported profile must
+  measure the same;
+* reference library: shapely (``Polygon.area``, ``Polygon.centroid``) of the
+  outline sampled here, with Pappus V = 2 pi d A (Stewart, *Calculus*,
+  "Moments and centers of mass", from memory);
+* reference library: ezdxf writes the DXF drawings;
+* published: CRC Standard Mathematical Tables (from memory): hollow cylinder
+  pi (R^2 - r^2) L.
+
+The example drawing profiles/nozzle-outline.svg is an invented scenario; it is
+checked only against the independent computations above.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+import os
+import subprocess
+import sys
+from pathlib import Path
+
+import ezdxf
+import numpy as np
+import pytest
+import sympy
+from shapely.geometry import Polygon
+
+from revolve.cli.app import main
+from revolve.formats import READERS, load_profile
+from revolve.formats.drawings import DRAWING_READERS
+from revolve.geometry.measure import measure
+from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
+
+ROOT = Path(__file__).resolve().parents[2]
+NOZZLE = str(ROOT / "profiles" / "nozzle-outline.svg")
+T = sympy.Symbol("t", real=True)
+
+
+@pytest.fixture(autouse=True)
+def drawing_readers(monkeypatch):
+    """Register the drawing readers as revolve/formats/__init__.py is to do."""
+    for extension, reader in DRAWING_READERS.items():
+        monkeypatch.setitem(READERS, extension, reader)
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(args)
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def refused(args, capsys, output):
+    code, out, err = run(args, capsys)
+    assert code == 2, (out, err)
+    lines = err.strip().splitlines()
+    assert len(lines) == 1 and lines[0].startswith("revolve: error: ") and "Traceback" not in err
+    assert not os.path.exists(output)
+    return lines[0]
+
+
+def nozzle_direct():
+    """The nozzle drawn directly in the axis frame (z along the axis, r from it)."""
+    bx = sum(sympy.binomial(3, k) * (1 - T) ** (3 - k) * T ** k * z
+             for k, z in enumerate((25, 50, 70, 90)))
+    by = sum(sympy.binomial(3, k) * (1 - T) ** (3 - k) * T ** k * r
+             for k, r in enumerate((15, 15, 8, 8)))
+    return Profile(loops=(Loop((
+        Line((0.0, 4.0), (0.0, 20.0)), Line((0.0, 20.0), (10.0, 20.0)),
+        arc_from_centre((10.0, 20.0), (15.0, 15.0), (10.0, 15.0), clockwise=True),
+        Line((15.0, 15.0), (25.0, 15.0)),
+        curve_from_expressions(bx, by, 0, 1),
+        Line((90.0, 8.0), (100.0, 8.0)), Line((100.0, 8.0), (100.0, 4.0)),
+        Line((100.0, 4.0), (0.0, 4.0)))),))
+
+
+def test_example_nozzle_converts_and_measures_like_the_direct_profile(tmp_path, capsys):
+    out_file = str(tmp_path / "nozzle.toml")
+    code, out, err = run(["convert", NOZZLE, "--path-id", "nozzle", "--axis", "0,-45,1,0",
+                          "-o", out_file], capsys)
+    assert code == 0, err
+    assert "1 loop" in out and f"wrote {out_file}" in out
+    doc = load_profile(out_file)
+    assert doc.axis.point == (0.0, -45.0) and doc.profile.unit == "mm"
+    code, out, err = run(["measure", out_file, "--json"], capsys)
+    assert code == 0, err
+    got = json.loads(out)
+    want = measure(Revolution(nozzle_direct(), Axis.x(), 360.0), symbolic=False)
+    assert got["volume"] == pytest.approx(want.volume, rel=1e-12)
+    assert got["surface_area"] == pytest.approx(want.surface_total, rel=1e-12)
+    # reference library: shapely of the outline sampled here; Pappus V = 2 pi d A
+    t = np.linspace(0, 1, 20001)
+    curve = nozzle_direct().loops[0].segments[4]
+    fx, fy = (sympy.lambdify(T, e, "numpy") for e in (curve.x_expr, curve.y_expr))
+    a = np.linspace(math.pi / 2, 0, 5001)
+    outline = ([(0, 4), (0, 20)] + list(zip(10 + 5 * np.cos(a), 15 + 5 * np.sin(a))) +
+               list(zip(fx(t), fy(t))) + [(100, 8), (100, 4)])
+    polygon = Polygon(outline)
+    assert got["area"] == pytest.approx(polygon.area, rel=1e-6)
+    assert got["volume"] == pytest.approx(2 * math.pi * polygon.centroid.y * polygon.area,
+                                          rel=1e-6)
+
+
+def test_json_report(tmp_path, capsys):
+    out_file = str(tmp_path / "ring.toml")
+    code, out, err = run(["convert", "--path-data", "M0,10 H40 V20 H0 Z m 50 0 h 5",
+                          "-o", out_file, "--json", "--units", "in", "--name", "Ring"], capsys)
+    assert code == 0, err
+    report = json.loads(out)["report"]
+    assert [len(report["loops"]), len(report["chains"])] == [1, 1]
+    assert report["unit"] == "in" and report["unit_source"] == "given"
+    doc = load_profile(out_file)
+    assert doc.name == "Ring" and doc.profile.unit == "in" and doc.axis is None
+
+
+def dxf_bush(tmp_path, name="bush.dxf", gap=0.0, extra=None):
+    doc = ezdxf.new("R2010", setup=True)
+    doc.header["$INSUNITS"] = 4
+    msp = doc.modelspace()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 20), (0, 20 + gap)])
+    msp.add_line((0, 20), (0, 10))
+    msp.add_line((-5, 0), (45, 0), dxfattribs={"linetype": "CENTER"})
+    msp.add_text("BUSH")
+    if extra:
+        extra(msp)
+    path = str(tmp_path / name)
+    doc.saveas(path)
+    return path
+
+
+def test_dxf_converts_with_its_centre_line_and_reports(tmp_path, capsys):
+    out_file = str(tmp_path / "bush.toml")
+    code, out, err = run(["convert", dxf_bush(tmp_path, gap=1e-5), "-o", out_file, "--json",
+                          "--gap-tolerance", "1e-4"], capsys)
+    assert code == 0, err
+    data = json.loads(out)
+    report = data["report"]
+    assert report["axis"].startswith("from the centre line LINE #3")
+    assert len(report["gaps_closed"]) == 1 and report["gaps_closed"][0]["size"] == \
+        pytest.approx(1e-5, rel=1e-6)
+    assert report["skipped"] == [{"what": report["skipped"][0]["what"],
+                                  "reason": "text is not geometry"}]
+    code, out, err = run(["measure", out_file, "--json"], capsys)
+    # published: CRC (from memory), hollow cylinder pi (R^2 - r^2) L
+    assert json.loads(out)["volume"] == pytest.approx(math.pi * (400 - 100) * 40, rel=1e-9)
+
+
+def test_measure_reads_a_drawing_directly(tmp_path, capsys):
+    code, out, err = run(["measure", dxf_bush(tmp_path), "--json"], capsys)
+    assert code == 0, err
+    assert json.loads(out)["volume"] == pytest.approx(math.pi * (400 - 100) * 40, rel=1e-12)
+    svg = tmp_path / "ring.svg"
+    svg.write_text('<svg xmlns="http://www.w3.org/2000/svg"><path d="M0,10 H40 V20 H0 Z"/></svg>')
+    code, out, err = run(["measure", str(svg), "--json"], capsys)
+    assert code == 0, err
+    assert json.loads(out)["volume"] == pytest.approx(math.pi * (400 - 100) * 40, rel=1e-12)
+
+
+def test_point_list_converts(tmp_path, capsys):
+    out_file = str(tmp_path / "spacer.toml")
+    code, out, err = run(["convert", str(ROOT / "profiles" / "spacer-points.txt"), "-o",
+                          out_file], capsys)
+    assert code == 0, err
+    assert "point list" in out
+    again = load_profile(out_file)
+    original = load_profile(str(ROOT / "profiles" / "spacer-points.txt"))
+    assert [s.end for s in again.profile.loops[0].segments] == \
+        [s.end for s in original.profile.loops[0].segments]
+
+
+def test_output_is_not_replaced_without_force(tmp_path, capsys):
+    out_file = tmp_path / "ring.toml"
+    out_file.write_text("# mine\n")
+    code, out, err = run(["convert", "--path-data", "M0,10 H40 V20 H0 Z", "-o", str(out_file)],
+                         capsys)
+    assert code == 2 and "exists already; give --force" in err
+    assert out_file.read_text() == "# mine\n"
+    code, out, err = run(["convert", "--path-data", "M0,10 H40 V20 H0 Z", "-o", str(out_file),
+                          "--force"], capsys)
+    assert code == 0 and load_profile(str(out_file)).profile.loops
+
+
+def test_bad_input_exits_2_with_one_line_and_writes_nothing(tmp_path, capsys):
+    out_file = str(tmp_path / "out.toml")
+    junk = tmp_path / "junk.dxf"
+    junk.write_text("not a drawing at all\n")
+    line = refused(["convert", str(junk), "-o", out_file], capsys, out_file)
+    assert "junk.dxf: this is not a DXF drawing" in line
+    text = tmp_path / "text.svg"
+    text.write_text("M 0 0 L 1 1\n")
+    line = refused(["convert", str(text), "-o", out_file], capsys, out_file)
+    assert "text.svg:1: this is not an SVG file" in line
+    bomb = tmp_path / "bomb.svg"
+    bomb.write_text('<!DOCTYPE svg [<!ENTITY a "aaaaaaaaaa"><!ENTITY b "&a;&a;&a;&a;">]>'
+                    '<svg><path d="&b;"/></svg>')
+    line = refused(["convert", str(bomb), "-o", out_file], capsys, out_file)
+    assert 'declares the XML entity "a"' in line
+    line = refused(["convert", dxf_bush(tmp_path, "gap.dxf", gap=0.5), "-o", out_file], capsys,
+                   out_file)
+    assert "the drawing does not close" in line and "LWPOLYLINE #1" in line
+
+    def crossing(msp):
+        msp.add_line((20, 5), (20, 25))
+    line = refused(["convert", dxf_bush(tmp_path, "cross.dxf", extra=crossing), "-o", out_file,
+                    "--open"], capsys, out_file)
+    assert "after chaining, the profile intersects itself" in line
+    line = refused(["convert", "--path-data", "M 0 0 L 5", "-o", out_file], capsys, out_file)
+    assert "path data: character 10:" in line
+    line = refused(["convert", "--path-data", "M0,10 H40 V20 H0 Z", "-o", out_file, "--axis",
+                    "0,-15,1,0"], capsys, out_file)
+    assert "crosses the axis" in line
+    line = refused(["convert", NOZZLE, "--layer", "A", "-o", out_file], capsys, out_file)
+    assert "--layer applies to DXF drawings only" in line
+    line = refused(["convert", "-o", out_file], capsys, out_file)
+    assert "give a drawing file or --path-data" in line
+    line = refused(["convert", "--path-data", "M0 0 H1 V1 Z", "-o", str(tmp_path / "x.svg")],
+                   capsys, str(tmp_path / "x.svg"))
+    assert "ending in .toml" in line
+
+
+def test_reader_registration_imports_nothing_heavy():
+    code = ("import sys; import revolve.formats.drawings, revolve.cli.commands.convert, "
+            "revolve.formats.svg; heavy = [m for m in ('ezdxf', 'sympy', 'scipy', 'numpy', "
+            "'pint', 'matplotlib') if m in sys.modules]; print(heavy)")
+    result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                            cwd=str(ROOT), env={**os.environ, "PYTHONPATH": str(ROOT)})
+    assert result.returncode == 0, result.stderr
+    assert result.stdout.strip() == "[]"
