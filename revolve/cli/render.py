@@ -462,7 +462,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
         handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
         labels.append("section")
     handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=(0, (14, 3, 2, 3))))
-    labels.append("axis")
+    labels.append("axis of revolution")
     fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01), frameon=False,
                fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
                ncols=1 if len(labels) <= 24 else 2, handlelength=2.6)

@@ -1,0 +1,203 @@
+"""`revolve picture` end to end: PNG and SVG files of the expected size, bad input refused.
+
+References, named beside each check:
+
+* reference library matplotlib (``matplotlib.image.imread``) reading the PNG
+  back: its shape is the picture's size in pixels;
+* the standard library's XML parser (``xml.etree.ElementTree``) for SVG; the SVG
+  size in points is pixels × 72 / dpi (1 pt = 1/72 in, common practice, no source);
+* matplotlib's default colour cycle ``tab10`` (``matplotlib.colormaps``): each
+  face's colour must appear in the picture.
+
+The bundled example profiles are invented scenarios: they are only drawn.
+"""
+
+from __future__ import annotations
+
+import subprocess
+import sys
+import xml.etree.ElementTree as ET
+from pathlib import Path
+
+import matplotlib.image
+import numpy as np
+import pytest
+from matplotlib import colormaps
+
+from revolve.cli.app import main
+
+ROOT = Path(__file__).resolve().parents[2]
+PROFILES = [p for p in sorted((ROOT / "profiles").glob("*.toml"))
+            if "[[loop]]" in p.read_text(encoding="utf-8") or "[[chain]]" in p.read_text(encoding="utf-8")]
+PROFILES += sorted((ROOT / "profiles").glob("*.txt"))
+
+RING = """
+units = "mm"
+name = "Test ring"
+[[loop]]
+start = [0, 1]
+segments = [
+  { line_to = [2, 1], face = "bore" },
+  { line_to = [2, 3], face = "end" },
+  { line_to = [0, 3], face = "outside" },
+  { close = true, face = "end" },
+]
+"""
+
+SHELL = """
+units = "mm"
+[[chain]]
+start = [0, 0]
+segments = [
+  { arc_to = [10, 10], centre = [0, 10], turn = "ccw", face = "shell" },
+  { line_to = [10, 30], face = "wall" },
+]
+"""
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main([str(a) for a in args])
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def write(tmp_path, name, text):
+    p = tmp_path / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+def colours_present(png, colours, tol=0.02):
+    """Which of ``colours`` (RGB 0..1) occur among the picture's pixels (within ``tol``)."""
+    img = matplotlib.image.imread(str(png))[..., :3].reshape(-1, 3)
+    return [bool(np.any(np.all(np.abs(img - np.array(c)) < tol, axis=1))) for c in colours]
+
+
+def svg_size(path):
+    root = ET.parse(str(path)).getroot()   # the standard library's XML parser
+    assert root.tag.endswith("svg")
+    return float(root.get("width").rstrip("pt")), float(root.get("height").rstrip("pt"))
+
+
+@pytest.mark.parametrize("path", PROFILES, ids=lambda p: p.name)
+def test_every_example_profile_picture(path, tmp_path, capsys):
+    png = tmp_path / "p.png"
+    code, out, err = run(["picture", path, "-o", png], capsys)
+    assert code == 0, err
+    assert "wrote" in out
+    img = matplotlib.image.imread(str(png))
+    assert img.shape[:2] == (800, 1200)                  # default 1200 × 800 px
+    # Face k is drawn in tab10's colour k (matplotlib's default cycle): every face shows.
+    from revolve.formats import load_profile
+    faces = load_profile(str(path)).profile.faces()
+    tab10 = colormaps["tab10"].colors
+    assert all(colours_present(png, tab10[:min(len(faces), 10)]))
+
+
+@pytest.mark.parametrize("path", PROFILES[:3], ids=lambda p: p.name)
+def test_every_example_solid_picture(path, tmp_path, capsys):
+    png = tmp_path / "s.png"
+    code, out, err = run(["picture", path, "-o", png, "--3d", "--width", 640, "--height", 480], capsys)
+    assert code == 0, err
+    assert matplotlib.image.imread(str(png)).shape[:2] == (480, 640)
+
+
+@pytest.mark.parametrize("width, height, dpi", [(400, 300, 100), (1000, 250, 100), (333, 777, 150)])
+def test_png_has_the_requested_size(tmp_path, capsys, width, height, dpi):
+    profile = write(tmp_path, "ring.toml", RING)
+    for extra in ([], ["--3d"]):
+        png = tmp_path / "r.png"
+        code, _, err = run(["picture", profile, "-o", png, "--width", width, "--height", height,
+                            "--dpi", dpi] + extra, capsys)
+        assert code == 0, err
+        img = matplotlib.image.imread(str(png))   # matplotlib
+        assert img.shape[:2] == (height, width)
+        # Not blank: white background, dark text and coloured faces.
+        assert img[..., :3].min() < 0.3 and img[..., :3].max() > 0.95
+
+
+def test_svg_is_xml_of_the_right_size(tmp_path, capsys):
+    profile = write(tmp_path, "ring.toml", RING)
+    for extra in ([], ["--3d", "--angle", "240"]):
+        svg = tmp_path / "r.svg"
+        code, _, err = run(["picture", profile, "-o", svg, "--width", 900, "--height", 600] + extra,
+                           capsys)
+        assert code == 0, err
+        w, h = svg_size(svg)
+        assert (w, h) == pytest.approx((900 * 72 / 100, 600 * 72 / 100))
+        text = svg.read_text(encoding="utf-8")
+        for word in ("bore", "outside", "section area", "volume"):
+            assert word in text
+        if not extra:
+            assert "section centroid" in text and "boundary centroid" in text and "axis" in text
+
+
+def test_faces_have_distinct_colours(tmp_path, capsys):
+    # Three faces: tab10's first three colours, all present; the fourth is not used.
+    profile = write(tmp_path, "ring.toml", RING)
+    png = tmp_path / "r.png"
+    code, _, _ = run(["picture", profile, "-o", png], capsys)
+    assert code == 0
+    tab10 = colormaps["tab10"].colors
+    assert colours_present(png, tab10[:4]) == [True, True, True, False]
+
+
+def test_open_chain_and_partial_revolution(tmp_path, capsys):
+    profile = write(tmp_path, "shell.toml", SHELL)
+    for extra in ([], ["--3d"], ["--3d", "--angle", "120"]):
+        png = tmp_path / "s.png"
+        code, _, err = run(["picture", profile, "-o", png] + extra, capsys)
+        assert code == 0, err
+        assert matplotlib.image.imread(str(png)).shape[:2] == (800, 1200)
+    svg = tmp_path / "s.svg"
+    code, _, _ = run(["picture", profile, "-o", svg], capsys)
+    assert "surface only" in svg.read_text(encoding="utf-8")
+
+
+def test_mass_in_the_caption_with_the_caution(tmp_path, capsys):
+    profile = write(tmp_path, "ring.toml", RING)
+    svg = tmp_path / "r.svg"
+    code, out, _ = run(["picture", profile, "-o", svg, "--material", "carbon steel"], capsys)
+    assert code == 0
+    assert "mass" in svg.read_text(encoding="utf-8")
+    assert "competent" in out   # the lifting caution of the CLI
+
+
+# -- bad input: exit 2, one line, nothing written ----------------------------------------
+
+@pytest.mark.parametrize("extra, message", [
+    (["-o", "p.jpg"], "p.jpg"),
+    (["-o", "p.png", "--width", "50"], "--width"),
+    (["-o", "p.png", "--height", "20000"], "--height"),
+    (["-o", "p.png", "--dpi", "5"], "--dpi"),
+    (["-o", "p.png", "--angle", "0"], "--angle"),
+    (["-o", "p.png", "--axis", "q"], "--axis"),
+    (["-o", "p.png", "--3d", "--tolerance", "-1"], "--tolerance"),
+    (["-o", "p.png", "--material", "unobtainium"], "unobtainium"),
+    (["-o", "missing/p.png"], "folder"),
+])
+def test_bad_options(tmp_path, capsys, monkeypatch, extra, message):
+    monkeypatch.chdir(tmp_path)
+    profile = write(tmp_path, "ring.toml", RING)
+    code, _, err = run(["picture", profile] + extra, capsys)
+    assert code == 2
+    assert err.count("\n") == 1 and err.startswith("revolve: error:") and message in err, err
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["ring.toml"]
+
+
+def test_bad_profile_keeps_the_old_picture(tmp_path, capsys):
+    bad = write(tmp_path, "bad.toml", RING.replace("[0, 3] }", "[0, 5] }").replace("close = true", "line_to = [1, 9]"))
+    png = tmp_path / "p.png"
+    png.write_bytes(b"previous")
+    code, _, err = run(["picture", bad, "-o", png], capsys)
+    assert code == 2 and "bad.toml" in err and err.count("\n") == 1
+    assert png.read_bytes() == b"previous"
+
+
+def test_subprocess_error_has_no_traceback(tmp_path):
+    res = subprocess.run([sys.executable, "-m", "revolve", "picture", str(tmp_path / "none.toml"),
+                          "-o", str(tmp_path / "p.png")], capture_output=True, text=True)
+    assert res.returncode == 2
+    assert res.stderr.count("\n") == 1 and "Traceback" not in res.stderr and "none.toml" in res.stderr
+    assert not (tmp_path / "p.png").exists()
