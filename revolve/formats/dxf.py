@@ -835,8 +835,9 @@ def _skipped_list(skipped) -> List[Skipped]:
             out.append(Skipped(labels[0], reason))
         else:
             shown = ", ".join(labels[:3]) + (", ..." if len(labels) > 3 else "")
-            out.append(Skipped(f"{len(labels)} entities {kind if kind.startswith('on ') else kind} "
-                               f"({shown})", reason))
+            what = f"{len(labels)} entities {kind}" if kind.startswith("on ") else \
+                f"{len(labels)} {kind} entities"
+            out.append(Skipped(f"{what} ({shown})", reason))
     return out
 
 

@@ -644,7 +644,10 @@ class _Builder:
         x1p = cphi * hx + sphi * hy
         y1p = -sphi * hx + cphi * hy
         # F.6.6: radii too small for the chord are scaled up until they just reach.
-        lam = x1p * x1p / (rx * rx) + y1p * y1p / (ry * ry)
+        if rx == ry:  # a circle: lambda is (half the chord / r)^2, exact whatever the rotation
+            lam = (hx * hx + hy * hy) / (rx * rx)
+        else:
+            lam = x1p * x1p / (rx * rx) + y1p * y1p / (ry * ry)
         scaled = lam >= 1
         frx, fry = float(rx), float(ry)
         if lam > 1:

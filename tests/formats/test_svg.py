@@ -31,6 +31,8 @@ from fractions import Fraction
 import numpy as np
 import pytest
 import sympy
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from shapely.geometry import Polygon
 
 from revolve.errors import FormatError, ProfileError, UnitError
@@ -561,3 +563,24 @@ def test_curve_from_expressions_matches_direct_build():
                                             math.pi / 2),
                      Line((10.0, -10.0), (0.0, -10.0))))
     assert volume(doc.profile) == pytest.approx(volume(Profile(loops=(by_curve,))), rel=1e-10)
+
+
+def test_scaled_circle_is_exact_at_any_rotation():
+    # half the chord is 5 and the radius 5: lambda is exactly 1 whatever the x-axis rotation
+    doc, _ = path_data_profile("M 0 0 A 5 5 33 0 1 6 8 Z")
+    arc = doc.profile.loops[0].segments[0]
+    assert arc.exact[0] == "centre" and arc.exact[3] == (Fraction(3), Fraction(-4))
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(alphabet="MmLlHhVvCcSsQqTtAaZz0123456789.,-+eE \t\n", max_size=60))
+def test_any_text_is_read_or_refused_with_a_position(text):
+    # the scanner never fails in any other way, and positions lie inside the text (+1 at the end)
+    try:
+        commands = parse_path_data(text)
+    except PathDataError as exc:
+        assert 1 <= exc.position <= len(text) + 1
+    else:
+        for c in commands:
+            assert len(c.args) == {"M": 2, "L": 2, "H": 1, "V": 1, "C": 6, "S": 4, "Q": 4,
+                                   "T": 2, "A": 7, "Z": 0}[c.letter.upper()]
