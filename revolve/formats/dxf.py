@@ -625,7 +625,8 @@ def _axis_from(candidates, file, tolerance) -> Tuple[Optional[Axis], Optional[st
         if cross > 1e-9 or offset > tolerance:
             names = ", ".join(item[0] for item in lines[:5])
             raise FormatError(f"the centre lines do not lie on one line ({names}); give the axis "
-                              "(or move the other centre lines to another layer)", file=file)
+                              "to revolve convert (--axis) or move the other centre lines to "
+                              "another layer", file=file)
     if q is not None:
         start, end = (q, p) if flip else (p, q)
         # the point on the axis: the lowest end of any centre line along the direction
@@ -770,6 +771,8 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
             continue
         try:
             segments = _entity_segments(entity, label, path)
+            if not all(math.isfinite(v) for seg in segments for v in seg.start + seg.end):
+                raise _Unsupported("a coordinate is not a finite number")
         except _Unsupported as exc:
             skip(label, kind, str(exc))
             continue

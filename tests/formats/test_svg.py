@@ -584,3 +584,26 @@ def test_any_text_is_read_or_refused_with_a_position(text):
         for c in commands:
             assert len(c.args) == {"M": 2, "L": 2, "H": 1, "V": 1, "C": 6, "S": 4, "Q": 4,
                                    "T": 2, "A": 7, "Z": 0}[c.letter.upper()]
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.lists(st.tuples(st.sampled_from("LHVCSQTAlhvcsqta"),
+                          st.lists(st.integers(-20, 20), min_size=7, max_size=7)),
+                min_size=1, max_size=5), st.booleans())
+def test_any_valid_path_gives_a_profile_or_a_plain_error(commands, close):
+    # whatever the geometry (zero lengths, crossings, degenerate arcs), only RevolveError escapes
+    from revolve.errors import RevolveError
+    from revolve.formats.svg import _ARGUMENTS
+
+    parts = []
+    for letter, numbers in commands:
+        count = len(_ARGUMENTS[letter.upper()])
+        values = [abs(v) % 2 if letter.upper() == "A" and k in (3, 4) else v
+                  for k, v in enumerate(numbers[:count])]
+        parts.append(letter + " " + " ".join(map(str, values)))
+    d = "M 1 2 " + " ".join(parts) + (" z" if close else "")
+    try:
+        doc, report = path_data_profile(d)
+    except RevolveError:
+        return
+    assert doc.profile.paths
