@@ -211,7 +211,11 @@ def _run_with_budget(fn, seconds: float):
 
     Uses a real-time interval timer, so it only limits work on the main thread
     of a Unix process; elsewhere it returns None at once and the caller falls
-    back to quadrature.
+    back to quadrature. The timer repeats every 50 ms until the work stops, so
+    an alarm swallowed by a finalizer inside sympy is raised again.
+
+    >>> _run_with_budget(lambda: 2 + 2, 1.0)
+    4
     """
     import signal
     import threading
@@ -222,18 +226,27 @@ def _run_with_budget(fn, seconds: float):
     class _Timeout(Exception):
         pass
 
+    state = {"done": False}
+
     def on_alarm(signum, frame):
-        raise _Timeout()
+        if not state["done"]:
+            raise _Timeout()
 
     old = signal.signal(signal.SIGALRM, on_alarm)
-    signal.setitimer(signal.ITIMER_REAL, seconds)
     try:
-        return fn()
-    except _Timeout:
-        return None
-    except Exception:  # sympy failing on an integral is not the user's fault: use quadrature
-        return None
+        try:
+            signal.setitimer(signal.ITIMER_REAL, seconds, 0.05)
+            try:
+                return fn()
+            finally:
+                state["done"] = True
+                signal.setitimer(signal.ITIMER_REAL, 0)
+        except _Timeout:
+            return None
+        except Exception:  # sympy failing on an integral is not the user's fault: use quadrature
+            return None
     finally:
+        state["done"] = True
         signal.setitimer(signal.ITIMER_REAL, 0)
         signal.signal(signal.SIGALRM, old)
 

@@ -104,10 +104,13 @@ def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
         with np.errstate(all="ignore"):
             _, _, dz, _ = seg.evaluate(t)
         dz = np.nan_to_num(dz, nan=0.0, posinf=0.0, neginf=0.0)
-        flips = np.flatnonzero(np.sign(dz[:-1]) * np.sign(dz[1:]) < 0)
+        # Sign changes of dz/dt between neighbouring samples where it is not zero, so a
+        # turning point that falls exactly on a sample is found too.
+        nz = np.flatnonzero(np.sign(dz) != 0)
+        change = np.sign(dz[nz[:-1]]) * np.sign(dz[nz[1:]]) < 0
         ts = [seg.t_start]
-        for i in flips:
-            ts.append(_root(lambda u: seg.evaluate(np.array([u]))[2][0], t[i], t[i + 1]))
+        for i, j in zip(nz[:-1][change], nz[1:][change]):
+            ts.append(_root(lambda u: seg.evaluate(np.array([u]))[2][0], t[i], t[j]))
         ts.append(seg.t_end)
         out = []
         for ta, tb in zip(ts[:-1], ts[1:]):

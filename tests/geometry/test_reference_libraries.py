@@ -106,8 +106,6 @@ def test_shell_integral_turning_point_volume_sympy():
     assert_rel(m.volume, float(volume), CURVE_TOL, "shell volume")
 
 
-@pytest.mark.xfail(strict=True, reason="engine bug: slicing.monotone_pieces misses a curve's turning point "
-                   "when it falls exactly on a sample node (sign 0), so the washer cross-check is 1.8 % off")
 def test_shell_integral_turning_point_crosscheck_sympy():
     X = sympy.Symbol("x", real=True)
     p = 1 + X * (3 - X) / 2                             # turns back along the axis at x = 1.5
