@@ -1141,7 +1141,7 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
                               file=path)
         if len(paths) > 1:
             raise FormatError(f"the file has {len(paths)} paths ({listing}); choose one by its "
-                              "id", file=path)
+                              "id (revolve convert --path-id)", file=path)
         chosen = paths[0]
     index = paths.index(chosen)
     line = line_of.get(id(chosen))
