@@ -348,6 +348,29 @@ def _blocked(p: np.ndarray, q: np.ndarray, e0: np.ndarray, e1: np.ndarray, eps: 
     return hit.any(axis=1)
 
 
+def _copy_facing(xy: np.ndarray, poly: np.ndarray, position: int, target: np.ndarray) -> int:
+    """Of the places where the vertex at ``position`` occurs in ``poly``, the one whose corner
+    opens towards ``target`` (an earlier cut may have made the vertex occur twice).
+
+    A cut joined at the wrong copy would cross that copy's other edges.
+    """
+    vid = poly[position]
+    places = np.nonzero(poly == vid)[0]
+    if len(places) == 1:
+        return position
+    p = xy[vid]
+    d = target - p
+    for k in places:
+        w = xy[poly[(k + 1) % len(poly)]] - p   # towards the next vertex
+        u = xy[poly[k - 1]] - p                  # towards the previous vertex
+        # The inside (anticlockwise polygon) runs anticlockwise from w round to u.
+        ang_u = math.atan2(w[0] * u[1] - w[1] * u[0], w @ u) % (2 * math.pi)
+        ang_d = math.atan2(w[0] * d[1] - w[1] * d[0], w @ d) % (2 * math.pi)
+        if 0 < ang_d < ang_u:
+            return int(k)
+    return position
+
+
 def _bridge(xy: np.ndarray, outer: np.ndarray, holes: Sequence[np.ndarray], eps: float) -> np.ndarray:
     """Join the holes to the outer polygon by two-way cuts: one weakly simple polygon of vertex ids.
 
@@ -380,66 +403,134 @@ def _bridge(xy: np.ndarray, outer: np.ndarray, holes: Sequence[np.ndarray], eps:
         if chosen is None:
             raise RevolveError("a hole of the section cannot be joined to its outside for the "
                                "cut faces; try a smaller chord tolerance")
+        chosen = _copy_facing(xy, poly, chosen, xy[m])
         poly = np.concatenate([poly[:chosen + 1], hole, [m], poly[chosen:]])
     return poly
+
+
+@dataclass
+class _Corners:
+    """Working state of ear clipping: the polygon's corners, what blocks, what is an ear.
+
+    Corners are numbered by their place in the original polygon (``entry``)
+    so that one sort of all of them by ``x`` serves every search.
+    """
+
+    xy: np.ndarray
+    ids: np.ndarray          # vertex id of each original corner
+    entry: np.ndarray        # original corner number at each current place
+    cross: np.ndarray        # twice the signed area at each current place
+    blocking: np.ndarray     # per original corner: reflex, flat or a cut's end, and still there
+    sorted_x: np.ndarray
+    sorted_entries: np.ndarray
+    eps: float
+
+    def corner_areas(self, places: np.ndarray) -> np.ndarray:
+        n = len(self.entry)
+        v = self.ids[self.entry]
+        return _orient(self.xy[v[(places - 1) % n]], self.xy[v[places]], self.xy[v[(places + 1) % n]])
+
+    def ears(self, places: np.ndarray, most_pairs: int = 2_000_000) -> np.ndarray:
+        """Which corners at ``places`` are ears: convex, with no blocking corner in their triangle.
+
+        Only a reflex or flat corner, or a copy of a cut's end, can lie in a
+        convex corner's triangle; candidates come from the sort on ``x``.
+        """
+        n = len(self.entry)
+        result = np.zeros(len(places), dtype=bool)
+        convex = self.cross[places] > self.eps
+        cand = places[convex]
+        if cand.size == 0:
+            return result
+        v = self.ids[self.entry]
+        own_ids = np.stack([v[(cand - 1) % n], v[cand], v[(cand + 1) % n]], axis=1)
+        tri = self.xy[own_ids]
+        lo = np.searchsorted(self.sorted_x, tri[:, :, 0].min(axis=1), side="left")
+        hi = np.searchsorted(self.sorted_x, tri[:, :, 0].max(axis=1), side="right")
+        counts = hi - lo
+        ear = np.ones(len(cand), dtype=bool)
+        start = 0
+        while start < len(cand):
+            cum = np.cumsum(counts[start:])
+            stop = start + max(1, int(np.searchsorted(cum, most_pairs, side="right")))
+            k = np.arange(start, stop)
+            cnt = counts[k]
+            total = int(cnt.sum())
+            if total:
+                owner = np.repeat(k, cnt)
+                offset = np.arange(total) - np.repeat(np.cumsum(cnt) - cnt, cnt)
+                e = self.sorted_entries[np.repeat(lo[k], cnt) + offset]
+                live = self.blocking[e]
+                owner, e = owner[live], e[live]
+                pid = self.ids[e]
+                p = self.xy[pid]
+                pa, pb, pc = tri[owner, 0], tri[owner, 1], tri[owner, 2]
+                inside = (_orient(pa, pb, p) >= -self.eps) & (_orient(pb, pc, p) >= -self.eps) & \
+                    (_orient(pc, pa, p) >= -self.eps)
+                own = (pid == own_ids[owner, 0]) | (pid == own_ids[owner, 1]) | (pid == own_ids[owner, 2])
+                blocked = np.bincount(owner[inside & ~own] - start, minlength=len(k))[:len(k)]
+                ear[k] = blocked == 0
+            start = stop
+        result[np.nonzero(convex)[0]] = ear
+        return result
 
 
 def _ear_clip(xy: np.ndarray, poly: np.ndarray, scale: float) -> np.ndarray:
     """Ear clipping of a (weakly simple, counter-clockwise) polygon given by vertex ids.
 
-    Each round finds every ear at once (numpy) and clips a set of them no two
-    of which are neighbours, so their triangles never overlap.
+    Each round clips a set of ears no two of which are neighbours (so their
+    triangles never overlap), then re-examines only the corners next to them:
+    clipping only ever turns a reflex corner convex and removes corners, so a
+    known ear stays an ear. When no known ear is left, every corner is
+    examined again.
     """
-    eps_area = 1e-14 * scale * scale
-    ids, counts = np.unique(poly, return_counts=True)
-    repeated = np.zeros(int(poly.max()) + 1 if poly.size else 0, dtype=bool)
-    repeated[ids[counts > 1]] = True
+    eps = 1e-14 * scale * scale
+    if len(poly) < 3:
+        return np.zeros((0, 3), dtype=int)
+    uniq, counts = np.unique(poly, return_counts=True)
+    repeated = np.zeros(int(poly.max()) + 1, dtype=bool)
+    repeated[uniq[counts > 1]] = True
+    order = np.argsort(xy[poly, 0], kind="stable")
+    state = _Corners(xy=xy, ids=poly.copy(), entry=np.arange(len(poly)), cross=np.zeros(len(poly)),
+                     blocking=np.zeros(len(poly), dtype=bool), sorted_x=xy[poly[order], 0],
+                     sorted_entries=order, eps=eps)
+    everywhere = np.arange(len(poly))
+    state.cross = state.corner_areas(everywhere)
+    state.blocking = (state.cross <= eps) | repeated[poly]
+    ear = state.ears(everywhere)
     out: List[np.ndarray] = []
-    while len(poly) > 3:
-        n = len(poly)
-        prev, nxt = np.roll(poly, 1), np.roll(poly, -1)
-        A, B, C = xy[prev], xy[poly], xy[nxt]
-        cross = _orient(A, B, C)
-        convex = cross > eps_area
-        flat = np.abs(cross) <= eps_area
-        if flat.all():
-            break  # nothing left with an area
-        blockers = np.nonzero(~convex | repeated[poly])[0]
-        cand = np.nonzero(convex)[0]
-        ear = np.ones(len(cand), dtype=bool)
-        if blockers.size and cand.size:
-            bid = poly[blockers]
-            P = xy[bid]
-            step = max(1, 2_000_000 // max(1, blockers.size))
-            for s in range(0, len(cand), step):
-                c = cand[s:s + step]
-                a, b, cc = A[c][:, None, :], B[c][:, None, :], C[c][:, None, :]
-                inside = (_orient(a, b, P[None]) >= -eps_area) & (_orient(b, cc, P[None]) >= -eps_area) & \
-                    (_orient(cc, a, P[None]) >= -eps_area)
-                own = (bid[None, :] == prev[c][:, None]) | (bid[None, :] == poly[c][:, None]) | \
-                    (bid[None, :] == nxt[c][:, None])
-                ear[s:s + step] = ~(inside & ~own).any(axis=1)
-        is_ear = np.zeros(n, dtype=bool)
-        is_ear[cand[ear]] = True
-        if not is_ear.any():
+    while len(state.entry) > 3:
+        n = len(state.entry)
+        if not ear.any():
+            ear = state.ears(np.arange(n))
+        if not ear.any():
+            convex = state.cross > eps
+            if not convex.any():
+                break  # nothing with an area is left
             # Numerical trouble: clip the most convex corner to keep going.
-            is_ear[int(np.argmax(np.where(convex, cross, -np.inf)))] = convex.any()
-            if not is_ear.any():
-                # Only flat and reflex corners left: drop a flat corner (no area lost).
-                drop = int(np.argmax(flat))
-                poly = np.delete(poly, drop)
-                continue
+            ear[int(np.argmax(np.where(convex, state.cross, -np.inf)))] = True
         pos = np.arange(n)
-        take = is_ear & (pos % 2 == 0)
+        take = ear & (pos % 2 == 0)
         if n % 2 == 1 and take[0]:
             take[n - 1] = False
         if not take.any():
-            take = is_ear & (pos % 2 == 1)
+            take = ear & (pos % 2 == 1)
         sel = np.nonzero(take)[0]
-        out.append(np.column_stack([prev[sel], poly[sel], nxt[sel]]))
-        poly = np.delete(poly, sel)
-    if len(poly) == 3 and _orient(xy[poly[0]], xy[poly[1]], xy[poly[2]]) > eps_area:
-        out.append(poly[None, :])
+        v = state.ids[state.entry]
+        out.append(np.column_stack([v[(sel - 1) % n], v[sel], v[(sel + 1) % n]]))
+        state.blocking[state.entry[sel]] = False
+        keep = ~take
+        new_place = np.cumsum(keep) - 1
+        touched = np.unique(np.concatenate([(sel - 1) % n, (sel + 1) % n]))
+        state.entry, state.cross, ear = state.entry[keep], state.cross[keep], ear[keep]
+        dirty = new_place[touched]
+        state.cross[dirty] = state.corner_areas(dirty)
+        e = state.entry[dirty]
+        state.blocking[e] = (state.cross[dirty] <= eps) | repeated[state.ids[e]]
+        ear[dirty] = state.ears(dirty) if len(state.entry) > 3 else False
+    v = state.ids[state.entry]
+    if len(v) == 3 and _orient(xy[v[0]], xy[v[1]], xy[v[2]]) > eps:
+        out.append(v[None, :])
     return np.vstack(out) if out else np.zeros((0, 3), dtype=int)
 
 

@@ -329,3 +329,40 @@ def test_profile_errors_come_from_the_engine_checks():
     crossing = Profile(loops=(Loop.from_points([(0, -1), (2, -1), (2, 3), (0, 3)]),))
     with pytest.raises(ProfileError, match="crosses the axis"):
         revolve_mesh(Revolution(crossing, Axis.x()), 0.01)
+
+
+def random_section(rng):
+    """A star-shaped outer polygon with up to three star-shaped holes well inside it."""
+    n = int(rng.integers(5, 60))
+    ang = np.sort(rng.uniform(0, 2 * np.pi, n))
+    rad = rng.uniform(3, 6, n)
+    outer = np.column_stack([rad * np.cos(ang), rad * np.sin(ang)])
+    holes = []
+    for _ in range(int(rng.integers(0, 4))):
+        c = rng.uniform(-1.5, 1.5, 2)
+        m = int(rng.integers(3, 30))
+        a = np.sort(rng.uniform(0, 2 * np.pi, m))
+        r = rng.uniform(0.1, 0.6, m)
+        h = c + np.column_stack([r * np.cos(a), r * np.sin(a)])
+        ph = Polygon(h)
+        if ph.is_valid and Polygon(outer).contains(ph) and all(Polygon(o).distance(ph) > 0.05 for o in holes):
+            holes.append(h)
+    return outer, holes
+
+
+@pytest.mark.parametrize("seed", list(range(40)) + [215, 289])  # 215, 289: a hole joined through
+def test_triangulation_of_random_sections_matches_shapely(seed):  # another hole's cut end
+    # Several holes may join the outside through one another: each cut must leave the
+    # polygon weakly simple, or triangles overlap (shapely: Polygon.area, unary_union).
+    outer, holes = random_section(np.random.default_rng(seed))
+    shape = Polygon(outer, holes)
+    if not shape.is_valid:
+        pytest.skip("random polygon not simple")
+    tri = triangulate_section(outer, holes)
+    pts = np.vstack([outer] + holes)
+    areas = np.array([signed_area(pts[t]) for t in tri])
+    assert np.all(areas > 0)
+    assert math.isclose(areas.sum(), shape.area, rel_tol=1e-12)
+    union = unary_union([Polygon(pts[t]) for t in tri])
+    assert union.symmetric_difference(shape).area < 1e-9 * shape.area
+    assert len(tri) == len(pts) - 2 + 2 * len(holes)
