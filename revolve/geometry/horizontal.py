@@ -1,0 +1,777 @@
+"""Level volumes with the axis horizontal: circular segments integrated along the axis.
+
+With the axis level, a liquid depth ``d`` measured from the lowest inside
+point puts the liquid surface at height ``y = d - r_max`` above the axis,
+``r_max`` being the largest distance of the section from the axis. A slice
+of the revolved solid perpendicular to the axis is a set of circles (rings
+for sections with holes) about the axis; the wetted part of a circle of
+radius ``r`` is the circular segment below ``y``, of area
+
+    S(r, y) = r² acos(-y/r) + y √(r² - y²)      for |y| < r,
+
+0 below the circle and π r² above it (the circular segment area of CRC
+*Standard Mathematical Tables*, written with the height ``r + y``). As for
+washers (:mod:`revolve.geometry.slicing`), the wetted area of a slice is
+``Σ ± S(r_i(z), y)`` over the points where the section's boundary crosses the
+slice, and the volume is its integral along the axis, a line integral
+``-∮ S(r, y) dz`` around each loop (Green's theorem; at full depth S = π r²
+and this is the washer volume).
+
+The wetted surface is the same sum for the boundary itself: at a boundary
+point of radius ``r`` the wetted arc of the circle is ``2 r acos(-y/r)``
+(= ∂S/∂r), so the wetted area is ``∫ 2 r acos(-y/r) ds`` along every
+segment.
+
+How each piece is integrated (pieces monotone in both ``z`` and ``r``, so
+that a level meets a piece's circles tangentially at most once):
+
+* straight pieces in closed form: a cylinder ``S(r, y) Δz``; a cone
+  ``Δz/Δr · [F(r₁, y) - F(r₀, y)]`` with ``F = ∫ S dr`` (below); a flat face
+  ``S(r₁, y) - S(r₀, y)`` of wetted area. A cone so steep in ``r`` that the
+  difference would lose digits goes to quadrature instead;
+* a piece entirely below or above the level in closed form (nothing, or the
+  whole washer π ∫ r² dz and surface 2π ∫ r ds);
+* everything else by Gauss–Legendre quadrature, vectorised over levels and
+  pieces: lines in ``z``, arcs in their angle, curves in their parameter.
+  Where a level is tangent to a piece's circles (``r = |y|``) the piece is
+  split there and the nodes of the wetted side are gathered towards the
+  split by ``p = p* + (p₁ - p*) u²``, which makes the integrand's
+  ``(r - |y|)^{3/2}`` behaviour smooth in ``u``; curves use
+  ``p = m - h cos(π u)`` throughout (smooth at ends with a vertical tangent).
+  Each interval's error is estimated from how fast the Legendre
+  coefficients of its integrand fall off (:func:`_error_estimate`), and
+  intervals are halved until the estimate is small; the sum of the
+  estimates is reported with the result.
+
+``F(r, y) = r³/3 · acos(-y/r) + 2/3 · y r √(r² - y²) - y³/3 · acosh(r/|y|)``
+for ``r ≥ |y|`` (and π r³/3 or 0 when the circle is wholly below or above
+the liquid surface); its derivative in ``r`` is ``S``, which the tests check
+against sympy.
+
+Examples
+--------
+A cylinder of radius 1 and length 2 half full: half its volume, 2 · π/2.
+
+>>> from revolve.geometry.profile import Loop, Profile, Axis
+>>> from revolve.geometry.checks import prepare
+>>> prep = prepare(Profile(loops=(Loop.from_points([(0, 0), (2, 0), (2, 1), (0, 1)]),)), Axis.x())
+>>> res = horizontal_levels(prep, [0.0, 1.0, 2.0])
+>>> [round(float(v) / math.pi, 12) for v in res.volume]
+[0.0, 1.0, 2.0]
+>>> [round(float(a) / math.pi, 12) for a in res.wetted_area]   # 2 π r L plus the two ends
+[0.0, 3.0, 6.0]
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Optional, Sequence, Tuple
+
+import numpy as np
+
+from revolve.geometry.checks import PreparedProfile
+from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, split_arc,
+                                       split_curve, section_loop_factors)
+from revolve.geometry.segments import Arc, Curve, Line
+from revolve.geometry.slicing import gauss_legendre
+
+PI = math.pi
+#: Steepest cone (|Δz/Δr|) integrated in closed form; steeper ones go to quadrature.
+CLOSED_FORM_SLOPE = 1e3
+
+
+# -- the circular segment and its integrals ---------------------------------------------
+
+def _half_angle(r, r_plus_y):
+    """acos(-y/r) written as 2 asin(√((r + y)/(2r))): no digits lost near the bottom."""
+    with np.errstate(divide="ignore", invalid="ignore"):
+        q = np.where(r > 0, r_plus_y / np.where(r > 0, 2.0 * r, 1.0), 0.0)
+    return 2.0 * np.arcsin(np.sqrt(np.clip(q, 0.0, 1.0)))
+
+
+def segment_area(r, y, r_plus_y=None):
+    """Area of a circle of radius ``r`` about the axis below the height ``y`` (arrays).
+
+    ``r_plus_y`` may give ``r + y`` computed without cancellation (the
+    segment's height), for depths tiny compared with ``r``.
+
+    >>> round(float(segment_area(1.0, 0.0)) / math.pi, 15)          # half the circle
+    0.5
+    >>> float(segment_area(2.0, -3.0)), round(float(segment_area(2.0, 5.0)) / math.pi, 15)
+    (0.0, 4.0)
+    >>> r, h = 1.0, 0.3                     # CRC: r² acos((r-h)/r) - (r-h) √(2rh - h²)
+    >>> ref = r * r * math.acos((r - h) / r) - (r - h) * math.sqrt(2 * r * h - h * h)
+    >>> abs(float(segment_area(r, h - r)) - ref) < 1e-15
+    True
+    """
+    r = np.asarray(r, dtype=float)
+    y = np.asarray(y, dtype=float)
+    rpy = (r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float)
+    rmy = 2.0 * r - rpy
+    inside = (rpy > 0) & (rmy > 0)
+    angle = _half_angle(r, np.clip(rpy, 0.0, None))
+    chord = np.sqrt(np.clip(rpy, 0.0, None) * np.clip(rmy, 0.0, None))
+    s = r * r * angle + y * chord
+    return np.where(inside, s, np.where(rpy <= 0, 0.0, PI * r * r))
+
+
+def wetted_arc(r, y, r_plus_y=None):
+    """Length of the arc of a circle of radius ``r`` below the height ``y``: 2 r acos(-y/r).
+
+    >>> round(float(wetted_arc(1.0, 0.0)) / math.pi, 15), float(wetted_arc(1.0, -2.0))
+    (1.0, 0.0)
+    """
+    r = np.asarray(r, dtype=float)
+    y = np.asarray(y, dtype=float)
+    rpy = (r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float)
+    return 2.0 * r * _half_angle(r, np.clip(rpy, 0.0, 2.0 * r))
+
+
+def segment_area_integral(r, y):
+    """F(r, y) = ∫ S(r, y) dr, continuous in r (0 at r = 0; see the module notes).
+
+    >>> y = 0.25
+    >>> h = 1e-6
+    >>> d = (segment_area_integral(0.8 + h, y) - segment_area_integral(0.8 - h, y)) / (2 * h)
+    >>> abs(float(d) - float(segment_area(0.8, y))) < 1e-8
+    True
+    >>> round(float(segment_area_integral(1.0, 2.0)) / math.pi, 15)   # π r³/3: wholly under
+    0.333333333333333
+    """
+    r = np.asarray(r, dtype=float)
+    y = np.asarray(y, dtype=float)
+    ay = np.abs(y)
+    inside = r > ay
+    rr = np.where(inside, r, ay + 1.0)       # harmless values where not used
+    rpy = rr + y
+    angle = _half_angle(rr, rpy)
+    chord = np.sqrt(np.clip((rr - ay) * (rr + ay), 0.0, None))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        t = np.where(ay > 0, np.log1p((rr - ay + chord) / np.where(ay > 0, ay, 1.0)), 0.0)
+    f = rr ** 3 / 3.0 * angle + 2.0 / 3.0 * y * rr * chord - y ** 3 / 3.0 * t
+    outside = np.where(y >= 0, PI * r ** 3 / 3.0, 0.0)
+    return np.where(inside, f, outside)
+
+
+# -- pieces --------------------------------------------------------------------------------
+
+@dataclass(frozen=True)
+class HorizontalPieces:
+    """The closed loops of a prepared profile, ready for level integrals.
+
+    ``line`` (n, 4): z0, r0, z1, r1 of each straight segment (flat faces,
+    z0 == z1, included). ``arc`` (n, 5): cz, cr, R, angle from, angle to;
+    its first rows are the arcs cut at every quarter turn (so that r is
+    monotone on each), the rows ``arc_whole`` the whole arcs, whose r range
+    is ``arc_whole_r`` and whose quarter rows are ``arc_quarters[k, 0]`` up
+    to ``arc_quarters[k, 1]``. ``curves`` and the ``curve_*`` fields are the
+    same for curves, cut where r turns back. ``*_factor`` are loop factors.
+    ``z`` is measured from ``z_ref``, the middle of the profile; ``r_max`` is
+    the largest distance from the axis and ``length`` the axial extent.
+    """
+
+    line: np.ndarray
+    line_factor: np.ndarray
+    arc: np.ndarray
+    arc_factor: np.ndarray
+    arc_whole: np.ndarray
+    arc_whole_r: np.ndarray
+    arc_quarters: np.ndarray
+    curves: Tuple[Tuple[Curve, float, float], ...]
+    curve_factor: np.ndarray
+    curve_whole: np.ndarray
+    curve_whole_r: np.ndarray
+    curve_quarters: np.ndarray
+    z_ref: float
+    r_max: float
+    length: float
+
+
+def horizontal_pieces(prep: PreparedProfile,
+                      loop_factors: Optional[Sequence[float]] = None) -> HorizontalPieces:
+    """Split the closed loops for :func:`horizontal_levels` (see :class:`HorizontalPieces`).
+
+    >>> from revolve.geometry.segments import arc_from_centre
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+    >>> p = horizontal_pieces(prepare(Profile(loops=(Loop((half, Line((-1.0, 0.0), (1.0, 0.0)))),)), Axis.x()))
+    >>> p.arc.shape, p.arc_whole.tolist(), p.arc_quarters.tolist(), p.line.shape, p.r_max
+    ((3, 5), [2], [[0, 2]], (1, 4), 1.0)
+    """
+    if loop_factors is None:
+        loop_factors = section_loop_factors(prep)
+    pairs = list(_loop_segments(prep, loop_factors))
+    zs = [c for s, _ in pairs for c in (s.start[0], s.end[0])]
+    z_ref = float((min(zs) + max(zs)) / 2) if zs else 0.0
+    lines, lf = [], []
+    quarters, qf, wholes, wf, wr, wq = [], [], [], [], [], []
+    c_parts, c_pf, c_wholes, c_wf, c_wr, c_wq = [], [], [], [], [], []
+    r_max, z_lo, z_hi = 0.0, math.inf, -math.inf
+    for s, f in pairs:
+        r_max = max(r_max, s.start[1], s.end[1])
+        z_lo, z_hi = min(z_lo, s.start[0], s.end[0]), max(z_hi, s.start[0], s.end[0])
+        if isinstance(s, Line):
+            lines.append((s.start[0] - z_ref, s.start[1], s.end[0] - z_ref, s.end[1]))
+            lf.append(f)
+        elif isinstance(s, Arc):
+            cz, cr, R = s.centre[0] - z_ref, s.centre[1], s.radius
+            first = len(quarters)
+            rs = []
+            for p, q in split_arc(s, PI / 2):
+                quarters.append((cz, cr, R, p, q))
+                qf.append(f)
+                rs += [cr + R * math.sin(p), cr + R * math.sin(q)]
+                for angle in (p, q):
+                    z_lo = min(z_lo, s.centre[0] + R * math.cos(angle))
+                    z_hi = max(z_hi, s.centre[0] + R * math.cos(angle))
+            a0, a1 = s.angles()
+            wholes.append((cz, cr, R, a0, a1))
+            wf.append(f)
+            wr.append((min(rs), max(rs)))
+            wq.append((first, len(quarters)))
+            r_max = max(r_max, max(rs))
+            for k in range(math.ceil(min(a0, a1) / PI), math.floor(max(a0, a1) / PI) + 1):
+                z_lo = min(z_lo, s.centre[0] + R * math.cos(k * PI))
+                z_hi = max(z_hi, s.centre[0] + R * math.cos(k * PI))
+        elif isinstance(s, Curve):
+            c = _shifted_curve(s, -z_ref)
+            first = len(c_parts)
+            rs = []
+            for p, q in split_curve(s, (3,)):
+                c_parts.append((c, p, q))
+                c_pf.append(f)
+                rs += [float(v) for v in s.evaluate(np.array([p, q]))[1]]
+            c_wholes.append((c, s.t_start, s.t_end))
+            c_wf.append(f)
+            c_wr.append((min(rs), max(rs)))
+            c_wq.append((first, len(c_parts)))
+            r_max = max(r_max, max(rs))
+            zz = s.evaluate(np.linspace(s.t_start, s.t_end, 257))[0]
+            z_lo, z_hi = min(z_lo, float(np.nanmin(zz))), max(z_hi, float(np.nanmax(zz)))
+        else:  # pragma: no cover
+            raise TypeError(type(s).__name__)
+    nq, nc = len(quarters), len(c_parts)
+    return HorizontalPieces(
+        np.array(lines, dtype=float).reshape(-1, 4), np.array(lf, dtype=float),
+        np.array(quarters + wholes, dtype=float).reshape(-1, 5), np.array(qf + wf, dtype=float),
+        np.arange(nq, nq + len(wholes)), np.array(wr, dtype=float).reshape(-1, 2),
+        np.array(wq, dtype=int).reshape(-1, 2),
+        tuple(c_parts + c_wholes), np.array(c_pf + c_wf, dtype=float),
+        np.arange(nc, nc + len(c_wholes)), np.array(c_wr, dtype=float).reshape(-1, 2),
+        np.array(c_wq, dtype=int).reshape(-1, 2),
+        z_ref, float(r_max), float(z_hi - z_lo) if zs else 0.0)
+
+
+# -- closed forms ---------------------------------------------------------------------------
+
+def _arc_washer(cz, cr, R, a, b):
+    """π ∫ r² dz along arcs from angle a to b (signed, dz = -R sin θ dθ)."""
+    d = b - a
+    m = 0.5 * (a + b)
+    sh = np.sin(0.5 * d)
+    dcos = -2.0 * np.sin(m) * sh
+    dsin2t = 2.0 * np.cos(a + b) * np.sin(d)
+    ca, cb = np.cos(a), np.cos(b)
+    dcos3 = dcos * (ca * ca + ca * cb + cb * cb)
+    return -PI * R * (-cr * cr * dcos + 2.0 * cr * R * (d / 2.0 - dsin2t / 4.0)
+                      + R * R * (-dcos + dcos3 / 3.0))
+
+
+def _line_washer(z0, r0, z1, r1):
+    return PI * (z1 - z0) * (r0 * r0 + r0 * r1 + r1 * r1) / 3.0
+
+
+# -- quadrature jobs -------------------------------------------------------------------------
+
+#: How a job's variable u in [0, 1] maps to the piece's parameter p on [pa, pb]:
+#: straight, squared towards pa or towards pb (a tangency there: (p - p*)^{3/2} becomes
+#: smooth in u), or p = m - h cos(π u) (curves: smooth at ends with a vertical tangent).
+STRAIGHT, TOWARDS_START, TOWARDS_END, COSINE = 0, 1, 2, 3
+
+
+@dataclass
+class _Jobs:
+    """Intervals still to integrate: piece kind and index, level, parameter map, u range."""
+
+    kind: np.ndarray     # 0 line, 1 arc, 2 curve
+    piece: np.ndarray
+    level: np.ndarray    # index into the levels
+    mapping: np.ndarray
+    pa: np.ndarray
+    pb: np.ndarray
+    ua: np.ndarray
+    ub: np.ndarray
+
+    FIELDS = ("kind", "piece", "level", "mapping", "pa", "pb", "ua", "ub")
+
+    @classmethod
+    def empty(cls):
+        z = np.zeros(0)
+        i = np.zeros(0, dtype=int)
+        return cls(i, i, i, i, z, z, z, z)
+
+    def extend(self, kind, piece, level, pa, pb, mapping) -> None:
+        n = np.size(piece)
+        if n == 0:
+            return
+        new = (np.full(n, kind, dtype=int), np.asarray(piece, dtype=int).ravel(),
+               np.asarray(level, dtype=int).ravel(),
+               np.broadcast_to(np.asarray(mapping, dtype=int), (n,)).ravel(),
+               np.asarray(pa, dtype=float).ravel(), np.asarray(pb, dtype=float).ravel(),
+               np.zeros(n), np.ones(n))
+        for name, arr in zip(self.FIELDS, new):
+            setattr(self, name, np.concatenate([getattr(self, name), arr]))
+
+    def take(self, mask) -> "_Jobs":
+        return _Jobs(*(getattr(self, f)[mask] for f in self.FIELDS))
+
+    def halve(self) -> "_Jobs":
+        mid = 0.5 * (self.ua + self.ub)
+        parts = [np.tile(getattr(self, f), 2) for f in self.FIELDS[:6]]
+        return _Jobs(*parts, np.concatenate([self.ua, mid]), np.concatenate([mid, self.ub]))
+
+    def __len__(self) -> int:
+        return self.kind.size
+
+
+def _concat(parts) -> _Jobs:
+    if not parts:
+        return _Jobs.empty()
+    return _Jobs(*(np.concatenate([getattr(p, f) for p in parts]) for f in _Jobs.FIELDS))
+
+
+def _parameter(jobs: _Jobs, u):
+    """p(u) and dp/du for each job's mapping (arrays shaped like u)."""
+    pa, pb = jobs.pa[:, None], jobs.pb[:, None]
+    span = pb - pa
+    mp = jobs.mapping
+    if not mp.any():                                   # all straight: the common case
+        return pa + span * u, np.broadcast_to(span, u.shape)
+    p = np.empty(u.shape)
+    dp = np.empty(u.shape)
+    for kind in np.unique(mp):
+        rows = np.flatnonzero(mp == kind)
+        uu, a, b, sp = u[rows], pa[rows], pb[rows], span[rows]
+        if kind == STRAIGHT:
+            p[rows], dp[rows] = a + sp * uu, sp
+        elif kind == TOWARDS_START:
+            p[rows], dp[rows] = a + sp * uu * uu, 2.0 * sp * uu
+        elif kind == TOWARDS_END:
+            p[rows], dp[rows] = b - sp * (1.0 - uu) ** 2, 2.0 * sp * (1.0 - uu)
+        else:
+            p[rows] = 0.5 * (a + b) - 0.5 * sp * np.cos(PI * uu)
+            dp[rows] = 0.5 * PI * sp * np.sin(PI * uu)
+    return p, dp
+
+
+_RULES: dict = {}
+
+
+def _rule(n: int):
+    """Gauss–Legendre nodes and a (n, 5) weight matrix: the integral and the Legendre
+    coefficients of degrees n-1 ... n-4 of the integrand's interpolant."""
+    if n not in _RULES:
+        x, w = gauss_legendre(n)
+        V = np.polynomial.legendre.legvander(x, n - 1)
+        coefficients = [(2 * k + 1) / 2.0 * w * V[:, k] for k in (n - 1, n - 2, n - 3, n - 4)]
+        _RULES[n] = (x, np.column_stack([w] + coefficients))
+    return _RULES[n]
+
+
+def _error_estimate(q: np.ndarray, n: int) -> np.ndarray:
+    """Error of an n-point Gauss–Legendre sum from the decay of its last Legendre coefficients.
+
+    ``q`` holds, per interval, the sum and the coefficients a_{n-1} ... a_{n-4}
+    (see :func:`_rule`). With the coefficients falling by a factor ρ per degree
+    (measured from the last two pairs), the first one the rule misses, a_{2n},
+    is about a_{n-1} ρ^{n+1}; where they do not fall (ρ = 1) the estimate is
+    the last coefficients themselves, which is generous. Times 10 for safety.
+    """
+    last = np.maximum(np.abs(q[:, 1]), np.abs(q[:, 2]))
+    before = np.maximum(np.abs(q[:, 3]), np.abs(q[:, 4]))
+    with np.errstate(divide="ignore", invalid="ignore"):
+        rho = np.where(before > 0, np.sqrt(last / np.where(before > 0, before, 1.0)), 1.0)
+    rho = np.where(last > 0, np.minimum(rho, 1.0), 0.0)
+    return 20.0 * last * rho ** (n + 1)
+
+
+def _radii(jobs: _Jobs, pieces: HorizontalPieces, p):
+    """r, dz/dp, ds/dp and r - r_max at parameters p of jobs of any kinds."""
+    r = np.empty(p.shape)
+    dz = np.empty(p.shape)
+    ds = np.empty(p.shape)
+    r_less_max = np.empty(p.shape)     # r - r_max, without cancellation on a cylinder at r_max
+    k = jobs.kind
+    sel = np.flatnonzero(k == 0)
+    if sel.size:
+        z0, r0, z1, r1 = (pieces.line[jobs.piece[sel], i][:, None] for i in range(4))
+        slope = (r1 - r0) / (z1 - z0)
+        step = (p[sel] - z0) * slope
+        r[sel] = r0 + step
+        r_less_max[sel] = (r0 - pieces.r_max) + step
+        dz[sel] = 1.0
+        ds[sel] = np.sqrt(1.0 + slope * slope)
+    sel = np.flatnonzero(k == 1)
+    if sel.size:
+        cr, R = (pieces.arc[jobs.piece[sel], i][:, None] for i in (1, 2))
+        st = np.sin(p[sel])
+        rs = cr + R * st
+        r[sel] = rs
+        r_less_max[sel] = rs - pieces.r_max
+        dz[sel] = -R * st
+        ds[sel] = R
+    sel_c = np.flatnonzero(k == 2)
+    for ci in np.unique(jobs.piece[sel_c]):
+        rows = sel_c[jobs.piece[sel_c] == ci]
+        with np.errstate(all="ignore"):
+            _, rc, dzc, drc = pieces.curves[ci][0].evaluate(p[rows])
+        r[rows] = rc
+        r_less_max[rows] = rc - pieces.r_max
+        dz[rows] = dzc
+        ds[rows] = np.hypot(dzc, drc)
+    return r, dz, ds, r_less_max, sel_c
+
+
+def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
+    """Quadrature of S dz/dp and W ds/dp over each job with n nodes.
+
+    Returns the two integrals and their error estimates (arrays (jobs,), see
+    :func:`_error_estimate`).
+    """
+    x, weights = _rule(n)
+    half_u = 0.5 * (jobs.ub - jobs.ua)
+    u = 0.5 * (jobs.ua + jobs.ub)[:, None] + half_u[:, None] * x[None, :]
+    p, dp = _parameter(jobs, u)
+    k = jobs.kind
+    if (k == 1).all():                 # arcs only: the common case, no scattering
+        cr, R = (pieces.arc[jobs.piece, i][:, None] for i in (1, 2))
+        st = np.sin(p)
+        r = cr + R * st
+        r_less_max = r - pieces.r_max
+        dz = -R * st
+        ds = R
+        sel_c = np.zeros(0, dtype=int)
+    else:
+        r, dz, ds, r_less_max, sel_c = _radii(jobs, pieces, p)
+    yy = y[jobs.level][:, None]
+    rpy = np.clip(r_less_max + depth[jobs.level][:, None], 0.0, None)   # r + y = (r - r_max) + depth
+    rmy = np.clip(2.0 * r - rpy, 0.0, None)                             # r - y
+    jac = dp * half_u[:, None]
+    with np.errstate(all="ignore"):
+        angle = _half_angle(r, np.minimum(rpy, 2.0 * r))                # acos(-y/r)
+        area = r * r * angle + yy * np.sqrt(rpy * rmy)                   # S: 0 and π r² at the ends
+        gv = area * dz * jac
+        ga = (2.0 * r * angle) * ds * np.abs(jac)
+    if sel_c.size:   # a curve's derivative may be infinite at an end node of a cosine map
+        gv, ga = np.nan_to_num(gv), np.nan_to_num(ga)
+    # einsum, not matmul: a BLAS call for an inner size of n is slower than a plain loop
+    qv = np.einsum("jn,nk->jk", gv, weights)
+    qa = np.einsum("jn,nk->jk", ga, weights)
+    return qv[:, 0], qa[:, 0], _error_estimate(qv, n), _error_estimate(qa, n)
+
+
+def _arc_angle_at_r(cz, cr, R, a, b, rr):
+    """Angle in an arc piece within one quarter turn where cr + R sin θ = rr (vectorised)."""
+    mid = 0.5 * (a + b)
+    q = np.floor(mid / (PI / 2))
+    qm = np.mod(q, 4)
+    base = (q - qm) * (PI / 2)
+    v = np.clip((rr - cr) / R, -1.0, 1.0)
+    t0 = np.arctan2(v, np.sqrt(np.maximum((1 - v) * (1 + v), 0.0)))   # asin(v)
+    return base + np.where(qm == 0, t0, np.where(qm == 3, 2 * PI + t0, PI - t0))
+
+
+def _curve_parameter_at_r(curve: Curve, ta: float, tb: float, rr: np.ndarray) -> np.ndarray:
+    ra = float(curve.evaluate(np.array([ta]))[1][0])
+    rb = float(curve.evaluate(np.array([tb]))[1][0])
+    rising = rb > ra
+    lo = np.full(rr.shape, ta, dtype=float)
+    hi = np.full(rr.shape, tb, dtype=float)
+    for _ in range(70):
+        mid = 0.5 * (lo + hi)
+        rm = curve.evaluate(mid)[1]
+        below = (rm < rr) if rising else (rm > rr)
+        lo = np.where(below, mid, lo)
+        hi = np.where(below, hi, mid)
+    return 0.5 * (lo + hi)
+
+
+@dataclass(frozen=True)
+class HorizontalLevels:
+    """Volume and wetted inside area at each depth (arrays, profile units).
+
+    ``error`` is the estimate of the quadrature error in the volume at each
+    depth (absolute): the sum of the intervals' estimates (zero where every
+    piece is in closed form).
+    """
+
+    depth: np.ndarray
+    volume: np.ndarray
+    wetted_area: np.ndarray
+    error: np.ndarray
+    r_max: float
+
+
+def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequence[float]] = None,
+                      pieces: Optional[HorizontalPieces] = None, rel_tol: float = 1e-11,
+                      order: int = 8, max_rounds: int = 40,
+                      chunk: int = 60_000) -> HorizontalLevels:
+    """Volume and wetted area at each liquid depth, the axis horizontal.
+
+    Parameters
+    ----------
+    prep : PreparedProfile
+        The liquid space (closed loops) in the axis frame.
+    depths : array_like
+        Depths of liquid measured from the lowest inside point (``r_max``
+        below the axis), in the profile's unit; 0 is empty, ``2 r_max`` full.
+    loop_factors : sequence of float, optional
+        As :func:`revolve.geometry.clipping.section_loop_factors` (worked out when not given).
+    pieces : HorizontalPieces, optional
+        Reuse the split of an earlier call.
+    rel_tol : float
+        Target for the sum of the error estimates at one depth, relative to
+        the volume (π r_max² · length) or surface (2π r_max · length) of the
+        bounding cylinder: each interval may carry this divided by the number
+        of pieces; intervals above that are halved.
+    order : int
+        Gauss–Legendre nodes per interval on straight and squared maps
+        (lines and arcs); curves, on the cosine map, use twice as many.
+
+    Returns
+    -------
+    HorizontalLevels
+
+    Examples
+    --------
+    A ball of radius 1 (a half circle on the axis) filled to depth h holds a
+    spherical cap, π h² (3 - h)/3 (CRC):
+
+    >>> from revolve.geometry.segments import arc_from_centre
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+    >>> prep = prepare(Profile(loops=(Loop((half, Line((-1.0, 0.0), (1.0, 0.0)))),)), Axis.x())
+    >>> h = 0.7
+    >>> v = horizontal_levels(prep, [h]).volume[0]
+    >>> bool(abs(v / (math.pi * h * h * (3 - h) / 3) - 1) < 1e-12)
+    True
+    """
+    d = np.atleast_1d(np.asarray(depths, dtype=float))
+    pc = pieces if pieces is not None else horizontal_pieces(prep, loop_factors)
+    Rm = pc.r_max
+    y = d - Rm
+    nY = d.size
+    V = np.zeros(nY)
+    A = np.zeros(nY)
+    E = np.zeros(nY)
+    jobs = _Jobs.empty()
+    every_level = np.arange(nY)
+    # Lines --------------------------------------------------------------------------
+    if pc.line.size:
+        z0, r0, z1, r1 = (pc.line[:, i][:, None] for i in range(4))
+        f = pc.line_factor[:, None]
+        yy = y[None, :]
+        dz, dr = z1 - z0, r1 - r0
+        length = np.hypot(dz, dr)
+        rpy0 = (r0 - Rm) + d[None, :]
+        rpy1 = (r1 - Rm) + d[None, :]
+        s0, s1 = segment_area(r0, yy, rpy0), segment_area(r1, yy, rpy1)
+        cyl = (dr == 0)
+        radial = (dz == 0)
+        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
+        steep = ~cyl & ~radial & ~cone
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
+            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        G1 = segment_area_integral(r1, yy)
+        G0 = segment_area_integral(r0, yy)
+        vol = np.where(cyl, s0 * dz, 0.0) + np.where(cone, ratio * (G1 - G0), 0.0)
+        area = (np.where(cyl, wetted_arc(r0, yy, rpy0) * length, 0.0)
+                + np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0))
+        V += (-f * vol).sum(axis=0)
+        A += area.sum(axis=0)
+        # Nearly flat cones: quadrature, split where the level is tangent.
+        st = np.flatnonzero(steep[:, 0])
+        if st.size:
+            rows, lv = np.repeat(st, nY), np.tile(every_level, st.size)
+            L_ = pc.line
+            _sort_pairs(jobs, 0, rows, lv, L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3], pc.line_factor,
+                        y, lambda i, rr: _line_z_at_r(L_[i], rr), V, A,
+                        washer=lambda i, a, b: _line_sub(pc, i, a, b))
+    # Arcs: whole arcs where the level is not tangent to them, quarter turns where it is.
+    if pc.arc.size:
+        cz, cr, R, a0, a1 = (pc.arc[:, i] for i in range(5))
+        ra, rb = cr + R * np.sin(a0), cr + R * np.sin(a1)
+        sub = _sort_wholes(jobs, 1, pc.arc_whole, pc.arc_whole_r, pc.arc_quarters, a0, a1,
+                           pc.arc_factor, y, V, A, washer=lambda i, a, b: _arc_sub(pc, i, a, b))
+        if sub is not None:
+            _sort_pairs(jobs, 1, sub[0], sub[1], a0, a1, ra, rb, pc.arc_factor, y,
+                        lambda i, rr: _arc_angle_at_r(cz[i], cr[i], R[i], a0[i], a1[i], rr), V, A,
+                        washer=lambda i, a, b: _arc_sub(pc, i, a, b))
+    # Curves: the same, by quadrature throughout.
+    if pc.curves:
+        ta = np.array([c[1] for c in pc.curves])
+        tb = np.array([c[2] for c in pc.curves])
+        ends = [c[0].evaluate(np.array([c[1], c[2]]))[1] for c in pc.curves]
+        ra = np.array([float(e[0]) for e in ends])
+        rb = np.array([float(e[1]) for e in ends])
+        sub = _sort_wholes(jobs, 2, pc.curve_whole, pc.curve_whole_r, pc.curve_quarters, ta, tb,
+                           pc.curve_factor, y, V, A, washer=None)
+        if sub is not None:
+            _sort_pairs(jobs, 2, sub[0], sub[1], ta, tb, ra, rb, pc.curve_factor, y,
+                        lambda i, rr: _curve_parameter_at_r_rows(pc, i, rr), V, A, washer=None)
+    # Quadrature, vectorised over levels and pieces, halving intervals not yet resolved.
+    factors = (pc.line_factor, pc.arc_factor, pc.curve_factor)
+    share = rel_tol / max(1, len(pc.line) + len(pc.arc) + len(pc.curves))
+    tol_v = share * PI * Rm * Rm * max(pc.length, Rm)
+    tol_a = share * 2.0 * PI * Rm * max(pc.length, Rm)
+    for round_no in range(max_rounds + 1):
+        if not len(jobs):
+            break
+        final = round_no == max_rounds
+        undone = []
+        for start in range(0, len(jobs), chunk):
+            part = jobs.take(slice(start, start + chunk))
+            cosine = part.mapping == COSINE
+            v, a, ev, ea = (np.empty(len(part)) for _ in range(4))
+            for sel, n in ((~cosine, order), (cosine, 2 * order)):
+                if sel.any():
+                    v[sel], a[sel], ev[sel], ea[sel] = _evaluate_jobs(part.take(sel), pc, y, d, n)
+            fac = np.empty(len(part))
+            for kind, arr in enumerate(factors):
+                m = part.kind == kind
+                if m.any():
+                    fac[m] = arr[part.piece[m]]
+            good = (ev <= tol_v) & (ea <= tol_a) | ((part.ub - part.ua) < 1e-12) | final
+            np.add.at(V, part.level[good], -fac[good] * v[good])
+            np.add.at(A, part.level[good], a[good])
+            np.add.at(E, part.level[good], ev[good])
+            if not good.all():
+                undone.append(part.take(~good).halve())
+        jobs = _concat(undone)
+    return HorizontalLevels(d, V, A, E, Rm)
+
+
+def _line_z_at_r(rows, rr):
+    z0, r0, z1, r1 = rows[:, 0], rows[:, 1], rows[:, 2], rows[:, 3]
+    return z0 + (rr - r0) * (z1 - z0) / (r1 - r0)
+
+
+def _line_sub(pc, idx, a, b):
+    """Washer volume and swept surface of lines between z = a and z = b (parameter is z)."""
+    z0, r0, z1, r1 = (pc.line[idx, i] for i in range(4))
+    slope = (r1 - r0) / (z1 - z0)
+    ra, rb = r0 + (a - z0) * slope, r0 + (b - z0) * slope
+    vol = _line_washer(a, ra, b, rb)
+    surf = 2.0 * PI * np.hypot(b - a, rb - ra) * (ra + rb) / 2.0
+    return vol, surf
+
+
+def _arc_sub(pc, idx, a, b):
+    cz, cr, R = (pc.arc[idx, i] for i in range(3))
+    vol = _arc_washer(cz, cr, R, a, b)
+    _, r_ds = _arc_moments(cz, cr, R, a, b)
+    return vol, 2.0 * PI * r_ds
+
+
+def _curve_parameter_at_r_rows(pc: HorizontalPieces, rows, rr):
+    out = np.empty(rr.shape)
+    for row in np.unique(rows):
+        m = rows == row
+        curve, ta, tb = pc.curves[row]
+        out[m] = _curve_parameter_at_r(curve, ta, tb, rr[m])
+    return out
+
+
+def _sort_wholes(jobs: _Jobs, kind: int, whole_rows, whole_r, quarters, pa, pb, factor, y,
+                 V, A, washer):
+    """Whole arcs or curves against every level: closed forms and whole-piece jobs.
+
+    Returns the (quarter row, level) pairs where a level is tangent to a
+    whole piece's circles, for :func:`_sort_pairs`, or None.
+    """
+    nW, nY = whole_rows.size, y.size
+    if nW == 0:
+        return None
+    rlo, rhi = whole_r[:, 0:1], whole_r[:, 1:2]
+    yy = y[None, :]
+    W = np.broadcast_to(np.arange(nW)[:, None], (nW, nY))
+    Y = np.broadcast_to(np.arange(nY)[None, :], (nW, nY))
+    above = yy >= rhi
+    whole = (yy > -rhi) & ~above & (np.abs(yy) < rlo)
+    split = (yy > -rhi) & ~above & ~whole
+    curve = washer is None
+    if above.any():
+        rows, lv = whole_rows[W[above]], Y[above]
+        if not curve:
+            vol, surf = washer(rows, pa[rows], pb[rows])
+            np.add.at(V, lv, -factor[rows] * vol)
+            np.add.at(A, lv, surf)
+        else:
+            jobs.extend(kind, rows, lv, pa[rows], pb[rows], COSINE)
+    if whole.any():
+        rows, lv = whole_rows[W[whole]], Y[whole]
+        jobs.extend(kind, rows, lv, pa[rows], pb[rows], COSINE if curve else STRAIGHT)
+    if not split.any():
+        return None
+    w_, lv = W[split], Y[split]
+    first, stop = quarters[w_, 0], quarters[w_, 1]
+    count = stop - first
+    rows = np.repeat(first, count) + (np.arange(count.sum()) - np.repeat(np.cumsum(count) - count,
+                                                                           count))
+    return rows, np.repeat(lv, count)
+
+
+def _sort_pairs(jobs: _Jobs, kind: int, rows, lv, pa, pb, ra, rb, factor, y, param_at_r,
+                V, A, washer) -> None:
+    """Sort (piece, level) pairs into closed forms and quadrature jobs, split at tangency.
+
+    ``rows``, ``lv``: the pairs (piece row, level index). Per piece row:
+    ``pa``, ``pb`` the parameter interval, ``ra``, ``rb`` r at its ends (r is
+    monotone on these pieces), ``factor`` the loop factor.
+    ``washer(rows, a, b)`` gives the washer volume and surface of
+    sub-intervals in closed form (None for curves: quadrature throughout).
+    """
+    if rows.size == 0:
+        return
+    lo = np.minimum(ra[rows], rb[rows])
+    hi = np.maximum(ra[rows], rb[rows])
+    yv = y[lv]
+    below = yv <= -hi                          # liquid surface under the whole piece: nothing
+    above = yv >= hi                           # over the whole piece: the full washer
+    whole = ~below & ~above & (np.abs(yv) < lo)
+    split = ~below & ~above & ~whole           # tangent inside the piece or at its end
+    curve = washer is None
+    if above.any():
+        r_, l_ = rows[above], lv[above]
+        if not curve:
+            vol, surf = washer(r_, pa[r_], pb[r_])
+            np.add.at(V, l_, -factor[r_] * vol)
+            np.add.at(A, l_, surf)
+        else:
+            jobs.extend(kind, r_, l_, pa[r_], pb[r_], COSINE)
+    if whole.any():
+        r_, l_ = rows[whole], lv[whole]
+        jobs.extend(kind, r_, l_, pa[r_], pb[r_], COSINE if curve else STRAIGHT)
+    if split.any():
+        r_, l_ = rows[split], lv[split]
+        ps = param_at_r(r_, np.abs(y[l_]))
+        rising = rb[r_] > ra[r_]
+        # The part with r > |y| is integrated, its nodes gathered towards the tangency;
+        # the part with r < |y| lies wholly above or below the liquid surface.
+        mapping = COSINE if curve else np.where(rising, TOWARDS_START, TOWARDS_END)
+        jobs.extend(kind, r_, l_, np.where(rising, ps, pa[r_]), np.where(rising, pb[r_], ps),
+                    mapping)
+        wet = y[l_] > 0
+        if wet.any():
+            in_a = np.where(rising, pa[r_], ps)[wet]
+            in_b = np.where(rising, ps, pb[r_])[wet]
+            if not curve:
+                vol, surf = washer(r_[wet], in_a, in_b)
+                np.add.at(V, l_[wet], -factor[r_[wet]] * vol)
+                np.add.at(A, l_[wet], surf)
+            else:
+                jobs.extend(kind, r_[wet], l_[wet], in_a, in_b, COSINE)
