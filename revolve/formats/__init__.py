@@ -61,6 +61,8 @@ Reader = Callable[..., ProfileDocument]
 #: Readers by file name ending (lower case, with the dot).
 READERS: Dict[str, Reader] = {".toml": read_profile_file}
 READERS.update({extension: read_points_file for extension in POINT_EXTENSIONS})
+from revolve.formats.drawings import DRAWING_READERS  # noqa: E402 (imports no reader yet)
+READERS.update(DRAWING_READERS)
 
 
 def register_reader(extension: str, reader: Reader) -> None:

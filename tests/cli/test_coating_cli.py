@@ -30,7 +30,7 @@ from revolve.cli.app import main
 from revolve.cli.common import CAUTIONS
 
 ROOT = Path(__file__).resolve().parents[2]
-SYSTEM = str(ROOT / "profiles" / "coating-idler-system.toml")
+SYSTEM = str(ROOT / "examples" / "coating-idler-system.toml")
 PI = math.pi
 
 # A pipe spool 2 m long, bore radius 0.4 m, outside radius 0.5 m (invented), in metres.

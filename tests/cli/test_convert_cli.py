@@ -12,7 +12,7 @@ References, named beside each check:
 * published: CRC Standard Mathematical Tables (from memory): hollow cylinder
   pi (R^2 - r^2) L.
 
-The example drawing profiles/nozzle-outline.svg is an invented scenario; it is
+The example drawing examples/nozzle-outline.svg is an invented scenario; it is
 checked only against the independent computations above.
 """
 
@@ -39,7 +39,7 @@ from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
 
 ROOT = Path(__file__).resolve().parents[2]
-NOZZLE = str(ROOT / "profiles" / "nozzle-outline.svg")
+NOZZLE = str(ROOT / "examples" / "nozzle-outline.svg")
 T = sympy.Symbol("t", real=True)
 
 

@@ -15,7 +15,7 @@ References, named beside each check:
   (from memory): cylinder lateral 2πrh, disc πr², sphere 4πr², cone lateral
   π r √(r² + h²), paraboloid lateral π r/(6h²) · [(r² + 4h²)^(3/2) − r³].
 
-The bundled example coating system (profiles/coating-idler-system.toml) and
+The bundled example coating system (examples/coating-idler-system.toml) and
 example profiles are invented; they are only read and run, never check values
 except where a published formula gives the figure independently.
 """
@@ -445,7 +445,7 @@ def test_surface_label_and_split_names():
 
 
 def test_example_coating_system_file():
-    path = ROOT / "profiles" / "coating-idler-system.toml"
+    path = ROOT / "examples" / "coating-idler-system.toml"
     s = parse_coating_system(path.read_text(encoding="utf-8"), file=str(path))
     assert s.currency == "EUR" and len(s.coats) == 2 and s.name
     for c in s.coats:

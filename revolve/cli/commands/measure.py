@@ -210,8 +210,9 @@ def _axis_text(ax) -> str:
 def register(app: typer.Typer) -> None:
     @app.command("measure")
     def measure_command(
-        profile: str = typer.Argument(..., help="Profile file: .toml (the project's format) or a "
-                                                "plain list of x,y points (.txt, .csv, .xy)."),
+        profile: str = typer.Argument(..., help="Profile file: .toml (the project's format), a "
+                                                "plain list of x,y points (.txt, .csv, .xy), SVG "
+                                                "path data (.svg, .svgpath) or a DXF drawing."),
         axis: Optional[str] = typer.Option(None, "--axis",
                                            help="x, y, or X0,Y0,DX,DY: a point on the axis and its "
                                                 "direction. Default: the file's axis, else x."),
