@@ -86,7 +86,13 @@ def _figure(width: int, height: int, dpi: int):
 
 
 def save_figure(fig, path: str) -> None:
-    """Save a figure atomically in the format its name says (PNG or SVG)."""
+    """Save a figure atomically in the format its name says (PNG or SVG).
+
+    >>> save_figure(_figure(300, 200, 100), "no/such/folder/p.png")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no/such/folder/p.png: cannot write the file (No such file or directory)
+    """
     from matplotlib.backends.backend_agg import FigureCanvasAgg
 
     kind = picture_format(path)
@@ -491,7 +497,16 @@ PICTURE_TRIANGLES = 40_000
 
 
 def picture_mesh(revolution, tolerance: Optional[float] = None):
-    """A mesh fine enough to look smooth and coarse enough to draw quickly."""
+    """A mesh fine enough to look smooth and coarse enough to draw quickly.
+
+    Without a ``tolerance``: 1/2000 of the profile's size, doubled until the
+    mesh has at most :data:`PICTURE_TRIANGLES` triangles.
+
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> len(picture_mesh(rev).triangles) <= PICTURE_TRIANGLES
+    True
+    """
     from revolve.geometry.checks import prepare
     from revolve.geometry.mesh import revolve_mesh
 

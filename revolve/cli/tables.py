@@ -69,6 +69,31 @@ def csv_text(rows: Iterable[Row], columns: Optional[Sequence[str]] = None) -> st
     return buffer.getvalue()
 
 
+def check_table_path(path: str) -> None:
+    """Refuse, before any work is done, a CSV file name that cannot be written.
+
+    >>> check_table_path("results.txt")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: results.txt: tables are written as .csv files, not ".txt"
+    >>> check_table_path("no/such/folder/t.csv")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no/such/folder/t.csv: the folder for this file does not exist
+    """
+    import os
+
+    from revolve.errors import FormatError
+
+    ext = os.path.splitext(path)[1].lower()
+    if ext != ".csv":
+        raise FormatError(f'tables are written as .csv files, not "{ext or path}"', file=path)
+    if not os.path.isdir(os.path.dirname(os.path.abspath(path))):
+        raise FormatError("the folder for this file does not exist", file=path)
+    if os.path.isdir(path):
+        raise FormatError("this is a folder; give a file name", file=path)
+
+
 def write_csv(rows: Iterable[Row], path: str, columns: Optional[Sequence[str]] = None) -> None:
     """Write rows as a CSV file (UTF-8, ``\\n`` line ends), atomically.
 
@@ -97,7 +122,14 @@ def json_text(obj: Any) -> str:
 
 
 def write_json(obj: Any, path: str) -> None:
-    """Write ``obj`` as a JSON file, atomically."""
+    """Write ``obj`` as a JSON file, atomically.
+
+    >>> import os, tempfile
+    >>> path = os.path.join(tempfile.mkdtemp(), "r.json")
+    >>> write_json({"volume": 2.5}, path)
+    >>> json.load(open(path))
+    {'volume': 2.5}
+    """
     from revolve.formats.files import write_text_atomically
 
     write_text_atomically(path, json_text(obj) + "\n")
@@ -189,6 +221,17 @@ def mesh_rows(mesh, measurement, units, file: Optional[str] = None) -> List[Row]
 
     ``measurement`` (the exact figures) may be None, e.g. for a profile of
     open chains only.
+
+    >>> from revolve.cli.common import output_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.mesh import revolve_mesh
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> rows = mesh_rows(revolve_mesh(rev, 0.01), measure(rev), output_units("mm"))
+    >>> {r["quantity"]: r["value"] for r in rows}["open edges"]
+    0
+    >>> [r["quantity"] for r in rows if "relative" in r["quantity"]]
+    ['area, relative difference', 'volume, relative difference']
     """
     u = units
     L, A, V = u.length_factor, u.area_factor, u.volume_factor

@@ -140,6 +140,14 @@ def write_stl(path: str, vertices: np.ndarray, triangles: np.ndarray, header: st
         Up to 80 ASCII characters (say the unit here).
     scale : float, optional
         Factor applied to every coordinate first (a change of unit).
+
+    Examples
+    --------
+    >>> import os, tempfile
+    >>> path = os.path.join(tempfile.mkdtemp(), "t.stl")
+    >>> write_stl(path, np.eye(3), np.array([[0, 1, 2]]), header="unit in", scale=1 / 25.4)
+    >>> bool(read_stl(path)["corners"][0, 0, 0] == np.float32(1 / 25.4))
+    True
     """
     v = np.asarray(vertices, dtype=float)
     if scale is not None:

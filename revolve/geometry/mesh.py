@@ -129,7 +129,12 @@ class TriangleMesh:
         return float(np.einsum("ij,ij->i", c[:, 0], np.cross(c[:, 1], c[:, 2])).sum() / 6.0)
 
     def open_edge_count(self) -> int:
-        """Number of edges used by exactly one triangle (0 for a watertight mesh)."""
+        """Number of edges used by exactly one triangle (0 for a watertight mesh).
+
+        >>> one = TriangleMesh(np.eye(3), np.array([[0, 1, 2]]), np.zeros(1, int), ("f",), False, 1.0, 1)
+        >>> one.open_edge_count(), one.is_consistently_oriented(), one.area() == math.sqrt(3) / 2
+        (3, True, True)
+        """
         return int(np.count_nonzero(_edge_use(self.triangles) == 1))
 
     def is_consistently_oriented(self) -> bool:
@@ -273,6 +278,13 @@ def flatten_path(segments: Sequence[Segment], closed: bool, tolerance: float,
 
     ``face_number(segment)`` gives each chord's face number. Points with
     ``r <= on_axis`` are put exactly on the axis.
+
+    >>> segs = (Line((0.0, 0.0), (2.0, 0.0)), Line((2.0, 0.0), (2.0, 1.0)), Line((2.0, 1.0), (0.0, 0.0)))
+    >>> fp = flatten_path(segs, True, 0.1, lambda s: 0)
+    >>> fp.points.tolist(), fp.faces.tolist()
+    ([[0.0, 0.0], [2.0, 0.0], [2.0, 1.0]], [0, 0, 0])
+    >>> flatten_path(segs[:2], False, 0.1, lambda s: 0).points.tolist()
+    [[0.0, 0.0], [2.0, 0.0], [2.0, 1.0]]
     """
     pieces, faces = [], []
     for k, seg in enumerate(segments):

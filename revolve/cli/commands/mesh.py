@@ -25,6 +25,17 @@ def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[f
     """Load a profile and build its revolution from the options, the file, then the defaults.
 
     Returns ``(document, revolution)``; errors name the option or the file line.
+
+    >>> import os, tempfile
+    >>> path = os.path.join(tempfile.mkdtemp(), "p.txt")
+    >>> _ = open(path, "w").write("0,1\\n2,1\\n2,3\\n0,3\\n")
+    >>> doc, rev = revolution_from_options(path, "y", 90.0, "cm")
+    >>> rev.angle_degrees, rev.axis.direction, doc.profile.unit
+    (90.0, (0.0, 1.0), 'cm')
+    >>> revolution_from_options(path, None, 400.0, None)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: --angle: the revolution angle must be above 0 and at most 360 degrees, got 400
     """
     from revolve.geometry.profile import Revolution
 
@@ -70,7 +81,13 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
 
 
 def check_output(path: str, endings: tuple, what: str) -> None:
-    """Refuse an output name with the wrong ending, or in a folder that does not exist."""
+    """Refuse an output name with the wrong ending, or in a folder that does not exist.
+
+    >>> check_output("part.obj", (".stl",), "meshes")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: part.obj: meshes are written as .stl files, not ".obj"
+    """
     ext = os.path.splitext(path)[1].lower()
     if ext not in endings:
         raise FormatError(f'{what} are written as {" or ".join(endings)} files, not "{ext or path}"',
@@ -96,7 +113,7 @@ def json_key(quantity: str) -> str:
 def run_mesh(profile: str, output: str, tolerance: Optional[str], axis: Optional[str],
              angle: Optional[float], units: Optional[str], length_unit: Optional[str],
              as_json: bool, csv_path: Optional[str]) -> int:
-    from revolve.cli.tables import mesh_rows, write_csv
+    from revolve.cli.tables import check_table_path, mesh_rows, write_csv
     from revolve.formats.stl import write_stl
     from revolve.geometry.checks import prepare
     from revolve.geometry.measure import measure
@@ -104,7 +121,7 @@ def run_mesh(profile: str, output: str, tolerance: Optional[str], axis: Optional
 
     check_output(output, (".stl",), "meshes")
     if csv_path is not None:
-        check_output(csv_path, (".csv",), "tables")
+        check_table_path(csv_path)
     doc, rev = revolution_from_options(profile, axis, angle, units)
     u = common.output_units(doc.profile.unit, length_unit)
     size = prepare(rev.profile, rev.axis).size
