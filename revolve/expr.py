@@ -20,20 +20,22 @@ Hostile input is refused before sympy does real work (see the ``MAX_*``
 limits): exponents must fold to a rational number no larger than
 ``MAX_EXPONENT``, no numerator or denominator may exceed ``MAX_BITS`` bits, no
 constant part may exceed 2^MAX_BITS in size, and functions and roots may nest
-only ``MAX_NESTING`` deep. Powers and functions of anything but plain numbers
-are kept as written, because simplifying them makes sympy ask its assumption
-system questions that can take very long. sympy is imported only when an
-expression is parsed.
+only ``MAX_NESTING`` deep. Functions of anything but plain numbers are kept as
+written (``sin(-t)`` stays so), because simplifying them makes sympy ask its
+assumption system questions that can take very long. sympy is imported only
+when an expression is parsed.
 """
 
 from __future__ import annotations
 
 import re
-from typing import TYPE_CHECKING, Sequence
 
 from revolve.errors import ExpressionError
 
+TYPE_CHECKING = False    # avoids importing typing at start-up
 if TYPE_CHECKING:  # pragma: no cover
+    from collections.abc import Sequence
+
     import sympy
 
 __all__ = ["parse_expression", "parse_number", "exact_number", "FUNCTIONS", "CONSTANTS"]
@@ -201,8 +203,9 @@ class _Parser:
         exponent = self.factor()      # right-associative, may carry a sign
         where = f"'{op[1]}' at column {op[2]}"
         if not exponent.is_Rational:
+            hint = "; write exp(...) for a power of e" if base == self.sp.E else ""
             raise ExpressionError(f"the exponent of {where} is not a plain number; exponents "
-                                  f"must be numbers such as 2, -1 or 1/2")
+                                  f"must be numbers such as 2, -1 or 1/2{hint}")
         if abs(exponent) > MAX_EXPONENT:
             raise ExpressionError(f"the exponent {exponent} of {where} is too large; "
                                   f"the limit is {MAX_EXPONENT}")
@@ -265,8 +268,6 @@ class _Parser:
         if len(arguments) != FUNCTIONS[name]:
             raise ExpressionError(f"function '{name}' at column {column} takes "
                                   f"{FUNCTIONS[name]} argument(s), got {len(arguments)}")
-        if sum(_bits(argument) for argument in arguments) > MAX_BITS:
-            raise ExpressionError(f"the argument of '{name}' at column {column} is too large")
         if name in _GROWING and _constants(arguments[0])[0] > _GROWING_LIMIT:
             raise ExpressionError(f"the argument of '{name}' at column {column} has a number "
                                   f"beyond {_GROWING_LIMIT} in size; the result would be "

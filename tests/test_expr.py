@@ -315,6 +315,7 @@ def test_limits_accept_up_to_the_boundary():
     ("t^t", {}, "not a plain number"),
     ("2^t", {}, "not a plain number"),
     ("t^pi", {}, "not a plain number"),
+    ("e^t", {}, "write exp(...) for a power of e"),
     ("(2^32)^32", {}, "beyond 1024 bits"),
     ("1e99*1e99*1e99*1e99", {}, "beyond 1024 bits"),
     ("exp(710)", {}, "beyond 709"),
