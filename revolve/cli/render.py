@@ -325,7 +325,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     fig = _figure(width, height, dpi)
     FigureCanvasAgg(fig)
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
-    fs = max(6.0, 10.0 * scale)
+    fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     caption = _caption_lines(m, u, revolution, density_label)
     wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
     caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
@@ -351,13 +351,18 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
         ax.add_patch(PathPatch(MplPath(np.vstack(verts), codes), facecolor=SECTION_FILL,
                                edgecolor=SECTION_HATCH, hatch="////", lw=0, zorder=1))
 
-    # Faces: one colour each.
+    # Faces: one colour each, one line per face and kind of path (gaps between segments).
     styles = face_styles(profile.faces())
+    strokes: Dict[Tuple[str, bool], List[np.ndarray]] = {}
+    gap_row = np.full((1, 2), np.nan)
     for path_pieces, p in zip(flat, profile.paths):
         for pts, seg in zip(path_pieces, p.segments):
-            colour, style = styles[seg.face or UNNAMED_FACE]
-            ax.plot(pts[:, 0], pts[:, 1], color=colour, linestyle=style,
-                    lw=2.2 if p.closed else 3.0, solid_capstyle="round", zorder=3)
+            strokes.setdefault((seg.face or UNNAMED_FACE, p.closed), []).extend([pts, gap_row])
+    for (face, closed), parts in strokes.items():
+        colour, style = styles[face]
+        line = np.vstack(parts[:-1])
+        ax.plot(line[:, 0], line[:, 1], color=colour, linestyle=style, lw=2.2 if closed else 3.0,
+                solid_capstyle="round", solid_joinstyle="round", zorder=3)
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
     view_lo, view_hi = lo.copy(), hi.copy()
@@ -618,7 +623,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
 
     fig = _figure(width, height, dpi)
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi
-    fs = max(6.0, 10.0 * scale)
+    fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     extra = [f"drawn from a mesh of {len(mesh.triangles):,} triangles "
              f"(chord tolerance {mesh.tolerance * u.length_factor:.3g} {u.length})"]
     caption = _caption_lines(m, u, revolution, density_label, extra)
