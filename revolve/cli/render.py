@@ -575,7 +575,8 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     ...                  Axis.x(), 270)
     >>> out = os.path.join(tempfile.mkdtemp(), "ring.svg")
     >>> mesh = solid_picture(rev, measure(rev), out, units=output_units("mm"), width=400, height=300)
-    >>> open(out).read(200).lstrip().startswith("<?xml")
+    >>> with open(out, encoding="utf-8") as f:
+    ...     f.read(200).lstrip().startswith("<?xml")
     True
     """
     from matplotlib.patches import Patch

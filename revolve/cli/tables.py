@@ -12,7 +12,8 @@ Examples
 >>> path = os.path.join(tempfile.mkdtemp(), "t.csv")
 >>> write_csv([{"quantity": "volume", "value": 1 / 3, "unit": "mm³"},
 ...            {"quantity": "mass", "value": None, "unit": "kg"}], path)
->>> print(open(path, encoding="utf-8").read(), end="")
+>>> with open(path, encoding="utf-8") as f:
+...     print(f.read(), end="")
 quantity,value,unit
 volume,0.3333333333333333,mm³
 mass,,kg
@@ -127,7 +128,8 @@ def write_json(obj: Any, path: str) -> None:
     >>> import os, tempfile
     >>> path = os.path.join(tempfile.mkdtemp(), "r.json")
     >>> write_json({"volume": 2.5}, path)
-    >>> json.load(open(path))
+    >>> with open(path, encoding="utf-8") as f:
+    ...     json.load(f)
     {'volume': 2.5}
     """
     from revolve.formats.files import write_text_atomically

@@ -132,7 +132,8 @@ def test_table_output_and_csv(tmp_path, capsys):
     code, out, err = run(["mesh", profile, "-o", stl, "--csv", table], capsys)
     assert code == 0, err
     assert "mesh written to" in out and "volume, relative difference" in out
-    rows = list(csv.DictReader(table.open(encoding="utf-8")))
+    with table.open(encoding="utf-8") as f:
+        rows = list(csv.DictReader(f))
     byname = {r["quantity"]: r for r in rows}
     assert int(byname["triangles"]["value"]) == len(trimesh.load(str(stl)).faces)
     # CRC (from memory): hollow cylinder V = π (R² − r²) h.
@@ -213,7 +214,8 @@ def test_measure_rows_match_the_measure_json(tmp_path, capsys):
     rows = measure_rows(m, output_units("mm", volume="L"), tolerance=1e-9)
     path = tmp_path / "m.csv"
     write_csv(rows, str(path))
-    back = {(r["table"], r["quantity"]): r for r in csv.DictReader(path.open(encoding="utf-8"))}
+    with path.open(encoding="utf-8") as f:
+        back = {(r["table"], r["quantity"]): r for r in csv.DictReader(f)}
     # Full precision survives the CSV (repr of floats), and agrees with the JSON.
     assert float(back[("results", "volume")]["value"]) == js["volume"]
     assert back[("results", "volume")]["unit"] == "L"

@@ -28,7 +28,8 @@ def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[f
 
     >>> import os, tempfile
     >>> path = os.path.join(tempfile.mkdtemp(), "p.txt")
-    >>> _ = open(path, "w").write("0,1\\n2,1\\n2,3\\n0,3\\n")
+    >>> with open(path, "w") as f:
+    ...     _ = f.write("0,1\\n2,1\\n2,3\\n0,3\\n")
     >>> doc, rev = revolution_from_options(path, "y", 90.0, "cm")
     >>> rev.angle_degrees, rev.axis.direction, doc.profile.unit
     (90.0, (0.0, 1.0), 'cm')
