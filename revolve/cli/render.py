@@ -199,12 +199,16 @@ def _dimension(ax, a, b, offset_dir, gap, text, colour="#333333", fontsize=9):
 
 
 def _resample(points: np.ndarray, spacing: float) -> np.ndarray:
-    """Points along a polyline no farther apart than ``spacing``."""
-    out = [points[:1]]
-    for p, q in zip(points[:-1], points[1:]):
-        n = max(1, int(math.ceil(float(np.hypot(*(q - p))) / spacing)))
-        out.append(p + (q - p) * (np.arange(1, n + 1)[:, None] / n))
-    return np.vstack(out)
+    """Points along a polyline no farther apart than ``spacing``.
+
+    >>> _resample(np.array([[0.0, 0.0], [1.0, 0.0]]), 0.3).tolist()
+    [[0.0, 0.0], [0.25, 0.0], [0.5, 0.0], [0.75, 0.0], [1.0, 0.0]]
+    """
+    p, q = points[:-1], points[1:]
+    n = np.maximum(1, np.ceil(np.hypot(*(q - p).T) / spacing)).astype(int)
+    chord = np.repeat(np.arange(len(p)), n)
+    step = (np.arange(int(n.sum())) - np.repeat(np.cumsum(n) - n, n) + 1) / np.repeat(n, n)
+    return np.vstack([points[:1], p[chord] + (q - p)[chord] * step[:, None]])
 
 
 def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: int) -> None:
