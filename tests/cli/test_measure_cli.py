@@ -215,3 +215,23 @@ def test_console_script_subprocess_has_no_traceback(tmp_path):
     r = subprocess.run([sys.executable, "-m", "revolve", "measure", f], capture_output=True, text=True)
     assert r.returncode == 2
     assert "Traceback" not in r.stderr and r.stderr.count("\n") == 1
+
+
+def test_csv_matches_json(tmp_path, capsys):
+    import csv
+
+    f = write(tmp_path, "sq.toml", SQUARE)
+    out_csv = tmp_path / "m.csv"
+    code, out, _ = run(["measure", f, "--json", "--csv", str(out_csv)], capsys)
+    assert code == 0
+    d = json.loads(out)
+    rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
+    vol = [r for r in rows if r["table"] == "results" and r["quantity"].startswith("volume")]
+    assert vol and math.isclose(float(vol[0]["value"]), d["volume"], rel_tol=1e-15)
+
+
+def test_csv_not_written_on_bad_input(tmp_path, capsys):
+    f = write(tmp_path, "bad.toml", BAD["crossing the axis"][0])
+    out_csv = tmp_path / "m.csv"
+    code, out, err = run(["measure", f, "--csv", str(out_csv)], capsys)
+    assert code == 2 and not out_csv.exists()

@@ -139,9 +139,13 @@ def _check_table(m, u, tolerance):
 def run_measure(profile: str, axis: Optional[str], angle: Optional[float], material: Optional[str],
                 density: Optional[str], as_json: bool, exact: bool, units: Optional[str],
                 length_unit: Optional[str], area_unit: Optional[str], volume_unit: Optional[str],
-                mass_unit: Optional[str], tolerance: float) -> int:
+                mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None) -> int:
     from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Axis, Revolution
+    from revolve.geometry.profile import Revolution
+
+    if csv_path is not None:
+        from revolve.cli.tables import check_table_path
+        check_table_path(csv_path)
 
     doc = common.load(profile, unit=units)
     ax = common.parse_axis(axis) or doc.axis or common.parse_axis("x")
@@ -165,6 +169,9 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
         exact_out = exact_results(doc, rev, m, exact_angle=angle if angle is not None else None)
     if not 0 < tolerance:
         raise RevolveError("--tolerance must be a positive number")
+    if csv_path is not None:
+        from revolve.cli.tables import measure_rows, write_csv
+        write_csv(measure_rows(m, u, tolerance=tolerance), csv_path)
     if as_json:
         out = measurement_dict(m, u, density_label=dens_label, tolerance=tolerance)
         out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
@@ -237,9 +244,13 @@ def register(app: typer.Typer) -> None:
         tolerance: float = typer.Option(DEFAULT_TOLERANCE, "--tolerance",
                                         help="Largest relative difference allowed between the two "
                                              "computations before the exit code is 1."),
+        csv_path: Optional[str] = typer.Option(None, "--csv",
+                                               help="Also write every figure of both tables to "
+                                                    "this CSV file (table, quantity, value, unit)."),
     ) -> None:
         """Measure a revolved profile: section, volume, surface by face, mass, cross-check."""
         code = run_measure(profile, axis, angle, material, density, as_json, exact, units,
-                           length_unit, area_unit, volume_unit, mass_unit, tolerance)
+                           length_unit, area_unit, volume_unit, mass_unit, tolerance,
+                           csv_path=csv_path)
         if code:
             raise typer.Exit(code)
