@@ -91,7 +91,7 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
                liquid_density: Optional[str], orientation: str, output: Optional[str],
                wall_output: Optional[str], length_unit: Optional[str],
                volume_unit: Optional[str], area_unit: Optional[str], mass_unit: Optional[str],
-               as_json: bool, tolerance: float) -> int:
+               as_json: bool, tolerance: float, name: Optional[str] = None) -> int:
     """Build, write and summarise; return the exit code (1: a cross-check disagrees)."""
     import sys
 
@@ -155,7 +155,8 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
     u = common.output_units(unit, length_unit, area_unit, volume_unit, mass_unit)
     summary = jv.summarise(design, metal_density=metal_d, liquid_density=liquid_d,
                            si_length=u.si_length)
-    name = jv.describe(design)
+    description = jv.describe(design)
+    name = name.strip() if name and name.strip() else description
     texts = {}
     from revolve.formats.writer import profile_text
 
@@ -178,7 +179,7 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
         common.print_json(summary_dict(summary, u, orientation, metal_label, liquid_label, files,
                                        tolerance))
     else:
-        _print(summary, u, orientation, metal_label, liquid_label, files, name)
+        _print(summary, u, orientation, metal_label, liquid_label, files, name, description)
     if not summary.crosscheck_difference <= tolerance:
         print(f"revolve: the two computations disagree by {summary.crosscheck_difference:.1e} "
               f"(more than {tolerance:g}); do not use these figures without finding out why",
@@ -266,7 +267,7 @@ def _describe(d) -> str:
     return describe(d)
 
 
-def _print(s, u, orientation, metal_label, liquid_label, files, name):
+def _print(s, u, orientation, metal_label, liquid_label, files, name, description):
     from rich.table import Table
 
     L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
@@ -274,6 +275,8 @@ def _print(s, u, orientation, metal_label, liquid_label, files, name):
     d = s.design
     con = common.console()
     con.print(f"[bold]{name}[/bold]")
+    if name != description:
+        con.print(description)
     con.print(f"drawn {orientation}; head 1 is at the start of the axis"
               + (" (the bottom)" if orientation == "vertical" else " (the left end)"))
     t = Table(show_edge=False, pad_edge=False)
@@ -388,6 +391,8 @@ def register(app: typer.Typer) -> None:
         area_unit: Optional[str] = typer.Option(None, "--area-unit", help="Output area unit."),
         mass_unit: Optional[str] = typer.Option(None, "--mass-unit", help="Output mass unit "
                                                                           "(kg, lb, t)."),
+        name: Optional[str] = typer.Option(None, "--name", help="Name written in the profile "
+                                                                "file (default: a description)."),
         as_json: bool = typer.Option(False, "--json", help="Print JSON instead of tables."),
         tolerance: float = typer.Option(DEFAULT_TOLERANCE, "--tolerance",
                                         help="Largest relative difference allowed between the "
@@ -404,6 +409,6 @@ def register(app: typer.Typer) -> None:
         code = run_vessel(diameter, length, head, head_1, head_2, units, dimensions, thickness,
                           material, density, liquid, liquid_density, orientation, output,
                           wall_output, length_unit, volume_unit, area_unit, mass_unit, as_json,
-                          tolerance)
+                          tolerance, name)
         if code:
             raise typer.Exit(code)
