@@ -31,7 +31,6 @@ from __future__ import annotations
 
 import math
 import os
-import tempfile
 import textwrap
 from typing import Dict, List, Optional, Sequence, Tuple
 
@@ -97,27 +96,11 @@ def save_figure(fig, path: str) -> None:
 
     kind = picture_format(path)
     FigureCanvasAgg(fig)
-    folder = os.path.dirname(os.path.abspath(path))
-    try:
-        fd, temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=folder)
-    except OSError as exc:
-        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-    try:
-        with os.fdopen(fd, "wb") as handle:
-            fig.savefig(handle, format=kind, dpi=fig.dpi,
-                        metadata={"Software": "revolve"} if kind == "png" else {"Creator": "revolve"})
-        umask = os.umask(0)
-        os.umask(umask)
-        os.chmod(temporary, 0o666 & ~umask)
-        os.replace(temporary, path)
-    except BaseException as exc:
-        try:
-            os.unlink(temporary)
-        except OSError:
-            pass
-        if isinstance(exc, OSError):
-            raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-        raise
+    from revolve.formats.files import write_atomically
+
+    metadata = {"Software": "revolve"} if kind == "png" else {"Creator": "revolve"}
+    write_atomically(path, lambda handle: fig.savefig(handle, format=kind, dpi=fig.dpi,
+                                                      metadata=metadata), binary=True)
 
 
 # -- the profile --------------------------------------------------------------------

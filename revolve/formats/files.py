@@ -84,25 +84,18 @@ def read_text(path: str) -> str:
     return text
 
 
-def write_text_atomically(path: str, text: str) -> None:
-    """Write ``text`` to ``path`` as UTF-8 through a temporary file and a rename.
+def write_atomically(path: str, write, binary: bool = False) -> None:
+    """Write a file through a temporary file beside it and a rename.
 
-    Either the whole new file is in place afterwards or the old one (if any)
-    is untouched; the temporary file is removed on failure.
+    ``write(handle)`` writes the contents to an open handle (text as UTF-8, or
+    bytes with ``binary=True``). Either the whole new file is in place
+    afterwards or the old one (if any) is untouched; the temporary file is
+    removed on failure. A replaced file keeps its permissions.
 
-    Parameters
-    ----------
-    path : str
-        Target file name.
-    text : str
-        The complete contents.
-
-    Examples
-    --------
-    >>> write_text_atomically("no/such/folder/x.toml", "")
+    >>> write_atomically("no/such/folder/x.bin", lambda h: h.write(b""), binary=True)
     Traceback (most recent call last):
     ...
-    revolve.errors.FormatError: no/such/folder/x.toml: cannot write the file (No such file or directory)
+    revolve.errors.FormatError: no/such/folder/x.bin: cannot write the file (No such file or directory)
     """
     path = os.fspath(path)
     folder = os.path.dirname(os.path.abspath(path))
@@ -111,19 +104,21 @@ def write_text_atomically(path: str, text: str) -> None:
     except OSError as exc:
         raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
     try:
-        with os.fdopen(fd, "w", encoding="utf-8", newline="\n") as handle:
-            handle.write(text)
+        handle = os.fdopen(fd, "wb") if binary else os.fdopen(fd, "w", encoding="utf-8", newline="\n")
+        with handle:
+            write(handle)
             handle.flush()
             os.fsync(handle.fileno())
         if os.path.exists(path):
-            try:
-                os.chmod(temporary, os.stat(path).st_mode & 0o7777)
-            except OSError:
-                pass
+            mode = os.stat(path).st_mode & 0o7777
         else:
             umask = os.umask(0)
             os.umask(umask)
-            os.chmod(temporary, 0o666 & ~umask)
+            mode = 0o666 & ~umask
+        try:
+            os.chmod(temporary, mode)
+        except OSError:
+            pass
         os.replace(temporary, path)
     except BaseException as exc:
         try:
@@ -133,3 +128,25 @@ def write_text_atomically(path: str, text: str) -> None:
         if isinstance(exc, OSError):
             raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
         raise
+
+
+def write_text_atomically(path: str, text: str) -> None:
+    """Write ``text`` to ``path`` as UTF-8, atomically (see :func:`write_atomically`).
+
+    >>> write_text_atomically("no/such/folder/x.toml", "")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no/such/folder/x.toml: cannot write the file (No such file or directory)
+    """
+    write_atomically(path, lambda handle: handle.write(text))
+
+
+def write_bytes_atomically(path: str, data: bytes) -> None:
+    """Write ``data`` to ``path``, atomically (see :func:`write_atomically`).
+
+    >>> write_bytes_atomically("no/such/folder/part.stl", b"")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no/such/folder/part.stl: cannot write the file (No such file or directory)
+    """
+    write_atomically(path, lambda handle: handle.write(data), binary=True)

@@ -29,12 +29,12 @@ True
 from __future__ import annotations
 
 import os
-import tempfile
 from typing import Optional
 
 import numpy as np
 
 from revolve.errors import FormatError
+from revolve.formats.files import write_bytes_atomically  # noqa: F401 (also used by callers)
 
 #: One triangle of a binary STL file.
 STL_RECORD = np.dtype([("normal", "<f4", (3,)), ("corners", "<f4", (3, 3)),
@@ -85,43 +85,6 @@ def stl_bytes(vertices: np.ndarray, triangles: np.ndarray, header: str = "") -> 
     if len(rec) >= 2 ** 32:
         raise FormatError("too many triangles for an STL file (at most 4294967295)")
     return _header_bytes(header) + np.uint32(len(rec)).astype("<u4").tobytes() + rec.tobytes()
-
-
-def write_bytes_atomically(path: str, data: bytes) -> None:
-    """Write ``data`` to ``path`` through a temporary file beside it and a rename.
-
-    >>> write_bytes_atomically("no/such/folder/part.stl", b"")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.FormatError: no/such/folder/part.stl: cannot write the file (No such file or directory)
-    """
-    path = os.fspath(path)
-    folder = os.path.dirname(os.path.abspath(path))
-    try:
-        fd, temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=folder)
-    except OSError as exc:
-        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-    try:
-        with os.fdopen(fd, "wb") as handle:
-            handle.write(data)
-            handle.flush()
-            os.fsync(handle.fileno())
-        if os.path.exists(path):
-            mode = os.stat(path).st_mode & 0o7777
-        else:
-            umask = os.umask(0)
-            os.umask(umask)
-            mode = 0o666 & ~umask
-        os.chmod(temporary, mode)
-        os.replace(temporary, path)
-    except BaseException as exc:
-        try:
-            os.unlink(temporary)
-        except OSError:
-            pass
-        if isinstance(exc, OSError):
-            raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-        raise
 
 
 def write_stl(path: str, vertices: np.ndarray, triangles: np.ndarray, header: str = "",

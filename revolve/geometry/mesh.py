@@ -672,6 +672,11 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
             fp = _oriented(FlatPath(fp.points, fp.faces, True, d), counter_clockwise=d % 2 == 0)
             loops.append(fp)
         else:
+            # A chain that starts and ends on the axis (a vessel's inside wall) sweeps a
+            # closed surface: orient it like the loop it makes with the axis, normals out.
+            if (fp.points[0, 1] <= prep.tolerance and fp.points[-1, 1] <= prep.tolerance
+                    and signed_area(fp.points) < 0):
+                fp = FlatPath(fp.points[::-1].copy(), fp.faces[::-1].copy(), False, fp.depth)
             chains.append(fp)
     paths = loops + chains
     theta = revolution.angle_radians
