@@ -145,6 +145,8 @@ class AxialPieces:
     kind has its loop factor (see :func:`section_loop_factors`) in
     ``*_factor``. ``z_ref`` is the middle of the profile along the axis;
     every ``z`` here is measured from it, so that moments lose no digits.
+    ``z_min`` and ``z_max`` are the lowest and highest axial positions of the
+    loops (in the frame, not measured from ``z_ref``).
     """
 
     line: np.ndarray
@@ -154,6 +156,8 @@ class AxialPieces:
     curves: Tuple[Tuple[Curve, float, float], ...]
     curve_factor: np.ndarray
     z_ref: float
+    z_min: float = 0.0
+    z_max: float = 0.0
 
 
 def _loop_segments(prep: PreparedProfile, loop_factors: Sequence[float]):
@@ -204,9 +208,16 @@ def axial_pieces(prep: PreparedProfile, loop_factors: Sequence[float]) -> AxialP
                 cf.append(f)
         else:  # pragma: no cover - the segment kinds are closed
             raise TypeError(type(s).__name__)
-    return AxialPieces(np.array(lines, dtype=float).reshape(-1, 4), np.array(lf, dtype=float),
-                       np.array(arcs, dtype=float).reshape(-1, 5), np.array(af, dtype=float),
-                       tuple(curves), np.array(cf, dtype=float), z_ref)
+    line = np.array(lines, dtype=float).reshape(-1, 4)
+    arc = np.array(arcs, dtype=float).reshape(-1, 5)
+    ends = np.concatenate([line[:, [0, 2]].ravel(),
+                           (arc[:, 0:1] + arc[:, 2:3] * np.cos(arc[:, 3:5])).ravel(),
+                           np.array([float(c.evaluate(np.array([t]))[0][0])
+                                     for c, ta, tb in curves for t in (ta, tb)])])
+    z_min = float(ends.min()) + z_ref if ends.size else 0.0
+    z_max = float(ends.max()) + z_ref if ends.size else 0.0
+    return AxialPieces(line, np.array(lf, dtype=float), arc, np.array(af, dtype=float),
+                       tuple(curves), np.array(cf, dtype=float), z_ref, z_min, z_max)
 
 
 # -- clipping one level, segment by segment -------------------------------------------
@@ -248,6 +259,8 @@ class ClippedProfile:
     loop; ``cut`` marks, per segment of each path, the straight cuts added
     along the level; ``loops`` gives the index of the original loop of each
     path, and ``factors`` its loop factor (see :func:`section_loop_factors`).
+    ``touching`` holds the flat faces lying in the level plane: not part of
+    the section below, but wetted by the liquid (unless nothing is below).
     """
 
     prepared: PreparedProfile
@@ -255,18 +268,23 @@ class ClippedProfile:
     loops: Tuple[int, ...]
     factors: Tuple[float, ...]
     level: float
+    touching: Tuple[Segment, ...] = ()
 
 
 def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
     """The parts of one frame segment with z < level, in travel order (pieces monotone in z)."""
     out: List[Segment] = []
+
+    def snap(z):   # a vertex within the tolerance of the level is on it
+        return level if abs(z - level) <= tol else z
+
     if isinstance(seg, Line):
         (z0, r0), (z1, r1) = seg.start, seg.end
         if z0 == z1:
-            return [seg] if z0 < level else []
-        if max(z0, z1) <= level:
+            return [seg] if z0 < level - tol else []
+        if max(snap(z0), snap(z1)) <= level:
             return [seg]
-        if min(z0, z1) >= level:
+        if min(snap(z0), snap(z1)) >= level:
             return []
         s = (level - z0) / (z1 - z0)
         cut = (level, r0 + s * (r1 - r0))
@@ -280,10 +298,16 @@ def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
         def at(angle):
             return (cz + R * math.cos(angle), cr + R * math.sin(angle))
 
-        for p, q in split_arc(seg, math.pi):
+        pieces = split_arc(seg, math.pi)
+        if all(snap(cz + R * math.cos(p)) <= level and snap(cz + R * math.cos(q)) <= level
+               for p, q in pieces) and max(snap(seg.start[0]), snap(seg.end[0])) <= level:
+            return [seg]          # wholly below: keep it as it is
+        for p, q in pieces:
+            if R * abs(q - p) <= tol:
+                continue          # a sliver of a few ulps would read as a full turn
             start = seg.start if p == a_start else at(p)
             end = seg.end if q == a_end else at(q)
-            za, zb = start[0], end[0]
+            za, zb = snap(start[0]), snap(end[0])
             if max(za, zb) <= level:
                 out.append(replace(seg, start=start, end=end, exact=None))
                 continue
@@ -298,8 +322,8 @@ def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
         return out
     if isinstance(seg, Curve):
         for p, q in split_curve(seg, (2,)):
-            za = float(seg.evaluate(np.array([p]))[0][0])
-            zb = float(seg.evaluate(np.array([q]))[0][0])
+            za = snap(float(seg.evaluate(np.array([p]))[0][0]))
+            zb = snap(float(seg.evaluate(np.array([q]))[0][0]))
             if max(za, zb) <= level:
                 out.append(replace(seg, t_start=p, t_end=q, exact=None))
                 continue
@@ -353,7 +377,7 @@ def clip_section(prep: PreparedProfile, level: float,
     level = float(level)
     tol = prep.tolerance
     factors = tuple(loop_factors) if loop_factors is not None else section_loop_factors(prep)
-    paths, cuts, loops, depths = [], [], [], []
+    paths, cuts, loops, depths, touching = [], [], [], [], []
     loop_no = -1
     for segs, closed in zip(prep.paths, prep.closed):
         if not closed:
@@ -362,6 +386,8 @@ def clip_section(prep: PreparedProfile, level: float,
         kept: List[Segment] = []
         for s in segs:
             kept.extend(_kept_part(s, level, tol))
+            if isinstance(s, Line) and s.start[0] == s.end[0] and abs(s.start[0] - level) <= tol:
+                touching.append(s)
         if not kept:
             continue
         out: List[Segment] = []
@@ -382,7 +408,8 @@ def clip_section(prep: PreparedProfile, level: float,
     clipped = PreparedProfile(tuple(paths), tuple(True for _ in paths), tuple(depths),
                               prep.side, prep.size, tol)
     return ClippedProfile(clipped, tuple(cuts), tuple(loops),
-                          tuple(float(factors[k]) for k in loops), level)
+                          tuple(float(factors[k]) for k in loops), level,
+                          tuple(touching) if paths else ())
 
 
 def section_loop_factors(prep: PreparedProfile) -> Tuple[float, ...]:
@@ -428,11 +455,14 @@ def clipped_volume(clipped: ClippedProfile) -> float:
 
 
 def clipped_wetted_area(clipped: ClippedProfile) -> float:
-    """Swept area (2π ∫ r ds) of the original boundary below the level, the cuts left out."""
+    """Swept area (2π ∫ r ds) of the original boundary below the level, the cuts left out.
+
+    Flat faces lying in the level plane count (the liquid touches them).
+    """
     from revolve.geometry.integrals import COL, segment_integrals
 
     segs = [s for path, cut in zip(clipped.prepared.paths, clipped.cut)
-            for s, c in zip(path, cut) if not c]
+            for s, c in zip(path, cut) if not c] + list(clipped.touching)
     if not segs:
         return 0.0
     return TWO_PI * float(segment_integrals(segs, symbolic=False).values[:, COL["length_y"]].sum())
@@ -577,16 +607,24 @@ def vertical_levels(prep: PreparedProfile, levels,
     wet = np.zeros(L.shape)
     error = 0.0
     # Lines.
+    tol = prep.tolerance
+    empty = pc.z_min - pc.z_ref + tol                   # at or below this, nothing is wetted
+
+    def snap(z, lv):   # a vertex within the tolerance of the level is on it
+        return np.where(np.abs(z - lv) <= tol, lv, z)
+
     if pc.line.size:
         z0, r0, z1, r1 = (pc.line[:, i][:, None] for i in range(4))
         f = pc.line_factor[:, None]
         lv = Ls[None, :]
         radial = (z0 == z1)
-        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
+        zs0, zs1 = snap(z0, lv), snap(z1, lv)
+        zlo, zhi = np.minimum(zs0, zs1), np.maximum(zs0, zs1)
         dz = np.where(radial, 1.0, z1 - z0)
         s = np.clip((lv - z0) / dz, 0.0, 1.0)
         rc = r0 + s * (r1 - r0)
-        zc = np.where((lv > zlo) & (lv < zhi), lv, z0 + s * (z1 - z0))
+        crossing = ~radial & (zlo < lv) & (lv <= zhi)
+        zc = np.where(crossing, lv, z0 + s * (z1 - z0))
         rising = z1 > z0
         # kept sub-line: from the start to the cut when rising, from the cut to the end otherwise
         a_z = np.where(rising, z0, zc)
@@ -595,12 +633,12 @@ def vertical_levels(prep: PreparedProfile, levels,
         b_r = np.where(rising, rc, r1)
         mm, rd = _line_moments(a_z, a_r, b_z, b_r)
         kept = ~radial & (zlo < lv)
-        radial_kept = radial & (z0 < lv)
-        radial_wet = radial & (z0 <= lv)
+        radial_kept = radial & (z0 < lv - tol)
+        # A flat face in the level plane is wetted (the liquid touches it), unless empty.
+        radial_wet = radial_kept | (radial & (np.abs(z0 - lv) <= tol) & (lv > empty))
         mr, rdr = _line_moments(z0, r0, z1, r1)
         m01 += (f * (np.where(kept, mm, 0.0) + np.where(radial_kept, mr, 0.0))).sum(axis=0)
         wet += (np.where(kept, rd, 0.0) + np.where(radial_wet, rdr, 0.0)).sum(axis=0)
-        crossing = ~radial & (zlo < lv) & (lv <= zhi)
         direction = np.where(rising, 1.0, -1.0)
         m01 += (np.where(crossing, -direction * f * lv * rc * rc / 6.0, 0.0)).sum(axis=0)
     # Arcs.
@@ -609,7 +647,8 @@ def vertical_levels(prep: PreparedProfile, levels,
         f = pc.arc_factor[:, None]
         lv = Ls[None, :]
         za, zb = cz + R * np.cos(a0), cz + R * np.cos(a1)
-        zlo, zhi = np.minimum(za, zb), np.maximum(za, zb)
+        zsa, zsb = snap(za, lv), snap(zb, lv)
+        zlo, zhi = np.minimum(zsa, zsb), np.maximum(zsa, zsb)
         ac = _arc_angle_at_z(cz, cr, R, a0, a1, lv)
         full = lv >= zhi
         ac = np.where(full, np.where(za < zb, a1, a0), ac)
@@ -631,7 +670,8 @@ def vertical_levels(prep: PreparedProfile, levels,
         error += abs(f) * cum.error
         za = float(curve.evaluate(np.array([ta]))[0][0])
         zb = float(curve.evaluate(np.array([tb]))[0][0])
-        zlo, zhi = min(za, zb), max(za, zb)
+        zsa, zsb = snap(za, Ls), snap(zb, Ls)
+        zlo, zhi = np.minimum(zsa, zsb), np.maximum(zsa, zsb)
         inside = (Ls > zlo) & (Ls < zhi)
         tc = np.where(Ls >= zhi, tb if za < zb else ta, ta if za < zb else tb)
         if inside.any():

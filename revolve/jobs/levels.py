@@ -187,11 +187,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
     factors = section_loop_factors(prep)
     if orientation == "vertical":
         pieces = axial_pieces(prep, factors)
-        zs = np.concatenate([pieces.line[:, [0, 2]].ravel(),
-                             (pieces.arc[:, 0:1] + pieces.arc[:, 2:3] * np.cos(pieces.arc[:, 3:5])).ravel(),
-                             np.array([float(c.evaluate(np.array([t]))[0][0])
-                                       for c, ta, tb in pieces.curves for t in (ta, tb)])])
-        bottom, top = float(zs.min()) + pieces.z_ref, float(zs.max()) + pieces.z_ref
+        bottom, top = pieces.z_min, pieces.z_max
         r_max = horizontal_pieces(prep, factors).r_max
         height = top - bottom
     else:

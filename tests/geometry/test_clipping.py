@@ -1,0 +1,217 @@
+"""Clipping a section at an axial level, and vertical level volumes, against outside references.
+
+Each solid is drawn in the frame of its axis and placed in the sketch several
+ways (geometry_testkit placements), so the frame mapping is exercised too.
+Three computations are compared with each other and with published formulas:
+the clipped section through Pappus (clip_section + clipped_volume), the
+vectorised table (vertical_levels), and the engine's washer cross-check run
+on the clipped section (an independent slicing method).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+import sympy
+from hypothesis import given, settings
+from hypothesis import strategies as st
+
+from geometry_testkit import (PLACEMENT_IDS, PLACEMENTS, T, assert_rel, circle_loop, place_loop,
+                              polygon, reverse_loop)
+from revolve.geometry.checks import prepare
+from revolve.geometry.clipping import (CUT_FACE, clip_section, clipped_volume,
+                                       clipped_wetted_area, section_loop_factors,
+                                       vertical_levels)
+from revolve.geometry.profile import Loop, Profile
+from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, curve_from_expressions
+from revolve.geometry.slicing import washer_volume
+
+TOL = 1e-12
+placements = pytest.mark.parametrize("p", PLACEMENTS, ids=PLACEMENT_IDS)
+
+
+def prepared(loops, p):
+    prof = Profile(loops=tuple(place_loop(l, p) for l in loops))
+    return prepare(prof, p.axis)
+
+
+def ball(r):
+    """A ball of radius r: the upper half circle from z = r to z = -r, closed on the axis."""
+    arc = arc_from_centre((r, 0.0), (-r, 0.0), (0.0, 0.0), clockwise=False, face="sphere")
+    return Loop((arc, Line((-r, 0.0), (r, 0.0), face="axis")))
+
+
+def three_ways(prep, level):
+    """Volume below ``level`` by the clipped section, the vectorised table and washers."""
+    c = clip_section(prep, level)
+    a = clipped_volume(c)
+    b = float(vertical_levels(prep, [level]).volume[0])
+    w = washer_volume(c.prepared, c.factors, 2 * math.pi)[0] if c.prepared.paths else 0.0
+    return a, b, w, c
+
+
+# -- published formulas ----------------------------------------------------------------
+
+@placements
+@pytest.mark.parametrize("h", [0.0, 0.3, 1.0, 1.7, 2.0])
+def test_ball_below_a_level_is_a_spherical_cap(p, h):
+    r = 1.0
+    prep = prepared([ball(r)], p)
+    level = -r + h   # z measured from the centre; the liquid fills from z = -r up
+    for got in three_ways(prep, level)[:3]:
+        # CRC Standard Mathematical Tables (from memory): spherical cap V = π h² (3r − h)/3
+        assert_rel(got, math.pi * h * h * (3 * r - h) / 3, TOL, f"cap h={h}")
+
+
+@placements
+@pytest.mark.parametrize("h", [0.25, 1.0, 1.75])
+def test_wetted_area_of_a_spherical_cap(p, h):
+    r = 1.0
+    prep = prepared([ball(r)], p)
+    c = clip_section(prep, -r + h)
+    # CRC (from memory): curved area of a spherical cap 2 π r h
+    assert_rel(clipped_wetted_area(c), 2 * math.pi * r * h, TOL, "cap area")
+    assert_rel(float(vertical_levels(prep, [-r + h]).wetted_area[0]), 2 * math.pi * r * h, TOL,
+               "cap area, table")
+
+
+@placements
+def test_cone_point_down(p):
+    # A cone of radius 2 and height 3, point at z = 0: V(h) = π (2h/3)² h/3.
+    cone = polygon([(0, 0), (3, 2), (3, 0)])
+    prep = prepared([cone], p)
+    for h in (0.5, 1.5, 3.0):
+        r = 2 * h / 3
+        for got in three_ways(prep, h)[:3]:
+            # CRC (from memory): right circular cone V = π r² h/3
+            assert_rel(got, math.pi * r * r * h / 3, TOL, f"cone h={h}")
+        c = clip_section(prep, h)
+        top = math.pi * r * r if h == 3.0 else 0.0   # the flat top, touched when full
+        # CRC (from memory): lateral area π r √(r² + h²)
+        assert_rel(clipped_wetted_area(c), math.pi * r * math.sqrt(r * r + h * h) + top, TOL,
+                   "cone lateral")
+
+
+@placements
+def test_frustum_with_a_bore_and_any_direction(p):
+    # A ring whose outside is a frustum (r 3 -> 2 over z 0..4) with a bore of radius 1,
+    # drawn clockwise: the washer between the frustum and the bore.
+    ring = reverse_loop(polygon([(0, 1), (4, 1), (4, 2), (0, 3)]))
+    prep = prepared([ring], p)
+    h = 2.5
+    R_top = 3 - h / 4
+    # CRC (from memory): frustum V = π h (R² + R r + r²)/3, minus the bore π 1² h
+    want = math.pi * h * (9 + 3 * R_top + R_top ** 2) / 3 - math.pi * h
+    for got in three_ways(prep, h)[:3]:
+        assert_rel(got, want, TOL, "frustum ring")
+
+
+@placements
+def test_hole_inside_the_liquid_space(p):
+    # A cylinder r <= 3, z in 0..6, with a torus hole (tube radius 0.5 about r = 2, z = 3).
+    outer = polygon([(0, 0), (6, 0), (6, 3), (0, 3)])
+    hole = circle_loop(3.0, 2.0, 0.5)
+    prep = prepared([outer, hole], p)
+    full = three_ways(prep, 6.0)
+    # CRC (from memory): torus V = 2 π² R r²; cylinder π r² h
+    want = math.pi * 9 * 6 - 2 * math.pi ** 2 * 2 * 0.25
+    for got in full[:3]:
+        assert_rel(got, want, TOL, "cylinder minus torus")
+    half = three_ways(prep, 3.0)
+    for got in half[:3]:
+        assert_rel(got, math.pi * 9 * 3 - math.pi ** 2 * 2 * 0.25, TOL, "half the torus")
+
+
+@placements
+def test_paraboloid_dish_is_clipped_by_root_finding(p):
+    # A dish r² = 2 z (z = r²/2 as a curve x = t²/2, y = t): V(h) = π r² h/2 with r² = 2h.
+    dish = curve_from_expressions(T ** 2 / 2, T, 0.0, 2.0)
+    loop = Loop((dish, Line((2.0, 2.0), (2.0, 0.0)), Line((2.0, 0.0), (0.0, 0.0))))
+    prep = prepared([loop], p)
+    for h in (0.3, 1.1, 2.0):
+        c = clip_section(prep, h)
+        kinds = [s.kind for s in c.prepared.paths[0]]
+        assert "curve" in kinds
+        for got in three_ways(prep, h)[:3]:
+            # CRC (from memory): paraboloid of revolution V = π r² h/2
+            assert_rel(got, math.pi * 2 * h * h / 2, 1e-12, f"paraboloid h={h}")
+        # CRC (from memory): lateral area π r/(6h²) [(r² + 4h²)^{3/2} − r³]
+        r = math.sqrt(2 * h)
+        lateral = math.pi * r / (6 * h * h) * ((r * r + 4 * h * h) ** 1.5 - r ** 3)
+        top = math.pi * 2 * h if h == 2.0 else 0.0   # the flat top, touched when full
+        assert_rel(clipped_wetted_area(c), lateral + top, 1e-12, "paraboloid lateral")
+        assert_rel(float(vertical_levels(prep, [h]).wetted_area[0]), lateral + top, 1e-12,
+                   "paraboloid lateral, table")
+
+
+# -- what clipping builds ---------------------------------------------------------------
+
+def test_clipped_arcs_stay_arcs_and_curves_keep_their_expressions():
+    r = 2.0
+    arc = arc_from_centre((r, 0.0), (-r, 0.0), (0.0, 0.0), clockwise=False)
+    loop = Loop((arc, Line((-r, 0.0), (r, 0.0))))
+    c = clip_section(prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis), 0.5)
+    arcs = [s for s in c.prepared.paths[0] if isinstance(s, Arc)]
+    assert arcs and all(a.centre == (0.0, 0.0) and abs(a.radius - r) < 1e-15 for a in arcs)
+    cuts = [s for s, is_cut in zip(c.prepared.paths[0], c.cut[0]) if is_cut]
+    assert len(cuts) == 1 and cuts[0].face == CUT_FACE
+    assert cuts[0].start[0] == 0.5 and cuts[0].end[0] == 0.5
+    dish = curve_from_expressions(T ** 2 / 2, T, 0.0, 2.0)
+    loop = Loop((dish, Line((2.0, 2.0), (2.0, 0.0)), Line((2.0, 0.0), (0.0, 0.0))))
+    c = clip_section(prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis), 0.5)
+    curve = next(s for s in c.prepared.paths[0] if isinstance(s, Curve))
+    assert curve.x_expr == dish.x_expr and curve.y_expr == dish.y_expr
+    assert abs(curve.t_end - 1.0) < 1e-15   # z = t²/2 = 0.5 at t = 1
+
+
+def test_levels_through_vertices_and_a_flat_face_count_once():
+    # A stepped bore: r = 2 for z in 0..1, r = 1 for z in 1..2 (a flat face at z = 1).
+    step = polygon([(0, 0), (0, 2), (1, 2), (1, 1), (2, 1), (2, 0)])
+    prep = prepare(Profile(loops=(step,)), PLACEMENTS[0].axis)
+    for level, want in ((1.0, math.pi * 4), (2.0, math.pi * 5), (0.0, 0.0)):
+        for got in three_ways(prep, level)[:3]:
+            assert abs(got - want) <= TOL * math.pi * 5
+    # The flat face at the level is wetted (the liquid touches it): 2π·2·1 + base 4π + ring 3π
+    area = float(vertical_levels(prep, [1.0]).wetted_area[0])
+    assert_rel(area, 2 * math.pi * 2 + 4 * math.pi + 3 * math.pi, TOL, "stepped area")
+    assert_rel(clipped_wetted_area(clip_section(prep, 1.0)), area, TOL, "stepped area, clipped")
+    # Empty: the flat bottom at the level is not wetted.
+    assert float(vertical_levels(prep, [0.0]).wetted_area[0]) == 0.0
+    assert clipped_wetted_area(clip_section(prep, 0.0)) == 0.0
+
+
+def test_loop_factors_follow_direction_and_nesting():
+    outer = polygon([(0, 1), (4, 1), (4, 5), (0, 5)])
+    hole = polygon([(1, 2), (2, 2), (2, 3), (1, 3)])
+    prep = prepare(Profile(loops=(reverse_loop(outer), hole)), PLACEMENTS[0].axis)
+    assert section_loop_factors(prep) == (-1.0, -1.0)
+
+
+# -- properties ------------------------------------------------------------------------
+
+@st.composite
+def star_loops(draw):
+    """A star-shaped polygon about (z, r) = (0, 6), away from the axis."""
+    n = draw(st.integers(5, 12))
+    radii = draw(st.lists(st.floats(1.0, 4.0), min_size=n, max_size=n))
+    a = np.linspace(0, 2 * np.pi, n, endpoint=False)
+    pts = [(float(rr * math.cos(t)), 6.0 + float(rr * math.sin(t))) for rr, t in zip(radii, a)]
+    return polygon(pts)
+
+
+@settings(max_examples=40, deadline=None)
+@given(star_loops(), st.lists(st.floats(-4.5, 4.5), min_size=2, max_size=8))
+def test_volume_never_decreases_and_both_ways_agree(loop, levels):
+    prep = prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis)
+    levels = sorted(levels)
+    table = vertical_levels(prep, levels)
+    assert np.all(np.diff(table.volume) >= -1e-12 * max(1.0, abs(table.volume[-1])))
+    assert np.all(np.diff(table.wetted_area) >= -1e-12 * max(1.0, abs(table.wetted_area[-1])))
+    full = float(vertical_levels(prep, [10.0]).volume[0])
+    for lv, v in zip(levels, table.volume):
+        c = clip_section(prep, lv)
+        assert abs(clipped_volume(c) - v) <= 1e-11 * full
+        if c.prepared.paths:   # washers on the clipped section: the independent slicing method
+            assert abs(washer_volume(c.prepared, c.factors, 2 * math.pi)[0] - v) <= 1e-10 * full
