@@ -120,6 +120,8 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
         checks += [(a_s, measurement.area), (v_s, measurement.volume)]
         out["area"], out["volume"] = str(a_s), str(v_s)
     face_s = {k: simple(v) for k, v in faces.items()}
+    if len(face_s) > 1 and face_s.get(UNNAMED_FACE) == 0:
+        del face_s[UNNAMED_FACE]  # segments on the axis sweep nothing
     total = simple(sum(faces.values()))
     checks += [(v, measurement.surface_by_face[k]) for k, v in face_s.items()]
     checks.append((total, measurement.surface_total))
