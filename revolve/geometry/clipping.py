@@ -85,10 +85,18 @@ def _curve_turning_parameters(curve: Curve, which: int, samples: int = 1025) -> 
     with np.errstate(all="ignore"):
         d = curve.evaluate(t)[which]
     d = np.nan_to_num(d, nan=0.0, posinf=0.0, neginf=0.0)
-    flips = np.flatnonzero(np.sign(d[:-1]) * np.sign(d[1:]) < 0)
+    # Sign changes between neighbouring samples that are not zero: a sample may land exactly
+    # on the turning point (a zero between a + and a -).
+    nonzero = np.flatnonzero(d != 0)
+    sg = np.sign(d[nonzero])
+    flips = np.flatnonzero(sg[:-1] * sg[1:] < 0)
     out = []
-    for i in flips:
-        a, b = float(t[i]), float(t[i + 1])
+    for k in flips:
+        i, j = nonzero[k], nonzero[k + 1]
+        if j > i + 1:            # zeros between: the turning point is the middle one
+            out.append(float(t[(i + j) // 2]))
+            continue
+        a, b = float(t[i]), float(t[j])
         fa = float(curve.evaluate(np.array([a]))[which][0])
         for _ in range(200):
             m = 0.5 * (a + b)
@@ -529,7 +537,9 @@ class _CurveCumulative:
                 break
             mids = 0.5 * (edges[:-1] + edges[1:])[bad]
             edges = np.sort(np.concatenate([edges, mids]))
-        else:
+            if edges.size > 20_000:   # rounding in the curve, not the rule, limits the sums
+                break
+        if hi.shape[0] != edges.size - 1:
             lo = self._panels(edges[:-1], edges[1:], 16)
             hi = self._panels(edges[:-1], edges[1:], 32)
         self.edges = edges

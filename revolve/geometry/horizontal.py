@@ -79,22 +79,31 @@ from revolve.geometry.slicing import gauss_legendre
 PI = math.pi
 #: Steepest cone (|Δz/Δr|) integrated in closed form; steeper ones go to quadrature.
 CLOSED_FORM_SLOPE = 1e3
+#: Narrowest interval (of a piece's parameter range, in u) that is still halved.
+MIN_WIDTH = 2.0 ** -24
 
 
 # -- the circular segment and its integrals ---------------------------------------------
 
-def _half_angle(r, r_plus_y):
-    """acos(-y/r) written as 2 asin(√((r + y)/(2r))): no digits lost near the bottom."""
+def _half_angle(r, r_plus_y, r_minus_y):
+    """acos(-y/r) without lost digits near the bottom or the top of the circle.
+
+    Below the axis it is 2 asin(√((r + y)/(2r))), above it π - 2 asin(√((r - y)/(2r))):
+    the argument of the asin stays small where acos itself would be ill-conditioned.
+    """
     with np.errstate(divide="ignore", invalid="ignore"):
-        q = np.where(r > 0, r_plus_y / np.where(r > 0, 2.0 * r, 1.0), 0.0)
-    return 2.0 * np.arcsin(np.sqrt(np.clip(q, 0.0, 1.0)))
+        two_r = np.where(r > 0, 2.0 * r, 1.0)
+        low = 2.0 * np.arcsin(np.sqrt(np.clip(r_plus_y / two_r, 0.0, 1.0)))
+        high = PI - 2.0 * np.arcsin(np.sqrt(np.clip(r_minus_y / two_r, 0.0, 1.0)))
+    return np.where(r > 0, np.where(r_plus_y <= r_minus_y, low, high), 0.0)
 
 
-def segment_area(r, y, r_plus_y=None):
+def segment_area(r, y, r_plus_y=None, r_minus_y=None):
     """Area of a circle of radius ``r`` about the axis below the height ``y`` (arrays).
 
-    ``r_plus_y`` may give ``r + y`` computed without cancellation (the
-    segment's height), for depths tiny compared with ``r``.
+    ``r_plus_y`` and ``r_minus_y`` may give ``r + y`` and ``r - y`` computed
+    without cancellation (the heights of the segment and of the rest), for
+    liquid surfaces very near the bottom or the top of the circle.
 
     >>> round(float(segment_area(1.0, 0.0)) / math.pi, 15)          # half the circle
     0.5
@@ -107,16 +116,14 @@ def segment_area(r, y, r_plus_y=None):
     """
     r = np.asarray(r, dtype=float)
     y = np.asarray(y, dtype=float)
-    rpy = (r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float)
-    rmy = 2.0 * r - rpy
-    inside = (rpy > 0) & (rmy > 0)
-    angle = _half_angle(r, np.clip(rpy, 0.0, None))
-    chord = np.sqrt(np.clip(rpy, 0.0, None) * np.clip(rmy, 0.0, None))
-    s = r * r * angle + y * chord
-    return np.where(inside, s, np.where(rpy <= 0, 0.0, PI * r * r))
+    rpy = np.clip((r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float), 0.0, None)
+    rmy = np.clip((r - y) if r_minus_y is None else np.asarray(r_minus_y, dtype=float), 0.0, None)
+    angle = _half_angle(r, rpy, rmy)
+    s = r * r * angle + y * np.sqrt(rpy * rmy)
+    return np.where((rpy > 0) & (rmy > 0), s, np.where(rpy <= 0, 0.0, PI * r * r))
 
 
-def wetted_arc(r, y, r_plus_y=None):
+def wetted_arc(r, y, r_plus_y=None, r_minus_y=None):
     """Length of the arc of a circle of radius ``r`` below the height ``y``: 2 r acos(-y/r).
 
     >>> round(float(wetted_arc(1.0, 0.0)) / math.pi, 15), float(wetted_arc(1.0, -2.0))
@@ -124,8 +131,9 @@ def wetted_arc(r, y, r_plus_y=None):
     """
     r = np.asarray(r, dtype=float)
     y = np.asarray(y, dtype=float)
-    rpy = (r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float)
-    return 2.0 * r * _half_angle(r, np.clip(rpy, 0.0, 2.0 * r))
+    rpy = np.clip((r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float), 0.0, None)
+    rmy = np.clip((r - y) if r_minus_y is None else np.asarray(r_minus_y, dtype=float), 0.0, None)
+    return 2.0 * r * _half_angle(r, rpy, rmy)
 
 
 def segment_area_integral(r, y):
@@ -144,8 +152,7 @@ def segment_area_integral(r, y):
     ay = np.abs(y)
     inside = r > ay
     rr = np.where(inside, r, ay + 1.0)       # harmless values where not used
-    rpy = rr + y
-    angle = _half_angle(rr, rpy)
+    angle = _half_angle(rr, rr + y, rr - y)
     chord = np.sqrt(np.clip((rr - ay) * (rr + ay), 0.0, None))
     with np.errstate(divide="ignore", invalid="ignore"):
         t = np.where(ay > 0, np.log1p((rr - ay + chord) / np.where(ay > 0, ay, 1.0)), 0.0)
@@ -456,11 +463,12 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
     else:
         r, dz, ds, r_less_max, sel_c = _radii(jobs, pieces, p)
     yy = y[jobs.level][:, None]
-    rpy = np.clip(r_less_max + depth[jobs.level][:, None], 0.0, None)   # r + y = (r - r_max) + depth
-    rmy = np.clip(2.0 * r - rpy, 0.0, None)                             # r - y
+    d = depth[jobs.level][:, None]
+    rpy = np.clip(r_less_max + d, 0.0, None)                        # r + y = (r - r_max) + depth
+    rmy = np.clip(r_less_max + (2.0 * pieces.r_max - d), 0.0, None)  # r - y, the same way
     jac = dp * half_u[:, None]
     with np.errstate(all="ignore"):
-        angle = _half_angle(r, np.minimum(rpy, 2.0 * r))                # acos(-y/r)
+        angle = _half_angle(r, rpy, rmy)                              # acos(-y/r)
         area = r * r * angle + yy * np.sqrt(rpy * rmy)                   # S: 0 and π r² at the ends
         gv = area * dz * jac
         ga = (2.0 * r * angle) * ds * np.abs(jac)
@@ -516,7 +524,7 @@ class HorizontalLevels:
 
 def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequence[float]] = None,
                       pieces: Optional[HorizontalPieces] = None, rel_tol: float = 1e-11,
-                      order: int = 8, max_rounds: int = 40,
+                      order: int = 8, max_rounds: int = 30, max_jobs: int = 3_000_000,
                       chunk: int = 60_000) -> HorizontalLevels:
     """Volume and wetted area at each liquid depth, the axis horizontal.
 
@@ -539,6 +547,10 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     order : int
         Gauss–Legendre nodes per interval on straight and squared maps
         (lines and arcs); curves, on the cosine map, use twice as many.
+    max_rounds, max_jobs : int
+        Limits of the halving: after that many rounds, or once more intervals
+        than ``max_jobs`` wait, the last round takes what is left (with its
+        error estimate, which is reported).
 
     Returns
     -------
@@ -576,9 +588,10 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         yy = y[None, :]
         dz, dr = z1 - z0, r1 - r0
         length = np.hypot(dz, dr)
-        rpy0 = (r0 - Rm) + d[None, :]
-        rpy1 = (r1 - Rm) + d[None, :]
-        s0, s1 = segment_area(r0, yy, rpy0), segment_area(r1, yy, rpy1)
+        top = (2.0 * Rm - d)[None, :]           # r_max - y: the height left above the liquid
+        rpy0, rpy1 = (r0 - Rm) + d[None, :], (r1 - Rm) + d[None, :]
+        rmy0, rmy1 = (r0 - Rm) + top, (r1 - Rm) + top
+        s0, s1 = segment_area(r0, yy, rpy0, rmy0), segment_area(r1, yy, rpy1, rmy1)
         cyl = (dr == 0)
         radial = (dz == 0)
         cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
@@ -589,7 +602,7 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         G1 = segment_area_integral(r1, yy)
         G0 = segment_area_integral(r0, yy)
         vol = np.where(cyl, s0 * dz, 0.0) + np.where(cone, ratio * (G1 - G0), 0.0)
-        area = (np.where(cyl, wetted_arc(r0, yy, rpy0) * length, 0.0)
+        area = (np.where(cyl, wetted_arc(r0, yy, rpy0, rmy0) * length, 0.0)
                 + np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0))
         V += (-f * vol).sum(axis=0)
         A += area.sum(axis=0)
@@ -628,10 +641,9 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     share = rel_tol / max(1, len(pc.line) + len(pc.arc) + len(pc.curves))
     tol_v = share * PI * Rm * Rm * max(pc.length, Rm)
     tol_a = share * 2.0 * PI * Rm * max(pc.length, Rm)
-    for round_no in range(max_rounds + 1):
-        if not len(jobs):
-            break
-        final = round_no == max_rounds
+    round_no = 0
+    while len(jobs):
+        final = round_no >= max_rounds
         undone = []
         for start in range(0, len(jobs), chunk):
             part = jobs.take(slice(start, start + chunk))
@@ -645,13 +657,18 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
                 m = part.kind == kind
                 if m.any():
                     fac[m] = arr[part.piece[m]]
-            good = (ev <= tol_v) & (ea <= tol_a) | ((part.ub - part.ua) < 1e-12) | final
+            # Stop halving where rounding, not the rule, limits the estimate (intervals a
+            # millionth of the piece, or too many of them): the estimate is reported.
+            good = (ev <= tol_v) & (ea <= tol_a) | ((part.ub - part.ua) < MIN_WIDTH) | final
             np.add.at(V, part.level[good], -fac[good] * v[good])
             np.add.at(A, part.level[good], a[good])
             np.add.at(E, part.level[good], ev[good])
             if not good.all():
                 undone.append(part.take(~good).halve())
         jobs = _concat(undone)
+        round_no += 1
+        if len(jobs) > max_jobs:
+            max_rounds = round_no       # the next round is the last: it takes what is left
     return HorizontalLevels(d, V, A, E, Rm)
 
 
