@@ -400,7 +400,7 @@ def _surface(spec1: HeadSpec, spec2: HeadSpec, R: float, length: float, w: float
         raise ProfileError("the heads overlap: the shell is too short for these heads and this "
                            "wall", place="length")
     segs = _frame_segments(p1, 1, length, faces[0])
-    if z2 > z1:
+    if z2 - z1 > 1e-9 * R:   # a shell shorter than that is no shell (and no segment)
         segs.append(Line((z1, R + w), (z2, R + w), face=faces[1]))
     segs += _frame_segments(p2, 2, length, faces[2])
     return segs, _frame_point(pole1, 1, length), _frame_point(pole2, 2, length)
@@ -489,7 +489,7 @@ def build_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadS
         raise RevolveError(f"the diameter must be positive, got {diameter:g}", place="diameter")
     if length < 0:
         raise RevolveError(f"the shell length must not be negative, got {length:g}", place="length")
-    if length == 0 and head_1.kind == "flat" and head_2.kind == "flat":
+    if length <= 1e-9 * diameter and head_1.kind == "flat" and head_2.kind == "flat":
         raise RevolveError("two flat heads need a shell between them; give a length above 0",
                            place="length")
     if dimensions not in ("inside", "outside"):
