@@ -335,10 +335,11 @@ def _print(s, u, orientation, metal_label, liquid_label, files, name, descriptio
     con.print(f"cross-check: largest relative difference {s.crosscheck_difference:.1e}")
     if files.get("liquid_space"):
         path = files["liquid_space"]
-        con.print(f"wrote {path}: the liquid space (revolve measure {path}; "
-                  f"revolve levels {path} --orientation {orientation})")
+        con.print(f"wrote {path}: the liquid space", soft_wrap=True)
+        con.print(f"  revolve measure {path}", soft_wrap=True)
+        con.print(f"  revolve levels {path} --orientation {orientation}", soft_wrap=True)
     if files.get("wall"):
-        con.print(f"wrote {files['wall']}: the wall (metal section)")
+        con.print(f"wrote {files['wall']}: the wall (metal section)", soft_wrap=True)
     kinds = ["vessel"] + (["lifting"] if s.metal_mass is not None else [])
     con.print(common.caution_panel(kinds))
 

@@ -1,0 +1,213 @@
+"""`revolve levels` end to end: JSON rows, units, CSV, the inverse, every vessel example, bad input.
+
+Figures are checked against published formulas (sources beside each); the
+bundled examples are invented scenarios and are only run, never used as
+check values.
+"""
+
+from __future__ import annotations
+
+import csv
+import json
+import math
+import subprocess
+import sys
+from pathlib import Path
+
+import pytest
+
+from revolve.cli.app import main
+from revolve.cli.common import CAUTIONS
+
+ROOT = Path(__file__).resolve().parents[2]
+EXAMPLES = sorted((ROOT / "profiles").glob("vessel-*.toml"))
+
+# An upright cylinder of radius 10 in and height 24 in, drawn as a chain (axis along y).
+DRUM_IN = """
+units = "in"
+[axis]
+along = "y"
+[[chain]]
+start = [0, 0]
+segments = [
+  { line_to = [10, 0] },
+  { line_to = [10, 24] },
+  { line_to = [0, 24] },
+]
+"""
+
+# A horizontal cylinder of radius 500 mm and length 2000 mm (a loop: the liquid space).
+LYING_MM = """
+units = "mm"
+[[loop]]
+start = [0, 0]
+segments = [
+  { line_to = [2000, 0] },
+  { line_to = [2000, 500] },
+  { line_to = [0, 500] },
+  { close = true },
+]
+"""
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(list(args))
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def write(tmp_path, name, text):
+    p = tmp_path / name
+    p.write_text(text, encoding="utf-8")
+    return str(p)
+
+
+def segment(r, h):
+    """CRC Standard Mathematical Tables (from memory): circular segment of height h."""
+    return r * r * math.acos((r - h) / r) - (r - h) * math.sqrt(2 * r * h - h * h)
+
+
+def test_json_list_of_rows_in_profile_units(tmp_path, capsys):
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    code, out, err = run(["levels", path, "--orientation", "vertical", "--step", "6", "--json"],
+                         capsys)
+    assert code == 0, err
+    rows = json.loads(out)
+    assert isinstance(rows, list) and [r["level"] for r in rows] == [0, 6, 12, 18, 24]
+    # CRC: cylinder π r² h, in the profile's unit (in³)
+    for r in rows:
+        assert r["volume"] == pytest.approx(math.pi * 100 * r["level"], rel=1e-14, abs=1e-12)
+        assert r["level_unit"] == "in" and r["volume_unit"] == "in³"
+        assert r["caution"] == CAUTIONS["vessel"]
+    assert rows[-1]["percent"] == pytest.approx(100.0, rel=1e-12)
+
+
+def test_units_us_gallons_and_feet(tmp_path, capsys):
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    code, out, err = run(["levels", path, "--at", "1", "--level-unit", "ft", "--volume-unit",
+                          "US_gallon", "--area-unit", "ft^2", "--json"], capsys)
+    assert code == 0, err
+    (row,) = json.loads(out)
+    # 1 US gal = 231 in³ (US customary definition); 1 ft = 12 in (1959 agreement)
+    assert row["level"] == 1.0
+    assert row["volume"] == pytest.approx(math.pi * 100 * 12 / 231, rel=1e-14)
+    assert row["wetted_area"] == pytest.approx((math.pi * 100 + 2 * math.pi * 10 * 12) / 144,
+                                               rel=1e-14)
+    assert (row["volume_unit"], row["area_unit"]) == ("US gal", "ft²")
+
+
+def test_horizontal_table_and_csv(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    out_csv = tmp_path / "table.csv"
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--count", "4",
+                          "--volume-unit", "L", "--csv", str(out_csv), "--json"], capsys)
+    assert code == 0, err
+    rows = json.loads(out)
+    for r in rows:
+        # CRC: horizontal cylinder, L × circular segment (mm³ -> L: 1e-6)
+        assert r["volume"] == pytest.approx(2000 * segment(500, r["level"]) * 1e-6, rel=1e-13,
+                                            abs=1e-12)
+    with open(out_csv, newline="", encoding="utf-8") as f:
+        table = list(csv.reader(f))
+    assert table[0] == ["level (mm)", "volume (L)", "percent of capacity", "wetted area (mm^2)"]
+    assert [float(x) for x in table[3][:2]] == [rows[2]["level"], rows[2]["volume"]]
+
+
+def test_screen_table_shows_the_caution_and_the_datum(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--count", "2",
+                          "--volume-unit", "L"], capsys)
+    assert code == 0, err
+    assert "custody transfer" in out and "lowest inside point" in out
+    assert "capacity 1570.796327 L" in out
+
+
+def test_inverse_by_volume_and_percent(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    cap = math.pi * 500 ** 2 * 2000 * 1e-6
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--volume-unit", "L",
+                          "--volume", f"{cap / 2!r},100", "--json"], capsys)
+    assert code == 0, err
+    rows = json.loads(out)
+    assert rows[0]["volume_asked"] == pytest.approx(cap / 2)
+    assert rows[0]["level"] == pytest.approx(500.0, rel=1e-12)
+    assert 2000 * segment(500, rows[1]["level"]) * 1e-6 == pytest.approx(100.0, rel=1e-11)
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--percent", "50",
+                          "--percent", "0,100", "--json"], capsys)
+    rows = json.loads(out)
+    assert [r["percent_asked"] for r in rows] == [50.0, 0.0, 100.0]
+    assert [r["level"] for r in rows] == pytest.approx([500.0, 0.0, 1000.0], rel=1e-12)
+
+
+@pytest.mark.parametrize("orientation", ["vertical", "horizontal"])
+@pytest.mark.parametrize("path", EXAMPLES, ids=[p.name for p in EXAMPLES])
+def test_every_vessel_example(path, orientation, capsys):
+    code, out, err = run(["levels", str(path), "--orientation", orientation, "--count", "20",
+                          "--json"], capsys)
+    assert code == 0, err
+    rows = json.loads(out)
+    volumes = [r["volume"] for r in rows]
+    assert all(b > a for a, b in zip(volumes, volumes[1:]))
+    assert rows[-1]["volume"] == pytest.approx(rows[-1]["capacity"], rel=1e-12)
+
+
+def test_console_script_entry_point(tmp_path):
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    res = subprocess.run([sys.executable, "-m", "revolve", "levels", path, "--step", "12",
+                          "--json"], capture_output=True, text=True, cwd=ROOT, timeout=120)
+    assert res.returncode == 0, res.stderr
+    rows = json.loads(res.stdout)
+    assert [r["level"] for r in rows] == [0, 12, 24]
+
+
+# -- bad input: exit 2, one line naming the file or option, nothing written ----------------
+
+OFF_AXIS = """
+units = "mm"
+[axis]
+along = "y"
+[[chain]]
+start = [0, 0]
+segments = [
+  { line_to = [10, 0] },
+  { line_to = [10, 24] },
+]
+"""
+
+HALF_TURN = """
+units = "mm"
+angle = 180
+[[loop]]
+start = [0, 0]
+segments = [ { line_to = [10, 0] }, { line_to = [10, 5] }, { line_to = [0, 5] }, { close = true } ]
+"""
+
+
+@pytest.mark.parametrize("text,args,expected", [
+    (DRUM_IN, ["--at", "30"], "--at: level 30 in is above the full level 24 in"),
+    (DRUM_IN, ["--at", "x"], "--at: 'x' is not a number"),
+    (DRUM_IN, ["--step", "0"], "--step: the step must be a positive number"),
+    (DRUM_IN, ["--step", "1e-9"], "--step: a step of 1e-09 in gives"),
+    (DRUM_IN, ["--count", "0"], "--count: the count must be 1 or more"),
+    (DRUM_IN, ["--step", "2", "--count", "3"], "give one of --step, --count"),
+    (DRUM_IN, ["--volume", "1e9"], "--volume: volume 1e+09 in³ is more than the capacity"),
+    (DRUM_IN, ["--percent", "101"], "--percent: 101 % is outside 0 to 100 %"),
+    (DRUM_IN, ["--volume-unit", "kg"], "--volume-unit: 'kg' is a mass unit"),
+    (DRUM_IN, ["--level-unit", "L"], "--level-unit: 'L' is a volume unit"),
+    (DRUM_IN, ["--orientation", "sideways"], "--orientation: give vertical or horizontal"),
+    (OFF_AXIS, [], "chain 1: the chain ends at (10, 24), off the axis"),
+    (HALF_TURN, [], "bad.toml:3: angle: a level table needs a full revolution"),
+])
+def test_bad_input(tmp_path, capsys, text, args, expected):
+    path = write(tmp_path, "bad.toml", text)
+    out_csv = tmp_path / "out.csv"
+    code, out, err = run(["levels", path, *args, "--csv", str(out_csv)], capsys)
+    assert code == 2
+    lines = err.strip().splitlines()
+    assert len(lines) == 1 and "Traceback" not in err
+    assert expected in lines[0]
+    if "chain" in expected:
+        assert "bad.toml" in lines[0]
+    assert not out_csv.exists()
+    assert out == ""

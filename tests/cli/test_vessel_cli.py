@@ -1,0 +1,128 @@
+"""`revolve vessel` end to end: summary, JSON, the profile files it writes, bad input.
+
+Checks against published formulas (sources beside each); the written
+profile must give the same capacity through `revolve measure` and a level
+table through `revolve levels`.
+"""
+
+from __future__ import annotations
+
+import json
+import math
+
+import pytest
+
+from revolve.cli.app import main
+from revolve.cli.common import CAUTIONS
+
+
+def run(args, capsys):
+    with pytest.raises(SystemExit) as exc:
+        main(list(args))
+    out, err = capsys.readouterr()
+    return exc.value.code, out, err
+
+
+def test_json_summary_and_files(tmp_path, capsys):
+    inside, wall = tmp_path / "tank.toml", tmp_path / "wall.toml"
+    code, out, err = run(["vessel", "--diameter", "1.2 m", "--length", "2400", "--head",
+                          "ellipsoidal", "--thickness", "6", "--material", "carbon_steel",
+                          "--liquid-density", "850 kg/m^3", "--orientation", "horizontal",
+                          "-o", str(inside), "--wall-output", str(wall), "--volume-unit", "L",
+                          "--json"], capsys)
+    assert code == 0, err
+    s = json.loads(out)
+    R, L = 600.0, 2400.0
+    # CRC: cylinder π R² L; two 2:1 heads 2 · π D³/24 (spheroid; 2:1 common practice); mm³ -> L
+    cap = (math.pi * R * R * L + 2 * math.pi * (2 * R) ** 3 / 24) * 1e-6
+    assert s["capacity"] == pytest.approx(cap, rel=1e-13)
+    assert s["heads"][0]["volume"] == pytest.approx(math.pi * 1200 ** 3 / 24 * 1e-6, rel=1e-12)
+    assert s["heads"][0]["depth"] == 300.0 and s["heads"][0]["depth_outside"] == 306.0
+    assert s["vessel"]["outside_diameter"] == 1212.0
+    assert s["liquid_mass"] == pytest.approx(850 * cap * 1e-3, rel=1e-13)
+    assert s["mass_full"] == pytest.approx(s["metal_mass"] + s["liquid_mass"], rel=1e-14)
+    assert s["centre_of_mass"]["full"] == pytest.approx(L / 2, rel=1e-12)
+    assert CAUTIONS["vessel"] in s["cautions"] and CAUTIONS["lifting"] in s["cautions"]
+    assert s["files"] == {"liquid_space": str(inside), "wall": str(wall)}
+    assert s["crosscheck"]["agrees"] is True
+    # The written profile is the liquid space: measure gives the capacity.
+    code, out, err = run(["measure", str(inside), "--volume-unit", "L", "--json"], capsys)
+    assert code == 0, err
+    assert json.loads(out)["volume"] == pytest.approx(cap, rel=1e-13)
+    # The wall carries its material: measure gives the metal's mass.
+    code, out, err = run(["measure", str(wall), "--json"], capsys)
+    assert json.loads(out)["mass"] == pytest.approx(s["metal_mass"], rel=1e-13)
+    # And levels reads it: half full lying down is half the capacity.
+    code, out, err = run(["levels", str(inside), "--orientation", "horizontal", "--at", "600",
+                          "--volume-unit", "L", "--json"], capsys)
+    assert code == 0, err
+    assert json.loads(out)[0]["volume"] == pytest.approx(cap / 2, rel=1e-12)
+
+
+def test_screen_summary(tmp_path, capsys):
+    out_file = tmp_path / "rain.toml"
+    code, out, err = run(["vessel", "--diameter", "2400", "--length", "2000", "--head-1",
+                          "torispherical-10", "--head-2", "conical:angle=75", "-o",
+                          str(out_file), "--volume-unit", "L", "--name", "Rain tank"], capsys)
+    assert code == 0, err
+    for text in ("Rain tank", "torispherical-10, crown 2400, knuckle 240 mm",
+                 "conical, half-angle 75°", "capacity", "custody transfer",
+                 f"revolve levels {out_file} --orientation vertical"):
+        assert text in out, text
+    assert out_file.exists()
+    assert 'name = "Rain tank"' in out_file.read_text(encoding="utf-8")
+
+
+def test_hemispherical_sphere_in_us_units(capsys):
+    code, out, err = run(["vessel", "--diameter", "48", "--units", "in", "--length", "0",
+                          "--head", "hemispherical", "--volume-unit", "US_gallon", "--json"],
+                         capsys)
+    assert code == 0, err
+    s = json.loads(out)
+    # CRC: sphere 4/3 π r³; 1 US gal = 231 in³ (US customary definition)
+    assert s["capacity"] == pytest.approx(4 / 3 * math.pi * 24 ** 3 / 231, rel=1e-13)
+    assert s["units"]["volume"] == "US gal"
+    assert s["metal_mass"] is None and s["mass_full"] is None
+    assert s["cautions"] == [CAUTIONS["vessel"]]
+
+
+@pytest.mark.parametrize("args,expected", [
+    (["--head", "torispherical:crown=400"], "--head (head 1): the crown radius 400 is less than"),
+    (["--head-1", "flat", "--head-2", "conical:angle=95"], "--head-2 (head 2): the cone's "
+                                                            "half-angle must be between 0 and 90"),
+    (["--head", "dished"], "--head: unknown head 'dished'"),
+    (["--head-1", "flat"], "--head-2: give the heads"),
+    ([], "--head: give the heads"),
+    (["--head", "flat", "--head-1", "flat"], "--head: give --head for both ends"),
+    (["--head", "flat", "--diameter", "big"], "--diameter: give a number"),
+    (["--head", "flat", "--diameter", "3 kg"], "--diameter: 'kg' is a mass unit"),
+    (["--head", "flat", "--length", "-5"], "--length: the shell length must not be negative"),
+    (["--head", "flat", "--thickness", "0"], "--thickness: the wall thickness must be positive"),
+    (["--head", "flat", "--wall-output", "WALL"], "--wall-output: a wall profile needs a wall"),
+    (["--head", "flat", "--material", "carbon_steel"], "--material: the metal's mass needs"),
+    (["--head", "flat", "--thickness", "5", "--material", "unobtainium"], "--material:"),
+    (["--head", "flat", "--liquid-density", "-3 kg/m^3"], "--liquid-density:"),
+    (["--head", "ellipsoidal", "--thickness", "130", "--dimensions", "outside"],
+     "--head (head 1): the wall thickness (130) is not less than an eighth"),
+    (["--head", "flat", "--dimensions", "middle"], "--dimensions: give inside or outside"),
+    (["--head", "flat", "--volume-unit", "mm"], "--volume-unit: 'mm' is a length unit"),
+    (["--head", "flat", "--units", "L"], "--units: 'L' is a volume unit"),
+])
+def test_bad_input(tmp_path, capsys, args, expected):
+    out_file = tmp_path / "vessel.toml"
+    wall = tmp_path / "WALL.toml"
+    base = ["vessel", "--diameter", "1000", "--length", "1500", "-o", str(out_file)]
+    args = [str(wall) if a == "WALL" else a for a in args]
+    if "--diameter" in args:
+        i = base.index("--diameter")
+        del base[i:i + 2]
+    if "--length" in args:
+        i = base.index("--length")
+        del base[i:i + 2]
+    code, out, err = run(base + args, capsys)
+    assert code == 2, (out, err)
+    lines = err.strip().splitlines()
+    assert len(lines) == 1 and "Traceback" not in err
+    assert expected in lines[0], lines[0]
+    assert not out_file.exists() and not wall.exists()
+    assert out == ""
