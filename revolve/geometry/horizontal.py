@@ -91,11 +91,11 @@ def _half_angle(r, r_plus_y, r_minus_y):
     Below the axis it is 2 asin(√((r + y)/(2r))), above it π - 2 asin(√((r - y)/(2r))):
     the argument of the asin stays small where acos itself would be ill-conditioned.
     """
-    with np.errstate(divide="ignore", invalid="ignore"):
-        two_r = np.where(r > 0, 2.0 * r, 1.0)
-        low = 2.0 * np.arcsin(np.sqrt(np.clip(r_plus_y / two_r, 0.0, 1.0)))
-        high = PI - 2.0 * np.arcsin(np.sqrt(np.clip(r_minus_y / two_r, 0.0, 1.0)))
-    return np.where(r > 0, np.where(r_plus_y <= r_minus_y, low, high), 0.0)
+    below = r_plus_y <= r_minus_y
+    small = np.minimum(r_plus_y, r_minus_y)
+    q = np.divide(small, 2.0 * r, out=np.zeros(np.broadcast(small, r).shape), where=r > 0)
+    a = 2.0 * np.arcsin(np.sqrt(np.clip(q, 0.0, 1.0)))
+    return np.where(below, a, PI - a) * (r > 0)
 
 
 def segment_area(r, y, r_plus_y=None, r_minus_y=None):
@@ -525,7 +525,7 @@ class HorizontalLevels:
 def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequence[float]] = None,
                       pieces: Optional[HorizontalPieces] = None, rel_tol: float = 1e-11,
                       order: int = 8, max_rounds: int = 30, max_jobs: int = 3_000_000,
-                      chunk: int = 60_000) -> HorizontalLevels:
+                      chunk: int = 4096) -> HorizontalLevels:
     """Volume and wetted area at each liquid depth, the axis horizontal.
 
     Parameters
@@ -588,10 +588,15 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         yy = y[None, :]
         dz, dr = z1 - z0, r1 - r0
         length = np.hypot(dz, dr)
+        # S, F and the wetted arc at each distinct end radius once (lines share their ends).
+        radii, where_ = np.unique(np.concatenate([pc.line[:, 1], pc.line[:, 3]]),
+                                  return_inverse=True)
+        ru = radii[:, None]
         top = (2.0 * Rm - d)[None, :]           # r_max - y: the height left above the liquid
-        rpy0, rpy1 = (r0 - Rm) + d[None, :], (r1 - Rm) + d[None, :]
-        rmy0, rmy1 = (r0 - Rm) + top, (r1 - Rm) + top
-        s0, s1 = segment_area(r0, yy, rpy0, rmy0), segment_area(r1, yy, rpy1, rmy1)
+        rpy, rmy = (ru - Rm) + d[None, :], (ru - Rm) + top
+        S_u = segment_area(ru, yy, rpy, rmy)
+        i0, i1 = where_[:len(pc.line)], where_[len(pc.line):]
+        s0, s1 = S_u[i0], S_u[i1]
         cyl = (dr == 0)
         radial = (dz == 0)
         cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
@@ -599,11 +604,14 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         with np.errstate(divide="ignore", invalid="ignore"):
             ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
             lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
-        G1 = segment_area_integral(r1, yy)
-        G0 = segment_area_integral(r0, yy)
-        vol = np.where(cyl, s0 * dz, 0.0) + np.where(cone, ratio * (G1 - G0), 0.0)
-        area = (np.where(cyl, wetted_arc(r0, yy, rpy0, rmy0) * length, 0.0)
-                + np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0))
+        vol = np.where(cyl, s0 * dz, 0.0)
+        if cone.any():
+            F_u = segment_area_integral(ru, yy)
+            vol = vol + np.where(cone, ratio * (F_u[i1] - F_u[i0]), 0.0)
+        area = np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0)
+        if cyl.any():
+            W_u = wetted_arc(ru, yy, rpy, rmy)
+            area = area + np.where(cyl, W_u[i0] * length, 0.0)
         V += (-f * vol).sum(axis=0)
         A += area.sum(axis=0)
         # Nearly flat cones: quadrature, split where the level is tangent.
@@ -648,10 +656,14 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         for start in range(0, len(jobs), chunk):
             part = jobs.take(slice(start, start + chunk))
             cosine = part.mapping == COSINE
-            v, a, ev, ea = (np.empty(len(part)) for _ in range(4))
-            for sel, n in ((~cosine, order), (cosine, 2 * order)):
-                if sel.any():
-                    v[sel], a[sel], ev[sel], ea[sel] = _evaluate_jobs(part.take(sel), pc, y, d, n)
+            if not cosine.any():
+                v, a, ev, ea = _evaluate_jobs(part, pc, y, d, order)
+            else:
+                v, a, ev, ea = (np.empty(len(part)) for _ in range(4))
+                for sel, n in ((~cosine, order), (cosine, 2 * order)):
+                    if sel.any():
+                        v[sel], a[sel], ev[sel], ea[sel] = _evaluate_jobs(part.take(sel), pc, y,
+                                                                          d, n)
             fac = np.empty(len(part))
             for kind, arr in enumerate(factors):
                 m = part.kind == kind
