@@ -342,6 +342,9 @@ def register(app: typer.Typer) -> None:
         Horizontal: level = depth above the lowest inside point. JSON: a list
         of rows with level, volume, percent, wetted_area, volume_error, the
         units, orientation, capacity and caution.
+
+        Tables are geometry only; tables for custody transfer need certified
+        calibration.
         """
         code = run_levels(profile, orientation, axis, step, count, at, volume, percent,
                           level_unit, volume_unit, area_unit, units, as_json, csv_file,

@@ -283,14 +283,18 @@ def _print(s, u, orientation, metal_label, liquid_label, files, name, descriptio
     t.add_column("head")
     t.add_column("kind")
     t.add_column(f"depth, {u.length}", justify="right")
-    t.add_column(f"volume beyond the tangent line, {u.volume}", justify="right")
+    walled = any(h.depth_outside is not None for h in s.heads)
+    if walled:
+        t.add_column(f"outside, {u.length}", justify="right")
+    t.add_column(f"volume, {u.volume}", justify="right")
     t.add_column(f"inside area, {u.area}", justify="right")
     for h in s.heads:
-        depth = f(h.depth * L)
-        if h.depth_outside is not None:
-            depth += f" (outside {f(h.depth_outside * L)})"
-        t.add_row(h.which, h.spec.describe(d.unit), depth, f(h.volume * V), f(h.inside_area * A))
+        cells = [h.which, h.spec.describe(d.unit), f(h.depth * L)]
+        if walled:
+            cells.append(f(h.depth_outside * L))
+        t.add_row(*cells, f(h.volume * V), f(h.inside_area * A))
     con.print(t)
+    con.print("heads: depth and volume beyond the tangent line (where the head meets the shell)")
     con.print()
     q = Table(show_edge=False, pad_edge=False)
     q.add_column("quantity")
@@ -401,11 +405,21 @@ def register(app: typer.Typer) -> None:
     ) -> None:
         """Build a vessel from diameter, shell length and heads; write its profile; summarise.
 
+        Heads: KIND or KIND:key=value,... with lengths in --units or % of the
+        diameter: flat, hemispherical, ellipsoidal (2:1), torispherical (crown D,
+        knuckle 6 % D; crown= and knuckle= to change them), torispherical-10
+        (crown D, knuckle 10 % D: DIN 28011 proportions), torispherical-80 (crown
+        80 % D, knuckle 15.4 % D: DIN 28013 proportions), conical:angle=A (half-angle
+        in degrees; knuckle= optional). Example: --head-1 conical:angle=30,knuckle=50.
+
         The profile written (--output) is the liquid space: the inside wall from
         the axis round to the axis, closed along the axis, ready for revolve
         measure and revolve levels. Summary: capacity, each head's depth and
         volume, inside and outside surface, metal volume and mass, mass full,
         centres of mass empty and full (along the axis from head 1's tangent line).
+
+        Geometry only: wall and head thickness for pressure, supports and nozzles
+        are for the applicable code and a licensed engineer.
         """
         code = run_vessel(diameter, length, head, head_1, head_2, units, dimensions, thickness,
                           material, density, liquid, liquid_density, orientation, output,
