@@ -75,6 +75,38 @@ def load(path: str, unit: Optional[str] = None):
     return load_profile(path, unit=unit)
 
 
+def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[float],
+                            units: Optional[str]):
+    """Load a profile and build its revolution from the options, the file, then the defaults.
+
+    Returns ``(document, revolution)``; errors name the option or the file line.
+
+    >>> import os, tempfile
+    >>> path = os.path.join(tempfile.mkdtemp(), "p.txt")
+    >>> with open(path, "w") as f:
+    ...     _ = f.write("0,1\\n2,1\\n2,3\\n0,3\\n")
+    >>> doc, rev = revolution_from_options(path, "y", 90.0, "cm")
+    >>> rev.angle_degrees, rev.axis.direction, doc.profile.unit
+    (90.0, (0.0, 1.0), 'cm')
+    >>> revolution_from_options(path, None, 400.0, None)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: --angle: the revolution angle must be above 0 and at most 360 degrees, got 400
+    """
+    from revolve.geometry.profile import Revolution
+
+    doc = load(profile, unit=units)
+    ax = parse_axis(axis) or doc.axis or parse_axis("x")
+    ang = angle if angle is not None else (doc.angle_degrees if doc.angle_degrees is not None else 360.0)
+    try:
+        rev = Revolution(doc.profile, ax, ang)
+    except RevolveError as e:
+        raise e.located(file=None if angle is not None else doc.file,
+                        line=None if angle is not None else doc.line_of("angle"),
+                        place="--angle" if angle is not None else "angle")
+    return doc, rev
+
+
 def resolve_density(material: Optional[str], density: Optional[str], doc=None):
     """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
 

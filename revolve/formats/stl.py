@@ -28,7 +28,6 @@ True
 
 from __future__ import annotations
 
-import os
 from typing import Optional
 
 import numpy as np

@@ -406,7 +406,7 @@ def parse_transform(text: str) -> Affine:
         while s.peek() != ")":
             if args:
                 s.skip_comma_wsp()
-            args.append(s.number(f"a number or \")\"", name))
+            args.append(s.number("a number or \")\"", name))
             s.skip_wsp()
             if s.at_end():
                 raise PathDataError(f'the transform "{name}" is not closed by ")"', s.pos + 1)

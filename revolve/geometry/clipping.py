@@ -69,7 +69,7 @@ import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.segments import Arc, Curve, Line, Segment
-from revolve.geometry.slicing import gauss_legendre
+from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
 
 #: Face name given to the straight cuts along the level (the liquid surface of a vessel).
 CUT_FACE = "cut at the level"
@@ -231,20 +231,8 @@ def axial_pieces(prep: PreparedProfile, loop_factors: Sequence[float]) -> AxialP
 # -- clipping one level, segment by segment -------------------------------------------
 
 def _curve_parameter_at_z(curve: Curve, ta: float, tb: float, z: np.ndarray) -> np.ndarray:
-    """Parameters where a curve monotone in z on [ta, tb] reaches each z (vectorised bisection)."""
-    z = np.asarray(z, dtype=float)
-    za = float(curve.evaluate(np.array([ta]))[0][0])
-    zb = float(curve.evaluate(np.array([tb]))[0][0])
-    rising = zb > za
-    lo = np.full(z.shape, ta, dtype=float)
-    hi = np.full(z.shape, tb, dtype=float)
-    for _ in range(70):
-        mid = 0.5 * (lo + hi)
-        zm = curve.evaluate(mid)[0]
-        below = (zm < z) if rising else (zm > z)
-        lo = np.where(below, mid, lo)
-        hi = np.where(below, hi, mid)
-    return 0.5 * (lo + hi)
+    """Parameters where a curve monotone in z on [ta, tb] reaches each z."""
+    return curve_parameter_at(curve, ta, tb, z, coordinate=0)
 
 
 def _arc_angle_at_z(cz, cr, R, a_from, a_to, z):

@@ -74,7 +74,7 @@ from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, split_arc,
                                        split_curve, section_loop_factors)
 from revolve.geometry.segments import Arc, Curve, Line
-from revolve.geometry.slicing import gauss_legendre
+from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
 
 PI = math.pi
 #: Steepest cone (|Δz/Δr|) integrated in closed form; steeper ones go to quadrature.
@@ -492,18 +492,7 @@ def _arc_angle_at_r(cz, cr, R, a, b, rr):
 
 
 def _curve_parameter_at_r(curve: Curve, ta: float, tb: float, rr: np.ndarray) -> np.ndarray:
-    ra = float(curve.evaluate(np.array([ta]))[1][0])
-    rb = float(curve.evaluate(np.array([tb]))[1][0])
-    rising = rb > ra
-    lo = np.full(rr.shape, ta, dtype=float)
-    hi = np.full(rr.shape, tb, dtype=float)
-    for _ in range(70):
-        mid = 0.5 * (lo + hi)
-        rm = curve.evaluate(mid)[1]
-        below = (rm < rr) if rising else (rm > rr)
-        lo = np.where(below, mid, lo)
-        hi = np.where(below, hi, mid)
-    return 0.5 * (lo + hi)
+    return curve_parameter_at(curve, ta, tb, rr, coordinate=1)
 
 
 @dataclass(frozen=True)

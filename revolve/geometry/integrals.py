@@ -44,7 +44,7 @@ from typing import Sequence
 
 import numpy as np
 
-from revolve.geometry.segments import Arc, Curve, Line, Segment
+from revolve.geometry.segments import Curve, Segment
 
 #: Column names of :attr:`SegmentIntegrals.values`.
 COLUMNS = ("length", "length_x", "length_y",

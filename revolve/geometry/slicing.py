@@ -145,18 +145,36 @@ def _radius_at(piece: Piece, z: np.ndarray) -> np.ndarray:
         cz, cr, R, s = piece.params
         return cr + s * np.sqrt(np.maximum(R * R - (z - cz) ** 2, 0.0))
     curve, ta, tb = piece.params
-    # Invert the monotone z(t) by bisection, vectorised over the slice positions.
-    za = float(curve.evaluate(np.array([ta]))[0][0])
-    lo = np.full(z.shape, ta, dtype=float)
-    hi = np.full(z.shape, tb, dtype=float)
-    rising = float(curve.evaluate(np.array([tb]))[0][0]) > za
-    for _ in range(64):
+    return curve.evaluate(curve_parameter_at(curve, ta, tb, z, coordinate=0))[1]
+
+
+def curve_parameter_at(curve: Curve, ta: float, tb: float, targets, coordinate: int = 0,
+                       iterations: int = 70) -> np.ndarray:
+    """Parameters where a curve, monotone in one coordinate on [ta, tb], reaches each target.
+
+    ``coordinate`` 0 inverts x(t) (the axial z in the frame), 1 inverts y(t)
+    (the radius). Vectorised bisection over the targets.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = Curve(t ** 2, t, 0.0, 2.0)
+    >>> [round(float(v), 12) for v in curve_parameter_at(c, 0.0, 2.0, np.array([1.0, 4.0]))]
+    [1.0, 2.0]
+    >>> [round(float(v), 12) for v in curve_parameter_at(c, 0.0, 2.0, np.array([0.5]), coordinate=1)]
+    [0.5]
+    """
+    targets = np.asarray(targets, dtype=float)
+    start = float(curve.evaluate(np.array([ta]))[coordinate][0])
+    rising = float(curve.evaluate(np.array([tb]))[coordinate][0]) > start
+    lo = np.full(targets.shape, ta, dtype=float)
+    hi = np.full(targets.shape, tb, dtype=float)
+    for _ in range(iterations):
         mid = 0.5 * (lo + hi)
-        zm = curve.evaluate(mid)[0]
-        below = (zm < z) if rising else (zm > z)
+        value = curve.evaluate(mid)[coordinate]
+        below = (value < targets) if rising else (value > targets)
         lo = np.where(below, mid, lo)
         hi = np.where(below, hi, mid)
-    return curve.evaluate(0.5 * (lo + hi))[1]
+    return 0.5 * (lo + hi)
 
 
 def _interval_sums(pieces: Sequence[Piece], a: np.ndarray, b: np.ndarray, n: int,

@@ -134,19 +134,9 @@ class _Part:
 def _measure(path, axis, angle, unit, quantity):
     from revolve import units
     from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Revolution
     from revolve.jobs import coating
 
-    doc = common.load(path, unit=unit)
-    ax = common.parse_axis(axis) or doc.axis or common.parse_axis("x")
-    ang = angle if angle is not None else (doc.angle_degrees if doc.angle_degrees is not None
-                                           else 360.0)
-    try:
-        rev = Revolution(doc.profile, ax, ang)
-    except RevolveError as e:
-        raise e.located(file=None if angle is not None else doc.file,
-                        line=None if angle is not None else doc.line_of("angle"),
-                        place="--angle" if angle is not None else "angle")
+    doc, rev = common.revolution_from_options(path, axis, angle, unit)
     m = measure(rev)
     part = _Part(doc, m, coating.surfaces(m), quantity)
     part.si_area = units.factor(doc.profile.unit, "length") ** 2

@@ -135,7 +135,7 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
         space = jl.liquid_space(doc.profile, ax, angle, orientation)
     except RevolveError as e:
         raise e.located(file=doc.file, line=doc.line_of(e.place) if e.place else None)
-    L, V, A = u.length_factor, u.volume_factor, u.area_factor
+    L, V = u.length_factor, u.volume_factor
     full = space.height * L
     asked = None
     if mode == "--step":

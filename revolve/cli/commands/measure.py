@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from typing import List, Optional
+from typing import Optional
 
 import typer
 
@@ -141,21 +141,12 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
                 length_unit: Optional[str], area_unit: Optional[str], volume_unit: Optional[str],
                 mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None) -> int:
     from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Revolution
-
     if csv_path is not None:
         from revolve.cli.tables import check_table_path
         check_table_path(csv_path)
 
-    doc = common.load(profile, unit=units)
-    ax = common.parse_axis(axis) or doc.axis or common.parse_axis("x")
-    ang = angle if angle is not None else (doc.angle_degrees if doc.angle_degrees is not None else 360.0)
-    try:
-        rev = Revolution(doc.profile, ax, ang)
-    except RevolveError as e:
-        raise e.located(file=None if angle is not None else doc.file,
-                        line=None if angle is not None else doc.line_of("angle"),
-                        place="--angle" if angle is not None else "angle")
+    doc, rev = common.revolution_from_options(profile, axis, angle, units)
+    ax, ang = rev.axis, rev.angle_degrees
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
     # Density is kg/m³; the engine works in the profile's unit: kg per (unit)³.

@@ -23,7 +23,7 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
                 mass_unit: Optional[str]) -> int:
     import os
 
-    from revolve.cli.commands.mesh import chord_tolerance, check_output, revolution_from_options
+    from revolve.cli.commands.mesh import chord_tolerance, check_output
     from revolve.errors import RevolveError
 
     check_output(output, (".png", ".svg"), "pictures")
@@ -32,7 +32,7 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
             raise RevolveError(f"{name}: give a size from 200 to 10000 pixels, got {value}")
     if not 30 <= dpi <= 1200:
         raise RevolveError(f"--dpi: give 30 to 1200 pixels per inch, got {dpi}")
-    doc, rev = revolution_from_options(profile, axis, angle, units)
+    doc, rev = common.revolution_from_options(profile, axis, angle, units)
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
 
