@@ -29,9 +29,9 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
     check_output(output, (".png", ".svg"), "pictures")
     for name, value in (("--width", width), ("--height", height)):
         if not 200 <= value <= 10000:
-            raise RevolveError(f"{name}: give a size from 200 to 10000 pixels, got {value}")
+            raise RevolveError(f"give a size from 200 to 10000 pixels, got {value}", option=name)
     if not 30 <= dpi <= 1200:
-        raise RevolveError(f"--dpi: give 30 to 1200 pixels per inch, got {dpi}")
+        raise RevolveError(f"give 30 to 1200 pixels per inch, got {dpi}", option="--dpi")
     doc, rev = common.revolution_from_options(profile, axis, angle, units)
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
