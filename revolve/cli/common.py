@@ -44,7 +44,7 @@ CAUTIONS = {
 #: Largest size of a number in ``--axis``: a coordinate whose cube still fits a float with room.
 AXIS_LIMIT = 1e99
 
-_AXIS_NUMBER = re.compile(r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,4})?")
+_AXIS_NUMBER = re.compile(r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?")
 
 
 def parse_axis(text: Optional[str]) -> Optional[Axis]:
@@ -81,11 +81,21 @@ def parse_axis(text: Optional[str]) -> Optional[Axis]:
                            option="--axis")
     vals = []
     for name, part in zip(("X0", "Y0", "DX", "DY"), parts):
-        if len(part) > 40 or not _AXIS_NUMBER.fullmatch(part):
+        number = _AXIS_NUMBER.fullmatch(part) if len(part) <= 40 else None
+        if number is None:
             raise RevolveError(f"{name} = {quoted(part)} is not a number; give four numbers "
                                f"X0,Y0,DX,DY such as 0,0,1,0", option="--axis")
-        value = Fraction(part)  # safe: the exponent has at most four digits
-        if abs(value) > AXIS_LIMIT:
+        exponent = number.group(1)
+        # Fraction would build 10**exponent exactly: refuse absurd exponents before it does.
+        if exponent is not None and abs(int(exponent)) > 400:
+            if float(part[:number.start(1) - 1]) == 0:
+                part = "0"
+            elif int(exponent) < 0:
+                raise RevolveError(f"{name} = {part} is too small to tell from 0; write 0",
+                                   option="--axis")
+        huge = part != "0" and exponent is not None and int(exponent) > 400
+        value = None if huge else Fraction(part)
+        if huge or abs(value) > AXIS_LIMIT:
             raise RevolveError(f"{name} = {part} is out of range; each number must be between "
                                f"{-AXIS_LIMIT:g} and {AXIS_LIMIT:g}", option="--axis")
         vals.append(value)

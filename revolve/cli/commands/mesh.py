@@ -14,10 +14,13 @@ from typing import Optional
 import typer
 
 from revolve.cli import common
-from revolve.errors import FormatError, RevolveError
+from revolve.errors import FormatError, RevolveError, quoted
 
 #: Default chord tolerance as a fraction of the profile's size (its bounding-box diagonal).
 DEFAULT_RELATIVE_TOLERANCE = 1e-3
+#: Finest chord tolerance, as a fraction of the size: an STL file's 32-bit floats keep about
+#: 7 significant digits (a relative step of 1.2e-7), so a finer promise could not be kept.
+FINEST_RELATIVE_TOLERANCE = 1e-6
 
 
 def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: float) -> float:
@@ -30,7 +33,11 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
     >>> chord_tolerance("-1", "mm", "mm", 1.0)
     Traceback (most recent call last):
     ...
-    revolve.errors.RevolveError: --tolerance: the chord tolerance must be a positive length, got -1
+    revolve.errors.RevolveError: --tolerance: the chord tolerance must be a positive length, got '-1'
+    >>> chord_tolerance("1e-300", "mm", "mm", 100.0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --tolerance: an STL file keeps about 7 significant digits, so a chord tolerance below 1e-06 of the part's size cannot be kept; give at least 0.0001 mm
     """
     import math
 
@@ -45,7 +52,14 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
         raise common.fail_unit("--tolerance", e)
     value = si / unit_table.factor(profile_unit, "length")
     if not (math.isfinite(value) and value > 0):
-        raise RevolveError(f"--tolerance: the chord tolerance must be a positive length, got {text}")
+        raise RevolveError(f"the chord tolerance must be a positive length, got {quoted(text)}",
+                           option="--tolerance")
+    finest = FINEST_RELATIVE_TOLERANCE * size
+    if value < finest:
+        shown = finest * unit_table.factor(profile_unit, "length") / unit_table.factor(unit, "length")
+        raise RevolveError(f"an STL file keeps about 7 significant digits, so a chord tolerance "
+                           f"below {FINEST_RELATIVE_TOLERANCE:g} of the part's size cannot be "
+                           f"kept; give at least {shown:.3g} {unit}", option="--tolerance")
     return value
 
 

@@ -15,6 +15,10 @@ import typer
 
 from revolve.cli import common
 
+#: Finest chord tolerance a picture takes, as a fraction of the part's size: finer detail is
+#: far below a pixel, and the mesh (and the time to draw it) would grow without bound.
+FINEST_RELATIVE_TOLERANCE = 1 / 2000
+
 
 def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], angle: Optional[float],
                 units: Optional[str], material: Optional[str], density: Optional[str],
@@ -47,6 +51,13 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
             from revolve.geometry.checks import prepare
             size = prepare(rev.profile, rev.axis).size
             tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size)
+            finest = size * FINEST_RELATIVE_TOLERANCE
+            if tol < finest:
+                raise RevolveError(f"a picture needs no finer chord tolerance than "
+                                   f"{FINEST_RELATIVE_TOLERANCE:g} of the part's size, here "
+                                   f"{common.fmt(finest * u.length_factor, 3)} {u.length}; "
+                                   f"give that or more (revolve mesh makes finer meshes)",
+                                   option="--tolerance")
         mesh = render.solid_picture(rev, m, output, units=u, title=title, density_label=dens_label,
                                     width=width, height=height, dpi=dpi, tolerance=tol)
         detail = f"3-D, {len(mesh.triangles):,} triangles"
@@ -85,7 +96,8 @@ def register(app: typer.Typer) -> None:
         dpi: int = typer.Option(100, "--dpi", help="Pixels per inch: the printed size (SVG in points); the "
                                                    "drawing looks the same."),
         tolerance: Optional[str] = typer.Option(None, "--tolerance",
-                                                help="With --3d: chord tolerance of the mesh drawn "
+                                                help="With --3d: chord tolerance of the mesh drawn, "
+                                                     "at least 1/2000 of the part's size "
                                                      "(default: chosen for the picture)."),
         length_unit: Optional[str] = typer.Option(None, "--length-unit", help="Length unit shown."),
         area_unit: Optional[str] = typer.Option(None, "--area-unit", help="Area unit shown."),
