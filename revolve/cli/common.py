@@ -107,9 +107,21 @@ def parse_axis(text: Optional[str]) -> Optional[Axis]:
 
 
 def load(path: str, unit: Optional[str] = None):
-    """Read a profile document (any supported format)."""
+    """Read a profile document (any supported format); ``unit`` comes from ``--units``.
+
+    >>> load("p.txt", unit="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --units: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    """
+    from revolve import units
     from revolve.formats import load_profile
 
+    if unit is not None:
+        try:
+            units.factor(unit, "length")
+        except UnitError as e:
+            raise e.located(option="--units")
     return load_profile(path, unit=unit)
 
 

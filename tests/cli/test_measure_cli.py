@@ -278,3 +278,9 @@ def test_option_errors_name_the_option(tmp_path, capsys, args, start):
     assert code == 2 and out == ""
     assert err.count("\n") == 1 and err.startswith("revolve: error: " + start), err
     assert sorted(p.name for p in tmp_path.iterdir()) == ["sq.toml"]
+
+
+def test_units_option_is_named(tmp_path, capsys):
+    f = write(tmp_path, "p.txt", "0,1\n2,1\n2,3\n0,3\n")
+    code, out, err = run(["measure", f, "--units", "gallon"], capsys)
+    assert code == 2 and err.startswith("revolve: error: --units: 'gallon' is ambiguous"), err

@@ -166,8 +166,8 @@ def register(app: typer.Typer) -> None:
         tolerance: Optional[str] = typer.Option(
             None, "--tolerance",
             help="Chord tolerance: the largest distance between the true surface and its "
-                 "triangles, e.g. 0.01 or '0.001 in' (a bare number is in the STL's length unit). "
-                 "Default: 1/1000 of the profile's size."),
+                 "triangles, e.g. 0.01 or '0.001 in' (a bare number is in the STL's length unit), "
+                 "at least 1e-6 of the profile's size. Default: 1/1000 of the profile's size."),
         axis: Optional[str] = typer.Option(None, "--axis", help="x, y, or X0,Y0,DX,DY. Default: "
                                                                 "the file's axis, else x."),
         angle: Optional[float] = typer.Option(None, "--angle", help="Revolution angle in degrees, "

@@ -89,7 +89,8 @@ def register(app: typer.Typer) -> None:
                                                                   "for files that do not say."),
         material: Optional[str] = typer.Option(None, "--material", help="Material name, for the "
                                                                          "mass in the caption."),
-        density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3', "
+        density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3' "
+                                                                       "(a bare number is kg/m³), "
                                                                        "for the mass in the caption."),
         width: int = typer.Option(1200, "--width", help="Width in pixels."),
         height: int = typer.Option(800, "--height", help="Height in pixels."),

@@ -359,7 +359,8 @@ def register(app: typer.Typer) -> None:
         material: Optional[str] = typer.Option(None, "--material", help="Metal, from the "
                                                                         "material table."),
         density: Optional[str] = typer.Option(None, "--density", help="Metal density, e.g. "
-                                                                      "'7850 kg/m^3'."),
+                                                                      "'7850 kg/m^3' (a bare "
+                                                                      "number is kg/m³)."),
         liquid: Optional[str] = typer.Option(None, "--liquid", help="Liquid from the material "
                                                                     "table, e.g. water."),
         liquid_density: Optional[str] = typer.Option(None, "--liquid-density",
