@@ -23,8 +23,13 @@ DEFAULT_RELATIVE_TOLERANCE = 1e-3
 FINEST_RELATIVE_TOLERANCE = 1e-6
 
 
-def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: float) -> float:
+def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: float,
+                    finest: Optional[float] = None,
+                    why: str = "an STL file keeps about 7 significant digits") -> float:
     """The chord tolerance in the profile's unit, from ``--tolerance`` (a bare number is in ``unit``).
+
+    A tolerance below ``finest`` times the part's size (default
+    :data:`FINEST_RELATIVE_TOLERANCE`) is refused, saying ``why``.
 
     >>> chord_tolerance("0.5", "mm", "cm", 10.0)
     0.05
@@ -37,7 +42,7 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
     >>> chord_tolerance("1e-300", "mm", "mm", 100.0)
     Traceback (most recent call last):
     ...
-    revolve.errors.RevolveError: --tolerance: an STL file keeps about 7 significant digits, so a chord tolerance below 1e-06 of the part's size cannot be kept; give at least 0.0001 mm
+    revolve.errors.RevolveError: --tolerance: an STL file keeps about 7 significant digits: give at least 0.0001 mm (1e-06 of the part's size)
     """
     import math
 
@@ -54,12 +59,12 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
     if not (math.isfinite(value) and value > 0):
         raise RevolveError(f"the chord tolerance must be a positive length, got {quoted(text)}",
                            option="--tolerance")
-    finest = FINEST_RELATIVE_TOLERANCE * size
-    if value < finest:
-        shown = finest * unit_table.factor(profile_unit, "length") / unit_table.factor(unit, "length")
-        raise RevolveError(f"an STL file keeps about 7 significant digits, so a chord tolerance "
-                           f"below {FINEST_RELATIVE_TOLERANCE:g} of the part's size cannot be "
-                           f"kept; give at least {shown:.3g} {unit}", option="--tolerance")
+    relative = FINEST_RELATIVE_TOLERANCE if finest is None else finest
+    if value < relative * size:
+        shown = relative * size * unit_table.factor(profile_unit, "length") \
+            / unit_table.factor(unit, "length")
+        raise RevolveError(f"{why}: give at least {shown:.3g} {unit} ({relative:g} of the "
+                           f"part's size)", option="--tolerance")
     return value
 
 

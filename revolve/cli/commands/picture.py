@@ -50,14 +50,10 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
         if tolerance is not None:
             from revolve.geometry.checks import prepare
             size = prepare(rev.profile, rev.axis).size
-            tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size)
-            finest = size * FINEST_RELATIVE_TOLERANCE
-            if tol < finest:
-                raise RevolveError(f"a picture needs no finer chord tolerance than "
-                                   f"{FINEST_RELATIVE_TOLERANCE:g} of the part's size, here "
-                                   f"{common.fmt(finest * u.length_factor, 3)} {u.length}; "
-                                   f"give that or more (revolve mesh makes finer meshes)",
-                                   option="--tolerance")
+            tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size,
+                                  finest=FINEST_RELATIVE_TOLERANCE,
+                                  why="a picture needs no finer chord tolerance (revolve mesh "
+                                      "makes finer meshes)")
         mesh = render.solid_picture(rev, m, output, units=u, title=title, density_label=dens_label,
                                     width=width, height=height, dpi=dpi, tolerance=tol)
         detail = f"3-D, {len(mesh.triangles):,} triangles"
