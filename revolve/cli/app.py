@@ -131,6 +131,9 @@ def usage_message(exc) -> str:
     "'--x\\\\ny': no such option"
     >>> usage_message(UsageError("No such command 'mash'. Did you mean 'mesh'?"))
     "no such command 'mash'; did you mean 'mesh'?"
+    >>> from typer._click.exceptions import BadParameter
+    >>> usage_message(BadParameter("'z' is not one of 'a', 'b'.", param_hint="'--kind'"))
+    "--kind: 'z' is not one of 'a', 'b'"
     """
     import re
 
@@ -155,7 +158,7 @@ def usage_message(exc) -> str:
         name = _option_name(exc.param)
         if name is None and exc.param_hint:
             hint = exc.param_hint
-            name = hint if isinstance(hint, str) else " / ".join(hint)
+            name = (hint if isinstance(hint, str) else " / ".join(hint)).strip("'\"")
         message = _number_message(exc.message) or exc.message.rstrip(".")
         return f"{name}: {message}" if name else message
     if isinstance(exc, ce.BadOptionUsage):
