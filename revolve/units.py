@@ -51,7 +51,7 @@ import re
 from dataclasses import dataclass
 from typing import Any, Optional
 
-from revolve.errors import UnitError
+from revolve.errors import UnitError, quoted
 
 __all__ = [
     "KINDS",
@@ -315,7 +315,7 @@ def _refuse_ambiguous(unit: str, key: str) -> None:
     singular = bare[:-1] if bare.endswith("s") else bare
     for word in (bare, singular):
         if word in _AMBIGUOUS:
-            raise UnitError(f"'{unit}' is ambiguous: {_AMBIGUOUS[word]}")
+            raise UnitError(f"{quoted(unit)} is ambiguous: {_AMBIGUOUS[word]}")
 
 
 _POWER_OP = re.compile(r"\^|\*\*")
@@ -338,7 +338,7 @@ def _guard_for_pint(text: str, what: str) -> None:
                 or exponent is None
                 or _POWER_OP.match(after[exponent.end():].lstrip())):
             raise UnitError(f"{what} has a power that is not a single digit "
-                            f"on a unit name: '{text.strip()}'")
+                            f"on a unit name: {quoted(text.strip())}")
 
 
 # pint's name for each fast-table unit. Words of the fast table are replaced
@@ -374,7 +374,7 @@ def _pint_text(unit: str, what: str) -> str:
 
 def _pint_factor(unit: str, kind: str) -> float:
     """SI factor of a unit only pint knows; checks the dimension."""
-    text = _pint_text(unit, f"unit '{unit}'")
+    text = _pint_text(unit, f"unit {quoted(unit)}")
     cached = _PINT_CACHE.get((text, kind))
     if cached is not None:
         return cached
@@ -382,19 +382,19 @@ def _pint_factor(unit: str, kind: str) -> float:
     try:
         parsed = ureg.parse_units(text)
     except Exception:  # pint raises many kinds for junk input
-        raise UnitError(f"unknown {kind} unit '{unit}'"
+        raise UnitError(f"unknown {kind} unit {quoted(unit)}"
                         + _suggest(unit, kind)) from None
     if parsed.dimensionality != ureg.get_dimensionality(_PINT_DIMENSION[kind]):
         dim = str(parsed.dimensionality)
-        raise UnitError(f"'{unit}' is not {_a(kind)} unit (its dimension is "
+        raise UnitError(f"{quoted(unit)} is not {_a(kind)} unit (its dimension is "
                         f"{dim if dim != 'dimensionless' else 'none'}); "
                         f"{kind} units include {_COMMON[kind]}")
     try:
         value = float(ureg.Quantity(1.0, parsed).to(_PINT_SI[kind]).magnitude)
     except Exception:
-        raise UnitError(f"cannot convert '{unit}' to {SI_UNITS[kind]}") from None
+        raise UnitError(f"cannot convert {quoted(unit)} to {SI_UNITS[kind]}") from None
     if not math.isfinite(value) or value <= 0.0:
-        raise UnitError(f"'{unit}' has no usable factor to {SI_UNITS[kind]}")
+        raise UnitError(f"{quoted(unit)} has no usable factor to {SI_UNITS[kind]}")
     _PINT_CACHE[(text, kind)] = value
     return value
 
@@ -411,7 +411,7 @@ def _fast(unit: str, kind: str) -> Optional[_Unit]:
         _refuse_ambiguous(unit, key)
         return None
     if found.kind != kind:
-        raise UnitError(f"'{unit.strip()}' is {_a(found.kind)} unit, "
+        raise UnitError(f"{quoted(unit.strip())} is {_a(found.kind)} unit, "
                         f"not {_a(kind)} unit")
     return found
 
@@ -543,27 +543,27 @@ def _parse_with_pint(text: str, kind: str) -> float:
     if not text.strip():
         raise UnitError(f"no {kind} given")
     if not any(c.isdigit() for c in text):
-        raise UnitError(f"'{text.strip()}' has no number; write it like "
+        raise UnitError(f"{quoted(text.strip())} has no number; write it like "
                         f"'2.5 {_example(kind)}'")
-    cleaned = _pint_text(text, f"quantity '{text.strip()}'")
+    cleaned = _pint_text(text, f"quantity {quoted(text.strip())}")
     ureg = registry()
     try:
         quantity = ureg.parse_expression(cleaned)
     except Exception:
-        raise UnitError(f"cannot read '{text.strip()}' as {_a(kind)}; write a "
+        raise UnitError(f"cannot read {quoted(text.strip())} as {_a(kind)}; write a "
                         f"number and a unit, like '2.5 {_example(kind)}'"
                         ) from None
     if not hasattr(quantity, "units") or quantity.dimensionless:
-        raise UnitError(f"'{text.strip()}' has no unit; write it like "
+        raise UnitError(f"{quoted(text.strip())} has no unit; write it like "
                         f"'2.5 {_example(kind)}'")
     if quantity.dimensionality != ureg.get_dimensionality(
             _PINT_DIMENSION[kind]):
-        raise UnitError(f"'{text.strip()}' is not {_a(kind)} (its dimension is "
+        raise UnitError(f"{quoted(text.strip())} is not {_a(kind)} (its dimension is "
                         f"{quantity.dimensionality})")
     try:
         return float(quantity.to(_PINT_SI[kind]).magnitude)
     except Exception:
-        raise UnitError(f"cannot convert '{text.strip()}' to "
+        raise UnitError(f"cannot convert {quoted(text.strip())} to "
                         f"{SI_UNITS[kind]}") from None
 
 
@@ -628,11 +628,12 @@ def parse_quantity(text: str, kind: str,
         number, unit = match.groups()
         if not unit:
             if default_unit is None:
-                raise UnitError(f"'{text.strip()}' has no unit; write it like "
-                                f"'{number} {_example(kind)}'")
+                raise UnitError(f"{quoted(text.strip())} has no unit; write it like "
+                                f"'{number if len(number) <= 20 else 2.5} "
+                                f"{_example(kind)}'")
             unit = default_unit
         if unit[0] == "," and unit[1:2].isdigit():
-            raise UnitError(f"'{text.strip()}': write the decimal point as "
+            raise UnitError(f"{quoted(text.strip())}: write the decimal point as "
                             f"'.', and no thousands separator")
         found = _fast(unit, kind)
         if found is not None:
@@ -649,7 +650,7 @@ def parse_quantity(text: str, kind: str,
     else:
         value = _parse_with_pint(text, kind)
     if not math.isfinite(value):
-        raise UnitError(f"'{text.strip()}' is not a finite {kind}")
+        raise UnitError(f"{quoted(text.strip())} is not a finite {kind}")
     return value
 
 
@@ -694,8 +695,8 @@ def canonical(unit: str, kind: Optional[str] = None) -> str:
             _refuse_ambiguous(unit, key)
     if found is not None:
         return found.display
-    text = _pint_text(unit, f"unit '{unit}'")
+    text = _pint_text(unit, f"unit {quoted(unit)}")
     try:
         return f"{registry().parse_units(text):~P}"
     except Exception:
-        raise UnitError(f"unknown unit '{unit}'") from None
+        raise UnitError(f"unknown unit {quoted(unit)}") from None

@@ -390,3 +390,24 @@ def test_fallback_does_import_pint():
     modules = loaded_modules("import revolve.units as u\n"
                              "u.factor('furlong', 'length')\n")
     assert "pint" in modules
+
+
+# Family: unit text with line breaks, control characters or great length, as typed in an option.
+@pytest.mark.parametrize("call", [
+    lambda t: factor(t, "volume"), lambda t: canonical(t, "length"),
+    lambda t: parse_quantity(t, "density"), lambda t: parse_quantity("5 " + t, "length"),
+])
+@pytest.mark.parametrize("text", ["x\ny", "gal\rlon", "\x1b[31mmm", "q" * 5000, "1" * 5000 + "\n"])
+def test_messages_quote_what_was_typed_on_one_line(call, text):
+    with pytest.raises(UnitError) as caught:
+        call(text)
+    message = str(caught.value)
+    assert "\n" not in message and "\r" not in message and "\x1b" not in message
+    assert len(message) < 400, message  # long text is shortened, not repeated in full
+
+
+def test_bare_number_default_unit_for_densities():
+    # A bare density option is kg/m³ (README); without a default a bare number stays an error.
+    assert parse_quantity("7850", "density", default_unit="kg/m^3") == 7850.0
+    with pytest.raises(UnitError, match="has no unit"):
+        parse_quantity("7850", "density")

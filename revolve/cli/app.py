@@ -5,8 +5,26 @@ exposes ``register(app)``; modules are found automatically, so adding a
 command never edits this file. Command modules must import heavy libraries
 inside their functions: every module is imported at start-up.
 
-Errors caused by input (:class:`~revolve.errors.RevolveError`) are printed as
-one line on standard error with exit code 2 — never a traceback.
+Every error caused by input is printed as one line on standard error,
+``revolve: error: ...``, with exit code 2 -- never a traceback, never a box.
+That holds for the tool's own errors (:class:`~revolve.errors.RevolveError`)
+and for the command-line parser's (an unknown option, a missing argument, a
+value that is not a number), which :func:`usage_message` puts in the same
+form, naming the option. Anything the message carries from the user's input
+or a library is escaped so that it stays on one line.
+
+Examples
+--------
+>>> import contextlib, io
+>>> err = io.StringIO()
+>>> with contextlib.redirect_stderr(err):
+...     try:
+...         main(["measure", "part.txt", "--angel", "90"])
+...     except SystemExit as stop:
+...         print(stop.code)
+2
+>>> print(err.getvalue(), end="")
+revolve: error: --angel: no such option of 'revolve measure'; did you mean --angle?
 """
 
 from __future__ import annotations
@@ -14,13 +32,16 @@ from __future__ import annotations
 import importlib
 import pkgutil
 import sys
+from typing import Optional
 
 import typer
 
-from revolve.errors import RevolveError
+from revolve.errors import RevolveError, one_line, quoted
+
+PROGRAM = "revolve"
 
 app = typer.Typer(
-    name="revolve",
+    name=PROGRAM,
     help="Volumes, surfaces, masses and level tables of parts made by revolving a 2-D profile; "
          "every figure is cross-checked by a second, independent computation.",
     no_args_is_help=True,
@@ -41,24 +62,148 @@ def _register_commands() -> None:
             register(app)
 
 
+def _show_version(value: bool) -> None:
+    if value:
+        from revolve import __version__
+
+        print(f"{PROGRAM} {__version__}")
+        raise typer.Exit(0)
+
+
 @app.callback()
-def _root() -> None:
+def _root(
+    version: bool = typer.Option(False, "--version", is_eager=True, callback=_show_version,
+                                 help="Print the version and stop."),
+) -> None:
     """Volumes, surfaces, masses and level tables of parts made by revolving a 2-D profile."""
 
 
 _register_commands()
 
 
-def main(argv=None) -> None:
-    """Entry point of the console script: run the app, turning input errors into exit code 2."""
+def _option_name(param) -> Optional[str]:
+    """The name a user knows a parameter by: its long option, or an argument's metavar."""
+    if param is None:
+        return None
+    opts = list(getattr(param, "opts", []) or [])
+    if getattr(param, "param_type_name", "") == "argument" or not opts:
+        return (getattr(param, "name", None) or "argument").upper()
+    long = [o for o in opts if o.startswith("--")]
+    return max(long or opts, key=len)
+
+
+def _plain_option(text: str) -> str:
+    """An option name as typed: as it is when it looks like one, else quoted."""
+    if text.startswith("-") and len(text) <= 40 and text.isprintable() and " " not in text \
+            and "'" not in text:
+        return text
+    return quoted(text)
+
+
+def _number_message(message: str) -> Optional[str]:
+    """click's "'abc' is not a valid float." as our sentence, or None if it is another message."""
+    import ast
+    import re
+
+    match = re.fullmatch(r"(?s)(.*) is not a valid (float|integer|int)\.", message)
+    if match is None:
+        return None
     try:
-        app(args=argv)  # standalone: usage errors print and exit 2 by themselves
+        value = ast.literal_eval(match.group(1))  # a repr of a str, written by click
+    except (ValueError, SyntaxError, MemoryError, RecursionError):
+        return None
+    if not isinstance(value, str):
+        return None
+    what = "a number" if match.group(2) == "float" else "a whole number"
+    return f"give {what}, got {quoted(value)}"
+
+
+def usage_message(exc) -> str:
+    """One line, in the tool's own form, for an error of the command-line parser (click).
+
+    The option (or argument) concerned is named first, as in the tool's own
+    errors; the command's ``--help`` is pointed to where it helps.
+
+    >>> from typer._click.exceptions import NoSuchOption, UsageError
+    >>> usage_message(NoSuchOption("--bogus", possibilities=["--axis"]))
+    '--bogus: no such option; did you mean --axis?'
+    >>> usage_message(NoSuchOption("--x\\ny"))
+    "'--x\\\\ny': no such option"
+    >>> usage_message(UsageError("No such command 'mash'. Did you mean 'mesh'?"))
+    "no such command 'mash'; did you mean 'mesh'?"
+    >>> from typer._click.exceptions import BadParameter
+    >>> usage_message(BadParameter("'z' is not one of 'a', 'b'.", param_hint="'--kind'"))
+    "--kind: 'z' is not one of 'a', 'b'"
+    """
+    import re
+
+    from typer._click import exceptions as ce
+
+    ctx = getattr(exc, "ctx", None)
+    command = f"'{ctx.command_path}'" if ctx is not None and ctx.command_path else None
+    see = f"; see '{ctx.command_path} --help'" if command else ""
+    if isinstance(exc, ce.NoSuchOption):
+        text = f"{_plain_option(exc.option_name)}: no such option" + (f" of {command}" if command
+                                                                      else "")
+        close = sorted(p for p in exc.possibilities or () if p != "--help")
+        if close:
+            text += f"; did you mean {' or '.join(close)}?"
+        return text
+    if isinstance(exc, ce.MissingParameter):
+        name = _option_name(exc.param) or "an argument"
+        if getattr(exc.param, "param_type_name", "") == "argument":
+            return f"{name}: this argument is missing{see}"
+        return f"{name}: this option is required{see}"
+    if isinstance(exc, ce.BadParameter):
+        name = _option_name(exc.param)
+        if name is None and exc.param_hint:
+            hint = exc.param_hint
+            name = (hint if isinstance(hint, str) else " / ".join(hint)).strip("'\"")
+        message = _number_message(exc.message) or exc.message.rstrip(".")
+        return f"{name}: {message}" if name else message
+    if isinstance(exc, ce.BadOptionUsage):
+        name = _plain_option(exc.option_name)
+        if "requires" in exc.message:
+            return f"{name}: give a value after this option{see}"
+        if "does not take a value" in exc.message:
+            return f"{name}: this option takes no value{see}"
+        return f"{name}: {exc.message.rstrip('.')}"
+    message = exc.format_message().strip()
+    extra = re.fullmatch(r"(?s)Got unexpected extra arguments?(?:\(s\))? \((.*)\)\.?", message)
+    if extra is not None:
+        return f"unexpected extra argument {quoted(extra.group(1))}; put options after the " \
+               f"command and give each value once{see}"
+    message = message.replace(". Did you mean", "; did you mean")
+    message = message[:1].lower() + message[1:]
+    return message.rstrip(".") + ("" if "did you mean" in message else see)
+
+
+def _fail(message: str) -> None:
+    print(f"{PROGRAM}: error: {one_line(message)}", file=sys.stderr)
+    sys.exit(2)
+
+
+def main(argv=None) -> None:
+    """Entry point of the console script: run the app; input errors become one line and exit 2.
+
+    Always ends with :class:`SystemExit` carrying the exit code: 0 done, 1 a
+    cross-check disagrees, 2 the input (or an option) is refused, 130
+    interrupted.
+    """
+    from typer._click import exceptions as ce
+
+    try:
+        code = app(args=argv, prog_name=PROGRAM, standalone_mode=False)
+    except ce.NoArgsIsHelpError as exc:  # the help text has been printed: no error line
+        sys.exit(exc.exit_code)
+    except ce.ClickException as exc:
+        _fail(usage_message(exc))
     except RevolveError as exc:
-        print(f"revolve: error: {exc}", file=sys.stderr)
-        sys.exit(2)
-    except KeyboardInterrupt:
-        print("revolve: interrupted", file=sys.stderr)
+        _fail(str(exc))
+    except (KeyboardInterrupt, typer.Abort):
+        print(f"{PROGRAM}: interrupted", file=sys.stderr)
         sys.exit(130)
+    sys.exit(code if isinstance(code, int) else 0)
 
 
 if __name__ == "__main__":  # pragma: no cover

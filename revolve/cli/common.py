@@ -17,12 +17,13 @@ from __future__ import annotations
 
 import json
 import math
+import re
 import sys
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any, Dict, Optional
 
-from revolve.errors import RevolveError, UnitError
+from revolve.errors import RevolveError, UnitError, quoted
 from revolve.geometry.profile import Axis
 
 CAUTIONS = {
@@ -40,13 +41,32 @@ CAUTIONS = {
 }
 
 
+#: Largest size of a number in ``--axis``: a coordinate whose cube still fits a float with room.
+AXIS_LIMIT = 1e99
+
+_AXIS_NUMBER = re.compile(r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?")
+
+
 def parse_axis(text: Optional[str]) -> Optional[Axis]:
     """``x``, ``y`` or ``X0,Y0,DX,DY`` (a point on the axis and its direction); None stays None.
 
-    >>> parse_axis("1,2,0") 
+    Each number is a plain decimal (``1.5``, ``-2e3``) of size at most
+    :data:`AXIS_LIMIT`; anything else is refused with ``--axis`` named.
+
+    >>> parse_axis("1,2,0")
     Traceback (most recent call last):
     ...
     revolve.errors.RevolveError: --axis: give x, y or four numbers X0,Y0,DX,DY, got '1,2,0'
+    >>> parse_axis("1e999,0,1,0")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --axis: X0 = 1e999 is out of range; each number must be between -1e+99 and 1e+99
+    >>> parse_axis("0,0,nan,1")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --axis: DX = 'nan' is not a number; give four numbers X0,Y0,DX,DY such as 0,0,1,0
+    >>> parse_axis("-0,0,-0,1e-3").direction
+    (0.0, 0.001)
     """
     if text is None:
         return None
@@ -57,21 +77,51 @@ def parse_axis(text: Optional[str]) -> Optional[Axis]:
         return Axis((0.0, 0.0), (0.0, 1.0), exact=((Fraction(0), Fraction(0)), (Fraction(0), Fraction(1))))
     parts = [p.strip() for p in t.replace(";", ",").split(",")]
     if len(parts) != 4:
-        raise RevolveError(f"--axis: give x, y or four numbers X0,Y0,DX,DY, got {text!r}")
-    try:
-        vals = [Fraction(p) for p in parts]
-    except (ValueError, ZeroDivisionError):
-        raise RevolveError(f"--axis: {text!r} is not four numbers X0,Y0,DX,DY")
+        raise RevolveError(f"give x, y or four numbers X0,Y0,DX,DY, got {quoted(text)}",
+                           option="--axis")
+    vals = []
+    for name, part in zip(("X0", "Y0", "DX", "DY"), parts):
+        number = _AXIS_NUMBER.fullmatch(part) if len(part) <= 40 else None
+        if number is None:
+            raise RevolveError(f"{name} = {quoted(part)} is not a number; give four numbers "
+                               f"X0,Y0,DX,DY such as 0,0,1,0", option="--axis")
+        exponent = number.group(1)
+        # Fraction would build 10**exponent exactly: refuse absurd exponents before it does.
+        if exponent is not None and abs(int(exponent)) > 400:
+            if float(part[:number.start(1) - 1]) == 0:
+                part = "0"
+            elif int(exponent) < 0:
+                raise RevolveError(f"{name} = {part} is too small to tell from 0; write 0",
+                                   option="--axis")
+        huge = part != "0" and exponent is not None and int(exponent) > 400
+        value = None if huge else Fraction(part)
+        if huge or abs(value) > AXIS_LIMIT:
+            raise RevolveError(f"{name} = {part} is out of range; each number must be between "
+                               f"{-AXIS_LIMIT:g} and {AXIS_LIMIT:g}", option="--axis")
+        vals.append(value)
     fl = [float(v) for v in vals]
     if fl[2] == 0 and fl[3] == 0:
-        raise RevolveError("--axis: the direction DX,DY is zero; give a direction such as 1,0")
+        raise RevolveError("the direction DX,DY is zero; give a direction such as 1,0",
+                           option="--axis")
     return Axis((fl[0], fl[1]), (fl[2], fl[3]), exact=((vals[0], vals[1]), (vals[2], vals[3])))
 
 
 def load(path: str, unit: Optional[str] = None):
-    """Read a profile document (any supported format)."""
+    """Read a profile document (any supported format); ``unit`` comes from ``--units``.
+
+    >>> load("p.txt", unit="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --units: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    """
+    from revolve import units
     from revolve.formats import load_profile
 
+    if unit is not None:
+        try:
+            units.factor(unit, "length")
+        except UnitError as e:
+            raise e.located(option="--units")
     return load_profile(path, unit=unit)
 
 
@@ -107,17 +157,86 @@ def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[f
     return doc, rev
 
 
-def resolve_density(material: Optional[str], density: Optional[str], doc=None):
-    """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
+#: The unit of a density option given as a bare number (``--density 7850``), as the help says.
+BARE_DENSITY_UNIT = "kg/m^3"
 
-    A bare number is taken as kg/m³.
+
+def parse_density(text: str, option: Optional[str] = None) -> float:
+    """A density option in kg/m³: a number with a unit, or a bare number in kg/m³.
+
+    This is the one reader of density options (``--density``,
+    ``--liquid-density``) for every command; errors name ``option``.
+
+    >>> parse_density("7850"), parse_density("7.85 g/cm^3"), round(parse_density("0.284 lb/in^3"))
+    (7850.0, 7850.0, 7861)
+    >>> parse_density("-850", "--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --liquid-density: a density must be positive, not '-850'
+    >>> parse_density("7850 kg", "--density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --density: 'kg' is a mass unit, not a density unit
     """
     from revolve import materials
 
-    if material and density:
-        raise RevolveError("give either --material or --density, not both")
-    where_file = doc.file if doc is not None else None
+    try:
+        return materials.density_from_text(text, default_unit=BARE_DENSITY_UNIT)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def material_or_density(material: Optional[str], density: Optional[str], *,
+                        material_option: str = "--material", density_option: str = "--density"):
+    """``(density in kg/m³, label, material key)`` from a material option or a density option.
+
+    ``(None, None, None)`` when neither is given; the key is None for a
+    density. Errors name the option.
+
+    >>> material_or_density("water", None)[0], material_or_density(None, "850")[:2]
+    (998.2, (850.0, '850 kg/m³ (given)'))
+    >>> material_or_density("Stahl", None)  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --material: unknown material 'Stahl'...
+    >>> material_or_density("water", "1000", material_option="--liquid",
+    ...                     density_option="--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --liquid-density: give either --liquid or --liquid-density, not both
+    """
+    from revolve import materials
+
+    if material is not None and density is not None:
+        raise RevolveError(f"give either {material_option} or {density_option}, not both",
+                           option=density_option)
+    if material is not None:
+        try:
+            m = materials.find_material(material)
+        except RevolveError as e:
+            raise e.located(option=material_option)
+        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})", m.key
+    if density is not None:
+        d = parse_density(density, density_option)
+        return d, f"{d:g} kg/m³ (given)", None
+    return None, None, None
+
+
+def resolve_density(material: Optional[str], density: Optional[str], doc=None):
+    """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
+
+    A bare number in ``--density`` is taken as kg/m³ (:func:`parse_density`);
+    the file's ``density`` carries its unit.
+
+    >>> resolve_density(None, "7850")
+    (7850.0, '7850 kg/m³ (given)')
+    >>> resolve_density(None, None)
+    (None, None)
+    """
+    from revolve import materials
+
     if material is None and density is None and doc is not None:
+        where_file = doc.file
         if doc.material:
             try:
                 m = materials.find_material(doc.material)
@@ -131,16 +250,8 @@ def resolve_density(material: Optional[str], density: Optional[str], doc=None):
                 raise e.located(file=where_file, line=doc.line_of("density"), place="density")
             return d, f"{d:g} kg/m³ (from the file)"
         return None, None
-    if material:
-        m = materials.find_material(material)
-        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})"
-    if density:
-        try:
-            d = materials.density_from_text(density)
-        except RevolveError as e:
-            raise e.located(place="--density")
-        return d, f"{d:g} kg/m³ (given)"
-    return None, None
+    d, label, _ = material_or_density(material, density)
+    return d, label
 
 
 @dataclass(frozen=True)
@@ -165,21 +276,38 @@ def output_units(profile_unit: str, length: Optional[str] = None, area: Optional
                  volume: Optional[str] = None, mass: Optional[str] = None) -> OutputUnits:
     """Work out output units: each defaults to the profile's unit (squared, cubed) and kg.
 
+    A unit that is refused names its option:
+
     >>> u = output_units("mm", volume="L")
     >>> u.area, u.volume, round(u.volume_factor, 15)
     ('mm²', 'L', 1e-06)
+    >>> output_units("mm", volume="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --volume-unit: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    >>> output_units("mm", length="kg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --length-unit: 'kg' is a mass unit, not a length unit
     """
     from revolve import units
 
+    def factor(text: str, kind: str, option: Optional[str]) -> float:
+        try:
+            return units.factor(text, kind)
+        except UnitError as e:
+            raise e.located(option=option)
+
     si = units.factor(profile_unit, "length")
-    lu = length or profile_unit
-    au = area or (f"{lu}²" if area is None else area)
-    vu = volume or f"{lu}³"
-    mu = mass or "kg"
-    lf = si / units.factor(lu, "length")
-    af = si ** 2 / units.factor(_pow_unit(au, lu, 2), "area")
-    vf = si ** 3 / units.factor(_pow_unit(vu, lu, 3), "volume")
-    mf = 1.0 / units.factor(mu, "mass")
+    lu = length if length is not None else profile_unit
+    au = area if area is not None else f"{lu}²"
+    vu = volume if volume is not None else f"{lu}³"
+    mu = mass if mass is not None else "kg"
+    lf = si / factor(lu, "length", "--length-unit" if length is not None else None)
+    af = si ** 2 / factor(_pow_unit(au, lu, 2), "area", "--area-unit" if area is not None else None)
+    vf = si ** 3 / factor(_pow_unit(vu, lu, 3), "volume",
+                          "--volume-unit" if volume is not None else None)
+    mf = 1.0 / factor(mu, "mass", "--mass-unit" if mass is not None else None)
     return OutputUnits(lu, au, vu, mu, lf, af, vf, mf, si)
 
 
@@ -242,4 +370,9 @@ def caution_panel(kinds) -> Any:
 
 
 def fail_unit(option: str, exc: UnitError) -> UnitError:
-    return UnitError(f"{option}: {exc.message}")
+    """The unit error ``exc`` about ``option`` (named once, first, when it is printed).
+
+    >>> print(fail_unit("--film-unit", UnitError("unknown length unit 'mlis'")))
+    --film-unit: unknown length unit 'mlis'
+    """
+    return exc.located(option=option)

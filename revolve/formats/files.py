@@ -2,9 +2,12 @@
 
 Readers get their text through :func:`read_text`, which turns every way a
 file can be unusable (missing, a folder, unreadable, not UTF-8, empty) into a
-:class:`~revolve.errors.FormatError` naming the file. Writers go through
-:func:`write_text_atomically`, which writes a temporary file beside the
-target and renames it into place, so a failure never leaves half a file.
+:class:`~revolve.errors.FormatError` naming the file. Every writer goes
+through one mechanism, :class:`OutputSet`: all the files a command writes are
+first written to temporary files beside their targets and then moved into
+place together, so a failure never leaves half a file, nor some of a
+command's files without the others. :func:`write_text_atomically` and
+:func:`write_bytes_atomically` are the one-file case.
 
 Examples
 --------
@@ -20,8 +23,12 @@ Examples
 
 from __future__ import annotations
 
+import errno
 import os
+import shutil
 import tempfile
+from dataclasses import dataclass
+from typing import IO, Callable, Dict, List, Optional
 
 from revolve.errors import FormatError
 
@@ -84,8 +91,267 @@ def read_text(path: str) -> str:
     return text
 
 
-def write_atomically(path: str, write, binary: bool = False) -> None:
-    """Write a file through a temporary file beside it and a rename.
+def _cannot(path: str, number: int, option: Optional[str]) -> FormatError:
+    return FormatError(f"cannot write the file ({os.strerror(number)})", file=path, option=option)
+
+
+def check_target(path: str, option: Optional[str] = None) -> None:
+    """Refuse, before anything is written, an output file name that cannot be written.
+
+    The folder must exist and be writable, the name must be a file name (not
+    a folder, not too long for the file system, no NUL character), and a file
+    already there must be writable. Commands call this before their work;
+    :class:`OutputSet` calls it again for every target before it writes any.
+
+    Parameters
+    ----------
+    path : str
+        The file name as the user gave it; it is used unchanged in messages.
+    option : str, optional
+        The command-line option that gave it, named in the message.
+
+    Raises
+    ------
+    FormatError
+        Naming the file (and the option) and saying why.
+
+    Examples
+    --------
+    >>> check_target("no/such/folder/part.stl", option="--output")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: --output: no/such/folder/part.stl: cannot write the file (No such file or directory)
+    >>> import tempfile
+    >>> check_target(tempfile.mkdtemp())  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: ...: cannot write the file (Is a directory)
+    >>> check_target("")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: no file name given
+    """
+    if not isinstance(path, str) or not path:
+        raise FormatError("no file name given", option=option)
+    if "\x00" in path:
+        raise FormatError("a file name cannot hold a NUL character", file=path, option=option)
+    folder = os.path.dirname(os.path.abspath(path))
+    if not os.path.isdir(folder):
+        parent = folder
+        while parent and not os.path.exists(parent):
+            up = os.path.dirname(parent)
+            if up == parent:
+                break
+            parent = up
+        number = errno.ENOTDIR if os.path.exists(parent) and not os.path.isdir(parent) else errno.ENOENT
+        raise _cannot(path, number, option)
+    if os.path.isdir(path):
+        raise _cannot(path, errno.EISDIR, option)
+    try:
+        longest = os.pathconf(folder, "PC_NAME_MAX")
+    except (OSError, ValueError, AttributeError):
+        longest = 255
+    if len(os.fsencode(os.path.basename(path))) > longest:
+        raise _cannot(path, errno.ENAMETOOLONG, option)
+    if not os.access(folder, os.W_OK | os.X_OK):
+        raise _cannot(path, errno.EACCES, option)
+    if os.path.exists(path) and not os.access(path, os.W_OK):
+        raise FormatError("the file is read-only; nothing was written", file=path, option=option)
+
+
+@dataclass
+class _Output:
+    path: str
+    write: Callable[[IO], object]
+    binary: bool
+    option: Optional[str]
+    temporary: Optional[str] = None
+    backup: Optional[str] = None
+    moved: bool = False
+
+
+class OutputSet:
+    """Several output files written together: either all are in place afterwards, or none is.
+
+    Add each output with :meth:`text`, :meth:`binary` or :meth:`add`; nothing
+    touches the disk until :meth:`commit` (called on leaving a ``with`` block
+    without an error). Commit first checks every target (:func:`check_target`,
+    and no file named twice), then writes every output to a temporary file
+    beside its target, and only when all of them are written moves them into
+    place with :func:`os.replace`. On any failure the temporary files are
+    removed and every target is left as it was: a file that was there keeps
+    its old contents, a new name is not created. A replaced file keeps its
+    permissions.
+
+    Examples
+    --------
+    >>> import os, tempfile
+    >>> folder = tempfile.mkdtemp()
+    >>> good, bad = os.path.join(folder, "v.toml"), os.path.join(folder, "no", "w.toml")
+    >>> with OutputSet() as out:
+    ...     out.text(good, "name = 'vessel'\\n", option="--output")
+    ...     out.text(bad, "name = 'wall'\\n", option="--wall-output")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: --wall-output: .../no/w.toml: cannot write the file (No such file or directory)
+    >>> os.listdir(folder)
+    []
+    >>> with OutputSet() as out:
+    ...     out.text(good, "a\\n")
+    ...     out.binary(os.path.join(folder, "m.stl"), b"\\x00")
+    >>> sorted(os.listdir(folder))
+    ['m.stl', 'v.toml']
+    >>> with OutputSet() as out:
+    ...     out.text(good, "b\\n")
+    ...     out.text(os.path.join(folder, ".", "v.toml"), "c\\n", option="--csv")  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: --csv: ...v.toml: this file is given for two outputs; give another name
+    """
+
+    def __init__(self) -> None:
+        self._outputs: List[_Output] = []
+
+    def __enter__(self) -> "OutputSet":
+        return self
+
+    def __exit__(self, kind, value, traceback) -> bool:
+        if kind is None:
+            self.commit()
+        else:
+            self._outputs = []
+        return False
+
+    def add(self, path: str, write: Callable[[IO], object], *, binary: bool = False,
+            option: Optional[str] = None) -> None:
+        """Add an output written by ``write(handle)`` (text as UTF-8, or bytes with ``binary``)."""
+        self._outputs.append(_Output(os.fspath(path), write, binary, option))
+
+    def text(self, path: str, text: str, *, option: Optional[str] = None) -> None:
+        """Add a text output (UTF-8, ``\\n`` line ends)."""
+        self.add(path, lambda handle: handle.write(text), option=option)
+
+    def binary(self, path: str, data: bytes, *, option: Optional[str] = None) -> None:
+        """Add a binary output."""
+        self.add(path, lambda handle: handle.write(data), binary=True, option=option)
+
+    def commit(self) -> None:
+        """Check every target, write every temporary file, then move them all into place."""
+        outputs, self._outputs = self._outputs, []
+        seen: Dict[str, _Output] = {}
+        for out in outputs:
+            check_target(out.path, out.option)
+            key = os.path.normcase(os.path.realpath(out.path))
+            if key in seen:
+                raise FormatError("this file is given for two outputs; give another name",
+                                  file=out.path, option=out.option)
+            seen[key] = out
+        try:
+            for out in outputs:
+                _write_temporary(out)
+            for out in outputs:
+                if len(outputs) > 1 and os.path.lexists(out.path):
+                    out.backup = _backup(out)
+                _move(out)
+        except BaseException:
+            _roll_back(outputs)
+            raise
+        finally:
+            for out in outputs:
+                _remove(out.temporary)
+        for out in outputs:
+            _remove(out.backup)
+
+
+def _folder(path: str) -> str:
+    return os.path.dirname(os.path.abspath(path))
+
+
+def _remove(name: Optional[str]) -> None:
+    if name is not None:
+        try:
+            os.unlink(name)
+        except OSError:
+            pass
+
+
+def _write_temporary(out: _Output) -> None:
+    try:
+        fd, out.temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=_folder(out.path))
+    except OSError as exc:
+        raise _cannot(out.path, exc.errno or errno.EIO, out.option) from None
+    try:
+        handle = os.fdopen(fd, "wb") if out.binary else os.fdopen(fd, "w", encoding="utf-8",
+                                                                  newline="\n")
+        with handle:
+            out.write(handle)
+            handle.flush()
+            os.fsync(handle.fileno())
+        if os.path.exists(out.path):
+            mode = os.stat(out.path).st_mode & 0o7777
+        else:
+            umask = os.umask(0)
+            os.umask(umask)
+            mode = 0o666 & ~umask
+        try:
+            os.chmod(out.temporary, mode)
+        except OSError:
+            pass
+    except OSError as exc:
+        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=out.path,
+                          option=out.option) from None
+
+
+def _backup(out: _Output) -> str:
+    """A second name for the file now at the target, so that it can be put back."""
+    try:
+        fd, name = tempfile.mkstemp(prefix=".", suffix=".old", dir=_folder(out.path))
+        os.close(fd)
+    except OSError as exc:
+        raise _cannot(out.path, exc.errno or errno.EIO, out.option) from None
+    try:
+        os.unlink(name)
+        os.link(out.path, name)
+    except OSError:
+        try:
+            shutil.copy2(out.path, name)
+        except OSError as exc:
+            _remove(name)
+            raise FormatError(f"cannot keep a copy of the file while replacing it "
+                              f"({exc.strerror or exc})", file=out.path, option=out.option) from None
+    return name
+
+
+def _move(out: _Output) -> None:
+    try:
+        os.replace(out.temporary, out.path)
+    except OSError as exc:
+        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=out.path,
+                          option=out.option) from None
+    out.temporary = None
+    out.moved = True
+
+
+def _roll_back(outputs: List[_Output]) -> None:
+    """Put back what was there before the outputs already moved into place."""
+    for out in reversed(outputs):
+        if not out.moved:  # its target was not touched: its second name is not needed
+            _remove(out.backup)
+            out.backup = None
+            continue
+        try:
+            if out.backup is not None:
+                os.replace(out.backup, out.path)
+                out.backup = None
+            else:
+                os.unlink(out.path)
+        except OSError:
+            pass
+        out.moved = False
+
+
+def write_atomically(path: str, write, binary: bool = False, option: Optional[str] = None) -> None:
+    """Write one file through a temporary file beside it and a rename (an :class:`OutputSet` of one).
 
     ``write(handle)`` writes the contents to an open handle (text as UTF-8, or
     bytes with ``binary=True``). Either the whole new file is in place
@@ -97,37 +363,8 @@ def write_atomically(path: str, write, binary: bool = False) -> None:
     ...
     revolve.errors.FormatError: no/such/folder/x.bin: cannot write the file (No such file or directory)
     """
-    path = os.fspath(path)
-    folder = os.path.dirname(os.path.abspath(path))
-    try:
-        fd, temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=folder)
-    except OSError as exc:
-        raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-    try:
-        handle = os.fdopen(fd, "wb") if binary else os.fdopen(fd, "w", encoding="utf-8", newline="\n")
-        with handle:
-            write(handle)
-            handle.flush()
-            os.fsync(handle.fileno())
-        if os.path.exists(path):
-            mode = os.stat(path).st_mode & 0o7777
-        else:
-            umask = os.umask(0)
-            os.umask(umask)
-            mode = 0o666 & ~umask
-        try:
-            os.chmod(temporary, mode)
-        except OSError:
-            pass
-        os.replace(temporary, path)
-    except BaseException as exc:
-        try:
-            os.unlink(temporary)
-        except OSError:
-            pass
-        if isinstance(exc, OSError):
-            raise FormatError(f"cannot write the file ({exc.strerror or exc})", file=path) from None
-        raise
+    with OutputSet() as out:
+        out.add(path, write, binary=binary, option=option)
 
 
 def write_text_atomically(path: str, text: str) -> None:

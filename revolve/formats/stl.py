@@ -73,14 +73,32 @@ def _header_bytes(header: str) -> bytes:
     return text.ljust(HEADER_BYTES, b" ")
 
 
-def stl_bytes(vertices: np.ndarray, triangles: np.ndarray, header: str = "") -> bytes:
+def stl_bytes(vertices: np.ndarray, triangles: np.ndarray, header: str = "",
+              scale: Optional[float] = None, file: Optional[str] = None) -> bytes:
     """The whole binary STL file as bytes.
+
+    ``scale`` multiplies every coordinate first (a change of unit); ``file``
+    is the name used in messages.
 
     >>> b = stl_bytes(np.eye(3), np.array([[0, 1, 2]]), header="solid part")
     >>> len(b), b[:12]
     (134, b'binary solid')
+    >>> stl_bytes(np.eye(3), np.array([[0, 1, 2]]), scale=1e300, file="big.stl")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: big.stl: a mesh coordinate is larger than an STL file holds (3.4e+38); nothing written
     """
-    rec = stl_records(vertices, triangles)
+    v = np.asarray(vertices, dtype=float)
+    if scale is not None:
+        with np.errstate(over="ignore", invalid="ignore"):
+            v = v * float(scale)
+    if not np.all(np.isfinite(v)):
+        raise FormatError("a mesh coordinate is not a finite number; nothing written", file=file)
+    largest = float(np.finfo("<f4").max)
+    if v.size and float(np.max(np.abs(v))) > largest:
+        raise FormatError(f"a mesh coordinate is larger than an STL file holds ({largest:.3g}); "
+                          f"nothing written", file=file)
+    rec = stl_records(v, triangles)
     if len(rec) >= 2 ** 32:
         raise FormatError("too many triangles for an STL file (at most 4294967295)")
     return _header_bytes(header) + np.uint32(len(rec)).astype("<u4").tobytes() + rec.tobytes()
@@ -111,12 +129,7 @@ def write_stl(path: str, vertices: np.ndarray, triangles: np.ndarray, header: st
     >>> bool(read_stl(path)["corners"][0, 0, 0] == np.float32(1 / 25.4))
     True
     """
-    v = np.asarray(vertices, dtype=float)
-    if scale is not None:
-        v = v * float(scale)
-    if not np.all(np.isfinite(v)):
-        raise FormatError("a mesh coordinate is not a finite number; nothing written", file=path)
-    write_bytes_atomically(path, stl_bytes(v, triangles, header))
+    write_bytes_atomically(path, stl_bytes(vertices, triangles, header, scale=scale, file=path))
 
 
 def read_stl(path: str) -> np.ndarray:

@@ -192,6 +192,9 @@ class Revolution:
         if not math.isfinite(a) or not (0.0 < a <= 360.0):
             raise ProfileError(f"the revolution angle must be above 0 and at most 360 degrees, "
                                f"got {a:g}")
+        if a < 1e-9:  # tinier angles underflow in the radians and the moments (5e-324 did)
+            raise ProfileError(f"the revolution angle {a:g} is too small to sweep anything; "
+                               f"give at least 1e-09 degrees")
 
     @property
     def angle_radians(self) -> float:

@@ -235,3 +235,52 @@ def test_csv_not_written_on_bad_input(tmp_path, capsys):
     out_csv = tmp_path / "m.csv"
     code, out, err = run(["measure", f, "--csv", str(out_csv)], capsys)
     assert code == 2 and not out_csv.exists()
+
+
+# -- densities: a bare number is kg/m³, as the help and the README say ------------------------
+
+@pytest.mark.parametrize("density, rho", [("7850", 7850.0), ("7850 kg/m^3", 7850.0),
+                                          ("7.85 g/cm^3", 7850.0), ("1e3", 1000.0)])
+def test_bare_density_is_kg_per_cubic_metre(tmp_path, capsys, density, rho):
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, err = run(["measure", f, "--json", "--density", density], capsys)
+    assert code == 0, err
+    # CRC (from memory): hollow cylinder V = π (R² − r²) h = π (3² − 1²) · 2 mm³; m = ρ V.
+    volume_m3 = math.pi * (9 - 1) * 2 * 1e-9
+    assert json.loads(out)["mass"] == pytest.approx(rho * volume_m3, rel=1e-13)
+
+
+# -- every message names its option (family: option values refused by the unit, material
+# and axis readers), on one line even when the value holds a line break ----------------------
+
+@pytest.mark.parametrize("args, start", [
+    (["--volume-unit", "gallon"], "--volume-unit: 'gallon' is ambiguous"),
+    (["--volume-unit", "x\ny"], "--volume-unit: unknown volume unit 'x\\ny'"),
+    (["--area-unit", "kg"], "--area-unit: 'kg' is a mass unit"),
+    (["--length-unit", ""], "--length-unit: "),
+    (["--mass-unit", "furlong"], "--mass-unit: "),
+    (["--material", "Stahl"], "--material: unknown material 'Stahl'"),
+    (["--material", ""], "--material: no material name given"),
+    (["--density", "0"], "--density: a density must be positive"),
+    (["--density", "7850 kg"], "--density: 'kg' is a mass unit"),
+    (["--density", "1e999"], "--density: '1e999' is not a finite density"),
+    (["--axis", "1e999,0,1,0"], "--axis: X0 = 1e999 is out of range"),
+    (["--axis", "0,0,1,1e999999999"], "--axis: DY = 1e999999999 is out of range"),
+    (["--axis", "0,0,0,0"], "--axis: the direction DX,DY is zero"),
+    (["--axis", "0,0,1,nan"], "--axis: DY = 'nan' is not a number"),
+    (["--angle", "x\ny"], "--angle: give a number, got 'x\\ny'"),
+    (["--tolerance", "nan"], "--tolerance: must be a positive number"),
+    (["--csv", "figures.txt"], "--csv: "),
+])
+def test_option_errors_name_the_option(tmp_path, capsys, args, start):
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, err = run(["measure", f, *args], capsys)
+    assert code == 2 and out == ""
+    assert err.count("\n") == 1 and err.startswith("revolve: error: " + start), err
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["sq.toml"]
+
+
+def test_units_option_is_named(tmp_path, capsys):
+    f = write(tmp_path, "p.txt", "0,1\n2,1\n2,3\n0,3\n")
+    code, out, err = run(["measure", f, "--units", "gallon"], capsys)
+    assert code == 2 and err.startswith("revolve: error: --units: 'gallon' is ambiguous"), err

@@ -151,7 +151,9 @@ def test_table_output_and_csv(tmp_path, capsys):
     (["--tolerance", "0"], "--tolerance"),
     (["--tolerance", "-0.1"], "--tolerance"),
     (["--tolerance", "3 kg"], "--tolerance"),
-    (["--tolerance", "1e-13"], "use a larger tolerance"),
+    (["--tolerance", "1e-13"], "give at least"),
+    (["--tolerance", "1e-300"], "give at least"),  # once a ZeroDivisionError in the mesher
+    (["--tolerance", "x\ny"], "--tolerance: "),
     (["--angle", "0"], "--angle"),
     (["--angle", "361"], "--angle"),
     (["--axis", "1,2"], "--axis"),
@@ -241,3 +243,75 @@ def test_write_json_is_strict_and_atomic(tmp_path):
     with pytest.raises(FormatError):
         write_json({}, str(tmp_path / "no" / "r.json"))
     assert sorted(p.name for p in tmp_path.iterdir()) == ["r.json"]
+
+
+# -- several outputs: both files or neither (family: an output path that cannot be written) ---
+
+def _unwritable(tmp_path, kind):
+    """A CSV path that cannot be written, of several kinds (the tests run as root, so a
+    read-only folder would not do)."""
+    if kind == "missing folder":
+        return str(tmp_path / "no such folder" / "figures.csv")
+    if kind == "a folder":
+        folder = tmp_path / "figures.csv"
+        folder.mkdir()
+        return str(folder)
+    if kind == "under a file":
+        (tmp_path / "plain").write_text("x", encoding="utf-8")
+        return str(tmp_path / "plain" / "figures.csv")
+    if kind == "name too long":
+        return str(tmp_path / ("f" * 300 + ".csv"))
+    raise AssertionError(kind)
+
+
+@pytest.mark.parametrize("kind", ["missing folder", "a folder", "under a file", "name too long"])
+@pytest.mark.parametrize("existed", [False, True])
+def test_unwritable_csv_leaves_no_stl(tmp_path, capsys, kind, existed):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl = tmp_path / "m.stl"
+    if existed:
+        stl.write_bytes(b"previous mesh")
+    csv_path = _unwritable(tmp_path, kind)
+    before = sorted(p.name for p in tmp_path.iterdir())
+    code, out, err = run(["mesh", profile, "-o", stl, "--csv", csv_path], capsys)
+    assert code == 2, err
+    assert err.count("\n") == 1 and err.startswith("revolve: error: --csv: ")
+    assert "Traceback" not in err and out == ""
+    assert sorted(p.name for p in tmp_path.iterdir()) == before  # no temporary file either
+    if existed:
+        assert stl.read_bytes() == b"previous mesh"
+    else:
+        assert not stl.exists()
+
+
+def test_csv_failing_while_moved_into_place_puts_the_old_stl_back(tmp_path, capsys, monkeypatch):
+    # The second move fails after the first has happened (a disk error, say): the first
+    # target gets its old contents back.
+    import os as os_module
+
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl, table = tmp_path / "m.stl", tmp_path / "m.csv"
+    stl.write_bytes(b"previous mesh")
+    real_replace = os_module.replace
+
+    def replace(source, target):
+        if str(target).endswith(".csv"):
+            raise OSError(5, "Input/output error")
+        return real_replace(source, target)
+
+    monkeypatch.setattr(os_module, "replace", replace)
+    code, _, err = run(["mesh", profile, "-o", stl, "--csv", table], capsys)
+    assert code == 2 and err.count("\n") == 1 and "m.csv: cannot write the file" in err, err
+    assert stl.read_bytes() == b"previous mesh" and not table.exists()
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["m.stl", "tube.toml"]
+
+
+def test_mesh_and_csv_written_together(tmp_path, capsys):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl, table = tmp_path / "m.stl", tmp_path / "m.csv"
+    code, _, err = run(["mesh", profile, "-o", stl, "--csv", table], capsys)
+    assert code == 0, err
+    # CRC (from memory): hollow cylinder V = π (R² − r²) h = 16π; trimesh measures the STL.
+    assert trimesh.load(str(stl)).volume == pytest.approx(16 * math.pi, rel=1e-2)
+    assert table.read_text(encoding="utf-8").startswith("quantity,")
+    assert sorted(p.name for p in tmp_path.iterdir()) == ["m.csv", "m.stl", "tube.toml"]

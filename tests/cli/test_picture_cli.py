@@ -174,7 +174,12 @@ def test_mass_in_the_caption_with_the_caution(tmp_path, capsys):
     (["-o", "p.png", "--angle", "0"], "--angle"),
     (["-o", "p.png", "--axis", "q"], "--axis"),
     (["-o", "p.png", "--3d", "--tolerance", "-1"], "--tolerance"),
-    (["-o", "p.png", "--material", "unobtainium"], "unobtainium"),
+    # Finer than 1/2000 of the size: once minutes of drawing and half a gigabyte.
+    (["-o", "p.png", "--3d", "--tolerance", "1e-9"], "--tolerance: a picture needs no finer chord tolerance"),
+    (["-o", "p.png", "--material", "unobtainium"], "--material: unknown material 'unobtainium'"),
+    (["-o", "p.png", "--volume-unit", "gallon"], "--volume-unit: 'gallon' is ambiguous"),
+    (["-o", "p.png", "--density", "7850 kg"], "--density: 'kg' is a mass unit"),
+    (["-o", "p.png", "--width", "wide"], "--width: give a whole number, got 'wide'"),
     (["-o", "missing/p.png"], "folder"),
 ])
 def test_bad_options(tmp_path, capsys, monkeypatch, extra, message):
@@ -201,3 +206,19 @@ def test_subprocess_error_has_no_traceback(tmp_path):
     assert res.returncode == 2
     assert res.stderr.count("\n") == 1 and "Traceback" not in res.stderr and "none.toml" in res.stderr
     assert not (tmp_path / "p.png").exists()
+
+
+def test_bare_density_is_kg_per_cubic_metre(tmp_path, capsys):
+    # The caption's mass: a bare 7850 draws the same picture as '7850 kg/m^3' (README: a bare
+    # density is kg/m³), and another density draws a different one (so the check can fail).
+    profile = write(tmp_path, "ring.toml", RING)
+    pictures = {}
+    for density in ("7850", "7850 kg/m^3", "7.85 g/cm^3", "7.85"):
+        png = tmp_path / f"{len(pictures)}.png"
+        code, _, err = run(["picture", profile, "-o", png, "--width", 400, "--height", 300,
+                            "--density", density], capsys)
+        assert code == 0, err
+        pictures[density] = matplotlib.image.imread(str(png))
+    assert np.array_equal(pictures["7850"], pictures["7850 kg/m^3"])
+    assert np.array_equal(pictures["7850"], pictures["7.85 g/cm^3"])
+    assert not np.array_equal(pictures["7850"], pictures["7.85"])

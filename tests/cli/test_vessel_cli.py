@@ -126,3 +126,61 @@ def test_bad_input(tmp_path, capsys, args, expected):
     assert expected in lines[0], lines[0]
     assert not out_file.exists() and not wall.exists()
     assert out == ""
+
+
+# -- bare densities are kg/m³, as the help says (family: a density option without a unit) -----
+
+def test_bare_densities_are_kg_per_cubic_metre(capsys):
+    code, out, err = run(["vessel", "--diameter", "1000", "--length", "1500", "--head",
+                          "hemispherical", "--thickness", "10", "--density", "7850",
+                          "--liquid-density", "850", "--json"], capsys)
+    assert code == 0, err
+    s = json.loads(out)
+    R, t, L = 500.0, 10.0, 1500.0
+    # CRC (from memory): hollow cylinder π (R_o² − R_i²) L; spherical shell 4/3 π (R_o³ − R_i³)
+    # (two hemispherical heads make one sphere); cylinder π R² L and sphere 4/3 π R³ for the liquid.
+    metal = math.pi * ((R + t) ** 2 - R ** 2) * L + 4 / 3 * math.pi * ((R + t) ** 3 - R ** 3)
+    liquid = math.pi * R * R * L + 4 / 3 * math.pi * R ** 3
+    assert s["metal_mass"] == pytest.approx(7850 * metal * 1e-9, rel=1e-12)
+    assert s["liquid_mass"] == pytest.approx(850 * liquid * 1e-9, rel=1e-12)
+
+
+# -- two outputs: both or neither (family: an output path that cannot be written) ------------
+
+@pytest.mark.parametrize("existed", [False, True])
+@pytest.mark.parametrize("kind", ["missing folder", "a folder"])
+def test_unwritable_wall_output_leaves_no_liquid_space_file(tmp_path, capsys, existed, kind):
+    inside = tmp_path / "v.toml"
+    if existed:
+        inside.write_text("previous", encoding="utf-8")
+    if kind == "a folder":
+        wall = tmp_path / "w.toml"
+        wall.mkdir()
+    else:
+        wall = tmp_path / "no such folder" / "w.toml"
+    before = sorted(p.name for p in tmp_path.iterdir())
+    code, out, err = run(["vessel", "--diameter", "1000", "--length", "1500", "--head", "flat",
+                          "--thickness", "8", "-o", str(inside), "--wall-output", str(wall)],
+                         capsys)
+    assert code == 2 and out == ""
+    assert err.count("\n") == 1 and err.startswith("revolve: error: --wall-output: "), err
+    assert sorted(p.name for p in tmp_path.iterdir()) == before
+    if existed:
+        assert inside.read_text(encoding="utf-8") == "previous"
+    else:
+        assert not inside.exists()
+
+
+def test_bare_density_is_written_with_its_unit(tmp_path, capsys):
+    wall = tmp_path / "w.toml"
+    code, _, err = run(["vessel", "--diameter", "1000", "--length", "1500", "--head",
+                        "hemispherical", "--thickness", "10", "--density", "7850",
+                        "--wall-output", str(wall)], capsys)
+    assert code == 0, err
+    assert 'density = "7850.0 kg/m^3"' in wall.read_text(encoding="utf-8")
+    code, out, err = run(["measure", str(wall), "--json"], capsys)
+    assert code == 0, err
+    R, t, L = 500.0, 10.0, 1500.0
+    # CRC (from memory): hollow cylinder and spherical shell, as above.
+    metal = math.pi * ((R + t) ** 2 - R ** 2) * L + 4 / 3 * math.pi * ((R + t) ** 3 - R ** 3)
+    assert json.loads(out)["mass"] == pytest.approx(7850 * metal * 1e-9, rel=1e-9)

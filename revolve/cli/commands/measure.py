@@ -142,8 +142,10 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
                 mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None) -> int:
     from revolve.geometry.measure import measure
     if csv_path is not None:
-        from revolve.cli.tables import check_table_path
-        check_table_path(csv_path)
+        from revolve.cli.commands.mesh import check_output
+        check_output(csv_path, (".csv",), "tables", option="--csv")
+    if not 0 < tolerance:
+        raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
 
     doc, rev = common.revolution_from_options(profile, axis, angle, units)
     ax, ang = rev.axis, rev.angle_degrees
@@ -158,11 +160,11 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
     if exact:
         from revolve.geometry.exact import exact_results
         exact_out = exact_results(doc, rev, m, exact_angle=angle if angle is not None else None)
-    if not 0 < tolerance:
-        raise RevolveError("--tolerance must be a positive number")
     if csv_path is not None:
-        from revolve.cli.tables import measure_rows, write_csv
-        write_csv(measure_rows(m, u, tolerance=tolerance), csv_path)
+        from revolve.cli.tables import csv_text, measure_rows
+        from revolve.formats.files import OutputSet
+        with OutputSet() as files:
+            files.text(csv_path, csv_text(measure_rows(m, u, tolerance=tolerance)), option="--csv")
     if as_json:
         out = measurement_dict(m, u, density_label=dens_label, tolerance=tolerance)
         out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}

@@ -14,14 +14,22 @@ from typing import Optional
 import typer
 
 from revolve.cli import common
-from revolve.errors import FormatError, RevolveError
+from revolve.errors import FormatError, RevolveError, quoted
 
 #: Default chord tolerance as a fraction of the profile's size (its bounding-box diagonal).
 DEFAULT_RELATIVE_TOLERANCE = 1e-3
+#: Finest chord tolerance, as a fraction of the size: an STL file's 32-bit floats keep about
+#: 7 significant digits (a relative step of 1.2e-7), so a finer promise could not be kept.
+FINEST_RELATIVE_TOLERANCE = 1e-6
 
 
-def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: float) -> float:
+def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: float,
+                    finest: Optional[float] = None,
+                    why: str = "an STL file keeps about 7 significant digits") -> float:
     """The chord tolerance in the profile's unit, from ``--tolerance`` (a bare number is in ``unit``).
+
+    A tolerance below ``finest`` times the part's size (default
+    :data:`FINEST_RELATIVE_TOLERANCE`) is refused, saying ``why``.
 
     >>> chord_tolerance("0.5", "mm", "cm", 10.0)
     0.05
@@ -30,7 +38,11 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
     >>> chord_tolerance("-1", "mm", "mm", 1.0)
     Traceback (most recent call last):
     ...
-    revolve.errors.RevolveError: --tolerance: the chord tolerance must be a positive length, got -1
+    revolve.errors.RevolveError: --tolerance: the chord tolerance must be a positive length, got '-1'
+    >>> chord_tolerance("1e-300", "mm", "mm", 100.0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --tolerance: an STL file keeps about 7 significant digits: give at least 0.0001 mm (1e-06 of the part's size)
     """
     import math
 
@@ -45,27 +57,42 @@ def chord_tolerance(text: Optional[str], unit: str, profile_unit: str, size: flo
         raise common.fail_unit("--tolerance", e)
     value = si / unit_table.factor(profile_unit, "length")
     if not (math.isfinite(value) and value > 0):
-        raise RevolveError(f"--tolerance: the chord tolerance must be a positive length, got {text}")
+        raise RevolveError(f"the chord tolerance must be a positive length, got {quoted(text)}",
+                           option="--tolerance")
+    relative = FINEST_RELATIVE_TOLERANCE if finest is None else finest
+    if value < relative * size:
+        shown = relative * size * unit_table.factor(profile_unit, "length") \
+            / unit_table.factor(unit, "length")
+        raise RevolveError(f"{why}: give at least {shown:.3g} {unit} ({relative:g} of the "
+                           f"part's size)", option="--tolerance")
     return value
 
 
-def check_output(path: str, endings: tuple, what: str) -> None:
-    """Refuse an output name with the wrong ending, or in a folder that does not exist.
+def check_output(path: str, endings: tuple, what: str, option: Optional[str] = "--output") -> None:
+    """Refuse, before any work, an output name with the wrong ending or that cannot be written.
 
     >>> check_output("part.obj", (".stl",), "meshes")
     Traceback (most recent call last):
     ...
-    revolve.errors.FormatError: part.obj: meshes are written as .stl files, not ".obj"
+    revolve.errors.FormatError: --output: part.obj: meshes are written as .stl files, not ".obj"
+    >>> check_output("no/such/folder/t.csv", (".csv",), "tables", option="--csv")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: --csv: no/such/folder/t.csv: the folder for this file does not exist
     """
+    from revolve.formats.files import check_target
+
     ext = os.path.splitext(path)[1].lower()
     if ext not in endings:
-        raise FormatError(f'{what} are written as {" or ".join(endings)} files, not "{ext or path}"',
-                          file=path)
+        given = f'"{ext}"' if ext else "a name without an ending"
+        raise FormatError(f'{what} are written as {" or ".join(endings)} files, not {given}',
+                          file=path, option=option)
     folder = os.path.dirname(os.path.abspath(path))
     if not os.path.isdir(folder):
-        raise FormatError("the folder for this file does not exist", file=path)
+        raise FormatError("the folder for this file does not exist", file=path, option=option)
     if os.path.isdir(path):
-        raise FormatError("this is a folder; give a file name", file=path)
+        raise FormatError("this is a folder; give a file name", file=path, option=option)
+    check_target(path, option)
 
 
 def json_key(quantity: str) -> str:
@@ -82,15 +109,16 @@ def json_key(quantity: str) -> str:
 def run_mesh(profile: str, output: str, tolerance: Optional[str], axis: Optional[str],
              angle: Optional[float], units: Optional[str], length_unit: Optional[str],
              as_json: bool, csv_path: Optional[str]) -> int:
-    from revolve.cli.tables import check_table_path, mesh_rows, write_csv
-    from revolve.formats.stl import write_stl
+    from revolve.cli.tables import csv_text, mesh_rows
+    from revolve.formats.files import OutputSet
+    from revolve.formats.stl import stl_bytes
     from revolve.geometry.checks import prepare
     from revolve.geometry.measure import measure
     from revolve.geometry.mesh import revolve_mesh
 
     check_output(output, (".stl",), "meshes")
     if csv_path is not None:
-        check_table_path(csv_path)
+        check_output(csv_path, (".csv",), "tables", option="--csv")
     doc, rev = common.revolution_from_options(profile, axis, angle, units)
     u = common.output_units(doc.profile.unit, length_unit)
     size = prepare(rev.profile, rev.axis).size
@@ -100,9 +128,12 @@ def run_mesh(profile: str, output: str, tolerance: Optional[str], axis: Optional
     rows = mesh_rows(mesh, exact, u, file=output)
     name = (doc.name or os.path.basename(doc.file or "profile"))
     header = f"revolve mesh, unit {u.length}, {name}"
-    write_stl(output, mesh.vertices, mesh.triangles, header=header, scale=u.length_factor)
-    if csv_path is not None:
-        write_csv(rows, csv_path)
+    # Both files are written together, or neither is (see revolve.formats.files.OutputSet).
+    with OutputSet() as out:
+        out.binary(output, stl_bytes(mesh.vertices, mesh.triangles, header=header,
+                                     scale=u.length_factor, file=output), option="--output")
+        if csv_path is not None:
+            out.text(csv_path, csv_text(rows), option="--csv")
     if as_json:
         out = {json_key(r["quantity"]): r["value"] for r in rows}
         out["units"] = {"length": u.length, "area": u.area, "volume": u.volume}
@@ -140,8 +171,8 @@ def register(app: typer.Typer) -> None:
         tolerance: Optional[str] = typer.Option(
             None, "--tolerance",
             help="Chord tolerance: the largest distance between the true surface and its "
-                 "triangles, e.g. 0.01 or '0.001 in' (a bare number is in the STL's length unit). "
-                 "Default: 1/1000 of the profile's size."),
+                 "triangles, e.g. 0.01 or '0.001 in' (a bare number is in the STL's length unit), "
+                 "at least 1e-6 of the profile's size. Default: 1/1000 of the profile's size."),
         axis: Optional[str] = typer.Option(None, "--axis", help="x, y, or X0,Y0,DX,DY. Default: "
                                                                 "the file's axis, else x."),
         angle: Optional[float] = typer.Option(None, "--angle", help="Revolution angle in degrees, "

@@ -15,6 +15,10 @@ import typer
 
 from revolve.cli import common
 
+#: Finest chord tolerance a picture takes, as a fraction of the part's size: finer detail is
+#: far below a pixel, and the mesh (and the time to draw it) would grow without bound.
+FINEST_RELATIVE_TOLERANCE = 1 / 2000
+
 
 def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], angle: Optional[float],
                 units: Optional[str], material: Optional[str], density: Optional[str],
@@ -29,9 +33,9 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
     check_output(output, (".png", ".svg"), "pictures")
     for name, value in (("--width", width), ("--height", height)):
         if not 200 <= value <= 10000:
-            raise RevolveError(f"{name}: give a size from 200 to 10000 pixels, got {value}")
+            raise RevolveError(f"give a size from 200 to 10000 pixels, got {value}", option=name)
     if not 30 <= dpi <= 1200:
-        raise RevolveError(f"--dpi: give 30 to 1200 pixels per inch, got {dpi}")
+        raise RevolveError(f"give 30 to 1200 pixels per inch, got {dpi}", option="--dpi")
     doc, rev = common.revolution_from_options(profile, axis, angle, units)
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
@@ -46,7 +50,10 @@ def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], ang
         if tolerance is not None:
             from revolve.geometry.checks import prepare
             size = prepare(rev.profile, rev.axis).size
-            tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size)
+            tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size,
+                                  finest=FINEST_RELATIVE_TOLERANCE,
+                                  why="a picture needs no finer chord tolerance (revolve mesh "
+                                      "makes finer meshes)")
         mesh = render.solid_picture(rev, m, output, units=u, title=title, density_label=dens_label,
                                     width=width, height=height, dpi=dpi, tolerance=tol)
         detail = f"3-D, {len(mesh.triangles):,} triangles"
@@ -78,14 +85,16 @@ def register(app: typer.Typer) -> None:
                                                                   "for files that do not say."),
         material: Optional[str] = typer.Option(None, "--material", help="Material name, for the "
                                                                          "mass in the caption."),
-        density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3', "
+        density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3' "
+                                                                       "(a bare number is kg/m³), "
                                                                        "for the mass in the caption."),
         width: int = typer.Option(1200, "--width", help="Width in pixels."),
         height: int = typer.Option(800, "--height", help="Height in pixels."),
         dpi: int = typer.Option(100, "--dpi", help="Pixels per inch: the printed size (SVG in points); the "
                                                    "drawing looks the same."),
         tolerance: Optional[str] = typer.Option(None, "--tolerance",
-                                                help="With --3d: chord tolerance of the mesh drawn "
+                                                help="With --3d: chord tolerance of the mesh drawn, "
+                                                     "at least 1/2000 of the part's size "
                                                      "(default: chosen for the picture)."),
         length_unit: Optional[str] = typer.Option(None, "--length-unit", help="Length unit shown."),
         area_unit: Optional[str] = typer.Option(None, "--area-unit", help="Area unit shown."),

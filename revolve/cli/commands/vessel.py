@@ -63,26 +63,10 @@ def _length(text: str, unit: str, option: str) -> float:
 
 def _density(material: Optional[str], density: Optional[str], what: str, m_opt: str,
              d_opt: str):
-    """Density (kg/m³) and a label from a material name or a density, or (None, None)."""
-    from revolve import materials
-
-    if material and density:
-        raise RevolveError(f"give either {m_opt} or {d_opt}, not both", place=d_opt)
-    if material:
-        try:
-            found = materials.find_material(material)
-        except RevolveError as e:
-            raise e.located(place=m_opt)
-        return found.density, f"{found.name}, {found.density:g} kg/m³ ({found.source})", found.key
-    if density:
-        try:
-            d = materials.density_from_text(density)
-        except RevolveError as e:
-            raise e.located(place=d_opt)
-        if not d > 0:
-            raise RevolveError(f"the {what} density must be positive", place=d_opt)
-        return d, f"{d:g} kg/m³ (given)", None
-    return None, None, None
+    """Density (kg/m³), a label and the material's key from a material name or a density
+    (a bare number is kg/m³), or (None, None, None)."""
+    return common.material_or_density(material, density, material_option=m_opt,
+                                      density_option=d_opt)
 
 
 def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional[str],
@@ -167,13 +151,14 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
         wall, axis_w = jv.sketch_profile(design, orientation, "wall", name=name + " (wall)")
         texts[wall_output] = profile_text(wall, axis=axis_w, angle=360,
                                           material=metal_key if metal_key else None,
-                                          density=None if metal_key or density is None
-                                          else density)
-    # Everything is worked out before any file is written: nothing half done on an error.
-    from revolve.formats.files import write_text_atomically
+                                          density=None if metal_key or metal_d is None
+                                          else f"{metal_d!r} kg/m^3")
+    # Everything is worked out first; then both files are written together, or neither is.
+    from revolve.formats.files import OutputSet
 
-    for path, text in texts.items():
-        write_text_atomically(path, text)
+    with OutputSet() as out:
+        for path, text in texts.items():
+            out.text(path, text, option="--output" if path == output else "--wall-output")
     files = {"liquid_space": output, "wall": wall_output}
     if as_json:
         common.print_json(summary_dict(summary, u, orientation, metal_label, liquid_label, files,
@@ -374,7 +359,8 @@ def register(app: typer.Typer) -> None:
         material: Optional[str] = typer.Option(None, "--material", help="Metal, from the "
                                                                         "material table."),
         density: Optional[str] = typer.Option(None, "--density", help="Metal density, e.g. "
-                                                                      "'7850 kg/m^3'."),
+                                                                      "'7850 kg/m^3' (a bare "
+                                                                      "number is kg/m³)."),
         liquid: Optional[str] = typer.Option(None, "--liquid", help="Liquid from the material "
                                                                     "table, e.g. water."),
         liquid_density: Optional[str] = typer.Option(None, "--liquid-density",
