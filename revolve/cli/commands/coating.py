@@ -1,7 +1,8 @@
 """``revolve coat``: areas to coat by face, and the coating quantities for a batch of parts.
 
 One or more profile files, each with a quantity; the faces to coat (all by
-default, or face names and the groups ``outside``, ``inside``, ``ends``;
+default, or face names and the groups ``outside``, ``inside``, ``ends``, by
+the side of the material a surface faces, see :mod:`revolve.jobs.coating`;
 ``--mask`` leaves faces out); a coating system of one coat from options or of
 several coats from a small TOML file (see :mod:`revolve.jobs.coating`).
 
@@ -138,7 +139,8 @@ def _measure(path, axis, angle, unit, quantity):
 
     doc, rev = common.revolution_from_options(path, axis, angle, unit)
     m = measure(rev)
-    part = _Part(doc, m, coating.surfaces(m), quantity)
+    part = _Part(doc, m, coating.surfaces(m, space=getattr(doc, "section", "material") == "space"),
+                 quantity)
     part.si_area = units.factor(doc.profile.unit, "length") ** 2
     return part
 
@@ -473,13 +475,17 @@ def register(app: typer.Typer) -> None:
                                            "profile in the same order. Default 1."),
         faces: Optional[List[str]] = typer.Option(
             None, "--faces", help="Faces to coat, comma-separated or repeated: face names of the "
-                                  "profile, or the groups outside, inside, ends (a face name "
-                                  "wins over a group of the same spelling), or all. Default all."),
+                                  "profile, or the groups inside (the normal out of the material "
+                                  "points towards the axis), outside (away from it), ends "
+                                  "(square to the axis), or all. A face name wins over a group "
+                                  "of the same spelling. Default all."),
         mask: Optional[List[str]] = typer.Option(
             None, "--mask", help="Faces or groups to leave uncoated (masked), as for --faces."),
         sides: str = typer.Option("both", "--sides", help="Open chains (sheets, shells): count "
                                                           "both sides, or only the outer or the "
-                                                          "inner one. Both have the same area."),
+                                                          "inner one (the side facing the axis "
+                                                          "over more of the area). Both have "
+                                                          "the same area."),
         cut_faces: bool = typer.Option(False, "--cut-faces", help="Also coat the two flat cut "
                                                                   "faces of a revolution below "
                                                                   "360°."),
@@ -531,6 +537,11 @@ def register(app: typer.Typer) -> None:
         Theoretical spreading rate, m²/L = 10 × volume solids % ÷ DFT in µm.
         Practical = theoretical × (1 − loss %/100). WFT = DFT × 100 ÷ volume solids %.
         Paint to buy = area ÷ practical spreading rate, for each coat.
+        Groups, by the normal pointing out of the material at each point:
+        inside (towards the axis), outside (away from it), ends (parallel to
+        the axis: faces square to it). A vessel's head crowns are inside on
+        the wall profile; the liquid-space profile (section = "space") is the
+        vessel's inside. Open chains: the inner side faces the axis.
         Units: areas m², paint L, films µm, rates m²/L; --us gives ft², US gal, mils.
         JSON: area (per_face, total); parts; coats, each with dft, wet_film,
         spreading_rate_theoretical, spreading_rate_practical, volume and cost;
