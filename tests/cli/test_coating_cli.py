@@ -386,3 +386,35 @@ def test_subprocess_exit_codes_and_no_heavy_imports(tmp_path):
              "'revolve.jobs.coating') if m in sys.modules))")
     res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, cwd=ROOT)
     assert res.stdout.strip() == "[]", res.stdout + res.stderr
+
+
+# -- groups on vessels (issue 9) ---------------------------------------------------------
+
+
+def test_vessel_wall_and_liquid_space_inside_from_the_command_line(tmp_path, capsys):
+    # revolve vessel writes the wall and the liquid space; on both, "inside" is the
+    # vessel's whole inside: shell 2πRL plus two 2:1 ellipsoidal heads, each half an
+    # oblate spheroid a = R, c = R/2, S = 2πa² + π (c²/e) ln((1+e)/(1−e)) — CRC (from memory)
+    R, L = 1.0, 1.0      # metres: inside diameter 2000 mm, shell 1000 mm
+    e = math.sqrt(1 - 0.25)
+    spheroid = 2 * PI * R * R + PI * (0.25 * R * R / e) * math.log((1 + e) / (1 - e))
+    want = 2 * PI * R * L + spheroid
+    space, wall = tmp_path / "v.toml", tmp_path / "w.toml"
+    code, _, _ = run(["vessel", "--diameter", "2000", "--length", "1000", "--head", "ellipsoidal",
+                      "--thickness", "8", "--material", "carbon steel", "-o", str(space),
+                      "--wall-output", str(wall)], capsys)
+    assert code in (0, None)
+    assert 'section = "space"' in space.read_text()
+    for args in ([str(wall), "--faces", "inside"], [str(space), "--mask", "outside"],
+                 [str(space)]):
+        code, out, err = run(["coat", *args, *ONE_COAT, "--json"], capsys)
+        assert code in (0, None), err
+        assert rel(json.loads(out)["total"]["area"], want) < 1e-9, args
+
+
+def test_bad_section_in_the_profile_exit_2_naming_file_and_line(tmp_path, capsys):
+    text = PIPE.replace('units = "m"', 'units = "m"\nsection = "liquid"')
+    path = write(tmp_path, "pipe.toml", text)
+    code, out, err = run(["coat", path, *ONE_COAT], capsys)
+    assert_one_line_error(code, out, err, f"{path}:4", "section", "space")
+    assert out == ""
