@@ -135,7 +135,8 @@ def _row(raw: Any, number: int, file: str) -> Material:
         raise MaterialError("key must be lower-case letters, digits and '_'",
                             file=file, place=place)
     note = raw.get("note", "")
-    for field, value in (("name", name), ("source", source), ("note", note or "-")):
+    checked = (("name", name), ("source", source)) + ((("note", note),) if "note" in raw else ())
+    for field, value in checked:
         if not isinstance(value, str) or not value.strip():
             raise MaterialError(f"{field} must be non-empty text", file=file,
                                 place=place)
