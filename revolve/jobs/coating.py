@@ -105,7 +105,8 @@ from __future__ import annotations
 import difflib
 import math
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from fractions import Fraction
 from typing import Any, Dict, Iterable, List, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import FormatError, RevolveError
@@ -566,15 +567,72 @@ def spreading_rate_in(rate_m2_per_litre: float, area_unit: str, volume_unit: str
         units.factor(volume_unit, "volume") / units.factor("L", "volume"))
 
 
+def _exact(value: Any) -> Fraction:
+    """A number as the user wrote it, exactly: an int or a float's shortest decimal.
+
+    >>> _exact(2.4), _exact(3), _exact(Fraction(1, 3))
+    (Fraction(12, 5), Fraction(3, 1), Fraction(1, 3))
+    """
+    if isinstance(value, (int, Fraction)):
+        return Fraction(value)
+    return Fraction(repr(float(value)))
+
+
+def film_in(um: float, um_exact: Optional[Fraction], unit: str) -> float:
+    """A film thickness given in µm, in ``unit``; exact when both are exact.
+
+    Converting through exact fractions (1 mil = 25.4 µm by definition) brings
+    the user's own number back unchanged: 1 mil is 1 mil, not 0.9999999999999999.
+
+    >>> film_in(25.4, Fraction(127, 5), "mil"), round(film_in(25.4, None, "mil"), 12)
+    (1.0, 1.0)
+    >>> film_in(60.0, Fraction(60), "mm")
+    0.06
+    """
+    from revolve import units
+
+    exact = units.exact_factor(unit, "length")
+    if um_exact is not None and exact is not None:
+        return float(um_exact / 1_000_000 / exact)
+    return um * 1e-6 / units.factor(unit, "length")
+
+
 @dataclass(frozen=True)
 class Coat:
-    """One coat: dry film (µm), volume solids (%), loss factor (%), price per litre or None."""
+    """One coat: dry film (µm), volume solids (%), loss factor (%), price per litre or None.
+
+    ``dft_exact`` keeps the film as the user gave it (an exact fraction of a
+    µm), so that it reads back in any unit without float noise.
+    """
 
     name: str
     dft_um: float
     volume_solids: float
     loss: float
     price_per_litre: Optional[float] = None
+    #: The dry film in µm exactly as the user's number and unit give it (None: not known).
+    dft_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+
+    def dft_in(self, unit: str) -> float:
+        """The dry film in ``unit``, converted exactly from what the user wrote.
+
+        >>> make_coat(dft_mils=1, volume_solids=50, loss=0).dft_in("mil")
+        1.0
+        >>> make_coat(dft_mils=2.4, volume_solids=50, loss=0).dft_in("um")
+        60.96
+        """
+        return film_in(self.dft_um, self.dft_exact, unit)
+
+    def wet_film_in(self, unit: str) -> float:
+        """The wet film (DFT × 100 / VS) in ``unit``.
+
+        >>> make_coat(dft_mils=1, volume_solids=50, loss=0).wet_film_in("mil")
+        2.0
+        """
+        if self.dft_exact is None:
+            return film_in(self.wet_film_um, None, unit)
+        return film_in(self.wet_film_um,
+                       self.dft_exact * 100 / _exact(self.volume_solids), unit)
 
     @property
     def spreading_rate_theoretical(self) -> float:
@@ -657,7 +715,7 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
         if isinstance(raw, str):
             raise fail(key, f"{what} must be a plain number, without quotes, units or a % sign; "
                             f"got {raw!r}")
-        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+        if isinstance(raw, bool) or not isinstance(raw, (int, float, Fraction)):
             raise fail(key, f"{what} must be a number, got {raw!r}")
         v = float(raw)
         if not math.isfinite(v):
@@ -670,10 +728,12 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
         raise fail("dft", "the dry film thickness is missing; give it in µm or in mils")
     if dft_um is not None:
         dft = value("dft_um", dft_um, "the dry film thickness")
-        key, shown = "dft_um", f"{dft:g} µm"
+        key, shown, exact = "dft_um", f"{dft:g} µm", _exact(dft_um)
     else:
         mils = value("dft_mils", dft_mils, "the dry film thickness")
-        key, shown, dft = "dft_mils", f"{mils:g} mils", mils * UM_PER_MIL
+        key, shown = "dft_mils", f"{mils:g} mils"
+        exact = _exact(dft_mils) * Fraction(127, 5)       # 1 mil = 25.4 µm exactly
+    dft = float(exact)
     if not dft > 0:
         raise fail(key, f"the dry film thickness must be above 0, got {shown}")
     if dft > MAX_DFT_UM:
@@ -701,7 +761,7 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
         raise fail("price_per_litre", f"the price must be at least 0, got {price:g}")
     if name is not None and (not isinstance(name, str) or not name.strip()):
         raise fail("name", f"the coat's name must be a non-empty text, got {name!r}")
-    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price)
+    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price, exact)
 
 
 def parse_film_thickness(text: str, default_unit: str = "um") -> float:
@@ -714,8 +774,17 @@ def parse_film_thickness(text: str, default_unit: str = "um") -> float:
     ...
     revolve.jobs.coating.CoatingError: --dft: give the dry film thickness as a number (µm) or with its unit, e.g. 75 um or 3 mil; got 'thick'
     """
-    from fractions import Fraction
+    key, value = read_film_thickness(text, default_unit)
+    return float(value * Fraction(127, 5)) if key == "dft_mils" else float(value)
 
+
+def read_film_thickness(text: str, default_unit: str = "um") -> Tuple[str, Any]:
+    """A dry film thickness from text, as :func:`make_coat` takes it: ``("dft_um", µm)`` or
+    ``("dft_mils", mils)``, the number kept exact (a Fraction) where the unit is exact.
+
+    >>> read_film_thickness("1", "mil"), read_film_thickness("0.1 mm")
+    (('dft_mils', Fraction(1, 1)), ('dft_um', Fraction(100, 1)))
+    """
     from revolve import units
 
     found = re.fullmatch(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*", text or "")
@@ -723,10 +792,15 @@ def parse_film_thickness(text: str, default_unit: str = "um") -> float:
         unit = found.group(2) or default_unit
         try:
             exact = units.exact_factor(unit, "length")
-            if exact is not None:
-                return float(Fraction(found.group(1)) * exact * 1_000_000)
-            return float(found.group(1)) * units.factor(unit, "length") * 1e6
-        except RevolveError:
+            plain = float(found.group(1))
+            if exact is not None and len(found.group(1)) <= 40 \
+                    and (plain == 0 or 1e-300 < abs(plain) < 1e300):
+                number = Fraction(found.group(1))
+                if units.canonical(unit) == "mil":
+                    return "dft_mils", number
+                return "dft_um", number * exact * 1_000_000
+            return "dft_um", plain * units.factor(unit, "length") * 1e6
+        except (RevolveError, ValueError, OverflowError, ZeroDivisionError):
             pass
     raise CoatingError("give the dry film thickness as a number "
                        f"({units.canonical(default_unit)}) or with its unit, e.g. 75 um or 3 mil; "
@@ -746,6 +820,18 @@ class CoatingSystem:
     def dft_um(self) -> float:
         """Total dry film of the system, µm."""
         return float(math.fsum(c.dft_um for c in self.coats))
+
+    def dft_in(self, unit: str) -> float:
+        """Total dry film in ``unit``, exact when every coat's film is.
+
+        >>> system = CoatingSystem((make_coat(dft_mils=1, volume_solids=50, loss=0),
+        ...                         make_coat(dft_mils=2, volume_solids=50, loss=0)))
+        >>> system.dft_in("mil")
+        3.0
+        """
+        exact = [c.dft_exact for c in self.coats]
+        total = sum(exact, Fraction(0)) if all(e is not None for e in exact) else None
+        return film_in(self.dft_um, total, unit)
 
 
 #: Keys of the coating-system file.

@@ -418,3 +418,20 @@ def test_bad_section_in_the_profile_exit_2_naming_file_and_line(tmp_path, capsys
     code, out, err = run(["coat", path, *ONE_COAT], capsys)
     assert_one_line_error(code, out, err, f"{path}:4", "section", "space")
     assert out == ""
+
+
+def test_us_film_echoes_the_users_number(tmp_path, capsys):
+    # issue 9: --us --dft 1 echoed 0.9999999999999999 mil. 1 mil at 50 % solids: WFT 2 mil
+    # (common practice, no source); the JSON keeps the user's value, exactly.
+    target = tmp_path / "c.csv"
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--us", "--dft", "1",
+                          "--volume-solids", "50", "--loss", "10", "--json", "--csv",
+                          str(target)], capsys)
+    assert code in (0, None), err
+    d = json.loads(out)
+    assert d["coats"][0]["dft"] == 1.0 and d["coats"][0]["wet_film"] == 2.0
+    assert d["system"]["dft_total"] == 1.0
+    assert "0.99999" not in target.read_text() and "1.99999" not in target.read_text()
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--dft", "1 mil",
+                          "--volume-solids", "50", "--loss", "10", "--json"], capsys)
+    assert json.loads(out)["coats"][0]["dft"] == 25.4    # 1 mil = 25.4 µm (1959 agreement)

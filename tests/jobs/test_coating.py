@@ -722,3 +722,36 @@ def test_curve_functions_leave_nothing_in_the_line_cache():
         linecache.checkcache()                   # raised KeyError before the fix
     finally:
         os.stat = real_stat
+
+
+# -- films read back as the user wrote them (issue 9: "0.9999999999999999 mil") ----------
+
+
+@given(st.decimals(min_value="0.001", max_value="1000", places=3, allow_nan=False,
+                   allow_infinity=False))
+def test_film_thickness_reads_back_unchanged_in_its_own_unit(number):
+    # 1 mil = 0.001 in = 25.4 µm exactly (1959 agreement); what the user types in mils comes
+    # back in mils as typed, and in µm as the exact product
+    text = str(number)
+    key, value = coating.read_film_thickness(text, "mil")
+    coat = make_coat(**{key: value}, volume_solids=50, loss=0)
+    assert coat.dft_in("mil") == float(number)
+    assert coat.dft_in("um") == float(Fraction(text) * Fraction(254, 10))
+    assert coat.wet_film_in("mil") == float(Fraction(text) * 2)     # WFT = DFT × 100 / 50
+    from_file = make_coat(dft_mils=float(text), volume_solids=50, loss=0)
+    assert from_file.dft_in("mil") == float(number)
+
+
+def test_film_units_converted_exactly_and_errors_echo_the_users_unit():
+    assert make_coat(dft_um=50.8, volume_solids=50, loss=0).dft_in("mil") == 2.0
+    assert make_coat(dft_mils=2.4, volume_solids=50, loss=0).dft_um == 60.96
+    system = CoatingSystem((make_coat(dft_mils=1, volume_solids=50, loss=0),
+                            make_coat(dft_mils=0.1, volume_solids=50, loss=0),
+                            make_coat(dft_mils=0.2, volume_solids=50, loss=0)))
+    assert system.dft_in("mil") == 1.3                                 # not 1.3000000000000003
+    with pytest.raises(CoatingError, match="got 0 mils"):
+        make_coat(**dict([coating.read_film_thickness("0", "mil")]), volume_solids=50, loss=0)
+    for text in ("1e999", "1e-999", "9" * 60):
+        key, value = coating.read_film_thickness(text, "mil")        # no overflow, no hang
+        with pytest.raises(CoatingError):
+            make_coat(**{key: value}, volume_solids=50, loss=0)

@@ -76,12 +76,13 @@ def _system(path, name, dft, volume_solids, loss, price_litre, price_gallon, cur
         raise RevolveError("no coating given: use --system FILE for a coating system, or --dft, "
                            "--volume-solids and --loss for one coat")
     where = {"dft": (None, None, "--dft"), "dft_um": (None, None, "--dft"),
+             "dft_mils": (None, None, "--dft"),
              "volume_solids": (None, None, "--volume-solids"), "loss": (None, None, "--loss"),
              "price_per_litre": (None, None, "--price-per-litre"),
              "price_per_us_gallon": (None, None, "--price-per-gallon"),
              "name": (None, None, "--coat-name")}
-    dft_um = None if dft is None else coating.parse_film_thickness(dft, film_unit)
-    coat = coating.make_coat(name, dft_um=dft_um, volume_solids=volume_solids, loss=loss,
+    film = {} if dft is None else dict([coating.read_film_thickness(dft, film_unit)])
+    coat = coating.make_coat(name, **film, volume_solids=volume_solids, loss=loss,
                              price_per_litre=price_litre, price_per_us_gallon=price_gallon,
                              where=where)
     return coating.CoatingSystem((coat,), None, currency or None, None)
@@ -158,7 +159,7 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
     """The JSON form of an estimate (see the module docstring)."""
     from revolve.jobs import coating
 
-    A, V, F, R = u.area_factor, u.volume_factor, u.film_factor, u.rate_factor
+    A, V, R = u.area_factor, u.volume_factor, u.rate_factor
     currency = est.system.currency
     per_volume = 1.0 / V  # price per output volume unit = price per L × L per unit
     out = {
@@ -167,7 +168,7 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
                   "price": f"{currency + ' ' if currency else ''}per {u.volume}",
                   "cost": currency or "the prices' currency"},
         "system": {"name": est.system.name, "file": est.system.file, "currency": currency,
-                   "coats": len(est.system.coats), "dft_total": est.system.dft_um * F},
+                   "coats": len(est.system.coats), "dft_total": est.system.dft_in(u.film_text)},
         "faces": options,
     }
     batch_faces: dict = {}
@@ -198,8 +199,9 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
     out["parts"] = parts_out
     out["area"] = {"per_face": batch_faces, "total": est.area * A}
     out["coats"] = [{
-        "name": q.coat.name, "dft": q.coat.dft_um * F, "volume_solids": q.coat.volume_solids,
-        "loss": q.coat.loss, "wet_film": q.coat.wet_film_um * F,
+        "name": q.coat.name, "dft": q.coat.dft_in(u.film_text),
+        "volume_solids": q.coat.volume_solids, "loss": q.coat.loss,
+        "wet_film": q.coat.wet_film_in(u.film_text),
         "spreading_rate_theoretical": q.coat.spreading_rate_theoretical * R,
         "spreading_rate_practical": q.coat.spreading_rate_practical * R,
         "area": q.area * A, "volume": q.litres * V, "volume_theoretical": q.litres_theoretical * V,
@@ -217,7 +219,7 @@ def csv_text(parts, est, u: _Units) -> str:
     import csv
     import io
 
-    A, V, F, R = u.area_factor, u.volume_factor, u.film_factor, u.rate_factor
+    A, V, R = u.area_factor, u.volume_factor, u.rate_factor
     cur = est.system.currency
     money = f" ({cur})" if cur else ""
     header = ["part", "file", "quantity", f"area_each ({u.area})", f"area ({u.area})", "coat",
@@ -231,8 +233,8 @@ def csv_text(parts, est, u: _Units) -> str:
 
     def coat_cells(q):
         c = q.coat
-        return [c.name, num(c.dft_um * F), num(c.volume_solids), num(c.loss),
-                num(c.wet_film_um * F), num(c.spreading_rate_theoretical * R),
+        return [c.name, num(c.dft_in(u.film_text)), num(c.volume_solids), num(c.loss),
+                num(c.wet_film_in(u.film_text)), num(c.spreading_rate_theoretical * R),
                 num(c.spreading_rate_practical * R), num(q.litres * V),
                 num(q.litres_theoretical * V),
                 num(None if c.price_per_litre is None else c.price_per_litre / V), num(q.cost)]
@@ -337,14 +339,14 @@ def _coats_table(est, u):
         t.add_column(head, justify="left" if head == "coat" else "right")
     for q in est.coats:
         c = q.coat
-        t.add_row(c.name, f(c.dft_um * u.film_factor, 4), f(c.volume_solids, 4),
-                  f(c.wet_film_um * u.film_factor, 4), f(c.spreading_rate_theoretical * u.rate_factor, 4),
+        t.add_row(c.name, f(c.dft_in(u.film_text), 4), f(c.volume_solids, 4),
+                  f(c.wet_film_in(u.film_text), 4), f(c.spreading_rate_theoretical * u.rate_factor, 4),
                   f(c.loss, 4), f(c.spreading_rate_practical * u.rate_factor, 4),
                   f(q.litres * u.volume_factor, 4),
                   "—" if c.price_per_litre is None else f"{c.price_per_litre / u.volume_factor:,.2f}",
                   _money(q.cost, None))
     t.add_section()
-    t.add_row("total", f(est.system.dft_um * u.film_factor, 4), "", "", "", "", "",
+    t.add_row("total", f(est.system.dft_in(u.film_text), 4), "", "", "", "", "",
               f(est.litres * u.volume_factor, 4), "", _money(est.cost, None), style="bold")
     return t
 
