@@ -755,3 +755,18 @@ def test_film_units_converted_exactly_and_errors_echo_the_users_unit():
         key, value = coating.read_film_thickness(text, "mil")        # no overflow, no hang
         with pytest.raises(CoatingError):
             make_coat(**{key: value}, volume_solids=50, loss=0)
+
+
+def test_section_space_survives_a_round_trip_through_the_profile_file():
+    # the key that tells coat a loop is a space is read, written back and read again
+    from revolve.formats import parse_profile_text, profile_text
+
+    text = ('section = "space"\n[[loop]]\nstart = [0, 0]\nsegments = [ { line_to = [4, 0] },'
+            ' { line_to = [4, 1] }, { line_to = [0, 1] }, { close = true } ]\n')
+    doc = parse_profile_text(text, file="s.toml")
+    assert doc.section == "space"
+    again = parse_profile_text(profile_text(doc), file="again.toml")
+    assert again.section == "space"
+    assert parse_profile_text(text.replace('section = "space"\n', ""), file="m.toml").section \
+        == "material"
+    assert 'section' not in profile_text(parse_profile_text(text.replace('"space"', '"material"')))
