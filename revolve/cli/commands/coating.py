@@ -266,7 +266,7 @@ def _fsum(values) -> float:
 
 def _facing_text(s) -> str:
     if s.side:
-        return f"{s.side} side"
+        return f"{s.facing} ({s.side} side)"
     if s.facing == "cut":
         return "cut (both)"
     return s.facing
