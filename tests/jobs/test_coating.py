@@ -770,3 +770,25 @@ def test_section_space_survives_a_round_trip_through_the_profile_file():
     assert parse_profile_text(text.replace('section = "space"\n', ""), file="m.toml").section \
         == "material"
     assert 'section' not in profile_text(parse_profile_text(text.replace('"space"', '"material"')))
+
+
+@settings(max_examples=60, deadline=None)
+@given(r=st.floats(0.5, 50.0), wall=st.floats(0.05, 20.0), length=st.floats(0.1, 100.0),
+       tilt=st.floats(-3.1, 3.1), start=st.integers(0, 3), backwards=st.booleans())
+def test_any_tube_on_any_axis_groups_by_the_side_of_its_material(r, wall, length, tilt, start,
+                                                                 backwards):
+    # a tube section placed on an axis through (1, -2) at any angle, drawn from any corner
+    # in either direction: bore 2πrL inside, outside 2πRL, two annuli π(R² − r²) ends —
+    # CRC (from memory)
+    R = r + wall
+    c, s = math.cos(tilt), math.sin(tilt)
+    place = lambda z, y: (1.0 + z * c - y * s, -2.0 + z * s + y * c)   # noqa: E731
+    corners = [(0.0, r), (length, r), (length, R), (0.0, R)]
+    corners = corners[start:] + corners[:start]
+    if backwards:
+        corners.reverse()
+    loop = Loop.from_points([place(*p) for p in corners])
+    found = surfaces(run(Profile(loops=(loop,)), axis=Axis((1.0, -2.0), (c, s))))
+    assert rel(_group(found, "inside"), 2 * PI * r * length) < 1e-9
+    assert rel(_group(found, "outside"), 2 * PI * R * length) < 1e-9
+    assert rel(_group(found, "ends"), 2 * PI * (R * R - r * r)) < 1e-9
