@@ -612,6 +612,26 @@ class Coat:
     price_per_litre: Optional[float] = None
     #: The dry film in µm exactly as the user's number and unit give it (None: not known).
     dft_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+    #: The price per litre exactly as the user's number and unit give it (None: not known).
+    price_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+
+    def price_in(self, volume_unit: str) -> Optional[float]:
+        """The price per ``volume_unit``, converted exactly from what the user wrote; or None.
+
+        >>> make_coat(dft_um=50, volume_solids=50, loss=0, price_per_us_gallon=0.17).price_in("US_gal")
+        0.17
+        >>> make_coat(dft_um=50, volume_solids=50, loss=0, price_per_litre=2).price_in("m^3")
+        2000.0
+        """
+        from revolve import units
+
+        if self.price_per_litre is None:
+            return None
+        exact = units.exact_factor(volume_unit, "volume")
+        if self.price_exact is not None and exact is not None:
+            return float(self.price_exact * exact * 1000)
+        return self.price_per_litre * units.factor(volume_unit, "volume") / units.factor("L",
+                                                                                         "volume")
 
     def dft_in(self, unit: str) -> float:
         """The dry film in ``unit``, converted exactly from what the user wrote.
@@ -752,16 +772,20 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
     if price_per_litre is not None and price_per_us_gallon is not None:
         raise fail("price_per_us_gallon", "give the price per litre or per US gallon, not both")
     price = value("price_per_litre", price_per_litre, "the price per litre")
+    price_exact = None if price is None else _exact(price_per_litre)
     if price_per_us_gallon is not None:
         gal = value("price_per_us_gallon", price_per_us_gallon, "the price per US gallon")
         if gal < 0:
             raise fail("price_per_us_gallon", f"the price must be at least 0, got {gal:g}")
-        price = gal / US_GALLON_LITRES
+        # 1 US gal = 231 in³ = 3.785411784 L exactly
+        price_exact = _exact(price_per_us_gallon) / Fraction(473176473, 125000000)
+        price = float(price_exact)
     if price is not None and price < 0:
         raise fail("price_per_litre", f"the price must be at least 0, got {price:g}")
     if name is not None and (not isinstance(name, str) or not name.strip()):
         raise fail("name", f"the coat's name must be a non-empty text, got {name!r}")
-    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price, exact)
+    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price, exact,
+                price_exact)
 
 
 def parse_film_thickness(text: str, default_unit: str = "um") -> float:

@@ -813,3 +813,16 @@ def test_vessel_wall_torispherical_heads_the_issues_vessel():
     found = _vessel_surfaces("torispherical", D, L, 8.0, "wall")
     assert rel(_group(found, "inside"), want) < 1e-9
     assert round(want / 1e6, 2) == 18.32
+
+
+@given(st.decimals(min_value="0.01", max_value="10000", places=2, allow_nan=False,
+                   allow_infinity=False))
+def test_prices_read_back_as_the_user_wrote_them(number):
+    # 1 US gal = 231 in³ = 3.785411784 L exactly (US customary definition, 1 in = 25.4 mm):
+    # a price per gallon comes back per gallon unchanged, and per litre as the exact quotient
+    price = float(number)
+    coat = make_coat(dft_um=50, volume_solids=50, loss=0, price_per_us_gallon=price)
+    assert coat.price_in("US_gal") == price
+    assert coat.price_in("L") == float(Fraction(str(number)) / Fraction("3.785411784"))
+    assert make_coat(dft_um=50, volume_solids=50, loss=0,
+                     price_per_litre=price).price_in("L") == price

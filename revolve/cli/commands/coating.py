@@ -161,7 +161,6 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
 
     A, V, R = u.area_factor, u.volume_factor, u.rate_factor
     currency = est.system.currency
-    per_volume = 1.0 / V  # price per output volume unit = price per L × L per unit
     out = {
         "units": {"area": u.area, "volume": u.volume, "film": u.film, "spreading_rate": u.rate,
                   "volume_solids": "%", "loss": "%",
@@ -205,7 +204,7 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
         "spreading_rate_theoretical": q.coat.spreading_rate_theoretical * R,
         "spreading_rate_practical": q.coat.spreading_rate_practical * R,
         "area": q.area * A, "volume": q.litres * V, "volume_theoretical": q.litres_theoretical * V,
-        "price": None if q.coat.price_per_litre is None else q.coat.price_per_litre * per_volume,
+        "price": q.coat.price_in(u.volume_text),
         "cost": q.cost} for q in est.coats]
     out["total"] = {"quantity": est.quantity, "area": est.area * A, "volume": est.litres * V,
                     "cost": est.cost, "cost_complete": est.cost_complete}
@@ -237,7 +236,7 @@ def csv_text(parts, est, u: _Units) -> str:
                 num(c.wet_film_in(u.film_text)), num(c.spreading_rate_theoretical * R),
                 num(c.spreading_rate_practical * R), num(q.litres * V),
                 num(q.litres_theoretical * V),
-                num(None if c.price_per_litre is None else c.price_per_litre / V), num(q.cost)]
+                num(c.price_in(u.volume_text)), num(q.cost)]
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
@@ -343,7 +342,7 @@ def _coats_table(est, u):
                   f(c.wet_film_in(u.film_text), 4), f(c.spreading_rate_theoretical * u.rate_factor, 4),
                   f(c.loss, 4), f(c.spreading_rate_practical * u.rate_factor, 4),
                   f(q.litres * u.volume_factor, 4),
-                  "—" if c.price_per_litre is None else f"{c.price_per_litre / u.volume_factor:,.2f}",
+                  "—" if c.price_per_litre is None else f"{c.price_in(u.volume_text):,.2f}",
                   _money(q.cost, None))
     t.add_section()
     t.add_row("total", f(est.system.dft_in(u.film_text), 4), "", "", "", "", "",
