@@ -187,3 +187,25 @@ class MaterialError(RevolveError):
 
 class CrossCheckError(RevolveError):
     """The two independent computations disagree by more than the tolerance."""
+
+
+def indefinite(noun: str) -> str:
+    """``noun`` after "a" or "an", chosen by how it starts, for messages built from names.
+
+    "an" before a vowel sound: a vowel letter, except the "yoo" and "wun" sounds
+    of words such as unit, usual, one; and before a silent h (hour, honest).
+
+    >>> indefinite("ellipsoidal head"), indefinite("hemispherical head"), indefinite("arc")
+    ('an ellipsoidal head', 'a hemispherical head', 'an arc')
+    >>> indefinite("unit"), indefinite("umbrella"), indefinite("one-off"), indefinite("hour")
+    ('a unit', 'an umbrella', 'a one-off', 'an hour')
+    >>> indefinite("2:1 head"), indefinite("")
+    ('a 2:1 head', 'a ')
+    """
+    word = noun.lower()
+    vowel = word[:1] in ("a", "e", "i", "o", "u")
+    if word.startswith(("uni", "usu", "use", "uti", "ure", "uro", "eu", "ewe", "one", "once")):
+        vowel = False
+    if word.startswith(("hour", "honest", "honour", "honor", "heir")):
+        vowel = True
+    return ("an " if vowel else "a ") + noun

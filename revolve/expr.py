@@ -30,7 +30,7 @@ from __future__ import annotations
 
 import re
 
-from revolve.errors import ExpressionError
+from revolve.errors import ExpressionError, indefinite
 
 TYPE_CHECKING = False    # avoids importing typing at start-up
 if TYPE_CHECKING:  # pragma: no cover
@@ -505,4 +505,4 @@ def exact_number(value) -> "sympy.Expr":
         if largest > 2 ** MAX_BITS or not real or value.has(sp.zoo, sp.nan):
             raise ExpressionError(f"{_shown(str(value))} is not a finite real number")
         return value
-    raise ExpressionError(f"a {type(value).__name__} cannot be used as a number")
+    raise ExpressionError(f"{indefinite(type(value).__name__)} cannot be used as a number")

@@ -1,6 +1,8 @@
 """Materials: densities from the package's table, found by name or alias.
 
-The table is ``revolve/data/materials.toml``; every row carries its source.
+The table is ``revolve/data/materials.toml``; every row carries its source
+(shown to users) and may carry a note on how the figure was taken ("from
+memory"), kept for the tests only.
 Names are matched ignoring case, spaces and punctuation, so ``"Stainless
 304"``, ``"stainless-304"`` and ``"STAINLESS_304"`` are the same material.
 A density can also be given directly as text with a unit
@@ -41,6 +43,7 @@ GROUPS = ("steel", "stainless", "cast iron", "aluminium", "copper alloy",
 
 _FILE = "materials.toml"
 _FIELDS = ("key", "name", "aliases", "density_kg_m3", "group", "source")
+_OPTIONAL = ("note",)
 _KEY = re.compile(r"[a-z][a-z0-9_]*\Z")
 
 
@@ -59,9 +62,13 @@ class Material:
     group : str
         One of :data:`GROUPS`.
     source : str
-        Where the density comes from.
+        Where the density comes from, as users read it (a handbook's title,
+        or "common practice, no source").
     aliases : tuple of str
         Other names that find this material.
+    note : str
+        How the figure was taken (e.g. "from memory"), for the tests that
+        check the table against its references; never shown to users.
 
     Examples
     --------
@@ -80,6 +87,18 @@ class Material:
     group: str
     source: str
     aliases: tuple[str, ...] = ()
+    note: str = ""
+
+    @property
+    def reference(self) -> str:
+        """The source with its note, as the tests name it: ``"CRC Handbook … (from memory)"``.
+
+        >>> Material("w", "W", 998.2, "liquid", "CRC Handbook", note="from memory").reference
+        'CRC Handbook (from memory)'
+        >>> Material("s", "S", 7850.0, "steel", "common practice, no source").reference
+        'common practice, no source'
+        """
+        return f"{self.source} ({self.note})" if self.note else self.source
 
 
 def _normal(name: str) -> str:
@@ -104,7 +123,7 @@ def _row(raw: Any, number: int, file: str) -> Material:
                             place=place)
     if isinstance(raw.get("key"), str):
         place += f" ({raw['key']})"
-    unknown = sorted(set(raw) - set(_FIELDS))
+    unknown = sorted(set(raw) - set(_FIELDS) - set(_OPTIONAL))
     missing = [f for f in _FIELDS if f not in raw]
     if unknown or missing:
         what = ([f"unknown field(s) {', '.join(unknown)}"] if unknown else []) + \
@@ -115,7 +134,9 @@ def _row(raw: Any, number: int, file: str) -> Material:
     if not isinstance(key, str) or not _KEY.match(key):
         raise MaterialError("key must be lower-case letters, digits and '_'",
                             file=file, place=place)
-    for field, value in (("name", name), ("source", source)):
+    note = raw.get("note", "")
+    checked = (("name", name), ("source", source)) + ((("note", note),) if "note" in raw else ())
+    for field, value in checked:
         if not isinstance(value, str) or not value.strip():
             raise MaterialError(f"{field} must be non-empty text", file=file,
                                 place=place)
@@ -130,7 +151,7 @@ def _row(raw: Any, number: int, file: str) -> Material:
     if group not in GROUPS:
         raise MaterialError(f"group must be one of {', '.join(GROUPS)}, not "
                             f"{group!r}", file=file, place=place)
-    return Material(key, name, float(density), group, source, tuple(aliases))
+    return Material(key, name, float(density), group, source, tuple(aliases), note)
 
 
 def parse_materials(text: str, file: str = _FILE) -> tuple[Material, ...]:

@@ -42,7 +42,7 @@ TRADE = "common practice, no source"
 def test_density_matches_the_reference(key, density, source):
     material = find_material(key)
     assert material.density == density
-    assert material.source == source
+    assert material.reference == source
 
 
 @pytest.mark.parametrize("key", ["stainless_304", "stainless_316"])
@@ -51,17 +51,47 @@ def test_austenitic_stainless_is_in_range(key):
     material = find_material(key)
     assert 7900.0 <= material.density <= 8000.0
     assert material.group == "stainless"
-    assert material.source.startswith(TRADE)
+    assert material.reference.startswith(TRADE)
 
 
 def test_every_row_names_an_allowed_source():
     handbook = {"water", "aluminium", "copper", "iron", "titanium", "lead"}
     for material in load_materials():
         if material.key in handbook:
-            assert material.source == CRC, material.key
+            assert material.reference == CRC, material.key
         else:
             # anything not from the handbook list is a trade figure
-            assert material.source.startswith(TRADE), material.key
+            assert material.reference.startswith(TRADE), material.key
+
+
+def test_sources_shown_to_users_carry_no_provenance_note():
+    # issue 9: users read "Water … (CRC Handbook … (from memory))". The note stays in the
+    # data (for the tests above); the source users read is plain, with no brackets.
+    for material in load_materials():
+        assert "memory" not in material.source and "(" not in material.source, material.key
+    water = find_material("water")
+    assert (water.source, water.note) == ("CRC Handbook of Chemistry and Physics", "from memory")
+
+
+@pytest.mark.parametrize("command", [
+    ["measure", "{profile}", "--material", "water"],
+    ["vessel", "--diameter", "1000", "--length", "500", "--head", "flat", "--thickness", "5",
+     "--material", "steel", "--liquid", "water"],
+    ["turn", "{profile}", "--material", "aluminium"],
+])
+def test_command_output_shows_sources_plainly(command, capsys):
+    from revolve.cli.app import main
+
+    profile = str(ROOT / "profiles" / "turned-stepped-shaft.toml")
+    with pytest.raises(SystemExit) as exc:
+        main([a.format(profile=profile) for a in command])
+    out, err = capsys.readouterr()
+    assert exc.value.code in (0, None), err
+    assert "memory" not in out
+    import re
+    shown = re.findall(r"kg/m³ \(([^\n]*?)\)", out)    # the source beside each density
+    assert shown and all("(" not in s and ")" not in s for s in shown), shown
+    assert "CRC Handbook of Chemistry and Physics" in out or "common practice" in out
 
 
 def test_groups_keys_and_densities_are_sane():
@@ -169,6 +199,9 @@ def test_parse_materials_reads_a_good_row():
     (material,) = parse_materials(row())
     assert material == Material("demo", "Demo", 1000.0, "liquid",
                                 "invented, demo only", ("demo alias",))
+    # the optional note is read and kept apart from the source
+    (noted,) = parse_materials(row() + 'note = "from memory"\n')
+    assert (noted.source, noted.note) == ("invented, demo only", "from memory")
 
 
 @pytest.mark.parametrize("text, match", [
@@ -186,6 +219,8 @@ def test_parse_materials_reads_a_good_row():
     (row() + row(key="other", name="DEMO"), "'DEMO' would find both"),
     (row().replace('source = "invented, demo only"\n', ""), "missing field"),
     (row() + "colour = 'red'\n", "unknown field"),
+    (row() + "note = 5\n", "note must be non-empty"),
+    (row() + "note = ''\n", "note must be non-empty"),
     ("[notes]\ntext = 'x'\n" + row(), "unknown top-level key"),
     ("material = 3\n", "array of tables"),
     ("[[material]\n", "not valid TOML"),

@@ -36,6 +36,10 @@ class ProfileDocument:
         Material name as written (the caller looks it up).
     density : str or None
         Density text as written, e.g. ``"7850 kg/m^3"`` (the caller resolves it).
+    section : str
+        What the loops enclose: ``"material"`` (a solid part, the default) or
+        ``"space"`` (empty space such as a vessel's liquid space: the
+        material is around the loops, so their surfaces face the other way).
     exact : bool
         True when every number came from an integer, a decimal literal or an
         expression, so exact results can be derived from the segments'
@@ -55,6 +59,7 @@ class ProfileDocument:
     material: Optional[str] = None
     density: Optional[str] = None
     exact: bool = True
+    section: str = "material"
     source_lines: Mapping[str, int] = field(default_factory=dict, compare=False, hash=False)
     angle_exact: Any = field(default=None, compare=False)
 

@@ -108,7 +108,10 @@ from revolve.geometry.segments import (Line, Where, arc_from_centre, arc_from_ra
                                        curve_from_expressions)
 
 #: Keys allowed at the top of the file.
-TOP_KEYS = ("name", "units", "material", "density", "angle", "axis", "loop", "chain")
+TOP_KEYS = ("name", "units", "material", "density", "section", "angle", "axis", "loop",
+            "chain")
+#: Values of ``section``: what the loops enclose.
+SECTIONS = ("material", "space")
 #: Keys allowed in a [[loop]] or [[chain]] table.
 PATH_KEYS = ("face", "start", "segments")
 #: Keys allowed in the [axis] table.
@@ -274,6 +277,10 @@ class _Reader:
         if material is not None and density is not None:
             raise fail("give material or density, not both",
                        self.where("density", "density"))
+        section = self.text(data, "section") or "material"
+        if section not in SECTIONS:
+            raise fail(f'section must be "material" (a solid part) or "space" (the space inside '
+                       f'a vessel), got {describe(section)}', self.where("section", "section"))
         angle = self.angle(data.get("angle"))
         axis = self.axis(data["axis"]) if "axis" in data else None
         loops = tuple(self.path("loop", i, t) for i, t in self.tables(data, "loop"))
@@ -285,6 +292,7 @@ class _Reader:
         profile = Profile(loops=loops, chains=chains, unit=units, name=name, file=self.file)
         return ProfileDocument(profile=profile, axis=axis, angle_degrees=angle,
                                material=material, density=density, exact=True,
+                               section=section,
                                angle_exact=self.angle_exact,
                                source_lines=dict(self.lines))
 

@@ -102,7 +102,7 @@ def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_
 def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
                  axis: Optional[Axis] = None, angle: Optional[float] = None,
                  material: Optional[str] = None, density: Optional[str] = None,
-                 name: Optional[str] = None) -> str:
+                 name: Optional[str] = None, section: Optional[str] = None) -> str:
     """The text of the profile file for a profile (see :func:`write_profile`).
 
     Examples
@@ -128,6 +128,7 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
             angle, angle_exact = doc.angle_degrees, doc.angle_exact
         if material is None and density is None:
             material, density = doc.material, doc.density
+        section = section if section is not None else doc.section
     elif isinstance(document_or_profile, Profile):
         profile = document_or_profile
     else:
@@ -144,6 +145,8 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
         out.append(f"material = {toml_string(material)}")
     if density is not None:
         out.append(f"density = {toml_string(density)}")
+    if section not in (None, "material"):
+        out.append(f"section = {toml_string(section)}")
     if angle is not None:
         angle = float(angle)
         text = _number(angle_exact, angle) if angle_exact is not None else _plain(angle)

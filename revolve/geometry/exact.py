@@ -31,6 +31,8 @@ import math
 from fractions import Fraction
 from typing import Any, Dict, Optional
 
+from revolve.errors import indefinite
+
 
 class NotExact(Exception):
     """An input has no exact value, or sympy gave up within its budget."""
@@ -92,7 +94,7 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
             loop_no += 1
         for seg in path.segments:
             if seg.exact is None and seg.kind != "curve":
-                raise NotExact(f"a {seg.kind} has no exact inputs")
+                raise NotExact(f"{indefinite(seg.kind)} has no exact inputs")
             if seg.kind == "line":
                 x0, y0, x1, y1 = (_sym(v) for v in seg.exact)
                 (z0, r0), (z1, r1) = frame((x0, y0)), frame((x1, y1))

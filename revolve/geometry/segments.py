@@ -253,6 +253,30 @@ def arc_from_centre(start: Point, end: Point, centre: Point, clockwise: bool,
     return Arc(start, end, centre, bool(clockwise), face=face, where=where, exact=exact)
 
 
+def _numeric_function(t, expression) -> Callable:
+    """A numpy function of ``t`` for a whitelisted expression, leaving no line-cache entry.
+
+    ``sympy.lambdify`` stores its generated source in the global
+    :data:`linecache.cache` and deletes it again when the function is garbage
+    collected. A collection during ``linecache.checkcache`` (run by doctest
+    and traceback) then removes a key the loop is about to read: ``KeyError:
+    '<lambdifygenerated-N>'``, depending on what ran before. Dropping the entry
+    at once leaves nothing that can vanish later.
+
+    >>> import linecache, sympy
+    >>> f = _numeric_function(sympy.Symbol("t"), sympy.Symbol("t") ** 2)
+    >>> float(f(3.0)), f.__code__.co_filename in linecache.cache
+    (9.0, False)
+    """
+    import linecache
+
+    import sympy
+
+    function = sympy.lambdify(t, expression, modules="numpy")
+    linecache.cache.pop(function.__code__.co_filename, None)
+    return function
+
+
 @dataclass(frozen=True)
 class Curve:
     """A curve given by expressions ``x(t)``, ``y(t)`` for ``t`` from ``t_start`` to ``t_end``.
@@ -279,7 +303,7 @@ class Curve:
         import sympy
 
         t = sympy.Symbol("t", real=True)
-        fx = [sympy.lambdify(t, e, modules="numpy")
+        fx = [_numeric_function(t, e)
               for e in (self.x_expr, self.y_expr,
                         sympy.diff(self.x_expr, t), sympy.diff(self.y_expr, t))]
 

@@ -7,27 +7,43 @@ command line (``revolve coat``) reads files and renders the results.
 Areas to coat
 -------------
 :func:`surfaces` splits the swept surface of a measurement into
-:class:`Surface` pieces, one per face name and the way it faces:
+:class:`Surface` pieces, one per face name and the way it faces. The groups
+say which side of the material a surface is on, as a painter means it on a
+part or on a vessel alike. At each point of a closed section take the
+outward normal (out of the material):
 
-``outside``
-    faces of a solid whose outward normal points away from the axis (outside
-    diameters, domes seen from outside, the bottom of a groove);
 ``inside``
-    faces of a solid that look towards the axis (bores);
+    its radial part points towards the axis: bores, the inner faces of a
+    vessel's shell and heads (crowns included, right to the pole), the far
+    side of a hole in the section;
+``outside``
+    its radial part points away from the axis: outside diameters, domes and
+    cones seen from outside, however slanted, chamfers on an outside edge;
 ``ends``
-    faces of a solid that look along the axis: flat or nearly flat faces whose
-    mean outward normal is nearer the axis direction than the radial one
-    (within 45°);
+    it is parallel to the axis: flat faces square to the axis (a bushing's
+    end faces, both faces of a flat head), within :data:`ENDS_TOLERANCE`
+    (0.0001 rad);
 ``cut``
     the two flat faces left by a partial revolution (angle below 360°), each
     the section's area; counted only when asked for.
 
-Each segment is put whole into one group by its mean outward normal
-(weighted by the swept area), so a face with several segments may appear in
-several groups. An open chain (a sheet or shell) has no thickness: it is one
-curve with two sides of equal area, its *outer side* (group ``outside``) and
-its *inner side* (group ``inside``). Both sides carry the same area, so which
-physical side is called inner is only a label.
+Segments are split where they turn back along the axis (where the radial
+part of the normal changes sign: an arc at its top and bottom, a curve where
+dz/dt changes sign), so a face may appear in several groups, each piece in
+exactly one.
+
+A loop normally encloses material. A profile file with ``section = "space"``
+(``revolve vessel`` writes it on the liquid space) encloses empty space: the
+material is around it, so its surfaces face the other way, and the liquid
+space of a vessel is all ``inside`` (flat heads: ``ends``).
+
+An open chain (a sheet or shell, surface only) has no thickness: each piece
+has two sides of equal area. Its *inner side* is the side that faces the
+axis over more of the chain's area (for a chain that only lies flat, the
+side facing along the axis direction); the other is the *outer side*. Each
+side of each piece is then grouped by its own normal as above: the inner
+side of a tank wall drawn as a chain is ``inside``, the inner side of its
+flat bottom is an end.
 
 :func:`select` then keeps what the estimator asks for: face names or group
 words to include (a face name written in the profile wins over a group word
@@ -89,7 +105,8 @@ from __future__ import annotations
 import difflib
 import math
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, field
+from fractions import Fraction
 from typing import Any, Dict, Iterable, List, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import FormatError, RevolveError
@@ -158,37 +175,107 @@ class Chosen:
     reason: Optional[str] = None
 
 
-def _segment_facing(seg, factor: float) -> Tuple[float, float]:
-    """Mean outward normal (axial, radial) of a frame segment, weighted by r ds (not normalised).
+#: A piece counts as an end when its axial extent is at most this fraction of its chord
+#: (its outward normal within about 0.0001 rad, 0.006°, of the axis).
+ENDS_TOLERANCE = 1e-4
 
-    ``factor`` is the loop's factor from the section (+1 solid counter-clockwise
-    or hole clockwise, -1 the other way); the outward normal of the solid is the
-    right-hand normal of the segment's direction times ``factor``.
+
+def turning_pieces(seg) -> list:
+    """A frame segment split where it turns back along the axis (where dz/ds changes sign).
+
+    Within each piece the radial part of the normal keeps one sign, so each
+    piece faces the axis or away from it all along (or lies flat). Lines are
+    one piece; arcs split at the angles 0 and π from their centre; curves
+    where dz/dt changes sign (found on 1024 steps, then by bisection).
+
+    >>> from revolve.geometry.segments import arc_from_centre
+    >>> circle_top = arc_from_centre((-1.0, 3.0), (1.0, 3.0), (0.0, 3.0), clockwise=True)
+    >>> [(p.start, p.end) for p in turning_pieces(circle_top)]
+    [((-1.0, 3.0), (1.0, 3.0))]
+    >>> whole = arc_from_centre((0.0, 2.0), (0.0, 4.0), (0.0, 3.0), clockwise=False)
+    >>> [tuple(round(v, 12) for v in p.end) for p in turning_pieces(whole)]
+    [(1.0, 3.0), (0.0, 4.0)]
     """
-    from revolve.geometry.checks import flatten
+    from dataclasses import replace
 
-    pts = flatten(seg)
-    z, r = pts[:, 0], pts[:, 1]
-    rm = (r[:-1] + r[1:]) / 2
-    return (factor * float((rm * (r[1:] - r[:-1])).sum()),
-            -factor * float((rm * (z[1:] - z[:-1])).sum()))
+    import numpy as np
+
+    if seg.kind == "line":
+        return [seg]
+    if seg.kind == "arc":
+        a0, a1 = seg.angles()
+        lo, hi = min(a0, a1), max(a0, a1)
+        cuts = [k * math.pi for k in range(math.ceil(lo / math.pi), math.floor(hi / math.pi) + 1)
+                if lo < k * math.pi < hi]
+        if a1 < a0:
+            cuts.reverse()
+        cz, cr = seg.centre
+        points = [seg.start] + [(cz + seg.radius * math.cos(a), cr + seg.radius * math.sin(a))
+                                for a in cuts] + [seg.end]
+        return [replace(seg, start=p, end=q, exact=None) for p, q in zip(points[:-1], points[1:])]
+    t = np.linspace(seg.t_start, seg.t_end, 1025)
+    _, _, dz, _ = seg.evaluate(t)
+    dz = np.nan_to_num(dz, nan=0.0, posinf=0.0, neginf=0.0)
+    nonzero = np.flatnonzero(np.sign(dz) != 0)
+    change = np.sign(dz[nonzero[:-1]]) * np.sign(dz[nonzero[1:]]) < 0
+    ts = [seg.t_start]
+    for i, j in zip(nonzero[:-1][change], nonzero[1:][change]):
+        a, b = float(t[i]), float(t[j])
+        fa = float(seg.evaluate([a])[2][0])
+        for _ in range(200):          # bisection to the last bit
+            m = 0.5 * (a + b)
+            if m in (a, b):
+                break
+            fm = float(seg.evaluate([m])[2][0])
+            if (fm > 0) == (fa > 0):
+                a, fa = m, fm
+            else:
+                b = m
+        ts.append(0.5 * (a + b))
+    ts.append(seg.t_end)
+    return [replace(seg, t_start=ta, t_end=tb, exact=None) for ta, tb in zip(ts[:-1], ts[1:])
+            if tb != ta]
 
 
-def classify(normal_axial: float, normal_radial: float) -> str:
-    """Group of a solid face from its mean outward normal: outside, inside or ends.
+def classify(axial_extent: float, radial_normal: float, chord: float) -> str:
+    """Group of one side of a piece: ends, inside or outside.
 
-    >>> classify(0.0, 2.0), classify(0.0, -2.0), classify(3.0, 1.0), classify(-1.0, 1.0)
-    ('outside', 'inside', 'ends', 'outside')
+    ``axial_extent`` is how far the piece runs along the axis, ``chord`` the
+    distance between its ends and ``radial_normal`` the radial part of the
+    side's normal anywhere inside it (its sign is the same all along a piece
+    from :func:`turning_pieces`).
+
+    >>> classify(0.0, 0.0, 2.0), classify(5.0, -1.0, 5.0), classify(1.0, 0.3, 3.0)
+    ('ends', 'inside', 'outside')
+    >>> classify(1e-5, 1.0, 1.0)   # a face off square by 0.0006°: still an end
+    'ends'
     """
-    if abs(normal_axial) > abs(normal_radial) * (1 + 1e-9):
+    if abs(axial_extent) <= ENDS_TOLERANCE * chord:
         return "ends"
-    return "outside" if normal_radial >= 0 else "inside"
+    return "outside" if radial_normal > 0 else "inside"
 
 
-def surfaces(measurement) -> Tuple[Surface, ...]:
+def _piece_facing(piece, factor: float) -> str:
+    """Group of a piece for the side whose normal is ``factor`` × the right-hand normal.
+
+    The right-hand normal of the direction (dz, dr) is (dr, −dz): its radial
+    part has the sign of −dz.
+    """
+    (z0, r0), (z1, r1) = piece.start, piece.end
+    dz = z1 - z0
+    return classify(dz, -factor * dz, math.hypot(dz, r1 - r0))
+
+
+def surfaces(measurement, space: bool = False) -> Tuple[Surface, ...]:
     """Every surface of a measured revolution, by face name and facing, in profile unit².
 
-    Chains give two surfaces per face (outer and inner side); a partial
+    The groups say which way a surface faces, seen from the material (see the
+    module docstring): the side of each point whose normal points towards
+    the axis is ``inside``, away from it ``outside``, and pieces square to the
+    axis are ``ends``. Segments are split where they turn back along the
+    axis, so a dome's inner surface is inside all the way to its crown.
+
+    Chains give two surfaces per piece (outer and inner side); a partial
     revolution of a solid adds the cut faces (both together). Pieces that
     sweep no area (segments on the axis) are left out. For each face name the
     solid pieces plus one side of its chain pieces add up to the
@@ -198,6 +285,11 @@ def surfaces(measurement) -> Tuple[Surface, ...]:
     ----------
     measurement : Measurement
         From :func:`revolve.geometry.measure.measure`.
+    space : bool
+        The loops enclose empty space, not material (the liquid space of a
+        vessel, ``section = "space"`` in the profile file): the material is
+        around them, so their surfaces face the other way (a vessel's wall
+        is inside).
 
     Returns
     -------
@@ -211,8 +303,15 @@ def surfaces(measurement) -> Tuple[Surface, ...]:
     >>> from revolve.geometry.measure import measure
     >>> from revolve.geometry.profile import Loop, Profile, Revolution
     >>> tube = Loop.from_points([(0, 1), (10, 1), (10, 2), (0, 2)])
-    >>> [(s.facing, round(s.area / math.pi, 9)) for s in surfaces(measure(Revolution(Profile(loops=(tube,)))))]
+    >>> m = measure(Revolution(Profile(loops=(tube,))))
+    >>> [(s.facing, round(s.area / math.pi, 9)) for s in surfaces(m)]
     [('inside', 20.0), ('ends', 6.0), ('outside', 40.0)]
+
+    The same section as the space inside a vessel: the wall around a space
+    faces the axis where the material's surface faced away from it.
+
+    >>> [(s.facing, round(s.area / math.pi, 9)) for s in surfaces(m, space=True)]
+    [('outside', 20.0), ('ends', 6.0), ('inside', 40.0)]
     """
     import numpy as np
 
@@ -225,41 +324,64 @@ def surfaces(measurement) -> Tuple[Surface, ...]:
     prep = prepare(rev.profile, rev.axis)
     theta = rev.angle_radians
     factors = iter(m.section.loop_factors)
-    entries: List[Tuple[str, str, str]] = []   # (face, facing, kind) per segment
-    segments = []
+    # (face, facing, kind, side) per piece; chains: two entries per piece
+    entries: List[Tuple[str, str, str, Optional[str]]] = []
+    pieces = []
     for closed, path in zip(prep.closed, prep.paths):
-        f = next(factors) if closed else 0.0
-        for seg in path:
-            face = seg.face or UNNAMED_FACE
-            if closed:
-                entries.append((face, classify(*_segment_facing(seg, f)), "solid"))
-            else:
-                entries.append((face, "", "chain"))
-            segments.append(seg)
-    raw = theta * segment_integrals(segments, symbolic=False).values[:, COL["length_y"]] \
-        if segments else np.zeros(0)
-    # Scale each face's pieces so they add up to the engine's figure for that face.
+        split = [(seg.face or UNNAMED_FACE, piece) for seg in path for piece in turning_pieces(seg)]
+        if closed:
+            f = float(next(factors)) * (-1.0 if space else 1.0)
+            for face, piece in split:
+                entries.append((face, _piece_facing(piece, f), "solid", None))
+                pieces.append(piece)
+            continue
+        # An open chain: its inner side is the hand that faces the axis over more of the
+        # swept area (for a chain that only lies flat, the hand facing along the axis).
+        inner = _chain_inner_hand(split, theta)
+        for face, piece in split:
+            for side, hand in (("outer", -inner), ("inner", inner)):
+                entries.append((face, _piece_facing(piece, hand), "chain", side))
+                pieces.append(piece)
+    raw = theta * segment_integrals(pieces, symbolic=False).values[:, COL["length_y"]] \
+        if pieces else np.zeros(0)
+    # Scale each face's pieces so they add up to the engine's figure for that face (a chain
+    # piece is counted twice, once per side, so its face's total is halved).
     totals: Dict[str, float] = {}
-    for (face, _, _), a in zip(entries, raw):
-        totals[face] = totals.get(face, 0.0) + float(a)
-    pieces: Dict[Tuple[str, str, str], float] = {}
-    for (face, facing, kind), a in zip(entries, raw):
+    for (face, _, kind, _), a in zip(entries, raw):
+        totals[face] = totals.get(face, 0.0) + float(a) * (0.5 if kind == "chain" else 1.0)
+    found: Dict[Tuple[str, str, str, Optional[str]], float] = {}
+    for key, a in zip(entries, raw):
+        face = key[0]
         want = m.surface_by_face.get(face, 0.0)
         scale = want / totals[face] if totals[face] > 0 else 0.0
-        key = (face, facing, kind)
-        pieces[key] = pieces.get(key, 0.0) + float(a) * scale
+        found[key] = found.get(key, 0.0) + float(a) * scale
     out: List[Surface] = []
-    for (face, facing, kind), area in pieces.items():
-        if not area > 0:
-            continue
-        if kind == "chain":
-            out.append(Surface(face, "outside", area, "chain", "outer"))
-            out.append(Surface(face, "inside", area, "chain", "inner"))
-        else:
-            out.append(Surface(face, facing, area, "solid"))
+    for (face, facing, kind, side), area in found.items():
+        if area > 0:
+            out.append(Surface(face, facing, area, kind, side))
     if m.cut_face_area is not None and m.cut_face_area > 0:
         out.append(Surface(CUT_FACE, CUT, 2.0 * m.cut_face_area, "cut"))
     return tuple(out)
+
+
+def _chain_inner_hand(split, theta: float) -> float:
+    """+1 when a chain's inner side is on the right-hand normal of its direction, else −1."""
+    from revolve.geometry.integrals import COL, segment_integrals
+
+    pieces = [p for _, p in split]
+    areas = segment_integrals(pieces, symbolic=False).values[:, COL["length_y"]] if pieces else []
+    leaning = 0.0
+    for piece, a in zip(pieces, areas):
+        facing = _piece_facing(piece, 1.0)
+        leaning += {"inside": float(a), "outside": -float(a)}.get(facing, 0.0)
+    if leaning != 0.0:
+        return 1.0 if leaning > 0 else -1.0
+    # only flat pieces (or a perfect balance): the hand whose normal points along +z
+    for piece in pieces:
+        (z0, r0), (z1, r1) = piece.start, piece.end
+        if r1 != r0:
+            return 1.0 if r1 > r0 else -1.0   # right-hand normal (dr, −dz) has axial part dr
+    return 1.0
 
 
 def face_names(found: Iterable[Surface]) -> Tuple[str, ...]:
@@ -445,15 +567,92 @@ def spreading_rate_in(rate_m2_per_litre: float, area_unit: str, volume_unit: str
         units.factor(volume_unit, "volume") / units.factor("L", "volume"))
 
 
+def _exact(value: Any) -> Fraction:
+    """A number as the user wrote it, exactly: an int or a float's shortest decimal.
+
+    >>> _exact(2.4), _exact(3), _exact(Fraction(1, 3))
+    (Fraction(12, 5), Fraction(3, 1), Fraction(1, 3))
+    """
+    if isinstance(value, (int, Fraction)):
+        return Fraction(value)
+    return Fraction(repr(float(value)))
+
+
+def film_in(um: float, um_exact: Optional[Fraction], unit: str) -> float:
+    """A film thickness given in µm, in ``unit``; exact when both are exact.
+
+    Converting through exact fractions (1 mil = 25.4 µm by definition) brings
+    the user's own number back unchanged: 1 mil is 1 mil, not 0.9999999999999999.
+
+    >>> film_in(25.4, Fraction(127, 5), "mil"), round(film_in(25.4, None, "mil"), 12)
+    (1.0, 1.0)
+    >>> film_in(60.0, Fraction(60), "mm")
+    0.06
+    """
+    from revolve import units
+
+    exact = units.exact_factor(unit, "length")
+    if um_exact is not None and exact is not None:
+        return float(um_exact / 1_000_000 / exact)
+    return um * 1e-6 / units.factor(unit, "length")
+
+
 @dataclass(frozen=True)
 class Coat:
-    """One coat: dry film (µm), volume solids (%), loss factor (%), price per litre or None."""
+    """One coat: dry film (µm), volume solids (%), loss factor (%), price per litre or None.
+
+    ``dft_exact`` keeps the film as the user gave it (an exact fraction of a
+    µm), so that it reads back in any unit without float noise.
+    """
 
     name: str
     dft_um: float
     volume_solids: float
     loss: float
     price_per_litre: Optional[float] = None
+    #: The dry film in µm exactly as the user's number and unit give it (None: not known).
+    dft_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+    #: The price per litre exactly as the user's number and unit give it (None: not known).
+    price_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+
+    def price_in(self, volume_unit: str) -> Optional[float]:
+        """The price per ``volume_unit``, converted exactly from what the user wrote; or None.
+
+        >>> make_coat(dft_um=50, volume_solids=50, loss=0, price_per_us_gallon=0.17).price_in("US_gal")
+        0.17
+        >>> make_coat(dft_um=50, volume_solids=50, loss=0, price_per_litre=2).price_in("m^3")
+        2000.0
+        """
+        from revolve import units
+
+        if self.price_per_litre is None:
+            return None
+        exact = units.exact_factor(volume_unit, "volume")
+        if self.price_exact is not None and exact is not None:
+            return float(self.price_exact * exact * 1000)
+        return self.price_per_litre * units.factor(volume_unit, "volume") / units.factor("L",
+                                                                                         "volume")
+
+    def dft_in(self, unit: str) -> float:
+        """The dry film in ``unit``, converted exactly from what the user wrote.
+
+        >>> make_coat(dft_mils=1, volume_solids=50, loss=0).dft_in("mil")
+        1.0
+        >>> make_coat(dft_mils=2.4, volume_solids=50, loss=0).dft_in("um")
+        60.96
+        """
+        return film_in(self.dft_um, self.dft_exact, unit)
+
+    def wet_film_in(self, unit: str) -> float:
+        """The wet film (DFT × 100 / VS) in ``unit``.
+
+        >>> make_coat(dft_mils=1, volume_solids=50, loss=0).wet_film_in("mil")
+        2.0
+        """
+        if self.dft_exact is None:
+            return film_in(self.wet_film_um, None, unit)
+        return film_in(self.wet_film_um,
+                       self.dft_exact * 100 / _exact(self.volume_solids), unit)
 
     @property
     def spreading_rate_theoretical(self) -> float:
@@ -536,7 +735,7 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
         if isinstance(raw, str):
             raise fail(key, f"{what} must be a plain number, without quotes, units or a % sign; "
                             f"got {raw!r}")
-        if isinstance(raw, bool) or not isinstance(raw, (int, float)):
+        if isinstance(raw, bool) or not isinstance(raw, (int, float, Fraction)):
             raise fail(key, f"{what} must be a number, got {raw!r}")
         v = float(raw)
         if not math.isfinite(v):
@@ -549,10 +748,12 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
         raise fail("dft", "the dry film thickness is missing; give it in µm or in mils")
     if dft_um is not None:
         dft = value("dft_um", dft_um, "the dry film thickness")
-        key, shown = "dft_um", f"{dft:g} µm"
+        key, shown, exact = "dft_um", f"{dft:g} µm", _exact(dft_um)
     else:
         mils = value("dft_mils", dft_mils, "the dry film thickness")
-        key, shown, dft = "dft_mils", f"{mils:g} mils", mils * UM_PER_MIL
+        key, shown = "dft_mils", f"{mils:g} mils"
+        exact = _exact(dft_mils) * Fraction(127, 5)       # 1 mil = 25.4 µm exactly
+    dft = float(exact)
     if not dft > 0:
         raise fail(key, f"the dry film thickness must be above 0, got {shown}")
     if dft > MAX_DFT_UM:
@@ -571,16 +772,20 @@ def make_coat(name: Optional[str] = None, *, dft_um: Any = None, dft_mils: Any =
     if price_per_litre is not None and price_per_us_gallon is not None:
         raise fail("price_per_us_gallon", "give the price per litre or per US gallon, not both")
     price = value("price_per_litre", price_per_litre, "the price per litre")
+    price_exact = None if price is None else _exact(price_per_litre)
     if price_per_us_gallon is not None:
         gal = value("price_per_us_gallon", price_per_us_gallon, "the price per US gallon")
         if gal < 0:
             raise fail("price_per_us_gallon", f"the price must be at least 0, got {gal:g}")
-        price = gal / US_GALLON_LITRES
+        # 1 US gal = 231 in³ = 3.785411784 L exactly
+        price_exact = _exact(price_per_us_gallon) / Fraction(473176473, 125000000)
+        price = float(price_exact)
     if price is not None and price < 0:
         raise fail("price_per_litre", f"the price must be at least 0, got {price:g}")
     if name is not None and (not isinstance(name, str) or not name.strip()):
         raise fail("name", f"the coat's name must be a non-empty text, got {name!r}")
-    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price)
+    return Coat(name.strip() if name else f"coat {number}", dft, vs, lf, price, exact,
+                price_exact)
 
 
 def parse_film_thickness(text: str, default_unit: str = "um") -> float:
@@ -593,8 +798,17 @@ def parse_film_thickness(text: str, default_unit: str = "um") -> float:
     ...
     revolve.jobs.coating.CoatingError: --dft: give the dry film thickness as a number (µm) or with its unit, e.g. 75 um or 3 mil; got 'thick'
     """
-    from fractions import Fraction
+    key, value = read_film_thickness(text, default_unit)
+    return float(value * Fraction(127, 5)) if key == "dft_mils" else float(value)
 
+
+def read_film_thickness(text: str, default_unit: str = "um") -> Tuple[str, Any]:
+    """A dry film thickness from text, as :func:`make_coat` takes it: ``("dft_um", µm)`` or
+    ``("dft_mils", mils)``, the number kept exact (a Fraction) where the unit is exact.
+
+    >>> read_film_thickness("1", "mil"), read_film_thickness("0.1 mm")
+    (('dft_mils', Fraction(1, 1)), ('dft_um', Fraction(100, 1)))
+    """
     from revolve import units
 
     found = re.fullmatch(r"\s*([+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*", text or "")
@@ -602,10 +816,15 @@ def parse_film_thickness(text: str, default_unit: str = "um") -> float:
         unit = found.group(2) or default_unit
         try:
             exact = units.exact_factor(unit, "length")
-            if exact is not None:
-                return float(Fraction(found.group(1)) * exact * 1_000_000)
-            return float(found.group(1)) * units.factor(unit, "length") * 1e6
-        except RevolveError:
+            plain = float(found.group(1))
+            if exact is not None and len(found.group(1)) <= 40 \
+                    and (plain == 0 or 1e-300 < abs(plain) < 1e300):
+                number = Fraction(found.group(1))
+                if units.canonical(unit) == "mil":
+                    return "dft_mils", number
+                return "dft_um", number * exact * 1_000_000
+            return "dft_um", plain * units.factor(unit, "length") * 1e6
+        except (RevolveError, ValueError, OverflowError, ZeroDivisionError):
             pass
     raise CoatingError("give the dry film thickness as a number "
                        f"({units.canonical(default_unit)}) or with its unit, e.g. 75 um or 3 mil; "
@@ -625,6 +844,18 @@ class CoatingSystem:
     def dft_um(self) -> float:
         """Total dry film of the system, µm."""
         return float(math.fsum(c.dft_um for c in self.coats))
+
+    def dft_in(self, unit: str) -> float:
+        """Total dry film in ``unit``, exact when every coat's film is.
+
+        >>> system = CoatingSystem((make_coat(dft_mils=1, volume_solids=50, loss=0),
+        ...                         make_coat(dft_mils=2, volume_solids=50, loss=0)))
+        >>> system.dft_in("mil")
+        3.0
+        """
+        exact = [c.dft_exact for c in self.coats]
+        total = sum(exact, Fraction(0)) if all(e is not None for e in exact) else None
+        return film_in(self.dft_um, total, unit)
 
 
 #: Keys of the coating-system file.

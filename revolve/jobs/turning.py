@@ -637,7 +637,8 @@ class Removal:
 
     ``removed_volume`` is stock − part exactly; ``offcut_volume`` the holding
     piece (left as an offcut, not cut); ``chip_volume`` the rest (turned,
-    faced and parted away), which sets the roughing time.
+    faced and parted away), which sets the roughing time. Each has its mass
+    (m³ and kg).
     """
 
     removed_volume: float
@@ -646,6 +647,7 @@ class Removal:
     chip_volume: float
     chip_mass: float
     utilisation: float
+    offcut_mass: float = 0.0
 
 
 def removal(part: Part, stock: Stock, allowances: Allowances) -> Removal:
@@ -678,7 +680,8 @@ def removal(part: Part, stock: Stock, allowances: Allowances) -> Removal:
     chips = removed - offcut
     return Removal(removed_volume=removed, removed_mass=removed * part.density,
                    offcut_volume=offcut, chip_volume=chips, chip_mass=chips * part.density,
-                   utilisation=part.mass / stock.mass if stock.mass else float("nan"))
+                   utilisation=part.mass / stock.mass if stock.mass else float("nan"),
+                   offcut_mass=offcut * part.density)
 
 
 # --------------------------------------------------------------------------- bars

@@ -71,7 +71,7 @@ from dataclasses import dataclass, field, replace
 from fractions import Fraction
 from typing import Dict, List, Optional, Tuple
 
-from revolve.errors import ProfileError, RevolveError
+from revolve.errors import ProfileError, RevolveError, indefinite
 from revolve.geometry.profile import Axis, Loop, Profile
 
 HEAD_KINDS = ("flat", "hemispherical", "ellipsoidal", "torispherical", "torispherical-10",
@@ -183,9 +183,11 @@ def parse_head(text: str, diameter: float, place: str = "head") -> HeadSpec:
                 raise RevolveError(f"write the head's settings as key=value, got {item.strip()!r}",
                                    place=place)
             if key not in _KEYS[kind]:
-                allowed = ", ".join(_KEYS[kind]) or "none"
-                raise RevolveError(f"a {kind} head has no setting {key!r} (settings: {allowed})",
-                                   place=place)
+                head = indefinite(f"{kind} head")
+                if not _KEYS[kind]:
+                    raise RevolveError(f"{head} takes no settings, got {key!r}", place=place)
+                raise RevolveError(f"{head} has no setting {key!r} (settings: "
+                                   f"{', '.join(_KEYS[kind])})", place=place)
             if key in values:
                 raise RevolveError(f"{key} is given twice", place=place)
             values[key] = _value(val, diameter, key, place, allow_percent=key != "angle")

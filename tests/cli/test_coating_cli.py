@@ -386,3 +386,52 @@ def test_subprocess_exit_codes_and_no_heavy_imports(tmp_path):
              "'revolve.jobs.coating') if m in sys.modules))")
     res = subprocess.run([sys.executable, "-c", probe], capture_output=True, text=True, cwd=ROOT)
     assert res.stdout.strip() == "[]", res.stdout + res.stderr
+
+
+# -- groups on vessels (issue 9) ---------------------------------------------------------
+
+
+def test_vessel_wall_and_liquid_space_inside_from_the_command_line(tmp_path, capsys):
+    # revolve vessel writes the wall and the liquid space; on both, "inside" is the
+    # vessel's whole inside: shell 2πRL plus two 2:1 ellipsoidal heads, each half an
+    # oblate spheroid a = R, c = R/2, S = 2πa² + π (c²/e) ln((1+e)/(1−e)) — CRC (from memory)
+    R, L = 1.0, 1.0      # metres: inside diameter 2000 mm, shell 1000 mm
+    e = math.sqrt(1 - 0.25)
+    spheroid = 2 * PI * R * R + PI * (0.25 * R * R / e) * math.log((1 + e) / (1 - e))
+    want = 2 * PI * R * L + spheroid
+    space, wall = tmp_path / "v.toml", tmp_path / "w.toml"
+    code, _, _ = run(["vessel", "--diameter", "2000", "--length", "1000", "--head", "ellipsoidal",
+                      "--thickness", "8", "--material", "carbon steel", "-o", str(space),
+                      "--wall-output", str(wall)], capsys)
+    assert code in (0, None)
+    assert 'section = "space"' in space.read_text()
+    for args in ([str(wall), "--faces", "inside"], [str(space), "--mask", "outside"],
+                 [str(space)]):
+        code, out, err = run(["coat", *args, *ONE_COAT, "--json"], capsys)
+        assert code in (0, None), err
+        assert rel(json.loads(out)["total"]["area"], want) < 1e-9, args
+
+
+def test_bad_section_in_the_profile_exit_2_naming_file_and_line(tmp_path, capsys):
+    text = PIPE.replace('units = "m"', 'units = "m"\nsection = "liquid"')
+    path = write(tmp_path, "pipe.toml", text)
+    code, out, err = run(["coat", path, *ONE_COAT], capsys)
+    assert_one_line_error(code, out, err, f"{path}:4", "section", "space")
+    assert out == ""
+
+
+def test_us_film_echoes_the_users_number(tmp_path, capsys):
+    # issue 9: --us --dft 1 echoed 0.9999999999999999 mil. 1 mil at 50 % solids: WFT 2 mil
+    # (common practice, no source); the JSON keeps the user's value, exactly.
+    target = tmp_path / "c.csv"
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--us", "--dft", "1",
+                          "--volume-solids", "50", "--loss", "10", "--json", "--csv",
+                          str(target)], capsys)
+    assert code in (0, None), err
+    d = json.loads(out)
+    assert d["coats"][0]["dft"] == 1.0 and d["coats"][0]["wet_film"] == 2.0
+    assert d["system"]["dft_total"] == 1.0
+    assert "0.99999" not in target.read_text() and "1.99999" not in target.read_text()
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--dft", "1 mil",
+                          "--volume-solids", "50", "--loss", "10", "--json"], capsys)
+    assert json.loads(out)["coats"][0]["dft"] == 25.4    # 1 mil = 25.4 µm (1959 agreement)

@@ -394,3 +394,21 @@ def test_quoting_lines_and_arcs_imports_no_heavy_library(tmp_path):
     )
     r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=tmp_path)
     assert "HEAVY []" in r.stderr, r.stderr[-2000:]
+
+
+def test_material_removed_block_shows_volume_and_mass_for_each_quantity(capsys):
+    # issue 9: the holding piece was shown in cm³ next to the chips in kg. Each quantity of
+    # the block now has a volume row and a mass row. Holding piece: π/4 · 42² · 20 mm³ of
+    # the 42 mm bar (cylinder, CRC from memory) at 7850 kg/m³ (common practice, no source).
+    code, out, err = run([SHAFT, "--holding-length", "20"], capsys)
+    assert code == 0, err
+    block = out.split("Material removed", 1)[1].split("utilisation", 1)[0]
+    for what in ("removed", "holding piece (offcut),", "chips,"):
+        assert re.search(re.escape(what) + r" ?volume\s+│\s+[\d.]+\s+│ cm³", block), what
+        assert re.search(re.escape(what) + r" ?mass\s+│\s+[\d.]+\s+│ kg", block), what
+    code, out, err = run([SHAFT, "--holding-length", "20", "--json"], capsys)
+    d = json.loads(out)
+    offcut = math.pi / 4 * 0.042 ** 2 * 0.020
+    assert rel(d["offcut_volume"], offcut) < 1e-12
+    assert rel(d["offcut_mass"], 7850 * offcut) < 1e-12
+    assert rel(d["offcut_mass"] + d["chip_mass"], d["removed_mass"]) < 1e-12

@@ -161,7 +161,11 @@ def test_impossible_heads_are_refused(head, message):
 
 def test_bad_head_text_is_refused():
     for text, message in (("dished", "unknown head"), ("conical", "needs its half-angle"),
-                          ("flat:angle=3", "has no setting"), ("torispherical:crown", "key=value"),
+                          ("flat:angle=3", "--head: a flat head takes no settings"),
+                          ("ellipsoidal:crown=3", "--head: an ellipsoidal head takes no settings"),
+                          ("hemispherical:angle=3", "--head: a hemispherical head takes no"),
+                          ("conical:angle=30,crown=3", "--head: a conical head has no setting 'crown'"),
+                          ("torispherical:crown", "key=value"),
                           ("conical:angle=30%", "not a percentage"),
                           ("torispherical:crown=big", "must be a number")):
         with pytest.raises(RevolveError, match=message):
@@ -301,7 +305,8 @@ def test_examples_are_what_the_builder_writes(name):
     doc = load_profile(str(path))
     v = build_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv))
     prof, axis = sketch_profile(v, orientation, name=doc.name)
-    assert profile_text(prof, axis=axis, angle=360) == path.read_text(encoding="utf-8")
+    assert profile_text(prof, axis=axis, angle=360, section="space") == \
+        path.read_text(encoding="utf-8")
 
 
 def test_diesel_day_tank_capacity():

@@ -1,7 +1,8 @@
 """``revolve coat``: areas to coat by face, and the coating quantities for a batch of parts.
 
 One or more profile files, each with a quantity; the faces to coat (all by
-default, or face names and the groups ``outside``, ``inside``, ``ends``;
+default, or face names and the groups ``outside``, ``inside``, ``ends``, by
+the side of the material a surface faces, see :mod:`revolve.jobs.coating`;
 ``--mask`` leaves faces out); a coating system of one coat from options or of
 several coats from a small TOML file (see :mod:`revolve.jobs.coating`).
 
@@ -75,12 +76,13 @@ def _system(path, name, dft, volume_solids, loss, price_litre, price_gallon, cur
         raise RevolveError("no coating given: use --system FILE for a coating system, or --dft, "
                            "--volume-solids and --loss for one coat")
     where = {"dft": (None, None, "--dft"), "dft_um": (None, None, "--dft"),
+             "dft_mils": (None, None, "--dft"),
              "volume_solids": (None, None, "--volume-solids"), "loss": (None, None, "--loss"),
              "price_per_litre": (None, None, "--price-per-litre"),
              "price_per_us_gallon": (None, None, "--price-per-gallon"),
              "name": (None, None, "--coat-name")}
-    dft_um = None if dft is None else coating.parse_film_thickness(dft, film_unit)
-    coat = coating.make_coat(name, dft_um=dft_um, volume_solids=volume_solids, loss=loss,
+    film = {} if dft is None else dict([coating.read_film_thickness(dft, film_unit)])
+    coat = coating.make_coat(name, **film, volume_solids=volume_solids, loss=loss,
                              price_per_litre=price_litre, price_per_us_gallon=price_gallon,
                              where=where)
     return coating.CoatingSystem((coat,), None, currency or None, None)
@@ -138,7 +140,8 @@ def _measure(path, axis, angle, unit, quantity):
 
     doc, rev = common.revolution_from_options(path, axis, angle, unit)
     m = measure(rev)
-    part = _Part(doc, m, coating.surfaces(m), quantity)
+    part = _Part(doc, m, coating.surfaces(m, space=getattr(doc, "section", "material") == "space"),
+                 quantity)
     part.si_area = units.factor(doc.profile.unit, "length") ** 2
     return part
 
@@ -156,16 +159,15 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
     """The JSON form of an estimate (see the module docstring)."""
     from revolve.jobs import coating
 
-    A, V, F, R = u.area_factor, u.volume_factor, u.film_factor, u.rate_factor
+    A, V, R = u.area_factor, u.volume_factor, u.rate_factor
     currency = est.system.currency
-    per_volume = 1.0 / V  # price per output volume unit = price per L × L per unit
     out = {
         "units": {"area": u.area, "volume": u.volume, "film": u.film, "spreading_rate": u.rate,
                   "volume_solids": "%", "loss": "%",
                   "price": f"{currency + ' ' if currency else ''}per {u.volume}",
                   "cost": currency or "the prices' currency"},
         "system": {"name": est.system.name, "file": est.system.file, "currency": currency,
-                   "coats": len(est.system.coats), "dft_total": est.system.dft_um * F},
+                   "coats": len(est.system.coats), "dft_total": est.system.dft_in(u.film_text)},
         "faces": options,
     }
     batch_faces: dict = {}
@@ -196,12 +198,13 @@ def estimate_dict(parts, est, u: _Units, options: dict, notes: List[str], tolera
     out["parts"] = parts_out
     out["area"] = {"per_face": batch_faces, "total": est.area * A}
     out["coats"] = [{
-        "name": q.coat.name, "dft": q.coat.dft_um * F, "volume_solids": q.coat.volume_solids,
-        "loss": q.coat.loss, "wet_film": q.coat.wet_film_um * F,
+        "name": q.coat.name, "dft": q.coat.dft_in(u.film_text),
+        "volume_solids": q.coat.volume_solids, "loss": q.coat.loss,
+        "wet_film": q.coat.wet_film_in(u.film_text),
         "spreading_rate_theoretical": q.coat.spreading_rate_theoretical * R,
         "spreading_rate_practical": q.coat.spreading_rate_practical * R,
         "area": q.area * A, "volume": q.litres * V, "volume_theoretical": q.litres_theoretical * V,
-        "price": None if q.coat.price_per_litre is None else q.coat.price_per_litre * per_volume,
+        "price": q.coat.price_in(u.volume_text),
         "cost": q.cost} for q in est.coats]
     out["total"] = {"quantity": est.quantity, "area": est.area * A, "volume": est.litres * V,
                     "cost": est.cost, "cost_complete": est.cost_complete}
@@ -215,7 +218,7 @@ def csv_text(parts, est, u: _Units) -> str:
     import csv
     import io
 
-    A, V, F, R = u.area_factor, u.volume_factor, u.film_factor, u.rate_factor
+    A, V, R = u.area_factor, u.volume_factor, u.rate_factor
     cur = est.system.currency
     money = f" ({cur})" if cur else ""
     header = ["part", "file", "quantity", f"area_each ({u.area})", f"area ({u.area})", "coat",
@@ -229,11 +232,11 @@ def csv_text(parts, est, u: _Units) -> str:
 
     def coat_cells(q):
         c = q.coat
-        return [c.name, num(c.dft_um * F), num(c.volume_solids), num(c.loss),
-                num(c.wet_film_um * F), num(c.spreading_rate_theoretical * R),
+        return [c.name, num(c.dft_in(u.film_text)), num(c.volume_solids), num(c.loss),
+                num(c.wet_film_in(u.film_text)), num(c.spreading_rate_theoretical * R),
                 num(c.spreading_rate_practical * R), num(q.litres * V),
                 num(q.litres_theoretical * V),
-                num(None if c.price_per_litre is None else c.price_per_litre / V), num(q.cost)]
+                num(c.price_in(u.volume_text)), num(q.cost)]
 
     buf = io.StringIO()
     w = csv.writer(buf, lineterminator="\n")
@@ -262,7 +265,7 @@ def _fsum(values) -> float:
 
 def _facing_text(s) -> str:
     if s.side:
-        return f"{s.side} side"
+        return f"{s.facing} ({s.side} side)"
     if s.facing == "cut":
         return "cut (both)"
     return s.facing
@@ -335,14 +338,14 @@ def _coats_table(est, u):
         t.add_column(head, justify="left" if head == "coat" else "right")
     for q in est.coats:
         c = q.coat
-        t.add_row(c.name, f(c.dft_um * u.film_factor, 4), f(c.volume_solids, 4),
-                  f(c.wet_film_um * u.film_factor, 4), f(c.spreading_rate_theoretical * u.rate_factor, 4),
+        t.add_row(c.name, f(c.dft_in(u.film_text), 4), f(c.volume_solids, 4),
+                  f(c.wet_film_in(u.film_text), 4), f(c.spreading_rate_theoretical * u.rate_factor, 4),
                   f(c.loss, 4), f(c.spreading_rate_practical * u.rate_factor, 4),
                   f(q.litres * u.volume_factor, 4),
-                  "—" if c.price_per_litre is None else f"{c.price_per_litre / u.volume_factor:,.2f}",
+                  "—" if c.price_per_litre is None else f"{c.price_in(u.volume_text):,.2f}",
                   _money(q.cost, None))
     t.add_section()
-    t.add_row("total", f(est.system.dft_um * u.film_factor, 4), "", "", "", "", "",
+    t.add_row("total", f(est.system.dft_in(u.film_text), 4), "", "", "", "", "",
               f(est.litres * u.volume_factor, 4), "", _money(est.cost, None), style="bold")
     return t
 
@@ -473,13 +476,17 @@ def register(app: typer.Typer) -> None:
                                            "profile in the same order. Default 1."),
         faces: Optional[List[str]] = typer.Option(
             None, "--faces", help="Faces to coat, comma-separated or repeated: face names of the "
-                                  "profile, or the groups outside, inside, ends (a face name "
-                                  "wins over a group of the same spelling), or all. Default all."),
+                                  "profile, or the groups inside (the normal out of the material "
+                                  "points towards the axis), outside (away from it), ends "
+                                  "(square to the axis), or all. A face name wins over a group "
+                                  "of the same spelling. Default all."),
         mask: Optional[List[str]] = typer.Option(
             None, "--mask", help="Faces or groups to leave uncoated (masked), as for --faces."),
         sides: str = typer.Option("both", "--sides", help="Open chains (sheets, shells): count "
                                                           "both sides, or only the outer or the "
-                                                          "inner one. Both have the same area."),
+                                                          "inner one (the side facing the axis "
+                                                          "over more of the area). Both have "
+                                                          "the same area."),
         cut_faces: bool = typer.Option(False, "--cut-faces", help="Also coat the two flat cut "
                                                                   "faces of a revolution below "
                                                                   "360°."),
@@ -531,6 +538,11 @@ def register(app: typer.Typer) -> None:
         Theoretical spreading rate, m²/L = 10 × volume solids % ÷ DFT in µm.
         Practical = theoretical × (1 − loss %/100). WFT = DFT × 100 ÷ volume solids %.
         Paint to buy = area ÷ practical spreading rate, for each coat.
+        Groups, by the normal pointing out of the material at each point:
+        inside (towards the axis), outside (away from it), ends (parallel to
+        the axis: faces square to it). A vessel's head crowns are inside on
+        the wall profile; the liquid-space profile (section = "space") is the
+        vessel's inside. Open chains: the inner side faces the axis.
         Units: areas m², paint L, films µm, rates m²/L; --us gives ft², US gal, mils.
         JSON: area (per_face, total); parts; coats, each with dft, wet_film,
         spreading_rate_theoretical, spreading_rate_practical, volume and cost;

@@ -32,7 +32,7 @@ JSON keys of a part: ``part_volume``, ``part_mass``, ``part_diameter``,
 ``finished_surface``, ``stock_kind``, ``stock_label``, ``stock_diameter``,
 ``stock_inside_diameter``, ``stock_length``, ``stock_volume``, ``stock_mass``,
 ``removed_volume``, ``removed_mass``, ``chip_volume``, ``chip_mass``,
-``offcut_volume``, ``utilisation``, ``bars``, ``cutting_data``,
+``offcut_volume``, ``offcut_mass``, ``utilisation``, ``bars``, ``cutting_data``,
 ``spindle_speed_rpm``, ``times``, ``cost``, ``allowances``, ``notes``,
 ``cautions``. One part prints that object; several print ``{"units": ...,
 "parts": [...]}``.
@@ -495,6 +495,7 @@ def _quote_dict(pq: PartQuote, currency: Optional[str]) -> Dict:
         "stock_length": s.length, "stock_volume": s.volume, "stock_mass": s.mass,
         "removed_volume": r.removed_volume, "removed_mass": r.removed_mass,
         "chip_volume": r.chip_volume, "chip_mass": r.chip_mass, "offcut_volume": r.offcut_volume,
+        "offcut_mass": r.offcut_mass,
         "utilisation": r.utilisation,
         "allowances": {"turning_on_diameter": a.turning, "bore_on_diameter": a.bore,
                        "facing_per_end": a.facing, "parting_width": a.parting_width,
@@ -585,7 +586,10 @@ def _csv_row(pq: PartQuote, u: DisplayUnits, currency: Optional[str]) -> Dict:
         f"stock_length_{u.length}": s.length * L,
         f"stock_volume_{u.volume}": s.volume * V, f"stock_mass_{u.mass}": s.mass * M,
         f"removed_volume_{u.volume}": r.removed_volume * V,
-        f"chip_mass_{u.mass}": r.chip_mass * M, "utilisation_percent": r.utilisation * 100,
+        f"removed_mass_{u.mass}": r.removed_mass * M,
+        f"chip_volume_{u.volume}": r.chip_volume * V, f"chip_mass_{u.mass}": r.chip_mass * M,
+        f"offcut_volume_{u.volume}": r.offcut_volume * V,
+        f"offcut_mass_{u.mass}": r.offcut_mass * M, "utilisation_percent": r.utilisation * 100,
         "quantity": c.quantity,
         "parts_per_bar": None if q.bars is None else q.bars.parts_per_bar,
         "bars_needed": None if q.bars is None else q.bars.bars_needed,
@@ -671,8 +675,11 @@ def _quote_table(pq: PartQuote, u: DisplayUnits, currency: Optional[str]):
     row("removed volume", f(r.removed_volume * V), u.volume, "stock − part")
     row("removed mass", f(r.removed_mass * M), u.mass, "")
     if r.offcut_volume > 0:
-        row("  holding piece (offcut)", f(r.offcut_volume * V), u.volume, "")
-        row("  chips", f(r.chip_mass * M), u.mass, "removed less the holding piece")
+        row("  holding piece (offcut), volume", f(r.offcut_volume * V), u.volume,
+            "held in the chuck, left whole as an offcut")
+        row("  holding piece (offcut), mass", f(r.offcut_mass * M), u.mass, "")
+        row("  chips, volume", f(r.chip_volume * V), u.volume, "removed less the holding piece")
+        row("  chips, mass", f(r.chip_mass * M), u.mass, "")
     row("utilisation", f"{r.utilisation * 100:.1f}", "%", "part mass / stock mass")
     if q.bars is not None:
         b = q.bars

@@ -146,7 +146,7 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
 
     profile, axis = jv.sketch_profile(design, orientation, "inside", name=name)
     if output:
-        texts[output] = profile_text(profile, axis=axis, angle=360)
+        texts[output] = profile_text(profile, axis=axis, angle=360, section="space")
     if wall_output:
         wall, axis_w = jv.sketch_profile(design, orientation, "wall", name=name + " (wall)")
         texts[wall_output] = profile_text(wall, axis=axis_w, angle=360,
