@@ -746,19 +746,31 @@ def vertical_levels(prep: PreparedProfile, levels,
 
     The same figures as :func:`clip_section` with :func:`clipped_volume` and
     :func:`clipped_wetted_area`, computed for all levels together: the
-    closed forms of every kept sub-line and sub-arc, cumulative quadrature
-    for curves, and the cut terms ``∓ level r²/6`` at each crossing.
+    closed forms of every kept sub-line and sub-arc (chord plus circular
+    segment) and cumulative quadrature for curves, each as ``-½ ∫ r² dz``
+    about the radius of the lowest point (the cuts along the level add
+    nothing; see the module notes). Cut points are never formed as
+    coordinates: their distance from that radius is taken from the lower end
+    of the piece, so a level a hair above the bottom gets its sliver to full
+    relative precision.
 
     Examples
     --------
-    A cone of radius 1 and height 1, point down at z = 0: V(h) = π h³/3.
+    A cone of radius 1 and height 1, point down at z = 0: V(h) = π h³/3,
+    down to the tiniest depths.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 0), (1, 1), (1, 0)]),)), Axis.x())
-    >>> v = vertical_levels(prep, [0.5, 1.0]).volume
-    >>> [round(float(x / (math.pi / 3)), 12) for x in v]
-    [0.125, 1.0]
+    >>> v = vertical_levels(prep, [0.5, 1.0, 1e-12]).volume
+    >>> [round(float(x / (math.pi / 3 * h ** 3)), 12) for x, h in zip(v, [0.5, 1.0, 1e-12])]
+    [1.0, 1.0, 1.0]
+
+    A flat bottom is wetted at its own level (a ring, r from 1 to 3, z from 0 to 2):
+
+    >>> ring = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> [round(float(a) / math.pi, 12) for a in vertical_levels(ring, [-1.0, 0.0]).wetted_area]
+    [0.0, 8.0]
     """
     L = np.atleast_1d(np.asarray(levels, dtype=float))
     if pieces is None:
