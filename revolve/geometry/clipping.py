@@ -26,15 +26,28 @@ line. This module builds that part exactly and measures it:
   level table of a thousand rows costs a few numpy passes.
 
 A segment is first split into *pieces* along which ``z`` moves one way only
-(:func:`axial_pieces`); each such piece crosses a level at most once. The
-straight cuts need no pairing: a cut from the point where the boundary
-leaves the half plane to the point where it comes back adds ``level · (r_b² -
-r_a²)/6`` to ∫∫ r dA, so the sum over all cuts is the sum over crossing points
-of ``∓ level · r²/6``, the sign given by the direction of the crossing.
+(:func:`axial_pieces`); each such piece crosses a level at most once.
+
+Both computations use Green's theorem in the form ``∫∫ r dA = -½ ∮ r² dz``,
+with ``r`` measured from a reference radius ``r₀`` near the bottom
+(``∫∫ r dA = r₀ A + ∫∫ (r - r₀) dA``). Only differences of ``z`` enter, so
+the straight cuts along the level (``dz = 0``) add nothing and need no
+pairing, and every term is of the size of the part it measures: a level a
+hair above the bottom gives its tiny volume to full relative precision
+instead of as the difference of large moments. Arcs are taken as their chord
+plus the circular segment between chord and arc (area ``R² (Δ - sin Δ)/2``,
+its ``Δ - sin Δ`` by series for small sweeps; centroid ``4 R sin³(Δ/2) /
+(3 (Δ - sin Δ))`` from the centre, from memory of the standard tables), which
+stays exact for the short arcs near a rounded bottom.
 
 Points exactly on the level count as above it (the half plane is open), so
-each crossing is counted once when a level passes through a vertex, and a
-flat face lying in the level plane is part of the cut, not of the section.
+each crossing is counted once when a level passes through a vertex. No
+vertex is moved onto the level: the volume is a continuous function of the
+level down to the last bit. A flat face (perpendicular to the axis) lying in
+the level plane, within the profile's tolerance, is part of the cut, not of
+the section, but it is *wetted*: the wetted area includes it, so that the
+wetted area at a level equals its limit from above (a flat bottom is wetted
+at the level of the bottom itself).
 
 Examples
 --------
@@ -148,13 +161,14 @@ class AxialPieces:
     """A prepared profile's closed loops as pieces monotone in ``z``, grouped by kind (arrays).
 
     Lines: ``line`` (n, 4) holds z0, r0, z1, r1 in travel order (radial lines,
-    z0 == z1, included). Arcs: ``arc`` (n, 5) holds cz, cr, R, angle from,
-    angle to. Curves: ``curves`` is a tuple of (curve, t_from, t_to). Each
-    kind has its loop factor (see :func:`section_loop_factors`) in
-    ``*_factor``. ``z_ref`` is the middle of the profile along the axis;
-    every ``z`` here is measured from it, so that moments lose no digits.
-    ``z_min`` and ``z_max`` are the lowest and highest axial positions of the
-    loops (in the frame, not measured from ``z_ref``).
+    z0 == z1, included). Arcs: ``arc`` (n, 9) holds cz, cr, R, angle from,
+    angle to, then the end points z from, r from, z to, r to (the segment's
+    own vertices at its ends, so that neighbouring pieces join exactly).
+    Curves: ``curves`` is a tuple of (curve, t_from, t_to). Each kind has its
+    loop factor (see :func:`section_loop_factors`) in ``*_factor``. All in
+    the frame. ``z_min`` and ``z_max`` are the lowest and highest axial
+    positions of the loops; ``r_ref`` is the distance from the axis of the
+    lowest point, the reference radius of the moments (see the module notes).
     """
 
     line: np.ndarray
@@ -163,9 +177,9 @@ class AxialPieces:
     arc_factor: np.ndarray
     curves: Tuple[Tuple[Curve, float, float], ...]
     curve_factor: np.ndarray
-    z_ref: float
     z_min: float = 0.0
     z_max: float = 0.0
+    r_ref: float = 0.0
 
 
 def _loop_segments(prep: PreparedProfile, loop_factors: Sequence[float]):
@@ -193,39 +207,43 @@ def axial_pieces(prep: PreparedProfile, loop_factors: Sequence[float]) -> AxialP
     >>> from revolve.geometry.checks import prepare
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> p = axial_pieces(prep, [1.0])
-    >>> p.z_ref, p.line.shape, p.arc.shape
-    (1.0, (4, 4), (0, 5))
+    >>> p.line.shape, p.arc.shape, (p.z_min, p.z_max, p.r_ref)
+    ((4, 4), (0, 9), (0.0, 2.0, 1.0))
     """
-    pairs = list(_loop_segments(prep, loop_factors))
-    zs = [c for s, _ in pairs for c in (s.start[0], s.end[0])]
-    z_ref = float((min(zs) + max(zs)) / 2) if zs else 0.0
     lines, lf, arcs, af, curves, cf = [], [], [], [], [], []
-    for s, f in pairs:
+    for s, f in _loop_segments(prep, loop_factors):
         if isinstance(s, Line):
-            lines.append((s.start[0] - z_ref, s.start[1], s.end[0] - z_ref, s.end[1]))
+            lines.append((s.start[0], s.start[1], s.end[0], s.end[1]))
             lf.append(f)
         elif isinstance(s, Arc):
-            cz, cr = s.centre[0] - z_ref, s.centre[1]
-            for p, q in split_arc(s, math.pi):
-                arcs.append((cz, cr, s.radius, p, q))
+            cz, cr, R = s.centre[0], s.centre[1], s.radius
+            parts = split_arc(s, math.pi)
+            for k, (p, q) in enumerate(parts):
+                za, ra = s.start if k == 0 else (cz + R * math.cos(p), cr + R * math.sin(p))
+                zb, rb = s.end if k == len(parts) - 1 else (cz + R * math.cos(q), cr + R * math.sin(q))
+                arcs.append((cz, cr, R, p, q, za, ra, zb, rb))
                 af.append(f)
         elif isinstance(s, Curve):
-            c = _shifted_curve(s, -z_ref)
             for p, q in split_curve(s, (2,)):
-                curves.append((c, p, q))
+                curves.append((s, p, q))
                 cf.append(f)
         else:  # pragma: no cover - the segment kinds are closed
             raise TypeError(type(s).__name__)
     line = np.array(lines, dtype=float).reshape(-1, 4)
-    arc = np.array(arcs, dtype=float).reshape(-1, 5)
-    ends = np.concatenate([line[:, [0, 2]].ravel(),
-                           (arc[:, 0:1] + arc[:, 2:3] * np.cos(arc[:, 3:5])).ravel(),
-                           np.array([float(c.evaluate(np.array([t]))[0][0])
-                                     for c, ta, tb in curves for t in (ta, tb)])])
-    z_min = float(ends.min()) + z_ref if ends.size else 0.0
-    z_max = float(ends.max()) + z_ref if ends.size else 0.0
+    arc = np.array(arcs, dtype=float).reshape(-1, 9)
+    ends = [line[:, [0, 1]], line[:, [2, 3]], arc[:, [5, 6]], arc[:, [7, 8]]]
+    for c, ta, tb in curves:
+        z, r, _, _ = c.evaluate(np.array([ta, tb]))
+        ends.append(np.column_stack([z, r]))
+    ends = np.vstack(ends)
+    # An arc's lowest point may lie inside it (only at a split, which is an end here).
+    if not ends.size:
+        return AxialPieces(line, np.array(lf, dtype=float), arc, np.array(af, dtype=float),
+                           tuple(curves), np.array(cf, dtype=float))
+    low = int(np.argmin(ends[:, 0]))
     return AxialPieces(line, np.array(lf, dtype=float), arc, np.array(af, dtype=float),
-                       tuple(curves), np.array(cf, dtype=float), z_ref, z_min, z_max)
+                       tuple(curves), np.array(cf, dtype=float), float(ends[:, 0].min()),
+                       float(ends[:, 0].max()), float(ends[low, 1]))
 
 
 # -- clipping one level, segment by segment -------------------------------------------
@@ -237,13 +255,40 @@ def _curve_parameter_at_z(curve: Curve, ta: float, tb: float, z: np.ndarray) -> 
 
 def _arc_angle_at_z(cz, cr, R, a_from, a_to, z):
     """Angle in a z-monotone arc piece where the arc reaches axial position ``z`` (vectorised)."""
-    mid = 0.5 * (a_from + a_to)
+    return _arc_cut(cz, cr, R, a_from, a_to, z)[0]
+
+
+def _arc_cut(cz, cr, R, a_from, a_to, z, z_low=None, r_ref=0.0):
+    """Angle and radius where a z-monotone arc piece reaches axial position ``z`` (vectorised).
+
+    ``z_low`` (optional) is the piece's lower end as stored: the distances
+    ``R ± (z - cz)`` are then taken through it, ``(z - z_low) + (R + z_low -
+    cz)``, so that a level a hair above the bottom of a rounded end keeps its
+    digits (the radius comes from ``√((R - u)(R + u))``, not from an angle).
+    The radius is returned measured from ``r_ref``.
+
+    >>> level = -1.0 + 1e-12
+    >>> h = level + 1.0               # the height above the bottom the float level really has
+    >>> angle, r = _arc_cut(0.0, 0.0, 1.0, 0.0, math.pi, level)
+    >>> bool(abs(float(r) / math.sqrt(2 * h - h * h) - 1) < 1e-15)   # r = √(2 h - h²)
+    True
+    """
+    mid = 0.5 * (np.asarray(a_from, dtype=float) + a_to)
     s = np.where(np.sin(mid) >= 0, 1.0, -1.0)
-    u = np.clip(z - cz, -R, R)
-    h = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
-    base = np.arctan2(s * h, u)                      # in (-π, π], on the right half turn
+    if z_low is None:
+        u = z - cz
+        r_plus_u, r_minus_u = R + u, R - u
+    else:
+        u = z - cz
+        lifted = z - z_low
+        r_plus_u = lifted + ((z_low - cz) + R)
+        r_minus_u = (R - (z_low - cz)) - lifted
+    r_plus_u = np.clip(r_plus_u, 0.0, 2.0 * R)
+    r_minus_u = np.clip(r_minus_u, 0.0, 2.0 * R)
+    h = np.sqrt(r_plus_u * r_minus_u)
+    base = np.arctan2(s * h, np.clip(u, -R, R))      # in (-π, π], on the right half turn
     turns = np.round((mid - base) / TWO_PI)
-    return base + turns * TWO_PI
+    return base + turns * TWO_PI, (cr - r_ref) + s * h
 
 
 @dataclass(frozen=True)
@@ -255,8 +300,10 @@ class ClippedProfile:
     loop; ``cut`` marks, per segment of each path, the straight cuts added
     along the level; ``loops`` gives the index of the original loop of each
     path, and ``factors`` its loop factor (see :func:`section_loop_factors`).
-    ``touching`` holds the flat faces lying in the level plane: not part of
-    the section below, but wetted by the liquid (unless nothing is below).
+    ``touching`` holds the flat faces lying in the level plane (within the
+    profile's tolerance) that are not part of the section below: wetted by
+    the liquid all the same, even when nothing is below (a flat bottom at
+    its own level).
     """
 
     prepared: PreparedProfile
@@ -267,23 +314,31 @@ class ClippedProfile:
     touching: Tuple[Segment, ...] = ()
 
 
-def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
-    """The parts of one frame segment with z < level, in travel order (pieces monotone in z)."""
+def _arc_or_chord(seg: Arc, start, end) -> List[Segment]:
+    """The part of ``seg`` from ``start`` to ``end``: an arc, or its chord when so short that
+    its sweep is lost in rounding (a sweep of a few ulps would read as a full turn)."""
+    if start == end:
+        return []
+    part = replace(seg, start=start, end=end, exact=None)
+    if abs(part.sweep()) <= math.pi * (1 + 1e-9):
+        return [part]
+    return [Line(start, end, face=seg.face, where=seg.where)]
+
+
+def _kept_part(seg: Segment, level: float) -> List[Segment]:
+    """The parts of one frame segment with z < level, in travel order (pieces monotone in z).
+
+    No point is moved: a vertex a hair below the level is below it.
+    """
     out: List[Segment] = []
-
-    def snap(z):   # a vertex within the tolerance of the level is on it
-        return level if abs(z - level) <= tol else z
-
     if isinstance(seg, Line):
         (z0, r0), (z1, r1) = seg.start, seg.end
-        if z0 == z1:
-            return [seg] if z0 < level - tol else []
-        if max(snap(z0), snap(z1)) <= level:
-            return [seg]
-        if min(snap(z0), snap(z1)) >= level:
+        if max(z0, z1) <= level:
+            return [seg] if min(z0, z1) < level else []
+        if min(z0, z1) >= level:
             return []
-        s = (level - z0) / (z1 - z0)
-        cut = (level, r0 + s * (r1 - r0))
+        (zl, rl), (zh, rh) = sorted((seg.start, seg.end))
+        cut = (level, rl + (level - zl) / (zh - zl) * (rh - rl))   # from the lower end
         part = replace(seg, end=cut, exact=None) if z0 < z1 else replace(seg, start=cut, exact=None)
         return [part]
     if isinstance(seg, Arc):
@@ -295,31 +350,25 @@ def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
             return (cz + R * math.cos(angle), cr + R * math.sin(angle))
 
         pieces = split_arc(seg, math.pi)
-        if all(snap(cz + R * math.cos(p)) <= level and snap(cz + R * math.cos(q)) <= level
-               for p, q in pieces) and max(snap(seg.start[0]), snap(seg.end[0])) <= level:
-            return [seg]          # wholly below: keep it as it is
-        for p, q in pieces:
-            if R * abs(q - p) <= tol:
-                continue          # a sliver of a few ulps would read as a full turn
-            start = seg.start if p == a_start else at(p)
-            end = seg.end if q == a_end else at(q)
-            za, zb = snap(start[0]), snap(end[0])
+        ends = [seg.start] + [at(q) for _, q in pieces[:-1]] + [seg.end]
+        if max(z for z, _ in ends) <= level:
+            return [seg]          # wholly below (or touching from below): keep it as it is
+        for k, (p, q) in enumerate(pieces):
+            start, end = ends[k], ends[k + 1]
+            za, zb = start[0], end[0]
             if max(za, zb) <= level:
-                out.append(replace(seg, start=start, end=end, exact=None))
+                out.extend(_arc_or_chord(seg, start, end))
                 continue
             if min(za, zb) >= level:
                 continue
-            a = float(_arc_angle_at_z(cz, cr, R, np.array(p), np.array(q), np.array(level)))
-            # Keep only sub-arcs of real length: a sweep of a few ulps would read as a full turn.
-            if za < zb and R * abs(a - p) > tol:
-                out.append(replace(seg, start=start, end=(level, at(a)[1]), exact=None))
-            elif za > zb and R * abs(q - a) > tol:
-                out.append(replace(seg, start=(level, at(a)[1]), end=end, exact=None))
+            _, rc = _arc_cut(cz, cr, R, p, q, level, z_low=min(za, zb))
+            cut = (level, float(rc))
+            out.extend(_arc_or_chord(seg, start, cut) if za < zb else _arc_or_chord(seg, cut, end))
         return out
     if isinstance(seg, Curve):
         for p, q in split_curve(seg, (2,)):
-            za = snap(float(seg.evaluate(np.array([p]))[0][0]))
-            zb = snap(float(seg.evaluate(np.array([q]))[0][0]))
+            za = float(seg.evaluate(np.array([p]))[0][0])
+            zb = float(seg.evaluate(np.array([q]))[0][0])
             if max(za, zb) <= level:
                 out.append(replace(seg, t_start=p, t_end=q, exact=None))
                 continue
@@ -330,7 +379,7 @@ def _kept_part(seg: Segment, level: float, tol: float) -> List[Segment]:
                 out.append(replace(seg, t_start=p, t_end=tc, exact=None))
             else:
                 out.append(replace(seg, t_start=tc, t_end=q, exact=None))
-        return [s for s in out if abs(s.t_end - s.t_start) > 0 and s.length() > tol]
+        return [s for s in out if s.t_end != s.t_start]
     raise TypeError(type(seg).__name__)
 
 
@@ -381,9 +430,9 @@ def clip_section(prep: PreparedProfile, level: float,
         loop_no += 1
         kept: List[Segment] = []
         for s in segs:
-            kept.extend(_kept_part(s, level, tol))
-            if isinstance(s, Line) and s.start[0] == s.end[0] and abs(s.start[0] - level) <= tol:
-                touching.append(s)
+            kept.extend(_kept_part(s, level))
+            if isinstance(s, Line) and s.start[0] == s.end[0] and level <= s.start[0] <= level + tol:
+                touching.append(s)      # a flat face in the level plane, not below it
         if not kept:
             continue
         out: List[Segment] = []
@@ -393,9 +442,10 @@ def clip_section(prep: PreparedProfile, level: float,
             is_cut.append(False)
             nxt = kept[(k + 1) % len(kept)]
             a, b = s.end, nxt.start
-            if math.hypot(a[0] - b[0], a[1] - b[1]) > tol:
-                # Only a crossing of the level leaves a gap: both ends lie on it.
-                out.append(Line((level, a[1]), (level, b[1]), face=CUT_FACE))
+            if a != b:
+                # Where the boundary crossed the level both ends lie on it; elsewhere this
+                # closes a gap of a few ulps (the loop must close for Green's theorem).
+                out.append(Line(a, b, face=CUT_FACE))
                 is_cut.append(True)
         paths.append(tuple(out))
         cuts.append(tuple(is_cut))
@@ -404,8 +454,7 @@ def clip_section(prep: PreparedProfile, level: float,
     clipped = PreparedProfile(tuple(paths), tuple(True for _ in paths), tuple(depths),
                               prep.side, prep.size, tol)
     return ClippedProfile(clipped, tuple(cuts), tuple(loops),
-                          tuple(float(factors[k]) for k in loops), level,
-                          tuple(touching) if paths else ())
+                          tuple(float(factors[k]) for k in loops), level, tuple(touching))
 
 
 def section_loop_factors(prep: PreparedProfile) -> Tuple[float, ...]:
@@ -439,14 +488,36 @@ def section_loop_factors(prep: PreparedProfile) -> Tuple[float, ...]:
 
 
 def clipped_volume(clipped: ClippedProfile) -> float:
-    """Pappus on a clipped section: 2π ∫∫ r dA, solid loops adding and holes subtracting."""
-    from revolve.geometry.integrals import COL, segment_integrals
+    """Pappus on a clipped section: 2π ∫∫ r dA, solid loops adding and holes subtracting.
 
+    Each loop is summed as ``r₀ A + ∫∫ (r - r₀) dA`` with ``r₀`` the radius of
+    its lowest point (see the module notes), so a sliver a hair deep keeps its
+    relative precision.
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> cone = prepare(Profile(loops=(Loop.from_points([(0, 0), (1, 1), (1, 0)]),)), Axis.x())
+    >>> v = clipped_volume(clip_section(cone, 1e-9))      # π h³/3 at h = 1e-9
+    >>> abs(v / (math.pi * 1e-27 / 3) - 1) < 1e-13
+    True
+    """
     total = 0.0
     for segs, f in zip(clipped.prepared.paths, clipped.factors):
-        z_ref = _middle(segs)
-        res = segment_integrals([_shift(s, -z_ref) for s in segs], symbolic=False)
-        total += f * float(res.values[:, COL["M01"]].sum())
+        low = min((p for s in segs for p in (s.start, s.end)), key=lambda p: p[0])
+        r_ref = float(low[1])
+        area = moment = 0.0
+        for s in segs:
+            if isinstance(s, Line):
+                a, m, _ = _line_piece(s.start[0], s.start[1], s.end[0], s.end[1], r_ref)
+            elif isinstance(s, Arc):
+                a0, a1 = s.angles()
+                a, m, _ = _arc_piece(s.centre[1], s.radius, a0, a1, s.start[0], s.start[1],
+                                     s.end[0], s.end[1], r_ref)
+            else:
+                a, m, _ = _CurveCumulative(s, s.t_start, s.t_end, r_ref).total()
+            area += float(a)
+            moment += float(m)
+        total += f * (r_ref * area + moment)
     return TWO_PI * total
 
 
@@ -503,24 +574,93 @@ def _arc_moments(cz, cr, R, a, b):
     return m01, r_ds
 
 
-class _CurveCumulative:
-    """Cumulative integrals of M01 and ∫ r ds along one curve piece, for any end parameter.
+def d_minus_sin(d):
+    """``d - sin d`` without cancellation (a series below 0.5), for arrays.
 
-    The piece [ta, tb] is mapped to φ in [0, π] by t = m - h cos φ (smooth at
-    ends with a vertical tangent); φ is cut into panels until 16- and
-    32-point Gauss–Legendre agree, and partial integrals to any φ are the
-    panel sums before it plus 32 nodes on the rest.
+    >>> round(float(d_minus_sin(1e-6)) / (1e-18 / 6), 12)     # d³/6 to leading order
+    1.0
+    >>> abs(float(d_minus_sin(2.0)) - (2.0 - math.sin(2.0))) < 1e-16
+    True
+    """
+    d = np.asarray(d, dtype=float)
+    d2 = d * d
+    series = d * d2 / 6.0 * (1 - d2 / 20.0 * (1 - d2 / 42.0 * (1 - d2 / 72.0 * (
+        1 - d2 / 110.0 * (1 - d2 / 156.0)))))
+    return np.where(np.abs(d) < 0.5, series, d - np.sin(d))
+
+
+def _line_piece(za, ra, zb, rb, r_ref):
+    """Area, ∫∫ (r - r_ref) dA and ∫ r ds contributed by straight pieces (arrays).
+
+    Green's theorem with ``dz`` only: ``A = -∫ r' dz``, ``∫∫ r' dA = -½ ∫ r'² dz``.
+
+    >>> [float(v) for v in _line_piece(1.0, 2.0, 0.0, 2.0, 1.0)]   # r' = 1 along dz = -1
+    [1.0, 0.5, 2.0]
+    """
+    dz = zb - za
+    a, b = ra - r_ref, rb - r_ref
+    area = -dz * (a + b) / 2.0
+    moment = -dz * (a * a + a * b + b * b) / 6.0
+    r_ds = np.hypot(dz, rb - ra) * (ra + rb) / 2.0
+    return area, moment, r_ds
+
+
+def _arc_piece(cr, R, a_from, a_to, za, ra, zb, rb, r_ref, shifted=False):
+    """Area, ∫∫ (r - r_ref) dA and ∫ r ds of arc pieces: the chord plus the circular segment.
+
+    ``a_from``, ``a_to`` are the angles of the end points ``(za, ra)`` and
+    ``(zb, rb)`` about the centre (radial distance ``cr``); a sweep is at most
+    π. Below a quarter turn the sweep and its middle direction are taken from
+    the chord (``Δ = 2 asin(c/2R)``, the chord's middle at ``R cos(Δ/2)`` from
+    the centre), which keeps short arcs exact. With ``shifted``, ``cr``,
+    ``ra`` and ``rb`` are given already measured from ``r_ref`` (so that a
+    sliver's width is never rounded to the last bit of its radius).
+
+    >>> a, m, rds = _arc_piece(0.0, 1.0, 0.0, math.pi, 1.0, 0.0, -1.0, 0.0, 0.0)   # half disc
+    >>> [round(float(v), 12) for v in (a, m, rds)] == [round(math.pi / 2, 12), round(2 / 3, 12), 2.0]
+    True
+    """
+    if not shifted:
+        cr, ra, rb = cr - r_ref, ra - r_ref, rb - r_ref
+    area, moment, _ = _line_piece(za, ra, zb, rb, 0.0)
+    sweep = np.asarray(a_to, dtype=float) - a_from
+    chord = np.hypot(zb - za, rb - ra)
+    short = np.abs(sweep) < 0.5 * math.pi
+    d = np.where(short, np.sign(sweep) * 2.0 * np.arcsin(np.clip(chord / (2.0 * R), 0.0, 1.0)),
+                 sweep)
+    half = 0.5 * d
+    with np.errstate(invalid="ignore", divide="ignore"):
+        sin_mid = np.where(short, (0.5 * (ra + rb) - cr) / (R * np.cos(half)),
+                           np.sin(0.5 * (np.asarray(a_from, dtype=float) + a_to)))
+    segment = R * R * d_minus_sin(d) / 2.0
+    area = area + segment
+    moment = moment + segment * cr + (2.0 / 3.0) * R ** 3 * np.sin(half) ** 3 * sin_mid
+    r_ds = R * ((cr + r_ref) * np.abs(d) + 2.0 * R * np.sin(np.abs(half)) * sin_mid)
+    return area, moment, r_ds
+
+
+class _CurveCumulative:
+    """Cumulative integrals of area, ∫∫ (r - r_ref) dA and ∫ r ds along one curve piece.
+
+    The columns are ``-∫ r' dz``, ``-½ ∫ r'² dz`` and ``∫ r ds`` with
+    ``r' = r - r_ref``. The piece [ta, tb] is mapped to φ in [0, π] by
+    t = m - h cos φ (smooth at ends with a vertical tangent); φ is cut into
+    panels until 16- and 32-point Gauss–Legendre agree, and partial integrals
+    from either end to any φ are the panel sums on that side plus 32 nodes on
+    the rest (never a difference of two large sums).
     """
 
-    def __init__(self, curve: Curve, ta: float, tb: float, rel_tol: float = 1e-15):
-        self.curve, self.ta, self.tb = curve, ta, tb
+    def __init__(self, curve: Curve, ta: float, tb: float, r_ref: float = 0.0,
+                 rel_tol: float = 1e-15):
+        self.curve, self.ta, self.tb, self.r_ref = curve, ta, tb, float(r_ref)
         self.mid, self.half = 0.5 * (ta + tb), 0.5 * (tb - ta)
         edges = np.linspace(0.0, math.pi, 9)
         for _ in range(40):
             lo = self._panels(edges[:-1], edges[1:], 16)
             hi = self._panels(edges[:-1], edges[1:], 32)
-            scale = float(np.abs(hi).sum(axis=0).max()) or 1.0
-            bad = np.abs(hi - lo).max(axis=1) > rel_tol * scale
+            scale = np.abs(hi).sum(axis=0)
+            scale = np.where(scale > 0, scale, 1.0)
+            bad = (np.abs(hi - lo) > rel_tol * scale).any(axis=1)
             if not bad.any():
                 break
             mids = 0.5 * (edges[:-1] + edges[1:])[bad]
@@ -531,33 +671,59 @@ class _CurveCumulative:
             lo = self._panels(edges[:-1], edges[1:], 16)
             hi = self._panels(edges[:-1], edges[1:], 32)
         self.edges = edges
-        self.cumulative = np.vstack([np.zeros((1, 2)), np.cumsum(hi, axis=0)])
-        self.error = float(np.abs(hi - lo).sum(axis=0).max())
+        zero = np.zeros((1, 3))
+        self.cumulative = np.vstack([zero, np.cumsum(hi, axis=0)])
+        self.remaining = np.vstack([np.cumsum(hi[::-1], axis=0)[::-1], zero])
+        diff = np.abs(hi - lo).sum(axis=0)
+        #: Estimated error of the volume moment r_ref A + ∫∫ r' dA.
+        self.error = float(abs(self.r_ref) * diff[0] + diff[1])
+
+    def _t_of(self, phi):
+        """t = m - h cos φ, written from the nearer end (ta + 2h sin²(φ/2) or tb - 2h cos²(φ/2))
+        so that parameters a hair from either end keep their digits."""
+        phi = np.asarray(phi, dtype=float)
+        return np.where(phi <= 0.5 * math.pi, self.ta + 2.0 * self.half * np.sin(0.5 * phi) ** 2,
+                        self.tb - 2.0 * self.half * np.cos(0.5 * phi) ** 2)
 
     def _integrand(self, phi):
-        t = self.mid - self.half * np.cos(phi)
-        z, r, dz, dr = self.curve.evaluate(t)
+        t = self._t_of(phi)
+        _, r, dz, dr = self.curve.evaluate(t)
         jac = self.half * np.sin(phi)
-        w = z * dr - r * dz
-        out = np.stack([r * w / 3.0 * jac, r * np.hypot(dz, dr) * np.abs(jac)], axis=-1)
+        rp = r - self.r_ref
+        out = np.stack([-rp * dz * jac, -0.5 * rp * rp * dz * jac,
+                        r * np.hypot(dz, dr) * np.abs(jac)], axis=-1)
         return np.nan_to_num(out, nan=0.0, posinf=0.0, neginf=0.0)
 
     def _panels(self, a, b, n):
         x, w = gauss_legendre(n)
         phi = 0.5 * (a + b)[:, None] + 0.5 * (b - a)[:, None] * x[None, :]
-        vals = self._integrand(phi)                      # (panels, n, 2)
+        vals = self._integrand(phi)                      # (panels, n, 3)
         return np.einsum("pnk,n->pk", vals, w) * (0.5 * (b - a))[:, None]
 
     def phi_of(self, t):
-        c = np.clip((self.mid - np.asarray(t, dtype=float)) / self.half, -1.0, 1.0)
-        return np.arccos(c)
+        """The inverse of ``_t_of``, from the nearer end as well."""
+        t = np.asarray(t, dtype=float)
+        if self.half == 0:
+            return np.zeros(t.shape)
+        from_start = np.clip((t - self.ta) / (2.0 * self.half), 0.0, 1.0)
+        from_end = np.clip((self.tb - t) / (2.0 * self.half), 0.0, 1.0)
+        return np.where(from_start <= 0.5, 2.0 * np.arcsin(np.sqrt(from_start)),
+                        math.pi - 2.0 * np.arcsin(np.sqrt(from_end)))
+
+    def _panel_of(self, phi):
+        return np.clip(np.searchsorted(self.edges, phi, side="right") - 1, 0, len(self.edges) - 2)
 
     def upto(self, phi):
-        """Integrals from φ = 0 to each φ (arrays), shape (len(phi), 2)."""
-        phi = np.asarray(phi, dtype=float)
-        k = np.clip(np.searchsorted(self.edges, phi, side="right") - 1, 0, len(self.edges) - 2)
-        a = self.edges[k]
-        return self.cumulative[k] + self._panels(a, phi, 32)
+        """Integrals from φ = 0 to each φ (arrays), shape (len(phi), 3)."""
+        phi = np.atleast_1d(np.asarray(phi, dtype=float))
+        k = self._panel_of(phi)
+        return self.cumulative[k] + self._panels(self.edges[k], phi, 32)
+
+    def after(self, phi):
+        """Integrals from each φ to φ = π (arrays), shape (len(phi), 3)."""
+        phi = np.atleast_1d(np.asarray(phi, dtype=float))
+        k = self._panel_of(phi)
+        return self.remaining[k + 1] + self._panels(phi, self.edges[k + 1], 32)
 
     def total(self):
         return self.cumulative[-1]
@@ -580,19 +746,31 @@ def vertical_levels(prep: PreparedProfile, levels,
 
     The same figures as :func:`clip_section` with :func:`clipped_volume` and
     :func:`clipped_wetted_area`, computed for all levels together: the
-    closed forms of every kept sub-line and sub-arc, cumulative quadrature
-    for curves, and the cut terms ``∓ level r²/6`` at each crossing.
+    closed forms of every kept sub-line and sub-arc (chord plus circular
+    segment) and cumulative quadrature for curves, each as ``-½ ∫ r² dz``
+    about the radius of the lowest point (the cuts along the level add
+    nothing; see the module notes). Cut points are never formed as
+    coordinates: their distance from that radius is taken from the lower end
+    of the piece, so a level a hair above the bottom gets its sliver to full
+    relative precision.
 
     Examples
     --------
-    A cone of radius 1 and height 1, point down at z = 0: V(h) = π h³/3.
+    A cone of radius 1 and height 1, point down at z = 0: V(h) = π h³/3,
+    down to the tiniest depths.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 0), (1, 1), (1, 0)]),)), Axis.x())
-    >>> v = vertical_levels(prep, [0.5, 1.0]).volume
-    >>> [round(float(x / (math.pi / 3)), 12) for x in v]
-    [0.125, 1.0]
+    >>> v = vertical_levels(prep, [0.5, 1.0, 1e-12]).volume
+    >>> [round(float(x / (math.pi / 3 * h ** 3)), 12) for x, h in zip(v, [0.5, 1.0, 1e-12])]
+    [1.0, 1.0, 1.0]
+
+    A flat bottom is wetted at its own level (a ring, r from 1 to 3, z from 0 to 2):
+
+    >>> ring = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> [round(float(a) / math.pi, 12) for a in vertical_levels(ring, [-1.0, 0.0]).wetted_area]
+    [0.0, 8.0]
     """
     L = np.atleast_1d(np.asarray(levels, dtype=float))
     if pieces is None:
@@ -600,91 +778,79 @@ def vertical_levels(prep: PreparedProfile, levels,
             loop_factors = section_loop_factors(prep)
         pieces = axial_pieces(prep, loop_factors)
     pc = pieces
-    Ls = L - pc.z_ref                                   # levels measured from z_ref
-    m01 = np.zeros(L.shape)
+    r_ref = pc.r_ref
+    area = np.zeros(L.shape)        # Σ f A            (see the module notes)
+    moment = np.zeros(L.shape)      # Σ f ∫∫ (r - r_ref) dA
     wet = np.zeros(L.shape)
     error = 0.0
-    # Lines.
     tol = prep.tolerance
-    empty = pc.z_min - pc.z_ref + tol                   # at or below this, nothing is wetted
-
-    def snap(z, lv):   # a vertex within the tolerance of the level is on it
-        return np.where(np.abs(z - lv) <= tol, lv, z)
-
+    lv = L[None, :]
+    # Lines. A kept sub-line runs from its lower end to the level (or to its upper end).
     if pc.line.size:
         z0, r0, z1, r1 = (pc.line[:, i][:, None] for i in range(4))
         f = pc.line_factor[:, None]
-        lv = Ls[None, :]
         radial = (z0 == z1)
-        zs0, zs1 = snap(z0, lv), snap(z1, lv)
-        zlo, zhi = np.minimum(zs0, zs1), np.maximum(zs0, zs1)
-        dz = np.where(radial, 1.0, z1 - z0)
-        s = np.clip((lv - z0) / dz, 0.0, 1.0)
-        rc = r0 + s * (r1 - r0)
-        crossing = ~radial & (zlo < lv) & (lv <= zhi)
-        zc = np.where(crossing, lv, z0 + s * (z1 - z0))
         rising = z1 > z0
+        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
+        rlo, rhi = np.where(rising, r0, r1), np.where(rising, r1, r0)
+        s = np.clip((lv - zlo) / np.where(radial, 1.0, zhi - zlo), 0.0, 1.0)
+        # the radius at the cut, from the lower end and measured from r_ref (never
+        # formed as r itself, which would round away a sliver's width)
+        rc_ref = (rlo - r_ref) + s * (rhi - rlo)
+        crossing = ~radial & (zlo < lv) & (lv < zhi)
+        zc = np.where(crossing, lv, np.where(rising, z1, z0))
+        rc_ref = np.where(crossing, rc_ref, np.where(rising, r1, r0) - r_ref)
         # kept sub-line: from the start to the cut when rising, from the cut to the end otherwise
-        a_z = np.where(rising, z0, zc)
-        a_r = np.where(rising, r0, rc)
-        b_z = np.where(rising, zc, z1)
-        b_r = np.where(rising, rc, r1)
-        mm, rd = _line_moments(a_z, a_r, b_z, b_r)
+        za = np.where(rising, z0, zc)
+        ra_ref = np.where(rising, r0 - r_ref, rc_ref)
+        zb = np.where(rising, zc, z1)
+        rb_ref = np.where(rising, rc_ref, r1 - r_ref)
+        a, m, _ = _line_piece(za, ra_ref, zb, rb_ref, 0.0)
+        _, _, rd = _line_piece(za, ra_ref + r_ref, zb, rb_ref + r_ref, 0.0)
         kept = ~radial & (zlo < lv)
-        radial_kept = radial & (z0 < lv - tol)
-        # A flat face in the level plane is wetted (the liquid touches it), unless empty.
-        radial_wet = radial_kept | (radial & (np.abs(z0 - lv) <= tol) & (lv > empty))
-        mr, rdr = _line_moments(z0, r0, z1, r1)
-        m01 += (f * (np.where(kept, mm, 0.0) + np.where(radial_kept, mr, 0.0))).sum(axis=0)
+        area += (f * np.where(kept, a, 0.0)).sum(axis=0)
+        moment += (f * np.where(kept, m, 0.0)).sum(axis=0)
+        # A flat face is wetted when it lies below the level or in its plane (within the
+        # tolerance): the wetted area at a level is its limit from above.
+        radial_wet = radial & (z0 <= lv + tol)
+        _, _, rdr = _line_piece(z0, r0, z1, r1, 0.0)
         wet += (np.where(kept, rd, 0.0) + np.where(radial_wet, rdr, 0.0)).sum(axis=0)
-        direction = np.where(rising, 1.0, -1.0)
-        m01 += (np.where(crossing, -direction * f * lv * rc * rc / 6.0, 0.0)).sum(axis=0)
-    # Arcs.
+    # Arcs: the kept sub-arc from its lower end to the level, as chord plus segment.
     if pc.arc.size:
-        cz, cr, R, a0, a1 = (pc.arc[:, i][:, None] for i in range(5))
+        cz, cr, R, a0, a1, z0, r0, z1, r1 = (pc.arc[:, i][:, None] for i in range(9))
         f = pc.arc_factor[:, None]
-        lv = Ls[None, :]
-        za, zb = cz + R * np.cos(a0), cz + R * np.cos(a1)
-        zsa, zsb = snap(za, lv), snap(zb, lv)
-        zlo, zhi = np.minimum(zsa, zsb), np.maximum(zsa, zsb)
-        ac = _arc_angle_at_z(cz, cr, R, a0, a1, lv)
-        full = lv >= zhi
-        ac = np.where(full, np.where(za < zb, a1, a0), ac)
-        ac = np.where(lv <= zlo, np.where(za < zb, a0, a1), ac)
-        rising = za < zb
-        p = np.where(rising, a0, ac)
-        q = np.where(rising, ac, a1)
-        mm, rd = _arc_moments(cz, cr, R, p, q)
+        rising = z1 > z0
+        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
+        # radii measured from r_ref from here on (see _arc_piece)
+        ac, rc = _arc_cut(cz, cr, R, a0, a1, lv, z_low=zlo, r_ref=r_ref)
+        r0, r1 = r0 - r_ref, r1 - r_ref
+        crossing = (zlo < lv) & (lv < zhi)
+        zc = np.where(crossing, lv, np.where(rising, z1, z0))
+        rc = np.where(crossing, rc, np.where(rising, r1, r0))
+        ac = np.where(crossing, ac, np.where(rising, a1, a0))
+        za, ra, pa = np.where(rising, z0, zc), np.where(rising, r0, rc), np.where(rising, a0, ac)
+        zb, rb, pb = np.where(rising, zc, z1), np.where(rising, rc, r1), np.where(rising, ac, a1)
+        a, m, rd = _arc_piece(cr - r_ref, R, pa, pb, za, ra, zb, rb, r_ref, shifted=True)
         kept = zlo < lv
-        m01 += (f * np.where(kept, mm, 0.0)).sum(axis=0)
+        area += (f * np.where(kept, a, 0.0)).sum(axis=0)
+        moment += (f * np.where(kept, m, 0.0)).sum(axis=0)
         wet += np.where(kept, rd, 0.0).sum(axis=0)
-        crossing = (zlo < lv) & (lv <= zhi)
-        rc = cr + R * np.sin(ac)
-        direction = np.where(rising, 1.0, -1.0)
-        m01 += (np.where(crossing, -direction * f * lv * rc * rc / 6.0, 0.0)).sum(axis=0)
     # Curves.
     for (curve, ta, tb), f in zip(pc.curves, pc.curve_factor):
-        cum = _CurveCumulative(curve, ta, tb)
+        cum = _CurveCumulative(curve, ta, tb, r_ref)
         error += abs(f) * cum.error
         za = float(curve.evaluate(np.array([ta]))[0][0])
         zb = float(curve.evaluate(np.array([tb]))[0][0])
-        zsa, zsb = snap(za, Ls), snap(zb, Ls)
-        zlo, zhi = np.minimum(zsa, zsb), np.maximum(zsa, zsb)
-        inside = (Ls > zlo) & (Ls < zhi)
-        tc = np.where(Ls >= zhi, tb if za < zb else ta, ta if za < zb else tb)
+        zlo, zhi = min(za, zb), max(za, zb)
+        inside = (L > zlo) & (L < zhi)
+        tc = np.where(L >= zhi, tb if za < zb else ta, ta if za < zb else tb).astype(float)
         if inside.any():
-            tc = tc.astype(float)
-            tc[inside] = _curve_parameter_at_z(curve, ta, tb, Ls[inside])
+            tc[inside] = _curve_parameter_at_z(curve, ta, tb, L[inside])
         phi_c = cum.phi_of(tc)
-        part = cum.upto(phi_c)                         # from ta to tc
-        tot = cum.total()
-        kept_vals = part if za < zb else tot[None, :] - part
-        kept = Ls > zlo
-        m01 += f * np.where(kept, kept_vals[:, 0], 0.0)
-        wet += np.where(kept, kept_vals[:, 1], 0.0)
-        crossing = (Ls > zlo) & (Ls <= zhi)
-        if crossing.any():
-            rc = curve.evaluate(tc)[1]
-            direction = 1.0 if zb > za else -1.0
-            m01 += np.where(crossing, -direction * f * Ls * rc * rc / 6.0, 0.0)
+        kept_vals = cum.upto(phi_c) if za < zb else cum.after(phi_c)
+        kept = L > zlo
+        area += f * np.where(kept, kept_vals[:, 0], 0.0)
+        moment += f * np.where(kept, kept_vals[:, 1], 0.0)
+        wet += np.where(kept, kept_vals[:, 2], 0.0)
+    m01 = r_ref * area + moment
     return VerticalLevels(L, TWO_PI * m01, TWO_PI * wet, TWO_PI * error)

@@ -71,8 +71,8 @@ from typing import Optional, Sequence, Tuple
 import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
-from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, split_arc,
-                                       split_curve, section_loop_factors)
+from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, d_minus_sin,
+                                       split_arc, split_curve, section_loop_factors)
 from revolve.geometry.segments import Arc, Curve, Line
 from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
 
@@ -119,7 +119,11 @@ def segment_area(r, y, r_plus_y=None, r_minus_y=None):
     rpy = np.clip((r + y) if r_plus_y is None else np.asarray(r_plus_y, dtype=float), 0.0, None)
     rmy = np.clip((r - y) if r_minus_y is None else np.asarray(r_minus_y, dtype=float), 0.0, None)
     angle = _half_angle(r, rpy, rmy)
-    s = r * r * angle + y * np.sqrt(rpy * rmy)
+    # The smaller part as r² (θ - sin θ)/2 (θ its central angle, θ - sin θ by series): a
+    # depth a hair above the bottom keeps its digits (r² acos + y √… would cancel).
+    below = rpy <= rmy
+    small = 0.5 * r * r * d_minus_sin(2.0 * np.where(below, angle, PI - angle))
+    s = np.where(below, small, PI * r * r - small)
     return np.where((rpy > 0) & (rmy > 0), s, np.where(rpy <= 0, 0.0, PI * r * r))
 
 

@@ -1,16 +1,27 @@
 """A triangle mesh of a revolved profile, for viewing, printing and STL files.
 
-The mesh is built from one number, the *chord tolerance*: the largest
+The mesh is built from one number, the *chord tolerance* δ: the largest
 distance allowed between the true surface and the flat triangles that stand
 in for it, in the profile's length unit.
 
+The budget is split in two halves. A point of a triangle lies within the
+sweep's sagitta of the surface swept by the profile *chord* it was built on
+(its distance from the axis falls short by at most ``r (1 - cos(Δφ/2))``
+while its axial position stays on the chord), and every point of that swept
+chord lies within the chord's sagitta of the true surface (turn the nearest
+profile point by the same angle). The two distances add, so each is given
+δ/2; for arcs an equal split is also the one that needs the fewest
+triangles (their number goes as 1/√(s₁ s₂) with s₁ + s₂ = δ).
+
 * Each segment of the profile (placed in the axis frame) is flattened into
-  chords: a line is its own chord; an arc of radius ``R`` is cut into equal
-  pieces whose sagitta ``R (1 - cos(Δ/2))`` is at most the tolerance (exact);
-  a curve is subdivided adaptively until the distance of probe points from
-  each chord is within the tolerance.
+  chords within δ/2: a line is its own chord; an arc of radius ``R`` is cut
+  into equal pieces whose sagitta ``R (1 - cos(Δ/2))`` is at most δ/2
+  (exact); a curve is subdivided adaptively until the distance of probe
+  points from each chord is within δ/2.
 * The flattened profile is revolved in equal angular steps chosen with the
-  same sagitta formula on the largest distance from the axis.
+  same sagitta formula, within δ/2, on the largest distance from the axis.
+* No mesh of more than :data:`MOST_TRIANGLES` triangles is built: a
+  tolerance that would need more is refused before the work starts.
 * Points on the axis become a single vertex (never a ring of copies), so no
   zero-area triangle is left in.
 * Solid loops are oriented so that every triangle's normal points out of the
@@ -53,6 +64,9 @@ LARGEST_STEP = math.pi / 2
 
 #: The mesh is refused beyond this many triangles (ask for a larger tolerance).
 MOST_TRIANGLES = 20_000_000
+
+#: :func:`chord_steps` never answers more than this (a count no mesh could use).
+MOST_STEPS = 2 ** 53
 
 #: Faces names given to the two flat ends of a partial revolution.
 CUT_FACE_START = "cut face (start)"
@@ -163,8 +177,10 @@ def _edge_use(triangles: np.ndarray) -> np.ndarray:
 def chord_steps(radius: float, sweep: float, tolerance: float) -> int:
     """Fewest equal pieces of an arc of ``radius`` and ``sweep`` whose sagitta is within ``tolerance``.
 
-    The sagitta of a chord spanning angle Δ is ``R (1 - cos(Δ/2))``; no piece
-    spans more than :data:`LARGEST_STEP`.
+    The sagitta of a chord spanning angle Δ is ``R (1 - cos(Δ/2)) = 2 R sin²(Δ/4)``;
+    the second form stays exact for tolerances far below the radius. No piece
+    spans more than :data:`LARGEST_STEP`, and the answer is at most
+    :data:`MOST_STEPS` (the caller refuses a mesh that large).
 
     >>> chord_steps(10.0, math.pi, 10.0)   # tolerance as large as the radius: quarter turns
     2
@@ -173,15 +189,21 @@ def chord_steps(radius: float, sweep: float, tolerance: float) -> int:
     True
     >>> chord_steps(0.0, math.pi, 0.1)     # on the axis: nothing to follow
     2
+    >>> chord_steps(1.0, math.pi, 1e-300) == MOST_STEPS   # far too fine: the cap, no error
+    True
     """
     sweep = abs(float(sweep))
     if sweep == 0:
         return 1
     largest = LARGEST_STEP
     if radius > 0 and tolerance < radius:
-        largest = min(largest, 2.0 * math.acos(1.0 - tolerance / radius))
-    n = int(math.ceil(sweep / largest * (1 - 1e-12)))
-    return max(n, 1)
+        largest = min(largest, 4.0 * math.asin(math.sqrt(0.5 * tolerance / radius)))
+    if not largest > 0:
+        return MOST_STEPS
+    pieces = sweep / largest * (1 - 1e-12)
+    if not pieces < MOST_STEPS:
+        return MOST_STEPS
+    return max(int(math.ceil(pieces)), 1)
 
 
 # -- flattening -----------------------------------------------------------------------
@@ -203,6 +225,9 @@ def flatten_segment(segment: Segment, tolerance: float, *, most_pieces: int = 1_
     if isinstance(segment, Arc):
         a0, a1 = segment.angles()
         n = chord_steps(segment.radius, a1 - a0, tolerance)
+        if n > most_pieces:
+            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
+                               "pieces on one arc; use a larger tolerance")
         a = np.linspace(a0, a1, n + 1)
         pts = np.column_stack([segment.centre[0] + segment.radius * np.cos(a),
                                segment.centre[1] + segment.radius * np.sin(a)])
@@ -246,7 +271,7 @@ def _flatten_curve(curve: Curve, tolerance: float, most_pieces: int,
         mid = (a[bad] + b[bad]) / 2
         a, b = np.concatenate([a[bad], mid]), np.concatenate([mid, b[bad]])
         if sum(f.size for f in finished) + a.size > most_pieces:
-            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces} "
+            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
                                "pieces on one curve; use a larger tolerance")
     finished.append(a)  # pieces still too far after the deepest split are kept as they are
     t = np.sort(np.concatenate(finished + [np.array([curve.t_end])]))
@@ -273,11 +298,13 @@ class FlatPath:
 
 
 def flatten_path(segments: Sequence[Segment], closed: bool, tolerance: float,
-                 face_number, on_axis: float = 0.0) -> FlatPath:
+                 face_number, on_axis: float = 0.0, *,
+                 most_pieces: int = 1_000_000) -> FlatPath:
     """Flatten a path's frame segments into one point list (no repeated joint points).
 
     ``face_number(segment)`` gives each chord's face number. Points with
-    ``r <= on_axis`` are put exactly on the axis.
+    ``r <= on_axis`` are put exactly on the axis. No segment is cut into more
+    than ``most_pieces`` chords (a :class:`RevolveError` says so).
 
     >>> segs = (Line((0.0, 0.0), (2.0, 0.0)), Line((2.0, 0.0), (2.0, 1.0)), Line((2.0, 1.0), (0.0, 0.0)))
     >>> fp = flatten_path(segs, True, 0.1, lambda s: 0)
@@ -288,7 +315,7 @@ def flatten_path(segments: Sequence[Segment], closed: bool, tolerance: float,
     """
     pieces, faces = [], []
     for k, seg in enumerate(segments):
-        p = flatten_segment(seg, tolerance)
+        p = flatten_segment(seg, tolerance, most_pieces=most_pieces)
         pieces.append(p[:-1])
         faces.append(np.full(len(p) - 1, face_number(seg), dtype=int))
     if not closed:
@@ -622,7 +649,13 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
         When the profile fails the engine's checks (see :func:`revolve.geometry.checks.prepare`).
     RevolveError
         When the tolerance is not a positive number, or so small that the mesh
-        would exceed :data:`MOST_TRIANGLES`.
+        would exceed :data:`MOST_TRIANGLES` (refused before the work starts).
+
+    Notes
+    -----
+    Half the tolerance goes to the profile's chords and half to the angular
+    steps (see the module notes): every point of every triangle is within
+    ``tolerance`` of the true surface.
 
     Examples
     --------
@@ -646,14 +679,34 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
     Traceback (most recent call last):
     ...
     revolve.errors.RevolveError: the chord tolerance must be a positive number, got 0
+    >>> revolve_mesh(Revolution(Profile(loops=(bar,)), Axis.x()), tolerance=1e-300)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: the chord tolerance 1e-300 would give more than 20,000,000 triangles; use a larger tolerance
     """
     try:
         tol = float(tolerance)
-    except (TypeError, ValueError):
+    except (TypeError, ValueError, OverflowError):
         raise RevolveError(f"the chord tolerance must be a positive number, got {tolerance!r}")
     if not (math.isfinite(tol) and tol > 0):
-        raise RevolveError(f"the chord tolerance must be a positive number, got {tolerance:g}")
+        raise RevolveError(f"the chord tolerance must be a positive number, got {tol:g}")
     prep = prepare(revolution.profile, revolution.axis)
+    half = 0.5 * tol    # the profile's chords and the angular steps each take half
+
+    def too_many() -> RevolveError:
+        return RevolveError(f"the chord tolerance {tol:g} would give more than "
+                            f"{MOST_TRIANGLES:,} triangles; use a larger tolerance")
+
+    # Count before any work: every chord is swept in at least this many steps.
+    theta = revolution.angle_radians
+    full = revolution.full
+    r_ends = max(max(s.start[1], s.end[1]) for segs in prep.paths for s in segs)
+    least_steps = max(chord_steps(r_ends, theta, half), 4 if full else 1)
+    least_chords = sum(chord_steps(s.radius, s.angles()[1] - s.angles()[0], half)
+                       if isinstance(s, Arc) else 1 for segs in prep.paths for s in segs)
+    if 2 * least_chords * least_steps > MOST_TRIANGLES:
+        raise too_many()
+    most_pieces = max(1, MOST_TRIANGLES // (2 * least_steps))
     names: List[str] = []
 
     def face_number(seg) -> int:
@@ -666,7 +719,11 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
     chains: List[FlatPath] = []
     depth_of = iter(prep.depths)
     for segs, closed in zip(prep.paths, prep.closed):
-        fp = flatten_path(segs, closed, tol, face_number, on_axis=prep.tolerance)
+        try:
+            fp = flatten_path(segs, closed, half, face_number, on_axis=prep.tolerance,
+                              most_pieces=most_pieces)
+        except RevolveError:
+            raise too_many() from None
         if closed:
             d = next(depth_of)
             fp = _oriented(FlatPath(fp.points, fp.faces, True, d), counter_clockwise=d % 2 == 0)
@@ -679,17 +736,14 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
                 fp = FlatPath(fp.points[::-1].copy(), fp.faces[::-1].copy(), False, fp.depth)
             chains.append(fp)
     paths = loops + chains
-    theta = revolution.angle_radians
-    full = revolution.full
     r_max = max(float(p.points[:, 1].max()) for p in paths)
-    steps = chord_steps(r_max, theta, tol)
+    steps = chord_steps(r_max, theta, half)
     if full:
         steps = max(steps, 4)
     ncols = steps if full else steps + 1
     n_chords = sum(len(p.faces) for p in paths)
     if 2 * n_chords * steps > MOST_TRIANGLES:
-        raise RevolveError(f"the chord tolerance {tol:g} would give about {2 * n_chords * steps:,} "
-                           f"triangles (more than {MOST_TRIANGLES:,}); use a larger tolerance")
+        raise too_many()
     phi = theta * np.arange(ncols) / steps
     cos, sin = np.cos(phi), np.sin(phi)
 

@@ -27,6 +27,10 @@ Orientation and level
   the lowest inside point, which lies ``r_max`` below the axis (``r_max``:
   the largest inside radius). Full is ``2 r_max``.
 
+The wetted area counts a flat face lying in the liquid's plane as wetted, so
+at every level it equals its value a hair above: a flat bottom is wetted at
+level 0 (lying down, the plane touches the shell along a line of no area).
+
 Vertical volumes are exact (the section clipped at the level, then
 Pappus–Guldinus, :mod:`revolve.geometry.clipping`); horizontal ones integrate
 the wetted circular segment along the axis (:mod:`revolve.geometry.horizontal`),

@@ -29,8 +29,9 @@ from shapely.geometry import Polygon
 from shapely.ops import unary_union
 
 from revolve.errors import ProfileError, RevolveError
-from revolve.geometry.mesh import (CUT_FACE_END, CUT_FACE_START, chord_steps, flatten_segment,
-                                   revolve_mesh, signed_area, triangulate_section)
+from revolve.geometry.mesh import (CUT_FACE_END, CUT_FACE_START, MOST_STEPS, chord_steps,
+                                   flatten_segment, revolve_mesh, signed_area,
+                                   triangulate_section)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
 from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
 
@@ -87,8 +88,8 @@ def test_torus_converges_to_crc(axis):
     assert_converges_linearly(errs[:, 1], what="torus area")
     # Leading order: an inscribed polygon of sagitta s keeps 1 − (4/3) s / ρ of a circle's
     # area (CRC circular segment, expanded); the tube (ρ = 1) and the sweep (ρ = 4, the
-    # largest radius) each lose that much at most, s ≤ tol.
-    bound = 4 / 3 * np.array(TOLERANCES) * (1 / 1 + 1 / 4)
+    # largest radius) each lose that much at most, s ≤ tol/2 (each takes half the budget).
+    bound = 4 / 3 * np.array(TOLERANCES) / 2 * (1 / 1 + 1 / 4)
     assert np.all(np.abs(errs[:, 0]) <= 1.02 * bound)
     assert np.all(np.abs(errs[:, 0]) >= 0.3 * bound)
 
@@ -156,6 +157,85 @@ def test_paraboloid_curve_converges_to_crc():
     assert_converges_linearly(errs[:, 1], what="paraboloid area")
     tm = reference(revolve_mesh(rev, 0.01))
     assert tm.is_watertight and tm.is_winding_consistent and tm.volume > 0
+
+
+# -- the promise: no point of any triangle is farther than the tolerance from the surface ---
+
+def triangle_samples(mesh, n=12):
+    """Points on every triangle: a barycentric grid of (n + 1)(n + 2)/2 points each."""
+    w = np.array([(i / n, j / n, 1 - i / n - j / n) for i in range(n + 1) for j in range(n + 1 - i)])
+    return np.einsum("wk,mkd->mwd", w, mesh.corners()).reshape(-1, 3)
+
+
+def meridian(points):
+    """Axial position and distance from the x axis of 3-D points (the profile's frame)."""
+    return points[:, 0], np.hypot(points[:, 1], points[:, 2])
+
+
+def distance_to_segments(z, rho, segments):
+    """Distance in the meridian half-plane from (z, rho) to straight profile pieces.
+
+    For a surface of revolution the nearest point lies in the point's own meridian
+    half-plane (|P − Q|² = Δz² + ρ² + ρ'² − 2ρρ' cos Δψ ≥ Δz² + (ρ − ρ')²), so this is the
+    exact distance to the swept surface.
+    """
+    best = np.full(z.shape, np.inf)
+    p = np.column_stack([z, rho])
+    for a, b in segments:
+        a, b = np.asarray(a, float), np.asarray(b, float)
+        ab = b - a
+        s = np.clip((p - a) @ ab / (ab @ ab), 0.0, 1.0)
+        best = np.minimum(best, np.linalg.norm(p - a - s[:, None] * ab, axis=1))
+    return best
+
+
+@pytest.mark.parametrize("tol", [0.05, 0.01, 0.002])
+def test_sphere_and_torus_stay_within_the_tolerance(tol):
+    # The true largest distance, measured on a barycentric grid over every triangle against
+    # the exact surface: sphere |P| = 1 (distance ||P| − 1|), torus of tube 1 at 3 from the
+    # axis (distance |√((ρ − 3)² + z²) − 1|), analytic geometry, no source needed.
+    mesh = revolve_mesh(Revolution(sphere_profile(1.0), Axis.x()), tol)
+    d_sphere = np.abs(np.linalg.norm(triangle_samples(mesh), axis=1) - 1.0).max()
+    mesh = revolve_mesh(Revolution(Profile(loops=(circle(0.0, 3.0, 1.0),)), Axis.x()), tol)
+    z, rho = meridian(triangle_samples(mesh))
+    d_torus = np.abs(np.hypot(rho - 3.0, z) - 1.0).max()
+    for d in (d_sphere, d_torus):
+        assert d <= tol
+        assert d > 0.5 * tol   # and the budget is used, not wasted (both sagittas add)
+
+
+def test_cone_and_frustum_stay_within_the_tolerance():
+    # Straight profile: only the sweep's steps depart from the surface; the exact distance
+    # is the meridian distance to the profile's lines (see distance_to_segments).
+    tol = 0.01
+    frustum = [(0.0, 0.0), (0.0, 3.0), (4.0, 2.0), (4.0, 0.0)]
+    cone = [(0.0, 0.0), (3.0, 2.0), (3.0, 0.0)]
+    for pts in (frustum, cone):
+        mesh = revolve_mesh(Revolution(Profile(loops=(Loop.from_points(pts),)), Axis.x()), tol)
+        z, rho = meridian(triangle_samples(mesh))
+        edges = [(pts[k], pts[(k + 1) % len(pts)]) for k in range(len(pts))]
+        edges = [(a, b) for a, b in edges if a[1] != 0 or b[1] != 0]   # the axis sweeps nothing
+        d = distance_to_segments(z, rho, edges).max()
+        assert 0.25 * tol < d <= tol
+
+
+def test_curve_profile_stays_within_the_tolerance():
+    # A paraboloid dish x = 3 t², y = 2 t (t in 0..1) closed by its flat end. Distance to the
+    # curve: nearest of 200 001 points along it (scipy.spatial.cKDTree; the spacing, under
+    # 4e-5, adds at most 2e-5 to any distance; farther than 2 tol counts as infinite), and to
+    # the end disc exactly.
+    from scipy.spatial import cKDTree
+
+    r, h, tol = 2.0, 3.0, 0.01
+    curve = curve_from_expressions(h * T ** 2, r * T, 0, 1)
+    loop = Loop((curve, Line((h, r), (h, 0.0)), Line((h, 0.0), (0.0, 0.0))))
+    mesh = revolve_mesh(Revolution(Profile(loops=(loop,)), Axis.x()), tol)
+    z, rho = meridian(triangle_samples(mesh))
+    t = np.linspace(0.0, 1.0, 200_001)
+    d_curve, _ = cKDTree(np.column_stack([h * t * t, r * t])).query(
+        np.column_stack([z, rho]), distance_upper_bound=2 * tol)
+    d = np.minimum(d_curve, distance_to_segments(z, rho, [((h, r), (h, 0.0))]))
+    assert d.max() <= tol
 
 
 # -- partial revolutions: cut faces -------------------------------------------------------
@@ -323,6 +403,30 @@ def test_too_fine_a_tolerance_is_refused_before_any_work():
     rev = Revolution(Profile(loops=(circle(0, 3, 1),)), Axis.x())
     with pytest.raises(RevolveError, match="use a larger tolerance"):
         revolve_mesh(rev, 1e-9)
+
+
+@pytest.mark.parametrize("tol", [1e-300, 5e-324, 1e-30])
+@pytest.mark.parametrize("shape", ["arcs", "lines", "curve"])
+def test_vanishing_tolerance_is_refused_not_divided_by(tol, shape):
+    # Once a ZeroDivisionError in chord_steps (1 − cos(Δ/2) rounds to 0 below 1e-16).
+    if shape == "arcs":
+        prof = Profile(loops=(circle(0, 3, 1),))
+    elif shape == "lines":
+        prof = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),))
+    else:
+        prof = Profile(loops=(Loop((curve_from_expressions(T, 2 + sympy.sin(T), 0, 3),
+                                    Line((3.0, 2 + math.sin(3.0)), (3.0, 1.0)),
+                                    Line((3.0, 1.0), (0.0, 1.0)), Line((0.0, 1.0), (0.0, 2.0)))),))
+    with pytest.raises(RevolveError, match=r"^the chord tolerance .* would give more than "
+                                           r"20,000,000 triangles; use a larger tolerance$"):
+        revolve_mesh(Revolution(prof, Axis.x()), tol)
+
+
+def test_chord_steps_survive_tiny_tolerances():
+    # 2 R sin²(Δ/4) = tol solved exactly: Δ = 4 asin(√(tol / 2R)) (trigonometry, no source);
+    # the count never divides by zero and is capped where no mesh could use it.
+    assert chord_steps(1.0, 2 * math.pi, 1e-20) == math.ceil(2 * math.pi / (4 * math.sqrt(0.5e-20)))
+    assert chord_steps(1.0, 2 * math.pi, 5e-324) == MOST_STEPS
 
 
 def test_profile_errors_come_from_the_engine_checks():

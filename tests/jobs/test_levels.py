@@ -134,6 +134,61 @@ def test_horizontal_cylinder_rows_and_percent():
     assert t.percent[-1] == pytest.approx(100.0, rel=1e-12)
 
 
+# -- the bottom itself: the wetted area is its limit from above --------------------------------
+
+def circular_segment(R, h):
+    """CRC (from memory): area of a circular segment of height h, in mpmath (40 digits)."""
+    import mpmath
+
+    return R * R * mpmath.acos((R - h) / R) - (R - h) * mpmath.sqrt(2 * R * h - h * h)
+
+
+@pytest.mark.parametrize("h", [0.0, 1e-9])
+def test_flat_bottom_is_wetted_at_its_own_level_upright(h):
+    # Convention: a flat face lying in the liquid's plane is wetted, so a flat bottom counts at
+    # level 0 exactly as it does a hair above (once: 0 at level 0, the whole disc at 1 mm).
+    # Upright cylinder R = 1: CRC (from memory) V = π R² h, wetted π R² + 2 π R h.
+    R = 1.0
+    space = liquid_space(upright([(0, 0), (R, 0), (R, 2), (0, 2)]), Axis.y(), orientation="vertical")
+    t = level_table(space, [h])
+    assert t.volume[0] == pytest.approx(math.pi * R * R * h, rel=1e-14, abs=0.0)
+    assert t.wetted_area[0] == pytest.approx(math.pi * R * R + 2 * math.pi * R * h, rel=1e-14,
+                                             abs=0.0)
+
+
+@pytest.mark.parametrize("h", [0.0, 1e-9])
+def test_horizontal_bottom_line_has_no_area_at_level_0(h):
+    # Lying down, nothing flat lies in the liquid's plane at the bottom: the end discs are
+    # upright and the shell touches the plane along a line. So the wetted area is 0 at level 0
+    # and grows continuously: the shell's wetted arc 2 R acos((R − h)/R) along L plus two
+    # circular segments (CRC, from memory); the volume is L times the segment.
+    import mpmath
+
+    mpmath.mp.dps = 40
+    R, L = 1.0, 2.0
+    space = liquid_space(upright([(0, 0), (0, R), (L, R), (L, 0)]), Axis.x(),
+                         orientation="horizontal")
+    t = level_table(space, [h])
+    hh = mpmath.mpf(h)
+    segment = circular_segment(R, hh)
+    wetted = 2 * R * mpmath.acos((R - hh) / R) * L + 2 * segment
+    if h == 0:
+        assert t.volume[0] == 0.0 and t.wetted_area[0] == 0.0
+    else:
+        assert t.volume[0] == pytest.approx(float(L * segment), rel=1e-13, abs=0.0)
+        assert t.wetted_area[0] == pytest.approx(float(wetted), rel=1e-13, abs=0.0)
+
+
+def test_round_bottom_starts_from_nothing():
+    # A hemispherical bottom touches the level-0 plane at one point: wetted area 0 there, and
+    # the cap's 2 π R h just above (CRC, from memory), in the profile's own frame.
+    space = liquid_space(hemispherical_bottom_tank(1.0), Axis.y(), orientation="vertical")
+    t = level_table(space, [0.0, 1e-9])
+    h = (space.bottom + 1e-9) - space.bottom      # the height the float level really has
+    assert t.wetted_area[0] == 0.0
+    assert t.wetted_area[1] == pytest.approx(2 * math.pi * h, rel=1e-12, abs=0.0)
+
+
 # -- trimesh: the liquid body as a triangle mesh, cut at the level -------------------------
 
 def _frame_points(seg, n):
