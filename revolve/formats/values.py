@@ -87,6 +87,9 @@ def check_length_unit(unit: str, where: Optional[Where] = None) -> None:
     from revolve.units import factor
 
     where = where or Where()
+    if len(unit) > QUOTE_CHARS or any(ord(ch) < 0x20 or ord(ch) == 0x7F for ch in unit):
+        raise UnitError(f"{quote(unit)} is not a length unit; length units include mm, m, in, "
+                        "ft", file=where.file, line=where.line, place=where.place)
     try:
         factor(unit, "length")
     except UnitError as exc:
@@ -183,8 +186,7 @@ def number(raw: Any, what: str, where: Optional[Where] = None) -> Value:
     revolve.errors.FormatError: angle must be a number, got a list
     """
     if isinstance(raw, OversizeNumber):
-        raise fail(f"{what} {quote(raw.text)} is too large or too small to read; "
-                   f"{_RANGE_HINT}", where)
+        return Value(0.0, plain_fraction(raw.text, what, where))   # raises: too large or small
     if isinstance(raw, bool) or not isinstance(raw, (int, Decimal, float, str)):
         raise fail(f"{what} must be a number, got {describe(raw)}", where)
     if isinstance(raw, str):
@@ -292,9 +294,9 @@ def plain_fraction(text: str, what: str, where: Optional[Where] = None) -> Fract
                    f"{MAX_NUMBER_CHARS}", where)
     try:
         raw = Decimal(text)
-    except (InvalidOperation, ValueError):
-        raise fail(f"{what} {quote(text)} is too large or too small to read; {_RANGE_HINT}",
-                   where) from None
+    except (InvalidOperation, ValueError):   # an exponent beyond the decimal module's
+        size = "small" if re.search(r"[eE]-", text) else "large"
+        raise fail(f"{what} is too {size}; {_RANGE_HINT}", where) from None
     return _decimal_fraction(raw, what, where)
 
 
