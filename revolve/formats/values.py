@@ -42,7 +42,7 @@ from revolve.errors import ExpressionError, FormatError
 from revolve.geometry.segments import Where
 
 #: A plain decimal literal (what ``Fraction`` reads exactly), with optional sign and exponent.
-PLAIN_NUMBER = re.compile(r"\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*\Z")
+PLAIN_NUMBER = re.compile(r"\s*[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?\s*\Z")
 
 #: Digits carried when evaluating an exact expression to a float (then rounded once).
 EVALUATION_DIGITS = 30
