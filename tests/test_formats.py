@@ -821,6 +821,11 @@ def test_numbers_at_the_ends_of_the_float_range_are_read():
     (loop_text('{ y = "x\\n+ 1", to_x = 3 }'), None),
     (loop_text('{ line_to = [1, "2\\nx"] }'), None),
     (loop_text('{ arc_to = [1, 10], radius = 1, side = "le\\nft" }'), r'"le\nft"'),
+    ('material = "Stahl\\nX"\n' + loop_text("{ line_to = [1, 10] }"), r'one line of text, '
+                                                                        r'without line breaks'),
+    ('density = "7850\\rkg/m^3"\n' + loop_text("{ line_to = [1, 10] }"), r'"7850\rkg/m^3"'),
+    ('name = "a\\u2028b"\n' + loop_text("{ line_to = [1, 10] }"), r'"a\u2028b"'),
+    (loop_text('{ line_to = [1, 10], face = "bo\\nre" }'), r'face must be one line'),
 ])
 def test_user_text_with_line_breaks_stays_on_one_line(text, shown):
     err = _refused(text)

@@ -111,7 +111,8 @@ from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
 from revolve.formats.source_lines import find_oversize, scan_lines
 from revolve.formats.values import (MAX_NUMBER_CHARS, Value, check_length_unit, describe,
-                                    exact_to_sympy, fail, number, point, quote, toml_float)
+                                    exact_to_sympy, fail, is_one_line, number, point, quote,
+                                    toml_float)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
 from revolve.geometry.segments import (Line, Where, arc_from_centre, arc_from_radius,
                                        curve_from_expressions)
@@ -326,6 +327,9 @@ class _Reader:
                        self.where("density", "density"))
         if density is not None and not density.strip():
             raise fail("density is empty", self.where("density", "density"))
+        if density is not None and not is_one_line(density):
+            raise fail(f"density must be one line of text, without line breaks or control "
+                       f"characters, got {describe(density)}", self.where("density", "density"))
         if material is not None and density is not None:
             raise fail("give material or density, not both",
                        self.where("density", "density"))
@@ -352,6 +356,9 @@ class _Reader:
         if not isinstance(value, str) or not value.strip():
             raise fail(f"{key} must be a non-empty text in quotes, got {describe(value)}",
                        self.where(key, key))
+        if not is_one_line(value):
+            raise fail(f"{key} must be one line of text, without line breaks or control "
+                       f"characters, got {describe(value)}", self.where(key, key))
         return value.strip()
 
     def units(self, data: Dict[str, Any], unit: Optional[str]) -> str:
@@ -469,6 +476,9 @@ class _Reader:
             return None
         if not isinstance(raw, str) or not raw.strip():
             raise fail(f"face must be a non-empty name in quotes, got {describe(raw)}", where)
+        if not is_one_line(raw):
+            raise fail(f"face must be one line of text, without line breaks or control "
+                       f"characters, got {describe(raw)}", where)
         return raw.strip()
 
     # -- segments ---------------------------------------------------------------------

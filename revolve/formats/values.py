@@ -87,13 +87,27 @@ def check_length_unit(unit: str, where: Optional[Where] = None) -> None:
     from revolve.units import factor
 
     where = where or Where()
-    if len(unit) > QUOTE_CHARS or any(ord(ch) < 0x20 or ord(ch) == 0x7F for ch in unit):
+    if len(unit) > QUOTE_CHARS or not is_one_line(unit):
         raise UnitError(f"{quote(unit)} is not a length unit; length units include mm, m, in, "
                         "ft", file=where.file, line=where.line, place=where.place)
     try:
         factor(unit, "length")
     except UnitError as exc:
         raise exc.located(file=where.file, line=where.line, place=where.place) from None
+
+
+def _control(code: int) -> bool:
+    """Whether a character code is a control character or a line break of any kind."""
+    return code < 0x20 or 0x7F <= code < 0xA0 or code in (0x2028, 0x2029)
+
+
+def is_one_line(text: str) -> bool:
+    """Whether a text has no line break, tab or other control character.
+
+    >>> is_one_line("carbon steel"), is_one_line("a\\nb"), is_one_line("a\\u2028b")
+    (True, False, False)
+    """
+    return not any(_control(ord(ch)) for ch in text)
 
 
 def quote(text: Any, limit: int = QUOTE_CHARS) -> str:
@@ -121,7 +135,7 @@ def quote(text: Any, limit: int = QUOTE_CHARS) -> str:
             out.append("\\r")
         elif ch == "\t":
             out.append("\\t")
-        elif code < 0x20 or 0x7F <= code < 0xA0 or code in (0x2028, 0x2029, 0x85):
+        elif _control(code):
             out.append(f"\\u{code:04x}")
         else:
             out.append(ch)
