@@ -102,12 +102,12 @@ def _control(code: int) -> bool:
 
 
 def is_one_line(text: str) -> bool:
-    """Whether a text has no line break, tab or other control character.
+    """Whether a text has no line break or other control character (a tab is allowed).
 
-    >>> is_one_line("carbon steel"), is_one_line("a\\nb"), is_one_line("a\\u2028b")
+    >>> is_one_line("carbon\\tsteel"), is_one_line("a\\nb"), is_one_line("a\\u2028b")
     (True, False, False)
     """
-    return not any(_control(ord(ch)) for ch in text)
+    return not any(_control(ord(ch)) and ch != "\t" for ch in text)
 
 
 def quote(text: Any, limit: int = QUOTE_CHARS) -> str:
