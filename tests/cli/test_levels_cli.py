@@ -299,6 +299,12 @@ segments = [ { line_to = [10, 0] }, { line_to = [10, 5] }, { line_to = [0, 5] },
     (DRUM_IN, ["--orientation", "sideways"], "--orientation: give vertical or horizontal"),
     (OFF_AXIS, [], "chain 1: the chain ends at (10, 24), off the axis"),
     (HALF_TURN, [], "bad.toml:3: angle: a level table needs a full revolution"),
+    # hostile files (issue 9): deep nesting, a 100 001-digit number, a huge exponent
+    ("name = " + "[" * 1000 + "]" * 1000 + DRUM_IN, [], "bad.toml:1: name: brackets nest 17 deep"),
+    (DRUM_IN.replace("[10, 0]", "[1" + "0" * 100_000 + ", 0]"), [],
+     "bad.toml:9: line_to: a number (or other unquoted word) of 100001 characters is too long"),
+    (DRUM_IN.replace("[10, 0]", "[1e999999999, 0]"), [],
+     "bad.toml:9: chain 1, segment 1: line_to x is too large"),
 ])
 def test_bad_input(tmp_path, capsys, text, args, expected):
     path = write(tmp_path, "bad.toml", text)
