@@ -871,7 +871,8 @@ _NUMBER_TEXT = st.one_of(
     st.integers(-10**6, 10**6).map(str),
     st.floats(allow_nan=False, allow_infinity=False).map(repr),
     st.sampled_from(["nan", "inf", "-inf", "+inf", "1e309", "1e-400", "4.9e-324", "0x7f",
-                     "1e99999999999999999999", "-0.0", "1_000", "9" * 5000, "1" + "0" * 101]),
+                     "1e99999999999999999999", "-0.0", "1_000"]),
+    st.sampled_from([101, 4301, 5000]).map(lambda n: "9" * n),
     st.integers(0, 200).map(lambda n: "1e" + "9" * n),
     st.integers(0, 120_000).map(lambda n: "7" * n + "1"),
 )
