@@ -23,7 +23,7 @@ from pathlib import Path
 
 import pytest
 import sympy
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from revolve.errors import (ExpressionError, FormatError, ProfileError, RevolveError,
@@ -523,7 +523,8 @@ def test_points_exact_and_default_unit():
     ("0,0\n1,0\n0,0\n", "pts.txt: a point list needs at least 3 distinct points, got 2"),
     ("x,y\n", "pts.txt: a point list needs at least 3 distinct points, got 0"),
     ("0,0\n1,0\n1,0\n0,1\n", "pts.txt:3: point (1, 0) repeats the previous one; remove it"),
-    ("0,0\n1,1e400\n0,1\n", 'pts.txt:2: "1,1e400" is too large for a floating-point number'),
+    ("0,0\n1,1e400\n0,1\n", "pts.txt:2: y is too large; numbers other than 0 must lie between "
+                          "2.2e-308 and 1.8e308 in size"),
 ])
 def test_points_errors(text, message):
     if "1,1\n1,1" in text:
@@ -735,3 +736,260 @@ def test_example_profiles_round_trip(path):
         assert_same_geometry(a.segments, b.segments)
     assert (again.axis, again.angle_degrees, again.material, again.density) == \
         (doc.axis, doc.angle_degrees, doc.material, doc.density)
+
+
+# -- hostile and broken profile files and point lists (issue 9) ------------------------------
+# Input families: deeply nested arrays, numbers with 100 001 digits or huge exponents, strings
+# with line breaks, unknown keys and wrong types. Each must load or be refused with one line
+# naming the file (and, where there is one, the line and key); nothing else may escape.
+
+def _refused(text, *, points=False, file="h.toml"):
+    """The error a reader raises for ``text`` (asserting it is a one-line RevolveError)."""
+    reader = parse_points_text if points else parse_profile_text
+    with pytest.raises(RevolveError) as info:
+        reader(text, file=file)
+    message = str(info.value)
+    assert "\n" not in message and "\r" not in message, message
+    assert message.startswith(file), message
+    return info.value
+
+
+@pytest.mark.parametrize("depth", [17, 400, 1000, 100_000])
+@pytest.mark.parametrize("template, key", [
+    ("name = {deep}", "name"),
+    ('units = "mm"\n[[loop]]\nstart = [0, 0]\nsegments = {deep}', "segments"),
+    ('[[loop]]\nstart = [0, 0]\nsegments = [ {{ line_to = {deep} }} ]', "line_to"),
+    ('[axis]\npoint = {deep}', "point"),
+])
+def test_deeply_nested_arrays_are_refused_with_file_line_and_key(depth, template, key):
+    text = template.format(deep="[" * depth + "1" + "]" * depth)
+    err = _refused(text)
+    assert isinstance(err, FormatError)
+    assert err.place == key and err.line == text.count("\n") + 1
+    assert f"brackets nest 17 deep" in str(err)
+
+
+def test_deep_inline_tables_are_refused_too():
+    text = '[[loop]]\nstart = [0, 0]\nsegments = [' + "{ a = " * 500 + "1" + " }" * 500 + "]"
+    assert "brackets nest" in str(_refused(text))
+
+
+@pytest.mark.parametrize("literal", [
+    "9" * 100_001,                       # Python's integer-string limit (4300 digits) is far below
+    "9" * 100_001 + ".5",
+    "0x" + "f" * 100_001,
+    '"' + "9" * 100_001 + '"',           # a number written as text
+    '"' + "1" * 101 + '"',
+])
+def test_numbers_with_too_many_digits_are_refused(literal):
+    err = _refused(f'units = "mm"\nangle = {literal}\n')
+    assert (err.line, err.place) == (2, "angle")
+    assert "at most 100" in str(err) or "at most 1000" in str(err)
+
+
+@pytest.mark.parametrize("literal, word", [
+    ("1e999999999", "large"),              # Fraction would expand 10**999999999
+    ('"1e999999999"', "large"),
+    ("1e99999999999999999999", "large"),   # beyond Python's decimal module
+    ("1e-999999999", "small"),
+    ('"-2.5e-400"', "small"),
+    ("1e309", "large"),
+])
+def test_numbers_outside_the_float_range_are_refused_at_once(literal, word):
+    text = loop_text(f"{{ line_to = [{literal}, 10] }}", "{ line_to = [1, 20] }",
+                     "{ close = true }")
+    err = _refused(text)
+    assert (err.line, err.place) == (5, "loop 1, segment 1")
+    assert f"too {word}" in str(err)
+
+
+def test_numbers_at_the_ends_of_the_float_range_are_read():
+    # Python's float range (sys.float_info, the IEEE 754 double): max ≈ 1.8e308, min normal ≈ 2.2e-308
+    doc = parse_profile_text(loop_text(f"{{ line_to = [{sys.float_info.max!r}, 10] }}",
+                                       f"{{ line_to = [{sys.float_info.min!r}, 20] }}",
+                                       "{ close = true }"), file="p.toml")
+    ends = [seg.end for seg in doc.profile.loops[0].segments]
+    assert ends[:2] == [(sys.float_info.max, 10.0), (sys.float_info.min, 20.0)]
+
+
+@pytest.mark.parametrize("text, shown", [
+    ('"a\\nb" = 1', r'unknown key "a\nb"'),
+    ('units = "m\\nm"', None),
+    ('orientation = "up\\nright"\n' + loop_text("{ line_to = [1, 10] }", "{ close = true }"),
+     r'"up\nright"'),
+    (loop_text('{ line_to = [1, 10], face = 7 }'), "face must be"),
+    (loop_text('{ y = "x\\n+ 1", to_x = 3 }'), None),
+    (loop_text('{ line_to = [1, "2\\nx"] }'), None),
+    (loop_text('{ arc_to = [1, 10], radius = 1, side = "le\\nft" }'), r'"le\nft"'),
+    ('material = "Stahl\\nX"\n' + loop_text("{ line_to = [1, 10] }"), r'one line of text, '
+                                                                        r'without line breaks'),
+    ('density = "7850\\rkg/m^3"\n' + loop_text("{ line_to = [1, 10] }"), r'"7850\rkg/m^3"'),
+    ('name = "a\\u2028b"\n' + loop_text("{ line_to = [1, 10] }"), r'"a\u2028b"'),
+    (loop_text('{ line_to = [1, 10], face = "bo\\nre" }'), r'face must be one line'),
+])
+def test_user_text_with_line_breaks_stays_on_one_line(text, shown):
+    err = _refused(text)
+    if shown:
+        assert shown in str(err)
+
+
+def test_orientation_is_read_and_written_back():
+    text = 'orientation = "horizontal"\n' + loop_text("{ line_to = [1, 10] }", "{ line_to = [1, 20] }",
+                                                     "{ close = true }")
+    doc = parse_profile_text(text, file="p.toml")
+    assert doc.orientation == "horizontal"
+    again = parse_profile_text(profile_text(doc), file="q.toml")
+    assert again.orientation == "horizontal"
+    assert 'orientation = "vertical"' in profile_text(doc, orientation="vertical")
+    assert "orientation" not in profile_text(doc.profile)
+    with pytest.raises(FormatError):
+        profile_text(doc, orientation="sideways")
+    err = _refused('orientation = 1\n' + loop_text("{ line_to = [1, 10] }"))
+    assert (err.line, err.place) == (1, "orientation")
+
+
+@pytest.mark.parametrize("line, expected", [
+    ("9" * 100_001 + ",1", "x is 100001 characters long"),
+    ("1," + "1" * 101, "y is 101 characters long"),
+    ("1,1e999999999", "y is too large"),
+    ("1e-999999999,1", "x is too small"),
+    ("1,1e99999999999999999999", "y is too large"),
+    ("1,\x1b2", r'got "1,\u001b2"'),
+])
+def test_point_lists_bound_numbers(line, expected):
+    err = _refused(f"0,0\n1,0\n{line}\n", points=True, file="p.txt")
+    assert err.line == 3 and expected in str(err)
+
+
+# Generated documents. Values are TOML text: plain and odd numbers, strings with line breaks,
+# arrays nested to any depth, inline tables with known and unknown keys.
+_KEYS = st.sampled_from(["name", "units", "material", "density", "angle", "orientation", "axis",
+                         "along", "point", "direction", "face", "start", "segments", "line_to",
+                         "arc_to", "radius", "side", "major", "centre", "turn", "x", "y", "to_x",
+                         "to_y", "t_from", "t_to", "close", "unit", "zzz", "loop", "chain"])
+_NUMBER_TEXT = st.one_of(
+    st.integers(-10**6, 10**6).map(str),
+    st.floats(allow_nan=False, allow_infinity=False).map(repr),
+    st.sampled_from(["nan", "inf", "-inf", "+inf", "1e309", "1e-400", "4.9e-324", "0x7f",
+                     "1e99999999999999999999", "-0.0", "1_000"]),
+    st.sampled_from([101, 4301, 5000]).map(lambda n: "9" * n),
+    st.integers(0, 200).map(lambda n: "1e" + "9" * n),
+    st.integers(0, 120_000).map(lambda n: "7" * n + "1"),
+)
+_STRING_TEXT = st.one_of(
+    st.text(max_size=30),
+    st.sampled_from(["mm", "in", "x^2/90", "pi/2", "left", "right", "cw", "ccw", "vertical",
+                     "horizontal", "x", "y", "1/3", "sqrt(2)*10", "carbon steel",
+                     "7850 kg/m^3", "a\nb", "\r\n", "1e999999999", "9" * 200]),
+).map(lambda s: toml_basic_string(s))
+
+
+def toml_basic_string(text):
+    from revolve.formats.values import toml_string
+
+    return toml_string(text)
+
+
+def _nest(value, depth):
+    return "[" * depth + value + "]" * depth
+
+
+_SCALAR = st.one_of(_NUMBER_TEXT, _STRING_TEXT, st.sampled_from(["true", "false"]))
+_VALUE = st.recursive(
+    _SCALAR,
+    lambda inner: st.one_of(
+        st.lists(inner, max_size=4).map(lambda xs: "[" + ", ".join(xs) + "]"),
+        st.lists(st.tuples(_KEYS, inner), max_size=4, unique_by=lambda kv: kv[0]).map(
+            lambda kvs: "{ " + ", ".join(f"{k} = {v}" for k, v in kvs) + " }"),
+        st.tuples(inner, st.one_of(st.integers(0, 3), st.integers(0, 3000))).map(
+            lambda vd: _nest(*vd)),
+    ),
+    max_leaves=12,
+)
+_SMALL = st.one_of(st.integers(-50, 50).map(str), _NUMBER_TEXT)
+_SEGMENT = st.one_of(
+    st.tuples(_SMALL, _SMALL).map(lambda xy: f"{{ line_to = [{xy[0]}, {xy[1]}] }}"),
+    st.tuples(_SMALL, _SMALL, _SMALL, st.sampled_from(['"left"', '"right"', '"up"'])).map(
+        lambda a: f"{{ arc_to = [{a[0]}, {a[1]}], radius = {a[2]}, side = {a[3]} }}"),
+    st.tuples(_STRING_TEXT, _SMALL).map(lambda a: f"{{ y = {a[0]}, to_x = {a[1]} }}"),
+    st.lists(st.tuples(_KEYS, _VALUE), min_size=1, max_size=4,
+             unique_by=lambda kv: kv[0]).map(
+        lambda kvs: "{ " + ", ".join(f"{k} = {v}" for k, v in kvs) + " }"),
+    st.just("{ close = true }"),
+)
+
+
+_TOP = st.one_of(st.sampled_from(["name", "units", "material", "density", "angle",
+                                   "orientation"]), _KEYS)
+
+
+@st.composite
+def _documents(draw):
+    lines = []
+    for key in draw(st.lists(_TOP, max_size=4, unique=True)):
+        lines.append(f"{key} = {draw(_VALUE)}")
+    for _ in range(draw(st.integers(0, 2))):
+        kind = draw(st.sampled_from(["loop", "loop", "chain", "loop.segments", "axis"]))
+        lines.append(f"[[{kind}]]" if kind != "axis" else "[axis]")
+        if kind in ("loop", "chain"):
+            lines.append(f"start = [{draw(_SMALL)}, {draw(_SMALL)}]")
+            segments = draw(st.lists(_SEGMENT, max_size=4))
+            lines.append("segments = [\n  " + ",\n  ".join(segments) + "\n]")
+        for key in draw(st.lists(_KEYS.filter(lambda k: k not in ("start", "segments")),
+                                 max_size=2, unique=True)):
+            lines.append(f"{key} = {draw(_VALUE)}")
+    return "\n".join(lines) + "\n"
+
+
+def _loads_or_refuses(reader, text, file):
+    try:
+        reader(text, file=file)
+    except RevolveError as err:
+        message = str(err)
+        assert "\n" not in message and "\r" not in message, message
+        assert message.startswith(file), message
+
+
+@settings(max_examples=150, deadline=None)
+@given(_documents())
+def test_generated_profile_files_load_or_are_refused_in_one_line(text):
+    _loads_or_refuses(parse_profile_text, text, "gen.toml")
+
+
+@settings(max_examples=100, deadline=None)
+@given(st.sampled_from([
+    'units = "mm"\n[[loop]]\nstart = [0, 10]\nsegments = [\n  { line_to = [40, 10] },\n'
+    '  { arc_to = [50, 20], radius = 10, side = "left" },\n  { y = "40 - x^2/90", to_x = 60 },\n'
+    '  { close = true },\n]\n',
+    'orientation = "horizontal"\n[axis]\nalong = "x"\n[[chain]]\nstart = [0, 0]\n'
+    'segments = [ { line_to = [0, 5] }, { line_to = [9, 5] }, { line_to = [9, 0] } ]\n',
+]), st.integers(0, 10**6), st.text(min_size=1, max_size=8), st.integers(0, 4))
+def test_mutated_profile_files_load_or_are_refused_in_one_line(base, at, insert, cut):
+    at %= len(base) + 1
+    text = base[:at] + insert + base[at + cut:]
+    _loads_or_refuses(parse_profile_text, text, "mut.toml")
+
+
+_SEPARATORS = st.sampled_from([",", ";", "\t", " ", ", ", " ; ", ",,", ";;", "|", "  \t "])
+_POINT_FIELD = st.one_of(_NUMBER_TEXT, st.sampled_from(["NaN", "Infinity", "-INF", "x", "y", "",
+                                                        '"1"', "1e", ".", "-", "1..2", "#"]),
+                         st.text(max_size=6))
+
+
+@st.composite
+def _point_lists(draw):
+    rows = []
+    for _ in range(draw(st.integers(0, 7))):
+        fields = draw(st.lists(_POINT_FIELD, min_size=0, max_size=3))
+        rows.append(draw(_SEPARATORS).join(fields))
+    return draw(st.sampled_from(["\n", "\r\n"])).join(rows)
+
+
+@settings(max_examples=150, deadline=None)
+@given(_point_lists())
+# Found while searching: a long digit run not ending a number made the number pattern
+# backtrack quadratically (14 s for 15 000 digits; a hang for 100 001).
+@example("0,0\n1,0\n" + "7" * 100_000 + "1x,1\n")
+@example("0,0\r\n1,0\r\n1;" + "9" * 14_000 + "e\r\n")
+def test_generated_point_lists_load_or_are_refused_in_one_line(text):
+    _loads_or_refuses(parse_points_text, text, "gen.txt")

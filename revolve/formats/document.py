@@ -4,8 +4,8 @@ Examples
 --------
 >>> from revolve.geometry.profile import Loop, Profile
 >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)))
->>> doc.axis is None, doc.angle_degrees, doc.exact, doc.name
-(True, None, True, None)
+>>> doc.axis is None, doc.angle_degrees, doc.exact, doc.name, doc.orientation
+(True, None, True, None, None)
 >>> doc.line_of("angle") is None
 True
 """
@@ -47,6 +47,9 @@ class ProfileDocument:
     angle_exact : Fraction, str or None
         The angle as written (a Fraction for a plain number, the text of an
         expression), for exact results.
+    orientation : str or None
+        ``"vertical"`` or ``"horizontal"``: how the vessel stands, when the
+        file says (level tables use it); None when it does not.
     source_lines : Mapping[str, int]
         Line numbers of parts of the file (``"material"``, ``"density"``,
         ``"angle"``, ``"axis"``, ``"loop 1"``, ``"loop 1, segment 3"``, ...)
@@ -62,6 +65,7 @@ class ProfileDocument:
     section: str = "material"
     source_lines: Mapping[str, int] = field(default_factory=dict, compare=False, hash=False)
     angle_exact: Any = field(default=None, compare=False)
+    orientation: Optional[str] = None
 
     @property
     def name(self) -> Optional[str]:

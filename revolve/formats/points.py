@@ -38,7 +38,7 @@ from typing import List, Optional, Tuple
 from revolve.errors import FormatError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
-from revolve.formats.values import PLAIN_NUMBER, check_length_unit
+from revolve.formats.values import PLAIN_NUMBER, check_length_unit, plain_fraction, quote
 from revolve.geometry.profile import Loop, Profile
 from revolve.geometry.segments import Line, Where
 
@@ -100,7 +100,8 @@ def parse_points_text(text: str, *, file: Optional[str] = None,
     FormatError
         A line that is not two numbers, NaN or infinity, a header that is not
         the first line, a point repeating the previous one, fewer than three
-        points.
+        points, a number longer than 100 characters or outside the normal
+        range of floats (0 aside).
 
     Examples
     --------
@@ -112,6 +113,10 @@ def parse_points_text(text: str, *, file: Optional[str] = None,
     Traceback (most recent call last):
     ...
     revolve.errors.FormatError: p.xy:2: "nan" is not a finite number
+    >>> parse_points_text("0 0\\n1 0\\n1 1e-999999999\\n", file="p.xy")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: p.xy:3: y is too small; numbers other than 0 must lie between 2.2e-308 and 1.8e308 in size
     """
     if not text.strip():
         raise FormatError("the file is empty", file=file)
@@ -131,23 +136,19 @@ def parse_points_text(text: str, *, file: Optional[str] = None,
         if not any(numeric) and not any(_NOT_FINITE.match(f) for f in fields):
             if first:
                 continue  # a header line such as "x,y"
-            raise FormatError(f'expected two numbers "x,y", got "{content}" (a header is '
+            raise FormatError(f'expected two numbers "x,y", got {quote(content)} (a header is '
                               "allowed only as the first line)", file=file, line=number)
         for f in fields:
             if _NOT_FINITE.match(f):
-                raise FormatError(f'"{f}" is not a finite number', file=file, line=number)
+                raise FormatError(f"{quote(f)} is not a finite number", file=file, line=number)
         if len(fields) != 2 or not all(numeric):
-            raise FormatError(f'expected two numbers "x,y", got "{content}"', file=file,
+            raise FormatError(f'expected two numbers "x,y", got {quote(content)}', file=file,
                               line=number)
-        p = (Fraction(fields[0]), Fraction(fields[1]))
-        try:
-            float(p[0]) + float(p[1])
-        except OverflowError:
-            raise FormatError(f'"{content}" is too large for a floating-point number',
-                              file=file, line=number) from None
+        where = Where(file, number)
+        p = (plain_fraction(fields[0], "x", where), plain_fraction(fields[1], "y", where))
         if points and p == points[-1]:
-            raise FormatError(f"point ({fields[0]}, {fields[1]}) repeats the previous one; "
-                              "remove it", file=file, line=number)
+            raise FormatError(f"point ({quote(fields[0], 25)[1:-1]}, {quote(fields[1], 25)[1:-1]}) "
+                              "repeats the previous one; remove it", file=file, line=number)
         points.append(p)
         lines.append(number)
     if len(points) >= 2 and points[-1] == points[0]:

@@ -10,6 +10,8 @@ is read by the whitelist parser in :mod:`revolve.expr`::
     units = "mm"                  # optional, default "mm": the unit of every coordinate
     material = "carbon steel"     # optional; or density = "7850 kg/m^3" (not both)
     angle = 360                   # optional, degrees, above 0 and at most 360
+    orientation = "vertical"      # optional: "vertical" or "horizontal", how the vessel stands
+                                  # (used by level tables; the axis points up when vertical)
 
     [axis]                        # optional; without it the caller's default (sketch x axis)
     along = "x"                   # "x" or "y"; or instead both of
@@ -58,6 +60,14 @@ Every segment may carry ``face = "name"``. A curve must start at the current
 point (within 1e-9 of the profile's size). Whether loops close and do not
 cross is checked later, by the engine.
 
+Limits: the text is refused before it is decoded when brackets nest more
+than :data:`MAX_NESTING` deep, an unquoted word (a number) is longer than
+:data:`~revolve.formats.values.MAX_NUMBER_CHARS` characters, a string is
+longer than :data:`MAX_STRING_CHARS`, or the file is longer than
+:data:`MAX_TEXT_CHARS`; plain numbers other than 0 must lie between 2.2e-308
+and 1.8e308 in size. Each refusal is one line naming the file, the line and
+the key.
+
 Examples
 --------
 >>> doc = parse_profile_text("""
@@ -88,7 +98,6 @@ from __future__ import annotations
 import difflib
 import math
 import re
-from decimal import Decimal
 from fractions import Fraction
 from typing import Any, Dict, Iterable, List, Optional, Tuple
 
@@ -100,18 +109,27 @@ except ModuleNotFoundError:  # pragma: no cover - Python 3.10
 from revolve.errors import ExpressionError, FormatError, SegmentError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
-from revolve.formats.source_lines import scan_lines
-from revolve.formats.values import (Value, check_length_unit, describe, exact_to_sympy, fail,
-                                    number, point)
+from revolve.formats.source_lines import find_oversize, scan_lines
+from revolve.formats.values import (MAX_NUMBER_CHARS, Value, check_length_unit, describe,
+                                    exact_to_sympy, fail, is_one_line, number, point, quote,
+                                    toml_float)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
 from revolve.geometry.segments import (Line, Where, arc_from_centre, arc_from_radius,
                                        curve_from_expressions)
 
 #: Keys allowed at the top of the file.
-TOP_KEYS = ("name", "units", "material", "density", "section", "angle", "axis", "loop",
-            "chain")
+TOP_KEYS = ("name", "units", "material", "density", "section", "angle", "orientation", "axis",
+            "loop", "chain")
 #: Values of ``section``: what the loops enclose.
 SECTIONS = ("material", "space")
+#: The values of ``orientation``.
+ORIENTATIONS = ("vertical", "horizontal")
+#: Most brackets (``[`` or ``{``) open at once; a profile needs 4 at most.
+MAX_NESTING = 16
+#: Most characters in one string (names, expressions), quotes included.
+MAX_STRING_CHARS = 1000
+#: Most characters in a profile file.
+MAX_TEXT_CHARS = 20_000_000
 #: Keys allowed in a [[loop]] or [[chain]] table.
 PATH_KEYS = ("face", "start", "segments")
 #: Keys allowed in the [axis] table.
@@ -202,14 +220,51 @@ def parse_profile_text(text: str, *, file: Optional[str] = None,
     """
     if not text.strip():
         raise FormatError("the file is empty", file=file)
+    if len(text) > MAX_TEXT_CHARS:
+        raise FormatError(f"the file has {len(text)} characters; a profile file may have at most "
+                          f"{MAX_TEXT_CHARS}", file=file)
+    _check_sizes(text, file)
     try:
-        data = tomllib.loads(text, parse_float=Decimal)
+        data = tomllib.loads(text, parse_float=toml_float)
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         found = re.search(r"at line (\d+)", message)
         raise FormatError(f"malformed TOML: {message}", file=file,
                           line=int(found.group(1)) if found else None) from None
+    except (ValueError, RecursionError, MemoryError) as exc:  # bounded above; never shown raw
+        raise FormatError(f"the TOML reader could not read the file "
+                          f"({type(exc).__name__}); simplify it", file=file) from None
     return _Reader(file, scan_lines(text)).document(data, unit)
+
+
+def _check_sizes(text: str, file: Optional[str]) -> None:
+    """Refuse deep nesting, long numbers and long strings before the TOML reader sees them.
+
+    >>> _check_sizes("angle = " + "9" * 101, "a.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:1: angle: a number (or other unquoted word) of 101 characters is too long; write at most 100
+    >>> _check_sizes("[[loop]]\\nsegments = " + "[" * 17, "a.toml")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:2: segments: brackets nest 17 deep; a profile file needs at most 4 (the limit is 16)
+    """
+    found = find_oversize(text, max_depth=MAX_NESTING, max_word=MAX_NUMBER_CHARS,
+                          max_string=MAX_STRING_CHARS)
+    if found is None:
+        return
+    if found.kind == "nesting":
+        message = (f"brackets nest {found.size} deep; a profile file needs at most 4 "
+                   f"(the limit is {MAX_NESTING})")
+    elif found.kind == "word":
+        message = (f"a number (or other unquoted word) of {found.size} characters is too long; "
+                   f"write at most {MAX_NUMBER_CHARS}")
+    else:
+        message = (f"a string of {found.size} characters is too long; write at most "
+                   f"{MAX_STRING_CHARS}")
+    place = None if found.key is None else (
+        found.key if re.fullmatch(r"[A-Za-z0-9_.-]{1,40}", found.key) else quote(found.key))
+    raise FormatError(message, file=file, line=found.line, place=place)
 
 
 def _plain_exact(value: Any) -> Any:
@@ -263,7 +318,7 @@ class _Reader:
                 hint = _suggestion(key, TOP_KEYS)
                 if key in PATH_KEYS or key in SEGMENT_KEYS:
                     hint = "; it belongs under a [[loop]] or [[chain]] header"
-                raise fail(f'unknown key "{key}"{hint}', self.where(key))
+                raise fail(f"unknown key {quote(key)}{hint}", self.where(key))
         name = self.text(data, "name")
         units = self.units(data, unit)
         material = self.text(data, "material")
@@ -274,6 +329,9 @@ class _Reader:
                        self.where("density", "density"))
         if density is not None and not density.strip():
             raise fail("density is empty", self.where("density", "density"))
+        if density is not None and not is_one_line(density):
+            raise fail(f"density must be one line of text, without line breaks or control "
+                       f"characters, got {describe(density)}", self.where("density", "density"))
         if material is not None and density is not None:
             raise fail("give material or density, not both",
                        self.where("density", "density"))
@@ -282,6 +340,7 @@ class _Reader:
             raise fail(f'section must be "material" (a solid part) or "space" (the space inside '
                        f'a vessel), got {describe(section)}', self.where("section", "section"))
         angle = self.angle(data.get("angle"))
+        orientation = self.orientation(data.get("orientation"))
         axis = self.axis(data["axis"]) if "axis" in data else None
         loops = tuple(self.path("loop", i, t) for i, t in self.tables(data, "loop"))
         chains = tuple(self.path("chain", i, t) for i, t in self.tables(data, "chain"))
@@ -293,6 +352,7 @@ class _Reader:
         return ProfileDocument(profile=profile, axis=axis, angle_degrees=angle,
                                material=material, density=density, exact=True,
                                section=section,
+                               orientation=orientation,
                                angle_exact=self.angle_exact,
                                source_lines=dict(self.lines))
 
@@ -303,6 +363,9 @@ class _Reader:
         if not isinstance(value, str) or not value.strip():
             raise fail(f"{key} must be a non-empty text in quotes, got {describe(value)}",
                        self.where(key, key))
+        if not is_one_line(value):
+            raise fail(f"{key} must be one line of text, without line breaks or control "
+                       f"characters, got {describe(value)}", self.where(key, key))
         return value.strip()
 
     def units(self, data: Dict[str, Any], unit: Optional[str]) -> str:
@@ -310,8 +373,8 @@ class _Reader:
         where = self.where("units", "units")
         if written is not None and unit is not None and written != unit \
                 and not _same_length_unit(written, unit):
-            raise fail(f'the file gives units = "{written}" but "{unit}" was asked for; '
-                       "remove one of the two", where)
+            raise fail(f"the file gives units = {quote(written)} but {quote(unit)} was asked "
+                       "for; remove one of the two", where)
         chosen = written or unit or _DEFAULT_UNIT
         check_length_unit(chosen, where if written is not None else Where(self.file))
         return chosen
@@ -326,6 +389,14 @@ class _Reader:
                        where)
         self.angle_exact = value.exact
         return value.value
+
+    def orientation(self, raw: Any) -> Optional[str]:
+        if raw is None:
+            return None
+        if raw not in ORIENTATIONS:
+            raise fail(f'orientation must be "vertical" or "horizontal", got {describe(raw)}',
+                       self.where("orientation", "orientation"))
+        return raw
 
     def tables(self, data: Dict[str, Any], kind: str) -> List[Tuple[int, Any]]:
         raw = data.get(kind, [])
@@ -346,7 +417,7 @@ class _Reader:
                        f"got {describe(raw)}", where)
         for key in raw:
             if key not in AXIS_KEYS:
-                raise fail(f'unknown key "{key}" in the axis{_suggestion(key, AXIS_KEYS)}',
+                raise fail(f"unknown key {quote(key)} in the axis{_suggestion(key, AXIS_KEYS)}",
                            self.where(f"axis.{key}", "axis"))
         zero, one = Fraction(0), Fraction(1)
         if "along" in raw:
@@ -381,7 +452,7 @@ class _Reader:
                 hint = _suggestion(key, PATH_KEYS)
                 if key in SEGMENT_KEYS:
                     hint = "; segment keys belong inside segments = [ {...}, ... ]"
-                raise fail(f'unknown key "{key}" in the {kind}{hint}',
+                raise fail(f"unknown key {quote(key)} in the {kind}{hint}",
                            self.where(f"{label}.{key}", label))
         face = self.face(table.get("face"), self.where(f"{label}.face", label))
         if "start" not in table:
@@ -412,6 +483,9 @@ class _Reader:
             return None
         if not isinstance(raw, str) or not raw.strip():
             raise fail(f"face must be a non-empty name in quotes, got {describe(raw)}", where)
+        if not is_one_line(raw):
+            raise fail(f"face must be one line of text, without line breaks or control "
+                       f"characters, got {describe(raw)}", where)
         return raw.strip()
 
     # -- segments ---------------------------------------------------------------------
@@ -458,7 +532,8 @@ class _Reader:
                        f"got {describe(raw)}", where)
         for key in raw:
             if key not in SEGMENT_KEYS:
-                raise fail(f'unknown key "{key}" in the segment{_suggestion(key, SEGMENT_KEYS)}',
+                raise fail(f"unknown key {quote(key)} in the segment"
+                           f"{_suggestion(key, SEGMENT_KEYS)}",
                            where)
         shape = self.shape(raw, where)
         required, optional = SHAPES[shape]

@@ -37,7 +37,7 @@ Examples
 from __future__ import annotations
 
 import re
-from typing import Dict
+from typing import Dict, NamedTuple, Optional
 
 _HEADER = re.compile(r"\[\[\s*([^\[\]\n]*?)\s*\]\]|\[\s*([^\[\]\n]*?)\s*\]")
 _KEY = re.compile(r"((?:[A-Za-z0-9_-]+|\"[^\"\n]*\"|'[^'\n]*')"
@@ -187,3 +187,103 @@ def scan_lines(text: str) -> Dict[str, int]:
             element = True
         i += 1
     return found
+
+
+class Oversize(NamedTuple):
+    """The first part of a text that is too deep or too long (see :func:`find_oversize`).
+
+    ``kind`` is ``"nesting"``, ``"word"`` (an unquoted word: a number, a
+    bare key, true/false) or ``"string"``; ``line`` is 1-based; ``key`` is
+    the last key written before it (None when there is none yet); ``size``
+    is the depth or the number of characters.
+    """
+
+    kind: str
+    line: int
+    key: Optional[str]
+    size: int
+
+
+_TOKEN = re.compile(r"\n|#[^\n]*|[\[\]{}=,]|[\"']|[^\s\[\]{}=,#\"']+|[ \t\r\f\v]+")
+
+
+def find_oversize(text: str, *, max_depth: int, max_word: int,
+                  max_string: int) -> Optional[Oversize]:
+    """Find brackets nested too deep, or a word or string too long, before TOML reads the text.
+
+    The TOML reader is recursive and reads every number with Python's own
+    ``int``; this scan bounds what it will be given. It does not need valid
+    TOML: it skips comments and strings, counts ``[`` and ``{`` against
+    ``]`` and ``}``, and measures unquoted words and strings.
+
+    Parameters
+    ----------
+    text : str
+        The file's text.
+    max_depth : int
+        Most brackets (``[`` or ``{``) open at once.
+    max_word, max_string : int
+        Most characters in one unquoted word (a number) and in one string
+        (quotes included).
+
+    Returns
+    -------
+    Oversize or None
+        The first problem, or None when the text is within every bound.
+
+    Examples
+    --------
+    >>> find_oversize('a = [[[1]]]\\nb = 12345', max_depth=3, max_word=5, max_string=10)
+    >>> find_oversize('a = 1\\nb = [[[[1]]]]', max_depth=3, max_word=5, max_string=10)
+    Oversize(kind='nesting', line=2, key='b', size=4)
+    >>> find_oversize('x = 123456  # 1234567890', max_depth=3, max_word=5, max_string=10)
+    Oversize(kind='word', line=1, key='x', size=6)
+    >>> find_oversize('"a b" = "a very long text"', max_depth=3, max_word=5, max_string=10)
+    Oversize(kind='string', line=1, key='a b', size=18)
+    >>> find_oversize('', max_depth=1, max_word=1, max_string=2) is None
+    True
+    """
+    depth = 0
+    line = 1
+    key: Optional[str] = None
+    previous: Optional[str] = None   # the last word or string, a key if "=" follows
+    i, n = 0, len(text)
+    while i < n:
+        c = text[i]
+        if c in "\"'":
+            end, newlines = _skip_string(text, i)
+            if end - i > max_string:
+                return Oversize("string", line, key, end - i)
+            previous = text[i:end].strip("\"'")
+            line += newlines
+            i = end
+            continue
+        m = _TOKEN.match(text, i)
+        if m is None:  # pragma: no cover - the pattern matches every character
+            i += 1
+            continue
+        token = m.group()
+        i = m.end()
+        if token == "\n":
+            line += 1
+        elif token[0] == "#" or token.isspace():
+            continue
+        elif token in "[{":
+            depth += 1
+            if depth > max_depth:
+                return Oversize("nesting", line, key, depth)
+            previous = None
+        elif token in "]}":
+            depth = max(depth - 1, 0)
+            previous = None
+        elif token == "=":
+            if previous is not None:
+                key = previous
+            previous = None
+        elif token == ",":
+            previous = None
+        else:
+            if len(token) > max_word:
+                return Oversize("word", line, key, len(token))
+            previous = token
+    return None

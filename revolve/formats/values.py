@@ -16,7 +16,7 @@ holding an expression such as ``"sqrt(3)*10"``. Each is turned into a
 
 Examples
 --------
->>> from decimal import Decimal, localcontext
+>>> from decimal import Decimal, InvalidOperation, localcontext
 >>> number(Decimal("0.1"), "x")
 Value(value=0.1, exact=Fraction(1, 10))
 >>> number(7, "x")
@@ -33,7 +33,8 @@ from __future__ import annotations
 
 import math
 import re
-from decimal import Decimal, localcontext
+import sys
+from decimal import Decimal, InvalidOperation, localcontext
 from fractions import Fraction
 from typing import Any, NamedTuple, Optional
 
@@ -41,10 +42,17 @@ from revolve.errors import ExpressionError, FormatError
 from revolve.geometry.segments import Where
 
 #: A plain decimal literal (what ``Fraction`` reads exactly), with optional sign and exponent.
-PLAIN_NUMBER = re.compile(r"\s*[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?\s*\Z")
+PLAIN_NUMBER = re.compile(r"\s*[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?\s*\Z")
 
 #: Digits carried when evaluating an exact expression to a float (then rounded once).
 EVALUATION_DIGITS = 30
+#: Most characters in one plain number (a longer one is refused before Python reads it).
+MAX_NUMBER_CHARS = 100
+#: Plain numbers other than 0 must lie within these sizes: the normal range of a float.
+SMALLEST_NUMBER = sys.float_info.min
+LARGEST_NUMBER = sys.float_info.max
+#: Most characters of a text shown in a message.
+QUOTE_CHARS = 40
 
 
 class Value(NamedTuple):
@@ -79,22 +87,73 @@ def check_length_unit(unit: str, where: Optional[Where] = None) -> None:
     from revolve.units import factor
 
     where = where or Where()
+    if len(unit) > QUOTE_CHARS or not is_one_line(unit):
+        raise UnitError(f"{quote(unit)} is not a length unit; length units include mm, m, in, "
+                        "ft", file=where.file, line=where.line, place=where.place)
     try:
         factor(unit, "length")
     except UnitError as exc:
         raise exc.located(file=where.file, line=where.line, place=where.place) from None
 
 
+def _control(code: int) -> bool:
+    """Whether a character code is a control character or a line break of any kind."""
+    return code < 0x20 or 0x7F <= code < 0xA0 or code in (0x2028, 0x2029)
+
+
+def is_one_line(text: str) -> bool:
+    """Whether a text has no line break or other control character (a tab is allowed).
+
+    >>> is_one_line("carbon\\tsteel"), is_one_line("a\\nb"), is_one_line("a\\u2028b")
+    (True, False, False)
+    """
+    return not any(_control(ord(ch)) and ch != "\t" for ch in text)
+
+
+def quote(text: Any, limit: int = QUOTE_CHARS) -> str:
+    """A user's text for a message: in double quotes, on one line, shortened.
+
+    Line breaks, tabs and other control characters are escaped as in a
+    Python or TOML string, so a message never spans two lines; a long text
+    keeps its first characters and ends in ``...``.
+
+    >>> print(quote("ab"), quote('say "hi"'), quote("two\\nlines"), quote("x" * 50, 10))
+    "ab" "say \\"hi\\"" "two\\nlines" "xxxxxxx..."
+    """
+    text = str(text)
+    shortened = len(text) > limit
+    if shortened:
+        text = text[:max(limit - 3, 1)]
+    out = []
+    for ch in text:
+        code = ord(ch)
+        if ch in '"\\':
+            out.append("\\" + ch)
+        elif ch == "\n":
+            out.append("\\n")
+        elif ch == "\r":
+            out.append("\\r")
+        elif ch == "\t":
+            out.append("\\t")
+        elif _control(code):
+            out.append(f"\\u{code:04x}")
+        else:
+            out.append(ch)
+    return '"' + "".join(out) + ('..."' if shortened else '"')
+
+
 def describe(value: Any) -> str:
-    """How a TOML value is named in messages.
+    """How a TOML value is named in messages (a text quoted on one line, see :func:`quote`).
 
     >>> describe(True), describe("ab"), describe([1, 2]), describe({"a": 1})
     ('true', '"ab"', 'a list', 'a table')
+    >>> print(describe("a\\nb"))
+    "a\\nb"
     """
     if isinstance(value, bool):
         return "true" if value else "false"
     if isinstance(value, str):
-        return '"' + value + '"' if len(value) <= 40 else '"' + value[:37] + '..."'
+        return quote(value)
     if isinstance(value, list):
         return "a list"
     if isinstance(value, dict):
@@ -140,31 +199,119 @@ def number(raw: Any, what: str, where: Optional[Where] = None) -> Value:
     ...
     revolve.errors.FormatError: angle must be a number, got a list
     """
+    if isinstance(raw, OversizeNumber):
+        return Value(0.0, plain_fraction(raw.text, what, where))   # raises: too large or small
     if isinstance(raw, bool) or not isinstance(raw, (int, Decimal, float, str)):
         raise fail(f"{what} must be a number, got {describe(raw)}", where)
     if isinstance(raw, str):
         if PLAIN_NUMBER.match(raw):
-            exact: Any = Fraction(raw.strip())
+            exact: Any = plain_fraction(raw, what, where)
         else:
             value = _expression_value(raw, what, where)
             return Value(value, raw)
     elif isinstance(raw, Decimal):
-        if not raw.is_finite():
-            raise fail(f"{what} is not a finite number (nan and inf are refused)", where)
-        exact = Fraction(raw)
+        exact = _decimal_fraction(raw, what, where)
     elif isinstance(raw, float):
         if not math.isfinite(raw):
             raise fail(f"{what} is not a finite number (nan and inf are refused)", where)
-        exact = Fraction(raw)
+        exact = _decimal_fraction(Decimal(raw), what, where)
     else:
+        if raw.bit_length() > 1100:
+            raise fail(f"{what} is too large; {_RANGE_HINT}", where)
         exact = Fraction(raw)
+    return Value(_float_in_range(exact, what, where), exact)
+
+
+_RANGE_HINT = "numbers other than 0 must lie between 2.2e-308 and 1.8e308 in size"
+
+
+def _float_in_range(exact: Fraction, what: str, where: Optional[Where]) -> float:
+    """The float of an exact number, refused outside the normal range of floats."""
     try:
         value = float(exact)
     except OverflowError:
-        raise fail(f"{what} is too large for a floating-point number", where) from None
+        value = math.inf
     if not math.isfinite(value):
-        raise fail(f"{what} is too large for a floating-point number", where)
-    return Value(value, exact)
+        raise fail(f"{what} is too large; {_RANGE_HINT}", where)
+    if exact and abs(value) < SMALLEST_NUMBER:
+        raise fail(f"{what} is too small; {_RANGE_HINT}", where)
+    return value
+
+
+class OversizeNumber(NamedTuple):
+    """A TOML float Python's decimal module cannot hold (an exponent of 19 digits or more)."""
+
+    text: str
+
+
+def toml_float(text: str) -> Any:
+    """The ``parse_float`` of the TOML reader: a Decimal, or :class:`OversizeNumber`.
+
+    The reader then refuses an oversize number with the key it belongs to
+    instead of letting :class:`decimal.InvalidOperation` escape.
+
+    >>> toml_float("2.5"), toml_float("1e99999999999999999999")
+    (Decimal('2.5'), OversizeNumber(text='1e99999999999999999999'))
+    """
+    try:
+        return Decimal(text)
+    except (InvalidOperation, ValueError):
+        return OversizeNumber(text)
+
+
+def _decimal_fraction(raw: Decimal, what: str, where: Optional[Where]) -> Fraction:
+    """A finite Decimal as a Fraction, refused when too long, too large or too small.
+
+    The size is checked on the exponent before any digit is expanded, so a
+    number such as ``1e999999999`` is refused at once.
+    """
+    if not raw.is_finite():
+        raise fail(f"{what} is not a finite number (nan and inf are refused)", where)
+    digits = len(raw.as_tuple().digits)
+    if digits > MAX_NUMBER_CHARS:
+        raise fail(f"{what} has {digits} digits; a number may have at most {MAX_NUMBER_CHARS}",
+                   where)
+    if raw and not -400 <= raw.adjusted() <= 400:   # far outside the range of floats
+        raise fail(f"{what} is too {'large' if raw.adjusted() > 0 else 'small'}; {_RANGE_HINT}",
+                   where)
+    exact = Fraction(raw)
+    _float_in_range(exact, what, where)
+    return exact
+
+
+def plain_fraction(text: str, what: str, where: Optional[Where] = None) -> Fraction:
+    """The exact value of a plain decimal literal (``"2.5e1"``), with bounded work.
+
+    A literal longer than :data:`MAX_NUMBER_CHARS` characters, or whose size
+    lies outside :data:`SMALLEST_NUMBER` to :data:`LARGEST_NUMBER` (the normal
+    range of floats; 0 aside), is refused with a :class:`FormatError`; the
+    size is judged from the exponent before Python expands any digit.
+
+    >>> plain_fraction(" -2.5e1 ", "x")
+    Fraction(-25, 1)
+    >>> plain_fraction("1" * 101, "start x", Where("a.toml", 2, "loop 1"))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.toml:2: loop 1: start x is 101 characters long; a number may have at most 100
+    >>> plain_fraction("1e999999999", "radius")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: radius is too large; numbers other than 0 must lie between 2.2e-308 and 1.8e308 in size
+    >>> plain_fraction("1e-320", "radius")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: radius is too small; numbers other than 0 must lie between 2.2e-308 and 1.8e308 in size
+    """
+    text = text.strip()
+    if len(text) > MAX_NUMBER_CHARS:
+        raise fail(f"{what} is {len(text)} characters long; a number may have at most "
+                   f"{MAX_NUMBER_CHARS}", where)
+    try:
+        raw = Decimal(text)
+    except (InvalidOperation, ValueError):   # an exponent beyond the decimal module's
+        size = "small" if re.search(r"[eE]-", text) else "large"
+        raise fail(f"{what} is too {size}; {_RANGE_HINT}", where) from None
+    return _decimal_fraction(raw, what, where)
 
 
 def point(raw: Any, what: str, where: Optional[Where] = None) -> tuple[Value, Value]:

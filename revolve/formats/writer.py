@@ -47,8 +47,8 @@ from typing import Any, List, Optional, Sequence, Tuple, Union
 from revolve.errors import ExpressionError, FormatError, ProfileError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import write_text_atomically
-from revolve.formats.profile_file import CURVE_START_TOLERANCE
-from revolve.formats.values import (exact_literal, exact_to_float, expression_text,
+from revolve.formats.profile_file import CURVE_START_TOLERANCE, ORIENTATIONS
+from revolve.formats.values import (describe, exact_literal, exact_to_float, expression_text,
                                     float_literal, toml_string)
 from revolve.geometry.profile import Axis, Profile
 from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, arc_from_radius
@@ -59,19 +59,21 @@ _HEADER = "# Profile file of revolve; every coordinate is in the units below."
 def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_stream: Any, *,
                   axis: Optional[Axis] = None, angle: Optional[float] = None,
                   material: Optional[str] = None, density: Optional[str] = None,
-                  name: Optional[str] = None) -> None:
+                  name: Optional[str] = None, orientation: Optional[str] = None) -> None:
     """Write a profile as a profile file, atomically.
 
     Parameters
     ----------
     document_or_profile : ProfileDocument or Profile
-        What to write. A document's axis, angle, material, density and name
-        are written unless overridden by the keyword arguments.
+        What to write. A document's axis, angle, material, density, name and
+        orientation are written unless overridden by the keyword arguments.
     path_or_stream : str, os.PathLike or text stream
         A file name (written through a temporary file and a rename) or an
         open text stream (anything with ``write``).
     axis, angle, material, density, name : optional
         Settings to write; ``material`` and ``density`` exclude each other.
+    orientation : {"vertical", "horizontal"}, optional
+        How the vessel stands, for level tables.
 
     Raises
     ------
@@ -92,7 +94,7 @@ def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_
     density = "1000 kg/m^3"
     """
     text = profile_text(document_or_profile, axis=axis, angle=angle, material=material,
-                        density=density, name=name)
+                        density=density, name=name, orientation=orientation)
     if hasattr(path_or_stream, "write"):
         path_or_stream.write(text)
     else:
@@ -102,11 +104,20 @@ def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_
 def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
                  axis: Optional[Axis] = None, angle: Optional[float] = None,
                  material: Optional[str] = None, density: Optional[str] = None,
-                 name: Optional[str] = None, section: Optional[str] = None) -> str:
+                 name: Optional[str] = None, section: Optional[str] = None,
+                 orientation: Optional[str] = None) -> str:
     """The text of the profile file for a profile (see :func:`write_profile`).
 
     Examples
     --------
+    >>> from revolve.geometry.profile import Axis, Loop, Profile
+    >>> tank = Profile(loops=(Loop.from_points([(0, 0), (9, 0), (9, 2), (0, 2)]),))
+    >>> profile_text(tank, axis=Axis.x(), orientation="horizontal").splitlines()[2]
+    'orientation = "horizontal"'
+    >>> profile_text(tank, orientation="upside down")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: orientation must be "vertical" or "horizontal", got "upside down"
     >>> from revolve.geometry.profile import Chain, Profile
     >>> print(profile_text(Profile(chains=(Chain.from_points([(0, 5), (3, 5)]),), unit="in")))
     # Profile file of revolve; every coordinate is in the units below.
@@ -129,6 +140,8 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
         if material is None and density is None:
             material, density = doc.material, doc.density
         section = section if section is not None else doc.section
+        if orientation is None:
+            orientation = doc.orientation
     elif isinstance(document_or_profile, Profile):
         profile = document_or_profile
     else:
@@ -137,6 +150,9 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
     name = name if name is not None else profile.name
     if material is not None and density is not None:
         raise FormatError("give material or density, not both")
+    if orientation is not None and orientation not in ORIENTATIONS:
+        raise FormatError(f'orientation must be "vertical" or "horizontal", got '
+                          f"{describe(orientation)}")
     out = [_HEADER]
     if name is not None:
         out.append(f"name = {toml_string(name)}")
@@ -151,6 +167,8 @@ def profile_text(document_or_profile: Union[ProfileDocument, Profile], *,
         angle = float(angle)
         text = _number(angle_exact, angle) if angle_exact is not None else _plain(angle)
         out.append(f"angle = {text}")
+    if orientation is not None:
+        out.append(f"orientation = {toml_string(orientation)}")
     if axis is not None:
         out += [""] + _axis_lines(axis)
     size = _size(profile)

@@ -31,6 +31,11 @@ The wetted area counts a flat face lying in the liquid's plane as wetted, so
 at every level it equals its value a hair above: a flat bottom is wetted at
 level 0 (lying down, the plane touches the shell along a line of no area).
 
+A profile file says which with ``orientation = "vertical"`` or
+``"horizontal"`` (``revolve vessel`` writes it); :func:`choose_orientation`
+takes the one asked for, else the file's, and refuses to guess when
+neither says.
+
 Vertical volumes are exact (the section clipped at the level, then
 Pappus–Guldinus, :mod:`revolve.geometry.clipping`); horizontal ones integrate
 the wetted circular segment along the axis (:mod:`revolve.geometry.horizontal`),
@@ -62,7 +67,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, Optional, Tuple
 
 import numpy as np
 
@@ -76,6 +81,58 @@ ORIENTATIONS = ("vertical", "horizontal")
 MAX_ROWS = 200_000
 #: Relative tolerance of the inverse, on the volume (of the capacity).
 INVERSE_TOLERANCE = 1e-13
+
+
+def choose_orientation(asked: Optional[str], written: Optional[str], *,
+                       option: str = "orientation") -> Tuple[str, str]:
+    """The orientation of a level table: the one asked for, else the file's; never a guess.
+
+    Parameters
+    ----------
+    asked : str or None
+        The orientation the user asked for (an option), if any.
+    written : str or None
+        The orientation the profile file gives, if any.
+    option : str
+        How the user asks for it, for messages (``"--orientation"``).
+
+    Returns
+    -------
+    orientation : str
+        ``"vertical"`` or ``"horizontal"``.
+    source : str
+        Where it came from, for the table: ``"from the file"``, ``"from
+        --orientation"``, or, when the two differ, ``"from --orientation;
+        the file says horizontal"`` (what was asked for wins).
+
+    Raises
+    ------
+    RevolveError
+        When neither says (at ``option``), or either is not an orientation.
+
+    Examples
+    --------
+    >>> choose_orientation(None, "horizontal")
+    ('horizontal', 'from the file')
+    >>> choose_orientation("vertical", "horizontal", option="--orientation")
+    ('vertical', 'from --orientation; the file says horizontal')
+    >>> choose_orientation(None, None, option="--orientation")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --orientation: the profile does not say how the vessel stands; give --orientation vertical or horizontal (or write orientation = "vertical" or "horizontal" in the profile file)
+    """
+    for text in (asked, written):
+        if text is not None and text not in ORIENTATIONS:
+            raise RevolveError(f"give vertical or horizontal, got {text!r}", place=option)
+    if asked is None and written is None:
+        raise RevolveError(f"the profile does not say how the vessel stands; give {option} "
+                           'vertical or horizontal (or write orientation = "vertical" or '
+                           '"horizontal" in the profile file)', place=option)
+    if asked is None:
+        return written, "from the file"
+    if written is None or written == asked:
+        return asked, f"from {option}"
+    return asked, f"from {option}; the file says {written}"
 
 
 @dataclass(frozen=True)

@@ -25,6 +25,7 @@ EXAMPLES = sorted((ROOT / "profiles").glob("vessel-*.toml"))
 # An upright cylinder of radius 10 in and height 24 in, drawn as a chain (axis along y).
 DRUM_IN = """
 units = "in"
+orientation = "vertical"
 [axis]
 along = "y"
 [[chain]]
@@ -161,10 +162,109 @@ def test_console_script_entry_point(tmp_path):
     assert [r["level"] for r in rows] == [0, 12, 24]
 
 
+# -- orientation: carried by the file, the option wins, never guessed -----------------------
+
+def _vessel_then_levels(tmp_path, capsys, orientation, head, levels_args):
+    """revolve vessel ... -o t.toml, then revolve levels t.toml (no --orientation): JSON rows."""
+    tank = tmp_path / "t.toml"
+    code, out, err = run(["vessel", "--diameter", "2000", "--length", "5000", "--head", head,
+                          "--orientation", orientation, "-o", str(tank), "--json"], capsys)
+    assert code == 0, err
+    assert f'orientation = "{orientation}"' in tank.read_text(encoding="utf-8")
+    code, out, err = run(["levels", str(tank), *levels_args, "--json"], capsys)
+    assert code == 0, err
+    return json.loads(out)
+
+
+def test_horizontal_vessel_round_trip_uses_the_files_orientation(tmp_path, capsys):
+    # The input family: a vessel written lying down, read back with no --orientation.
+    rows = _vessel_then_levels(tmp_path, capsys, "horizontal", "flat", ["--count", "4"])
+    assert {r["orientation"] for r in rows} == {"horizontal"}
+    assert {r["orientation_from"] for r in rows} == {"file"}
+    # Full level is the diameter (2000 mm), not the length (5000 mm).
+    assert rows[-1]["level"] == pytest.approx(2000.0, rel=1e-15)
+    assert [r["level"] for r in rows] == pytest.approx([0, 500, 1000, 1500, 2000], rel=1e-15)
+    for r in rows:
+        # CRC (from memory): horizontal cylinder, V = L · circular segment area
+        assert r["volume"] == pytest.approx(5000 * segment(1000, r["level"]), rel=1e-12,
+                                            abs=1e-6)
+
+
+def test_horizontal_vessel_with_ellipsoidal_heads_round_trip(tmp_path, capsys):
+    rows = _vessel_then_levels(tmp_path, capsys, "horizontal", "ellipsoidal", ["--at", "700"])
+    (row,) = rows
+    R, h = 1000.0, 700.0
+    # CRC (from memory): L · circular segment; both 2:1 heads together π h² (3R − h)/6
+    # (a sphere cap of the same depth halved along the axis; see CHECKS.md)
+    expected = 5000 * segment(R, h) + math.pi * h * h * (3 * R - h) / 6
+    assert row["orientation"] == "horizontal"
+    assert row["volume"] == pytest.approx(expected, rel=1e-9)
+
+
+def test_vertical_vessel_round_trip_uses_the_files_orientation(tmp_path, capsys):
+    rows = _vessel_then_levels(tmp_path, capsys, "vertical", "flat", ["--count", "2"])
+    assert {r["orientation"] for r in rows} == {"vertical"}
+    # CRC (from memory): cylinder π r² h; full level is the length
+    assert rows[-1]["level"] == pytest.approx(5000.0, rel=1e-15)
+    for r in rows:
+        assert r["volume"] == pytest.approx(math.pi * 1000 ** 2 * r["level"], rel=1e-13)
+
+
+def test_option_overrides_the_file_and_the_table_says_so(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", 'orientation = "horizontal"\n' + LYING_MM)
+    code, out, err = run(["levels", path, "--orientation", "vertical", "--count", "1", "--json"],
+                         capsys)
+    assert code == 0, err
+    rows = json.loads(out)
+    assert rows[-1]["orientation"] == "vertical" and rows[-1]["orientation_from"] == "--orientation"
+    assert rows[-1]["level"] == pytest.approx(2000.0)   # along the axis: the length
+    code, out, err = run(["levels", path, "--orientation", "vertical", "--count", "1"], capsys)
+    assert code == 0, err
+    assert "vertical (from --orientation; the file says horizontal)" in out
+
+
+def test_every_vessel_example_says_its_orientation(capsys):
+    # The bundled examples carry their own orientation; the day tank lies on its side.
+    says = {}
+    for path in EXAMPLES:
+        code, out, err = run(["levels", str(path), "--count", "1", "--json"], capsys)
+        assert code == 0, err
+        rows = json.loads(out)
+        assert rows[0]["orientation_from"] == "file"
+        says[path.name] = rows[0]["orientation"]
+    assert says["vessel-diesel-day-tank.toml"] == "horizontal"
+    assert says["vessel-rainwater-tank.toml"] == says["vessel-brew-kettle.toml"] == "vertical"
+
+
+@pytest.mark.parametrize("name,text", [
+    ("lying.toml", LYING_MM),                       # a profile file without orientation
+    ("lying.csv", "0,0\n2000,0\n2000,500\n0,500\n"),  # a point list cannot say
+])
+def test_no_orientation_anywhere_is_refused(tmp_path, capsys, name, text):
+    path = write(tmp_path, name, text)
+    out_csv = tmp_path / "out.csv"
+    code, out, err = run(["levels", path, "--count", "4", "--csv", str(out_csv)], capsys)
+    assert code == 2 and out == ""
+    lines = err.strip().splitlines()
+    assert len(lines) == 1 and "Traceback" not in err
+    assert name in lines[0] and "--orientation" in lines[0]
+    assert not out_csv.exists()
+
+
+def test_bad_orientation_in_the_file_names_file_line_and_key(tmp_path, capsys):
+    path = write(tmp_path, "odd.toml", 'orientation = "on\\nits side"\n' + LYING_MM)
+    code, out, err = run(["levels", path, "--count", "4"], capsys)
+    assert code == 2
+    (line,) = err.strip().splitlines()
+    assert "odd.toml:1: orientation: orientation must be" in line
+    assert '"on\\nits side"' in line     # the user's newline is shown escaped, on one line
+
+
 # -- bad input: exit 2, one line naming the file or option, nothing written ----------------
 
 OFF_AXIS = """
 units = "mm"
+orientation = "vertical"
 [axis]
 along = "y"
 [[chain]]
@@ -178,6 +278,7 @@ segments = [
 HALF_TURN = """
 units = "mm"
 angle = 180
+orientation = "vertical"
 [[loop]]
 start = [0, 0]
 segments = [ { line_to = [10, 0] }, { line_to = [10, 5] }, { line_to = [0, 5] }, { close = true } ]
@@ -198,6 +299,12 @@ segments = [ { line_to = [10, 0] }, { line_to = [10, 5] }, { line_to = [0, 5] },
     (DRUM_IN, ["--orientation", "sideways"], "--orientation: give vertical or horizontal"),
     (OFF_AXIS, [], "chain 1: the chain ends at (10, 24), off the axis"),
     (HALF_TURN, [], "bad.toml:3: angle: a level table needs a full revolution"),
+    # hostile files (issue 9): deep nesting, a 100 001-digit number, a huge exponent
+    ("name = " + "[" * 1000 + "]" * 1000 + DRUM_IN, [], "bad.toml:1: name: brackets nest 17 deep"),
+    (DRUM_IN.replace("[10, 0]", "[1" + "0" * 100_000 + ", 0]"), [],
+     "bad.toml:9: line_to: a number (or other unquoted word) of 100001 characters is too long"),
+    (DRUM_IN.replace("[10, 0]", "[1e999999999, 0]"), [],
+     "bad.toml:9: chain 1, segment 1: line_to x is too large"),
 ])
 def test_bad_input(tmp_path, capsys, text, args, expected):
     path = write(tmp_path, "bad.toml", text)

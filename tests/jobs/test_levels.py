@@ -304,3 +304,28 @@ def test_properties_monotonic_and_round_trip(R, H, orientation, fractions):
     percent = level_for_percent(space, [0.0, 37.5, 100.0])
     assert percent.percent[1] == pytest.approx(37.5, abs=1e-9)
     assert percent.level[0] == 0.0 and percent.level[-1] == pytest.approx(space.height)
+
+
+# -- orientation: the option, else the file; never a guess (issue 9) ------------------------
+
+@pytest.mark.parametrize("asked,written,expected", [
+    (None, "horizontal", ("horizontal", "from the file")),
+    (None, "vertical", ("vertical", "from the file")),
+    ("vertical", None, ("vertical", "from --orientation")),
+    ("horizontal", "horizontal", ("horizontal", "from --orientation")),
+    ("vertical", "horizontal", ("vertical", "from --orientation; the file says horizontal")),
+])
+def test_choose_orientation_option_wins_over_the_file(asked, written, expected):
+    from revolve.jobs.levels import choose_orientation
+
+    assert choose_orientation(asked, written, option="--orientation") == expected
+
+
+@pytest.mark.parametrize("asked,written", [(None, None), ("sideways", None), (None, "up")])
+def test_choose_orientation_refuses_to_guess(asked, written):
+    from revolve.errors import RevolveError
+    from revolve.jobs.levels import choose_orientation
+
+    with pytest.raises(RevolveError) as err:
+        choose_orientation(asked, written, option="--orientation")
+    assert str(err.value).startswith("--orientation: ") and "\n" not in str(err.value)

@@ -305,8 +305,8 @@ def test_examples_are_what_the_builder_writes(name):
     doc = load_profile(str(path))
     v = build_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv))
     prof, axis = sketch_profile(v, orientation, name=doc.name)
-    assert profile_text(prof, axis=axis, angle=360, section="space") == \
-        path.read_text(encoding="utf-8")
+    assert profile_text(prof, axis=axis, angle=360, section="space",
+                        orientation=orientation) == path.read_text(encoding="utf-8")
 
 
 def test_diesel_day_tank_capacity():

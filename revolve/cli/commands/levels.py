@@ -9,7 +9,10 @@ revolution must be a full turn.
 ``--orientation vertical``: the axis stands upright, its direction pointing
 up; the level is the height of the liquid surface above the lowest inside
 point. ``--orientation horizontal``: the axis lies level; the level is the
-depth of liquid above the lowest inside point.
+depth of liquid above the lowest inside point. Without the option the
+profile file's ``orientation`` is used (``revolve vessel`` writes it); the
+option wins over the file, and the table says which was used. Where
+neither says, the command refuses rather than guess.
 
 Rows: ``--step S`` (0, S, 2S, ... and the full level), ``--count N`` (N equal
 intervals, N + 1 rows; the default is 10), ``--at L1,L2,...``; or the
@@ -23,7 +26,8 @@ cubed; L, m^3, US_gallon, imperial_gallon, bbl, ...), wetted areas in
 ``percent`` (of the capacity), ``wetted_area`` (inside surface below the
 liquid surface), ``volume_error`` (estimate; 0 where exact), the units
 ``level_unit``, ``volume_unit``, ``area_unit``, ``orientation``,
-``capacity`` and ``caution``; inverse rows also give the ``volume_asked`` or
+``orientation_from`` (``"file"`` or ``"--orientation"``), ``capacity`` and
+``caution``; inverse rows also give the ``volume_asked`` or
 ``percent_asked``. ``--csv FILE`` writes the rows for a spreadsheet.
 """
 
@@ -100,7 +104,7 @@ def _mode(step, count, at, volume, percent) -> str:
     return given[0] if given else "--count"
 
 
-def run_levels(profile: str, orientation: str, axis: Optional[str], step: Optional[float],
+def run_levels(profile: str, orientation: Optional[str], axis: Optional[str], step: Optional[float],
                count: Optional[int], at: Optional[List[str]], volume: Optional[List[str]],
                percent: Optional[List[str]], level_unit: Optional[str],
                volume_unit: Optional[str], area_unit: Optional[str], units: Optional[str],
@@ -112,10 +116,11 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
 
     from revolve.jobs import levels as jl
 
-    orientation = (orientation or "vertical").strip().lower()
-    if orientation not in jl.ORIENTATIONS:
-        raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
-                           place="--orientation")
+    if orientation is not None:
+        orientation = orientation.strip().lower()
+        if orientation not in jl.ORIENTATIONS:
+            raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
+                               place="--orientation")
     if not tolerance > 0:
         raise RevolveError("must be a positive number", place="--tolerance")
     if step is not None and not (math.isfinite(step) and step > 0):
@@ -127,6 +132,11 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
     volume_values = _numbers(volume, "--volume")
     percent_values = _numbers(percent, "--percent")
     doc = common.load(profile, unit=units)
+    try:
+        orientation, orientation_from = jl.choose_orientation(orientation, doc.orientation,
+                                                              option="--orientation")
+    except RevolveError as e:
+        raise e.located(file=doc.file)
     lu = _level_unit(level_unit, doc.profile.unit)
     u, vu, au = _output_units(doc.profile.unit, lu, area_unit, volume_unit)
     ax = common.parse_axis(axis) or doc.axis or common.parse_axis("x")
@@ -177,7 +187,7 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
                 raise RevolveError(f"{x:g} % is outside 0 to 100 %", place="--percent")
         asked = ("percent_asked", arr)
         table = jl.level_for_percent(space, arr)
-    rows = _rows(table, space, u, lu, vu, au, asked)
+    rows = _rows(table, space, u, lu, vu, au, asked, orientation_from)
     csv_out = _csv_text(rows, lu, vu, au, asked) if csv_file else None
     if csv_out is not None:   # before any output: a failed write leaves nothing half done
         from revolve.formats.files import write_text_atomically
@@ -186,7 +196,7 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
     if as_json:
         common.print_json(rows)
     else:
-        _print(doc, space, table, rows, u, lu, vu, au, asked, csv_file)
+        _print(doc, space, table, rows, u, lu, vu, au, asked, csv_file, orientation_from)
     if not space.capacity_crosscheck <= tolerance:
         print(f"revolve: the capacity and its washer cross-check disagree by "
               f"{space.capacity_crosscheck:.1e} (more than {tolerance:g}); do not use this table "
@@ -195,7 +205,7 @@ def run_levels(profile: str, orientation: str, axis: Optional[str], step: Option
     return 0
 
 
-def _rows(table, space, u, lu, vu, au, asked):
+def _rows(table, space, u, lu, vu, au, asked, orientation_from):
     caution = common.CAUTIONS["vessel"]
     cap = space.capacity * u.volume_factor
     out = []
@@ -210,7 +220,9 @@ def _rows(table, space, u, lu, vu, au, asked):
             "wetted_area": float(table.wetted_area[k]) * u.area_factor,
             "volume_error": float(table.error[k]) * u.volume_factor,
             "level_unit": lu, "volume_unit": vu, "area_unit": au,
-            "orientation": space.orientation, "capacity": cap, "caution": caution,
+            "orientation": space.orientation,
+            "orientation_from": "file" if orientation_from == "from the file" else "--orientation",
+            "capacity": cap, "caution": caution,
         })
         out.append(row)
     return out
@@ -240,7 +252,7 @@ def _csv_text(rows, lu, vu, au, asked) -> str:
     return buf.getvalue()
 
 
-def _print(doc, space, table, rows, u, lu, vu, au, asked, csv_file):
+def _print(doc, space, table, rows, u, lu, vu, au, asked, csv_file, orientation_from):
     from rich.table import Table
 
     con = common.console()
@@ -254,7 +266,7 @@ def _print(doc, space, table, rows, u, lu, vu, au, asked, csv_file):
                f"({f(space.r_max * u.length_factor)} {lu} below the axis)")
     cap = space.capacity * u.volume_factor
     con.print(f"[bold]{name}[/bold]")
-    con.print(f"{space.orientation}: {how}")
+    con.print(f"{space.orientation} ({orientation_from}): {how}")
     con.print(f"capacity {f(cap)} {vu}; full level {f(space.height * u.length_factor)} {lu}; "
               f"inside surface {f(space.inside_area * u.area_factor)} {au}")
     if csv_file and len(rows) > 40:
@@ -294,9 +306,11 @@ def register(app: typer.Typer) -> None:
         profile: str = typer.Argument(..., help="Profile of the liquid space: a closed loop (the "
                                                 "inside, closed along the axis) or a chain (the "
                                                 "inside wall, both ends on the axis)."),
-        orientation: str = typer.Option("vertical", "--orientation",
-                                        help="vertical (axis upright, its direction up) or "
-                                             "horizontal (axis level)."),
+        orientation: Optional[str] = typer.Option(None, "--orientation",
+                                                  help="vertical (axis upright, its direction "
+                                                       "up) or horizontal (axis level). "
+                                                       "Default: the file's orientation; "
+                                                       "refused when neither says."),
         axis: Optional[str] = typer.Option(None, "--axis",
                                            help="x, y, or X0,Y0,DX,DY. Default: the file's axis, "
                                                 "else x. Vertical: the direction points up."),
@@ -339,9 +353,11 @@ def register(app: typer.Typer) -> None:
         vessel, closed along the axis (as revolve vessel writes it), or an open
         chain that is the inside wall with both ends on the axis. Vertical: the
         axis direction points up, level = height above the lowest inside point.
-        Horizontal: level = depth above the lowest inside point. JSON: a list
-        of rows with level, volume, percent, wetted_area, volume_error, the
-        units, orientation, capacity and caution.
+        Horizontal: level = depth above the lowest inside point. The
+        orientation comes from --orientation, else from the file's
+        orientation key; with neither the command refuses. JSON: a list of
+        rows with level, volume, percent, wetted_area, volume_error, the
+        units, orientation, orientation_from, capacity and caution.
 
         Tables are geometry only; tables for custody transfer need certified
         calibration.

@@ -146,10 +146,11 @@ def run_vessel(diameter: str, length: str, head: Optional[str], head_1: Optional
 
     profile, axis = jv.sketch_profile(design, orientation, "inside", name=name)
     if output:
-        texts[output] = profile_text(profile, axis=axis, angle=360, section="space")
+        texts[output] = profile_text(profile, axis=axis, angle=360, section="space",
+                                     orientation=orientation)
     if wall_output:
         wall, axis_w = jv.sketch_profile(design, orientation, "wall", name=name + " (wall)")
-        texts[wall_output] = profile_text(wall, axis=axis_w, angle=360,
+        texts[wall_output] = profile_text(wall, axis=axis_w, angle=360, orientation=orientation,
                                           material=metal_key if metal_key else None,
                                           density=None if metal_key or metal_d is None
                                           else f"{metal_d!r} kg/m^3")
