@@ -351,11 +351,50 @@ def test_gap_between_two_arcs_is_bridged(tmp_path):
 
 
 def test_default_tolerance_scales_with_the_drawing(tmp_path):
+    # A 41 mm part: the floor of 0.001 in = 0.0254 mm applies (1 in = 25.4 mm, exact by
+    # definition; 0.001 in as the rounding of CAD exports: common practice, no source).
     doc, msp = new_drawing()
-    rectangle_with_gap(msp, 1e-5)   # size about 41, tolerance about 4.1e-5
+    rectangle_with_gap(msp, 0.02)
     profile_doc, report = read_dxf(save(doc, tmp_path))
-    assert report.tolerance == pytest.approx(1e-6 * math.hypot(40, 10), rel=1e-9)
+    assert report.tolerance == pytest.approx(0.0254, rel=1e-12)
     assert len(report.gaps_closed) == 1
+    # A 4 m part: 1e-4 of its size (the diagonal of its extent).
+    doc, msp = new_drawing()
+    for a, b in [((0, 1000), (4000, 1000)), ((4000, 1000), (4000, 2000)),
+                 ((4000, 2000), (0, 2000)), ((0, 2000), (0, 1000.3))]:
+        msp.add_line(a, b)
+    profile_doc, report = read_dxf(save(doc, tmp_path, "big.dxf"))
+    assert report.tolerance == pytest.approx(1e-4 * math.hypot(4000, 1000), rel=1e-12)
+    assert len(profile_doc.profile.loops) == 1
+
+
+def test_inch_drawing_with_a_half_thou_gap_closes(tmp_path):
+    # The case of the issue: a 2 in bush drawn in inches ($INSUNITS 1, from memory) whose
+    # export left a 0.0005 in gap; the gap is closed and the area is the rectangle's
+    # (shapely Polygon.area as the reference).
+    doc, msp = new_drawing(insunits=1)
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.5005))]:
+        msp.add_line(a, b)
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert report.tolerance == pytest.approx(0.001)
+    assert len(report.gaps_closed) == 1
+    reference = Polygon([(0, 0.5), (2, 0.5), (2, 1), (0, 1)])
+    m = quick(profile_doc.profile, Axis((0.0, 0.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(reference.area, rel=1e-12)
+    # Pappus-Guldinus (from memory): V = 2 pi ybar A, ybar from shapely's centroid
+    assert m.volume == pytest.approx(2 * math.pi * reference.centroid.y * reference.area,
+                                     rel=1e-12)
+
+
+def test_gap_error_names_the_option(tmp_path):
+    doc, msp = new_drawing(insunits=1)
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.51))]:
+        msp.add_line(a, b)
+    with pytest.raises(FormatError) as info:
+        read_dxf(save(doc, tmp_path))
+    assert "--gap-tolerance" in str(info.value) and "\n" not in str(info.value)
+    profile_doc, report = read_dxf(save(doc, tmp_path), tolerance=0.02)
+    assert len(profile_doc.profile.loops) == 1
 
 
 def test_open_chains_are_kept_only_when_allowed(tmp_path):
@@ -406,9 +445,11 @@ def test_unknown_entities_are_skipped_with_reasons(tmp_path):
     reasons = {s.what.split(" (")[0]: s.reason for s in report.skipped}
     assert reasons["TEXT #5"] == "text is not geometry"
     assert reasons["POINT #6"] == "a point is not a boundary"
-    assert reasons["INSERT #7"].startswith("a block reference is not expanded")
     assert reasons["LINE #8"].startswith("it is an exact duplicate of LINE #1")
+    # the block's circle is expanded at (60, 60): a loop apart from the part, left out
     assert len(profile_doc.profile.loops) == 1
+    assert len(report.warnings) == 1 and "INSERT #7" in report.warnings[0]
+    assert "--keep-strays" in report.warnings[0]
 
 
 def test_layer_choice(tmp_path):
