@@ -114,10 +114,18 @@ def test_json_report(tmp_path, capsys):
                           "-o", out_file, "--json", "--units", "in", "--name", "Ring"], capsys)
     assert code == 0, err
     report = json.loads(out)["report"]
-    assert [len(report["loops"]), len(report["chains"])] == [1, 1]
+    # the open chain "m 50 0 h 5" is not joined to the ring: warned about and left out
+    assert [len(report["loops"]), len(report["chains"])] == [1, 0]
+    assert len(report["warnings"]) == 1 and "--keep-strays" in report["warnings"][0]
+    assert err.count("\n") == 1 and err.startswith("revolve: warning: chain 1")
     assert report["unit"] == "in" and report["unit_source"] == "given"
     doc = load_profile(out_file)
     assert doc.name == "Ring" and doc.profile.unit == "in" and doc.axis is None
+    assert not doc.profile.chains
+    code, out, err = run(["convert", "--path-data", "M0,10 H40 V20 H0 Z m 50 0 h 5",
+                          "-o", out_file, "--json", "--force", "--keep-strays"], capsys)
+    assert code == 0, err
+    assert len(load_profile(out_file).profile.chains) == 1
 
 
 def dxf_bush(tmp_path, name="bush.dxf", gap=0.0, extra=None):
