@@ -807,7 +807,7 @@ def path_profile(commands: Sequence[PathCommand], *, matrix: Affine = FLIP_Y,
                 seg = builder.arc(*item[1:8], where=where)
             if seg is not None:
                 segments.append(seg)
-        source = f"subpath {k} (character {sub.position})"
+        source = f"subpath {k} (character {sub.position})" if sub.position > 0 else "outline"
         if not segments:
             continue
         first, last = segments[0].start, segments[-1].end
@@ -869,7 +869,7 @@ def _assemble(parts, *, unit: str, file: Optional[str], kind: str, unit_source: 
         for path, source, what in zip(profile.paths, sources, kinds):
             (loops if what == "loop" else chains).append(path)
             (loop_src if what == "loop" else chain_src).append(f"{label}{source}")
-        notes.extend(part_notes)
+        notes.extend(n for n in part_notes if n not in notes)
         exact = exact and part_exact
     profile = Profile(loops=tuple(loops), chains=tuple(chains), unit=unit, file=file)
     if not profile.paths:
@@ -1493,7 +1493,11 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
                 continue
         part = path_profile(commands, matrix=matrix, unit=unit_name, file=path, line=line,
                             label=label)
-        parts.append(part + ("" if len(selected) == 1 else label,))
+        parts.append(part + (label,))
+    if not parts:
+        first = skipped[-1]
+        raise FormatError(f"the paths and shapes of the file draw nothing ({first.what}: "
+                          f"{first.reason})", file=path)
     if scale != 1:
         unit_notes.append(f"coordinates were scaled by {scale} into {unit_name}")
     first_line = line_of.get(id(selected[0][0]))
