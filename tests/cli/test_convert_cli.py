@@ -241,3 +241,73 @@ def test_reader_registration_imports_nothing_heavy():
                             cwd=str(ROOT), env={**os.environ, "PYTHONPATH": str(ROOT)})
     assert result.returncode == 0, result.stderr
     assert result.stdout.strip() == "[]"
+
+
+SLEEVE = '''name = "Sleeve"
+units = "mm"
+{extra}
+[axis]
+along = "x"
+
+[[loop]]
+start = [0, 10]
+segments = [{{ line_to = [40, 10] }}, {{ line_to = [40, 20] }}, {{ line_to = [0, 20] }},
+            {{ close = true }}]
+'''
+
+
+@pytest.mark.parametrize("extra, words", [
+    ('density = "seven thousand"', "density"),
+    ('density = "-7850 kg/m^3"', "density"),
+    ('density = "1e999 kg/m^3"', "density"),
+    ('material = "unobtainium"', "unknown material"),
+])
+def test_convert_checks_material_and_density_as_measure_does(tmp_path, capsys, extra, words):
+    """Family: profile files whose material or density measure would refuse."""
+    source = tmp_path / "in.toml"
+    source.write_text(SLEEVE.format(extra=extra))
+    out_file = str(tmp_path / "out.toml")
+    measure_code, _, measure_err = run(["measure", str(source)], capsys)
+    assert measure_code == 2        # measure refuses it ...
+    line = refused(["convert", str(source), "-o", out_file], capsys, out_file)
+    assert words in line and str(source) in line     # ... and so does convert
+    assert line.split(": ", 2)[2] == measure_err.strip().split(": ", 2)[2]
+
+
+def test_convert_refuses_a_self_intersecting_point_list(tmp_path, capsys):
+    """Family: point lists that cross themselves (a bow tie), with and without an axis."""
+    bow = tmp_path / "bow.txt"
+    bow.write_text("0,10\n20,30\n20,10\n0,30\n")
+    out_file = str(tmp_path / "out.toml")
+    line = refused(["convert", str(bow), "-o", out_file], capsys, out_file)
+    assert "intersects itself" in line and "bow.txt" in line
+    line = refused(["convert", str(bow), "-o", out_file, "--axis", "x"], capsys, out_file)
+    assert "intersects itself" in line
+
+
+def test_convert_of_a_good_profile_keeps_its_material(tmp_path, capsys):
+    source = tmp_path / "in.toml"
+    source.write_text(SLEEVE.format(extra='material = "carbon steel"'))
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", str(source), "-o", out_file], capsys)
+    assert code == 0, err
+    assert load_profile(out_file).material == "carbon steel"
+
+
+def test_stray_dxf_circle_through_convert(tmp_path, capsys):
+    """The issue's case end to end: warned, left out, and kept with --keep-strays."""
+    def stray(msp):
+        msp.add_circle((80, 15), 3)
+    drawing = dxf_bush(tmp_path, "stray.dxf", extra=stray)
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", drawing, "-o", out_file], capsys)
+    assert code == 0, err
+    assert "warning: loop 2 (from CIRCLE #5" in out and "--keep-strays" in out
+    assert len(load_profile(out_file).profile.loops) == 1
+    code, out, err = run(["convert", drawing, "-o", out_file, "--force", "--keep-strays"],
+                         capsys)
+    assert code == 0, err
+    assert len(load_profile(out_file).profile.loops) == 2
+    line = refused(["convert", "--path-data", "M0 0 H1 V1 Z", "-o", str(tmp_path / "p.toml"),
+                    "--gap-tolerance", "1"], capsys, str(tmp_path / "p.toml"))
+    assert "--gap-tolerance applies to DXF drawings only" in line

@@ -538,3 +538,85 @@ def test_empty_drawing(tmp_path):
     msp.add_text("nothing here")
     with pytest.raises(FormatError, match=r"no lines, arcs, .* \(skipped: TEXT #1"):
         read_dxf(save(doc, tmp_path))
+
+
+def _placed(polygon, insert, scale, rotation):
+    """shapely: a block's outline placed as a DXF INSERT places it (scale, rotate, move)."""
+    from shapely import affinity
+
+    placed = affinity.scale(polygon, scale[0], scale[1], origin=(0, 0))
+    placed = affinity.rotate(placed, rotation, origin=(0, 0))
+    return affinity.translate(placed, insert[0], insert[1])
+
+
+@pytest.mark.parametrize("insert, scale, rotation", [
+    ((5, 10), (1, 1), 0), ((5, 10), (2, 1), 0), ((30, 40), (1.5, 1.5), 90),
+    ((-20, 50), (1, 0.5), 30),
+])
+def test_block_reference_is_placed_like_shapely_places_it(tmp_path, insert, scale, rotation):
+    # reference library: shapely affinity (scale, rotate, translate), Polygon.area/centroid
+    outline = [(0, 0), (40, 0), (40, 10), (20, 25), (0, 10)]
+    doc, msp = new_drawing()
+    block = doc.blocks.new("SLEEVE")
+    block.add_lwpolyline(outline, close=True)
+    msp.add_blockref("SLEEVE", insert, dxfattribs={"xscale": scale[0], "yscale": scale[1],
+                                                    "rotation": rotation})
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    reference = _placed(Polygon(outline), insert, scale, rotation)
+    m = quick(profile_doc.profile, Axis((0.0, -1000.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(reference.area, rel=1e-12)
+    assert m.centroid == pytest.approx((reference.centroid.x, reference.centroid.y), rel=1e-12)
+    assert "in block 'SLEEVE' of INSERT #1" in report.loops[0].source
+
+
+def test_nested_block_references_compose(tmp_path):
+    # a circle (CRC, pi r^2, from memory) in an inner block, inside an outer block's ring
+    doc, msp = new_drawing()
+    inner = doc.blocks.new("BORE")
+    inner.add_circle((0, 0), 4)
+    outer = doc.blocks.new("BUSH")
+    outer.add_lwpolyline([(-10, -10), (10, -10), (10, 10), (-10, 10)], close=True)
+    outer.add_blockref("BORE", (2, 1), dxfattribs={"xscale": 0.5, "yscale": 0.5})
+    msp.add_blockref("BUSH", (100, 50), dxfattribs={"xscale": 2, "yscale": 2, "rotation": 45})
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert len(profile_doc.profile.loops) == 2 and not report.warnings
+    m = quick(profile_doc.profile, Axis((0.0, -1000.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(40 * 40 - math.pi * 4 ** 2, rel=1e-12)
+
+
+def test_stray_circle_is_warned_and_left_out_unless_kept(tmp_path):
+    # The case of the issue: a circle drawn away from the part was added to the volume.
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 20), (0, 20)], close=True)
+    msp.add_circle((20, 15), 3)       # a bore inside the outline: a hole, kept
+    msp.add_circle((80, 15), 3)       # drawn apart from the part: a stray
+    name = save(doc, tmp_path)
+    profile_doc, report = read_dxf(name)
+    axis = Axis((0.0, 0.0), (1.0, 0.0))
+    ring = Polygon([(0, 10), (40, 10), (40, 20), (0, 20)])
+    m = quick(profile_doc.profile, axis)
+    assert m.area == pytest.approx(ring.area - math.pi * 9, rel=1e-12)   # shapely, CRC
+    assert len(report.warnings) == 1 and "CIRCLE #3" in report.warnings[0]
+    assert "lies outside it" in report.warnings[0] and "--keep-strays" in report.warnings[0]
+    profile_doc, report = read_dxf(name, keep_strays=True)
+    assert len(profile_doc.profile.loops) == 3 and "kept as asked" in report.warnings[0]
+
+
+def test_island_inside_a_hole_is_a_stray(tmp_path):
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 40), (0, 40)], close=True)
+    msp.add_circle((20, 25), 10)
+    msp.add_circle((20, 25), 3)       # inside the hole: material not joined to the part
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert len(profile_doc.profile.loops) == 2
+    assert "inside one of its holes" in report.warnings[0]
+
+
+def test_non_finite_and_huge_numbers_name_the_entity_and_the_range(tmp_path):
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 20), (0, 20)], close=True)
+    msp.add_line((0, 0), (1e300, 0))
+    with pytest.raises(FormatError) as info:
+        read_dxf(save(doc, tmp_path))
+    text = str(info.value)
+    assert "LINE #2" in text and "1e+300" in text and "1e+15" in text
