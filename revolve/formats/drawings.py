@@ -453,8 +453,29 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
 
 # -- lazy entry points -----------------------------------------------------------------
 
+def _no_strays(result) -> ProfileDocument:
+    """The document of a reader's result, refused when the drawing has strays.
+
+    A command that measures a drawing directly has no report to show, so a
+    loop or chain apart from the main outline is refused rather than left
+    out in silence; ``revolve convert`` reports it and leaves it out (or
+    keeps it with ``--keep-strays``).
+    """
+    doc, report = result
+    if report.warnings:
+        first = report.warnings[0].split(" and lies ")[0]
+        more = f" (and {len(report.warnings) - 1} more)" if len(report.warnings) > 1 else ""
+        raise FormatError(f"{first}{more}; run revolve convert on the drawing, which reports "
+                          f"it and leaves it out ({KEEP_STRAYS_OPTION} keeps it), and use the "
+                          "profile file it writes", file=report.source)
+    return doc
+
+
 def read_svg_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
-    """Read the one ``<path>`` of an SVG file (see :func:`revolve.formats.svg.read_svg`).
+    """Read the paths and shapes of an SVG file (see :func:`revolve.formats.svg.read_svg`).
+
+    A loop or chain not joined to the main outline is refused here (see
+    ``_no_strays``): only ``revolve convert`` reports and leaves them out.
 
     >>> read_svg_file("no_such_drawing.svg")
     Traceback (most recent call last):
@@ -463,14 +484,14 @@ def read_svg_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """
     from revolve.formats.svg import read_svg
 
-    return read_svg(path, unit=unit)[0]
+    return _no_strays(read_svg(path, unit=unit))
 
 
 def read_svg_path_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """Read a file holding bare SVG path data (see :func:`revolve.formats.svg.read_path_data_file`)."""
     from revolve.formats.svg import read_path_data_file
 
-    return read_path_data_file(path, unit=unit)[0]
+    return _no_strays(read_path_data_file(path, unit=unit))
 
 
 def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
@@ -483,7 +504,7 @@ def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """
     from revolve.formats.dxf import read_dxf
 
-    return read_dxf(path, unit=unit)[0]
+    return _no_strays(read_dxf(path, unit=unit))
 
 
 #: Readers of drawings by file name ending, for :func:`revolve.formats.register_reader`.

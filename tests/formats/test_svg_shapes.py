@@ -154,3 +154,14 @@ def test_bad_shapes_are_refused_on_one_line(tmp_path, body, words):
         read_svg(write(tmp_path, body))
     text = str(info.value)
     assert words in text and "\n" not in text and text.startswith(str(tmp_path))
+
+
+def test_measuring_a_drawing_with_a_stray_directly_is_refused(tmp_path):
+    from revolve.formats.drawings import read_svg_file
+
+    name = write(tmp_path, '<rect y="-20" width="40" height="10"/><circle cx="80" cy="-15" r="3"/>')
+    with pytest.raises(FormatError) as info:
+        read_svg_file(name)
+    assert "circle #1" in str(info.value) and "revolve convert" in str(info.value)
+    single = write(tmp_path, '<rect y="-20" width="40" height="10"/>', "single.svg")
+    assert len(read_svg_file(single).profile.loops) == 1
