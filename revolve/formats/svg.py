@@ -689,12 +689,14 @@ class _Builder:
             root = math.sqrt(float(lam))
             frx, fry = frx * root, fry * root
         fx1p, fy1p = float(x1p), float(y1p)
-        num = frx * frx * fry * fry - frx * frx * fy1p * fy1p - fry * fry * fx1p * fx1p
-        den = frx * frx * fy1p * fy1p + fry * fry * fx1p * fx1p
-        coef = math.sqrt(max(num / den, 0.0)) if not scaled else 0.0
+        # F.6.5.2 divided through by rx² ry², so that tiny or huge radii neither underflow
+        # nor overflow: with u = x1'/rx, v = y1'/ry the factor is sqrt((1 - u² - v²)/(u² + v²)).
+        u, v = fx1p / frx, fy1p / fry
+        reach = u * u + v * v
+        coef = math.sqrt(max((1 - reach) / reach, 0.0)) if not scaled and reach > 0 else 0.0
         if large == sweep:
             coef = -coef
-        cxp, cyp = coef * frx * fy1p / fry, -coef * fry * fx1p / frx
+        cxp, cyp = coef * frx * v, -coef * fry * u
         fc, fs = float(cphi), float(sphi)
         centre = (fc * cxp - fs * cyp + float(p0[0] + p1[0]) / 2,
                   fs * cxp + fc * cyp + float(p0[1] + p1[1]) / 2)

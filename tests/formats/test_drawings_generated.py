@@ -232,6 +232,7 @@ ELEMENTS = st.sampled_from([
           suppress_health_check=[HealthCheck.function_scoped_fixture])
 @given(elements=st.lists(st.tuples(ELEMENTS, st.lists(NUMBERS, min_size=5, max_size=5)),
                          min_size=1, max_size=3))
+@example(elements=[('<circle cx="{0}" cy="{1}" r="{2}"/>', ["0", "0", "1e-99", "0", "0"])])
 @example(elements=[('<g transform="scale({0}) rotate({1})"><rect width="{2}" height="{3}"/></g>',
                     ["1e99", "1e99", "1e99", "1", "0"])])
 @example(elements=[('<path transform="matrix({0} {1} {2} {3} {4} 0)" d="M0 0 h10 v10 z"/>',
