@@ -29,6 +29,22 @@ Subpaths: one closed by ``Z`` (or ending exactly where it started) is a
 loop; any other is an open chain (a surface only). A subpath with nothing
 but a moveto draws nothing and is left out.
 
+Shapes: ``<rect>`` (with ``rx``/``ry`` rounded corners), ``<circle>``,
+``<ellipse>``, ``<line>``, ``<polyline>`` and ``<polygon>`` are read as the
+path SVG 2 defines for each (:func:`shape_commands`), so their circles stay
+exact arcs. An SVG file gives every path and shape it draws (or those of the
+element or group chosen by id); loops and chains not joined to the main
+outline -- the loop of largest area, whose directly nested loops are its
+holes -- are warned about and left out unless asked for
+(:func:`revolve.formats.drawings.separate_strays`). Text, images, ``<use>``
+references and elements not drawn by themselves are reported as skipped.
+
+Numbers: every number is at most 1e15 in size
+(:data:`revolve.formats.drawings.MAX_COORDINATE`), and so is every point
+and every entry of the transforms once composed: squares and cubes of
+larger numbers (areas, volumes, moments) overflow, so they are refused with
+the allowed range.
+
 Coordinates
 -----------
 SVG's y axis points down the page. The profile's y axis points up, so the
@@ -50,7 +66,10 @@ size is refused.
 The XML is read with :mod:`xml.etree.ElementTree` after a first pass with
 expat that refuses any entity declaration and any DTD internal subset (an
 "entity bomb" expands without limit); a plain ``<!DOCTYPE svg PUBLIC ...>``
-is allowed (no DTD is ever fetched).
+is allowed (no DTD is ever fetched, and with no declarations there is no
+entity to expand -- what defusedxml guards against, with line numbers for
+messages besides). The file is at most :data:`MAX_SVG_BYTES`, with at most
+:data:`MAX_ELEMENTS` elements nested at most :data:`MAX_DEPTH` deep.
 
 Examples
 --------

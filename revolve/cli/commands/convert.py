@@ -220,8 +220,9 @@ def register(app: typer.Typer) -> None:
                                                 help="SVG path data given here instead of a "
                                                      "file, e.g. 'M0 10 H40 V20 H0 Z'."),
         path_id: Optional[str] = typer.Option(None, "--path-id",
-                                              help="SVG: the id of the <path> to read (needed "
-                                                   "when the file has several)."),
+                                              help="SVG: the id of one path, shape or group "
+                                                   "to read. Default: every path and shape "
+                                                   "drawn."),
         layer: Optional[str] = typer.Option(None, "--layer", help="DXF: read only this layer."),
         axis: Optional[str] = typer.Option(None, "--axis",
                                            help="x, y, or X0,Y0,DX,DY; written to the file. "
