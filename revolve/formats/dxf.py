@@ -884,7 +884,7 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
                 return
             table = drawing.layers.get(layer_name) if drawing.layers.has_entry(layer_name) \
                 else None
-            if kind not in _SKIP_REASONS or kind == "INSERT":
+            if kind not in _SKIP_REASONS:
                 layers_seen[layer_name] = layers_seen.get(layer_name, 0) + 1
             if chosen is not None and layer_name.casefold() != chosen:
                 skip(label, f"on layer {layer_name}", f"not on the chosen layer {layer}")

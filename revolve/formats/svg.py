@@ -1488,7 +1488,8 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
                 except ValueError as exc:
                     raise FormatError(f"transform of <{outer_tag}>: {exc}", file=path, line=line,
                                       place=name) from None
-                note = f'the transform "{one_line(transform.strip())[:60]}" of <{outer_tag}> was applied'
+                note = (f'the transform "{one_line(transform.strip())[:60]}" of <{outer_tag}> '
+                        "was applied")
                 if note not in notes:
                     notes.append(note)
         matrix = compose(base, matrix)
