@@ -887,7 +887,8 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
             if kind not in _SKIP_REASONS:
                 layers_seen[layer_name] = layers_seen.get(layer_name, 0) + 1
             if chosen is not None and layer_name.casefold() != chosen:
-                skip(label, f"on layer {layer_name}", f"not on the chosen layer {layer}")
+                skip(label, f"on layer {layer_name}",
+                     f"not on the chosen layer {one_line(layer)[:60]}")
                 return
             if chosen is None and table is not None and (table.is_off() or table.is_frozen()):
                 skip(label, f"on layer {layer_name}", f"the layer {layer_name} is off or frozen")
@@ -924,8 +925,8 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
         read_entity(entity, number, "", 0, None)
     if chosen is not None and not any(name.casefold() == chosen for name in layers_seen):
         names = ", ".join(sorted(layers_seen)) or "none"
-        raise FormatError(f'there is no geometry on layer "{layer}"; layers with entities: '
-                          f"{names}", file=path)
+        raise FormatError(f'there is no geometry on layer "{one_line(layer)[:60]}"; layers '
+                          f"with entities: {one_line(names)}", file=path)
     skipped_list = _skipped_list(skipped)
     hint = _hint(skipped_list)
     if not pieces:

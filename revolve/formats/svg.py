@@ -172,7 +172,7 @@ class PathDataError(ValueError):
 def _shown(text: str, pos: int) -> str:
     if pos >= len(text):
         return "the end of the path data"
-    piece = text[pos:pos + 12]
+    piece = one_line(text[pos:pos + 12])
     return '"' + piece + ('..."' if len(text) > pos + 12 else '"')
 
 
@@ -301,7 +301,7 @@ def parse_path_data(d: str) -> Tuple[PathCommand, ...]:
         return ()
     if s.peek() not in "Mm":
         raise PathDataError(f'path data must start with a moveto ("M" or "m"), got '
-                            f'"{s.peek()}"', s.pos + 1)
+                            f'"{one_line(s.peek())}"', s.pos + 1)
     while not s.at_end():
         letter = s.peek()
         if letter.upper() not in _ARGUMENTS or not letter.isalpha():

@@ -208,6 +208,8 @@ def path_data(draw):
 @example(d="M 0 0 h 9e14 h 9e14 v 1 z")             # relative moves beyond the range
 @example(d="M 0 0 A 1e-99 1e-99 0 0 1 1 0 Z")
 @example(d="M 0 1e999 L 1 1 Z")
+@example(d="M 0 0 x\ny")                          # the input's own newline, quoted
+@example(d="\x0b M 0 0")
 def test_generated_path_data_reads_or_is_refused(d):
     """Family: SVG path data from the grammar with hostile numbers."""
     try:
