@@ -260,15 +260,23 @@ def run_cli(args, capsys):
 
 @settings(max_examples=25, deadline=None,
           suppress_health_check=[HealthCheck.function_scoped_fixture, HealthCheck.too_slow])
-@given(text=mutated_dxf(), d=path_data())
-@example(text="\n".join(LINES[:40]), d="M 0 0 L 1e99 0 L 1e99 1e99 Z")
-def test_convert_exits_0_1_or_2_and_leaves_nothing_after_2(tmp_path, capsys, text, d):
-    """Family: the same mutated DXF and path data through ``revolve convert``."""
+@given(text=mutated_dxf(), d=path_data(),
+       elements=st.lists(st.tuples(ELEMENTS, st.lists(NUMBERS, min_size=5, max_size=5)),
+                         min_size=1, max_size=3))
+@example(text="\n".join(LINES[:40]), d="M 0 0 L 1e99 0 L 1e99 1e99 Z",
+         elements=[('<circle cx="{0}" cy="{1}" r="{2}"/>', ["0", "0", "1e-99", "0", "0"])])
+def test_convert_exits_0_1_or_2_and_leaves_nothing_after_2(tmp_path, capsys, text, d, elements):
+    """Family: the same mutated DXF, path data and SVG shapes through ``revolve convert``."""
     drawing = str(tmp_path / "in.dxf")
     with open(drawing, "w") as handle:
         handle.write(text)
+    svg = str(tmp_path / "in.svg")
+    with open(svg, "w") as handle:
+        body = "".join(template.format(*numbers) for template, numbers in elements)
+        handle.write(f'<svg xmlns="http://www.w3.org/2000/svg">{body}</svg>')
     for args, output in (([drawing], str(tmp_path / "a.toml")),
-                         (["--path-data", d], str(tmp_path / "b.toml"))):
+                         (["--path-data", d], str(tmp_path / "b.toml")),
+                         ([svg], str(tmp_path / "c.toml"))):
         if os.path.exists(output):
             os.remove(output)
         code, out, err = run_cli(["convert", *args, "-o", output, "--axis", "0,-1e6,1,0"],
