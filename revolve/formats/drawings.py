@@ -343,7 +343,12 @@ def separate_strays(profile, sources: Sequence[str], *, keep: bool = False):
     def closed_poly(poly):
         return poly if np.array_equal(poly[0], poly[-1]) else np.vstack([poly, poly[:1]])
 
+    boxes = [(f.min(axis=0), f.max(axis=0)) if len(f) else (np.zeros(2), np.zeros(2))
+             for f in flat]
+
     def inside(k: int, m: int) -> bool:
+        if not (np.all(boxes[m][0] <= boxes[k][0]) and np.all(boxes[k][1] <= boxes[m][1])):
+            return False  # k's extent is not within m's: it cannot lie inside m
         px, py = probe(flat[k])
         return _point_in_polygon(float(px), float(py), closed_poly(flat[m]))
 
