@@ -311,3 +311,29 @@ def test_stray_dxf_circle_through_convert(tmp_path, capsys):
     line = refused(["convert", "--path-data", "M0 0 H1 V1 Z", "-o", str(tmp_path / "p.toml"),
                     "--gap-tolerance", "1"], capsys, str(tmp_path / "p.toml"))
     assert "--gap-tolerance applies to DXF drawings only" in line
+
+
+@pytest.mark.parametrize("value", ["-1", "0", "inf", "nan", "1e999"])
+def test_bad_gap_tolerance_names_the_option(tmp_path, capsys, value):
+    """Family: --gap-tolerance values that are not a positive finite length."""
+    out_file = str(tmp_path / "out.toml")
+    line = refused(["convert", dxf_bush(tmp_path), "-o", out_file, f"--gap-tolerance={value}"],
+                   capsys, out_file)
+    assert "--gap-tolerance: the gap tolerance must be a positive number" in line
+
+
+def test_half_thou_gap_in_an_inch_drawing_converts(tmp_path, capsys):
+    # The issue's case: 0.0005 in left by a CAD export; the default (0.001 in for a part this
+    # size: common practice, no source) closes it and the report says so.
+    doc = ezdxf.new("R2010")
+    doc.header["$INSUNITS"] = 1          # inches (DXF reference, from memory)
+    msp = doc.modelspace()
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.5005))]:
+        msp.add_line(a, b)
+    drawing = str(tmp_path / "inch.dxf")
+    doc.saveas(drawing)
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", drawing, "-o", out_file, "--json"], capsys)
+    assert code == 0, err
+    report = json.loads(out)["report"]
+    assert report["tolerance"] == pytest.approx(0.001) and len(report["gaps_closed"]) == 1
