@@ -24,11 +24,87 @@ Examples
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass, field
 from typing import Any, Dict, Optional, Sequence, Tuple
 
-from revolve.errors import ProfileError
+from revolve.errors import FormatError, ProfileError
 from revolve.formats.document import ProfileDocument
+
+#: Largest coordinate (or other length) a drawing may hold, in its own unit: squares and cubes
+#: of it (areas, volumes, second moments) stay far inside the range of floating point.
+MAX_COORDINATE = 1e15
+#: Largest drawing file read, in bytes.
+MAX_DRAWING_BYTES = 64 * 1024 * 1024
+
+
+def one_line(text: Any) -> str:
+    """``text`` with every control character (newline, tab, ...) escaped as Python writes it.
+
+    Messages from libraries or from a user's own input may carry a newline;
+    an error must stay one line.
+
+    >>> one_line('Invalid group code "1e9\\n"')
+    'Invalid group code "1e9\\\\n"'
+    >>> one_line("plain")
+    'plain'
+    """
+    text = str(text)
+    return "".join(repr(ch)[1:-1] if (ord(ch) < 32 or 127 <= ord(ch) < 160) else ch
+                   for ch in text)
+
+
+def checked_number(value: Any, what: str, *, file: Optional[str] = None,
+                   line: Optional[int] = None, place: Optional[str] = None) -> float:
+    """``value`` as a float, refused unless finite and within :data:`MAX_COORDINATE`.
+
+    Raises
+    ------
+    FormatError
+        Naming ``what``, the value and the allowed range.
+
+    Examples
+    --------
+    >>> checked_number("2.5", "x")
+    2.5
+    >>> checked_number(1e308, "the centre's x", file="a.dxf", place="CIRCLE #1")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a.dxf: CIRCLE #1: the centre's x is 1e+308, outside the range read (-1e+15 to 1e+15 in the drawing's unit); squares and cubes of larger numbers overflow
+    >>> checked_number(float("nan"), "a bulge")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: a bulge is nan, not a finite number
+    """
+    try:
+        v = float(value)
+    except (TypeError, ValueError, OverflowError):
+        raise FormatError(f"{what} is not a number ({one_line(repr(value))[:40]})", file=file,
+                          line=line, place=place) from None
+    if not math.isfinite(v):
+        raise FormatError(f"{what} is {v}, not a finite number", file=file, line=line,
+                          place=place)
+    if abs(v) > MAX_COORDINATE:
+        raise FormatError(f"{what} is {v:g}, outside the range read (-{MAX_COORDINATE:g} to "
+                          f"{MAX_COORDINATE:g} in the drawing's unit); squares and cubes of "
+                          "larger numbers overflow", file=file, line=line, place=place)
+    return v
+
+
+def check_file_size(path: str, limit: int = MAX_DRAWING_BYTES) -> None:
+    """Refuse a drawing larger than ``limit`` bytes (a missing file is left to the reader).
+
+    >>> check_file_size("no_such_file.dxf")
+    """
+    import os
+
+    try:
+        size = os.path.getsize(path)
+    except OSError:
+        return
+    if size > limit:
+        raise FormatError(f"the drawing is {size / 2 ** 20:.0f} MiB, more than the "
+                          f"{limit / 2 ** 20:.0f} MiB read; simplify or split it", file=path)
 
 
 @dataclass(frozen=True)
@@ -133,6 +209,10 @@ class DrawingReport:
         The gap tolerance used for chaining, in the profile's unit.
     notes : tuple of str
         Anything else worth knowing (a coordinate flip, an assumption).
+    warnings : tuple of str
+        What the user must look at: loops or chains not joined to the main
+        outline (left out unless asked for), anything read on an assumption
+        that changes the figures.
     """
 
     source: str
@@ -146,6 +226,7 @@ class DrawingReport:
     axis: Optional[str] = None
     tolerance: Optional[float] = None
     notes: Tuple[str, ...] = field(default=())
+    warnings: Tuple[str, ...] = field(default=())
 
     def as_dict(self) -> Dict[str, Any]:
         """The report as plain JSON-ready values."""
@@ -155,7 +236,8 @@ class DrawingReport:
                 "chains": [p.as_dict() for p in self.chains],
                 "gaps_closed": [g.as_dict() for g in self.gaps_closed],
                 "skipped": [s.as_dict() for s in self.skipped],
-                "axis": self.axis, "tolerance": self.tolerance, "notes": list(self.notes)}
+                "axis": self.axis, "tolerance": self.tolerance, "notes": list(self.notes),
+                "warnings": list(self.warnings)}
 
     def summary_line(self) -> str:
         """One line: how many loops and chains, and the unit."""
@@ -186,6 +268,123 @@ def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> 
         target.append(PathFound(kind, len(target) + 1, kinds.count("line"), kinds.count("arc"),
                                 kinds.count("curve"), (float(start[0]), float(start[1])), source))
     return tuple(loops), tuple(chains)
+
+
+#: The convert option that keeps stray loops and chains.
+KEEP_STRAYS_OPTION = "--keep-strays"
+
+
+def separate_strays(profile, sources: Sequence[str], *, keep: bool = False):
+    """Find the loops and chains not joined to the main outline; leave them out unless ``keep``.
+
+    The main outline is the loop enclosing the largest area (with no loops,
+    the longest open chain). A loop directly inside it is a hole and stays;
+    anything else -- a loop beside it, an island inside one of its holes, an
+    open chain when there are loops, another open chain when there are none
+    -- is a stray: drawn apart from the part, it would add its own volume.
+    The profile must not cross itself (see :func:`check_no_crossings`), so
+    one point of a loop tells whether it lies inside another.
+
+    Parameters
+    ----------
+    profile : Profile
+    sources : sequence of str
+        Where each path came from, over ``profile.paths`` (loops first).
+    keep : bool
+        Keep the strays (they are still warned about).
+
+    Returns
+    -------
+    (Profile, list of str, list of str, list of str)
+        The profile, the sources and kinds ("loop"/"chain") of its paths, and
+        one warning per stray.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> square = lambda x, y, a: Loop.from_points([(x, y), (x + a, y), (x + a, y + a), (x, y + a)])
+    >>> part = Profile(loops=(square(0, 10, 40), square(10, 20, 5), square(60, 10, 4)))
+    >>> kept, sources, kinds, warnings = separate_strays(part, ["outline", "hole", "circle"])
+    >>> len(kept.loops), sources
+    (2, ['outline', 'hole'])
+    >>> warnings   # doctest: +NORMALIZE_WHITESPACE
+    ['loop 3 (from circle) is not joined to the main outline (loop 1, from outline) and lies outside it; it was left out (--keep-strays keeps it)']
+    >>> len(separate_strays(part, ["a", "b", "c"], keep=True)[0].loops)
+    3
+    >>> separate_strays(Profile(), [])[3]
+    []
+    """
+    from dataclasses import replace
+
+    import numpy as np
+
+    from revolve.geometry.checks import _point_in_polygon, flatten
+
+    paths = profile.paths
+    if len(paths) < 2:
+        return profile, list(sources), ["loop" if p.closed else "chain" for p in paths], []
+    flat = []
+    for p in paths:
+        pieces = [flatten(s) for s in p.segments]
+        flat.append(np.vstack([pieces[0]] + [f[1:] for f in pieces[1:]]) if pieces
+                    else np.zeros((0, 2)))
+    loops = [k for k, p in enumerate(paths) if p.closed]
+
+    def area(poly) -> float:
+        x, y = poly[:, 0], poly[:, 1]
+        return abs(float(np.dot(x, np.roll(y, -1)) - np.dot(y, np.roll(x, -1)))) / 2
+
+    def length(poly) -> float:
+        return float(np.hypot(*np.diff(poly, axis=0).T).sum()) if len(poly) > 1 else 0.0
+
+    def probe(poly):
+        return (poly[0] + poly[1]) / 2 if len(poly) > 1 else poly[0]
+
+    def closed_poly(poly):
+        return poly if np.array_equal(poly[0], poly[-1]) else np.vstack([poly, poly[:1]])
+
+    boxes = [(f.min(axis=0), f.max(axis=0)) if len(f) else (np.zeros(2), np.zeros(2))
+             for f in flat]
+
+    def inside(k: int, m: int) -> bool:
+        if not (np.all(boxes[m][0] <= boxes[k][0]) and np.all(boxes[k][1] <= boxes[m][1])):
+            return False  # k's extent is not within m's: it cannot lie inside m
+        px, py = probe(flat[k])
+        return _point_in_polygon(float(px), float(py), closed_poly(flat[m]))
+
+    def name(k: int) -> str:
+        number = (loops.index(k) + 1) if paths[k].closed else (k - len(loops) + 1)
+        return f"{'loop' if paths[k].closed else 'chain'} {number} (from {sources[k]})"
+
+    if loops:
+        main = max(loops, key=lambda k: area(flat[k]))
+    else:
+        main = max(range(len(paths)), key=lambda k: length(flat[k]))
+    stray = []
+    for k in range(len(paths)):
+        if k == main:
+            continue
+        if paths[k].closed and paths[main].closed and inside(k, main):
+            depth = sum(inside(k, m) for m in loops if m != k)
+            if depth == 1:
+                continue  # a hole in the main outline
+            where = "inside one of its holes"
+        elif paths[main].closed and inside(k, main):
+            where = "inside it"
+        else:
+            where = "outside it"
+        stray.append((k, where))
+    main_name = name(main).replace(" (from ", ", from ")[:-1]
+    warnings = [f"{name(k)} is not joined to the main outline ({main_name}) and lies {where}; "
+                + ("it was kept as asked" if keep else
+                   f"it was left out ({KEEP_STRAYS_OPTION} keeps it)")
+                for k, where in stray]
+    drop = set() if keep else {k for k, _ in stray}
+    kept = [k for k in range(len(paths)) if k not in drop]
+    new = replace(profile, loops=tuple(paths[k] for k in kept if paths[k].closed),
+                  chains=tuple(paths[k] for k in kept if not paths[k].closed))
+    return (new, [sources[k] for k in kept],
+            ["loop" if paths[k].closed else "chain" for k in kept], warnings)
 
 
 def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") -> None:
@@ -259,8 +458,29 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
 
 # -- lazy entry points -----------------------------------------------------------------
 
+def _no_strays(result) -> ProfileDocument:
+    """The document of a reader's result, refused when the drawing has strays.
+
+    A command that measures a drawing directly has no report to show, so a
+    loop or chain apart from the main outline is refused rather than left
+    out in silence; ``revolve convert`` reports it and leaves it out (or
+    keeps it with ``--keep-strays``).
+    """
+    doc, report = result
+    if report.warnings:
+        first = report.warnings[0].split(" and lies ")[0]
+        more = f" (and {len(report.warnings) - 1} more)" if len(report.warnings) > 1 else ""
+        raise FormatError(f"{first}{more}; run revolve convert on the drawing, which reports "
+                          f"it and leaves it out ({KEEP_STRAYS_OPTION} keeps it), and use the "
+                          "profile file it writes", file=report.source)
+    return doc
+
+
 def read_svg_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
-    """Read the one ``<path>`` of an SVG file (see :func:`revolve.formats.svg.read_svg`).
+    """Read the paths and shapes of an SVG file (see :func:`revolve.formats.svg.read_svg`).
+
+    A loop or chain not joined to the main outline is refused here (see
+    ``_no_strays``): only ``revolve convert`` reports and leaves them out.
 
     >>> read_svg_file("no_such_drawing.svg")
     Traceback (most recent call last):
@@ -269,14 +489,14 @@ def read_svg_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """
     from revolve.formats.svg import read_svg
 
-    return read_svg(path, unit=unit)[0]
+    return _no_strays(read_svg(path, unit=unit))
 
 
 def read_svg_path_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """Read a file holding bare SVG path data (see :func:`revolve.formats.svg.read_path_data_file`)."""
     from revolve.formats.svg import read_path_data_file
 
-    return read_path_data_file(path, unit=unit)[0]
+    return _no_strays(read_path_data_file(path, unit=unit))
 
 
 def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
@@ -289,7 +509,7 @@ def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
     """
     from revolve.formats.dxf import read_dxf
 
-    return read_dxf(path, unit=unit)[0]
+    return _no_strays(read_dxf(path, unit=unit))
 
 
 #: Readers of drawings by file name ending, for :func:`revolve.formats.register_reader`.

@@ -20,17 +20,32 @@ become segments:
 * ``ELLIPSE`` the parametric curve ``centre + major cos t + minor sin t``
   (an ellipse with ratio 1 is a circle and becomes arcs).
 
+Block references (``INSERT``) are expanded: their entities are placed by the
+insertion point, scales and rotation (through ezdxf's
+``Insert.virtual_entities``), nested references in turn, at most
+:data:`MAX_BLOCK_DEPTH` deep.
+
 Entities are then chained end to end: ends closer than the gap tolerance
-(default :data:`DEFAULT_RELATIVE_TOLERANCE` times the drawing's size, the
-diagonal of its extent) are joined. A gap wider than 1e-9 of the size is
+are joined. Its default (:func:`default_gap_tolerance`) is the larger of
+1e-4 of the drawing's size (the diagonal of its extent) and 0.001 in
+(0.0254 mm) in the drawing's unit -- the rounding CAD exports commonly
+leave -- but never more than 1e-3 of the size. A gap wider than 1e-9 of the size is
 closed by moving the end of a straight line onto the other end, or, between
 two arcs or curves, by a short straight line; each such gap is reported.
 Chains that close become loops; ends that meet nothing are refused unless
 open chains are allowed (a surface only), with the nearest free end and its
 distance in the message. Three or more ends meeting, and a profile crossing
-itself after chaining, are refused.
+itself after chaining, are refused. Loops and chains not joined to the main
+outline (the loop of largest area; loops directly inside it are its holes)
+are strays: each is warned about and left out unless asked for
+(:func:`revolve.formats.drawings.separate_strays`).
 
-Other entities (text, dimensions, hatches, block references, points...)
+Every number read is checked: finite, and within ±1e15 of the drawing's
+unit (:data:`revolve.formats.drawings.MAX_COORDINATE`). Whatever ezdxf
+raises on a broken file or entity becomes one :class:`FormatError` line
+naming the file (and the entity).
+
+Other entities (text, dimensions, hatches, points...)
 are skipped and reported with the reason, as are entities on layers that are
 off or frozen, on layers other than the one chosen, exact duplicates, and
 entities smaller than the gap tolerance.
@@ -63,19 +78,31 @@ from dataclasses import dataclass, replace
 from fractions import Fraction
 from typing import Any, Dict, List, Optional, Sequence, Tuple
 
-from revolve.errors import FormatError, UnitError
+from revolve.errors import FormatError, RevolveError, UnitError
 from revolve.formats.document import ProfileDocument
-from revolve.formats.drawings import (DrawingReport, GapClosed, Skipped, check_no_crossings,
-                                      summarise_paths)
+from revolve.formats.drawings import (DrawingReport, GapClosed, Skipped, check_file_size,
+                                      MAX_COORDINATE, check_no_crossings, checked_number,
+                                      one_line, separate_strays, summarise_paths)
 from revolve.formats.values import check_length_unit
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
 from revolve.geometry.segments import (Arc, Line, Where, arc_from_centre, arc_from_radius,
                                        curve_from_expressions)
 
-#: Gap tolerance for chaining, as a fraction of the drawing's size, unless one is given.
-DEFAULT_RELATIVE_TOLERANCE = 1e-6
+#: Gap tolerance for chaining, as a fraction of the drawing's size, unless one is given ...
+DEFAULT_RELATIVE_TOLERANCE = 1e-4
+#: ... but at least this many millimetres (0.001 in), in the drawing's unit ...
+DEFAULT_ABSOLUTE_TOLERANCE_MM = 0.0254
+#: ... and never more than this fraction of the size.
+MAX_DEFAULT_RELATIVE_TOLERANCE = 1e-3
+#: The option that sets the gap tolerance, named in messages.
+GAP_OPTION = "--gap-tolerance"
 #: Gaps up to this fraction of the size are within the engine's own tolerance and not reported.
 JOIN_TOLERANCE = 1e-9
+#: A bulge this small (sagitta under 2.5e-10 of the chord) is a straight line.
+BULGE_STRAIGHT = 1e-9
+#: Deepest nesting of block references expanded, and the most entities read.
+MAX_BLOCK_DEPTH = 8
+MAX_ENTITIES = 100_000
 #: Highest spline degree read exactly.
 MAX_SPLINE_DEGREE = 5
 
@@ -99,7 +126,6 @@ _SKIP_REASONS = {
     "HATCH": "a hatch is a fill, not a boundary; the boundary's own entities are read",
     "MPOLYGON": "a fill, not a boundary", "SOLID": "a filled area, not a boundary",
     "TRACE": "a filled area, not a boundary", "WIPEOUT": "a mask, not geometry",
-    "INSERT": "a block reference is not expanded; explode the block in the drawing",
     "POINT": "a point is not a boundary", "XLINE": "an infinite construction line",
     "RAY": "an infinite construction line", "IMAGE": "an image is not geometry",
     "VIEWPORT": "a viewport is not geometry", "3DFACE": "a 3-D face is not a profile",
@@ -111,7 +137,16 @@ _SKIP_REASONS = {
 
 
 def _xy(v) -> Tuple[float, float]:
-    return (float(v[0]), float(v[1]))
+    """A point's x and y, each checked: finite and within the range read."""
+    return (checked_number(v[0], "an x coordinate"), checked_number(v[1], "a y coordinate"))
+
+
+def _xyz(v) -> Tuple[float, float, float]:
+    return _xy(v) + ((checked_number(v[2], "a z coordinate") if len(v) > 2 else 0.0),)
+
+
+def _value(v, what: str) -> float:
+    return checked_number(v, what)
 
 
 def _dec(value: float) -> Fraction:
@@ -136,6 +171,8 @@ def bulge_arc(start, end, bulge: float, where: Optional[Where] = None) -> Arc:
     """
     chord = math.hypot(end[0] - start[0], end[1] - start[1])
     b = abs(float(bulge))
+    if b <= BULGE_STRAIGHT:
+        return Line(tuple(start), tuple(end), where=where)
     radius = chord * (1 + b * b) / (4 * b)
     side = "right" if bulge > 0 else "left"
     return arc_from_radius(start, end, radius, side=side, major=b > 1, where=where)
@@ -225,10 +262,9 @@ class _Piece:
     number: int
 
 
-def _is_centre(entity, doc, axis_layer: Optional[str]) -> bool:
+def _is_centre(entity, doc, axis_layer: Optional[str], layer: str) -> bool:
     if entity.dxftype() not in ("LINE", "XLINE", "RAY"):
         return False
-    layer = entity.dxf.get("layer", "0")
     if axis_layer is not None and layer.casefold() == axis_layer.casefold():
         return True
     linetype = entity.dxf.get("linetype", "BYLAYER")
@@ -252,6 +288,30 @@ class _Unsupported(Exception):
     """An entity that cannot be read; the message is the reason."""
 
 
+def _block_contents(insert, depth: int) -> List[Any]:
+    """The entities of a block reference, placed by its insertion point, scale and rotation.
+
+    ezdxf's ``Insert.virtual_entities`` does the placing (and turns a circle
+    under unequal scales into an ellipse); nested references come back as
+    references themselves and are expanded in turn, at most
+    :data:`MAX_BLOCK_DEPTH` deep. Array references (rows and columns) give
+    every copy.
+    """
+    if depth >= MAX_BLOCK_DEPTH:
+        raise _Unsupported(f"block references are nested more than {MAX_BLOCK_DEPTH} deep")
+    _xyz(insert.dxf.insert)
+    for name in ("xscale", "yscale", "zscale"):
+        if _value(insert.dxf.get(name, 1.0), f"the {name[0]} scale") == 0:
+            raise _Unsupported(f"its {name[0]} scale is zero")
+    _value(insert.dxf.get("rotation", 0.0), "the rotation")
+    if insert.block() is None:
+        raise _Unsupported(f"its block '{one_line(insert.dxf.get('name', '?'))}' is not defined")
+    copies = list(insert.multi_insert()) if insert.mcount > 1 else [insert]
+    if len(copies) > MAX_ENTITIES:
+        raise _Unsupported(f"its array has more than {MAX_ENTITIES} copies")
+    return [item for copy in copies for item in copy.virtual_entities()]
+
+
 def _entity_segments(entity, label: str, file: Optional[str]) -> List[Any]:
     kind = entity.dxftype()
     where = Where(file, None, label)
@@ -264,12 +324,12 @@ def _entity_segments(entity, label: str, file: Optional[str]) -> List[Any]:
         sign = _plane_sign(entity)
         if sign is None:
             raise _Unsupported("it is not drawn in the XY plane")
-        radius = float(entity.dxf.radius)
+        radius = _value(entity.dxf.radius, "the radius")
         if not radius > 0:
             raise _Unsupported("its radius is zero")
         centre = _xy(entity.ocs().to_wcs(entity.dxf.center))
-        full = kind == "CIRCLE" or (float(entity.dxf.end_angle) - float(entity.dxf.start_angle)) \
-            % 360 == 0
+        full = kind == "CIRCLE" or (_value(entity.dxf.end_angle, "the end angle") -
+                                    _value(entity.dxf.start_angle, "the start angle")) % 360 == 0
         if full:
             a = (centre[0] + radius, centre[1])
             b = (centre[0] - radius, centre[1])
@@ -284,8 +344,9 @@ def _entity_segments(entity, label: str, file: Optional[str]) -> List[Any]:
         if sign is None:
             raise _Unsupported("it is not drawn in the XY plane")
         ocs = entity.ocs()
-        z = float(entity.dxf.get("elevation", 0.0))
-        vertices = [(_xy(ocs.to_wcs((x, y, z))), float(b) * sign)
+        z = _value(entity.dxf.get("elevation", 0.0), "the elevation")
+        vertices = [(_xy(ocs.to_wcs((_value(x, "an x coordinate"), _value(y, "a y coordinate"),
+                                     z))), _value(b, "a bulge") * sign)
                     for x, y, b in entity.get_points("xyb")]
         return _polyline(vertices, bool(entity.closed), label, file)
     if kind == "POLYLINE":
@@ -324,10 +385,10 @@ def _old_polyline(entity, label: str, file) -> List[Any]:
         if sign is None:
             raise _Unsupported("it is not drawn in the XY plane")
         ocs = entity.ocs()
-        pts = [(_xy(ocs.to_wcs(v.dxf.location)), float(v.dxf.get("bulge", 0.0)) * sign)
-               for v in vertices]
+        pts = [(_xy(ocs.to_wcs(_xyz(v.dxf.location))),
+                _value(v.dxf.get("bulge", 0.0), "a bulge") * sign) for v in vertices]
     else:
-        zs = [float(v.dxf.location[2]) for v in vertices]
+        zs = [_value(v.dxf.location[2], "a z coordinate") for v in vertices]
         if zs and max(zs) - min(zs) > 1e-9 * max(1.0, max(abs(z) for z in zs)):
             raise _Unsupported("a 3-D polyline that does not lie flat")
         pts = [(_xy(v.dxf.location), 0.0) for v in vertices]
@@ -341,12 +402,19 @@ def _ellipse(entity, where: Where) -> List[Any]:
         raise _Unsupported("it is not drawn in the XY plane")
     c = _xy(entity.dxf.center)
     major = _xy(entity.dxf.major_axis)
+    ratio = _value(entity.dxf.ratio, "the ratio of its axes")
+    if math.hypot(*major) == 0 or not 0 < ratio <= 1:
+        raise _Unsupported(f"its axes are zero or its ratio of axes ({ratio:g}) is not above 0 "
+                           "and at most 1")
     minor = _xy(entity.minor_axis)
-    t0, t1 = float(entity.dxf.start_param), float(entity.dxf.end_param)
+    t0 = _value(entity.dxf.start_param, "the start parameter")
+    t1 = _value(entity.dxf.end_param, "the end parameter")
+    if abs(t0) > 1e6 or abs(t1) > 1e6:
+        raise _Unsupported("its start or end parameter is beyond ±1e6 radians")
     while t1 <= t0:
         t1 += 2 * math.pi
     full = abs(t1 - t0 - 2 * math.pi) <= 1e-12
-    if abs(float(entity.dxf.ratio) - 1) <= 1e-12:  # a circle
+    if abs(ratio - 1) <= 1e-12:  # a circle
         def at(s):
             return (c[0] + major[0] * math.cos(s) + minor[0] * math.sin(s),
                     c[1] + major[1] * math.cos(s) + minor[1] * math.sin(s))
@@ -369,19 +437,19 @@ def _spline(entity, label: str, file) -> List[Any]:
     import sympy
 
     degree = int(entity.dxf.degree)
-    control = [tuple(p) for p in entity.control_points]
+    control = [_xyz(p) for p in entity.control_points]
     if not control:
         raise _Unsupported("it is given by fit points only, whose curve depends on the program "
                            "that drew it; save it with control points")
     if not 1 <= degree <= MAX_SPLINE_DEGREE:
         raise _Unsupported(f"its degree {degree} is outside 1 to {MAX_SPLINE_DEGREE}")
-    knots = [float(u) for u in entity.knots]
+    knots = [_value(u, "a knot") for u in entity.knots]
     if len(knots) != len(control) + degree + 1:
         raise _Unsupported(f"it has {len(knots)} knots but {len(control)} control points of "
                            f"degree {degree} need {len(control) + degree + 1}")
     if any(b < a for a, b in zip(knots, knots[1:])):
         raise _Unsupported("its knots decrease")
-    weights = [float(w) for w in entity.weights]
+    weights = [_value(w, "a weight") for w in entity.weights]
     if weights and len(weights) != len(control):
         raise _Unsupported("it has a different number of weights and control points")
     if weights and min(weights) <= 0:
@@ -419,6 +487,29 @@ def _spline(entity, label: str, file) -> List[Any]:
 
 
 # -- chaining ------------------------------------------------------------------------------
+
+def default_gap_tolerance(size: float, unit: str) -> float:
+    """The gap tolerance used when none is given, in the drawing's unit.
+
+    The larger of 1e-4 of the drawing's size and 0.001 in (0.0254 mm), but
+    at most 1e-3 of the size.
+
+    Examples
+    --------
+    >>> default_gap_tolerance(2.5, "in")      # a small part drawn in inches: 0.001 in
+    0.001
+    >>> default_gap_tolerance(1000.0, "mm")   # a large one: 1e-4 of its size
+    0.1
+    >>> default_gap_tolerance(5.0, "mm")      # a tiny one: 1e-3 of its size
+    0.005
+    """
+    from revolve.units import factor
+
+    absolute = DEFAULT_ABSOLUTE_TOLERANCE_MM * 1e-3 / factor(unit, "length")
+    value = min(max(DEFAULT_RELATIVE_TOLERANCE * size, absolute),
+                MAX_DEFAULT_RELATIVE_TOLERANCE * size)
+    return float(f"{value:.12g}")
+
 
 def _reverse(segments) -> Tuple[Any, ...]:
     return tuple(s.reversed() for s in reversed(segments))
@@ -490,7 +581,8 @@ def _chain_pieces(pieces: List[_Piece], tolerance: float, tiny: float, file,
             x, y = ends[ends_here[0]]
             raise FormatError(f"at ({x:.6g}, {y:.6g}) {len(ends_here)} ends meet ({names}); a "
                               "profile boundary cannot branch: remove the extra entities, choose "
-                              f"a layer, or lower the gap tolerance (now {tolerance:.3g})",
+                              f"a layer, or lower the gap tolerance ({GAP_OPTION}, now "
+                              f"{tolerance:.3g})",
                               file=file)
     visited = [False] * n
     walks = []
@@ -563,8 +655,8 @@ def _refuse_open(free, ends, pieces, tolerance, file, skipped_hint, walk_of) -> 
                  else pieces[f // 2].label)
         text += (f"; the nearest free end ({whose}, at ({ends[f][0]:.6g}, {ends[f][1]:.6g})) is "
                  f"{d[k]:.3g} away, more than the gap tolerance {tolerance:.3g}")
-    text += ("; close the gap in the drawing, raise the gap tolerance, or allow open chains "
-             "(surfaces only)")
+    text += (f"; close the gap in the drawing, raise the gap tolerance ({GAP_OPTION}, now "
+             f"{tolerance:.3g}), or allow open chains (--open, surfaces only)")
     raise FormatError(text + skipped_hint, file=file)
 
 
@@ -652,6 +744,25 @@ def _label(kind: str, number: int, entity) -> str:
     return f"{kind} #{number} (" + (f"handle {handle}, " if handle else "") + f"layer {layer})"
 
 
+def _detail(exc: BaseException, path: Optional[str] = None) -> str:
+    """A library's message on one line, without the file name (the error names it).
+
+    >>> _detail(ValueError('Invalid group code "1e9\\n" at line 3.'))
+    'Invalid group code "1e9\\\\n" at line 3.'
+    >>> _detail(StopIteration())
+    'StopIteration: the file ends early'
+    """
+    detail = str(exc)
+    if path:
+        detail = detail.replace(f"'{path}'", "").replace(path, "")
+    detail = one_line(detail.strip())[:200]
+    if isinstance(exc, (StopIteration, EOFError)):
+        return f"{type(exc).__name__}: the file ends early"
+    if "is not a DXF file" in detail or not detail:
+        return "it does not start like a DXF file"
+    return detail
+
+
 def _open(path: str):
     import logging
 
@@ -661,6 +772,7 @@ def _open(path: str):
         raise FormatError("no such file; check the name and folder", file=path)
     if os.path.isdir(path):
         raise FormatError("this is a folder, not a drawing", file=path)
+    check_file_size(path)
     log = logging.getLogger("ezdxf")
     level = log.level
     log.setLevel(logging.CRITICAL)
@@ -668,12 +780,11 @@ def _open(path: str):
         return ezdxf.readfile(path)
     except PermissionError:
         raise FormatError("permission denied; the file cannot be read", file=path) from None
-    except (ezdxf.DXFError, OSError, UnicodeError, ValueError, EOFError, IndexError,
-            KeyError, TypeError) as exc:
-        detail = str(exc).replace(f"'{path}'", "").replace(path, "").strip()
-        if "is not a DXF file" in detail or not detail:
-            detail = "it does not start like a DXF file"
-        raise FormatError(f"this is not a DXF drawing that can be read ({detail})",
+    except (MemoryError, RecursionError):
+        raise FormatError("the drawing is too large or too deeply nested to read",
+                          file=path) from None
+    except Exception as exc:  # noqa: BLE001 - ezdxf's parser raises many kinds on broken files
+        raise FormatError(f"this is not a DXF drawing that can be read ({_detail(exc, path)})",
                           file=path) from None
     finally:
         log.setLevel(level)
@@ -681,8 +792,8 @@ def _open(path: str):
 
 def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = None,
              axis: Optional[Axis] = None, axis_layer: Optional[str] = None,
-             tolerance: Optional[float] = None, open_chains: bool = False
-             ) -> Tuple[ProfileDocument, DrawingReport]:
+             tolerance: Optional[float] = None, open_chains: bool = False,
+             keep_strays: bool = False) -> Tuple[ProfileDocument, DrawingReport]:
     """Read a DXF drawing's model space as a profile.
 
     Parameters
@@ -701,10 +812,13 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
         A layer whose lines are centre lines, whatever their linetype.
     tolerance : float, optional
         The gap tolerance for chaining, in the drawing's unit; default
-        1e-6 of the drawing's size.
+        :func:`default_gap_tolerance`.
     open_chains : bool
         Keep ends that meet nothing as open chains (surfaces only) instead
         of refusing them.
+    keep_strays : bool
+        Keep loops and chains not joined to the main outline (they are
+        warned about either way).
 
     Returns
     -------
@@ -749,38 +863,70 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
     def skip(what: str, kind: str, reason: str) -> None:
         skipped.setdefault((kind, reason), []).append(what)
 
-    for number, entity in enumerate(msp, 1):
-        kind = entity.dxftype()
-        label = _label(kind, number, entity)
-        layer_name = entity.dxf.get("layer", "0")
-        if _is_centre(entity, drawing, axis_layer):
-            centres.append((label, entity))
-            continue
-        table = drawing.layers.get(layer_name) if drawing.layers.has_entry(layer_name) else None
-        if kind not in _SKIP_REASONS:
-            layers_seen[layer_name] = layers_seen.get(layer_name, 0) + 1
-        if chosen is not None and layer_name.casefold() != chosen:
-            skip(label, f"on layer {layer_name}", f"not on the chosen layer {layer}")
-            continue
-        if chosen is None and table is not None and (table.is_off() or table.is_frozen()):
-            skip(label, f"on layer {layer_name}", f"the layer {layer_name} is off or frozen")
-            continue
-        if any(word in layer_name.casefold() for word in _CENTRE_LAYER_WORDS) and \
-                kind not in ("LINE", "XLINE", "RAY"):
-            skip(label, kind, "it is on a centre-line layer")
-            continue
+    counter = [0]
+
+    def read_entity(entity, number: int, context: str, depth: int,
+                    inherited_layer: Optional[str]) -> None:
+        counter[0] += 1
+        if counter[0] > MAX_ENTITIES:
+            raise FormatError(f"the drawing has more than {MAX_ENTITIES} entities (block "
+                              "references expanded); simplify it", file=path)
+        label = f"entity #{number}{context}"
+        kind = "entity"
         try:
+            kind = entity.dxftype()
+            label = _label(kind, number, entity) + context
+            layer_name = entity.dxf.get("layer", "0")
+            if inherited_layer is not None and layer_name == "0":
+                layer_name = inherited_layer  # block contents on layer 0 take the reference's
+            if _is_centre(entity, drawing, axis_layer, layer_name):
+                centres.append((label, entity))
+                return
+            table = drawing.layers.get(layer_name) if drawing.layers.has_entry(layer_name) \
+                else None
+            if kind not in _SKIP_REASONS:
+                layers_seen[layer_name] = layers_seen.get(layer_name, 0) + 1
+            if chosen is not None and layer_name.casefold() != chosen:
+                skip(label, f"on layer {layer_name}",
+                     f"not on the chosen layer {one_line(layer)[:60]}")
+                return
+            if chosen is None and table is not None and (table.is_off() or table.is_frozen()):
+                skip(label, f"on layer {layer_name}", f"the layer {layer_name} is off or frozen")
+                return
+            if any(word in layer_name.casefold() for word in _CENTRE_LAYER_WORDS) and \
+                    kind not in ("LINE", "XLINE", "RAY"):
+                skip(label, kind, "it is on a centre-line layer")
+                return
+            if kind == "INSERT":
+                contents = _block_contents(entity, depth)
+                name = one_line(entity.dxf.get("name", "?"))
+                inside = f" in block '{name}' of {label}"
+                for k, item in enumerate(contents, 1):
+                    read_entity(item, k, inside, depth + 1, layer_name)
+                return
             segments = _entity_segments(entity, label, path)
-            if not all(math.isfinite(v) for seg in segments for v in seg.start + seg.end):
-                raise _Unsupported("a coordinate is not a finite number")
+            pieces.append(_Piece(tuple(segments), label, number))
         except _Unsupported as exc:
             skip(label, kind, str(exc))
-            continue
-        pieces.append(_Piece(tuple(segments), label, number))
+        except RevolveError as exc:
+            raise exc.located(file=path, place=label) from None
+        except (MemoryError, RecursionError):
+            raise FormatError("the entity is too large or too deeply nested to read", file=path,
+                              place=label) from None
+        except Exception as exc:  # noqa: BLE001 - ezdxf raises many kinds on broken entities
+            raise FormatError(f"the entity cannot be read ({_detail(exc)})", file=path,
+                              place=label) from None
+
+    try:
+        entities = list(msp)
+    except Exception as exc:  # noqa: BLE001
+        raise FormatError(f"the model space cannot be read ({_detail(exc)})", file=path) from None
+    for number, entity in enumerate(entities, 1):
+        read_entity(entity, number, "", 0, None)
     if chosen is not None and not any(name.casefold() == chosen for name in layers_seen):
         names = ", ".join(sorted(layers_seen)) or "none"
-        raise FormatError(f'there is no geometry on layer "{layer}"; layers with entities: '
-                          f"{names}", file=path)
+        raise FormatError(f'there is no geometry on layer "{one_line(layer)[:60]}"; layers '
+                          f"with entities: {one_line(names)}", file=path)
     skipped_list = _skipped_list(skipped)
     hint = _hint(skipped_list)
     if not pieces:
@@ -790,10 +936,11 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
     if size == 0:
         raise FormatError("every entity of the drawing is at one point", file=path)
     if tolerance is None:
-        tolerance = DEFAULT_RELATIVE_TOLERANCE * size
-    elif not (math.isfinite(tolerance) and tolerance > 0):
-        raise FormatError(f"the gap tolerance must be a positive number, got {tolerance:g}",
-                          file=path)
+        tolerance = default_gap_tolerance(size, unit_name)
+    elif not (math.isfinite(tolerance) and 0 < tolerance <= MAX_COORDINATE):
+        raise FormatError(f"the gap tolerance must be a positive number up to "
+                          f"{MAX_COORDINATE:g}, got {tolerance:g}", file=None,
+                          place=GAP_OPTION)
     pieces, more = _remove_duplicates_and_specks(pieces, tolerance)
     skipped_list += more
     hint = _hint(skipped_list)
@@ -812,13 +959,14 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
             chain_src.append(source)
     profile = Profile(loops=tuple(loops), chains=tuple(chains), unit=unit_name, file=path)
     check_no_crossings(profile, file=path, after="after chaining, ")
+    profile, sources, kinds, warnings = separate_strays(profile, loop_src + chain_src,
+                                                        keep=keep_strays)
     axis_note = "given" if axis is not None else None
     if axis is None:
         axis, axis_note = _axis_from(centres, path, tolerance)
     elif centres:
         axis_note = f"given (the drawing's {len(centres)} centre line(s) were not used)"
-    found_loops, found_chains = summarise_paths(profile, loop_src + chain_src,
-                                                ["loop"] * len(loops) + ["chain"] * len(chains))
+    found_loops, found_chains = summarise_paths(profile, sources, kinds)
     notes = []
     if axis is None:
         notes.append("the drawing has no centre line (a line with a CENTER linetype or on a "
@@ -827,7 +975,7 @@ def read_dxf(path: str, *, unit: Optional[str] = None, layer: Optional[str] = No
     report = DrawingReport(source=path, kind="DXF drawing", unit=unit_name,
                            unit_source=unit_source, loops=found_loops, chains=found_chains,
                            gaps_closed=tuple(gaps), skipped=tuple(skipped_list), axis=axis_note,
-                           tolerance=tolerance, notes=tuple(notes))
+                           tolerance=tolerance, notes=tuple(notes), warnings=tuple(warnings))
     return ProfileDocument(profile=profile, axis=axis, exact=exact), report
 
 

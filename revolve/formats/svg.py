@@ -29,6 +29,22 @@ Subpaths: one closed by ``Z`` (or ending exactly where it started) is a
 loop; any other is an open chain (a surface only). A subpath with nothing
 but a moveto draws nothing and is left out.
 
+Shapes: ``<rect>`` (with ``rx``/``ry`` rounded corners), ``<circle>``,
+``<ellipse>``, ``<line>``, ``<polyline>`` and ``<polygon>`` are read as the
+path SVG 2 defines for each (:func:`shape_commands`), so their circles stay
+exact arcs. An SVG file gives every path and shape it draws (or those of the
+element or group chosen by id); loops and chains not joined to the main
+outline -- the loop of largest area, whose directly nested loops are its
+holes -- are warned about and left out unless asked for
+(:func:`revolve.formats.drawings.separate_strays`). Text, images, ``<use>``
+references and elements not drawn by themselves are reported as skipped.
+
+Numbers: every number is at most 1e15 in size
+(:data:`revolve.formats.drawings.MAX_COORDINATE`), and so is every point
+and every entry of the transforms once composed: squares and cubes of
+larger numbers (areas, volumes, moments) overflow, so they are refused with
+the allowed range.
+
 Coordinates
 -----------
 SVG's y axis points down the page. The profile's y axis points up, so the
@@ -50,7 +66,10 @@ size is refused.
 The XML is read with :mod:`xml.etree.ElementTree` after a first pass with
 expat that refuses any entity declaration and any DTD internal subset (an
 "entity bomb" expands without limit); a plain ``<!DOCTYPE svg PUBLIC ...>``
-is allowed (no DTD is ever fetched).
+is allowed (no DTD is ever fetched, and with no declarations there is no
+entity to expand -- what defusedxml guards against, with line numbers for
+messages besides). The file is at most :data:`MAX_SVG_BYTES`, with at most
+:data:`MAX_ELEMENTS` elements nested at most :data:`MAX_DEPTH` deep.
 
 Examples
 --------
@@ -78,7 +97,9 @@ from typing import Any, Dict, List, Optional, Sequence, Tuple, Union
 
 from revolve.errors import FormatError
 from revolve.formats.document import ProfileDocument
-from revolve.formats.drawings import DrawingReport, check_no_crossings, summarise_paths
+from revolve.formats.drawings import (MAX_COORDINATE, DrawingReport, Skipped, check_file_size,
+                                      check_no_crossings, one_line, separate_strays,
+                                      summarise_paths)
 from revolve.formats.files import read_text
 from revolve.formats.values import check_length_unit
 from revolve.geometry.profile import Chain, Loop, Profile
@@ -151,7 +172,7 @@ class PathDataError(ValueError):
 def _shown(text: str, pos: int) -> str:
     if pos >= len(text):
         return "the end of the path data"
-    piece = text[pos:pos + 12]
+    piece = one_line(text[pos:pos + 12])
     return '"' + piece + ('..."' if len(text) > pos + 12 else '"')
 
 
@@ -164,6 +185,10 @@ def decimal_fraction(text: str) -> Fraction:
     Traceback (most recent call last):
     ...
     ValueError: the exponent of 1e400 is beyond 99
+    >>> decimal_fraction("2e15")
+    Traceback (most recent call last):
+    ...
+    ValueError: the number 2e15 is outside the range read (-1e+15 to 1e+15); squares and cubes of larger numbers overflow
     """
     if len(text) > MAX_LITERAL:
         raise ValueError(f"the number {text[:20]}... is longer than {MAX_LITERAL} characters")
@@ -177,6 +202,9 @@ def decimal_fraction(text: str) -> Fraction:
     digits = int((whole or "0") + decimals)
     power -= len(decimals)
     value = Fraction(digits * 10 ** power) if power >= 0 else Fraction(digits, 10 ** -power)
+    if value > MAX_COORDINATE:
+        raise ValueError(f"the number {text} is outside the range read ({-MAX_COORDINATE:g} to "
+                         f"{MAX_COORDINATE:g}); squares and cubes of larger numbers overflow")
     return sign * value
 
 
@@ -273,7 +301,7 @@ def parse_path_data(d: str) -> Tuple[PathCommand, ...]:
         return ()
     if s.peek() not in "Mm":
         raise PathDataError(f'path data must start with a moveto ("M" or "m"), got '
-                            f'"{s.peek()}"', s.pos + 1)
+                            f'"{one_line(s.peek())}"', s.pos + 1)
     while not s.at_end():
         letter = s.peek()
         if letter.upper() not in _ARGUMENTS or not letter.isalpha():
@@ -416,10 +444,18 @@ def parse_transform(text: str) -> Affine:
             raise PathDataError(f'"{name}" takes {counts} numbers, got {len(args)}', start + 1)
         try:
             total = compose(total, _one_transform(name, args))
+            _check_affine(total)
         except ValueError as exc:
             raise PathDataError(str(exc), start + 1) from None
         s.skip_comma_wsp()
     return total
+
+
+def _check_affine(m: Affine) -> None:
+    """Refuse a map whose entries are beyond :data:`MAX_COORDINATE` (it would overflow)."""
+    if any(abs(v) > MAX_COORDINATE for v in m):
+        raise ValueError(f"the transforms together scale or move by more than "
+                         f"{MAX_COORDINATE:g}; squares and cubes of larger numbers overflow")
 
 
 def _one_transform(name: str, v: Sequence[Fraction]) -> Affine:
@@ -596,11 +632,23 @@ class _Builder:
                               "is zero)", file=file, line=line, place=label.rstrip(", ") or None)
 
     def where(self, subpath: int, letter: str, pos: int) -> Where:
+        if pos <= 0:  # a shape element's own outline: its parts are counted, not positioned
+            return Where(self.file, self.line, f"{self.label}part {-pos}")
         return Where(self.file, self.line, f"{self.label}subpath {subpath}, {letter} at "
                                            f"character {pos}")
 
+    def mapped(self, p: Point, where: Where) -> Point:
+        """``p`` in the profile's coordinates, refused beyond :data:`MAX_COORDINATE`."""
+        q = apply(self.m, p)
+        if abs(q[0]) > MAX_COORDINATE or abs(q[1]) > MAX_COORDINATE:
+            raise FormatError(f"a point lands at ({float(q[0]):.3g}, {float(q[1]):.3g}), outside "
+                              f"the range read ({-MAX_COORDINATE:g} to {MAX_COORDINATE:g} in the "
+                              "profile's unit); squares and cubes of larger numbers overflow",
+                              file=where.file, line=where.line, place=where.place)
+        return q
+
     def line_segment(self, p0: Point, p1: Point, where: Where) -> Optional[Line]:
-        q0, q1 = apply(self.m, p0), apply(self.m, p1)
+        q0, q1 = self.mapped(p0, where), self.mapped(p1, where)
         if q0 == q1:
             return None
         exact = (q0 + q1) if _exact(*q0, *q1) else None
@@ -608,7 +656,7 @@ class _Builder:
         return Line(_floats(q0), _floats(q1), where=where, exact=exact)
 
     def bezier(self, control: Sequence[Point], where: Where):
-        q = [apply(self.m, p) for p in control]
+        q = [self.mapped(p, where) for p in control]
         if all(p == q[0] for p in q):
             return None
         if _straight(q):
@@ -639,6 +687,12 @@ class _Builder:
         if rx == 0 or ry == 0:
             self.notes.append(f"{where.place}: an arc with a zero radius is a straight line")
             return self.line_segment(p0, p1, where)
+        self.mapped(p0, where), self.mapped(p1, where)
+        if max(rx, ry) * max(abs(v) for v in self.m[:4]) > MAX_COORDINATE:
+            raise FormatError(f"the arc's radii ({float(rx):.3g}, {float(ry):.3g}) are beyond "
+                              f"the range read ({MAX_COORDINATE:g} in the profile's unit); "
+                              "squares and cubes of larger numbers overflow", file=where.file,
+                              line=where.line, place=where.place)
         cphi, sphi = _cos_sin_degrees(rotation % 360)
         hx, hy = (p0[0] - p1[0]) / 2, (p0[1] - p1[1]) / 2
         x1p = cphi * hx + sphi * hy
@@ -654,12 +708,14 @@ class _Builder:
             root = math.sqrt(float(lam))
             frx, fry = frx * root, fry * root
         fx1p, fy1p = float(x1p), float(y1p)
-        num = frx * frx * fry * fry - frx * frx * fy1p * fy1p - fry * fry * fx1p * fx1p
-        den = frx * frx * fy1p * fy1p + fry * fry * fx1p * fx1p
-        coef = math.sqrt(max(num / den, 0.0)) if not scaled else 0.0
+        # F.6.5.2 divided through by rx² ry², so that tiny or huge radii neither underflow
+        # nor overflow: with u = x1'/rx, v = y1'/ry the factor is sqrt((1 - u² - v²)/(u² + v²)).
+        u, v = fx1p / frx, fy1p / fry
+        reach = u * u + v * v
+        coef = math.sqrt(max((1 - reach) / reach, 0.0)) if not scaled and reach > 0 else 0.0
         if large == sweep:
             coef = -coef
-        cxp, cyp = coef * frx * fy1p / fry, -coef * fry * fx1p / frx
+        cxp, cyp = coef * frx * v, -coef * fry * u
         fc, fs = float(cphi), float(sphi)
         centre = (fc * cxp - fs * cyp + float(p0[0] + p1[0]) / 2,
                   fs * cxp + fc * cyp + float(p0[1] + p1[1]) / 2)
@@ -772,7 +828,7 @@ def path_profile(commands: Sequence[PathCommand], *, matrix: Affine = FLIP_Y,
                 seg = builder.arc(*item[1:8], where=where)
             if seg is not None:
                 segments.append(seg)
-        source = f"subpath {k} (character {sub.position})"
+        source = f"subpath {k} (character {sub.position})" if sub.position > 0 else "outline"
         if not segments:
             continue
         first, last = segments[0].start, segments[-1].end
@@ -819,11 +875,45 @@ def _located(exc: PathDataError, file, line, label) -> FormatError:
                        place=(label + "path data").rstrip(", ") if label else "path data")
 
 
+def _assemble(parts, *, unit: str, file: Optional[str], kind: str, unit_source: str,
+              extra_notes: Sequence[str], skipped: Sequence[Skipped] = (),
+              keep_strays: bool = False, nothing: Optional[FormatError] = None
+              ) -> Tuple[ProfileDocument, DrawingReport]:
+    """One profile from the pieces of one or more paths or shapes; strays left out unless kept.
+
+    ``parts`` holds ``(profile, sources, kinds, notes, exact, label)`` of each
+    element, from :func:`path_profile`.
+    """
+    loops, chains, loop_src, chain_src, notes = [], [], [], [], []
+    exact = True
+    for profile, sources, kinds, part_notes, part_exact, label in parts:
+        for path, source, what in zip(profile.paths, sources, kinds):
+            (loops if what == "loop" else chains).append(path)
+            (loop_src if what == "loop" else chain_src).append(f"{label}{source}")
+        notes.extend(n for n in part_notes if n not in notes)
+        exact = exact and part_exact
+    profile = Profile(loops=tuple(loops), chains=tuple(chains), unit=unit, file=file)
+    if not profile.paths:
+        raise nothing
+    check_no_crossings(profile, file=file)
+    profile, sources, kinds, warnings = separate_strays(profile, loop_src + chain_src,
+                                                        keep=keep_strays)
+    found_loops, found_chains = summarise_paths(profile, sources, kinds)
+    all_notes = list(extra_notes) + ["SVG's y axis points down: the profile's y is the "
+                                     "drawing's -y, so the drawing's up is +y"] + notes
+    report = DrawingReport(source=file or "path data", kind=kind, unit=unit,
+                           unit_source=unit_source, loops=found_loops, chains=found_chains,
+                           skipped=tuple(skipped), notes=tuple(all_notes),
+                           warnings=tuple(warnings))
+    return ProfileDocument(profile=profile, exact=exact), report
+
+
 def path_data_profile(d: str, *, unit: Optional[str] = None, file: Optional[str] = None,
                       line: Optional[int] = None, label: str = "",
                       matrix: Optional[Affine] = None, kind: str = "SVG path data",
                       unit_source: Optional[str] = None,
-                      extra_notes: Sequence[str] = ()) -> Tuple[ProfileDocument, DrawingReport]:
+                      extra_notes: Sequence[str] = (), keep_strays: bool = False
+                      ) -> Tuple[ProfileDocument, DrawingReport]:
     """A profile from SVG path data (a ``d`` string).
 
     Parameters
@@ -838,6 +928,10 @@ def path_data_profile(d: str, *, unit: Optional[str] = None, file: Optional[str]
         Words naming the path in messages (``"path 'outline', "``).
     matrix : Affine, optional
         Map from user coordinates to the profile's; default :data:`FLIP_Y`.
+    keep_strays : bool
+        Keep subpaths not joined to the main outline (see
+        :func:`revolve.formats.drawings.separate_strays`); they are warned
+        about either way.
 
     Returns
     -------
@@ -846,7 +940,8 @@ def path_data_profile(d: str, *, unit: Optional[str] = None, file: Optional[str]
     Raises
     ------
     FormatError
-        A syntax error (with its character position), or path data drawing nothing.
+        A syntax error (with its character position), a number beyond the
+        range read, or path data drawing nothing.
     ProfileError
         Subpaths that cross or touch.
 
@@ -854,7 +949,9 @@ def path_data_profile(d: str, *, unit: Optional[str] = None, file: Optional[str]
     --------
     >>> doc, report = path_data_profile("M0,0 c 10,0 10,10 0,10 z m 20 0 h 5 v 5")
     >>> [p.describe() for p in report.loops + report.chains]
-    ['loop 1: 1 line, 1 curve; from subpath 1 (character 1)', 'chain 1: 2 lines; from subpath 2 (character 26)']
+    ['loop 1: 1 line, 1 curve; from subpath 1 (character 1)']
+    >>> report.warnings     # doctest: +ELLIPSIS
+    ('chain 1 (from subpath 2 (character 26)) is not joined to the main outline ...',)
     >>> doc.profile.loops[0].segments[0].y_expr
     20*t**3 - 30*t**2
     >>> path_data_profile("M 5 5 M 6 6")
@@ -870,24 +967,16 @@ def path_data_profile(d: str, *, unit: Optional[str] = None, file: Optional[str]
         commands = parse_path_data(d)
     except PathDataError as exc:
         raise _located(exc, file, line, label) from None
-    profile, sources, kinds, notes, exact = path_profile(
-        commands, matrix=FLIP_Y if matrix is None else matrix, unit=unit, file=file, line=line,
-        label=label)
-    if not profile.paths:
-        raise FormatError("the path data draws nothing (it only moves); give at least one line, "
+    part = path_profile(commands, matrix=FLIP_Y if matrix is None else matrix, unit=unit,
+                        file=file, line=line, label=label)
+    nothing = FormatError("the path data draws nothing (it only moves); give at least one line, "
                           "arc or curve", file=file, line=line,
                           place=(label + "path data") if label else "path data")
-    check_no_crossings(profile, file=file)
-    loops, chains = summarise_paths(profile, sources, kinds)
-    all_notes = list(extra_notes) + ["SVG's y axis points down: the profile's y is the "
-                                     "drawing's -y, so the drawing's up is +y"] + notes
-    report = DrawingReport(source=file or "path data", kind=kind, unit=unit,
-                           unit_source=unit_source,
-                           loops=loops, chains=chains, notes=tuple(all_notes))
-    return ProfileDocument(profile=profile, exact=exact), report
+    return _assemble([part + ("",)], unit=unit, file=file, kind=kind, unit_source=unit_source,
+                     extra_notes=extra_notes, keep_strays=keep_strays, nothing=nothing)
 
 
-def read_path_data_file(path: str, *, unit: Optional[str] = None
+def read_path_data_file(path: str, *, unit: Optional[str] = None, keep_strays: bool = False
                         ) -> Tuple[ProfileDocument, DrawingReport]:
     """Read a file whose whole text is SVG path data (ending ``.svgpath``).
 
@@ -896,11 +985,18 @@ def read_path_data_file(path: str, *, unit: Optional[str] = None
     ...
     revolve.errors.FormatError: nowhere.svgpath: no such file; check the name and folder
     """
+    check_file_size(path, MAX_SVG_BYTES)
     text = read_text(path)
-    return path_data_profile(text, unit=unit, file=path)
+    return path_data_profile(text, unit=unit, file=path, keep_strays=keep_strays)
 
 
 # -- SVG files ---------------------------------------------------------------------------
+
+#: Largest SVG file read (bytes), most elements, and deepest nesting of elements.
+MAX_SVG_BYTES = 16 * 1024 * 1024
+MAX_ELEMENTS = 100_000
+MAX_DEPTH = 200
+
 
 def _local(tag: str) -> str:
     return tag.rsplit("}", 1)[-1].rsplit(":", 1)[-1]
@@ -913,22 +1009,26 @@ class _Refused(Exception):
 
 
 def parse_svg_xml(text: str, file: Optional[str] = None):
-    """Parse SVG text safely: returns the root element and the line of each ``<path>`` in order.
+    """Parse SVG text safely: returns the root element and the line of every element in order.
 
     A first pass with expat refuses entity declarations and DTD internal
-    subsets before :mod:`xml.etree.ElementTree` reads the text.
+    subsets (nothing is ever expanded or fetched), more than
+    :data:`MAX_ELEMENTS` elements and nesting deeper than :data:`MAX_DEPTH`,
+    before :mod:`xml.etree.ElementTree` reads the text. The lines run over
+    ``root.iter()`` (document order, the root first).
 
     Raises
     ------
     FormatError
         Not well-formed XML (with line and column), a refused declaration
-        (naming the entity), or a root other than ``<svg>``.
+        (naming the entity), too many or too deeply nested elements, or a
+        root other than ``<svg>``.
 
     Examples
     --------
     >>> root, lines = parse_svg_xml('<svg xmlns="http://www.w3.org/2000/svg">\\n<path d="M0 0"/></svg>')
     >>> _local(root.tag), lines
-    ('svg', [2])
+    ('svg', [1, 2])
     >>> parse_svg_xml('<?xml version="1.0"?>\\n<!DOCTYPE svg [\\n<!ENTITY a "aaaa">\\n]>\\n<svg/>', "x.svg")
     Traceback (most recent call last):
     ...
@@ -937,20 +1037,24 @@ def parse_svg_xml(text: str, file: Optional[str] = None):
     Traceback (most recent call last):
     ...
     revolve.errors.FormatError: x.svg:1: this is not an SVG file: it is not well-formed XML (syntax error at line 1, column 1)
+    >>> parse_svg_xml("<svg>" + "<g>" * 300 + "</g>" * 300 + "</svg>", "deep.svg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: deep.svg:1: elements are nested more than 200 deep; flatten the groups
     """
     import xml.etree.ElementTree as ElementTree
     from xml.parsers import expat
 
     parser = expat.ParserCreate()
     lines: List[int] = []
-    state: Dict[str, Any] = {}
+    state: Dict[str, Any] = {"depth": 0}
 
     def doctype(name, system_id, public_id, has_internal_subset):
         state["subset"] = bool(has_internal_subset)
         state["doctype_line"] = parser.CurrentLineNumber
 
     def entity(name, is_parameter, *rest):
-        raise _Refused(f'the file declares the XML entity "{name}" (line '
+        raise _Refused(f'the file declares the XML entity "{one_line(name)}" (line '
                        f"{parser.CurrentLineNumber}, column {parser.CurrentColumnNumber + 1}); "
                        "entity declarations are refused because they can expand without limit; "
                        "remove the DOCTYPE", parser.CurrentLineNumber)
@@ -962,14 +1066,24 @@ def parse_svg_xml(text: str, file: Optional[str] = None):
                            "it is refused for safety; remove it", line)
 
     def start(name, attributes):
-        if _local(name) == "path":
-            lines.append(parser.CurrentLineNumber)
+        lines.append(parser.CurrentLineNumber)
+        state["depth"] += 1
+        if len(lines) > MAX_ELEMENTS:
+            raise _Refused(f"the file has more than {MAX_ELEMENTS} elements; simplify it",
+                           parser.CurrentLineNumber)
+        if state["depth"] > MAX_DEPTH:
+            raise _Refused(f"elements are nested more than {MAX_DEPTH} deep; flatten the groups",
+                           parser.CurrentLineNumber)
+
+    def end(name):
+        state["depth"] -= 1
 
     parser.StartDoctypeDeclHandler = doctype
     parser.EndDoctypeDeclHandler = end_doctype
     parser.EntityDeclHandler = entity
     parser.UnparsedEntityDeclHandler = lambda name, *rest: entity(name, False)
     parser.StartElementHandler = start
+    parser.EndElementHandler = end
     try:
         parser.Parse(text, True)
     except _Refused as exc:
@@ -982,11 +1096,12 @@ def parse_svg_xml(text: str, file: Optional[str] = None):
         root = ElementTree.fromstring(text)
     except ElementTree.ParseError as exc:
         line, column = exc.position
-        raise FormatError(f"this is not an SVG file: it is not well-formed XML ({exc.msg}, "
-                          f"line {line}, column {column + 1})", file=file, line=line) from None
+        raise FormatError(f"this is not an SVG file: it is not well-formed XML "
+                          f"({one_line(exc.msg)}, line {line}, column {column + 1})",
+                          file=file, line=line) from None
     if _local(root.tag) != "svg":
-        raise FormatError(f"this is not an SVG file: its root element is <{_local(root.tag)}>, "
-                          "not <svg>", file=file, line=1)
+        raise FormatError(f"this is not an SVG file: its root element is "
+                          f"<{one_line(_local(root.tag))[:40]}>, not <svg>", file=file, line=1)
     return root, lines
 
 
@@ -1067,11 +1182,159 @@ def svg_user_unit(root, unit: Optional[str], file: Optional[str] = None):
 
 
 _NOT_DRAWN = ("defs", "symbol", "clipPath", "mask", "marker", "pattern")
+#: Elements read: paths and the basic shapes.
+SHAPES = ("path", "rect", "circle", "ellipse", "line", "polyline", "polygon")
+#: Elements that hold others and are read through (a chosen id may name one of them).
+_CONTAINERS = ("svg", "g", "a", "switch")
+#: Elements that draw something that is not read, and why.
+_NOT_READ = {"text": "text is not geometry", "image": "an image is not geometry",
+             "use": "a <use> reference is not expanded; replace it by a copy of what it uses",
+             "foreignObject": "foreign content is not read"}
 
 
-def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = None
-             ) -> Tuple[ProfileDocument, DrawingReport]:
-    """Read one ``<path>`` of an SVG file as a profile.
+def _attribute_length(el, name: str, default: Optional[Fraction], where: Where
+                      ) -> Optional[Fraction]:
+    """A shape's length attribute in user units (a plain number, or ``px``)."""
+    text = el.get(name)
+    if text is None or not text.strip():
+        return default
+    m = _LENGTH.match(text)
+    if m is None or (m.group(2) or "px") != "px":
+        raise FormatError(f'{name}="{one_line(text)[:30]}" is not a length in user units; '
+                          "write a plain number", file=where.file, line=where.line,
+                          place=where.place)
+    try:
+        return decimal_fraction(m.group(1))
+    except ValueError as exc:
+        raise FormatError(f"{name}: {exc}", file=where.file, line=where.line,
+                          place=where.place) from None
+
+
+def _arc_commands(rx, ry, points) -> List[PathCommand]:
+    zero = Fraction(0)
+    return [PathCommand("A", (rx, ry, zero, zero, Fraction(1), x, y), 0) for x, y in points]
+
+
+def shape_commands(el, where: Where) -> Tuple[Optional[Tuple[PathCommand, ...]], str]:
+    """The path commands of a basic shape, as SVG 2 defines its equivalent path.
+
+    Returns ``(commands, reason)``: commands None when the shape is not
+    rendered (a zero width, height or radius), with the reason. Positions
+    are negative part numbers (-1, -2, ...), so messages name the part.
+
+    * ``<rect>``: four sides and, with ``rx``/``ry`` (one given stands for
+      both; each at most half the side), four elliptical corner arcs;
+    * ``<circle>`` and ``<ellipse>``: four quarter arcs from (cx + rx, cy);
+    * ``<line>``: one open line; ``<polyline>`` open, ``<polygon>`` closed.
+
+    Examples
+    --------
+    >>> import xml.etree.ElementTree as ET
+    >>> cmds, _ = shape_commands(ET.fromstring('<rect x="1" y="2" width="4" height="3" rx="1"/>'),
+    ...                          Where())
+    >>> [c.letter for c in cmds]
+    ['M', 'H', 'A', 'V', 'A', 'H', 'A', 'V', 'A', 'Z']
+    >>> shape_commands(ET.fromstring('<circle r="0"/>'), Where())
+    (None, 'its radius is zero, so it is not drawn')
+    >>> [str(a) for a in shape_commands(ET.fromstring('<polygon points="0,0 4,0 4,3"/>'),
+    ...                                 Where())[0][2].args]
+    ['4', '3']
+    """
+    tag = _local(el.tag)
+    zero = Fraction(0)
+    length = lambda name, default=zero: _attribute_length(el, name, default, where)  # noqa: E731
+    out: List[Tuple[str, tuple]] = []
+    if tag == "rect":
+        x, y, w, h = length("x"), length("y"), length("width"), length("height")
+        if w <= 0 or h <= 0:
+            return None, "its width or height is zero or negative, so it is not drawn"
+        rx, ry = length("rx", None), length("ry", None)
+        if (rx is not None and rx < 0) or (ry is not None and ry < 0):
+            raise FormatError("a corner radius (rx, ry) is negative", file=where.file,
+                              line=where.line, place=where.place)
+        rx = ry if rx is None else rx
+        ry = rx if ry is None else ry
+        rx, ry = min(rx or zero, w / 2), min(ry or zero, h / 2)
+        if rx == 0 or ry == 0:
+            rx = ry = zero
+        one = Fraction(1)
+        out.append(("M", (x + rx, y)))
+        corners = [((x + w, y + ry), (x + w, y + h - ry), "V"),
+                   ((x + w - rx, y + h), (x + rx, y + h), "H"),
+                   ((x, y + h - ry), (x, y + ry), "V"),
+                   ((x + rx, y), None, None)]
+        if x + w - rx != x + rx:
+            out.append(("H", (x + w - rx,)))
+        for (cx, cy), then, letter in corners:
+            if rx:
+                out.append(("A", (rx, ry, zero, zero, one, cx, cy)))
+            if then is not None and (then[0] != cx or then[1] != cy):
+                out.append((letter, (then[1],) if letter == "V" else (then[0],)))
+        out.append(("Z", ()))
+    elif tag in ("circle", "ellipse"):
+        cx, cy = length("cx"), length("cy")
+        if tag == "circle":
+            rx = ry = length("r")
+        else:
+            rx, ry = length("rx", None), length("ry", None)
+            rx = ry if rx is None else rx
+            ry = rx if ry is None else ry
+            rx, ry = rx or zero, ry or zero
+        if rx <= 0 or ry <= 0:
+            return None, "its radius is zero, so it is not drawn"
+        out.append(("M", (cx + rx, cy)))
+        for px, py in ((cx, cy + ry), (cx - rx, cy), (cx, cy - ry), (cx + rx, cy)):
+            out.append(("A", (rx, ry, zero, zero, Fraction(1), px, py)))
+        out.append(("Z", ()))
+    elif tag == "line":
+        p0, p1 = (length("x1"), length("y1")), (length("x2"), length("y2"))
+        if p0 == p1:
+            return None, "it has zero length, so it is not drawn"
+        out += [("M", p0), ("L", p1)]
+    else:  # polyline, polygon
+        s = _Scanner(el.get("points") or "")
+        numbers: List[Fraction] = []
+        try:
+            s.skip_wsp()
+            while not s.at_end():
+                numbers.append(s.number("a coordinate", "points"))
+                s.skip_comma_wsp()
+        except PathDataError as exc:
+            raise FormatError(f"points: character {exc.position}: {exc.message}",
+                              file=where.file, line=where.line, place=where.place) from None
+        if len(numbers) % 2:
+            raise FormatError(f"points: {len(numbers)} numbers, an odd count; give x,y pairs",
+                              file=where.file, line=where.line, place=where.place)
+        pts = list(zip(numbers[::2], numbers[1::2]))
+        if len(pts) < 2:
+            return None, "it has fewer than two points, so it draws nothing"
+        out.append(("M", pts[0]))
+        out += [("L", p) for p in pts[1:]]
+        if tag == "polygon":
+            out.append(("Z", ()))
+    return tuple(PathCommand(letter, tuple(args), -k)
+                 for k, (letter, args) in enumerate(out, 1)), ""
+
+
+def _hidden(chain) -> bool:
+    for el in chain:
+        if (el.get("display") or "").strip() == "none" or \
+                re.search(r"(^|;)\s*display\s*:\s*none", el.get("style") or ""):
+            return True
+    return False
+
+
+def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = None,
+             keep_strays: bool = False) -> Tuple[ProfileDocument, DrawingReport]:
+    """Read the paths and basic shapes of an SVG file as one profile.
+
+    Every ``<path>``, ``<rect>``, ``<circle>``, ``<ellipse>``, ``<line>``,
+    ``<polyline>`` and ``<polygon>`` drawn (with the transforms of it and
+    of the groups around it) is read; loops and chains not joined to the
+    main outline (the largest loop; loops inside it are holes) are warned
+    about and left out unless ``keep_strays``. Elements that are not drawn
+    by themselves (inside ``<defs>``, ``<symbol>``, ...; ``display="none"``)
+    and elements not read (text, images, ``<use>``) are reported as skipped.
 
     Parameters
     ----------
@@ -1081,8 +1344,10 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
         The length unit of a user unit, for drawings that state no physical
         size (default ``"mm"``); refused when it disagrees with one.
     path_id : str, optional
-        The ``id`` of the path to read; may be left out when the file has one
-        path only.
+        The ``id`` of the one element to read: a path or shape, or a group
+        (``<g>``) whose paths and shapes are read.
+    keep_strays : bool
+        Keep loops and chains not joined to the main outline.
 
     Returns
     -------
@@ -1091,10 +1356,11 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
     Raises
     ------
     FormatError
-        Not XML, refused declarations, no such path, a path that is not a
-        ``<path>``, path data or transform errors (with their position).
+        Not XML, refused declarations, no such element, nothing drawn, path
+        data or transform errors (with their position), numbers beyond the
+        range read.
     ProfileError
-        Subpaths that cross or touch.
+        Paths or shapes that cross or touch.
 
     Examples
     --------
@@ -1112,77 +1378,155 @@ def read_svg(path: str, *, unit: Optional[str] = None, path_id: Optional[str] = 
     >>> read_svg(name, path_id="hub")
     Traceback (most recent call last):
     ...
-    revolve.errors.FormatError: ...ring.svg: there is no element with id "hub"; the paths are: ring
+    revolve.errors.FormatError: ...ring.svg: there is no element with id "hub"; the drawn elements are: path 'ring'
     """
+    check_file_size(path, MAX_SVG_BYTES)
     text = read_text(path)
     root, lines = parse_svg_xml(text, path)
-    parents = {child: parent for parent in root.iter() for child in parent}
-    paths = [el for el in root.iter() if isinstance(el.tag, str) and _local(el.tag) == "path"]
-    line_of = {id(el): (lines[k] if k < len(lines) else None) for k, el in enumerate(paths)}
+    elements = [el for el in root.iter() if isinstance(el.tag, str)]
+    line_of = {id(el): (lines[k] if k < len(lines) else None) for k, el in enumerate(elements)}
+    parents = {child: parent for parent in elements for child in parent}
+    counts: Dict[str, int] = {}
+    labels: Dict[int, str] = {}
+    for el in elements:
+        tag = _local(el.tag)
+        if tag in SHAPES:
+            counts[tag] = counts.get(tag, 0) + 1
+            ident = el.get("id")
+            labels[id(el)] = (f"{tag} '{one_line(ident)[:40]}'" if ident
+                              else f"{tag} #{counts[tag]} (no id)")
+    drawn = [el for el in elements if id(el) in labels]
+    listing = ", ".join(labels[id(el)] for el in drawn[:12]) + (", ..." if len(drawn) > 12 else "")
 
-    def name_of(k: int, el) -> str:
-        return el.get("id") or f"#{k + 1} (no id)"
+    def chain_of(el):
+        chain = [el]
+        while chain[-1] in parents:
+            chain.append(parents[chain[-1]])
+        chain.reverse()  # root first
+        return chain
 
-    listing = ", ".join(name_of(k, el) for k, el in enumerate(paths[:12])) + \
-        (", ..." if len(paths) > 12 else "")
-    if path_id is not None:
-        chosen = next((el for el in root.iter() if el.get("id") == path_id), None)
+    explicit = path_id is not None
+    if explicit:
+        chosen = next((el for el in elements if el.get("id") == path_id), None)
         if chosen is None:
-            raise FormatError(f'there is no element with id "{path_id}"; ' +
-                              (f"the paths are: {listing}" if paths else "the file has no <path>"),
-                              file=path)
-        if _local(chosen.tag) != "path":
-            raise FormatError(f'the element with id "{path_id}" is a <{_local(chosen.tag)}>, not '
-                              "a <path>; only path elements are read (convert the shape to a "
-                              "path in the drawing program)", file=path)
+            raise FormatError(f'there is no element with id "{one_line(path_id)[:40]}"; ' +
+                              (f"the drawn elements are: {listing}" if drawn else
+                               "the file has no path or shape"), file=path)
+        tag = _local(chosen.tag)
+        if tag in SHAPES:
+            region = [chosen]
+        elif tag in _CONTAINERS:
+            region = [el for el in chosen.iter() if isinstance(el.tag, str)]
+        else:
+            raise FormatError(f'the element with id "{one_line(path_id)[:40]}" is a <{tag}>, '
+                              "which draws nothing that is read; give the id of a path, a shape "
+                              "(rect, circle, ellipse, line, polyline, polygon) or a group",
+                              file=path, line=line_of.get(id(chosen)))
     else:
-        if not paths:
-            raise FormatError("the file has no <path> element; draw the profile as a path",
-                              file=path)
-        if len(paths) > 1:
-            raise FormatError(f"the file has {len(paths)} paths ({listing}); choose one by its "
-                              "id (revolve convert --path-id)", file=path)
-        chosen = paths[0]
-    index = paths.index(chosen)
-    line = line_of.get(id(chosen))
-    label = f"path '{chosen.get('id')}', " if chosen.get("id") else f"path #{index + 1}, "
-    chain = [chosen]
-    while chain[-1] in parents:
-        chain.append(parents[chain[-1]])
-    chain.reverse()  # root first
-    notes: List[str] = []
-    matrix = IDENTITY
-    for el in chain:
-        tag = _local(el.tag) if isinstance(el.tag, str) else ""
-        if tag == "svg" and el is not root:
-            raise FormatError("the path is inside a nested <svg> element, whose viewport is not "
-                              "read; move the path out of it", file=path, line=line,
-                              place=label.rstrip(", "))
-        if tag in _NOT_DRAWN:
-            notes.append(f"the path is inside <{tag}>, so the drawing does not show it by itself")
-        style = el.get("style") or ""
-        if re.search(r"(^|;)\s*transform\s*:", style):
-            raise FormatError(f"a transform in a style attribute (on <{tag}>) is not read; use "
-                              "the transform attribute", file=path, line=line,
-                              place=label.rstrip(", "))
-        transform = el.get("transform")
-        if transform is not None and transform.strip():
-            try:
-                matrix = compose(matrix, parse_transform(transform))
-            except PathDataError as exc:
-                raise FormatError(f"transform of <{tag}>: character {exc.position}: "
-                                  f"{exc.message}", file=path, line=line,
-                                  place=label.rstrip(", ")) from None
-            notes.append(f'the transform "{transform.strip()}" of <{tag}> was applied')
+        region = elements
+    skipped: List[Skipped] = []
+    selected = []
+    for el in region:
+        tag = _local(el.tag)
+        if tag not in SHAPES and tag not in _NOT_READ:
+            continue
+        chain = chain_of(el)
+        name = labels.get(id(el)) or f"<{tag}> (line {line_of.get(id(el))})"
+        hidden_in = next((_local(a.tag) for a in chain[:-1] if _local(a.tag) in _NOT_DRAWN), None)
+        if tag in _NOT_READ:
+            if hidden_in is None:
+                skipped.append(Skipped(name, _NOT_READ[tag]))
+            continue
+        if hidden_in is not None and not (explicit and el is region[0]):
+            skipped.append(Skipped(name, f"it is inside <{hidden_in}>, so it is not drawn by "
+                                         "itself"))
+            continue
+        if _hidden(chain) and not (explicit and el is region[0]):
+            skipped.append(Skipped(name, "it is not displayed (display: none)"))
+            continue
+        selected.append((el, chain))
+    if not selected:
+        if explicit:
+            raise FormatError(f'the element with id "{one_line(path_id)[:40]}" holds no path or '
+                              "shape that is drawn", file=path)
+        raise FormatError("the file has no <path> or shape element (rect, circle, ellipse, "
+                          "line, polyline, polygon) that is drawn; draw the profile with one",
+                          file=path)
     unit_name, scale, unit_source, unit_notes = svg_user_unit(root, unit, path)
-    matrix = compose(FLIP_Y, compose((scale, Fraction(0), Fraction(0), scale, Fraction(0),
-                                      Fraction(0)), matrix))
-    d = chosen.get("d")
-    if d is None or not d.strip():
-        raise FormatError("the path has no path data (its d attribute is missing or empty)",
-                          file=path, line=line, place=label.rstrip(", "))
+    base = compose(FLIP_Y, (scale, Fraction(0), Fraction(0), scale, Fraction(0), Fraction(0)))
+    notes: List[str] = []
+    parts = []
+    for el, chain in selected:
+        tag = _local(el.tag)
+        line = line_of.get(id(el))
+        name = labels[id(el)]
+        label = name + ", "
+        matrix = IDENTITY
+        for outer in chain:
+            outer_tag = _local(outer.tag)
+            if outer_tag == "svg" and outer is not root:
+                raise FormatError(f"the {tag} is inside a nested <svg> element, whose viewport "
+                                  "is not read; move it out", file=path, line=line, place=name)
+            if outer_tag in _NOT_DRAWN:
+                note = f"{name} is inside <{outer_tag}>, so the drawing does not show it by itself"
+                if note not in notes:
+                    notes.append(note)
+            style = outer.get("style") or ""
+            if re.search(r"(^|;)\s*transform\s*:", style):
+                raise FormatError(f"a transform in a style attribute (on <{outer_tag}>) is not "
+                                  "read; use the transform attribute", file=path, line=line,
+                                  place=name)
+            transform = outer.get("transform")
+            if transform is not None and transform.strip():
+                try:
+                    matrix = compose(matrix, parse_transform(transform))
+                    _check_affine(matrix)
+                except PathDataError as exc:
+                    raise FormatError(f"transform of <{outer_tag}>: character {exc.position}: "
+                                      f"{exc.message}", file=path, line=line,
+                                      place=name) from None
+                except ValueError as exc:
+                    raise FormatError(f"transform of <{outer_tag}>: {exc}", file=path, line=line,
+                                      place=name) from None
+                note = (f'the transform "{one_line(transform.strip())[:60]}" of <{outer_tag}> '
+                        "was applied")
+                if note not in notes:
+                    notes.append(note)
+        matrix = compose(base, matrix)
+        try:
+            _check_affine(matrix)
+        except ValueError as exc:
+            raise FormatError(f"with the drawing's scale, {exc}", file=path, line=line,
+                              place=name) from None
+        where = Where(path, line, name)
+        if tag == "path":
+            d = el.get("d")
+            if d is None or not d.strip():
+                raise FormatError("the path has no path data (its d attribute is missing or "
+                                  "empty)", file=path, line=line, place=name)
+            try:
+                commands = parse_path_data(d)
+            except PathDataError as exc:
+                raise _located(exc, path, line, label) from None
+        else:
+            commands, reason = shape_commands(el, where)
+            if commands is None:
+                skipped.append(Skipped(name, reason))
+                continue
+        part = path_profile(commands, matrix=matrix, unit=unit_name, file=path, line=line,
+                            label=label)
+        parts.append(part + (label,))
+    if not parts:
+        first = skipped[-1]
+        raise FormatError(f"the paths and shapes of the file draw nothing ({first.what}: "
+                          f"{first.reason})", file=path)
     if scale != 1:
         unit_notes.append(f"coordinates were scaled by {scale} into {unit_name}")
-    return path_data_profile(d, unit=unit_name, file=path, line=line, label=label, matrix=matrix,
-                             kind="SVG file", unit_source=unit_source,
-                             extra_notes=notes + unit_notes)
+    first_line = line_of.get(id(selected[0][0]))
+    nothing = FormatError("the paths and shapes read draw nothing (they only move)", file=path,
+                          line=first_line if len(selected) == 1 else None,
+                          place=(labels[id(selected[0][0])] + ", path data")
+                          if len(selected) == 1 else None)
+    return _assemble(parts, unit=unit_name, file=path, kind="SVG file", unit_source=unit_source,
+                     extra_notes=notes + unit_notes, skipped=skipped, keep_strays=keep_strays,
+                     nothing=nothing)

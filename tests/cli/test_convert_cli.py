@@ -114,10 +114,18 @@ def test_json_report(tmp_path, capsys):
                           "-o", out_file, "--json", "--units", "in", "--name", "Ring"], capsys)
     assert code == 0, err
     report = json.loads(out)["report"]
-    assert [len(report["loops"]), len(report["chains"])] == [1, 1]
+    # the open chain "m 50 0 h 5" is not joined to the ring: warned about and left out
+    assert [len(report["loops"]), len(report["chains"])] == [1, 0]
+    assert len(report["warnings"]) == 1 and "--keep-strays" in report["warnings"][0]
+    assert err.count("\n") == 1 and err.startswith("revolve: warning: chain 1")
     assert report["unit"] == "in" and report["unit_source"] == "given"
     doc = load_profile(out_file)
     assert doc.name == "Ring" and doc.profile.unit == "in" and doc.axis is None
+    assert not doc.profile.chains
+    code, out, err = run(["convert", "--path-data", "M0,10 H40 V20 H0 Z m 50 0 h 5",
+                          "-o", out_file, "--json", "--force", "--keep-strays"], capsys)
+    assert code == 0, err
+    assert len(load_profile(out_file).profile.chains) == 1
 
 
 def dxf_bush(tmp_path, name="bush.dxf", gap=0.0, extra=None):
@@ -233,3 +241,99 @@ def test_reader_registration_imports_nothing_heavy():
                             cwd=str(ROOT), env={**os.environ, "PYTHONPATH": str(ROOT)})
     assert result.returncode == 0, result.stderr
     assert result.stdout.strip() == "[]"
+
+
+SLEEVE = '''name = "Sleeve"
+units = "mm"
+{extra}
+[axis]
+along = "x"
+
+[[loop]]
+start = [0, 10]
+segments = [{{ line_to = [40, 10] }}, {{ line_to = [40, 20] }}, {{ line_to = [0, 20] }},
+            {{ close = true }}]
+'''
+
+
+@pytest.mark.parametrize("extra, words", [
+    ('density = "seven thousand"', "density"),
+    ('density = "-7850 kg/m^3"', "density"),
+    ('density = "1e999 kg/m^3"', "density"),
+    ('material = "unobtainium"', "unknown material"),
+])
+def test_convert_checks_material_and_density_as_measure_does(tmp_path, capsys, extra, words):
+    """Family: profile files whose material or density measure would refuse."""
+    source = tmp_path / "in.toml"
+    source.write_text(SLEEVE.format(extra=extra))
+    out_file = str(tmp_path / "out.toml")
+    measure_code, _, measure_err = run(["measure", str(source)], capsys)
+    assert measure_code == 2        # measure refuses it ...
+    line = refused(["convert", str(source), "-o", out_file], capsys, out_file)
+    assert words in line and str(source) in line     # ... and so does convert
+    assert line.split(": ", 2)[2] == measure_err.strip().split(": ", 2)[2]
+
+
+def test_convert_refuses_a_self_intersecting_point_list(tmp_path, capsys):
+    """Family: point lists that cross themselves (a bow tie), with and without an axis."""
+    bow = tmp_path / "bow.txt"
+    bow.write_text("0,10\n20,30\n20,10\n0,30\n")
+    out_file = str(tmp_path / "out.toml")
+    line = refused(["convert", str(bow), "-o", out_file], capsys, out_file)
+    assert "intersects itself" in line and "bow.txt" in line
+    line = refused(["convert", str(bow), "-o", out_file, "--axis", "x"], capsys, out_file)
+    assert "intersects itself" in line
+
+
+def test_convert_of_a_good_profile_keeps_its_material(tmp_path, capsys):
+    source = tmp_path / "in.toml"
+    source.write_text(SLEEVE.format(extra='material = "carbon steel"'))
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", str(source), "-o", out_file], capsys)
+    assert code == 0, err
+    assert load_profile(out_file).material == "carbon steel"
+
+
+def test_stray_dxf_circle_through_convert(tmp_path, capsys):
+    """The issue's case end to end: warned, left out, and kept with --keep-strays."""
+    def stray(msp):
+        msp.add_circle((80, 15), 3)
+    drawing = dxf_bush(tmp_path, "stray.dxf", extra=stray)
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", drawing, "-o", out_file], capsys)
+    assert code == 0, err
+    assert "warning: loop 2 (from CIRCLE #5" in out and "--keep-strays" in out
+    assert len(load_profile(out_file).profile.loops) == 1
+    code, out, err = run(["convert", drawing, "-o", out_file, "--force", "--keep-strays"],
+                         capsys)
+    assert code == 0, err
+    assert len(load_profile(out_file).profile.loops) == 2
+    line = refused(["convert", "--path-data", "M0 0 H1 V1 Z", "-o", str(tmp_path / "p.toml"),
+                    "--gap-tolerance", "1"], capsys, str(tmp_path / "p.toml"))
+    assert "--gap-tolerance applies to DXF drawings only" in line
+
+
+@pytest.mark.parametrize("value", ["-1", "0", "inf", "nan", "1e999"])
+def test_bad_gap_tolerance_names_the_option(tmp_path, capsys, value):
+    """Family: --gap-tolerance values that are not a positive finite length."""
+    out_file = str(tmp_path / "out.toml")
+    line = refused(["convert", dxf_bush(tmp_path), "-o", out_file, f"--gap-tolerance={value}"],
+                   capsys, out_file)
+    assert "--gap-tolerance: the gap tolerance must be a positive number" in line
+
+
+def test_half_thou_gap_in_an_inch_drawing_converts(tmp_path, capsys):
+    # The issue's case: 0.0005 in left by a CAD export; the default (0.001 in for a part this
+    # size: common practice, no source) closes it and the report says so.
+    doc = ezdxf.new("R2010")
+    doc.header["$INSUNITS"] = 1          # inches (DXF reference, from memory)
+    msp = doc.modelspace()
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.5005))]:
+        msp.add_line(a, b)
+    drawing = str(tmp_path / "inch.dxf")
+    doc.saveas(drawing)
+    out_file = str(tmp_path / "out.toml")
+    code, out, err = run(["convert", drawing, "-o", out_file, "--json"], capsys)
+    assert code == 0, err
+    report = json.loads(out)["report"]
+    assert report["tolerance"] == pytest.approx(0.001) and len(report["gaps_closed"]) == 1

@@ -351,11 +351,50 @@ def test_gap_between_two_arcs_is_bridged(tmp_path):
 
 
 def test_default_tolerance_scales_with_the_drawing(tmp_path):
+    # A 41 mm part: the floor of 0.001 in = 0.0254 mm applies (1 in = 25.4 mm, exact by
+    # definition; 0.001 in as the rounding of CAD exports: common practice, no source).
     doc, msp = new_drawing()
-    rectangle_with_gap(msp, 1e-5)   # size about 41, tolerance about 4.1e-5
+    rectangle_with_gap(msp, 0.02)
     profile_doc, report = read_dxf(save(doc, tmp_path))
-    assert report.tolerance == pytest.approx(1e-6 * math.hypot(40, 10), rel=1e-9)
+    assert report.tolerance == pytest.approx(0.0254, rel=1e-12)
     assert len(report.gaps_closed) == 1
+    # A 4 m part: 1e-4 of its size (the diagonal of its extent).
+    doc, msp = new_drawing()
+    for a, b in [((0, 1000), (4000, 1000)), ((4000, 1000), (4000, 2000)),
+                 ((4000, 2000), (0, 2000)), ((0, 2000), (0, 1000.3))]:
+        msp.add_line(a, b)
+    profile_doc, report = read_dxf(save(doc, tmp_path, "big.dxf"))
+    assert report.tolerance == pytest.approx(1e-4 * math.hypot(4000, 1000), rel=1e-12)
+    assert len(profile_doc.profile.loops) == 1
+
+
+def test_inch_drawing_with_a_half_thou_gap_closes(tmp_path):
+    # The case of the issue: a 2 in bush drawn in inches ($INSUNITS 1, from memory) whose
+    # export left a 0.0005 in gap; the gap is closed and the area is the rectangle's
+    # (shapely Polygon.area as the reference).
+    doc, msp = new_drawing(insunits=1)
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.5005))]:
+        msp.add_line(a, b)
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert report.tolerance == pytest.approx(0.001)
+    assert len(report.gaps_closed) == 1
+    reference = Polygon([(0, 0.5), (2, 0.5), (2, 1), (0, 1)])
+    m = quick(profile_doc.profile, Axis((0.0, 0.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(reference.area, rel=1e-12)
+    # Pappus-Guldinus (from memory): V = 2 pi ybar A, ybar from shapely's centroid
+    assert m.volume == pytest.approx(2 * math.pi * reference.centroid.y * reference.area,
+                                     rel=1e-12)
+
+
+def test_gap_error_names_the_option(tmp_path):
+    doc, msp = new_drawing(insunits=1)
+    for a, b in [((0, 0.5), (2, 0.5)), ((2, 0.5), (2, 1)), ((2, 1), (0, 1)), ((0, 1), (0, 0.51))]:
+        msp.add_line(a, b)
+    with pytest.raises(FormatError) as info:
+        read_dxf(save(doc, tmp_path))
+    assert "--gap-tolerance" in str(info.value) and "\n" not in str(info.value)
+    profile_doc, report = read_dxf(save(doc, tmp_path), tolerance=0.02)
+    assert len(profile_doc.profile.loops) == 1
 
 
 def test_open_chains_are_kept_only_when_allowed(tmp_path):
@@ -406,9 +445,11 @@ def test_unknown_entities_are_skipped_with_reasons(tmp_path):
     reasons = {s.what.split(" (")[0]: s.reason for s in report.skipped}
     assert reasons["TEXT #5"] == "text is not geometry"
     assert reasons["POINT #6"] == "a point is not a boundary"
-    assert reasons["INSERT #7"].startswith("a block reference is not expanded")
     assert reasons["LINE #8"].startswith("it is an exact duplicate of LINE #1")
+    # the block's circle is expanded at (60, 60): a loop apart from the part, left out
     assert len(profile_doc.profile.loops) == 1
+    assert len(report.warnings) == 1 and "INSERT #7" in report.warnings[0]
+    assert "--keep-strays" in report.warnings[0]
 
 
 def test_layer_choice(tmp_path):
@@ -497,3 +538,85 @@ def test_empty_drawing(tmp_path):
     msp.add_text("nothing here")
     with pytest.raises(FormatError, match=r"no lines, arcs, .* \(skipped: TEXT #1"):
         read_dxf(save(doc, tmp_path))
+
+
+def _placed(polygon, insert, scale, rotation):
+    """shapely: a block's outline placed as a DXF INSERT places it (scale, rotate, move)."""
+    from shapely import affinity
+
+    placed = affinity.scale(polygon, scale[0], scale[1], origin=(0, 0))
+    placed = affinity.rotate(placed, rotation, origin=(0, 0))
+    return affinity.translate(placed, insert[0], insert[1])
+
+
+@pytest.mark.parametrize("insert, scale, rotation", [
+    ((5, 10), (1, 1), 0), ((5, 10), (2, 1), 0), ((30, 40), (1.5, 1.5), 90),
+    ((-20, 50), (1, 0.5), 30),
+])
+def test_block_reference_is_placed_like_shapely_places_it(tmp_path, insert, scale, rotation):
+    # reference library: shapely affinity (scale, rotate, translate), Polygon.area/centroid
+    outline = [(0, 0), (40, 0), (40, 10), (20, 25), (0, 10)]
+    doc, msp = new_drawing()
+    block = doc.blocks.new("SLEEVE")
+    block.add_lwpolyline(outline, close=True)
+    msp.add_blockref("SLEEVE", insert, dxfattribs={"xscale": scale[0], "yscale": scale[1],
+                                                    "rotation": rotation})
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    reference = _placed(Polygon(outline), insert, scale, rotation)
+    m = quick(profile_doc.profile, Axis((0.0, -1000.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(reference.area, rel=1e-12)
+    assert m.centroid == pytest.approx((reference.centroid.x, reference.centroid.y), rel=1e-12)
+    assert "in block 'SLEEVE' of INSERT #1" in report.loops[0].source
+
+
+def test_nested_block_references_compose(tmp_path):
+    # a circle (CRC, pi r^2, from memory) in an inner block, inside an outer block's ring
+    doc, msp = new_drawing()
+    inner = doc.blocks.new("BORE")
+    inner.add_circle((0, 0), 4)
+    outer = doc.blocks.new("BUSH")
+    outer.add_lwpolyline([(-10, -10), (10, -10), (10, 10), (-10, 10)], close=True)
+    outer.add_blockref("BORE", (2, 1), dxfattribs={"xscale": 0.5, "yscale": 0.5})
+    msp.add_blockref("BUSH", (100, 50), dxfattribs={"xscale": 2, "yscale": 2, "rotation": 45})
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert len(profile_doc.profile.loops) == 2 and not report.warnings
+    m = quick(profile_doc.profile, Axis((0.0, -1000.0), (1.0, 0.0)))
+    assert m.area == pytest.approx(40 * 40 - math.pi * 4 ** 2, rel=1e-12)
+
+
+def test_stray_circle_is_warned_and_left_out_unless_kept(tmp_path):
+    # The case of the issue: a circle drawn away from the part was added to the volume.
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 20), (0, 20)], close=True)
+    msp.add_circle((20, 15), 3)       # a bore inside the outline: a hole, kept
+    msp.add_circle((80, 15), 3)       # drawn apart from the part: a stray
+    name = save(doc, tmp_path)
+    profile_doc, report = read_dxf(name)
+    axis = Axis((0.0, 0.0), (1.0, 0.0))
+    ring = Polygon([(0, 10), (40, 10), (40, 20), (0, 20)])
+    m = quick(profile_doc.profile, axis)
+    assert m.area == pytest.approx(ring.area - math.pi * 9, rel=1e-12)   # shapely, CRC
+    assert len(report.warnings) == 1 and "CIRCLE #3" in report.warnings[0]
+    assert "lies outside it" in report.warnings[0] and "--keep-strays" in report.warnings[0]
+    profile_doc, report = read_dxf(name, keep_strays=True)
+    assert len(profile_doc.profile.loops) == 3 and "kept as asked" in report.warnings[0]
+
+
+def test_island_inside_a_hole_is_a_stray(tmp_path):
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 40), (0, 40)], close=True)
+    msp.add_circle((20, 25), 10)
+    msp.add_circle((20, 25), 3)       # inside the hole: material not joined to the part
+    profile_doc, report = read_dxf(save(doc, tmp_path))
+    assert len(profile_doc.profile.loops) == 2
+    assert "inside one of its holes" in report.warnings[0]
+
+
+def test_non_finite_and_huge_numbers_name_the_entity_and_the_range(tmp_path):
+    doc, msp = new_drawing()
+    msp.add_lwpolyline([(0, 10), (40, 10), (40, 20), (0, 20)], close=True)
+    msp.add_line((0, 0), (1e300, 0))
+    with pytest.raises(FormatError) as info:
+        read_dxf(save(doc, tmp_path))
+    text = str(info.value)
+    assert "LINE #2" in text and "1e+300" in text and "1e+15" in text

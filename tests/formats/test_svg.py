@@ -135,7 +135,7 @@ def test_relative_commands_after_close_start_from_the_subpath_start():
     assert inner.segments[0].start == (15.0, -13.0)
     assert [s.end for s in inner.segments] == [(19.0, -13.0), (19.0, -15.0), (15.0, -15.0),
                                                (15.0, -13.0)]
-    doc, _ = path_data_profile("M 10 10 h 5 v 5 z m 1 7 h 1")
+    doc, _ = path_data_profile("M 10 10 h 5 v 5 z m 1 7 h 1", keep_strays=True)
     assert doc.profile.chains[0].segments[0].start == (11.0, -17.0)
     # a drawing command right after "z" starts a new subpath at the same first point
     subpaths = _subpaths(parse_path_data("M 10 10 h 5 v 5 z l 1 7"))
@@ -198,10 +198,16 @@ def test_y_is_flipped_and_volume_equals_the_profile_built_directly():
 
 
 def test_open_subpaths_are_chains_and_closed_ones_loops():
-    doc, report = path_data_profile("M 0 0 L 10 0 L 10 10 M 20 0 h 5 v 5 h -5 v -5")
+    d = "M 0 0 L 10 0 L 10 10 M 20 0 h 5 v 5 h -5 v -5"
+    doc, report = path_data_profile(d, keep_strays=True)
     assert len(doc.profile.chains) == 1 and len(doc.profile.loops) == 1
     assert any("without a Z" in n for n in report.notes)
     assert [p.kind for p in report.loops + report.chains] == ["loop", "chain"]
+    # by default the chain, not joined to the loop, is warned about and left out
+    doc, report = path_data_profile(d)
+    assert len(doc.profile.chains) == 0 and len(doc.profile.loops) == 1
+    assert len(report.warnings) == 1 and "chain 1" in report.warnings[0]
+    assert "--keep-strays" in report.warnings[0]
 
 
 def test_zero_length_pieces_are_left_out_and_reported():
@@ -417,10 +423,12 @@ def test_svg_file_by_id_with_group_and_path_transforms(tmp_path):
         (30.0, -30.0), (30.0, -40.0), (10.0, -40.0), (10.0, -30.0)]
     assert any("translate(10 20)" in n for n in report.notes)
     assert report.unit_source.startswith("assumed")
-    with pytest.raises(FormatError, match=r"has 2 paths \(frame, section\); choose one"):
-        read_svg(name)
-    with pytest.raises(FormatError, match='no element with id "hub"; the paths are: frame, section'):
+    with pytest.raises(FormatError, match="no element with id \"hub\"; the drawn elements are: "
+                                          "path 'frame', path 'section'"):
         read_svg(name, path_id="hub")
+    # without an id both are read: the section lies inside the frame, so it is its hole
+    doc, report = read_svg(name)
+    assert len(doc.profile.loops) == 2 and not report.warnings
 
 
 def test_non_uniform_scale_makes_a_circle_elliptical(tmp_path):
@@ -522,9 +530,9 @@ def test_refused_structures(tmp_path):
                                            'd="M0 0 H5 V5 Z"/></svg>')
     with pytest.raises(FormatError, match="transform in a style attribute"):
         read_svg(styled)
-    shape = write(tmp_path, "rect.svg", '<svg><rect id="r" width="5" height="5"/></svg>')
-    with pytest.raises(FormatError, match=r'id "r" is a <rect>, not a <path>'):
-        read_svg(shape, path_id="r")
+    shape = write(tmp_path, "text.svg", '<svg><text id="t">A</text><path d="M0 0 H5 V5 Z"/></svg>')
+    with pytest.raises(FormatError, match=r'id "t" is a <text>, which draws nothing'):
+        read_svg(shape, path_id="t")
     empty = write(tmp_path, "empty.svg", '<svg><path id="e"/></svg>')
     with pytest.raises(FormatError, match="no path data"):
         read_svg(empty)

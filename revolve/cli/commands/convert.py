@@ -2,10 +2,16 @@
 
 The command reads the drawing, reports what it found (loops, open chains,
 gaps closed, entities skipped and why, where the unit and the axis came
-from) and writes the project's profile file (TOML) atomically. The file is
-read back before it is written, and when an axis is known the profile is
-checked against it (one side of the axis, no crossings), so a file that
-``revolve measure`` would refuse is never written.
+from) and writes the project's profile file (TOML) atomically. What it
+writes is checked exactly as ``revolve measure`` checks what it reads
+(:func:`check_as_measure_would`): the material or density through the same
+lookup, the angle, and the profile against the axis (one side of it, no
+crossings) -- or, with no axis known yet, for crossings alone -- and the file
+is read back before it is written, so a file that ``revolve measure`` would
+refuse is never written.
+
+Loops and chains of a drawing that are not joined to its main outline are
+warned about and left out unless ``--keep-strays`` is given.
 """
 
 from __future__ import annotations
@@ -27,7 +33,8 @@ def _reject(option: str, value, applies: str) -> None:
 
 
 def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=None, layer=None,
-                 axis=None, axis_layer=None, gap_tolerance=None, open_chains=False, units=None):
+                 axis=None, axis_layer=None, gap_tolerance=None, open_chains=False, units=None,
+                 keep_strays=False):
     """Read any supported input; returns (ProfileDocument, DrawingReport)."""
     from revolve.formats.drawings import DrawingReport, summarise_paths
 
@@ -42,7 +49,7 @@ def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=No
         _reject("--open", open_chains, "DXF drawings (SVG subpaths say themselves whether "
                                        "they are closed)")
         _reject("--path-id", path_id, "SVG files")
-        return path_data_profile(path_data, unit=units)
+        return path_data_profile(path_data, unit=units, keep_strays=keep_strays)
     extension = os.path.splitext(drawing)[1].lower()
     kind = _DRAWING_KINDS.get(extension)
     if kind != "dxf":
@@ -56,19 +63,19 @@ def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=No
     if kind == "svg":
         from revolve.formats.svg import read_svg
 
-        return read_svg(drawing, unit=units, path_id=path_id)
+        return read_svg(drawing, unit=units, path_id=path_id, keep_strays=keep_strays)
     if kind == "path data":
         from revolve.formats.svg import read_path_data_file
 
-        return read_path_data_file(drawing, unit=units)
+        return read_path_data_file(drawing, unit=units, keep_strays=keep_strays)
     if kind == "dxf":
         from revolve.formats.dxf import read_dxf
 
         return read_dxf(drawing, unit=units, layer=layer, axis=axis, axis_layer=axis_layer,
-                        tolerance=gap_tolerance, open_chains=open_chains)
-    from revolve.formats import load_profile
-
-    doc = load_profile(drawing, unit=units)
+                        tolerance=gap_tolerance, open_chains=open_chains,
+                        keep_strays=keep_strays)
+    _reject("--keep-strays", keep_strays, "drawings (SVG, DXF)")
+    doc = common.load(drawing, unit=units)
     profile = doc.profile
     paths = profile.paths
     loops, chains = summarise_paths(profile, ["the file"] * len(paths),
@@ -79,12 +86,46 @@ def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=No
                               loops=loops, chains=chains)
 
 
+def check_as_measure_would(doc, axis) -> None:
+    """Check a document as ``revolve measure`` checks what it reads, without measuring.
+
+    The material or density goes through :func:`revolve.cli.common.resolve_density`
+    (the lookup ``measure`` uses); the angle and the axis build a
+    :class:`~revolve.geometry.profile.Revolution` and the profile is prepared
+    against the axis (:func:`revolve.geometry.checks.prepare`: closure, one
+    side of the axis, no crossings). With no axis known yet, the profile is
+    checked for crossings alone (the same test, which needs no axis).
+
+    Raises
+    ------
+    RevolveError
+        Naming the input file and line (or the option).
+    """
+    from revolve.formats.drawings import check_no_crossings
+    from revolve.geometry.checks import prepare
+    from revolve.geometry.profile import Revolution
+
+    common.resolve_density(None, None, doc)
+    if axis is None:
+        check_no_crossings(doc.profile, file=doc.file)
+        return
+    angle = doc.angle_degrees if doc.angle_degrees is not None else 360.0
+    try:
+        Revolution(doc.profile, axis, angle)
+    except RevolveError as exc:
+        raise exc.located(file=doc.file, line=doc.line_of("angle"), place="angle") from None
+    try:
+        prepare(doc.profile, axis)
+    except RevolveError as exc:
+        raise exc.located(file=doc.file) from None
+
+
 def run_convert(drawing: Optional[str], output: str, *, path_data: Optional[str] = None,
                 path_id: Optional[str] = None, layer: Optional[str] = None,
                 axis: Optional[str] = None, axis_layer: Optional[str] = None,
                 gap_tolerance: Optional[float] = None, open_chains: bool = False,
                 units: Optional[str] = None, name: Optional[str] = None, force: bool = False,
-                as_json: bool = False) -> int:
+                as_json: bool = False, keep_strays: bool = False) -> int:
     """Convert, write and report; returns the exit code (errors raise RevolveError)."""
     from dataclasses import replace
 
@@ -102,22 +143,21 @@ def run_convert(drawing: Optional[str], output: str, *, path_data: Optional[str]
     given_axis = common.parse_axis(axis)
     doc, report = read_drawing(drawing, path_data, path_id=path_id, layer=layer, axis=given_axis,
                                axis_layer=axis_layer, gap_tolerance=gap_tolerance,
-                               open_chains=open_chains, units=units)
+                               open_chains=open_chains, units=units, keep_strays=keep_strays)
     final_axis = given_axis or doc.axis
     if given_axis is not None and report.axis is None:
         report = replace(report, axis="given")
-    if final_axis is not None:
-        from revolve.geometry.checks import prepare
-
-        prepare(doc.profile, final_axis)
+    check_as_measure_would(doc, final_axis)
     profile = doc.profile
     if name is not None:
         profile = replace(profile, name=name)
     doc = replace(doc, profile=profile, axis=final_axis)
     text = profile_text(doc)
-    parse_profile_text(text, file=output)  # what is written must read back
+    written = parse_profile_text(text, file=output)  # what is written must read back
+    common.resolve_density(None, None, written)
     write_text_atomically(output, text)
     if as_json:
+        _warn(report)
         out = {"output": output, "report": report.as_dict(),
                "axis": None if final_axis is None else
                {"point": list(final_axis.point), "direction": list(final_axis.direction)}}
@@ -125,6 +165,14 @@ def run_convert(drawing: Optional[str], output: str, *, path_data: Optional[str]
         return 0
     _print_report(report, output, final_axis)
     return 0
+
+
+def _warn(report) -> None:
+    """With --json, each warning also as one line on standard error, where it is seen."""
+    import sys
+
+    for warning in report.warnings:
+        print(f"revolve: warning: {warning}", file=sys.stderr)
 
 
 def _print_report(report, output: str, axis) -> None:
@@ -155,6 +203,8 @@ def _print_report(report, output: str, axis) -> None:
         con.print("axis: none in the file; give one to revolve measure with --axis")
     for note in report.notes:
         con.print(f"note: {note}")
+    for warning in report.warnings:
+        con.print(f"warning: {warning}")
     con.print(f"wrote {output}")
 
 
@@ -170,8 +220,9 @@ def register(app: typer.Typer) -> None:
                                                 help="SVG path data given here instead of a "
                                                      "file, e.g. 'M0 10 H40 V20 H0 Z'."),
         path_id: Optional[str] = typer.Option(None, "--path-id",
-                                              help="SVG: the id of the <path> to read (needed "
-                                                   "when the file has several)."),
+                                              help="SVG: the id of one path, shape or group "
+                                                   "to read. Default: every path and shape "
+                                                   "drawn."),
         layer: Optional[str] = typer.Option(None, "--layer", help="DXF: read only this layer."),
         axis: Optional[str] = typer.Option(None, "--axis",
                                            help="x, y, or X0,Y0,DX,DY; written to the file. "
@@ -181,11 +232,17 @@ def register(app: typer.Typer) -> None:
                                                       "lines."),
         gap_tolerance: Optional[float] = typer.Option(None, "--gap-tolerance",
                                                       help="DXF: ends closer than this are "
-                                                           "joined (drawing units; default 1e-6 "
-                                                           "of the drawing's size)."),
+                                                           "joined (drawing units; default the "
+                                                           "larger of 1e-4 of the drawing's size "
+                                                           "and 0.001 in, at most 1e-3 of the "
+                                                           "size)."),
         open_chains: bool = typer.Option(False, "--open",
                                          help="DXF: keep ends that meet nothing as open chains "
                                               "(surfaces only)."),
+        keep_strays: bool = typer.Option(False, "--keep-strays",
+                                         help="Keep loops and chains not joined to the main "
+                                              "outline (the largest loop; loops inside it are "
+                                              "holes). Default: warn and leave them out."),
         units: Optional[str] = typer.Option(None, "--units",
                                             help="Length unit of the coordinates when the "
                                                  "drawing does not say. Default mm."),
@@ -198,6 +255,6 @@ def register(app: typer.Typer) -> None:
         code = run_convert(drawing, output, path_data=path_data, path_id=path_id, layer=layer,
                            axis=axis, axis_layer=axis_layer, gap_tolerance=gap_tolerance,
                            open_chains=open_chains, units=units, name=name, force=force,
-                           as_json=as_json)
+                           as_json=as_json, keep_strays=keep_strays)
         if code:
             raise typer.Exit(code)
