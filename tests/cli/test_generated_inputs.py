@@ -15,6 +15,8 @@ here.
 from __future__ import annotations
 
 import io
+import json as json_module
+import math
 import os
 import signal
 from contextlib import contextmanager, redirect_stderr, redirect_stdout
@@ -228,7 +230,12 @@ def test_generated_profile_files_measure_or_refuse(tmp_path_factory, text, json)
 def test_generated_point_lists_measure_or_refuse(tmp_path_factory, text):
     path = tmp_path_factory.mktemp("points") / "part.txt"
     path.write_text(text, encoding="utf-8")
-    check_contract(["measure", str(path), "--json"])
+    code, out, _ = check_contract(["measure", str(path), "--json"])
+    if code == 0:  # a result, then every main figure is a finite number (no silent null)
+        data = json_module.loads(out)
+        for key in ("area", "volume", "surface_area", "centroid_distance",
+                    "centre_of_mass_axial", "centre_of_mass_offset"):
+            assert isinstance(data[key], (int, float)) and math.isfinite(data[key]), (key, text)
 
 
 @SETTINGS
