@@ -514,7 +514,7 @@ class HorizontalLevels:
 def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequence[float]] = None,
                       pieces: Optional[HorizontalPieces] = None, rel_tol: float = 1e-11,
                       order: int = 8, max_rounds: int = 30, max_jobs: int = 3_000_000,
-                      chunk: int = 4096) -> HorizontalLevels:
+                      chunk: int = 4096, max_work: int = 4_000_000) -> HorizontalLevels:
     """Volume and wetted area at each liquid depth, the axis horizontal.
 
     Parameters
@@ -536,9 +536,11 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     order : int
         Gauss–Legendre nodes per interval on straight and squared maps
         (lines and arcs); curves, on the cosine map, use twice as many.
-    max_rounds, max_jobs : int
-        Limits of the halving: after that many rounds, or once more intervals
-        than ``max_jobs`` wait, the last round takes what is left (with its
+    max_rounds, max_jobs, max_work : int
+        Limits of the halving: after that many rounds, once more intervals
+        than ``max_jobs`` wait, or once the intervals evaluated so far and
+        those waiting pass ``max_work`` (which bounds the time of a call
+        whatever the curve), the last round takes what is left (with its
         error estimate, which is reported).
 
     Returns
@@ -639,8 +641,10 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     tol_v = share * PI * Rm * Rm * max(pc.length, Rm)
     tol_a = share * 2.0 * PI * Rm * max(pc.length, Rm)
     round_no = 0
+    work = 0
     while len(jobs):
         final = round_no >= max_rounds
+        work += len(jobs)
         undone = []
         for start in range(0, len(jobs), chunk):
             part = jobs.take(slice(start, start + chunk))
@@ -668,7 +672,7 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
                 undone.append(part.take(~good).halve())
         jobs = _concat(undone)
         round_no += 1
-        if len(jobs) > max_jobs:
+        if len(jobs) > max_jobs or work + len(jobs) > max_work:
             max_rounds = round_no       # the next round is the last: it takes what is left
     return HorizontalLevels(d, V, A, E, Rm)
 

@@ -11,9 +11,10 @@ Summed over a closed loop the sector moments are the loop's area moments
 homogeneous f). Lines and arcs are closed-form: lines by polynomial formulas,
 arcs by expanding the integrand as a trigonometric polynomial and integrating
 each harmonic exactly, with ``∫ e^{ikθ} dθ = e^{ikθm} 2 sin(kΔ/2)/k`` so that
-short arcs lose no digits. Curves are integrated symbolically by sympy when it
-finishes within a time budget, otherwise by adaptive quadrature whose error
-estimate is returned.
+short arcs lose no digits. Curves are integrated exactly where the integrand
+is a small polynomial (bounded work, see :func:`polynomial_integral`), otherwise
+by adaptive quadrature with a bounded number of intervals, whose error estimate
+is returned.
 
 The engine calls these on segments already placed in the axis frame
 (``x`` = axial position ``z``, ``y`` = distance ``r`` from the axis).
@@ -40,7 +41,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Sequence
+from typing import Optional, Sequence
 
 import numpy as np
 
@@ -148,10 +149,6 @@ def arc_integrals(cx, cy, radius, start_angle, sweep) -> np.ndarray:
 
 # -- curves --------------------------------------------------------------------------
 
-#: Seconds sympy may spend on the exact integrals of one curve before quadrature is used.
-SYMBOLIC_BUDGET_SECONDS = 1.2
-
-
 def _curve_integrand(curve: Curve):
     def f(t):
         x, y, dx, dy = curve.evaluate(np.atleast_1d(t))
@@ -163,8 +160,17 @@ def _curve_integrand(curve: Curve):
     return f
 
 
+#: Most intervals :func:`adaptive_quadrature` evaluates for one integral (each costs 3n
+#: points); past it the unresolved intervals are taken with their error estimates.
+MAX_INTERVALS = 40_000
+#: A curve whose quadrature runs out of intervals with an error estimate above this
+#: fraction of ∫|f| in any column is refused rather than reported.
+UNRESOLVED_LIMIT = 1e-7
+
+
 def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 16,
-                        max_rounds: int = 50):
+                        max_rounds: int = 50, max_intervals: int = MAX_INTERVALS,
+                        info: Optional[dict] = None):
     """Vectorised adaptive Gauss–Legendre of a vector-valued ``f`` over [a, b].
 
     ``f`` takes an array of points (m,) and returns (m, k). Each interval is
@@ -173,9 +179,28 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
     done again, all intervals of a round in one call of ``f``. Returns
     ``(values (k,), errors (k,))``; the error is the sum of the differences.
 
+    The work is bounded: after ``max_rounds`` rounds, or once the next round
+    would take the number of intervals evaluated past ``max_intervals``, the
+    intervals not yet resolved are taken as they are. Their error estimate is
+    then the difference of the two rules plus the integral of ``|f|`` over them
+    from the finer rule (an unresolved interval may be wrong by as much as it
+    holds), so the estimate stays honest for integrands the rule cannot
+    resolve, such as fast oscillations. When ``info`` is a dict it receives
+    ``exhausted`` (the budget ran out), ``scale`` (∫|f| per column, from the
+    first round) and ``worst`` (the middle of the unresolved interval with the
+    largest difference, or None).
+
     >>> v, e = adaptive_quadrature(lambda x: np.stack([np.sqrt(x), x ** 2], axis=-1), 0.0, 1.0)
     >>> [round(float(c), 12) for c in v], bool(e.max() < 1e-10)
     ([0.666666666667, 0.333333333333], True)
+
+    A budget of a few intervals on a fast oscillation: a rough value, but an
+    error estimate that covers the true value (∫₀^π |sin 200x| dx = 2).
+
+    >>> f = lambda x: np.abs(np.sin(200 * x))[:, None]
+    >>> v, e = adaptive_quadrature(f, 0.0, math.pi, max_intervals=16)
+    >>> bool(abs(v[0] - 2.0) <= e[0]), bool(e[0] > 1e-6)
+    (True, True)
     """
     from revolve.geometry.slicing import gauss_legendre
 
@@ -184,9 +209,11 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
     lo, hi = np.array([a], dtype=float), np.array([b], dtype=float)
     width = abs(b - a)
     total = err = scale = None
-    for _ in range(max_rounds):
+    used = 0
+    for round_no in range(max_rounds):
         mid, half = (lo + hi) / 2, (hi - lo) / 2
         m = lo.size
+        used += m
         pts = np.concatenate([(mid[:, None] + half[:, None] * x1).ravel(),
                               (mid[:, None] + half[:, None] * x2).ravel()])
         vals = np.asarray(f(pts), dtype=float)
@@ -202,15 +229,25 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
         diff = np.abs(i2 - i1)
         share = rel_tol * scale[None, :] * (np.abs(hi - lo) / width)[:, None]
         ok = np.all(diff <= share, axis=1) | (np.abs(hi - lo) <= 1e-14 * width)
+        last = round_no == max_rounds - 1 or used + 2 * int((~ok).sum()) > max_intervals
+        if last and not ok.all():
+            held = np.einsum("mnk,n->mk", np.abs(v2[~ok]), w2) * np.abs(half[~ok])[:, None]
+            total += i2.sum(axis=0)
+            err += diff[ok].sum(axis=0) + (diff[~ok] + held).sum(axis=0)
+            if info is not None:
+                info["exhausted"] = True
+                info["worst"] = float(mid[~ok][np.argmax((diff[~ok] / scale).max(axis=1))])
+            break
         total += i2[ok].sum(axis=0)
         err += diff[ok].sum(axis=0)
         if ok.all():
             break
         lo, hi, mid = lo[~ok], hi[~ok], mid[~ok]
         lo, hi = np.concatenate([lo, mid]), np.concatenate([mid, hi])
-    else:
-        total += i2[~ok].sum(axis=0)
-        err += diff[~ok].sum(axis=0)
+    if info is not None:
+        info.setdefault("exhausted", False)
+        info.setdefault("worst", None)
+        info["scale"] = scale
     return total, err
 
 
@@ -235,91 +272,146 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13):
     mid, half = (t0 + t1) / 2, (t1 - t0) / 2
 
     def g(phi):
-        v = f(mid - half * np.cos(phi)) * (half * np.sin(phi))[:, None]
+        t = mid - half * np.cos(phi)
+        x, y, _, _ = curve.evaluate(t)
+        bad = ~(np.isfinite(x) & np.isfinite(y)) & (t != t0) & (t != t1)
+        if bad.any():
+            raise not_finite_near(curve, float(t[np.argmax(bad)]))
+        v = f(t) * (half * np.sin(phi))[:, None]
         # Where t rounds onto an end with an infinite slope the true integrand
         # tends to zero (the map's sin φ wins over the square-root singularity).
         return np.nan_to_num(v, nan=0.0, posinf=0.0, neginf=0.0)
 
+    info: dict = {}
     with np.errstate(all="ignore"):
-        val, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol)
+        val, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, info=info)
+    if info["exhausted"] and np.any(err > UNRESOLVED_LIMIT * info["scale"]):
+        raise unresolved_near(curve, mid - half * math.cos(info["worst"]))
     if t1 < t0:  # ds = |p'(t)| |dt|: lengths stay positive when t runs backwards
         val[:3] = -val[:3]
     return val, err
 
 
-def _run_with_budget(fn, seconds: float):
-    """Run ``fn()``; return its value, or None when it takes longer than ``seconds``.
+def unresolved_near(curve: Curve, t: float):
+    """The error for a curve the bounded quadrature cannot resolve (near ``t``).
 
-    Uses a real-time interval timer, so it only limits work on the main thread
-    of a Unix process; elsewhere it returns None at once and the caller falls
-    back to quadrature. The timer repeats every 50 ms until the work stops, so
-    an alarm swallowed by a finalizer inside sympy is raised again.
-
-    >>> _run_with_budget(lambda: 2 + 2, 1.0)
-    4
+    >>> import sympy
+    >>> s = sympy.Symbol("t", real=True)
+    >>> str(unresolved_near(Curve(s, s, 0.0, 1.0), 0.25))  # doctest: +NORMALIZE_WHITESPACE
+    'the curve oscillates or bends too sharply to integrate within 40000 intervals (near t = 0.25);
+    split it into shorter curves, smooth it, or give it as points'
     """
-    import signal
-    import threading
+    from revolve.errors import SegmentError
 
-    if threading.current_thread() is not threading.main_thread() or not hasattr(signal, "setitimer"):
+    w = curve.where
+    return SegmentError(f"the curve oscillates or bends too sharply to integrate within "
+                        f"{MAX_INTERVALS} intervals (near t = {t:.6g}); split it into shorter "
+                        "curves, smooth it, or give it as points",
+                        file=w.file if w else None, line=w.line if w else None,
+                        place=w.place if w else None)
+
+
+def not_finite_near(curve: Curve, t: float):
+    """The error for a curve that is not finite (a pole, a root of a negative) near ``t``.
+
+    >>> import sympy
+    >>> s = sympy.Symbol("t", real=True)
+    >>> str(not_finite_near(Curve(s, s, 0.0, 1.0), 0.5))
+    'the curve is not finite near t = 0.5; keep the interval where it is defined'
+    """
+    from revolve.errors import SegmentError
+
+    w = curve.where
+    return SegmentError(f"the curve is not finite near t = {t:.6g}; keep the interval where it "
+                        "is defined", file=w.file if w else None, line=w.line if w else None,
+                        place=w.place if w else None)
+
+
+#: Largest degree in t of a curve's x(t) and y(t) for which the exact integrals are formed.
+SYMBOLIC_MAX_DEGREE = 16
+#: Largest operation count of x(t) or y(t) for which the exact integrals are tried.
+SYMBOLIC_MAX_OPS = 120
+
+
+def polynomial_integral(g, t, t0, t1):
+    """Exact ∫ g dt from t0 to t1 when ``g`` is a small polynomial in ``t``, else None.
+
+    This is the whole symbolic step of the engine: it never calls a general
+    integrator, so its time is bounded by the size of the polynomial (no
+    timer, no signal, safe in any thread). Other integrands go to quadrature.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> polynomial_integral(t ** 2, t, 0, 3)
+    9
+    >>> polynomial_integral(3 * t ** 2 + 1, t, 0, sympy.pi / 2)
+    pi/2 + pi**3/8
+    >>> polynomial_integral(sympy.sqrt(1 + t ** 2), t, 0, 1) is None
+    True
+    """
+    import sympy
+
+    if g.count_ops() > 40 * SYMBOLIC_MAX_OPS or not g.is_polynomial(t):
         return None
-
-    class _Timeout(Exception):
-        pass
-
-    state = {"done": False}
-
-    def on_alarm(signum, frame):
-        # Raise only inside sympy's own work: an alarm landing in a garbage-collector
-        # callback or finalizer would be swallowed there; the timer fires again soon.
-        name = frame.f_code.co_filename if frame is not None else ""
-        if not state["done"] and ("sympy" in name or "mpmath" in name):
-            raise _Timeout()
-
-    old = signal.signal(signal.SIGALRM, on_alarm)
-    try:
-        try:
-            signal.setitimer(signal.ITIMER_REAL, seconds, 0.05)
-            try:
-                return fn()
-            finally:
-                state["done"] = True
-                signal.setitimer(signal.ITIMER_REAL, 0)
-        except _Timeout:
-            return None
-        except Exception:  # sympy failing on an integral is not the user's fault: use quadrature
-            return None
-    finally:
-        state["done"] = True
-        signal.setitimer(signal.ITIMER_REAL, 0)
-        signal.signal(signal.SIGALRM, old)
+    p = sympy.Poly(g, t)
+    if p.degree() > 5 * SYMBOLIC_MAX_DEGREE + 2:
+        return None
+    q = p.integrate().as_expr()
+    return sympy.expand(q.subs(t, t1) - q.subs(t, t0))
 
 
-def curve_integrals_symbolic(curve: Curve, budget: float = SYMBOLIC_BUDGET_SECONDS):
-    """Exact sympy integrals of each column, or None for those that don't finish in the budget.
+def _small_polynomial(e, t) -> bool:
+    """Is ``e`` a polynomial in ``t`` small enough for exact integrals (see the limits)?"""
+    import sympy
 
-    Returns a list of 10 sympy expressions or None entries.
+    if sympy.count_ops(e) > SYMBOLIC_MAX_OPS or not sympy.sympify(e).is_polynomial(t):
+        return False
+    return sympy.Poly(e, t).degree() <= SYMBOLIC_MAX_DEGREE
+
+
+def curve_integrals_symbolic(curve: Curve):
+    """Exact sympy integrals of each column, or None for those not formed exactly.
+
+    Returns a list of 10 sympy expressions or None entries. Only curves whose
+    ``x(t)`` and ``y(t)`` are small polynomials (see :data:`SYMBOLIC_MAX_DEGREE`
+    and :data:`SYMBOLIC_MAX_OPS`) are integrated exactly, and then only the
+    columns whose integrand is a polynomial (the area moments, and the lengths
+    when the speed ``|p'(t)|`` is constant): those finish in bounded time. The
+    rest are left to quadrature.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> r = curve_integrals_symbolic(Curve(t, t ** 2, 0.0, 1.0))
+    >>> r[0] is None, r[COL["M00"]]
+    (True, 1/6)
+    >>> curve_integrals_symbolic(Curve(t, sympy.tan(t), 0.0, 1.0)) == [None] * 10
+    True
     """
     import sympy
 
     t = sympy.Symbol("t", real=True)
-    x, y = curve.x_expr, curve.y_expr
+    x, y = sympy.sympify(curve.x_expr), sympy.sympify(curve.y_expr)
+    if not (_small_polynomial(x, t) and _small_polynomial(y, t)):
+        return [None] * len(COLUMNS)
     dx, dy = sympy.diff(x, t), sympy.diff(y, t)
     a_, b_ = (curve.exact if curve.exact else (None, None))
-    t0 = sympy.nsimplify(curve.t_start) if a_ is None else _exact(a_)
-    t1 = sympy.nsimplify(curve.t_end) if b_ is None else _exact(b_)
-    ds = sympy.sqrt(dx ** 2 + dy ** 2)
+    try:
+        t0 = sympy.nsimplify(curve.t_start) if a_ is None else _exact(a_)
+        t1 = sympy.nsimplify(curve.t_end) if b_ is None else _exact(b_)
+    except Exception:  # an interval sympy cannot make exact: quadrature only
+        return [None] * len(COLUMNS)
+    speed2 = sympy.expand(dx ** 2 + dy ** 2)
+    ds = sympy.sqrt(speed2) if speed2.is_number else None
     w = sympy.expand(x * dy - y * dx)
-    integrands = [ds, x * ds, y * ds] + [sympy.expand(x ** a * y ** b * w) / (a + b + 2)
-                                         for a, b in EXPONENTS]
+    integrands = [ds, None if ds is None else x * ds, None if ds is None else y * ds]
+    integrands += [sympy.expand(x ** a * y ** b * w) / (a + b + 2) for a, b in EXPONENTS]
     results = []
-    deadline_each = budget / len(integrands)
     backwards = bool(curve.t_end < curve.t_start)
     for k, g in enumerate(integrands):
-        r = _run_with_budget(lambda g=g: sympy.integrate(g, (t, t0, t1)), deadline_each)
+        r = None if g is None else polynomial_integral(sympy.expand(g), t, t0, t1)
         if r is not None and k < 3 and backwards:
             r = -r  # ds = |p'(t)| |dt|
-        if r is not None and (r.has(sympy.Integral) or not r.is_number or r.has(sympy.zoo, sympy.nan)):
+        if r is not None and (not r.is_number or r.has(sympy.zoo, sympy.nan)):
             r = None
         results.append(r)
     return results
