@@ -244,20 +244,21 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
             coarse = _interval_sums(pieces, a, b, n, r_ref)
             fine = _interval_sums(pieces, a, b, 2 * n, r_ref)
         diff = np.abs(fine - coarse)
-        scale = max(abs(value) + float(np.abs(fine).sum()), 1e-300)
+        finite = np.isfinite(fine) & np.isfinite(diff)
+        scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
         # An interval too narrow to halve (its middle rounds onto an end) is done.
         narrow = (b - a) <= 4 * np.spacing(np.maximum(np.abs(a), np.abs(b)))
-        good = (diff <= rel_tol * scale) | narrow
+        good = (finite & (diff <= rel_tol * scale)) | narrow
         last = round_no == max_rounds - 1 or used + 2 * int((~good).sum()) > budget
-        if last and not good.all():
-            # Unresolved: the slice areas lie between 0 and the disc of the farthest radius.
-            value += float(np.nan_to_num(fine).sum())
-            error += float(diff[good].sum())
-            error += float(np.nan_to_num(diff[~good], nan=0.0, posinf=0.0).sum()
-                           + (r_far * r_far * (b - a)[~good]).sum())
-            break
-        value += float(fine[good].sum())
-        error += float(diff[good].sum())
+        if last:
+            good[:] = True
+        # Where the rule could not resolve an interval (or a slope overflowed on one too
+        # narrow to halve), its washers lie between nothing and a disc of the farthest
+        # radius for each crossing: that bound is its error.
+        bound = len(pieces) * r_far * r_far * (b - a)
+        unsure = good & (~finite | (diff > rel_tol * scale))
+        value += float(np.where(finite, fine, 0.0)[good].sum())
+        error += float(np.where(unsure, np.where(finite, diff, 0.0) + bound, diff)[good].sum())
         if good.all():
             break
         ab, bb = a[~good], b[~good]
