@@ -160,12 +160,35 @@ def _curve_integrand(curve: Curve):
     return f
 
 
-#: Most intervals :func:`adaptive_quadrature` evaluates for one integral (each costs 3n
+#: Most intervals :func:`adaptive_quadrature` evaluates for one integral (each costs 5n + 2
 #: points); past it the unresolved intervals are taken with their error estimates.
 MAX_INTERVALS = 40_000
 #: A curve whose quadrature runs out of intervals with an error estimate above this
 #: fraction of ∫|f| in any column is refused rather than reported.
 UNRESOLVED_LIMIT = 1e-7
+
+
+_END_CACHE: dict = {}
+
+
+def _end_weights(n: int):
+    """Weights giving the n-node Legendre interpolant's values at -1 and +1 from the node values.
+
+    >>> lo, hi = _end_weights(8)
+    >>> from revolve.geometry.slicing import gauss_legendre
+    >>> x, _ = gauss_legendre(8)
+    >>> round(float(lo @ x ** 7), 12), round(float(hi @ x ** 3), 12)
+    (-1.0, 1.0)
+    """
+    if n not in _END_CACHE:
+        from revolve.geometry.slicing import gauss_legendre
+
+        x, w = gauss_legendre(n)
+        P = np.polynomial.legendre.legvander(x, n - 1)        # P_j(x_i)
+        c = (np.arange(n) + 0.5)[None, :] * P * w[:, None]     # node value -> coefficient j
+        sign = (-1.0) ** np.arange(n)
+        _END_CACHE[n] = (c @ sign, c.sum(axis=1))
+    return _END_CACHE[n]
 
 
 def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 16,
@@ -174,10 +197,12 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
     """Vectorised adaptive Gauss–Legendre of a vector-valued ``f`` over [a, b].
 
     ``f`` takes an array of points (m,) and returns (m, k). Each interval is
-    integrated with n and 2n nodes; intervals whose two results differ by more
-    than their share of ``rel_tol`` × ∫|f_k| (column by column) are halved and
-    done again, all intervals of a round in one call of ``f``. Returns
-    ``(values (k,), errors (k,))``; the error is the sum of the differences.
+    integrated with n and 2n nodes and with n nodes on each half, and the
+    ends are compared with the 2n-node interpolant; intervals
+    where the 2n-node result differs from either of the others by more than
+    their share of ``rel_tol`` × ∫|f_k| (column by column) are halved and done
+    again, all intervals of a round in one call of ``f``. Returns ``(values
+    (k,), errors (k,))``; the error is the sum of the larger differences.
 
     The work is bounded: after ``max_rounds`` rounds, or once the next round
     would take the number of intervals evaluated past ``max_intervals``, the
@@ -206,6 +231,8 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
 
     x1, w1 = gauss_legendre(n)
     x2, w2 = gauss_legendre(2 * n)
+    to_lo, to_hi = _end_weights(2 * n)
+    sliver = 1.0 - float(x2.max())
     lo, hi = np.array([a], dtype=float), np.array([b], dtype=float)
     width = abs(b - a)
     total = err = scale = None
@@ -214,19 +241,35 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
         mid, half = (lo + hi) / 2, (hi - lo) / 2
         m = lo.size
         used += m
+        quarter = half / 2
         pts = np.concatenate([(mid[:, None] + half[:, None] * x1).ravel(),
-                              (mid[:, None] + half[:, None] * x2).ravel()])
+                              (mid[:, None] + half[:, None] * x2).ravel(),
+                              ((mid - quarter)[:, None] + quarter[:, None] * x1).ravel(),
+                              ((mid + quarter)[:, None] + quarter[:, None] * x1).ravel(),
+                              lo, hi])
         vals = np.asarray(f(pts), dtype=float)
         k = vals.shape[-1]
         v1 = vals[:m * n].reshape(m, n, k)
-        v2 = vals[m * n:].reshape(m, 2 * n, k)
+        v2 = vals[m * n:3 * m * n].reshape(m, 2 * n, k)
+        v3 = vals[3 * m * n:5 * m * n].reshape(2, m, n, k)
+        f_lo, f_hi = vals[5 * m * n:5 * m * n + m], vals[5 * m * n + m:]
         i1 = np.einsum("mnk,n->mk", v1, w1) * half[:, None]
         i2 = np.einsum("mnk,n->mk", v2, w2) * half[:, None]
+        i3 = np.einsum("jmnk,n->mk", v3, w1) * quarter[:, None]
         if total is None:
             total, err = np.zeros(k), np.zeros(k)
             absolute = np.einsum("mnk,n->k", np.abs(v2), w2 * abs(half[0]))
             scale = np.where(absolute > 0, absolute, 1.0)
-        diff = np.abs(i2 - i1)
+        # Three checks. The n- and 2n-node rules can agree by chance across a jump of the
+        # integrand (a kink of the curve), and the n-node rule on each half rarely agrees
+        # with both at once. A jump in the sliver between an end and the nearest node is
+        # seen by no rule: there the end value differs from the 2n-node interpolant at
+        # that end, and the sliver holds at most the difference times its width.
+        # (Not at a and b themselves, where an integrand may be undefined and set to 0.)
+        ends = (np.abs(np.einsum("mnk,n->mk", v2, to_lo) - f_lo) * (lo != a)[:, None]
+                + np.abs(np.einsum("mnk,n->mk", v2, to_hi) - f_hi) * (hi != b)[:, None]) \
+            * (sliver * np.abs(half))[:, None]
+        diff = np.maximum(np.maximum(np.abs(i2 - i1), np.abs(i2 - i3)), ends)
         share = rel_tol * scale[None, :] * (np.abs(hi - lo) / width)[:, None]
         ok = np.all(diff <= share, axis=1) | (np.abs(hi - lo) <= 1e-14 * width)
         last = round_no == max_rounds - 1 or used + 2 * int((~ok).sum()) > max_intervals
@@ -256,7 +299,10 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13):
 
     The parameter is mapped as t = mid − half·cos φ, so the square-root
     behaviour of a curve with a vertical tangent at an end becomes smooth in
-    φ and the quadrature converges fast there too.
+    φ and the quadrature converges fast there too. The work is bounded (see
+    :func:`adaptive_quadrature`); a curve that is not finite inside its
+    interval, or that the bounded quadrature cannot resolve, is refused with a
+    :class:`~revolve.errors.SegmentError` naming the segment.
 
     >>> import sympy
     >>> t = sympy.Symbol("t", real=True)
@@ -271,22 +317,52 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13):
     t0, t1 = curve.t_start, curve.t_end
     mid, half = (t0 + t1) / 2, (t1 - t0) / 2
 
+    def t_at(phi):
+        # t0 + 2 half sin²(φ/2) near t0 and t1 - 2 half sin²((π - φ)/2) near t1: the same
+        # map as mid - half cos φ, without rounding t onto an end long before it gets there.
+        return np.where(phi <= math.pi / 2, t0 + 2 * half * np.sin(phi / 2) ** 2,
+                        t1 - 2 * half * np.sin((math.pi - phi) / 2) ** 2)
+
+    def raw(phi):
+        t = t_at(phi)
+        return t, f(t) * (half * np.sin(phi))[:, None]
+
+    def next_to(end, sign):
+        # The integrand at the first φ whose t differs from the end: where t still rounds
+        # onto an end with an infinite slope, the integrand is taken as this value (it is
+        # smooth in φ there), not as a jump to zero.
+        phi = 2 * math.asin(min(1.0, math.sqrt(np.spacing(abs(end)) / (2 * abs(half)))))
+        base = 0.0 if sign > 0 else math.pi
+        for _ in range(64):
+            p = np.array([base + sign * phi])
+            t, v = raw(p)
+            if t[0] != end and np.all(np.isfinite(v)):
+                return v[0]
+            phi *= 2
+        return np.zeros(len(COLUMNS))
+
+    edge: dict = {}
+
     def g(phi):
-        t = mid - half * np.cos(phi)
+        t, v = raw(phi)
         x, y, _, _ = curve.evaluate(t)
         bad = ~(np.isfinite(x) & np.isfinite(y)) & (t != t0) & (t != t1)
         if bad.any():
             raise not_finite_near(curve, float(t[np.argmax(bad)]))
-        v = f(t) * (half * np.sin(phi))[:, None]
-        # Where t rounds onto an end with an infinite slope the true integrand
-        # tends to zero (the map's sin φ wins over the square-root singularity).
+        broken = ~np.all(np.isfinite(v), axis=1)
+        for end, sign in ((t0, 1.0), (t1, -1.0)):
+            at = broken & (t == end)
+            if at.any():
+                if sign not in edge:
+                    edge[sign] = next_to(end, sign)
+                v[at] = edge[sign]
         return np.nan_to_num(v, nan=0.0, posinf=0.0, neginf=0.0)
 
     info: dict = {}
     with np.errstate(all="ignore"):
         val, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, info=info)
     if info["exhausted"] and np.any(err > UNRESOLVED_LIMIT * info["scale"]):
-        raise unresolved_near(curve, mid - half * math.cos(info["worst"]))
+        raise unresolved_near(curve, float(t_at(np.array([info["worst"]]))[0]))
     if t1 < t0:  # ds = |p'(t)| |dt|: lengths stay positive when t runs backwards
         val[:3] = -val[:3]
     return val, err
