@@ -73,6 +73,7 @@ import numpy as np
 from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, split_arc,
                                        split_curve, section_loop_factors)
+from revolve.geometry.integrals import _end_weights
 from revolve.geometry.segments import Arc, Curve, Line
 from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
 
@@ -448,6 +449,10 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
     :func:`_error_estimate`).
     """
     x, weights = _rule(n)
+    # The interval's two ends too: a kink of the boundary in the sliver between an end
+    # and the nearest node is seen by no rule, but the end value then departs from the
+    # interpolant (below).
+    x = np.concatenate([x, [-1.0, 1.0]])
     half_u = 0.5 * (jobs.ub - jobs.ua)
     u = 0.5 * (jobs.ua + jobs.ub)[:, None] + half_u[:, None] * x[None, :]
     p, dp = _parameter(jobs, u)
@@ -475,9 +480,21 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
     if sel_c.size:   # a curve's derivative may be infinite at an end node of a cosine map
         gv, ga = np.nan_to_num(gv), np.nan_to_num(ga)
     # einsum, not matmul: a BLAS call for an inner size of n is slower than a plain loop
-    qv = np.einsum("jn,nk->jk", gv, weights)
-    qa = np.einsum("jn,nk->jk", ga, weights)
-    return qv[:, 0], qa[:, 0], _error_estimate(qv, n), _error_estimate(qa, n)
+    qv = np.einsum("jn,nk->jk", gv[:, :n], weights)
+    qa = np.einsum("jn,nk->jk", ga[:, :n], weights)
+    ev, ea = _error_estimate(qv, n), _error_estimate(qa, n)
+    # End check (not at a piece's own ends, where a map may make the integrand 0 or undefined):
+    # a kink hidden in an end sliver moves the end value away from the interpolant by about
+    # the jump of slope times the sliver, and the sliver holds at most that times its width.
+    to_lo, to_hi = _end_weights(n)
+    sliver = 1.0 - float(x[:n].max())
+    inner_lo, inner_hi = jobs.ua > 0.0, jobs.ub < 1.0
+    for g, e in ((gv, ev), (ga, ea)):
+        with np.errstate(all="ignore"):
+            miss = (np.abs(g[:, :n] @ to_lo - g[:, n]) * inner_lo
+                    + np.abs(g[:, :n] @ to_hi - g[:, n + 1]) * inner_hi) * sliver
+        np.maximum(e, np.nan_to_num(miss, nan=np.inf, posinf=np.inf), out=e)
+    return qv[:, 0], qa[:, 0], ev, ea
 
 
 def _arc_angle_at_r(cz, cr, R, a, b, rr):
