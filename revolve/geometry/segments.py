@@ -318,8 +318,8 @@ class Curve:
         return (float(x[0]), float(y[0]))
 
     def length(self) -> float:
-        from revolve.geometry.integrals import curve_integrals_numeric
-        return float(curve_integrals_numeric(self)[0][0])
+        from revolve.geometry.integrals import curve_length
+        return curve_length(self)
 
     def point_at(self, s: float) -> Point:
         t = self.t_start + s * (self.t_end - self.t_start)
