@@ -256,17 +256,19 @@ def _curve_terms(seg, frame, t):
     """
     import sympy
 
-    from revolve.geometry.integrals import polynomial_integral
+    from revolve.geometry.integrals import _small_polynomial, polynomial_integral
 
     if not seg.exact:
         raise NotExact("the curve's interval has no exact value")
     t0, t1 = _sym(seg.exact[0]), _sym(seg.exact[1])
+    # Expand only small polynomials here; anything else goes whole to the stoppable worker.
+    small = _small_polynomial(seg.x_expr, t) and _small_polynomial(seg.y_expr, t)
     z, r = frame((seg.x_expr, seg.y_expr))
     dz, dr = sympy.diff(z, t), sympy.diff(r, t)
-    w = sympy.expand(z * dr - r * dz)
+    w = sympy.expand(z * dr - r * dz) if small else z * dr - r * dz
     terms, todo = [None, None, None], []
     for k, g in enumerate((w / 2, r * w / 3, r * sympy.sqrt(dz * dz + dr * dr))):
-        v = polynomial_integral(sympy.expand(g), t, t0, t1) if k < 2 else None
+        v = polynomial_integral(sympy.expand(g), t, t0, t1) if k < 2 and small else None
         if v is not None:
             terms[k] = v
         else:

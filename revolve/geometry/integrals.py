@@ -195,7 +195,7 @@ def _end_weights(n: int):
 
 def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 16,
                         max_rounds: int = 50, max_intervals: int = MAX_INTERVALS,
-                        info: Optional[dict] = None):
+                        info: Optional[dict] = None, noise_floor: float = 1e-11):
     """Vectorised adaptive Gauss–Legendre of a vector-valued ``f`` over [a, b].
 
     ``f`` takes an array of points (m,) and returns (m, k). Each interval is
@@ -203,8 +203,10 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
     ends are compared with the 2n-node interpolant; intervals
     where the 2n-node result differs from either of the others by more than
     their share of ``rel_tol`` × ∫|f_k| (column by column) are halved and done
-    again, all intervals of a round in one call of ``f``. Returns ``(values
-    (k,), errors (k,))``; the error is the sum of the larger differences.
+    again, all intervals of a round in one call of ``f``; an interval whose
+    differences are within ``noise_floor`` of its own ∫|f_k| is done too (the
+    rounding noise of an integrand such as a high power sets that floor). Returns
+    ``(values (k,), errors (k,))``; the error is the sum of the larger differences.
 
     The work is bounded: after ``max_rounds`` rounds, or once the next round
     would take the number of intervals evaluated past ``max_intervals``, the
@@ -273,7 +275,11 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
             * (sliver * np.abs(half))[:, None]
         diff = np.maximum(np.maximum(np.abs(i2 - i1), np.abs(i2 - i3)), ends)
         share = rel_tol * scale[None, :] * (np.abs(hi - lo) / width)[:, None]
-        ok = np.all(diff <= share, axis=1) | (np.abs(hi - lo) <= 1e-14 * width)
+        # Rounding noise of the integrand (a high power, a cancelling sum) sets a floor:
+        # an interval whose checks agree to within noise_floor of what it holds is done.
+        content = np.einsum("mnk,n->mk", np.abs(v2), w2) * np.abs(half)[:, None]
+        ok = np.all(diff <= np.maximum(share, noise_floor * content), axis=1) \
+            | (np.abs(hi - lo) <= 1e-14 * width)
         last = round_no == max_rounds - 1 or used + 2 * int((~ok).sum()) > max_intervals
         if last and not ok.all():
             held = np.einsum("mnk,n->mk", np.abs(v2[~ok]), w2) * np.abs(half[~ok])[:, None]
@@ -446,22 +452,63 @@ def polynomial_integral(g, t, t0, t1):
     """
     import sympy
 
-    if g.count_ops() > 40 * SYMBOLIC_MAX_OPS or not g.is_polynomial(t):
+    if g.count_ops() > 40 * SYMBOLIC_MAX_OPS:
+        return None
+    degree = _degree_bound(g, t)
+    if degree is None or degree > 5 * SYMBOLIC_MAX_DEGREE + 2:
         return None
     p = sympy.Poly(g, t)
-    if p.degree() > 5 * SYMBOLIC_MAX_DEGREE + 2:
-        return None
     q = p.integrate().as_expr()
     return sympy.expand(q.subs(t, t1) - q.subs(t, t0))
 
 
-def _small_polynomial(e, t) -> bool:
-    """Is ``e`` a polynomial in ``t`` small enough for exact integrals (see the limits)?"""
+def _degree_bound(e, t):
+    """An upper bound of the degree of ``e`` in ``t`` read from its tree, or None if not a polynomial.
+
+    Nothing is expanded, so ``((t + 1)^64)^64`` costs no more than its text.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> _degree_bound(((t + 1) ** 64) ** 64, t), _degree_bound(3 * t ** 2 * (t - 1), t)
+    (4096, 3)
+    >>> _degree_bound(sympy.sin(t), t) is None, _degree_bound(sympy.sqrt(t), t) is None
+    (True, True)
+    """
     import sympy
 
-    if sympy.count_ops(e) > SYMBOLIC_MAX_OPS or not sympy.sympify(e).is_polynomial(t):
+    if not e.has(t):
+        return 0
+    if e == t:
+        return 1
+    if isinstance(e, sympy.Add):
+        parts = [_degree_bound(a, t) for a in e.args]
+        return None if None in parts else max(parts)
+    if isinstance(e, sympy.Mul):
+        parts = [_degree_bound(a, t) for a in e.args]
+        return None if None in parts else sum(parts)
+    if isinstance(e, sympy.Pow) and e.exp.is_Integer and e.exp >= 0:
+        base = _degree_bound(e.base, t)
+        return None if base is None else base * int(e.exp)
+    return None
+
+
+def _small_polynomial(e, t) -> bool:
+    """Is ``e`` a polynomial in ``t`` small enough for exact integrals (see the limits)?
+
+    Checked on the expression's tree before anything is expanded.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> _small_polynomial(25 - t ** 2 / 180, t), _small_polynomial(((t + 1) ** 64) ** 64, t)
+    (True, False)
+    """
+    import sympy
+
+    e = sympy.sympify(e)
+    if sympy.count_ops(e) > SYMBOLIC_MAX_OPS:
         return False
-    return sympy.Poly(e, t).degree() <= SYMBOLIC_MAX_DEGREE
+    degree = _degree_bound(e, t)
+    return degree is not None and degree <= SYMBOLIC_MAX_DEGREE
 
 
 def curve_integrals_symbolic(curve: Curve):

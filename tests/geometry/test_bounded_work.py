@@ -169,6 +169,18 @@ def test_kinked_curve_level_table_error_covers_the_true_value():
     assert abs(res.volume[1] - full / 2) <= res.error[1] + 1e-13 * full
 
 
+def test_high_power_curve_with_rounding_noise_is_measured():
+    # An expression whose values carry rounding noise above the quadrature's target: the
+    # 4096th power amplifies the rounding of 1 + x/10. Nothing is expanded symbolically.
+    # Volume π ∫₀^b (1 + x/10)^8192 dx = π · 10/8193 · [(1 + b/10)^8193 − 1] (power rule).
+    b = 0.001
+    curve = _explicit("((x/10 + 1)^64)^64", 0.0, b)
+    m = measure(Revolution(Profile(loops=(_under_curve(curve, 0.0, b),)), Axis.x()))
+    exact = math.pi * 10 / 8193 * math.expm1(8193 * math.log1p(b / 10))
+    assert abs(m.volume - exact) <= m.volume_error + 1e-12 * exact
+    assert m.crosscheck.agrees(1e-9)
+
+
 def test_bounded_quadrature_error_covers_the_true_value():
     # highly oscillating integrand, few intervals: ∫₀^π |sin(k x)| dx = 2 for integer k
     # (elementary integral). Whatever the budget, the estimate must cover the miss.
@@ -360,7 +372,7 @@ def test_point_lists_give_a_result_or_a_revolve_error(points, axis_name):
     assert m.centre_of_mass_axial is None or math.isfinite(m.centre_of_mass_axial)
 
 
-CURVES = ["{c} + x^2", "{c} + sin({k}*x)", "{c} + abs(sin({k}*x))", "{c} + tan(x)", "{c} + 1/(x - {k})",
+CURVES = ["{c} + x^2", "{c} + ((x/{k} + 1)^64)^64", "{c} + sin({k}*x)", "{c} + abs(sin({k}*x))", "{c} + tan(x)", "{c} + 1/(x - {k})",
           "{c} + sqrt(x)", "{c} + exp({k}*x)", "{c} + log(x + {k})", "{c} - x^3/{k}"]
 
 
