@@ -179,8 +179,14 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
         faces[name] = faces.get(name, 0) + theta * lr
 
     def simple(exprs):
-        done = run_sympy([("simplify", e) for e in exprs], budget_seconds / 2)
-        return [r if r is not None else e for r, e in zip(done, exprs)]
+        # Already-short forms (16*pi, 3600*pi) are left alone: no worker for them.
+        todo = [i for i, e in enumerate(exprs) if sympy.count_ops(e) > 2]
+        done = run_sympy([("simplify", exprs[i]) for i in todo], budget_seconds / 2)
+        out = list(exprs)
+        for i, r in zip(todo, done):
+            if r is not None:
+                out[i] = r
+        return out
 
     out: Dict[str, Any] = {}
     checks = []
