@@ -30,7 +30,8 @@ import numpy as np
 from revolve.errors import ProfileError
 from revolve.geometry.frame import to_frame
 from revolve.geometry.profile import Axis, Profile
-from revolve.geometry.segments import COORDINATE_LIMIT, SIZE_LIMIT, Arc, Curve, Line, Segment
+from revolve.geometry.segments import (COORDINATE_LIMIT, FLAT_ARC_RATIO, SIZE_LIMIT, Arc, Curve, Line,
+                                       Segment)
 
 #: Relative tolerance (of the profile's size) for closure, axis contact and touching.
 RELATIVE_TOLERANCE = 1e-9
@@ -80,6 +81,8 @@ def flatten(seg: Segment, max_angle: float = math.pi / 36, curve_pieces: int = 6
     if isinstance(seg, Line):
         return np.array([seg.start, seg.end], dtype=float)
     if isinstance(seg, Arc):
+        if is_flat_arc(seg):
+            return np.array([seg.start, seg.end], dtype=float)
         a0, a1 = seg.angles()
         m = max(2, int(math.ceil(abs(a1 - a0) / max_angle)))
         a = np.linspace(a0, a1, m + 1)
@@ -235,6 +238,35 @@ def check_coordinate_range(points) -> None:
                            "profile in a larger unit or nearer the origin")
 
 
+def is_flat_arc(seg: Segment) -> bool:
+    """Is this an arc so flat (radius beyond FLAT_ARC_RATIO × chord, or not finite) it is a line?
+
+    >>> from revolve.geometry.segments import arc_from_radius
+    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e200))
+    True
+    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e3))
+    False
+    """
+    if not isinstance(seg, Arc):
+        return False
+    chord = math.hypot(seg.end[0] - seg.start[0], seg.end[1] - seg.start[1])
+    R = seg.radius
+    return not (math.isfinite(R) and math.isfinite(seg.centre[0]) and math.isfinite(seg.centre[1])
+                and R <= FLAT_ARC_RATIO * chord)
+
+
+def straighten(seg: Segment) -> Segment:
+    """A flat arc (see :func:`is_flat_arc`) as the line of its chord; anything else unchanged.
+
+    >>> from revolve.geometry.segments import arc_from_radius
+    >>> straighten(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e12, face="top"))
+    Line(start=(0.0, 0.0), end=(1.0, 0.0), face='top')
+    """
+    if is_flat_arc(seg):
+        return Line(seg.start, seg.end, face=seg.face, where=seg.where)
+    return seg
+
+
 def snap_to_zero(seg: Segment, tiny: float) -> Segment:
     """The frame segment with coordinates of magnitude below ``tiny`` set to zero.
 
@@ -311,7 +343,7 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     side = 1.0 if r_all[far] > 0 else -1.0
     frame_paths = []
     for k, p in enumerate(paths, start=1):
-        fsegs = tuple(snap_to_zero(to_frame(s, axis, side), SNAP_FRACTION * size)
+        fsegs = tuple(snap_to_zero(to_frame(straighten(s), axis, side), SNAP_FRACTION * size)
                       for s in p.segments)
         for j, (s, fs) in enumerate(zip(p.segments, fsegs), start=1):
             rmin, (zq, rq) = _min_distance_from_axis(fs)

@@ -114,7 +114,49 @@ def _integrate_harmonics(p: np.ndarray, mid, sweep) -> np.ndarray:
     return np.real(np.sum(p * phase * weight, axis=1))
 
 
-def arc_integrals(cx, cy, radius, start_angle, sweep) -> np.ndarray:
+#: Arcs whose radius exceeds this many chords are integrated about their own midpoint.
+FLAT_ARC = 1e3
+
+
+def _flat_arc_integrals(cx, cy, R, a0, d, start, end) -> np.ndarray:
+    """Integrals of flat arcs (radius ≫ chord) by Gauss–Legendre about the arc's midpoint.
+
+    The harmonic sums of :func:`arc_integrals` are taken about the centre, and for a
+    flat arc the centre is far away: terms of size |centre|^(a+b) R |sweep| cancel to
+    the small result and take its digits with them. Here every point is written as
+    the arc's midpoint plus a short chord-wise step computed without cancellation,
+    and each integrand (a trigonometric polynomial of degree at most 5 over a sweep
+    below 1e-3 rad) is integrated to rounding by 24 nodes.
+    """
+    from revolve.geometry.slicing import gauss_legendre
+
+    x, w = gauss_legendre(24)
+    h = d / 2
+    tm = a0 + h
+    sx, sy = (start[:, 0] + end[:, 0]) / 2, (start[:, 1] + end[:, 1]) / 2   # chord midpoint
+    sag = 2 * R * np.sin(h / 2) ** 2                                        # R (1 − cos h)
+    mx, my = sx + sag * np.cos(tm), sy + sag * np.sin(tm)                   # arc midpoint
+    phi = h[:, None] * x[None, :]
+    step = 2 * R[:, None] * np.sin(phi / 2)
+    th = tm[:, None] + phi
+    px = mx[:, None] - step * np.sin(tm[:, None] + phi / 2)
+    py = my[:, None] + step * np.cos(tm[:, None] + phi / 2)
+    wv = R[:, None] * (px * np.cos(th) + py * np.sin(th))                   # x y' − y x'
+
+    def integral(g):
+        return (g @ w) * h
+
+    out = np.empty((R.size, len(COLUMNS)))
+    sgn = np.sign(d)
+    out[:, 0] = R * np.abs(d)
+    out[:, 1] = R * sgn * integral(px)
+    out[:, 2] = R * sgn * integral(py)
+    for j, (a, b) in enumerate(EXPONENTS):
+        out[:, 3 + j] = integral(px ** a * py ** b * wv) / (a + b + 2)
+    return out
+
+
+def arc_integrals(cx, cy, radius, start_angle, sweep, start=None, end=None) -> np.ndarray:
     """Closed-form integrals of circular arcs, shape (n, 10).
 
     A half circle of radius 1 about the origin from angle 0 to π: length π,
@@ -123,6 +165,20 @@ def arc_integrals(cx, cy, radius, start_angle, sweep) -> np.ndarray:
     >>> v = arc_integrals(np.array([0.0]), np.array([0.0]), np.array([1.0]),
     ...                   np.array([0.0]), np.array([math.pi]))
     >>> [round(float(v[0, i]), 12) for i in (0, 2, 3)] == [round(math.pi, 12), 2.0, round(math.pi / 2, 12)]
+    True
+
+    With ``start`` and ``end`` given, flat arcs (radius above ``FLAT_ARC`` chords) are
+    integrated about their midpoint, without the cancellation of terms about a far
+    centre: a unit chord from (0, 1) to (1, 1) bowed up by R = 1e6, run clockwise, has
+    sector area (origin to arc) −(1/2 + the circular segment R² (h − sin h cos h)), with
+    h = asin(1/2R) and h − sin h cos h = 2h³/3 − 2h⁵/15 + … (CRC segment area, from memory).
+
+    >>> R = 1e6; h = math.asin(0.5 / R); c = math.sqrt(R * R - 0.25)
+    >>> v = arc_integrals(np.array([0.5]), np.array([1.0 - c]), np.array([R]),
+    ...                   np.array([math.pi / 2 + h]), np.array([-2 * h]),
+    ...                   np.array([[0.0, 1.0]]), np.array([[1.0, 1.0]]))
+    >>> segment = R * R * (2 * h ** 3 / 3 - 2 * h ** 5 / 15)
+    >>> bool(abs(v[0, COL["M00"]] + (0.5 + segment)) < 1e-15)
     True
     """
     cx, cy, R, a0, d = (np.asarray(a, dtype=float) for a in (cx, cy, radius, start_angle, sweep))
@@ -144,6 +200,13 @@ def arc_integrals(cx, cy, radius, start_angle, sweep) -> np.ndarray:
         for _ in range(b):
             p = _times_first_harmonic(p, *zy)
         out[:, 3 + j] = _integrate_harmonics(p, mid, d) / (a + b + 2)
+    if start is not None:
+        start, end = np.asarray(start, dtype=float), np.asarray(end, dtype=float)
+        chord = np.hypot(end[:, 0] - start[:, 0], end[:, 1] - start[:, 1])
+        flat = R > FLAT_ARC * chord
+        if flat.any():
+            out[flat] = _flat_arc_integrals(cx[flat], cy[flat], R[flat], a0[flat], d[flat],
+                                            start[flat], end[flat])
     return out
 
 
@@ -626,8 +689,13 @@ def segment_integrals(segments: Sequence[Segment], symbolic: bool = True) -> Seg
     ai = np.flatnonzero(kinds == "arc")
     if ai.size:
         arcs = [segments[i] for i in ai]
-        par = np.array([(a.centre[0], a.centre[1], a.radius) + a.angles() for a in arcs])
-        values[ai] = arc_integrals(par[:, 0], par[:, 1], par[:, 2], par[:, 3], par[:, 4] - par[:, 3])
+        # The sweep itself, not the difference of the two angles (which loses its digits
+        # on a flat arc).
+        par = np.array([(a.centre[0], a.centre[1], a.radius, a.angles()[0], a.sweep())
+                        for a in arcs])
+        ends = np.array([a.start + a.end for a in arcs], dtype=float).reshape(-1, 4)
+        values[ai] = arc_integrals(par[:, 0], par[:, 1], par[:, 2], par[:, 3], par[:, 4],
+                                   ends[:, :2], ends[:, 2:])
     for i in np.flatnonzero(kinds == "curve"):
         v, e, how = curve_integrals(segments[i], symbolic=symbolic)
         values[i], errors[i], method[i] = v, e, how

@@ -36,6 +36,9 @@ Point = Tuple[float, float]
 #: inertia need fifth powers of coordinates (∫∫ r³ dA): 1e15 keeps them near 1e75, far
 #: from overflow, and far above any real part in any length unit.
 COORDINATE_LIMIT = 1e15
+#: An arc whose radius is more than this many times its chord is straight within the
+#: engine's tolerance (its sagitta is below 1.25e-9 of the chord) and is measured as a line.
+FLAT_ARC_RATIO = 1e8
 #: Smallest profile size (diagonal of the bounding box) the engine accepts: below it
 #: squares and cubes of lengths fall into floating-point underflow.
 SIZE_LIMIT = 1e-15
@@ -167,6 +170,17 @@ class Arc:
                 d += 2 * math.pi
             while d > 2 * math.pi:
                 d -= 2 * math.pi
+        # The difference of two angles far from zero keeps only their absolute precision
+        # (about 1e-16 rad): for a flat arc (radius ≫ chord) take the sweep from the chord,
+        # 2 asin(chord / 2R), which keeps its relative precision.
+        R = self.radius
+        chord = math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+        if 0 < R and math.isfinite(R) and chord < 2 * R:
+            small = 2 * math.asin(chord / (2 * R))
+            if abs(d) < 1.0:
+                d = math.copysign(small, d)
+            elif abs(d) > 2 * math.pi - 1.0:
+                d = math.copysign(2 * math.pi - small, d)
         return d
 
     def length(self) -> float:

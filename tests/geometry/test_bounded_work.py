@@ -273,6 +273,25 @@ def test_coordinates_at_the_limit_are_measured():
     assert m.crosscheck.agrees(1e-9)
 
 
+@pytest.mark.parametrize("R", [1e4, 1e6, 1e200])
+def test_flat_arc_of_huge_radius_keeps_its_digits(R):
+    # huge coordinates in an arc: a unit chord bowed outwards by a radius R ≫ 1, whose
+    # centre lies ~R away. Section area = the unit square + the circular segment
+    # R² (h − sin h cos h), h = asin(1/2R), = R² (2h³/3 − 2h⁵/15 + …) (CRC, from memory).
+    # Past 1e8 chords the arc is straight within tolerance and is measured as its chord;
+    # a radius whose square overflows once ended in "cannot convert float NaN to integer".
+    from revolve.geometry.segments import arc_from_radius
+
+    top = arc_from_radius((1.0, 2.0), (0.0, 2.0), radius=R, side="right")
+    loop = Loop((Line((0.0, 1.0), (1.0, 1.0)), Line((1.0, 1.0), (1.0, 2.0)), top,
+                 Line((0.0, 2.0), (0.0, 1.0))))
+    m = measure(Revolution(Profile(loops=(loop,)), Axis.x()))
+    h = math.asin(0.5 / R)
+    segment = (R * h) ** 2 * (2 * h / 3 - 2 * h ** 3 / 15)        # R h ≈ 1/2: no overflow
+    assert math.isclose(m.area, 1 + segment, rel_tol=1e-14)
+    assert m.crosscheck.agrees(1e-9)
+
+
 def test_curve_with_huge_values_is_refused():
     # huge coordinates from a curve: e^(50x) passes 1e15 at x ≈ 0.69.
     with pytest.raises(SegmentError, match="not finite near"):
