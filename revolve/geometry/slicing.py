@@ -62,7 +62,8 @@ class Piece:
     z_from: float
     z_to: float
     kind: str
-    params: tuple  # line: (z0, r0, z1, r1); arc: (cz, cr, R, s); curve: (curve, t_a, t_b)
+    params: tuple  # line: (z0, r0, z1, r1); arc: (cz, cr, R, s, u_e, r_e, √(R² − u_e²));
+    #                curve: (curve, t_a, t_b)
     factor: float  # loop orientation and hole sign
 
 
@@ -96,8 +97,15 @@ def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
             s = 1.0 if math.sin(mid) > 0 else -1.0
             z_from = seg.start[0] if b0 == a0 else cz + R * math.cos(b0)
             z_to = seg.end[0] if b1 == a1 else cz + R * math.cos(b1)
+            # A known point of the piece for the radius (see _radius_at): its start, as
+            # u_e = z_e − cz, r_e and √(R² − u_e²) = |r_e − cr|, each without a square root
+            # of a rounded difference (exactly ±R, cr and 0 at a turning point).
+            if b0 == a0:
+                ue, re, root_e = seg.start[0] - cz, seg.start[1], abs(seg.start[1] - cr)
+            else:
+                ue, re, root_e = (R if round(b0 / math.pi) % 2 == 0 else -R), cr, 0.0
             if z_from != z_to:
-                out.append(Piece(z_from, z_to, "arc", (cz, cr, R, s), factor))
+                out.append(Piece(z_from, z_to, "arc", (cz, cr, R, s, ue, re, root_e), factor))
         return out
     if isinstance(seg, Curve):
         t = np.linspace(seg.t_start, seg.t_end, 1025)
@@ -142,8 +150,15 @@ def _radius_at(piece: Piece, z: np.ndarray) -> np.ndarray:
         z0, r0, z1, r1 = piece.params
         return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
     if piece.kind == "arc":
-        cz, cr, R, s = piece.params
-        return cr + s * np.sqrt(np.maximum(R * R - (z - cz) ** 2, 0.0))
+        # r(z) = cr + s √(R² − u²), u = z − cz, written from a known point (cz + u_e, r_e) of the
+        # piece as r_e + s (u_e − u)(u_e + u) / (√(R² − u²) + √(R² − u_e²)): the same value,
+        # without the cancellation of cr against the root when the centre is far (a flat arc).
+        cz, cr, R, s, ue, re, root_e = piece.params
+        u = z - cz
+        root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
+        with np.errstate(invalid="ignore", divide="ignore"):
+            r = re + s * (ue - u) * (ue + u) / (root + root_e)
+        return np.where(root + root_e > 0, r, cr + s * root)
     curve, ta, tb = piece.params
     return curve.evaluate(curve_parameter_at(curve, ta, tb, z, coordinate=0))[1]
 
@@ -279,11 +294,12 @@ def _r_ds_line(segs: Sequence[Line], n: int) -> np.ndarray:
 
 def _r_ds_arc(segs: Sequence[Arc], n: int) -> np.ndarray:
     x, w = gauss_legendre(n)
-    par = np.array([(a.centre[1], a.radius) + a.angles() for a in segs], dtype=float)
-    cr, R, a0, a1 = par.T
-    theta = a0[:, None] + (x[None, :] + 1) / 2 * (a1 - a0)[:, None]
-    r = cr[:, None] + R[:, None] * np.sin(theta)
-    return (r @ w) * R * np.abs(a1 - a0) / 2
+    par = np.array([(a.start[1], a.radius, a.angles()[0], a.sweep()) for a in segs], dtype=float)
+    r0, R, a0, d = par.T
+    half = ((x[None, :] + 1) / 4) * d[:, None]          # (θ − θ0)/2
+    # r = r0 + R (sin θ − sin θ0), as a product: no cancellation against a far centre.
+    r = r0[:, None] + 2 * R[:, None] * np.cos(a0[:, None] + half) * np.sin(half)
+    return (r @ w) * R * np.abs(d) / 2
 
 
 def _r_ds_curve(c: Curve, n: int, rel_tol: float) -> Tuple[float, float]:

@@ -273,7 +273,7 @@ def test_coordinates_at_the_limit_are_measured():
     assert m.crosscheck.agrees(1e-9)
 
 
-@pytest.mark.parametrize("R", [1e4, 1e6, 1e200])
+@pytest.mark.parametrize("R", [1e4, 1e6, 3e7, 9e7, 1e200])
 def test_flat_arc_of_huge_radius_keeps_its_digits(R):
     # huge coordinates in an arc: a unit chord bowed outwards by a radius R ≫ 1, whose
     # centre lies ~R away. Section area = the unit square + the circular segment
