@@ -30,10 +30,15 @@ import numpy as np
 from revolve.errors import ProfileError
 from revolve.geometry.frame import to_frame
 from revolve.geometry.profile import Axis, Profile
-from revolve.geometry.segments import Arc, Curve, Line, Segment
+from revolve.geometry.segments import (COORDINATE_LIMIT, FLAT_ARC_RATIO, SIZE_LIMIT, Arc, Curve, Line,
+                                       Segment)
 
 #: Relative tolerance (of the profile's size) for closure, axis contact and touching.
 RELATIVE_TOLERANCE = 1e-9
+#: Axis-frame coordinates smaller than this fraction of the profile's size are zero:
+#: a coordinate such as 5e-324 next to 2.5 is rounding noise, and keeping it would make
+#: slopes (Δr/Δz) and step counts overflow.
+SNAP_FRACTION = 1e-15
 
 
 @dataclass(frozen=True)
@@ -76,6 +81,8 @@ def flatten(seg: Segment, max_angle: float = math.pi / 36, curve_pieces: int = 6
     if isinstance(seg, Line):
         return np.array([seg.start, seg.end], dtype=float)
     if isinstance(seg, Arc):
+        if is_flat_arc(seg):
+            return np.array([seg.start, seg.end], dtype=float)
         a0, a1 = seg.angles()
         m = max(2, int(math.ceil(abs(a1 - a0) / max_angle)))
         a = np.linspace(a0, a1, m + 1)
@@ -207,6 +214,83 @@ def _point_in_polygon(px: float, py: float, poly: np.ndarray) -> bool:
     return bool(np.count_nonzero(crosses & (px < xi)) % 2)
 
 
+def check_coordinate_range(points) -> None:
+    """Refuse coordinates beyond ±:data:`~revolve.geometry.segments.COORDINATE_LIMIT`.
+
+    Squares, cubes and the fifth powers in moments of inertia of larger
+    coordinates overflow (or come close); the message gives the allowed range.
+
+    >>> check_coordinate_range(np.array([[0.0, 1e15], [-3.0, 2.0]]))
+    >>> check_coordinate_range(np.array([[0.0, 1e90]]))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the profile has a coordinate of 1e+90; the allowed range is |coordinate| ≤ 1e+15 in the profile's unit: give the profile in a larger unit or nearer the origin
+    """
+    pts = np.asarray(points, dtype=float)
+    if pts.size == 0:
+        return
+    big = np.abs(pts)
+    worst = float(big.max())
+    if not worst <= COORDINATE_LIMIT:
+        v = float(pts.flat[int(np.argmax(big))])
+        raise ProfileError(f"the profile has a coordinate of {v:g}; the allowed range is "
+                           f"|coordinate| ≤ {COORDINATE_LIMIT:g} in the profile's unit: give the "
+                           "profile in a larger unit or nearer the origin")
+
+
+def is_flat_arc(seg: Segment) -> bool:
+    """Is this an arc so flat (radius beyond FLAT_ARC_RATIO × chord, or not finite) it is a line?
+
+    >>> from revolve.geometry.segments import arc_from_radius
+    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e200))
+    True
+    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e3))
+    False
+    """
+    if not isinstance(seg, Arc):
+        return False
+    chord = math.hypot(seg.end[0] - seg.start[0], seg.end[1] - seg.start[1])
+    R = seg.radius
+    return not (math.isfinite(R) and math.isfinite(seg.centre[0]) and math.isfinite(seg.centre[1])
+                and R <= FLAT_ARC_RATIO * chord)
+
+
+def straighten(seg: Segment) -> Segment:
+    """A flat arc (see :func:`is_flat_arc`) as the line of its chord; anything else unchanged.
+
+    >>> from revolve.geometry.segments import arc_from_radius
+    >>> straighten(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e12, face="top"))
+    Line(start=(0.0, 0.0), end=(1.0, 0.0), face='top')
+    """
+    if is_flat_arc(seg):
+        return Line(seg.start, seg.end, face=seg.face, where=seg.where)
+    return seg
+
+
+def snap_to_zero(seg: Segment, tiny: float) -> Segment:
+    """The frame segment with coordinates of magnitude below ``tiny`` set to zero.
+
+    Lines and arcs only (a curve is an expression and keeps its own values).
+
+    >>> snap_to_zero(Line((5e-324, 0.5625), (2.5, 0.5625)), 1e-15)
+    Line(start=(0.0, 0.5625), end=(2.5, 0.5625), face=None)
+    """
+    from dataclasses import replace
+
+    def snap(p):
+        return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])
+
+    if isinstance(seg, Line):
+        a, b = snap(seg.start), snap(seg.end)
+        return seg if (a, b) == (seg.start, seg.end) else replace(seg, start=a, end=b)
+    if isinstance(seg, Arc):
+        a, b, c = snap(seg.start), snap(seg.end), snap(seg.centre)
+        if (a, b, c) == (seg.start, seg.end, seg.centre):
+            return seg
+        return replace(seg, start=a, end=b, centre=c)
+    return seg
+
+
 def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     """Check a profile against an axis and place it in the axis frame."""
     paths = profile.paths
@@ -220,9 +304,14 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
         raise ProfileError("the profile has no segments")
     if not np.all(np.isfinite(allpts)):
         raise ProfileError("the profile has a coordinate that is not a finite number")
+    check_coordinate_range(allpts)
     size = float(np.hypot(*(allpts.max(axis=0) - allpts.min(axis=0))))
     if size == 0:
         raise ProfileError("the profile has zero size: every point is the same")
+    if size < SIZE_LIMIT:
+        raise ProfileError(f"the profile is too small ({size:.3g} across); the allowed range is "
+                           f"{SIZE_LIMIT:g} to {COORDINATE_LIMIT:g} in the profile's unit: give it "
+                           "in a smaller unit")
     tol = RELATIVE_TOLERANCE * size
     for k, p in enumerate(paths, start=1):
         segs = p.segments
@@ -254,7 +343,8 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     side = 1.0 if r_all[far] > 0 else -1.0
     frame_paths = []
     for k, p in enumerate(paths, start=1):
-        fsegs = tuple(to_frame(s, axis, side) for s in p.segments)
+        fsegs = tuple(snap_to_zero(to_frame(straighten(s), axis, side), SNAP_FRACTION * size)
+                      for s in p.segments)
         for j, (s, fs) in enumerate(zip(p.segments, fsegs), start=1):
             rmin, (zq, rq) = _min_distance_from_axis(fs)
             if rmin < -tol:

@@ -3,8 +3,11 @@
 Used by ``revolve measure --exact``. Each segment's exact inputs (integers,
 decimal fractions, expression strings: see the segments' ``exact`` field) are
 turned into sympy numbers and the same Green's-theorem sums as the numeric
-engine are formed symbolically: lines and arcs in closed form, curves by
-``sympy.integrate`` within a time budget. A closed form is only reported when
+engine are formed symbolically: lines and arcs in closed form, curves by exact
+polynomial integration where the integrand is a polynomial, otherwise by
+``sympy.integrate`` in a separate worker process that is ended when its time
+budget runs out (:func:`run_sympy`: no timer signals, so it is bounded in any
+thread). A closed form is only reported when
 its value agrees with the numeric result, so a symbolic slip can never print a
 wrong figure.
 
@@ -38,6 +41,61 @@ class NotExact(Exception):
     """An input has no exact value, or sympy gave up within its budget."""
 
 
+_WORKER = r"""
+import sys, sympy
+from sympy import srepr, sympify
+tasks = sympify(sys.stdin.read())
+out = []
+for task in tasks:
+    kind, args = str(task[0]), task[1:]
+    try:
+        if kind == "integrate":
+            r = sympy.integrate(args[0], (args[1], args[2], args[3]))
+        else:
+            r = sympy.simplify(args[0])
+        out.append(srepr(r))
+    except Exception:
+        out.append("None")
+sys.stdout.write("\n".join(out))
+"""
+
+
+def run_sympy(tasks, seconds: float):
+    """Run sympy ``integrate``/``simplify`` tasks in a worker process ended after ``seconds``.
+
+    ``tasks`` is a list of ``("integrate", g, t, a, b)`` or ``("simplify", e)``
+    with sympy expressions (built by the engine, never user text). Returns one
+    result per task, None where sympy failed, or None for every task when the
+    worker did not finish in time. The expressions travel as ``srepr`` text,
+    the engine's own, and come back the same way.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> run_sympy([("integrate", t * sympy.sqrt(1 + t ** 2), t, 0, 1)], 60.0)
+    [-1/3 + 2*sqrt(2)/3]
+    >>> run_sympy([], 1.0)
+    []
+    """
+    import subprocess
+    import sys
+
+    import sympy
+
+    if not tasks:
+        return []
+    text = "[" + ", ".join("(" + ", ".join([repr(k)] + [sympy.srepr(sympy.sympify(a)) for a in rest])
+                                 + ",)" for k, *rest in tasks) + "]"
+    try:
+        done = subprocess.run([sys.executable, "-c", _WORKER], input=text, capture_output=True,
+                              text=True, timeout=seconds)
+    except (subprocess.TimeoutExpired, OSError):
+        return [None] * len(tasks)
+    lines = done.stdout.split("\n") if done.returncode == 0 else []
+    if len(lines) != len(tasks):
+        return [None] * len(tasks)
+    return [None if line == "None" else sympy.sympify(line) for line in lines]
+
+
 def _sym(v: Any):
     import sympy
 
@@ -65,7 +123,6 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
                        budget_seconds: float = 8.0) -> Dict[str, Any]:
     """Closed forms (as text) of area, volume and surfaces; raises NotExact when unavailable."""
     import sympy
-    from revolve.geometry.integrals import _run_with_budget
 
     ax = revolution.axis
     if ax.exact is None:
@@ -87,6 +144,7 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
     loop_no = 0
     from revolve.geometry.profile import UNNAMED_FACE
 
+    pending = []     # (face, factor, m00, m01, lr, integrals still to do in the worker)
     for path in profile.paths:
         f = 0
         if path.closed:
@@ -102,29 +160,51 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
                 m00, m01 = c / 2, c * (r0 + r1) / 6
                 length = sympy.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2)
                 lr = length * (r0 + r1) / 2
+                todo = ()
             elif seg.kind == "arc":
                 m00, m01, lr = _arc_terms(seg, frame, side)
+                todo = ()
             else:
-                m00, m01, lr = _curve_terms(seg, frame, t, budget_seconds, _run_with_budget)
-            area += f * m00
-            first += f * m01
-            name = seg.face or UNNAMED_FACE
-            faces[name] = faces.get(name, 0) + theta * lr
+                (m00, m01, lr), todo = _curve_terms(seg, frame, t)
+            pending.append((seg.face or UNNAMED_FACE, f, m00, m01, lr, todo))
+    tasks = [task[:5] for *_, todo in pending for _k, task in todo]
+    results = iter(run_sympy(tasks, budget_seconds / 2))
+    for name, f, *terms, todo in pending:
+        for k, task in todo:
+            v = next(results)
+            if v is None or v.has(sympy.Integral):
+                raise NotExact("sympy found no closed form for a curve's integral in time")
+            terms[k] = -v if len(task) > 5 else v
+        m00, m01, lr = terms
+        area += f * m00
+        first += f * m01
+        faces[name] = faces.get(name, 0) + theta * lr
 
-    def simple(e):
-        r = _run_with_budget(lambda: sympy.simplify(e), budget_seconds / 4)
-        return r if r is not None else e
+    def simple(exprs):
+        # Already-short forms (16*pi, 3600*pi) are left alone: no worker for them.
+        todo = [i for i, e in enumerate(exprs) if sympy.count_ops(e) > 2]
+        done = run_sympy([("simplify", exprs[i]) for i in todo], budget_seconds / 2)
+        out = list(exprs)
+        for i, r in zip(todo, done):
+            if r is not None:
+                out[i] = r
+        return out
 
     out: Dict[str, Any] = {}
     checks = []
-    if any(p.closed for p in profile.paths):
-        a_s, v_s = simple(area), simple(theta * first)
+    solid = any(p.closed for p in profile.paths)
+    names = list(faces)
+    done = simple(([area, theta * first] if solid else []) + [faces[k] for k in names]
+                  + [sum(faces.values())])
+    if solid:
+        a_s, v_s = done[0], done[1]
         checks += [(a_s, measurement.area), (v_s, measurement.volume)]
         out["area"], out["volume"] = str(a_s), str(v_s)
-    face_s = {k: simple(v) for k, v in faces.items()}
+        done = done[2:]
+    face_s = dict(zip(names, done[:-1]))
     if len(face_s) > 1 and face_s.get(UNNAMED_FACE) == 0:
         del face_s[UNNAMED_FACE]  # segments on the axis sweep nothing
-    total = simple(sum(faces.values()))
+    total = done[-1]
     checks += [(v, measurement.surface_by_face[k]) for k, v in face_s.items()]
     checks.append((total, measurement.surface_total))
     out["surface_by_face"] = {k: str(v) for k, v in face_s.items()}
@@ -176,24 +256,34 @@ def _arc_terms(seg, frame, side):
     return m00, m01, lr
 
 
-def _curve_terms(seg, frame, t, budget, run):
+def _curve_terms(seg, frame, t):
+    """A curve's (m00, m01, lr) with the integrals that are polynomials done at once.
+
+    Returns the three terms (None where not yet known) and the worker tasks for
+    the rest as ``(index, task)`` pairs.
+    """
     import sympy
+
+    from revolve.geometry.integrals import _small_polynomial, polynomial_integral
 
     if not seg.exact:
         raise NotExact("the curve's interval has no exact value")
     t0, t1 = _sym(seg.exact[0]), _sym(seg.exact[1])
+    # Expand only small polynomials here; anything else goes whole to the stoppable worker.
+    small = _small_polynomial(seg.x_expr, t) and _small_polynomial(seg.y_expr, t)
     z, r = frame((seg.x_expr, seg.y_expr))
     dz, dr = sympy.diff(z, t), sympy.diff(r, t)
-    w = sympy.expand(z * dr - r * dz)
-    out = []
+    w = sympy.expand(z * dr - r * dz) if small else z * dr - r * dz
+    terms, todo = [None, None, None], []
     for k, g in enumerate((w / 2, r * w / 3, r * sympy.sqrt(dz * dz + dr * dr))):
-        v = run(lambda g=g: sympy.integrate(g, (t, t0, t1)), budget / 3)
-        if v is None or v.has(sympy.Integral):
-            raise NotExact("sympy found no closed form for a curve's integral in time")
-        if k == 2 and seg.t_end < seg.t_start:
-            v = -v  # ds = |p'(t)| |dt|
-        out.append(v)
-    return tuple(out)
+        v = polynomial_integral(sympy.expand(g), t, t0, t1) if k < 2 and small else None
+        if v is not None:
+            terms[k] = v
+        else:
+            # ds = |p'(t)| |dt|: a length integral runs backwards with t.
+            todo.append((k, ("integrate", g, t, t0, t1)
+                         + (("backwards",) if k == 2 and seg.t_end < seg.t_start else ())))
+    return tuple(terms), todo
 
 
 def exact_results(doc, revolution, measurement, exact_angle: Optional[float] = None) -> Dict[str, Any]:

@@ -27,7 +27,7 @@ from dataclasses import dataclass, field
 from typing import Iterable, Optional, Sequence, Tuple
 
 from revolve.errors import ProfileError
-from revolve.geometry.segments import Line, Point, Segment, Where
+from revolve.geometry.segments import COORDINATE_LIMIT, Line, Point, Segment, Where
 
 
 @dataclass(frozen=True)
@@ -134,6 +134,30 @@ class Axis:
     point: Point = (0.0, 0.0)
     direction: Point = (1.0, 0.0)
     exact: Optional[tuple] = field(default=None, compare=False, repr=False)
+
+    def __post_init__(self):
+        """Refuse an axis whose point or direction is not a pair of finite numbers in range.
+
+        The allowed range is that of profile coordinates, ``|value| ≤ 1e15``
+        (:data:`~revolve.geometry.segments.COORDINATE_LIMIT`).
+
+        >>> Axis((1e999, 0.0), (1.0, 0.0))
+        Traceback (most recent call last):
+        ...
+        revolve.errors.ProfileError: the axis point (inf, 0) is not a pair of finite numbers within ±1e+15 (the allowed range of coordinates)
+        >>> Axis((0.0, 0.0), (1e300, 1.0))
+        Traceback (most recent call last):
+        ...
+        revolve.errors.ProfileError: the axis direction (1e+300, 1) is not a pair of finite numbers within ±1e+15 (the allowed range of coordinates)
+        """
+        for name, pair in (("point", self.point), ("direction", self.direction)):
+            try:
+                a, b = float(pair[0]), float(pair[1])
+            except (TypeError, ValueError, IndexError, OverflowError):
+                raise ProfileError(f"the axis {name} must be a pair of numbers, got {pair!r}")
+            if not (abs(a) <= COORDINATE_LIMIT and abs(b) <= COORDINATE_LIMIT):
+                raise ProfileError(f"the axis {name} ({a:g}, {b:g}) is not a pair of finite numbers "
+                                   f"within ±{COORDINATE_LIMIT:g} (the allowed range of coordinates)")
 
     @classmethod
     def x(cls) -> "Axis":

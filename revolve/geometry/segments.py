@@ -32,6 +32,17 @@ from revolve.errors import SegmentError
 
 Point = Tuple[float, float]
 
+#: Largest coordinate magnitude the engine accepts, in the profile's unit. Moments of
+#: inertia need fifth powers of coordinates (∫∫ r³ dA): 1e15 keeps them near 1e75, far
+#: from overflow, and far above any real part in any length unit.
+COORDINATE_LIMIT = 1e15
+#: An arc whose radius is more than this many times its chord is straight within the
+#: engine's tolerance (its sagitta is below 1.25e-9 of the chord) and is measured as a line.
+FLAT_ARC_RATIO = 1e8
+#: Smallest profile size (diagonal of the bounding box) the engine accepts: below it
+#: squares and cubes of lengths fall into floating-point underflow.
+SIZE_LIMIT = 1e-15
+
 
 @dataclass(frozen=True)
 class Where:
@@ -159,6 +170,17 @@ class Arc:
                 d += 2 * math.pi
             while d > 2 * math.pi:
                 d -= 2 * math.pi
+        # The difference of two angles far from zero keeps only their absolute precision
+        # (about 1e-16 rad): for a flat arc (radius ≫ chord) take the sweep from the chord,
+        # 2 asin(chord / 2R), which keeps its relative precision.
+        R = self.radius
+        chord = math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+        if 0 < R and math.isfinite(R) and chord < 2 * R:
+            small = 2 * math.asin(chord / (2 * R))
+            if abs(d) < 1.0:
+                d = math.copysign(small, d)
+            elif abs(d) > 2 * math.pi - 1.0:
+                d = math.copysign(2 * math.pi - small, d)
         return d
 
     def length(self) -> float:
@@ -334,8 +356,8 @@ class Curve:
         return (float(x[0]), float(y[0]))
 
     def length(self) -> float:
-        from revolve.geometry.integrals import curve_integrals_numeric
-        return float(curve_integrals_numeric(self)[0][0])
+        from revolve.geometry.integrals import curve_length
+        return curve_length(self)
 
     def point_at(self, s: float) -> Point:
         t = self.t_start + s * (self.t_end - self.t_start)
@@ -398,4 +420,58 @@ def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None
         if bad.any():
             raise _error(f"the curve is not finite at t = {tt[np.argmax(bad)]:g}; "
                          "keep the interval where it is defined", where)
+    pole = find_pole(c)
+    if pole is not None:
+        raise _error(f"the curve is not finite near t = {pole:.6g} (it grows beyond "
+                     f"±{COORDINATE_LIMIT:g} there); keep the interval where it is defined", where)
     return c
+
+
+def find_pole(curve: Curve, samples: int = 257, zooms: int = 60, points: int = 33):
+    """Parameter near which a curve's coordinates grow without bound, or None.
+
+    The curve is sampled; around every sample where ``|x|`` or ``|y|`` is a local
+    maximum (the few largest), the neighbourhood is sampled again more finely,
+    following the growth, until the interval reaches the resolution of the
+    parameter. A pole shows as values beyond :data:`COORDINATE_LIMIT` (or not
+    finite); a bounded curve settles on a finite maximum. The work is bounded:
+    at most ``8 × zooms × points`` evaluations after the first samples.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> round(find_pole(Curve(t, 2 + sympy.tan(t), 0.0, 4.0)), 6)        # π/2
+    1.570796
+    >>> find_pole(Curve(t, sympy.exp(10 * t), 0.0, 2.0)) is None         # steep, but bounded
+    True
+    >>> find_pole(Curve(t, 2 + abs(sympy.sin(1000 * t)), 0.0, 10.0)) is None
+    True
+    """
+    import numpy as np
+
+    t0, t1 = sorted((float(curve.t_start), float(curve.t_end)))
+    tt = np.linspace(t0, t1, samples)
+
+    def size(t):
+        x, y, _, _ = curve.evaluate(t)
+        with np.errstate(all="ignore"):
+            m = np.maximum(np.abs(x), np.abs(y))
+        return np.where(np.isfinite(m), m, np.inf)
+
+    m = size(tt)
+    if not np.all(m <= COORDINATE_LIMIT):
+        return float(tt[np.argmax(~(m <= COORDINATE_LIMIT))])
+    peaks = np.flatnonzero((m >= np.roll(m, 1)) & (m >= np.roll(m, -1)))
+    peaks = peaks[np.argsort(-m[peaks], kind="stable")][:8]
+    for i in peaks:
+        a, b = tt[max(i - 1, 0)], tt[min(i + 1, samples - 1)]
+        for _ in range(zooms):
+            u = np.linspace(a, b, points)
+            mu = size(u)
+            j = int(np.argmax(mu))
+            if not mu[j] <= COORDINATE_LIMIT:
+                return float(u[j])
+            na, nb = u[max(j - 1, 0)], u[min(j + 1, points - 1)]
+            if not (a < na or nb < b) or nb - na <= 4 * np.spacing(max(abs(na), abs(nb))):
+                break
+            a, b = na, nb
+    return None
