@@ -95,17 +95,18 @@ def check_table_path(path: str) -> None:
         raise FormatError("this is a folder; give a file name", file=path)
 
 
-def write_csv(rows: Iterable[Row], path: str, columns: Optional[Sequence[str]] = None) -> None:
+def write_csv(rows: Iterable[Row], path: str, columns: Optional[Sequence[str]] = None,
+              option: Optional[str] = "--csv") -> None:
     """Write rows as a CSV file (UTF-8, ``\\n`` line ends), atomically.
 
     >>> write_csv([{"a": 1}], "no/such/folder/t.csv")
     Traceback (most recent call last):
     ...
-    revolve.errors.FormatError: no/such/folder/t.csv: cannot write the file (No such file or directory)
+    revolve.errors.FormatError: --csv: no/such/folder/t.csv: cannot write the file (No such file or directory)
     """
     from revolve.formats.files import write_text_atomically
 
-    write_text_atomically(path, csv_text(rows, columns))
+    write_text_atomically(path, csv_text(rows, columns), option=option)
 
 
 def json_text(obj: Any) -> str:

@@ -367,18 +367,18 @@ def write_atomically(path: str, write, binary: bool = False, option: Optional[st
         out.add(path, write, binary=binary, option=option)
 
 
-def write_text_atomically(path: str, text: str) -> None:
+def write_text_atomically(path: str, text: str, option: Optional[str] = None) -> None:
     """Write ``text`` to ``path`` as UTF-8, atomically (see :func:`write_atomically`).
 
-    >>> write_text_atomically("no/such/folder/x.toml", "")
+    >>> write_text_atomically("no/such/folder/x.csv", "", option="--csv")
     Traceback (most recent call last):
     ...
-    revolve.errors.FormatError: no/such/folder/x.toml: cannot write the file (No such file or directory)
+    revolve.errors.FormatError: --csv: no/such/folder/x.csv: cannot write the file (No such file or directory)
     """
-    write_atomically(path, lambda handle: handle.write(text))
+    write_atomically(path, lambda handle: handle.write(text), option=option)
 
 
-def write_bytes_atomically(path: str, data: bytes) -> None:
+def write_bytes_atomically(path: str, data: bytes, option: Optional[str] = None) -> None:
     """Write ``data`` to ``path``, atomically (see :func:`write_atomically`).
 
     >>> write_bytes_atomically("no/such/folder/part.stl", b"")
@@ -386,4 +386,4 @@ def write_bytes_atomically(path: str, data: bytes) -> None:
     ...
     revolve.errors.FormatError: no/such/folder/part.stl: cannot write the file (No such file or directory)
     """
-    write_atomically(path, lambda handle: handle.write(data), binary=True)
+    write_atomically(path, lambda handle: handle.write(data), binary=True, option=option)

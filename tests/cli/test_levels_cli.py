@@ -318,3 +318,15 @@ def test_bad_input(tmp_path, capsys, text, args, expected):
         assert "bad.toml" in lines[0]
     assert not out_csv.exists()
     assert out == ""
+
+
+def test_an_unwritable_csv_is_refused_naming_the_option(tmp_path, capsys):
+    """Bad input: a --csv path in a missing folder; exit 2, one line naming --csv and the file."""
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    target = tmp_path / "missing" / "t.csv"
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--count", "3",
+                          "--csv", str(target)], capsys)
+    assert code == 2
+    assert err.count("\n") == 1 and err.startswith("revolve: error: --csv: ")
+    assert str(target) in err
+    assert not target.exists()

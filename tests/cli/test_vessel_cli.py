@@ -67,7 +67,7 @@ def test_screen_summary(tmp_path, capsys):
     assert code == 0, err
     for text in ("Rain tank", "torispherical-10, crown 2400, knuckle 240 mm",
                  "conical, half-angle 75°", "capacity", "custody transfer",
-                 f"revolve levels {out_file} --orientation vertical"):
+                 f"revolve levels {out_file}"):
         assert text in out, text
     assert out_file.exists()
     assert 'name = "Rain tank"' in out_file.read_text(encoding="utf-8")

@@ -415,7 +415,7 @@ def run_coat(profiles: List[str], quantity: Optional[List[int]], faces: Optional
     if csv_out is not None:  # before any output, so a failed write leaves nothing half done
         from revolve.formats.files import write_text_atomically
 
-        write_text_atomically(csv_file, csv_out)
+        write_text_atomically(csv_file, csv_out, option="--csv")
     if as_json:
         common.print_json(estimate_dict(parts, est, u, options, notes, tolerance))
     else:

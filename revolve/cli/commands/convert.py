@@ -155,7 +155,7 @@ def run_convert(drawing: Optional[str], output: str, *, path_data: Optional[str]
     text = profile_text(doc)
     written = parse_profile_text(text, file=output)  # what is written must read back
     common.resolve_density(None, None, written)
-    write_text_atomically(output, text)
+    write_text_atomically(output, text, option="--output")
     if as_json:
         _warn(report)
         out = {"output": output, "report": report.as_dict(),

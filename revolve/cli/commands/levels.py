@@ -192,7 +192,7 @@ def run_levels(profile: str, orientation: Optional[str], axis: Optional[str], st
     if csv_out is not None:   # before any output: a failed write leaves nothing half done
         from revolve.formats.files import write_text_atomically
 
-        write_text_atomically(csv_file, csv_out)
+        write_text_atomically(csv_file, csv_out, option="--csv")
     if as_json:
         common.print_json(rows)
     else:

@@ -12,7 +12,7 @@ settings after a colon, e.g. ``torispherical:crown=1100,knuckle=8%`` or
 The profile written with ``--output`` is the **liquid space**: the inside
 wall from the axis round to the axis, closed along the axis, as one loop
 (faces ``head 1``, ``shell``, ``head 2``). ``revolve measure FILE`` gives its
-capacity and inside surface; ``revolve levels FILE --orientation ...`` its
+capacity and inside surface; ``revolve levels FILE`` its
 level table. ``--wall-output`` writes the metal section (with
 ``--thickness``), with the material, so that ``revolve measure`` gives the
 metal's mass.
@@ -327,7 +327,7 @@ def _print(s, u, orientation, metal_label, liquid_label, files, name, descriptio
         path = files["liquid_space"]
         con.print(f"wrote {path}: the liquid space", soft_wrap=True)
         con.print(f"  revolve measure {path}", soft_wrap=True)
-        con.print(f"  revolve levels {path} --orientation {orientation}", soft_wrap=True)
+        con.print(f"  revolve levels {path}", soft_wrap=True)
     if files.get("wall"):
         con.print(f"wrote {files['wall']}: the wall (metal section)", soft_wrap=True)
     kinds = ["vessel"] + (["lifting"] if s.metal_mass is not None else [])
