@@ -766,7 +766,7 @@ def test_deeply_nested_arrays_are_refused_with_file_line_and_key(depth, template
     err = _refused(text)
     assert isinstance(err, FormatError)
     assert err.place == key and err.line == text.count("\n") + 1
-    assert f"brackets nest 17 deep" in str(err)
+    assert "brackets nest 17 deep" in str(err)
 
 
 def test_deep_inline_tables_are_refused_too():

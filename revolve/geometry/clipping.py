@@ -332,7 +332,7 @@ def _kept_part(seg: Segment, level: float) -> List[Segment]:
     """
     out: List[Segment] = []
     if isinstance(seg, Line):
-        (z0, r0), (z1, r1) = seg.start, seg.end
+        z0, z1 = seg.start[0], seg.end[0]
         if max(z0, z1) <= level:
             return [seg] if min(z0, z1) < level else []
         if min(z0, z1) >= level:

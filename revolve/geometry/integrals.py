@@ -399,7 +399,7 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13, *, length_only
     """
     f = _curve_integrand(curve, length_only)
     t0, t1 = curve.t_start, curve.t_end
-    mid, half = (t0 + t1) / 2, (t1 - t0) / 2
+    half = (t1 - t0) / 2
     width = 1 if length_only else len(COLUMNS)
 
     def t_at(phi):

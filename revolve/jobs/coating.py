@@ -378,7 +378,7 @@ def _chain_inner_hand(split, theta: float) -> float:
         return 1.0 if leaning > 0 else -1.0
     # only flat pieces (or a perfect balance): the hand whose normal points along +z
     for piece in pieces:
-        (z0, r0), (z1, r1) = piece.start, piece.end
+        r0, r1 = piece.start[1], piece.end[1]
         if r1 != r0:
             return 1.0 if r1 > r0 else -1.0   # right-hand normal (dr, −dz) has axial part dr
     return 1.0

@@ -12,7 +12,6 @@ from __future__ import annotations
 import math
 
 import pytest
-import sympy
 
 from geometry_testkit import (CURVE_TOL, LINE_ARC_TOL, T, assert_rel, distance_to_line, polygon,
                               reverse_loop)

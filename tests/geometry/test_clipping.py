@@ -14,7 +14,6 @@ import math
 
 import numpy as np
 import pytest
-import sympy
 from hypothesis import example, given, settings
 from hypothesis import strategies as st
 

@@ -17,7 +17,7 @@ import sympy
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
-from geometry_testkit import PLACEMENT_IDS, PLACEMENTS, T, assert_rel, circle_loop, place_loop
+from geometry_testkit import PLACEMENT_IDS, PLACEMENTS, T, circle_loop, place_loop
 from revolve.geometry.checks import prepare
 from revolve.geometry.horizontal import (horizontal_levels, horizontal_pieces, segment_area,
                                          segment_area_integral, wetted_arc)

@@ -22,7 +22,7 @@ from revolve.formats import load_profile
 from revolve.geometry.checks import prepare
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
-from revolve.geometry.segments import Line, arc_from_centre, arc_from_radius
+from revolve.geometry.segments import Line, arc_from_centre
 from revolve.jobs import turning as tu
 from revolve.jobs import turning_data as td
 
@@ -514,6 +514,7 @@ def test_quote_of_the_shaft_by_hand():
     m, prep, f = figures(SHAFT)
     q = tu.quote(m, prep, STEEL, _job(METRIC, metric_allowances()), f)
     volume = shaft_volume_mm3()
+    assert rel(q.part.volume, volume * 1e-9) < 1e-12      # SI inside: m³
     assert q.stock.size.label == "42 mm" and rel(q.stock.length, 0.085) < 1e-12
     assert q.bars.parts_per_bar == 34
     assert q.removal.removed_volume == q.stock.volume - q.part.volume
@@ -649,7 +650,7 @@ def test_limited_finishing_of_the_crown_arc_against_scipy_quad():
     m, prep, f = figures(SHAFT)
     vc, feed, n = FINISH.cutting_speed, FINISH.feed, 2180 / 60
     rc = vc / (2 * math.pi * n)
-    R, cz, cr = 0.026, 0.070, -0.006
+    R, cr = 0.026, -0.006            # centre at z = 0.070 m
     half = math.asin(10 / 26)
     assert 0.018 < rc < 0.020        # the limit cuts across the crown
 

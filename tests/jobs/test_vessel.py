@@ -12,7 +12,6 @@ from __future__ import annotations
 import math
 from pathlib import Path
 
-import numpy as np
 import pytest
 import sympy
 from hypothesis import assume, given, settings
@@ -21,7 +20,7 @@ from hypothesis import strategies as st
 from revolve.errors import ProfileError, RevolveError
 from revolve.formats import load_profile
 from revolve.formats.writer import profile_text
-from revolve.geometry.segments import Arc, Curve, Line
+from revolve.geometry.segments import Arc, Curve
 from revolve.jobs.levels import level_table, liquid_space
 from revolve.jobs.vessel import (HeadSpec, build_vessel, describe, parse_head, sketch_profile,
                                  summarise)
