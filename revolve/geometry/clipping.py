@@ -196,8 +196,7 @@ def _loop_segments(prep: PreparedProfile, loop_factors: Sequence[float]):
 def _shifted_curve(curve: Curve, dz: float) -> Curve:
     if dz == 0:
         return curve
-    import sympy
-    return replace(curve, x_expr=curve.x_expr + sympy.Float(dz, 17))
+    return curve.translated(dz)
 
 
 def axial_pieces(prep: PreparedProfile, loop_factors: Sequence[float]) -> AxialPieces:

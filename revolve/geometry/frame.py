@@ -33,11 +33,6 @@ def point_to_frame(p, axis: Axis, side: float):
     return (float(z), float(side * r))
 
 
-def _coefficient(v: float):
-    import sympy
-    return sympy.Integer(int(v)) if float(v).is_integer() else sympy.Float(v, 17)
-
-
 def to_frame(segment: Segment, axis: Axis, side: float) -> Segment:
     """The same segment with sketch coordinates replaced by axis-frame coordinates."""
     if isinstance(segment, Line):
@@ -53,10 +48,8 @@ def to_frame(segment: Segment, axis: Axis, side: float) -> Segment:
         px, py = float(axis.point[0]), float(axis.point[1])
         if (ux, uy, px, py, side) == (1.0, 0.0, 0.0, 0.0, 1.0):
             return segment
-        c = _coefficient
-        dx = segment.x_expr - c(px)
-        dy = segment.y_expr - c(py)
-        z = c(ux) * dx + c(uy) * dy
-        r = c(side) * (c(ux) * dy - c(uy) * dx)
-        return replace(segment, x_expr=z, y_expr=r)
+        # z = u·(p - P), r = side·(u × (p - P)): a translation, then a rotation (and mirror).
+        # The curve keeps its base expressions; only its affine map changes.
+        return segment.translated(-px, -py).transformed(
+            (ux, uy, -side * uy, side * ux))
     raise TypeError(f"unknown segment kind {type(segment).__name__}")

@@ -148,12 +148,7 @@ def _shift(seg, dz: float, dr: float = 0.0):
     if isinstance(seg, Arc):
         return replace(seg, start=mv(seg.start), end=mv(seg.end), centre=mv(seg.centre))
     if isinstance(seg, Curve):
-        import sympy
-
-        def add(e, v):
-            return e if v == 0 else e + (sympy.Integer(int(v)) if float(v).is_integer()
-                                         else sympy.Float(v, 17))
-        return replace(seg, x_expr=add(seg.x_expr, dz), y_expr=add(seg.y_expr, dr))
+        return seg.translated(dz, dr)
     raise TypeError(type(seg).__name__)
 
 

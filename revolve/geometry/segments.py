@@ -25,7 +25,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field, replace
-from functools import cached_property
+from functools import cached_property, lru_cache
 from typing import Any, Callable, Optional, Tuple, Union
 
 from revolve.errors import SegmentError
@@ -299,51 +299,241 @@ def _numeric_function(t, expression) -> Callable:
     return function
 
 
+@lru_cache(maxsize=256)
+def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callable]:
+    """Numeric functions ``(x, y, dx/dt, dy/dt)`` of a curve's base expressions, compiled once.
+
+    The cache is keyed by the expressions themselves (sympy expressions compare
+    and hash by structure), so every transformed, reversed or split copy of a
+    curve shares one compilation. ``compiled_curve.cache_info().misses`` counts
+    the compilations.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> f = compiled_curve(t ** 2, 3 * t)
+    >>> [float(g([2.0])[0]) for g in f]
+    [4.0, 6.0, 4.0, 3.0]
+    >>> compiled_curve(t ** 2, 3 * t) is f
+    True
+    """
+    import numpy as np
+    import sympy
+
+    t = sympy.Symbol("t", real=True)
+    fx = [_numeric_function(t, e)
+          for e in (x_expr, y_expr, sympy.diff(x_expr, t), sympy.diff(y_expr, t))]
+
+    def vectorised(f):
+        def g(tt):
+            tt = np.asarray(tt, dtype=float)
+            return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
+        return g
+
+    return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+
+
+def _sym_number(v: float):
+    """A float as a sympy number: an Integer when whole, else a 17-digit Float (round-trips)."""
+    import sympy
+    v = float(v)
+    return sympy.Integer(int(v)) if v.is_integer() else sympy.Float(v, 17)
+
+
+def _combine(a: float, u, b: float, w, c: float = 0.0):
+    """``a·u + b·w + c`` for arrays, skipping zero terms and unit factors.
+
+    Skipping keeps a term that the map drops from reaching the result (``0 × inf``
+    would be nan) and keeps translations and swaps exact to the last bit.
+    """
+    out = None
+    for k, arr in ((a, u), (b, w)):
+        if k == 0:
+            continue
+        term = arr if k == 1 else (-arr if k == -1 else k * arr)
+        out = term if out is None else out + term
+    if out is None:
+        import numpy as np
+        out = np.zeros_like(u)
+    return out + c if c != 0 else out
+
+
+@dataclass(frozen=True)
+class CurveMap:
+    """An affine map of a curve: ``(x, y) = M·(X(u), Y(u)) + v`` with ``u = p·t + q``.
+
+    ``X``, ``Y`` are the base expressions in ``u``; ``M`` is ``matrix`` (row
+    major ``m00, m01, m10, m11``), ``v`` the ``offset``; ``p``, ``q`` reparametrise.
+    All are plain floats; ``exact`` optionally holds the same eight numbers as
+    sympy numbers (for example ``pi/2``) when they are known exactly, used only
+    when the mapped expressions are built symbolically.
+
+    >>> m = CurveMap(offset=(2.0, 0.0)).then(CurveMap(matrix=(0.0, 1.0, 1.0, 0.0)))
+    >>> m.matrix, m.offset
+    ((0.0, 1.0, 1.0, 0.0), (0.0, 2.0))
+    >>> CurveMap().is_identity
+    True
+    """
+
+    matrix: Tuple[float, float, float, float] = (1.0, 0.0, 0.0, 1.0)
+    offset: Tuple[float, float] = (0.0, 0.0)
+    p: float = 1.0
+    q: float = 0.0
+    exact: Optional[tuple] = field(default=None, compare=False)
+
+    @property
+    def is_identity(self) -> bool:
+        return (self.matrix == (1.0, 0.0, 0.0, 1.0) and self.offset == (0.0, 0.0)
+                and self.p == 1.0 and self.q == 0.0)
+
+    def numbers(self) -> tuple:
+        """The eight entries as sympy numbers: exact ones if known, else from the floats."""
+        if self.exact is not None:
+            return self.exact
+        return tuple(_sym_number(v) for v in (*self.matrix, *self.offset, self.p, self.q))
+
+    def _all_whole(self) -> bool:
+        return all(float(v).is_integer() for v in (*self.matrix, *self.offset, self.p, self.q))
+
+    def then(self, other: "CurveMap") -> "CurveMap":
+        """This map followed by ``other`` (``other``'s parameter map applies first to ``t``).
+
+        >>> CurveMap(p=-1.0, q=3.0).then(CurveMap(p=-1.0, q=3.0)).is_identity
+        True
+        """
+        a00, a01, a10, a11 = self.matrix
+        b00, b01, b10, b11 = other.matrix
+        matrix = (b00 * a00 + b01 * a10, b00 * a01 + b01 * a11,
+                  b10 * a00 + b11 * a10, b10 * a01 + b11 * a11)
+        matrix = tuple(v + 0.0 for v in matrix)  # no negative zeros
+        ox, oy = self.offset
+        offset = (float(b00 * ox + b01 * oy + other.offset[0]) + 0.0,
+                  float(b10 * ox + b11 * oy + other.offset[1]) + 0.0)
+        # t -> u' = p' t + q' (other), then u = p u' + q (self).
+        p = self.p * other.p
+        q = self.p * other.q + self.q
+        exact = None
+        if (self.exact is not None or self._all_whole()) and \
+                (other.exact is not None or other._all_whole()):
+            A, B = self.numbers(), other.numbers()
+            exact = (B[0] * A[0] + B[1] * A[2], B[0] * A[1] + B[1] * A[3],
+                     B[2] * A[0] + B[3] * A[2], B[2] * A[1] + B[3] * A[3],
+                     B[0] * A[4] + B[1] * A[5] + B[4], B[2] * A[4] + B[3] * A[5] + B[5],
+                     A[6] * B[6], A[6] * B[7] + A[7])
+        return CurveMap(matrix, offset, p + 0.0, q + 0.0, exact)
+
+
+IDENTITY = CurveMap()
+
+
 @dataclass(frozen=True)
 class Curve:
     """A curve given by expressions ``x(t)``, ``y(t)`` for ``t`` from ``t_start`` to ``t_end``.
 
-    ``x_expr`` and ``y_expr`` are sympy expressions in the symbol ``t`` that
+    ``base_x`` and ``base_y`` are sympy expressions in the symbol ``t`` that
     came from the whitelist parser (:mod:`revolve.expr`), never from ``eval``.
     An explicit curve ``y = f(x)`` is the parametric curve ``(t, f(t))``.
-    Numeric functions are compiled once and cached.
+    ``affine`` maps the base curve into place (a :class:`CurveMap`): moving,
+    mirroring or reversing a curve composes the map and keeps the base
+    expressions, so their numeric functions are compiled once for all copies
+    (:func:`compiled_curve`). ``x_expr`` and ``y_expr`` are the mapped
+    expressions, built only when something reads them symbolically.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = Curve(t, t ** 2, 0.0, 1.0).transformed(offset=(5.0, 0.0)).reversed()
+    >>> c.x_expr, c.y_expr
+    (6 - t, (1 - t)**2)
+    >>> [float(v[0]) for v in c.evaluate([0.25])]
+    [5.75, 0.5625, -1.0, -1.5]
     """
 
-    x_expr: Any
-    y_expr: Any
+    base_x: Any
+    base_y: Any
     t_start: float
     t_end: float
     face: Optional[str] = None
     where: Optional[Where] = field(default=None, compare=False, repr=False)
     exact: Optional[tuple] = field(default=None, compare=False, repr=False)  # exact (t_start, t_end)
+    affine: CurveMap = field(default=IDENTITY, repr=False)
 
     kind = "curve"
 
     @cached_property
-    def _functions(self) -> tuple[Callable, Callable, Callable, Callable]:
-        import numpy as np
+    def _mapped(self) -> tuple:
         import sympy
 
+        if self.affine.is_identity:
+            return self.base_x, self.base_y
         t = sympy.Symbol("t", real=True)
-        fx = [_numeric_function(t, e)
-              for e in (self.x_expr, self.y_expr,
-                        sympy.diff(self.x_expr, t), sympy.diff(self.y_expr, t))]
+        m00, m01, m10, m11, v0, v1, p, q = self.affine.numbers()
+        X, Y = sympy.sympify(self.base_x), sympy.sympify(self.base_y)
+        if (self.affine.p, self.affine.q) != (1.0, 0.0):
+            sub = {s: p * t + q for s in (X.free_symbols | Y.free_symbols) if s.name == "t"}
+            X, Y = X.subs(sub), Y.subs(sub)
+        return m00 * X + m01 * Y + v0, m10 * X + m11 * Y + v1
 
-        def vectorised(f):
-            def g(tt):
-                tt = np.asarray(tt, dtype=float)
-                return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
-            return g
+    @property
+    def x_expr(self):
+        """The mapped expression of ``x`` in ``t`` (built on first use)."""
+        return self._mapped[0]
 
-        return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+    @property
+    def y_expr(self):
+        """The mapped expression of ``y`` in ``t`` (built on first use)."""
+        return self._mapped[1]
 
     def evaluate(self, t):
         """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
         import numpy as np
 
-        fx, fy, dfx, dfy = self._functions
+        fx, fy, dfx, dfy = compiled_curve(self.base_x, self.base_y)
+        m = self.affine
         with np.errstate(all="ignore"):
-            return fx(t), fy(t), dfx(t), dfy(t)
+            if m.p == 1.0 and m.q == 0.0:
+                u = t
+            else:
+                t = np.asarray(t, dtype=float)
+                u = m.q - t if m.p == -1.0 else m.p * t + m.q
+            X, Y, dX, dY = fx(u), fy(u), dfx(u), dfy(u)
+            if m is IDENTITY:
+                return X, Y, dX, dY
+            if m.p != 1.0:
+                dX, dY = (-dX, -dY) if m.p == -1.0 else (m.p * dX, m.p * dY)
+            a, b, c, d = m.matrix
+            return (_combine(a, X, b, Y, m.offset[0]), _combine(c, X, d, Y, m.offset[1]),
+                    _combine(a, dX, b, dY), _combine(c, dX, d, dY))
+
+    def transformed(self, matrix=(1.0, 0.0, 0.0, 1.0), offset=(0.0, 0.0),
+                    exact: Optional[tuple] = None) -> "Curve":
+        """The curve mapped by ``(x, y) -> M·(x, y) + offset`` (no recompilation).
+
+        ``exact`` may give the six numbers (matrix then offset) as sympy numbers.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).transformed((0.0, 1.0, 1.0, 0.0)).x_expr
+        t**2
+        """
+        matrix = tuple(float(v) for v in matrix)
+        offset = tuple(float(v) for v in offset)
+        full = None if exact is None else tuple(exact) + (1, 0)
+        if full is not None:
+            import sympy
+            full = tuple(sympy.sympify(v) for v in full)
+        step = CurveMap(matrix, offset, exact=full)  # type: ignore[arg-type]
+        return replace(self, affine=self.affine.then(step))
+
+    def translated(self, dx: float, dy: float = 0.0) -> "Curve":
+        """The curve moved by ``(dx, dy)``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t, 0.0, 1.0).translated(0.5).x_expr
+        t + 0.5
+        """
+        if dx == 0 and dy == 0:
+            return self
+        return self.transformed(offset=(dx, dy))
 
     @property
     def start(self) -> Point:
@@ -365,12 +555,9 @@ class Curve:
         return (float(x[0]), float(y[0]))
 
     def reversed(self) -> "Curve":
-        import sympy
-        t = sympy.Symbol("t", real=True)
         # t -> t_start + t_end - t keeps the same parameter interval.
-        sub = {t: self.t_start + self.t_end - t}
-        return replace(self, x_expr=self.x_expr.subs(sub), y_expr=self.y_expr.subs(sub),
-                       exact=None)
+        step = CurveMap(p=-1.0, q=self.t_start + self.t_end)
+        return replace(self, affine=self.affine.then(step), exact=None)
 
     def split(self, s: float = 0.5) -> tuple["Curve", "Curve"]:
         tm = self.t_start + s * (self.t_end - self.t_start)

@@ -341,27 +341,33 @@ def _number(v: float):
 
 
 def _ellipse_curve(e: _EllipseP, head: int, length: float, face: str):
-    """The ellipse primitive as a frame curve: head 1 from the pole, head 2 to the pole."""
+    """The ellipse primitive as a frame curve: head 1 from the pole, head 2 to the pole.
+
+    Both heads share one base curve, the primitive ``(u(τ), ρ(τ))`` for τ from
+    the pole (0) to the junction (π/2); each head is that curve under an affine
+    map (head 1: z = -u; head 2: z = L + u with τ = π/2 - t), so the numeric
+    functions are compiled once for both.
+    """
     import sympy
 
-    from revolve.geometry.segments import curve_from_expressions
+    from revolve.geometry.segments import CurveMap, curve_from_expressions
 
     t = sympy.Symbol("t", real=True)
     au, ar, w = _number(e.a_u), _number(e.a_r), _number(e.offset)
-    if head == 1:   # τ = t from the pole (t = 0) to the junction (t = π/2); z = -u
-        c, s = sympy.cos(t), sympy.sin(t)
-        norm = sympy.sqrt(ar ** 2 * c ** 2 + au ** 2 * s ** 2)
-        u = au * c + (w * ar * c / norm if e.offset else 0)
-        rho = ar * s + (w * au * s / norm if e.offset else 0)
-        z = -u
-    else:           # τ = π/2 - t from the junction (t = 0) to the pole (t = π/2); z = L + u
-        c, s = sympy.sin(t), sympy.cos(t)
-        norm = sympy.sqrt(ar ** 2 * c ** 2 + au ** 2 * s ** 2)
-        u = au * c + (w * ar * c / norm if e.offset else 0)
-        rho = ar * s + (w * au * s / norm if e.offset else 0)
-        z = _number(length) + u
-    return curve_from_expressions(z, rho, 0.0, math.pi / 2, face=face,
+    c, s = sympy.cos(t), sympy.sin(t)
+    norm = sympy.sqrt(ar ** 2 * c ** 2 + au ** 2 * s ** 2)
+    u = au * c + (w * ar * c / norm if e.offset else 0)
+    rho = ar * s + (w * au * s / norm if e.offset else 0)
+    base = curve_from_expressions(u, rho, 0.0, math.pi / 2, face=face,
                                   exact=(Fraction(0), "pi/2"))
+    if head == 1:   # τ = t from the pole (t = 0) to the junction (t = π/2); z = -u
+        return base.transformed((-1.0, 0.0, 0.0, 1.0))
+    # τ = π/2 - t from the junction (t = 0) to the pole (t = π/2); z = L + u
+    L = _number(length)
+    one, zero = sympy.Integer(1), sympy.Integer(0)
+    return replace(base, affine=CurveMap((1.0, 0.0, 0.0, 1.0), (float(length), 0.0),
+                                         -1.0, math.pi / 2,
+                                         exact=(one, zero, zero, one, L, zero, -one, sympy.pi / 2)))
 
 
 def _frame_point(p, head: int, length: float):
@@ -547,7 +553,7 @@ def _to_sketch(seg, orientation: str):
         return replace(seg, start=swap(seg.start), end=swap(seg.end), centre=swap(seg.centre),
                        clockwise=not seg.clockwise)
     if isinstance(seg, Curve):
-        return replace(seg, x_expr=seg.y_expr, y_expr=seg.x_expr)
+        return seg.transformed((0.0, 1.0, 1.0, 0.0))   # same base, no recompilation
     raise TypeError(type(seg).__name__)  # pragma: no cover
 
 
