@@ -1,0 +1,179 @@
+"""A curve moved, mirrored or reversed keeps its base expressions and an affine map.
+
+The numbers of a transformed curve must equal those of the curve written out
+with the transformed expressions. The reference here is independent of the
+engine's map: the test substitutes ``u = p t + q`` into the base expressions
+and applies the matrix with sympy (``xreplace``), differentiates with
+``sympy.diff`` and evaluates with ``evalf`` at 30 digits; the engine applies
+the map numerically to the values of the base functions. A copy must cost no
+compilation: a vessel with two ellipsoidal heads, built, drawn in the sketch
+and measured, compiles its ellipse once (``compiled_curve.cache_info``).
+"""
+
+from __future__ import annotations
+
+import math
+
+import numpy as np
+import pytest
+import sympy
+from hypothesis import example, given
+from hypothesis import strategies as st
+
+from revolve.geometry.frame import to_frame
+from revolve.geometry.profile import Axis
+from revolve.geometry.segments import Curve, compiled_curve, curve_from_expressions
+
+T = sympy.Symbol("t", real=True)
+#: A base curve with every kind of term: polynomial, trigonometric, a root.
+BASE_X = 2 + T ** 2 / 3 + sympy.cos(T)
+BASE_Y = 1 + T * sympy.sqrt(1 + T ** 2) + sympy.sin(2 * T) / 5
+T0, T1 = 0.25, 1.75
+
+
+def reference(x, y, matrix=(1, 0, 0, 1), offset=(0, 0), p=1, q=0):
+    """The transformed expressions, built by substitution (sympy numbers from the floats)."""
+    S = sympy.nsimplify  # exact rationals of the given floats: no rounding in the reference
+    u = S(p) * T + S(q)
+    X, Y = x.xreplace({T: u}), y.xreplace({T: u})
+    m00, m01, m10, m11 = (S(v) for v in matrix)
+    return (m00 * X + m01 * Y + S(offset[0]), m10 * X + m11 * Y + S(offset[1]))
+
+
+def values(x, y, ts):
+    """(x, y, dx/dt, dy/dt) of expressions at ``ts``, evaluated by sympy's evalf (30 digits)."""
+    exprs = (x, y, sympy.diff(x, T), sympy.diff(y, T))
+    return np.array([[float(e.evalf(30, subs={T: sympy.Rational(tv)})) for tv in ts]
+                     for e in exprs])
+
+
+def assert_close(got, want, rel=1e-13):
+    got = np.asarray(got, dtype=float)
+    scale = np.maximum(np.abs(want), 1.0)
+    assert np.all(np.abs(got - want) <= rel * scale), (got, want)
+
+
+TS = [T0, 0.5, 1.0, 1.3, T1]
+
+
+def test_translation_mirror_and_reversal_match_the_substituted_expressions():
+    base = curve_from_expressions(BASE_X, BASE_Y, T0, T1)
+    moved = base.translated(-3.5, 0.25)
+    mirrored = moved.transformed((0.0, 1.0, 1.0, 0.0))     # the vessel's swap of x and y
+    back = mirrored.reversed()
+    cases = [
+        (moved, reference(BASE_X, BASE_Y, offset=(-3.5, 0.25))),
+        (mirrored, reference(BASE_X, BASE_Y, (0, 1, 1, 0), (0.25, -3.5))),
+        (back, reference(BASE_X, BASE_Y, (0, 1, 1, 0), (0.25, -3.5), p=-1, q=T0 + T1)),
+    ]
+    for curve, (rx, ry) in cases:
+        want = values(rx, ry, TS)
+        assert_close(np.array(curve.evaluate(TS)), want)
+        # The curve built from the transformed expressions gives the same numbers.
+        built = curve_from_expressions(rx, ry, T0, T1)
+        assert_close(np.array(built.evaluate(TS)), want)
+        # The mapped expressions, built on demand, are the transformed ones.
+        assert_close(values(curve.x_expr, curve.y_expr, TS), want)
+
+
+def test_pieces_of_a_reversed_curve_keep_their_place():
+    base = curve_from_expressions(BASE_X, BASE_Y, T0, T1)
+    first, second = base.reversed().split(0.3)
+    rx, ry = reference(BASE_X, BASE_Y, p=-1, q=T0 + T1)
+    for piece in (first, second):
+        ts = list(np.linspace(piece.t_start, piece.t_end, 5))
+        assert_close(np.array(piece.evaluate(ts)), values(rx, ry, ts))
+    assert first.end == second.start
+
+
+@pytest.mark.parametrize("point, direction, side", [
+    ((3.5, -1.25), (math.cos(0.7), math.sin(0.7)), 1.0),
+    ((-2.0, 4.0), (math.cos(2.3), math.sin(2.3)), -1.0),
+    ((0.0, 0.0), (0.0, 1.0), -1.0),
+])
+def test_axis_frame_of_a_curve_matches_the_rotated_expressions(point, direction, side):
+    # z = u·(p − P), r = side · (u × (p − P)) (common practice, no source): the frame map
+    # written out by hand on the expressions.
+    axis = Axis(point, direction)
+    ux, uy = axis.unit_direction()
+    px, py = point
+    base = curve_from_expressions(BASE_X, BASE_Y, T0, T1)
+    framed = to_frame(base, axis, side)
+    S = sympy.nsimplify
+    dx, dy = BASE_X - S(px), BASE_Y - S(py)
+    z = S(ux) * dx + S(uy) * dy
+    r = S(side) * (S(ux) * dy - S(uy) * dx)
+    want = values(z, r, TS)
+    assert_close(np.array(framed.evaluate(TS)), want, rel=1e-12)
+    assert_close(values(framed.x_expr, framed.y_expr, TS), want, rel=1e-12)
+
+
+@given(angle=st.floats(-math.pi, math.pi), dx=st.floats(-1e3, 1e3), dy=st.floats(-1e3, 1e3),
+       mirror=st.booleans(), reverse=st.booleans())
+@example(angle=0.0, dx=0.0, dy=0.0, mirror=True, reverse=True)
+def test_any_rigid_map_matches_the_substituted_expressions(angle, dx, dy, mirror, reverse):
+    c, s = math.cos(angle), math.sin(angle)
+    m = -1.0 if mirror else 1.0
+    matrix = (c, -m * s, s, m * c)
+    base = curve_from_expressions(BASE_X, BASE_Y, T0, T1)
+    curve = base.transformed(matrix, (dx, dy))
+    p, q = 1, 0
+    if reverse:
+        curve, p, q = curve.reversed(), -1, T0 + T1
+    rx, ry = reference(BASE_X, BASE_Y, matrix, (dx, dy), p, q)
+    want = values(rx, ry, TS)
+    # Rounding of one product and one sum per coordinate, relative to the largest term.
+    assert_close(np.array(curve.evaluate(TS)), want, rel=1e-13)
+
+
+def test_copies_share_one_compilation():
+    x, y = T ** 3 + sympy.Rational(1, 7), sympy.exp(T / 3)   # expressions no other test uses
+    compiled_curve.cache_clear()
+    base = curve_from_expressions(x, y, 0.0, 1.0)
+    copies = [base.translated(1.5), base.reversed(), base.transformed((0, 1, 1, 0)),
+              base.reversed().split(0.5)[1].translated(0.0, -2.0)]
+    for c in copies:
+        c.evaluate([0.5])
+    assert compiled_curve.cache_info().misses == 1
+    # and the copies sit where the substituted expressions put them
+    rx, ry = reference(x, y, offset=(0, -2), p=-1, q=1)
+    assert_close(np.array(copies[-1].evaluate([0.75])), values(rx, ry, [0.75]))
+
+
+def test_vessel_with_two_ellipsoidal_heads_compiles_its_ellipse_once():
+    from revolve.geometry.measure import measure
+    from revolve.geometry.profile import Profile, Revolution
+    from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise
+
+    D, L = 1234.0, 2345.0   # sizes no other test uses; the count starts from an empty cache
+    compiled_curve.cache_clear()
+    spec = parse_head("ellipsoidal", D)
+    design = build_vessel(D, L, spec, spec)
+    summary = summarise(design)
+    profile, axis = sketch_profile(design, "vertical", "inside")
+    drawn = measure(Revolution(profile, axis), symbolic=False)
+    assert compiled_curve.cache_info().misses == 1
+    # A 2:1 ellipsoidal head holds π D³/24 (spheroid, CRC, from memory; 2:1 is common practice).
+    head = math.pi * D ** 3 / 24
+    assert summary.heads[0].volume == pytest.approx(head, rel=1e-12)
+    assert summary.heads[1].volume == pytest.approx(head, rel=1e-12)
+    assert drawn.volume == pytest.approx(2 * head + math.pi * D ** 2 / 4 * L, rel=1e-12)
+
+
+def test_head_two_keeps_its_exact_expressions():
+    # Head 2 is head 1's base ellipse reparametrised by τ = π/2 − t: its mapped expressions
+    # must be the exact ellipse z = L + a_u sin t, r = a_r cos t (no rounded π/2 in them).
+    from revolve.jobs.vessel import build_vessel, parse_head
+
+    D, L = 1000.0, 2000.0
+    spec = parse_head("ellipsoidal", D)
+    design = build_vessel(D, L, spec, spec)
+    heads = [s for s in design.inside.segments if isinstance(s, Curve)]
+    assert len(heads) == 2
+    head2 = next(s for s in heads if s.face == "head 2")
+    assert head2.x_expr.atoms(sympy.Float) == set() and head2.y_expr.atoms(sympy.Float) == set()
+    assert sympy.simplify(head2.x_expr - (L + D / 4 * sympy.sin(T))) == 0
+    assert sympy.simplify(head2.y_expr - D / 2 * sympy.cos(T)) == 0
+    head1 = next(s for s in heads if s.face == "head 1")
+    assert sympy.simplify(head1.x_expr + D / 4 * sympy.cos(T)) == 0
+    assert sympy.simplify(head1.y_expr - D / 2 * sympy.sin(T)) == 0
