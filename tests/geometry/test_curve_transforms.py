@@ -33,7 +33,7 @@ T0, T1 = 0.25, 1.75
 
 def reference(x, y, matrix=(1, 0, 0, 1), offset=(0, 0), p=1, q=0):
     """The transformed expressions, built by substitution (sympy numbers from the floats)."""
-    S = sympy.nsimplify  # exact rationals of the given floats: no rounding in the reference
+    S = sympy.Rational  # the exact value of each float: no rounding in the reference
     u = S(p) * T + S(q)
     X, Y = x.xreplace({T: u}), y.xreplace({T: u})
     m00, m01, m10, m11 = (S(v) for v in matrix)
@@ -99,7 +99,7 @@ def test_axis_frame_of_a_curve_matches_the_rotated_expressions(point, direction,
     px, py = point
     base = curve_from_expressions(BASE_X, BASE_Y, T0, T1)
     framed = to_frame(base, axis, side)
-    S = sympy.nsimplify
+    S = sympy.Rational
     dx, dy = BASE_X - S(px), BASE_Y - S(py)
     z = S(ux) * dx + S(uy) * dy
     r = S(side) * (S(ux) * dy - S(uy) * dx)
