@@ -455,8 +455,19 @@ class Curve:
     where: Optional[Where] = field(default=None, compare=False, repr=False)
     exact: Optional[tuple] = field(default=None, compare=False, repr=False)  # exact (t_start, t_end)
     affine: CurveMap = field(default=IDENTITY, repr=False)
+    #: ``(base_x, base_y, functions)`` once evaluated; ``dataclasses.replace`` carries it to
+    #: copies (moved, reversed, split), so they neither compile nor look up the cache again,
+    #: and a profile with more curves than the cache holds never compiles a curve twice.
+    _compiled: Optional[tuple] = field(default=None, compare=False, repr=False)
 
     kind = "curve"
+
+    def _functions(self):
+        c = self._compiled
+        if c is None or c[0] is not self.base_x or c[1] is not self.base_y:
+            c = (self.base_x, self.base_y, compiled_curve(self.base_x, self.base_y))
+            object.__setattr__(self, "_compiled", c)
+        return c[2]
 
     @cached_property
     def _mapped(self) -> tuple:
@@ -486,7 +497,7 @@ class Curve:
         """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
         import numpy as np
 
-        fx, fy, dfx, dfy = compiled_curve(self.base_x, self.base_y)
+        fx, fy, dfx, dfy = self._functions()
         m = self.affine
         with np.errstate(all="ignore"):
             if m.p == 1.0 and m.q == 0.0:

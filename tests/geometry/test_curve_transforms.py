@@ -142,7 +142,7 @@ def test_copies_share_one_compilation():
 
 def test_vessel_with_two_ellipsoidal_heads_compiles_its_ellipse_once():
     from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Profile, Revolution
+    from revolve.geometry.profile import Revolution
     from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise
 
     D, L = 1234.0, 2345.0   # sizes no other test uses; the count starts from an empty cache
@@ -177,3 +177,16 @@ def test_head_two_keeps_its_exact_expressions():
     head1 = next(s for s in heads if s.face == "head 1")
     assert sympy.simplify(head1.x_expr + D / 4 * sympy.cos(T)) == 0
     assert sympy.simplify(head1.y_expr - D / 2 * sympy.sin(T)) == 0
+
+
+def test_copies_keep_their_functions_when_the_cache_is_full():
+    # Copies carry the compiled functions with them: a profile with more curves than the
+    # cache holds must not compile any curve again when its pieces are moved or reversed.
+    x, y = T ** 5 - T / 9, sympy.cos(T / 7)   # expressions no other test uses
+    base = curve_from_expressions(x, y, 0.0, 2.0)
+    compiled_curve.cache_clear()               # as if many other curves had pushed it out
+    piece = base.split(0.25)[1].reversed().translated(2.0, 1.0).transformed((0, 1, 1, 0))
+    got = np.array(piece.evaluate([0.5, 1.5]))
+    assert compiled_curve.cache_info().misses == 0
+    rx, ry = reference(x, y, (0, 1, 1, 0), (1.0, 2.0), p=-1, q=0.5 + 2.0)
+    assert_close(got, values(rx, ry, [0.5, 1.5]))
