@@ -190,3 +190,23 @@ def test_copies_keep_their_functions_when_the_cache_is_full():
     assert compiled_curve.cache_info().misses == 0
     rx, ry = reference(x, y, (0, 1, 1, 0), (1.0, 2.0), p=-1, q=0.5 + 2.0)
     assert_close(got, values(rx, ry, [0.5, 1.5]))
+
+
+#: One expression for each function of the parser's whitelist, with quotients, roots and
+#: powers; their derivatives bring in sign(t) (from |t|) and negative powers.
+EXPRESSIONS = [
+    "sqrt(1 + t^2) / (2 + sin(t))", "cos(t)^3 - tan(t/2)", "asin(t/3) + acos(t/4)",
+    "atan(t) * atan2(t, 2)", "sinh(t/2) - cosh(t/3) + tanh(t)", "exp(-t) * log(1 + t)",
+    "abs(t - 1) + t^(1/3)", "t^-2 + 3/t - 1/sqrt(t)", "pi * exp(t) - e", "(t^2 - 1)^5 / 7",
+]
+
+
+@pytest.mark.parametrize("text", EXPRESSIONS)
+def test_compiled_functions_match_sympy_evalf(text):
+    from revolve.expr import parse_expression
+
+    y = parse_expression(text, ("t",))
+    ts = [0.3, 0.8, 1.25, 1.9]
+    got = np.array([f(ts) for f in compiled_curve(T, y)])
+    want = values(T, y, ts)
+    assert_close(got, want, rel=1e-14)
