@@ -196,7 +196,8 @@ def test_copies_keep_their_functions_when_the_cache_is_full():
 #: powers; their derivatives bring in sign(t) (from |t|) and negative powers.
 EXPRESSIONS = [
     "sqrt(1 + t^2) / (2 + sin(t))", "cos(t)^3 - tan(t/2)", "asin(t/3) + acos(t/4)",
-    "atan(t) * atan2(t, 2)", "sinh(t/2) - cosh(t/3) + tanh(t)", "exp(-t) * log(1 + t)",
+    "atan(t) * atan2(t, 2)", "1/sqrt(1 + t^2)", "1/t", "sinh(t/2) - cosh(t/3) + tanh(t)",
+    "exp(-t) * log(1 + t)",
     "abs(t - 1) + t^(1/3)", "t^-2 + 3/t - 1/sqrt(t)", "pi * exp(t) - e", "(t^2 - 1)^5 / 7",
 ]
 
