@@ -2,7 +2,10 @@
 
 Run:  python benchmarks/curve_benchmark.py [--before PATH] [--runs N] [--profile]
 
-Prints ratios, never absolute promises: the machines are shared and noisy.
+Prints ratios, never absolute promises: the machines are shared and noisy. Whole
+commands spend most of their time importing (sympy alone takes about 0.4 s), so a
+change of a tenth of a second in them is near the noise between runs; the two
+library lines time the curve work itself.
 
 Each command runs as a fresh process (the way a user runs it), N times
 (default 5), alternating between the variants so that load on the machine
@@ -18,7 +21,11 @@ Commands (invented inputs):
 * ``revolve vessel --diameter 2000 --length 5000 --head ellipsoidal``: two
   ellipsoidal heads (curves), built, drawn in the sketch and measured;
 * ``revolve measure spindle.toml``: a waisted spindle whose waist is the curve
-  ``y = 20 + 5 sin(x/10)`` (x in 0..100 mm).
+  ``y = 20 + 5 sin(x/10)`` (x in 0..100 mm);
+* 200 distinct cubic curves built with ``curve_from_expressions`` in one
+  process (a drawing with many splines);
+* the vessel's engine work alone (build, summarise, draw, measure), timed
+  inside the process after the imports, so start-up noise stays out.
 
 With ``--profile`` the "after" variant of each command also runs once under
 cProfile and the functions with the most cumulative time are printed.
@@ -55,6 +62,31 @@ segments = [
 ]
 """
 
+#: 200 distinct cubic curves, as a drawing with many splines gives (each checked and compiled).
+MANY_CURVES = """\
+import sympy
+from revolve.geometry.segments import curve_from_expressions
+t = sympy.Symbol("t", real=True)
+for k in range(200):
+    curve_from_expressions(sympy.Float(k, 17) + 3 * t + t ** 2 / 7,
+                           2 + sympy.Float(k / 3, 17) * t ** 3, 0.0, 1.0)
+"""
+
+#: The vessel's engine work in one process, imports done first (prints its own seconds).
+VESSEL_ENGINE = """\
+import time, sympy, numpy, scipy.optimize
+from revolve.geometry.measure import measure
+from revolve.geometry.profile import Revolution
+from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise
+t0 = time.perf_counter()
+spec = parse_head("ellipsoidal", 2000.0)
+design = build_vessel(2000.0, 5000.0, spec, spec)
+summarise(design)
+profile, axis = sketch_profile(design, "vertical", "inside")
+measure(Revolution(profile, axis), symbolic=False)
+print(time.perf_counter() - t0)
+"""
+
 
 def run(argv, pythonpath, cwd):
     env = dict(os.environ)
@@ -86,6 +118,8 @@ def main() -> None:
             "vessel, two ellipsoidal heads": ["-m", "revolve", "vessel", "--diameter", "2000",
                                               "--length", "5000", "--head", "ellipsoidal"],
             "measure, curve profile": ["-m", "revolve", "measure", "spindle.toml"],
+            "200 distinct curves built (library)": ["-c", MANY_CURVES],
+            "vessel engine only, imports excluded (library)": ["-c", VESSEL_ENGINE],
         }
         variants = {"after": ROOT}
         if args.before is not None:
@@ -99,17 +133,24 @@ def main() -> None:
                 times["bare"].append(run(bare, None, tmp)[0])
                 for v, path in variants.items():
                     t, out = run(argv, path, tmp)
+                    if argv[-1] is VESSEL_ENGINE:   # it times itself, without start-up
+                        t, out = float(out), b""
                     times[v].append(t)
                     outputs[v] = out
             med = {k: statistics.median(v) for k, v in times.items()}
             print(f"\n{name}")
             for k, v in med.items():
-                print(f"  {k:7s} {v:7.3f} s   {v / med['bare']:5.2f}× bare start-up")
+                rel = ("" if argv[-1] is VESSEL_ENGINE
+                       else f"   {v / med['bare']:5.2f}× bare start-up")
+                if k != "bare" or rel:
+                    print(f"  {k:7s} {v:7.3f} s{rel}")
             if "before" in med:
                 print(f"  before / after: {med['before'] / med['after']:.2f}×   "
                       f"(same output: {outputs['before'] == outputs['after']})")
             if args.profile:
                 prof = Path(tmp) / "out.prof"
+                if argv[0] != "-m":
+                    continue
                 run(["-m", "cProfile", "-o", str(prof)] + argv, ROOT, tmp)
                 import pstats
                 print("  cProfile (after), top cumulative:")
