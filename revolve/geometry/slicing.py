@@ -293,20 +293,25 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequ
     """∫ of the slice function over each interval [a_k, b_k], once per quadrature order.
 
     The intervals must be sorted and must not overlap (so ``b`` is sorted
-    too), and every piece end must be an interval end. Then a piece, monotone
-    in z, spans a contiguous run of intervals: those with ``a ≥ lo`` and
-    ``b ≤ hi``, found by two binary searches. The (piece, interval) pairs are
-    expanded from those runs, every node of every pair is evaluated at once,
-    and the pairs are summed into their intervals with ``np.bincount``.
+    too). A piece, monotone in z, then meets a contiguous run of intervals:
+    those with ``b > lo`` and ``a < hi``, found by two binary searches. The
+    (piece, interval) pairs are expanded from those runs; each pair is the
+    piece's washer over its part ``[max(a, lo), min(b, hi)]`` of the
+    interval; every node of every pair is evaluated at once, and the pairs
+    are summed into their intervals with ``np.bincount``. Where every piece
+    end is an interval end (as :func:`washer_volume` starts on smooth
+    outlines), a piece's part of an interval is the whole interval.
 
     Cost: O((n + m) log m + P · order) for n pieces, m intervals and P pairs.
-    P is the number of times the slices cross the boundary: about 2m for an
-    outline whose boundary is a few monotone chains along the axis (real
-    outlines), but it can reach n · m for pathological profiles (many long
-    pieces spanning the same range, as a stack of long thin rings).
+    P is the number of times the interval ends cut the boundary, plus n:
+    about 2m on an outline made of a few monotone chains along the axis; as
+    many as n · m for pathological partitions (many long pieces over the same
+    range, a noisy outline cut at every vertex), which is why
+    :func:`washer_volume` coarsens its first partition until P is O(n).
 
     Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` with n
-    Gauss–Legendre nodes in φ, ``z = (a + b)/2 − (b − a)/2 · cos φ``.
+    Gauss–Legendre nodes in φ, ``z = (c + d)/2 − (d − c)/2 · cos φ`` on its
+    part [c, d] of the interval.
     """
     m = a.size
     out = [np.zeros(m) for _ in orders]
@@ -317,10 +322,8 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequ
         x, w = gauss_legendre(n)
         phi = (x + 1) * (math.pi / 2)                      # nodes on [0, π]
         rules.append((np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = (b−a)/2 sin φ dφ
-    mid = (a + b) / 2
-    half = (b - a) / 2
-    first = np.searchsorted(a, table.lo, side="left")
-    stop = np.searchsorted(b, table.hi, side="right")
+    first = np.searchsorted(b, table.lo, side="right")     # first interval with b > lo
+    stop = np.searchsorted(a, table.hi, side="left")       # intervals with a < hi end here
     count = np.maximum(stop - first, 0)
     n_line, n_arc = len(table.line), len(table.arc)
     kinds = (("line", 0, n_line), ("arc", n_line, n_line + n_arc))
@@ -340,25 +343,67 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequ
             iv = first[k0 + piece] + (q - (ends[piece] - cnt[piece]))
             p = params[piece]
             sign = table.sign[k0 + piece]
+            c = np.maximum(a[iv], table.lo[k0 + piece])
+            d = np.minimum(b[iv], table.hi[k0 + piece])
+            mid, half = (c + d) / 2, (d - c) / 2
             for res, (cphi, wphi) in zip(out, rules):
-                z = mid[iv, None] - half[iv, None] * cphi[None, :]
+                z = mid[:, None] - half[:, None] * cphi[None, :]
                 r = radius(p, z)
                 # Every loop crosses a slice as often going one way as the other, so
                 # r² − r_ref² sums to the same washer area, without losing digits when
                 # a thin section lies far from the axis.
-                val = np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half[iv] * sign
+                val = np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half * sign
                 res += np.bincount(iv, weights=val, minlength=m)
     for j, pc in enumerate(table.curves):
         k = n_line + n_arc + j
         if count[k] <= 0:
             continue
         sel = np.arange(first[k], first[k] + count[k])
+        c = np.maximum(a[sel], table.lo[k])
+        d = np.minimum(b[sel], table.hi[k])
+        mid, half = (c + d) / 2, (d - c) / 2
         for res, (cphi, wphi) in zip(out, rules):
-            z = mid[sel, None] - half[sel, None] * cphi[None, :]
+            z = mid[:, None] - half[:, None] * cphi[None, :]
             r = _radius_at(pc, z)
-            res[sel] += table.sign[k] * np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) \
-                * half[sel]
+            res[sel] += table.sign[k] * np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half
     return out
+
+
+#: Most (piece, interval) pairs per piece the first partition of the washers may give.
+PAIRS_PER_PIECE = 8
+
+
+def first_partition(table: PieceTable) -> np.ndarray:
+    """The interval ends the washers start from: every piece end, or a subset of them.
+
+    Every piece end (where the slice function has a kink) is an interval end
+    unless the slices cut so many pieces that the (piece, interval) pairs would
+    pass :data:`PAIRS_PER_PIECE` per piece, as on a noisy outline whose zigzags
+    are longer along the axis than the spacing of its points. Then every k-th
+    end is kept, k doubling until they fit: each slice interval then holds the
+    parts of the pieces that cross it, each piece integrated over its own part
+    (its kinks stay at the ends of its parts). The cost of the choice is
+    O(n log n) per try, with at most log₂ n tries.
+
+    >>> t = PieceTable(np.array([0.0, 0.0]), np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
+    ...                np.zeros((2, 4)), np.zeros((0, 7)), ())
+    >>> first_partition(t).tolist()
+    [0.0, 2.0]
+    """
+    breaks = np.unique(np.concatenate([table.lo, table.hi]))
+    limit = PAIRS_PER_PIECE * table.count + 64
+    step = 1
+    edges = breaks
+    while edges.size > 2:
+        pairs = int((np.searchsorted(edges, table.hi, side="left")
+                     - np.searchsorted(edges, table.lo, side="right") + 1).sum())
+        if pairs <= limit:
+            break
+        step *= 2
+        edges = breaks[::step]
+        if edges[-1] != breaks[-1]:
+            edges = np.append(edges, breaks[-1])
+    return edges
 
 
 #: Most slice intervals :func:`washer_volume` evaluates (each with 3 × 24 nodes per piece).
@@ -379,12 +424,12 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
 
     The slice intervals are kept sorted, so each round costs O(m log m) for m
     intervals plus the work of :func:`_interval_sums` on the pairs of pieces
-    and intervals (about 2m on real outlines; see there for the worst case).
+    and intervals, which :func:`first_partition` keeps O(n) for n pieces.
     """
     table = piece_table(prep, loop_factors)
     if table.count == 0:
         return 0.0, 0.0
-    breaks = np.unique(np.concatenate([table.lo, table.hi]))
+    breaks = first_partition(table)
     ends = np.fromiter((c for p in prep.paths for s in p for c in (s.start[1], s.end[1])),
                        dtype=float)
     r_ref = float((ends.min() + ends.max()) / 2)
