@@ -20,6 +20,8 @@ import math
 
 import numpy as np
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 from shapely.geometry import LinearRing, LineString, Polygon
 
 from revolve.geometry.checks import RELATIVE_TOLERANCE, find_self_intersection, prepare
@@ -155,3 +157,23 @@ def test_touching_chains_count_within_the_tolerance():
     hit = find_self_intersection([a, b, c], [False, False, False], tol)
     assert hit is not None and (hit[0], hit[2]) == (0, 1)
     assert find_self_intersection([a, c], [False, False], tol) is None
+
+
+@settings(max_examples=60, deadline=None)
+@given(st.integers(0, 2 ** 32 - 1), st.integers(4, 200), st.booleans(), st.sampled_from(["random", "ring"]))
+def test_every_candidate_index_agrees_with_shapely_is_simple(seed, n, closed, shape):
+    # Random points (crossings everywhere) or a noisy ring (crossings rare): the x sweep, the
+    # y sweep and the grid must each find a crossing exactly when shapely's is_simple says
+    # the line is not simple (touching within 1e-12 does not occur with these random points).
+    rng = np.random.default_rng(seed)
+    if shape == "random":
+        pts = rng.normal(size=(n, 2))
+    else:
+        a = np.sort(rng.uniform(0.0, 2 * math.pi, n))
+        pts = np.column_stack([np.cos(a), np.sin(a)]) * (1 + rng.uniform(-0.2, 0.2, (n, 1)))
+    line = LinearRing(pts) if closed else LineString(pts)
+    chord = np.vstack([pts, pts[:1]]) if closed else pts
+    answers = {ix: find_self_intersection([chord], [closed], 1e-12, index=ix)
+               for ix in ("x", "y", "grid", None)}
+    assert len(set(answers.values())) == 1, answers
+    assert (answers[None] is None) == line.is_simple
