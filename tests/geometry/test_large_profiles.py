@@ -177,3 +177,17 @@ def test_every_candidate_index_agrees_with_shapely_is_simple(seed, n, closed, sh
                for ix in ("x", "y", "grid", None)}
     assert len(set(answers.values())) == 1, answers
     assert (answers[None] is None) == line.is_simple
+
+
+@pytest.mark.parametrize("noise", [0.0, 0.5])
+def test_polygon_moments_of_a_large_outline_agree_with_shapely(noise):
+    # polygon_moments (summed without BLAS) against shapely's Polygon.area, .centroid, .length.
+    from revolve.geometry.integrals import COL, polygon_moments
+
+    pts = wavy_ring(noise=noise)
+    poly = Polygon(pts)
+    v = polygon_moments(pts[:, 0], pts[:, 1])
+    assert abs(v[COL["M00"]] - poly.area) <= 1e-13 * poly.area
+    assert abs(v[COL["M10"]] / v[COL["M00"]] - poly.centroid.x) <= 1e-12 * 50
+    assert abs(v[COL["M01"]] / v[COL["M00"]] - poly.centroid.y) <= 1e-12 * 50
+    assert abs(v[COL["length"]] - poly.length) <= 1e-12 * poly.length
