@@ -8,7 +8,11 @@ integrated over ``z`` with breakpoints at every vertex and every point where
 the boundary turns back along the axis, by Gauss–Legendre quadrature in the
 variable φ of ``z = (a + b)/2 - (b - a)/2 · cos φ`` (which smooths the square-
 root behaviour of an arc at its turning points), comparing two orders and
-splitting intervals until they agree.
+splitting intervals until they agree. Each crossing's part of a slice interval
+is integrated between its own ends there, so when the slices would cut too many
+crossings (a noisy outline) the intervals may be coarser than the vertices
+(:func:`first_partition`); the pieces and intervals are arrays, and the work is
+O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
 
 Surface is ∫ r ds along every segment by Gauss–Legendre quadrature of the
 parametrisation, again comparing two orders.
