@@ -70,14 +70,17 @@ def noisy(n: int) -> np.ndarray:
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
 
 
-def run(cmd, pythonpath, timeout):
+def run(cmd, pythonpath, timeout, cwd):
     """Wall seconds and peak memory (MB) of one child process, or (None, None) on timeout."""
     env = dict(os.environ)
     env.pop("PYTHONDONTWRITEBYTECODE", None)
     if pythonpath:
         env["PYTHONPATH"] = str(pythonpath)
     t0 = time.perf_counter()
-    child = subprocess.Popen(cmd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, env=env)
+    # cwd: a neutral folder, so that `python -m revolve` finds the package on PYTHONPATH
+    # and not in the folder the benchmark was started from
+    child = subprocess.Popen(cmd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, env=env,
+                             cwd=cwd)
     timer = threading.Timer(timeout, child.kill)
     timer.start()
     try:
@@ -113,6 +116,8 @@ def main(argv=None):
     work = Path(tempfile.mkdtemp(prefix="revolve-bench-"))
     py = sys.executable
     print(f"revolve measure PTS --json: after = {ROOT}, before = {args.before or '(not given)'}")
+    if args.before:
+        Path(args.before, "revolve", "__init__.py").stat()     # a checkout, or stop here
     print(f"{'shape':>7} {'vertices':>9} {'plain s':>8} {'after s':>8} {'before s':>8} "
           f"{'after/plain':>12} {'before/after':>13} {'after MB':>9} {'before MB':>10}")
     for shape in shapes:
@@ -130,7 +135,7 @@ def main(argv=None):
                                     ("before", args.before, cmd)):
                     if name == "before" and not args.before or name in slow:
                         continue
-                    t, m = run(c, pp, args.timeout)
+                    t, m = run(c, pp, args.timeout, work)
                     if t is None:
                         slow.add(name)
                         best[name] = None
