@@ -249,7 +249,11 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None)
-    grid = _grid_order(x0, x1, y0, y1, 4 * n + 1024) if index in (None, "grid") else None
+    # The grid costs a sort of its registrations: build it only when a sweep is not already
+    # down to a few pairs per chord (or when asked for).
+    few = bool(choices) and min(c[0] for c in choices.values()) <= 4 * n
+    grid = _grid_order(x0, x1, y0, y1, 4 * n + 1024) \
+        if index == "grid" or (index is None and not few) else None
     if grid is not None:
         edge, span, key, cell = grid
         choices["grid"] = (int(span.sum()), edge, span, key, cell)
@@ -257,21 +261,29 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         order, span = _sweep_order(x0, x1)
         choices["x"] = (int(span.sum()), order, span, None, None)
     total, ids, span, key, cell = min(choices.values(), key=lambda c: c[0])
-    starts_cum = np.concatenate([[0], np.cumsum(span)])
+    # The boxes in the index's order, so that a position's partners are read nearby.
+    bx0, bx1, by0, by1 = x0[ids], x1[ids], y0[ids], y1[ids]
+    cum = np.cumsum(span)
     best = None
-    pos = 0
-    while pos < total:
-        stop = min(total, pos + chunk)
-        # Pairs numbered pos..stop: owner at sorted position p, partner at position q > p.
-        k = np.arange(pos, stop)
-        p = np.searchsorted(starts_cum, k, side="right") - 1
-        q = p + 1 + (k - starts_cum[p])
+    start = 0
+    while start < len(ids) and total:
+        # Owners start … stop − 1 (about `chunk` pairs), each with partners p + 1 … p + span[p].
+        done = int(cum[start - 1]) if start else 0
+        stop = max(start + 1, int(np.searchsorted(cum, done + chunk, side="right")))
+        owners = np.arange(start, stop)
+        start = stop
+        sp = span[owners]
+        p = np.repeat(owners, sp)
+        if not p.size:
+            continue
+        q = p + 1 + (np.arange(p.size) - np.repeat(np.cumsum(sp) - sp, sp))
+        near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p]) & (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+        p, q = p[near], q[near]
         i, j = ids[p], ids[q]
         same = path[i] == path[j]
         diff = np.abs(idx[i] - idx[j])
         adjacent = same & ((diff == 1) | (is_closed[i] & (diff == cnt[i] - 1)))
-        keep = (~adjacent) & (i != j) & (x0[i] <= x1[j]) & (x0[j] <= x1[i]) \
-            & (y0[i] <= y1[j]) & (y0[j] <= y1[i])
+        keep = (~adjacent) & (i != j)
         if cell is not None:
             keep &= cell(np.maximum(x0[i], x0[j]), np.maximum(y0[i], y0[j])) == key[p]
         i, j = i[keep], j[keep]
@@ -283,7 +295,6 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
                 cand = [c if (c[0], c[1]) <= (c[2], c[3]) else (c[2], c[3], c[0], c[1]) for c in cand]
                 m = min(cand)
                 best = m if best is None else min(best, m)
-        pos = stop
     return best
 
 

@@ -289,7 +289,7 @@ def _arc_radius(p: np.ndarray, z: np.ndarray) -> np.ndarray:
 
 
 #: Most (piece, interval) pairs evaluated at once by :func:`_interval_sums` (bounds memory).
-PAIR_BLOCK = 1 << 15
+PAIR_BLOCK = 1 << 13
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequence[int],
