@@ -137,12 +137,82 @@ def _segments_cross(p, q, r, s, tol):
     return proper | touch
 
 
+def _sweep_order(lo: np.ndarray, hi: np.ndarray) -> Tuple[np.ndarray, np.ndarray]:
+    """Boxes sorted by their low end on one axis, and how many boxes after each start before its high end.
+
+    The partners of sorted position p are positions p + 1 … p + span[p]: the
+    boxes whose interval on this axis overlaps p's and starts no earlier.
+    """
+    order = np.argsort(lo, kind="stable")
+    ls = lo[order]
+    span = np.searchsorted(ls, hi[order], side="right") - np.arange(len(order)) - 1
+    return order, np.maximum(span, 0)
+
+
+def _grid_order(x0, x1, y0, y1, n_limit: int):
+    """Boxes registered in the cells of a uniform grid that they cover, grouped by cell.
+
+    Returns (edge of each registration, span, cell key of each registration,
+    cell function) with the registrations sorted by cell; the partners of a
+    registration are the later ones in its cell. The cell size starts at the
+    median box size and doubles until at most ``n_limit`` registrations are
+    made, so long boxes cannot blow up the index. ``None`` if the boxes are
+    degenerate (all of zero size).
+    """
+    n = len(x0)
+    extent = np.maximum(x1 - x0, y1 - y0)
+    h = float(np.median(extent))
+    ox, oy = float(x0.min()), float(y0.min())
+    whole = max(float(x1.max()) - ox, float(y1.max()) - oy)
+    h = max(h, whole / 2.0 ** 24)
+    if not (h > 0 and math.isfinite(h)):
+        return None
+    while True:
+        cx0 = np.floor((x0 - ox) / h).astype(np.int64)
+        cx1 = np.floor((x1 - ox) / h).astype(np.int64)
+        cy0 = np.floor((y0 - oy) / h).astype(np.int64)
+        cy1 = np.floor((y1 - oy) / h).astype(np.int64)
+        wide = cy1 - cy0 + 1
+        reg = (cx1 - cx0 + 1) * wide
+        total = int(reg.sum())
+        if total <= n_limit or h >= whole:
+            break
+        h *= 2
+    rows = int(cy1.max()) + 1
+    edge = np.repeat(np.arange(n), reg)
+    off = np.arange(total) - np.repeat(np.cumsum(reg) - reg, reg)
+    key = (cx0[edge] + off // wide[edge]) * rows + (cy0[edge] + off % wide[edge])
+    order = np.argsort(key, kind="stable")
+    key, edge = key[order], edge[order]
+    new = np.flatnonzero(key[1:] != key[:-1]) + 1
+    group_end = np.append(new, total)
+    group = np.concatenate([[0], np.cumsum(key[1:] != key[:-1])]) if total else np.zeros(0, int)
+    span = group_end[group] - np.arange(total) - 1
+
+    def cell(x, y):
+        return np.floor((x - ox) / h).astype(np.int64) * rows + np.floor((y - oy) / h).astype(np.int64)
+
+    return edge, span, key, cell
+
+
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 2_000_000) -> Optional[Tuple[int, int, int, int]]:
+                           chunk: int = 2_000_000,
+                           index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
-    ``chains`` holds each path's points (m + 1, 2). Candidate pairs come from a
-    sweep over x extents, so a profile with n chords costs about O(n log n).
+    ``chains`` holds each path's points (m + 1, 2). Two chords are candidates
+    when their boxes overlap: ``[x_min − tol, x_max + tol]`` on x and
+    ``[y_min, y_max + tol]`` on y. The candidates come from whichever of three
+    indexes gives the fewest pairs to test, each counted exactly beforehand in
+    O(n log n): a sweep over x, a sweep over y, or a uniform grid whose cells
+    hold the chords whose boxes cover them (a pair is tested only in the cell
+    that holds the low corner of the overlap of their boxes, so once). On real
+    outlines the grid's pairs are O(n); no index helps when the boxes of many
+    chords truly overlap (a noisy outline whose zigzags are far longer than
+    the spacing of its points: the pairs grow as (total length)² / area).
+    The exact orientation test then runs vectorised over the candidates, in
+    chunks of ``chunk`` pairs. ``index`` ("x", "y" or "grid") forces one
+    index (for tests); the answer is the same whichever is used.
 
     >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
     >>> find_self_intersection(bow, [True], 1e-9)
@@ -154,6 +224,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     starts, ends, path_of, index_of, count_of = [], [], [], [], []
     for k, pts in enumerate(chains):
         m = len(pts) - 1
+        if m < 1:
+            continue
         starts.append(pts[:-1])
         ends.append(pts[1:])
         path_of.append(np.full(m, k))
@@ -167,30 +239,53 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     idx = np.concatenate(index_of)
     cnt = np.concatenate(count_of)
     is_closed = np.asarray(closed, dtype=bool)[path]
-    xmin = np.minimum(a[:, 0], b[:, 0]) - tol
-    xmax = np.maximum(a[:, 0], b[:, 0]) + tol
-    order = np.argsort(xmin, kind="stable")
-    xs = xmin[order]
-    hi = np.searchsorted(xs, xmax[order], side="right")
-    span = hi - np.arange(len(order)) - 1
-    span = np.maximum(span, 0)
-    total = int(span.sum())
+    x0 = np.minimum(a[:, 0], b[:, 0]) - tol
+    x1 = np.maximum(a[:, 0], b[:, 0]) + tol
+    y0 = np.minimum(a[:, 1], b[:, 1])
+    y1 = np.maximum(a[:, 1], b[:, 1]) + tol
+    n = len(a)
+    choices = {}
+    for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
+        if index in (None, name):
+            order, span = _sweep_order(lo, hi)
+            choices[name] = (int(span.sum()), order, span, None, None)
+    # The grid costs a sort of its registrations: build it only when a sweep is not already
+    # down to a few pairs per chord (or when asked for).
+    few = bool(choices) and min(c[0] for c in choices.values()) <= 4 * n
+    grid = _grid_order(x0, x1, y0, y1, 4 * n + 1024) \
+        if index == "grid" or (index is None and not few) else None
+    if grid is not None:
+        edge, span, key, cell = grid
+        choices["grid"] = (int(span.sum()), edge, span, key, cell)
+    if not choices:
+        order, span = _sweep_order(x0, x1)
+        choices["x"] = (int(span.sum()), order, span, None, None)
+    total, ids, span, key, cell = min(choices.values(), key=lambda c: c[0])
+    # The boxes in the index's order, so that a position's partners are read nearby.
+    bx0, bx1, by0, by1 = x0[ids], x1[ids], y0[ids], y1[ids]
+    cum = np.cumsum(span)
     best = None
-    pos = 0
-    starts_cum = np.concatenate([[0], np.cumsum(span)])
-    while pos < total:
-        stop = min(total, pos + chunk)
-        # Pairs numbered pos..stop: owner i (sorted position) and partner j.
-        k = np.arange(pos, stop)
-        i_sorted = np.searchsorted(starts_cum, k, side="right") - 1
-        j_sorted = i_sorted + 1 + (k - starts_cum[i_sorted])
-        i, j = order[i_sorted], order[j_sorted]
+    start = 0
+    while start < len(ids) and total:
+        # Owners start … stop − 1 (about `chunk` pairs), each with partners p + 1 … p + span[p].
+        done = int(cum[start - 1]) if start else 0
+        stop = max(start + 1, int(np.searchsorted(cum, done + chunk, side="right")))
+        owners = np.arange(start, stop)
+        start = stop
+        sp = span[owners]
+        p = np.repeat(owners, sp)
+        if not p.size:
+            continue
+        q = p + 1 + (np.arange(p.size) - np.repeat(np.cumsum(sp) - sp, sp))
+        near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p]) & (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+        p, q = p[near], q[near]
+        i, j = ids[p], ids[q]
         same = path[i] == path[j]
         diff = np.abs(idx[i] - idx[j])
         adjacent = same & ((diff == 1) | (is_closed[i] & (diff == cnt[i] - 1)))
-        ymin_i = np.minimum(a[i, 1], b[i, 1]); ymax_i = np.maximum(a[i, 1], b[i, 1])
-        ymin_j = np.minimum(a[j, 1], b[j, 1]); ymax_j = np.maximum(a[j, 1], b[j, 1])
-        keep = (~adjacent) & (i != j) & (ymin_i <= ymax_j + tol) & (ymin_j <= ymax_i + tol)
+        keep = (~adjacent) & (i != j)
+        if cell is not None:
+            keep &= cell(np.maximum(x0[i], x0[j]), np.maximum(y0[i], y0[j])) == key[p]
         i, j = i[keep], j[keep]
         if i.size:
             hit = _segments_cross(a[i], b[i], a[j], b[j], tol)
@@ -200,7 +295,6 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
                 cand = [c if (c[0], c[1]) <= (c[2], c[3]) else (c[2], c[3], c[0], c[1]) for c in cand]
                 m = min(cand)
                 best = m if best is None else min(best, m)
-        pos = stop
     return best
 
 

@@ -710,7 +710,7 @@ def polygon_moments(x, y, lengths: bool = True, block: int = 1 << 15) -> np.ndar
     """Sums of every column over a closed polygon given by its vertex arrays, shape (10,).
 
     The fast path for long point lists: the same closed forms as
-    :func:`line_integrals`, summed with dot products and no per-segment table,
+    :func:`line_integrals`, summed elementwise (no BLAS) and no per-segment table,
     in blocks that stay in the processor's cache, so a 10⁶-vertex outline costs
     a few passes over memory. ``lengths=False`` skips the three length columns
     (left as NaN) when only the section is wanted.
@@ -738,18 +738,21 @@ def polygon_moments(x, y, lengths: bool = True, block: int = 1 << 15) -> np.ndar
         sx = x0 + x1
         sy = y0 + y1
         q = y0 * y1
+        # Elementwise products summed by numpy (pairwise), not BLAS dot products: the
+        # same speed on any machine, whatever its BLAS thread pool is doing.
         acc[3] += c.sum()
-        acc[4] += c @ sx
-        acc[5] += c @ sy
-        acc[6] += c @ (sx * sx) - c @ (x0 * x1)
-        acc[7] += c @ (sx * sy) + c @ (x0 * y0) + c @ (x1 * y1)
-        acc[8] += c @ (sy * sy) - c @ q
-        acc[9] += c @ (sy * sy * sy) - 2 * (c @ (sy * q))
+        acc[4] += (c * sx).sum()
+        acc[5] += (c * sy).sum()
+        acc[6] += (c * (sx * sx - x0 * x1)).sum()
+        acc[7] += (c * (sx * sy + x0 * y0 + x1 * y1)).sum()
+        syy = sy * sy
+        acc[8] += (c * (syy - q)).sum()
+        acc[9] += (c * (syy * sy - 2 * (sy * q))).sum()
         if lengths:
             L = np.hypot(x1 - x0, y1 - y0)
             acc[0] += L.sum()
-            acc[1] += L @ sx
-            acc[2] += L @ sy
+            acc[1] += (L * sx).sum()
+            acc[2] += (L * sy).sum()
     out[:] = acc / np.array([1, 2, 2, 2, 6, 6, 12, 24, 12, 20])
     if not lengths:
         out[:3] = np.nan

@@ -8,7 +8,11 @@ integrated over ``z`` with breakpoints at every vertex and every point where
 the boundary turns back along the axis, by Gauss–Legendre quadrature in the
 variable φ of ``z = (a + b)/2 - (b - a)/2 · cos φ`` (which smooths the square-
 root behaviour of an arc at its turning points), comparing two orders and
-splitting intervals until they agree.
+splitting intervals until they agree. Each crossing's part of a slice interval
+is integrated between its own ends there, so when the slices would cut too many
+crossings (a noisy outline) the intervals may be coarser than the vertices
+(:func:`first_partition`); the pieces and intervals are arrays, and the work is
+O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
 
 Surface is ∫ r ds along every segment by Gauss–Legendre quadrature of the
 parametrisation, again comparing two orders.
@@ -192,28 +196,218 @@ def curve_parameter_at(curve: Curve, ta: float, tb: float, targets, coordinate: 
     return 0.5 * (lo + hi)
 
 
-def _interval_sums(pieces: Sequence[Piece], a: np.ndarray, b: np.ndarray, n: int,
-                   r_ref: float = 0.0) -> np.ndarray:
-    """∫ of the slice function over each interval [a_k, b_k] with n cos-mapped GL nodes."""
-    x, w = gauss_legendre(n)
-    phi = (x + 1) * (math.pi / 2)                      # nodes on [0, π]
-    wphi = w * (math.pi / 2) * np.sin(phi)             # dz = (b - a)/2 sin φ dφ
-    half = (b - a) / 2
-    zk = ((a + b) / 2)[:, None] - half[:, None] * np.cos(phi)[None, :]
-    total = np.zeros(a.shape)
-    for p in pieces:
-        lo, hi = min(p.z_from, p.z_to), max(p.z_from, p.z_to)
-        inside = (a >= lo) & (b <= hi)
-        if not inside.any():
+@dataclass(frozen=True)
+class PieceTable:
+    """The monotone pieces of a profile's loops as arrays, for the washers.
+
+    ``lo`` and ``hi`` are each piece's extent along the axis and ``sign`` is
+    ``-direction × factor`` (the sign its ``r²`` takes in the slice). Lines
+    and arcs keep their parameters in columns (``line``: z0, r0, z1, r1;
+    ``arc``: cz, cr, R, s, u_e, r_e, √(R² − u_e²), as in :class:`Piece`);
+    curves stay :class:`Piece` objects (few, each inverted by bisection).
+    Rows of ``lo``, ``hi`` and ``sign`` list the lines, then the arcs, then
+    the curves.
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> t = piece_table(prep, [1.0])
+    >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist()
+    (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0])
+    """
+
+    lo: np.ndarray
+    hi: np.ndarray
+    sign: np.ndarray
+    line: np.ndarray            # (n_lines, 4)
+    arc: np.ndarray             # (n_arcs, 7)
+    curves: Tuple[Piece, ...]
+
+    @property
+    def count(self) -> int:
+        return int(self.lo.size)
+
+
+def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
+    """Split every loop segment of a prepared profile into monotone pieces, as arrays.
+
+    Lines go straight into columns (no object per vertex); arcs and curves go
+    through :func:`monotone_pieces`. Open chains enclose nothing and are left out.
+    An empty profile gives an empty table:
+
+    >>> from revolve.geometry.checks import PreparedProfile
+    >>> piece_table(PreparedProfile((), (), (), 1.0, 1.0, 1e-9), []).count
+    0
+    """
+    line_rows: List[np.ndarray] = []
+    line_factor: List[np.ndarray] = []
+    others: List[Piece] = []
+    loop_no = 0
+    for segs, closed in zip(prep.paths, prep.closed):
+        if not closed:
             continue
-        sel = np.flatnonzero(inside)
-        r = _radius_at(p, zk[sel])
-        direction = 1.0 if p.z_to > p.z_from else -1.0
-        # Every loop crosses a slice as often going one way as the other, so
-        # r² - r_ref² sums to the same washer area, without losing digits when
-        # a thin section lies far from the axis.
-        total[sel] += -direction * p.factor * ((r - r_ref) * (r + r_ref)) @ wphi * half[sel]
-    return total
+        f = float(loop_factors[loop_no])
+        loop_no += 1
+        ends = [s.start + s.end for s in segs if isinstance(s, Line)]
+        if ends:
+            rows = np.array(ends, dtype=float).reshape(-1, 4)
+            rows = rows[rows[:, 0] != rows[:, 2]]           # across the axis: no washer
+            line_rows.append(rows)
+            line_factor.append(np.full(len(rows), f))
+        for s in segs:
+            if not isinstance(s, Line):
+                others.extend(monotone_pieces(s, f))
+    line = np.concatenate(line_rows) if line_rows else np.zeros((0, 4))
+    lf = np.concatenate(line_factor) if line_factor else np.zeros(0)
+    arcs = [p for p in others if p.kind == "arc"]
+    curves = tuple(p for p in others if p.kind == "curve")
+    arc = np.array([p.params for p in arcs], dtype=float).reshape(-1, 7)
+    ends_of = np.array([(p.z_from, p.z_to, p.factor) for p in arcs + list(curves)],
+                       dtype=float).reshape(-1, 3)
+    z_from = np.concatenate([line[:, 0], ends_of[:, 0]])
+    z_to = np.concatenate([line[:, 2], ends_of[:, 1]])
+    factor = np.concatenate([lf, ends_of[:, 2]])
+    direction = np.where(z_to > z_from, 1.0, -1.0)
+    return PieceTable(np.minimum(z_from, z_to), np.maximum(z_from, z_to), -direction * factor,
+                      line, arc, curves)
+
+
+def _line_radius(p: np.ndarray, z: np.ndarray) -> np.ndarray:
+    """r(z) along line pieces; ``p`` rows (z0, r0, z1, r1) broadcast against ``z``."""
+    z0, r0, z1, r1 = (p[:, k:k + 1] for k in range(4))
+    return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+
+
+def _arc_radius(p: np.ndarray, z: np.ndarray) -> np.ndarray:
+    """r(z) along arc pieces, as in :func:`_radius_at` (rows of the seven arc parameters)."""
+    cz, cr, R, s, ue, re, root_e = (p[:, k:k + 1] for k in range(7))
+    u = z - cz
+    root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
+    with np.errstate(invalid="ignore", divide="ignore"):
+        r = re + s * (ue - u) * (ue + u) / (root + root_e)
+    return np.where(root + root_e > 0, r, cr + s * root)
+
+
+#: Most (piece, interval) pairs evaluated at once by :func:`_interval_sums` (bounds memory).
+PAIR_BLOCK = 1 << 13
+
+
+def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequence[int],
+                   r_ref: float = 0.0) -> List[np.ndarray]:
+    """∫ of the slice function over each interval [a_k, b_k], once per quadrature order.
+
+    The intervals must be sorted and must not overlap (so ``b`` is sorted
+    too). A piece, monotone in z, then meets a contiguous run of intervals:
+    those with ``b > lo`` and ``a < hi``, found by two binary searches. The
+    (piece, interval) pairs are expanded from those runs; each pair is the
+    piece's washer over its part ``[max(a, lo), min(b, hi)]`` of the
+    interval; every node of every pair is evaluated at once, and the pairs
+    are summed into their intervals with ``np.bincount``. Where every piece
+    end is an interval end (as :func:`washer_volume` starts on smooth
+    outlines), a piece's part of an interval is the whole interval.
+
+    Cost: O((n + m) log m + P · order) for n pieces, m intervals and P pairs.
+    P is the number of times the interval ends cut the boundary, plus n:
+    about 2m on an outline made of a few monotone chains along the axis; as
+    many as n · m for pathological partitions (many long pieces over the same
+    range, a noisy outline cut at every vertex), which is why
+    :func:`washer_volume` coarsens its first partition until P is O(n).
+
+    Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` with n
+    Gauss–Legendre nodes in φ, ``z = (c + d)/2 − (d − c)/2 · cos φ`` on its
+    part [c, d] of the interval.
+    """
+    m = a.size
+    out = [np.zeros(m) for _ in orders]
+    if m == 0 or table.count == 0:
+        return out
+    rules = []
+    for n in orders:
+        x, w = gauss_legendre(n)
+        phi = (x + 1) * (math.pi / 2)                      # nodes on [0, π]
+        rules.append((np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = (b−a)/2 sin φ dφ
+    first = np.searchsorted(b, table.lo, side="right")     # first interval with b > lo
+    stop = np.searchsorted(a, table.hi, side="left")       # intervals with a < hi end here
+    count = np.maximum(stop - first, 0)
+    n_line, n_arc = len(table.line), len(table.arc)
+    kinds = (("line", 0, n_line), ("arc", n_line, n_line + n_arc))
+    for kind, k0, k1 in kinds:
+        if k1 == k0:
+            continue
+        params = table.line if kind == "line" else table.arc
+        radius = _line_radius if kind == "line" else _arc_radius
+        cnt = count[k0:k1]
+        ends = np.cumsum(cnt)
+        total = int(ends[-1])
+        for lo_pair in range(0, total, PAIR_BLOCK):
+            hi_pair = min(total, lo_pair + PAIR_BLOCK)
+            # Pair q belongs to the piece whose cumulative count first exceeds q.
+            q = np.arange(lo_pair, hi_pair)
+            piece = np.searchsorted(ends, q, side="right")
+            iv = first[k0 + piece] + (q - (ends[piece] - cnt[piece]))
+            p = params[piece]
+            sign = table.sign[k0 + piece]
+            c = np.maximum(a[iv], table.lo[k0 + piece])
+            d = np.minimum(b[iv], table.hi[k0 + piece])
+            mid, half = (c + d) / 2, (d - c) / 2
+            for res, (cphi, wphi) in zip(out, rules):
+                z = mid[:, None] - half[:, None] * cphi[None, :]
+                r = radius(p, z)
+                # Every loop crosses a slice as often going one way as the other, so
+                # r² − r_ref² sums to the same washer area, without losing digits when
+                # a thin section lies far from the axis.
+                val = np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half * sign
+                res += np.bincount(iv, weights=val, minlength=m)
+    for j, pc in enumerate(table.curves):
+        k = n_line + n_arc + j
+        if count[k] <= 0:
+            continue
+        sel = np.arange(first[k], first[k] + count[k])
+        c = np.maximum(a[sel], table.lo[k])
+        d = np.minimum(b[sel], table.hi[k])
+        mid, half = (c + d) / 2, (d - c) / 2
+        for res, (cphi, wphi) in zip(out, rules):
+            z = mid[:, None] - half[:, None] * cphi[None, :]
+            r = _radius_at(pc, z)
+            res[sel] += table.sign[k] * np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half
+    return out
+
+
+#: Most (piece, interval) pairs per piece the first partition of the washers may give.
+PAIRS_PER_PIECE = 8
+
+
+def first_partition(table: PieceTable) -> np.ndarray:
+    """The interval ends the washers start from: every piece end, or a subset of them.
+
+    Every piece end (where the slice function has a kink) is an interval end
+    unless the slices cut so many pieces that the (piece, interval) pairs would
+    pass :data:`PAIRS_PER_PIECE` per piece, as on a noisy outline whose zigzags
+    are longer along the axis than the spacing of its points. Then every k-th
+    end is kept, k doubling until they fit: each slice interval then holds the
+    parts of the pieces that cross it, each piece integrated over its own part
+    (its kinks stay at the ends of its parts). The cost of the choice is
+    O(n log n) per try, with at most log₂ n tries.
+
+    >>> t = PieceTable(np.array([0.0, 0.0]), np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
+    ...                np.zeros((2, 4)), np.zeros((0, 7)), ())
+    >>> first_partition(t).tolist()
+    [0.0, 2.0]
+    """
+    breaks = np.unique(np.concatenate([table.lo, table.hi]))
+    limit = PAIRS_PER_PIECE * table.count + 64
+    step = 1
+    edges = breaks
+    while edges.size > 2:
+        pairs = int((np.searchsorted(edges, table.hi, side="left")
+                     - np.searchsorted(edges, table.lo, side="right") + 1).sum())
+        if pairs <= limit:
+            break
+        step *= 2
+        edges = breaks[::step]
+        if edges[-1] != breaks[-1]:
+            edges = np.append(edges, breaks[-1])
+    return edges
 
 
 #: Most slice intervals :func:`washer_volume` evaluates (each with 3 × 24 nodes per piece).
@@ -231,20 +425,17 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     ``max_rounds`` rounds or ``max_intervals`` intervals evaluated (past the
     first), those not yet resolved are taken with their difference plus the
     washer area they hold as the error estimate (honest, if not tight).
+
+    The slice intervals are kept sorted, so each round costs O(m log m) for m
+    intervals plus the work of :func:`_interval_sums` on the pairs of pieces
+    and intervals, which :func:`first_partition` keeps O(n) for n pieces.
     """
-    pieces: List[Piece] = []
-    loop_no = 0
-    for segs, closed in zip(prep.paths, prep.closed):
-        if not closed:
-            continue
-        f = float(loop_factors[loop_no])
-        loop_no += 1
-        for s in segs:
-            pieces.extend(monotone_pieces(s, f))
-    if not pieces:
+    table = piece_table(prep, loop_factors)
+    if table.count == 0:
         return 0.0, 0.0
-    breaks = np.unique(np.array([[p.z_from, p.z_to] for p in pieces]).ravel())
-    ends = np.array([c for p in prep.paths for s in p for c in (s.start[1], s.end[1])])
+    breaks = first_partition(table)
+    ends = np.fromiter((c for p in prep.paths for s in p for c in (s.start[1], s.end[1])),
+                       dtype=float)
     r_ref = float((ends.min() + ends.max()) / 2)
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
@@ -256,8 +447,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     for round_no in range(max_rounds):
         used += a.size
         with np.errstate(all="ignore"):
-            coarse = _interval_sums(pieces, a, b, n, r_ref)
-            fine = _interval_sums(pieces, a, b, 2 * n, r_ref)
+            coarse, fine = _interval_sums(table, a, b, (n, 2 * n), r_ref)
         diff = np.abs(fine - coarse)
         finite = np.isfinite(fine) & np.isfinite(diff)
         scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
@@ -270,16 +460,17 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
         # Where the rule could not resolve an interval (or a slope overflowed on one too
         # narrow to halve), its washers lie between nothing and a disc of the farthest
         # radius for each crossing: that bound is its error.
-        bound = len(pieces) * r_far * r_far * (b - a)
+        bound = table.count * r_far * r_far * (b - a)
         unsure = good & (~finite | (diff > rel_tol * scale))
         value += float(np.where(finite, fine, 0.0)[good].sum())
         error += float(np.where(unsure, np.where(finite, diff, 0.0) + bound, diff)[good].sum())
         if good.all():
             break
+        # Halve the rest; each pair of halves stays in place, so the intervals stay sorted.
         ab, bb = a[~good], b[~good]
         m = (ab + bb) / 2
-        a = np.concatenate([ab, m])
-        b = np.concatenate([m, bb])
+        a = np.column_stack([ab, m]).ravel()
+        b = np.column_stack([m, bb]).ravel()
     return abs(value) * angle / 2, error * angle / 2
 
 

@@ -1,0 +1,174 @@
+"""Point lists of 10³ … 10⁵ vertices: `revolve measure PTS --json`, before and after, in one run.
+
+Run:  python benchmarks/pointlist_benchmark.py [--before DIR] [--sizes 1000,10000,100000]
+      [--shapes smooth,noisy] [--timeout 600] [--profile N]
+
+Each row times three processes on the same file, alternated so that they see the
+same load on a shared machine (the best of ``--repeats`` runs each):
+
+* ``after``:  ``python -m revolve measure PTS --json`` with this checkout first on
+  PYTHONPATH (the cross-check included, as the command always runs it);
+* ``before``: the same command with another checkout first on PYTHONPATH
+  (``--before DIR``, e.g. a worktree of main; skipped without it);
+* ``plain``:  a plain numpy process: ``numpy.loadtxt`` of the file and the shoelace
+  area and centroid (the floor for any Python program that reads the file).
+
+It prints wall seconds, the ratios after/plain and before/after, and the peak
+memory of each revolve process (ru_maxrss of the child). Two outlines, both
+simple and star-shaped about (0, 50), radius 20 + 2 sin 7a, 10 ≤ r ≤ 80:
+
+* ``smooth``: noise ±0.1 of the point spacing (a CMM trace or a dense drawing);
+* ``noisy``:  noise ±0.5 (the outline of issue 10's measurements): at 10⁵ points the
+  zigzags are ~400 spacings long, so every slice and every chord box meets
+  hundreds of others.
+
+``--profile N`` also runs the engine in this process under cProfile on the
+N-vertex noisy file and prints the 25 functions with the most own time.
+
+Prints ratios, never absolute promises: the machines are shared and noisy.
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import subprocess
+import sys
+import tempfile
+import threading
+import time
+from pathlib import Path
+
+import numpy as np
+
+ROOT = Path(__file__).resolve().parents[1]
+
+PLAIN = """
+import sys, numpy as np
+p = np.loadtxt(sys.argv[1], delimiter=",")
+x, y = p[:, 0], p[:, 1]
+xn, yn = np.roll(x, -1), np.roll(y, -1)
+c = x * yn - xn * y
+a = c.sum() / 2
+print(a, ((x + xn) * c).sum() / (6 * a), ((y + yn) * c).sum() / (6 * a))
+"""
+
+
+def ring(n: int, noise_spacings: float, seed: int = 0) -> np.ndarray:
+    """A star-shaped ring with radial noise of ± noise_spacings × the point spacing."""
+    rng = np.random.default_rng(seed)
+    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
+    spacing = 2 * np.pi * 20 / n
+    r = 20 + 2 * np.sin(7 * a) + rng.uniform(-1, 1, n) * noise_spacings * spacing
+    return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
+
+
+def noisy(n: int) -> np.ndarray:
+    rng = np.random.default_rng(0)
+    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
+    r = 20 + 2 * np.sin(7 * a) + rng.uniform(-0.5, 0.5, n)
+    return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
+
+
+def run(cmd, pythonpath, timeout, cwd):
+    """Wall seconds and peak memory (MB) of one child process, or (None, None) on timeout."""
+    env = dict(os.environ)
+    env.pop("PYTHONDONTWRITEBYTECODE", None)
+    if pythonpath:
+        env["PYTHONPATH"] = str(pythonpath)
+    t0 = time.perf_counter()
+    # cwd: a neutral folder, so that `python -m revolve` finds the package on PYTHONPATH
+    # and not in the folder the benchmark was started from
+    child = subprocess.Popen(cmd, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL, env=env,
+                             cwd=cwd)
+    timer = threading.Timer(timeout, child.kill)
+    timer.start()
+    try:
+        _, status, usage = os.wait4(child.pid, 0)     # this child's own peak memory
+    finally:
+        timer.cancel()
+    child.returncode = status
+    wall = time.perf_counter() - t0
+    if status != 0:
+        return None, None
+    return wall, usage.ru_maxrss / 1024
+
+
+def fmt(t):
+    return "   —   " if t is None else f"{t:7.2f}"
+
+
+def ratio(a, b):
+    return "   —  " if a is None or b is None else f"{a / b:6.1f}×"
+
+
+def main(argv=None):
+    ap = argparse.ArgumentParser(description=__doc__.split("\n")[0])
+    ap.add_argument("--before", help="another checkout of revolve to time side by side")
+    ap.add_argument("--sizes", default="1000,10000,100000")
+    ap.add_argument("--shapes", default="smooth,noisy")
+    ap.add_argument("--repeats", type=int, default=3)
+    ap.add_argument("--timeout", type=float, default=600.0)
+    ap.add_argument("--profile", type=int, default=0)
+    args = ap.parse_args(argv)
+    sizes = [int(s) for s in args.sizes.split(",")]
+    shapes = args.shapes.split(",")
+    work = Path(tempfile.mkdtemp(prefix="revolve-bench-"))
+    py = sys.executable
+    print(f"revolve measure PTS --json: after = {ROOT}, before = {args.before or '(not given)'}")
+    if args.before:
+        Path(args.before, "revolve", "__init__.py").stat()     # a checkout, or stop here
+    print(f"{'shape':>7} {'vertices':>9} {'plain s':>8} {'after s':>8} {'before s':>8} "
+          f"{'after/plain':>12} {'before/after':>13} {'after MB':>9} {'before MB':>10}")
+    for shape in shapes:
+        for n in sizes:
+            pts = ring(n, 0.1) if shape == "smooth" else noisy(n)
+            path = work / f"{shape}-{n}.csv"
+            np.savetxt(path, pts, delimiter=",", fmt="%.17g")
+            plain_cmd = [py, "-c", PLAIN, str(path)]
+            cmd = [py, "-m", "revolve", "measure", str(path), "--json"]
+            best = {"plain": None, "after": None, "before": None}
+            mem = {"after": None, "before": None}
+            slow = set()
+            for _ in range(args.repeats):
+                for name, pp, c in (("plain", None, plain_cmd), ("after", ROOT, cmd),
+                                    ("before", args.before, cmd)):
+                    if name == "before" and not args.before or name in slow:
+                        continue
+                    t, m = run(c, pp, args.timeout, work)
+                    if t is None:
+                        slow.add(name)
+                        best[name] = None
+                        continue
+                    # one run is enough for anything slower than 20 s
+                    if t > 20:
+                        slow.add(name)
+                    best[name] = t if best[name] is None else min(best[name], t)
+                    if m is not None and name in mem:
+                        mem[name] = m if mem[name] is None else max(mem[name], m)
+            print(f"{shape:>7} {n:>9} {fmt(best['plain'])} {fmt(best['after'])} {fmt(best['before'])} "
+                  f"{ratio(best['after'], best['plain']):>12} {ratio(best['before'], best['after']):>13} "
+                  f"{(mem['after'] or float('nan')):>9.0f} {(mem['before'] or float('nan')):>10.0f}")
+    if args.profile:
+        profile(args.profile)
+
+
+def profile(n):
+    import cProfile
+    import pstats
+
+    sys.path.insert(0, str(ROOT))
+    from revolve.geometry.measure import measure
+    from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+
+    pts = noisy(n).tolist()
+    print(f"\ncProfile of measure() on the {n}-vertex noisy ring (own time, top 25):")
+    pr = cProfile.Profile()
+    pr.enable()
+    measure(Revolution(Profile(loops=(Loop.from_points(pts),)), Axis.x()))
+    pr.disable()
+    pstats.Stats(pr).sort_stats("tottime").print_stats(25)
+
+
+if __name__ == "__main__":
+    main()
