@@ -92,38 +92,6 @@ TWO_PI = 2.0 * math.pi
 
 # -- splitting segments into pieces monotone along the axis ----------------------------
 
-def _curve_turning_parameters(curve: Curve, which: int, samples: int = 1025) -> List[float]:
-    """Parameters where ``dz/dt`` (which = 2) or ``dr/dt`` (which = 3) changes sign."""
-    t = np.linspace(curve.t_start, curve.t_end, samples)
-    with np.errstate(all="ignore"):
-        d = curve.evaluate(t)[which]
-    d = np.nan_to_num(d, nan=0.0, posinf=0.0, neginf=0.0)
-    # Sign changes between neighbouring samples that are not zero: a sample may land exactly
-    # on the turning point (a zero between a + and a -).
-    nonzero = np.flatnonzero(d != 0)
-    sg = np.sign(d[nonzero])
-    flips = np.flatnonzero(sg[:-1] * sg[1:] < 0)
-    out = []
-    for k in flips:
-        i, j = nonzero[k], nonzero[k + 1]
-        if j > i + 1:            # zeros between: the turning point is the middle one
-            out.append(float(t[(i + j) // 2]))
-            continue
-        a, b = float(t[i]), float(t[j])
-        fa = float(curve.evaluate(np.array([a]))[which][0])
-        for _ in range(200):
-            m = 0.5 * (a + b)
-            if m == a or m == b:
-                break
-            fm = float(curve.evaluate(np.array([m]))[which][0])
-            if (fm > 0) == (fa > 0):
-                a, fa = m, fm
-            else:
-                b = m
-        out.append(0.5 * (a + b))
-    return out
-
-
 def _arc_cut_angles(arc: Arc, step: float) -> List[float]:
     """Angles strictly inside the arc's sweep that are multiples of ``step``, in travel order."""
     a0, a1 = arc.angles()
@@ -150,7 +118,7 @@ def split_arc(arc: Arc, step: float) -> List[Tuple[float, float]]:
 
 def split_curve(curve: Curve, which: Sequence[int]) -> List[Tuple[float, float]]:
     """The curve's parameter interval cut where ``dz/dt`` (2) and/or ``dr/dt`` (3) turn."""
-    ts = sorted(set(t for w in which for t in _curve_turning_parameters(curve, w)),
+    ts = sorted(set(t for w in which for t in curve.turning_parameters(w - 2)),
                 reverse=curve.t_end < curve.t_start)
     ts = [curve.t_start] + ts + [curve.t_end]
     return [(p, q) for p, q in zip(ts[:-1], ts[1:]) if p != q]

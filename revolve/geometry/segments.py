@@ -675,6 +675,53 @@ class Curve:
         x, y, _, _ = self.evaluate([t])
         return (float(x[0]), float(y[0]))
 
+    def turning_parameters(self, coordinate: int = 0, samples: int = 1025) -> list[float]:
+        """Parameters inside the interval where ``x`` (coordinate 0) or ``y`` (1) turns back.
+
+        The derivative is sampled at ``samples`` points; each sign change between
+        neighbouring non-zero samples is narrowed by bisection to the last bit, and a run
+        of exact zeros between a + and a - gives its middle sample. In the axis frame
+        ``x`` is the position along the axis and ``y`` the radius, so splitting a curve
+        at these parameters gives pieces along which that coordinate moves one way only
+        (used by washers, clipping, horizontal levels and coating groups alike).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, (t - 1) ** 2, 0.0, 3.0).turning_parameters(1)   # y = (t-1)² turns at t = 1
+        [1.0]
+        >>> Curve(t, t, 0.0, 1.0).turning_parameters(0)               # monotone: none
+        []
+        """
+        import numpy as np
+
+        which = 2 + coordinate
+        t = np.linspace(self.t_start, self.t_end, samples)
+        with np.errstate(all="ignore"):
+            d = self.evaluate(t)[which]
+        d = np.nan_to_num(np.asarray(d, dtype=float) * np.ones_like(t), nan=0.0, posinf=0.0,
+                          neginf=0.0)
+        nonzero = np.flatnonzero(d != 0)
+        signs = np.sign(d[nonzero])
+        out = []
+        for k in np.flatnonzero(signs[:-1] * signs[1:] < 0):
+            i, j = nonzero[k], nonzero[k + 1]
+            if j > i + 1:            # exact zeros between: the turning point is the middle one
+                out.append(float(t[(i + j) // 2]))
+                continue
+            a, b = float(t[i]), float(t[j])
+            fa = float(self.evaluate(np.array([a]))[which][0])
+            for _ in range(200):
+                m = 0.5 * (a + b)
+                if m == a or m == b:
+                    break
+                fm = float(self.evaluate(np.array([m]))[which][0])
+                if (fm > 0) == (fa > 0):
+                    a, fa = m, fm
+                else:
+                    b = m
+            out.append(0.5 * (a + b))
+        return out
+
     def reversed(self) -> "Curve":
         # t -> t_start + t_end - t keeps the same parameter interval.
         step = CurveMap(p=-1.0, q=self.t_start + self.t_end)

@@ -112,17 +112,7 @@ def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
                 out.append(Piece(z_from, z_to, "arc", (cz, cr, R, s, ue, re, root_e), factor))
         return out
     if isinstance(seg, Curve):
-        t = np.linspace(seg.t_start, seg.t_end, 1025)
-        with np.errstate(all="ignore"):
-            _, _, dz, _ = seg.evaluate(t)
-        dz = np.nan_to_num(dz, nan=0.0, posinf=0.0, neginf=0.0)
-        # Sign changes of dz/dt between neighbouring samples where it is not zero, so a
-        # turning point that falls exactly on a sample is found too.
-        nz = np.flatnonzero(np.sign(dz) != 0)
-        change = np.sign(dz[nz[:-1]]) * np.sign(dz[nz[1:]]) < 0
-        ts = [seg.t_start]
-        for i, j in zip(nz[:-1][change], nz[1:][change]):
-            ts.append(_root(lambda u: seg.evaluate(np.array([u]))[2][0], t[i], t[j]))
+        ts = [seg.t_start] + seg.turning_parameters(0)
         ts.append(seg.t_end)
         out = []
         for ta, tb in zip(ts[:-1], ts[1:]):
@@ -132,21 +122,6 @@ def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
                 out.append(Piece(za, zb, "curve", (seg, ta, tb), factor))
         return out
     raise TypeError(type(seg).__name__)
-
-
-def _root(f, a: float, b: float) -> float:
-    """Bisection for a sign change of f on [a, b] (to the last bit)."""
-    fa = f(a)
-    for _ in range(200):
-        m = 0.5 * (a + b)
-        if m == a or m == b:
-            break
-        fm = f(m)
-        if (fm > 0) == (fa > 0):
-            a, fa = m, fm
-        else:
-            b = m
-    return 0.5 * (a + b)
 
 
 def _radius_at(piece: Piece, z: np.ndarray) -> np.ndarray:

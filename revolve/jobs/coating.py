@@ -198,40 +198,17 @@ def turning_pieces(seg) -> list:
     """
     from dataclasses import replace
 
-    import numpy as np
+    from revolve.geometry.clipping import split_arc
 
     if seg.kind == "line":
         return [seg]
     if seg.kind == "arc":
-        a0, a1 = seg.angles()
-        lo, hi = min(a0, a1), max(a0, a1)
-        cuts = [k * math.pi for k in range(math.ceil(lo / math.pi), math.floor(hi / math.pi) + 1)
-                if lo < k * math.pi < hi]
-        if a1 < a0:
-            cuts.reverse()
+        cuts = [q for _, q in split_arc(seg, math.pi)[:-1]]   # where z turns back
         cz, cr = seg.centre
         points = [seg.start] + [(cz + seg.radius * math.cos(a), cr + seg.radius * math.sin(a))
                                 for a in cuts] + [seg.end]
         return [replace(seg, start=p, end=q, exact=None) for p, q in zip(points[:-1], points[1:])]
-    t = np.linspace(seg.t_start, seg.t_end, 1025)
-    _, _, dz, _ = seg.evaluate(t)
-    dz = np.nan_to_num(dz, nan=0.0, posinf=0.0, neginf=0.0)
-    nonzero = np.flatnonzero(np.sign(dz) != 0)
-    change = np.sign(dz[nonzero[:-1]]) * np.sign(dz[nonzero[1:]]) < 0
-    ts = [seg.t_start]
-    for i, j in zip(nonzero[:-1][change], nonzero[1:][change]):
-        a, b = float(t[i]), float(t[j])
-        fa = float(seg.evaluate([a])[2][0])
-        for _ in range(200):          # bisection to the last bit
-            m = 0.5 * (a + b)
-            if m in (a, b):
-                break
-            fm = float(seg.evaluate([m])[2][0])
-            if (fm > 0) == (fa > 0):
-                a, fa = m, fm
-            else:
-                b = m
-        ts.append(0.5 * (a + b))
+    ts = [seg.t_start] + seg.turning_parameters(0)
     ts.append(seg.t_end)
     return [replace(seg, t_start=ta, t_end=tb, exact=None) for ta, tb in zip(ts[:-1], ts[1:])
             if tb != ta]
