@@ -310,11 +310,17 @@ _COMMON = {"length": "mm, m, in, ft", "area": "mm^2, m^2, in^2, ft^2",
            "time": "s, min, h"}
 
 
-def _refuse_ambiguous(unit: str, key: str) -> None:
+def _refuse_ambiguous(unit: str, key: str, kind: Optional[str] = None) -> None:
+    """Refuse a unit name with several meanings; when a ``kind`` was asked for and the
+    name is of another kind in every meaning, say that instead (it is the real mistake)."""
     bare = key.lower()
     singular = bare[:-1] if bare.endswith("s") else bare
     for word in (bare, singular):
         if word in _AMBIGUOUS:
+            word_kind = "mass" if word == "ton" else "volume"
+            if kind is not None and kind != word_kind:
+                raise UnitError(f"{quoted(unit.strip())} is {_a(word_kind)} unit, "
+                                f"not {_a(kind)} unit")
             raise UnitError(f"{quoted(unit)} is ambiguous: {_AMBIGUOUS[word]}")
 
 
@@ -408,7 +414,7 @@ def _fast(unit: str, kind: str) -> Optional[_Unit]:
         raise UnitError(f"no {kind} unit given")
     found = _lookup(key)
     if found is None:
-        _refuse_ambiguous(unit, key)
+        _refuse_ambiguous(unit, key, kind)
         return None
     if found.kind != kind:
         raise UnitError(f"{quoted(unit.strip())} is {_a(found.kind)} unit, "

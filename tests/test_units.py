@@ -411,3 +411,17 @@ def test_bare_number_default_unit_for_densities():
     assert parse_quantity("7850", "density", default_unit="kg/m^3") == 7850.0
     with pytest.raises(UnitError, match="has no unit"):
         parse_quantity("7850", "density")
+
+
+@pytest.mark.parametrize("unit, kind, words", [
+    ("gallon", "length", "'gallon' is a volume unit, not a length unit"),
+    ("gallons", "area", "'gallons' is a volume unit, not an area unit"),
+    ("ton", "volume", "'ton' is a mass unit, not a volume unit"),
+    ("gallon", "volume", "'gallon' is ambiguous"),   # US 231 in³ or imperial 4.54609 L (CHECKS.md)
+    ("ton", "mass", "'ton' is ambiguous"),            # short, long or metric: common practice, no source
+])
+def test_an_ambiguous_name_of_the_wrong_kind_says_the_kind(unit, kind, words):
+    """Bad input: the real mistake is named first (a volume name given for a length)."""
+    with pytest.raises(UnitError) as exc:
+        factor(unit, kind)
+    assert words in str(exc.value)

@@ -283,4 +283,5 @@ def test_option_errors_name_the_option(tmp_path, capsys, args, start):
 def test_units_option_is_named(tmp_path, capsys):
     f = write(tmp_path, "p.txt", "0,1\n2,1\n2,3\n0,3\n")
     code, out, err = run(["measure", f, "--units", "gallon"], capsys)
-    assert code == 2 and err.startswith("revolve: error: --units: 'gallon' is ambiguous"), err
+    assert code == 2 and err.startswith(
+        "revolve: error: --units: 'gallon' is a volume unit, not a length unit"), err
