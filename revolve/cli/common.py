@@ -112,7 +112,7 @@ def load(path: str, unit: Optional[str] = None):
     >>> load("p.txt", unit="gallon")
     Traceback (most recent call last):
     ...
-    revolve.errors.UnitError: --units: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
     """
     from revolve import units
     from revolve.formats import load_profile
