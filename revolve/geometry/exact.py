@@ -42,21 +42,18 @@ class NotExact(Exception):
 
 
 _WORKER = r"""
-import sys, sympy
-from sympy import srepr, sympify
-tasks = sympify(sys.stdin.read())
+import pickle, sys, sympy
+tasks = pickle.load(sys.stdin.buffer)
 out = []
-for task in tasks:
-    kind, args = str(task[0]), task[1:]
+for kind, *args in tasks:
     try:
         if kind == "integrate":
-            r = sympy.integrate(args[0], (args[1], args[2], args[3]))
+            out.append(sympy.integrate(args[0], (args[1], args[2], args[3])))
         else:
-            r = sympy.simplify(args[0])
-        out.append(srepr(r))
+            out.append(sympy.simplify(args[0]))
     except Exception:
-        out.append("None")
-sys.stdout.write("\n".join(out))
+        out.append(None)
+pickle.dump(out, sys.stdout.buffer)
 """
 
 
@@ -66,8 +63,8 @@ def run_sympy(tasks, seconds: float):
     ``tasks`` is a list of ``("integrate", g, t, a, b)`` or ``("simplify", e)``
     with sympy expressions (built by the engine, never user text). Returns one
     result per task, None where sympy failed, or None for every task when the
-    worker did not finish in time. The expressions travel as ``srepr`` text,
-    the engine's own, and come back the same way.
+    worker did not finish in time. The expressions travel pickled, to and from
+    the worker only; no text is parsed on either side.
 
     >>> import sympy
     >>> t = sympy.Symbol("t", real=True)
@@ -76,6 +73,7 @@ def run_sympy(tasks, seconds: float):
     >>> run_sympy([], 1.0)
     []
     """
+    import pickle
     import subprocess
     import sys
 
@@ -83,17 +81,19 @@ def run_sympy(tasks, seconds: float):
 
     if not tasks:
         return []
-    text = "[" + ", ".join("(" + ", ".join([repr(k)] + [sympy.srepr(sympy.sympify(a)) for a in rest])
-                                 + ",)" for k, *rest in tasks) + "]"
+    # The expressions travel pickled between this process and its own worker: no text is
+    # ever parsed (sympify of a string would evaluate it). strict=True refuses strings.
+    payload = pickle.dumps([(str(kind),) + tuple(sympy.sympify(a, strict=True) for a in rest)
+                            for kind, *rest in tasks])
     try:
-        done = subprocess.run([sys.executable, "-c", _WORKER], input=text, capture_output=True,
-                              text=True, timeout=seconds)
-    except (subprocess.TimeoutExpired, OSError):
+        done = subprocess.run([sys.executable, "-c", _WORKER], input=payload,
+                              capture_output=True, timeout=seconds)
+        results = pickle.loads(done.stdout) if done.returncode == 0 else None
+    except (subprocess.TimeoutExpired, OSError, pickle.UnpicklingError, EOFError):
         return [None] * len(tasks)
-    lines = done.stdout.split("\n") if done.returncode == 0 else []
-    if len(lines) != len(tasks):
+    if not isinstance(results, list) or len(results) != len(tasks):
         return [None] * len(tasks)
-    return [None if line == "None" else sympy.sympify(line) for line in lines]
+    return results
 
 
 def _sym(v: Any):

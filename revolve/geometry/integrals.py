@@ -567,7 +567,7 @@ def _small_polynomial(e, t) -> bool:
     """
     import sympy
 
-    e = sympy.sympify(e)
+    e = sympy.sympify(e, strict=True)   # an expression already: strings are refused
     if sympy.count_ops(e) > SYMBOLIC_MAX_OPS:
         return False
     degree = _degree_bound(e, t)
@@ -595,7 +595,7 @@ def curve_integrals_symbolic(curve: Curve):
     import sympy
 
     t = sympy.Symbol("t", real=True)
-    x, y = sympy.sympify(curve.x_expr), sympy.sympify(curve.y_expr)
+    x, y = sympy.sympify(curve.x_expr, strict=True), sympy.sympify(curve.y_expr, strict=True)
     if not (_small_polynomial(x, t) and _small_polynomial(y, t)):
         return [None] * len(COLUMNS)
     dx, dy = sympy.diff(x, t), sympy.diff(y, t)

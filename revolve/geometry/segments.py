@@ -404,7 +404,7 @@ def _tree_function(t, expression) -> Optional[Callable]:
         return None
 
     try:
-        return build(sympy.sympify(expression))
+        return build(sympy.sympify(expression, strict=True))
     except RecursionError:   # pragma: no cover - the parser bounds nesting
         return None
 
@@ -587,7 +587,7 @@ class Curve:
             return self.base_x, self.base_y
         t = sympy.Symbol("t", real=True)
         m00, m01, m10, m11, v0, v1, p, q = self.affine.numbers()
-        X, Y = sympy.sympify(self.base_x), sympy.sympify(self.base_y)
+        X, Y = sympy.sympify(self.base_x, strict=True), sympy.sympify(self.base_y, strict=True)
         if (self.affine.p, self.affine.q) != (1.0, 0.0):
             sub = {s: p * t + q for s in (X.free_symbols | Y.free_symbols) if s.name == "t"}
             X, Y = X.subs(sub), Y.subs(sub)
@@ -640,7 +640,7 @@ class Curve:
         full = None if exact is None else tuple(exact) + (1, 0)
         if full is not None:
             import sympy
-            full = tuple(sympy.sympify(v) for v in full)
+            full = tuple(sympy.sympify(v, strict=True) for v in full)
         step = CurveMap(matrix, offset, exact=full)  # type: ignore[arg-type]
         return replace(self, affine=self.affine.then(step))
 
