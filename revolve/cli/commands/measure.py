@@ -1,13 +1,24 @@
-"""``revolve measure``: section, volume, surface by face, mass, and the cross-check."""
+"""``revolve measure``: section, volume, surface by face, mass, and the cross-check.
+
+One file gives the full tables (or one JSON object). Several files, or a
+folder, give one row per part: a plain table, JSON lines (``--json``: one
+object per line, the single-file object with ``file`` first) or a CSV
+(``--csv``). A part that is refused keeps its row, with the error; the exit
+code is then 2. The parts are measured by :func:`revolve.jobs.batch.run_many`
+(on every core for large batches).
+"""
 
 from __future__ import annotations
 
-from typing import Optional
+import os
+import sys
+from dataclasses import dataclass
+from typing import List, Optional
 
 import typer
 
 from revolve.cli import common
-from revolve.errors import RevolveError
+from revolve.errors import RevolveError, one_line
 
 DEFAULT_TOLERANCE = 1e-9
 
@@ -136,26 +147,126 @@ def _check_table(m, u, tolerance):
     return t
 
 
-def run_measure(profile: str, axis: Optional[str], angle: Optional[float], material: Optional[str],
+def part_json(part, u: "common.OutputUnits", tolerance: float = DEFAULT_TOLERANCE,
+              exact_out=None) -> dict:
+    """The object ``revolve measure --json`` prints for one measured file (a PartMeasurement)."""
+    m, doc = part.measurement, part.document
+    out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance)
+    out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
+    if exact_out is not None:
+        out["exact"] = exact_out
+    cautions = ["lifting"] if m.mass is not None else []
+    out["cautions"] = [common.CAUTIONS[k] for k in cautions]
+    return out
+
+
+@dataclass(frozen=True)
+class JsonRow:
+    """Turns a measured part into its JSON object plus ``file``, where it was measured (picklable).
+
+    Every part of a batch gets the object a single file's ``--json`` prints,
+    with the file name first; the output units default to each part's own.
+    """
+
+    length_unit: Optional[str] = None
+    area_unit: Optional[str] = None
+    volume_unit: Optional[str] = None
+    mass_unit: Optional[str] = None
+    tolerance: float = DEFAULT_TOLERANCE
+
+    def __call__(self, part) -> dict:
+        u = common.output_units(part.document.profile.unit, self.length_unit, self.area_unit,
+                                self.volume_unit, self.mass_unit)
+        return {"file": part.file, **part_json(part, u, self.tolerance)}
+
+
+#: Columns of ``--csv`` for several files: one row per part, each figure with its unit beside it.
+BATCH_CSV_COLUMNS = ("file", "name", "profile_unit", "error", "area", "area_unit", "volume",
+                     "volume_unit", "surface_area", "mass", "mass_unit", "centre_of_mass_axial",
+                     "length_unit", "crosscheck_volume_difference",
+                     "crosscheck_surface_difference", "crosscheck_agrees")
+
+
+def batch_csv_row(result) -> dict:
+    """One CSV row of a batch from a PartResult whose value is a :class:`JsonRow` object."""
+    if not result.ok:
+        return {"file": result.file, "error": result.error}
+    d = result.value
+    u = d["units"]
+    c = d.get("crosscheck") or {}
+    return {"file": d["file"], "name": d["profile"]["name"], "profile_unit": d["profile"]["unit"],
+            "area": d["area"], "area_unit": u["area"], "volume": d["volume"],
+            "volume_unit": u["volume"], "surface_area": d["surface_area"],
+            "mass": d.get("mass"), "mass_unit": u["mass"] if "mass" in d else None,
+            "centre_of_mass_axial": d["centre_of_mass_axial"], "length_unit": u["length"],
+            "crosscheck_volume_difference": c.get("volume_difference"),
+            "crosscheck_surface_difference": c.get("surface_difference"),
+            "crosscheck_agrees": c.get("agrees")}
+
+
+def _batch_cells(result) -> list:
+    """One row of the batch table: file, volume, surface, mass, cross-check (or the error)."""
+    if not result.ok:
+        return [result.file, f"error: {result.error}"]
+    d = result.value
+    u = d["units"]
+    f = common.fmt
+    c = d.get("crosscheck")
+    if c is None:
+        check = "—"
+    else:
+        worst = max(c["volume_difference"] if d["centroid"] is not None else 0.0,
+                    c["surface_difference"])
+        check = f"{'ok' if c['agrees'] else 'DISAGREE'} {worst:.1e}"
+    mass = f"{f(d['mass'], 6)} {u['mass']}" if "mass" in d else "—"
+    volume = f"{f(d['volume'], 6)} {u['volume']}" if d["centroid"] is not None else "—"
+    return [d["file"], volume, f"{f(d['surface_area'], 6)} {u['area']}", mass, check]
+
+
+def _agrees(result) -> bool:
+    c = result.value.get("crosscheck") if result.ok else None
+    return c is None or c["agrees"]
+
+
+def run_measure(profile, axis: Optional[str], angle: Optional[float], material: Optional[str],
                 density: Optional[str], as_json: bool, exact: bool, units: Optional[str],
                 length_unit: Optional[str], area_unit: Optional[str], volume_unit: Optional[str],
-                mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None) -> int:
-    from revolve.geometry.measure import measure
+                mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None,
+                *, workers: Optional[int] = None, serial_below: Optional[int] = None) -> int:
+    """Measure one file (tables or JSON) or many (one row per part); the exit code.
+
+    ``profile`` is a file name or a list of files and folders. One file that
+    is not a folder gives the full tables (or the JSON object); anything
+    else one row per part. Exit code 0, 1 when a cross-check disagrees, 2
+    when a part is refused (the other rows are still given).
+    """
+    from revolve.jobs import batch
+
+    items = [profile] if isinstance(profile, str) else list(profile)
     if csv_path is not None:
         from revolve.cli.commands.mesh import check_output
         check_output(csv_path, (".csv",), "tables", option="--csv")
     if not 0 < tolerance:
         raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
+    single = len(items) == 1 and not os.path.isdir(items[0])
+    paths, left_out = ([items[0]], []) if single else common.profile_paths(items, skip=csv_path)
+    if exact and not single:
+        raise RevolveError("give one file with --exact; closed forms are worked out one part "
+                           "at a time", option="--exact")
+    batch.check_units(units)
+    common.output_units("mm", length_unit, area_unit, volume_unit, mass_unit)  # refused once
+    dens, dens_label, _ = common.material_or_density(material, density)
+    task = batch.MeasureTask(axis=common.parse_axis(axis), angle=angle, units=units,
+                             density=dens, density_label=dens_label)
+    if not single:
+        return _run_batch(paths, left_out, task, as_json, csv_path,
+                          JsonRow(length_unit, area_unit, volume_unit, mass_unit, tolerance),
+                          workers=workers, serial_below=serial_below)
 
-    doc, rev = common.revolution_from_options(profile, axis, angle, units)
+    part = batch.measure_part(paths[0], task)
+    doc, rev, m = part.document, part.revolution, part.measurement
     ax, ang = rev.axis, rev.angle_degrees
-    dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
-    # Density is kg/m³; the engine works in the profile's unit: kg per (unit)³.
-    try:
-        m = measure(rev, density=None if dens is None else dens * u.si_length ** 3)
-    except RevolveError as e:
-        raise e.located(file=doc.file)
     exact_out = None
     if exact:
         from revolve.geometry.exact import exact_results
@@ -166,20 +277,14 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
         with OutputSet() as files:
             files.text(csv_path, csv_text(measure_rows(m, u, tolerance=tolerance)), option="--csv")
     if as_json:
-        out = measurement_dict(m, u, density_label=dens_label, tolerance=tolerance)
-        out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
-        if exact_out is not None:
-            out["exact"] = exact_out
-        cautions = ["lifting"] if m.mass is not None else []
-        out["cautions"] = [common.CAUTIONS[k] for k in cautions]
-        common.print_json(out)
+        common.print_json(part_json(part, u, tolerance, exact_out))
     else:
         con = common.console()
         name = doc.name or doc.file
         axis_text = _axis_text(ax)
         title = (f"{name}\nrevolved {float(ang):g}° about {axis_text}; "
                  f"profile in {doc.profile.unit}")
-        con.print(_table(m, u, title, dens_label, tolerance, exact_out))
+        con.print(_table(m, u, title, part.density_label, tolerance, exact_out))
         con.print()
         con.print(_check_table(m, u, tolerance))
         if exact and exact_out is not None and exact_out.get("note"):
@@ -187,14 +292,63 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
         for note in m.notes:
             con.print(f"note: {note}")
         if m.mass is not None:
-            con.print(f"material: {dens_label}")
+            con.print(f"material: {part.density_label}")
             con.print(common.caution_panel(["lifting"]))
     if m.crosscheck is not None and not m.crosscheck.agrees(tolerance):
-        import sys
         print(f"revolve: the two computations disagree by more than {tolerance:g} (relative); "
               "do not use these figures without finding out why", file=sys.stderr)
         return 1
     return 0
+
+
+def _run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], row: JsonRow, *,
+               workers=None, serial_below=None) -> int:
+    """Many files: one row per part (plain table, JSON lines, CSV); errors kept in their rows."""
+    from dataclasses import replace
+
+    from revolve.cli.rows import json_line, plain_table, progress_bar
+    from revolve.jobs import batch
+
+    pool = {} if serial_below is None else {"serial_below": serial_below}
+    with progress_bar(len(paths), "measuring") as advance:
+        results = batch.run_many(replace(task, convert=row), paths, workers=workers,
+                                 progress=advance, **pool)
+    if csv_path is not None:
+        from revolve.cli.tables import csv_text
+        from revolve.formats.files import OutputSet
+        with OutputSet() as files:
+            files.text(csv_path, csv_text([batch_csv_row(r) for r in results],
+                                          BATCH_CSV_COLUMNS), option="--csv")
+    failed = [r for r in results if not r.ok]
+    if as_json:
+        lines = [json_line(r.value if r.ok else {"file": r.file, "error": r.error})
+                 for r in results]
+        sys.stdout.write("".join(line + "\n" for line in lines))
+        for other in left_out:
+            print(f"revolve: left out {other}: not a profile (no [[loop]] or [[chain]])",
+                  file=sys.stderr)
+    else:
+        heads = ["file", "volume", "surface, swept total", "mass", "cross-check"]
+        ok = len(results) - len(failed)
+        title = (f"{len(results)} parts measured" + (f", {len(failed)} refused" if failed else "")
+                 if ok else f"{len(results)} parts, every one refused")
+        text = plain_table(heads, [_batch_cells(r) for r in results], right=(1, 2, 3),
+                           title=title)
+        tail = [f"left out {other}: not a profile (no [[loop]] or [[chain]])"
+                for other in left_out]
+        if any(r.ok and "mass" in r.value for r in results):
+            tail.append("Caution: " + common.CAUTIONS["lifting"])
+        sys.stdout.write(text + "\n" + "".join(t + "\n" for t in tail))
+    for r in failed:
+        print(f"revolve: error: {one_line(r.error)}", file=sys.stderr)
+    disagree = [r.file for r in results if not _agrees(r)]
+    if disagree:
+        print(f"revolve: the two computations disagree by more than {row.tolerance:g} (relative) "
+              f"for {', '.join(disagree)}; do not use these figures without finding out why",
+              file=sys.stderr)
+    if failed:
+        return 2
+    return 1 if disagree else 0
 
 
 def _axis_text(ax) -> str:
@@ -210,9 +364,11 @@ def _axis_text(ax) -> str:
 def register(app: typer.Typer) -> None:
     @app.command("measure")
     def measure_command(
-        profile: str = typer.Argument(..., help="Profile file: .toml (the project's format), a "
-                                                "plain list of x,y points (.txt, .csv, .xy), SVG "
-                                                "path data (.svg, .svgpath) or a DXF drawing."),
+        profiles: List[str] = typer.Argument(..., help="Profile file: .toml (the project's "
+                                             "format), a plain list of x,y points (.txt, .csv, "
+                                             ".xy), SVG path data (.svg, .svgpath) or a DXF "
+                                             "drawing. Several files or folders: one row per "
+                                             "part."),
         axis: Optional[str] = typer.Option(None, "--axis",
                                            help="x, y, or X0,Y0,DX,DY: a point on the axis and its "
                                                 "direction. Default: the file's axis, else x."),
@@ -223,9 +379,11 @@ def register(app: typer.Typer) -> None:
         density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3' "
                                                                        "or '0.284 lb/in^3' (a bare "
                                                                        "number is kg/m³)."),
-        as_json: bool = typer.Option(False, "--json", help="Print JSON instead of tables."),
+        as_json: bool = typer.Option(False, "--json", help="Print JSON instead of tables; for "
+                                     "several files, one JSON object per line per part."),
         exact: bool = typer.Option(False, "--exact", help="Also give closed forms such as 243*pi/5 "
-                                                          "when every input is exact."),
+                                                          "when every input is exact (one file "
+                                                          "only)."),
         units: Optional[str] = typer.Option(None, "--units", help="Length unit of the coordinates "
                                                                   "for files that do not say "
                                                                   "(plain point lists). Default mm."),
@@ -239,10 +397,17 @@ def register(app: typer.Typer) -> None:
                                              "computations before the exit code is 1."),
         csv_path: Optional[str] = typer.Option(None, "--csv",
                                                help="Also write every figure of both tables to "
-                                                    "this CSV file (table, quantity, value, unit)."),
+                                                    "this CSV file (table, quantity, value, unit); "
+                                                    "for several files, one row per part."),
     ) -> None:
-        """Measure a revolved profile: section, volume, surface by face, mass, cross-check."""
-        code = run_measure(profile, axis, angle, material, density, as_json, exact, units,
+        """Measure a revolved profile: section, volume, surface by face, mass, cross-check.
+
+        Several files or folders give one row per part; a file that is refused
+        keeps its row with the error, the others are still measured, and the
+        exit code is 2. Exit codes: 0 done, 1 a cross-check disagrees, 2 input
+        refused.
+        """
+        code = run_measure(profiles[0] if len(profiles) == 1 else profiles, axis, angle, material, density, as_json, exact, units,
                            length_unit, area_unit, volume_unit, mass_unit, tolerance,
                            csv_path=csv_path)
         if code:

@@ -59,57 +59,6 @@ INCH_UNITS = ("in", "ft", "yd", "mil")
 # -- reading the options ----------------------------------------------------------------
 
 
-def _not_a_profile(path: str) -> bool:
-    """A TOML file in a folder that holds no [[loop]] or [[chain]] (e.g. a coating system)."""
-    if os.path.splitext(path)[1].lower() != ".toml":
-        return False
-    try:
-        with open(path, "rb") as handle:
-            text = handle.read().decode("utf-8", "replace")
-    except OSError:
-        return False
-    return not re.search(r"^\s*\[\[\s*(loop|chain)\s*\]\]", text, re.M)
-
-
-def profile_paths(items: List[str], skip: Optional[str] = None) -> Tuple[List[str], List[str]]:
-    """Files named, and the profile files inside folders named (sorted, not hidden).
-
-    Returns the paths to read and the files of the folders left out because
-    they are TOML files with no loop or chain (other kinds of input). ``skip``
-    (the ``--csv`` target) is never read. A file named on its own is always read.
-
-    >>> profile_paths(["a.toml", "b.txt"])
-    (['a.toml', 'b.txt'], [])
-    >>> import tempfile
-    >>> profile_paths([tempfile.mkdtemp()])  # doctest: +ELLIPSIS
-    Traceback (most recent call last):
-    ...
-    revolve.errors.RevolveError: ...: no profile files (.toml, ...) in this folder
-    """
-    from revolve.formats import READERS
-
-    out: List[str] = []
-    left_out: List[str] = []
-    skip_abs = os.path.abspath(skip) if skip else None
-    for item in items:
-        if os.path.isdir(item):
-            found = sorted(
-                os.path.join(item, n) for n in os.listdir(item)
-                if not n.startswith(".") and os.path.splitext(n)[1].lower() in READERS
-                and os.path.isfile(os.path.join(item, n))
-                and os.path.abspath(os.path.join(item, n)) != skip_abs)
-            others = [f for f in found if _not_a_profile(f)]
-            found = [f for f in found if f not in others]
-            if not found:
-                known = ", ".join(sorted(READERS, key=lambda e: (e != ".toml", e)))
-                raise RevolveError(f"no profile files ({known}) in this folder", file=item)
-            out.extend(found)
-            left_out.extend(others)
-        else:
-            out.append(item)
-    return out, left_out
-
-
 def length_option(text: Optional[str], option: str, unit: str, default: float,
                   positive: bool = False) -> float:
     """A length option in metres; a bare number is in ``unit``; None gives ``default``.
@@ -831,7 +780,7 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
     """Quote every profile; print tables or JSON, write CSV; nothing is written on an error."""
     from revolve.jobs import turning, turning_data
 
-    paths, left_out = profile_paths(profiles, skip=csv_file)
+    paths, left_out = common.profile_paths(profiles, skip=csv_file)
     if stock not in turning.STOCK_CHOICES:
         raise RevolveError(f"choose {', '.join(turning.STOCK_CHOICES)}, not {stock!r}",
                            place="--stock")
