@@ -330,7 +330,7 @@ def _run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], ro
     else:
         heads = ["file", "volume", "surface, swept total", "mass", "cross-check"]
         ok = len(results) - len(failed)
-        title = (f"{len(results)} parts measured" + (f", {len(failed)} refused" if failed else "")
+        title = (f"{len(results)} parts" + (f", {len(failed)} refused" if failed else "")
                  if ok else f"{len(results)} parts, every one refused")
         text = plain_table(heads, [_batch_cells(r) for r in results], right=(1, 2, 3),
                            title=title)

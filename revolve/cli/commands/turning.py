@@ -351,7 +351,8 @@ class PartQuote:
     agrees: bool
 
 
-def _quote_one(path: str, settings: dict, quantity: int) -> PartQuote:
+def _quote_doc(doc, path: str, settings: dict, quantity: int) -> PartQuote:
+    """Quote a part from its document, already read (each file is read once)."""
     from dataclasses import replace
 
     from revolve import materials, units
@@ -360,7 +361,6 @@ def _quote_one(path: str, settings: dict, quantity: int) -> PartQuote:
     from revolve.geometry.profile import Revolution
     from revolve.jobs import turning, turning_data
 
-    doc = common.load(path, unit=settings["units"])
     ax = settings["axis"] or doc.axis or common.parse_axis("x")
     angle = doc.angle_degrees if doc.angle_degrees is not None else 360.0
     try:
@@ -709,18 +709,37 @@ def _cost_table(pq: PartQuote, currency: Optional[str], price_text: Optional[str
     return tb
 
 
-def _rows_table(pqs: List[PartQuote], u: DisplayUnits, currency: Optional[str]):
-    from rich.markup import escape
-    from rich.table import Table
-
+def _row_cells(pq: PartQuote, u: DisplayUnits, one_qty: bool) -> List[str]:
+    """The cells of a part's row in the many-parts table (display units)."""
     L, M = u.length_factor, u.mass_factor
     f = lambda v: common.fmt(v, 4)  # noqa: E731
-    quantities = {pq.quote.cost.quantity for pq in pqs}
-    one_qty = len(quantities) == 1
-    title = f"{len(pqs)} turned parts, {u.system} bar list"
+    q = pq.quote
+    e = q.part.envelope
+    b = q.bars
+    c = q.cost
+    label = q.stock.size.label
+    if q.stock.size.kind == "blank":
+        label = "blank " + label
+    cells = [os.path.splitext(os.path.basename(pq.file))[0], pq.material.key,
+             f"{f(e.diameter * L)} × {f(e.length * L)}", label,
+             f(q.stock.length * L), f(q.part.mass * M), f(q.stock.mass * M),
+             f"{q.removal.utilisation * 100:.0f}"]
+    if not one_qty:
+        cells.append(str(c.quantity))
+    cells += ["—" if b is None else str(b.bars_needed), _minutes(q.times.cycle),
+              _money(c.per_part, None), _money(c.batch, None)]
+    return cells
+
+
+def _rows_text(rows: List["QuoteRow"], u: DisplayUnits, currency: Optional[str],
+               quantities: List[int]) -> str:
+    """One row per part as plain aligned text (cheap for thousands of parts), and the total."""
+    from revolve.cli.rows import plain_table
+
+    one_qty = len(set(quantities)) == 1
+    title = f"{len(rows)} turned parts, {u.system} bar list"
     if one_qty:
-        title += f", {quantities.pop()} of each"
-    tb = Table(title=title, title_justify="left", show_edge=False, pad_edge=False)
+        title += f", {quantities[0]} of each"
     heads = [("part", "left"), ("material", "left"), (f"⌀ × length, {u.length}", "right"),
              ("stock", "left"), (f"stock length, {u.length}", "right"),
              (f"part, {u.mass}", "right"), (f"stock, {u.mass}", "right"), ("used %", "right")]
@@ -728,36 +747,76 @@ def _rows_table(pqs: List[PartQuote], u: DisplayUnits, currency: Optional[str]):
         heads.append(("qty", "right"))
     heads += [("bars", "right"), ("min/part", "right"), ("per part", "right"),
               ("batch", "right")]
-    names = [os.path.splitext(os.path.basename(pq.file))[0] for pq in pqs]
-    for k, (name, just) in enumerate(heads):
-        tb.add_column(name, justify=just, no_wrap=k == 0,
-                      min_width=max(len(n) for n in names) if k == 0 else None)
-    total = 0.0
-    any_cost = False
-    for pq in pqs:
-        q = pq.quote
-        e = q.part.envelope
-        b = q.bars
-        c = q.cost
-        if c.batch is not None:
-            total += c.batch
-            any_cost = True
-        label = q.stock.size.label
-        if q.stock.size.kind == "blank":
-            label = "blank " + label
-        cells = [os.path.splitext(os.path.basename(pq.file))[0], pq.material.key,
-                 f"{f(e.diameter * L)} × {f(e.length * L)}", label,
-                 f(q.stock.length * L), f(q.part.mass * M), f(q.stock.mass * M),
-                 f"{q.removal.utilisation * 100:.0f}"]
-        if not one_qty:
-            cells.append(str(c.quantity))
-        cells += ["—" if b is None else str(b.bars_needed), _minutes(q.times.cycle),
-                  _money(c.per_part, None), _money(c.batch, None)]
-        tb.add_row(*(escape(c) for c in cells))
-    if any_cost:
-        tb.add_section()
-        tb.add_row("[bold]total", *([""] * (len(heads) - 2)), _money(total, currency))
-    return tb
+    cells = [r.cells for r in rows]
+    costs = [r.batch_cost for r in rows if r.batch_cost is not None]
+    if costs:
+        cells.append(["total"] + [""] * (len(heads) - 2) + [_money(math.fsum(costs), currency)])
+    return plain_table([h for h, _ in heads], cells,
+                       right=[k for k, (_, just) in enumerate(heads) if just == "right"],
+                       title=title)
+
+
+@dataclass(frozen=True)
+class QuoteRow:
+    """What the many-parts outputs need of a quoted part, made where it was quoted (small)."""
+
+    file: str
+    cells: List[str]
+    json: Optional[Dict]
+    csv: Optional[Dict]
+    batch_cost: Optional[float]
+    notes: List[str]
+    agrees: bool
+    speed_limited: bool
+    speed_limit_rpm: Optional[float]
+
+
+@dataclass(frozen=True)
+class TurnOutcome:
+    """One part of ``turn``: the profile's unit (None if unread) and its quote or its error."""
+
+    unit: Optional[str]
+    quote: object = None
+    error: Optional[RevolveError] = None
+
+
+@dataclass(frozen=True)
+class TurnTask:
+    """Quote one ``(path, quantity)`` (picklable; run by :func:`revolve.jobs.batch.run_many`).
+
+    With ``rows`` the outcome carries a :class:`QuoteRow` (what the many-parts
+    table, JSON and CSV need) instead of the whole quote.
+    """
+
+    settings: Dict
+    currency: Optional[str] = None
+    rows: bool = False
+    one_qty: bool = True
+    want_json: bool = False
+    want_csv: bool = False
+
+    def __call__(self, item) -> TurnOutcome:
+        path, quantity = item
+        try:
+            doc = common.load(path, unit=self.settings["units"])
+        except RevolveError as e:
+            return TurnOutcome(None, error=e)
+        try:
+            pq = _quote_doc(doc, path, self.settings, quantity)
+        except RevolveError as e:
+            return TurnOutcome(doc.profile.unit, error=e)
+        if not self.rows:
+            return TurnOutcome(doc.profile.unit, quote=pq)
+        u = DisplayUnits.of(self.settings["system"])
+        t = pq.quote.times
+        row = QuoteRow(
+            file=pq.file, cells=_row_cells(pq, u, self.one_qty),
+            json=_quote_dict(pq, self.currency) if self.want_json else None,
+            csv=_csv_row(pq, u, self.currency) if self.want_csv else None,
+            batch_cost=pq.quote.cost.batch, notes=_notes(pq), agrees=pq.agrees,
+            speed_limited=bool(t.roughing_limited or t.finishing_limited),
+            speed_limit_rpm=None if t.speed_limit is None else t.speed_limit * 60)
+        return TurnOutcome(doc.profile.unit, quote=row)
 
 
 # -- the command ---------------------------------------------------------------------------
@@ -777,8 +836,12 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
              no_finish: Optional[List[str]] = None, currency: Optional[str] = None,
              as_json: bool = False, csv_file: Optional[str] = None,
              tolerance: float = DEFAULT_TOLERANCE) -> int:
-    """Quote every profile; print tables or JSON, write CSV; nothing is written on an error."""
-    from revolve.jobs import turning, turning_data
+    """Quote every profile; print tables or JSON, write CSV; nothing is written on an error.
+
+    Every file is read once, by the part's own task; the parts run through
+    :func:`revolve.jobs.batch.run_many` (on every core for large batches).
+    """
+    from revolve.jobs import batch, turning, turning_data
 
     paths, left_out = common.profile_paths(profiles, skip=csv_file)
     if stock not in turning.STOCK_CHOICES:
@@ -786,95 +849,150 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
                            place="--stock")
     if not tolerance > 0:
         raise RevolveError("must be a positive number", place="--tolerance")
-    if bar_list is None:
-        # The profiles decide: inch when every one is drawn in inch units.
-        first_units = []
-        for pth in paths:
-            try:
-                first_units.append(common.load(pth, unit=units).profile.unit)
-            except RevolveError:
-                first_units.append("mm")  # reported properly when the part is quoted
-        system = "inch" if first_units and all(_system_of(x) == "inch" for x in first_units) \
-            else "metric"
-    else:
-        system = bar_list.strip().lower()
-    bl = turning_data.load_bar_list(system)
-    d, unit = bl.defaults, bl.unit
-    allowances = turning.Allowances(
-        turning=length_option(turning_allowance, "--turning-allowance", unit, d.turning_allowance),
-        bore=length_option(bore_allowance, "--bore-allowance", unit, d.bore_allowance),
-        facing=length_option(facing_allowance, "--facing-allowance", unit, d.facing_allowance),
-        parting_width=length_option(parting_width, "--parting-width", unit, d.parting_width),
-        holding_length=length_option(holding_length, "--holding-length", unit, d.holding_length))
-    the_blank = blank_option(blank, blank_length, unit)
-    if the_blank is not None and stock != "bar":
-        raise RevolveError("give either --blank or --stock tube/lighter, not both", place="--blank")
-    if the_blank is not None and whole_bars:
-        raise RevolveError("a blank is not cut from bars; leave out --whole-bars or --blank",
-                           place="--whole-bars")
-    price, basis = stock_price_option(stock_price)
-    prices = turning.Prices(stock_price=price, basis=basis, machine_rate=rate_option(machine_rate),
-                            setup_time=time_option(setup_time, "--setup-time"),
-                            handling_time=time_option(handling_time, "--handling-time"),
-                            whole_bars=whole_bars)
-    placeholder = turning.CuttingData(1.0, 1.0, 1.0)
-    job = turning.TurningJob(
-        allowances=allowances, roughing=placeholder, finishing=placeholder,
-        bars=bl.round_bars, tubes=bl.tubes, choice=stock, blank=the_blank,
-        bar_length=length_option(bar_length, "--bar-length", unit, d.bar_length, positive=True),
-        remnant=length_option(remnant, "--remnant", unit, d.remnant), prices=prices,
-        speed_limit=speed_option(max_speed), skip_faces=tuple(no_finish or ()),
-        display_unit=unit)
-    settings = {"units": units, "axis": common.parse_axis(axis), "material": material,
+
+    def settings_for(system: str) -> dict:
+        """Every option read in the units of ``system``'s bar list (errors name the option)."""
+        bl = turning_data.load_bar_list(system)
+        d, unit = bl.defaults, bl.unit
+        allowances = turning.Allowances(
+            turning=length_option(turning_allowance, "--turning-allowance", unit,
+                                  d.turning_allowance),
+            bore=length_option(bore_allowance, "--bore-allowance", unit, d.bore_allowance),
+            facing=length_option(facing_allowance, "--facing-allowance", unit, d.facing_allowance),
+            parting_width=length_option(parting_width, "--parting-width", unit, d.parting_width),
+            holding_length=length_option(holding_length, "--holding-length", unit,
+                                         d.holding_length))
+        the_blank = blank_option(blank, blank_length, unit)
+        if the_blank is not None and stock != "bar":
+            raise RevolveError("give either --blank or --stock tube/lighter, not both",
+                               place="--blank")
+        if the_blank is not None and whole_bars:
+            raise RevolveError("a blank is not cut from bars; leave out --whole-bars or --blank",
+                               place="--whole-bars")
+        price, basis = stock_price_option(stock_price)
+        prices = turning.Prices(stock_price=price, basis=basis,
+                                machine_rate=rate_option(machine_rate),
+                                setup_time=time_option(setup_time, "--setup-time"),
+                                handling_time=time_option(handling_time, "--handling-time"),
+                                whole_bars=whole_bars)
+        placeholder = turning.CuttingData(1.0, 1.0, 1.0)
+        job = turning.TurningJob(
+            allowances=allowances, roughing=placeholder, finishing=placeholder,
+            bars=bl.round_bars, tubes=bl.tubes, choice=stock, blank=the_blank,
+            bar_length=length_option(bar_length, "--bar-length", unit, d.bar_length,
+                                     positive=True),
+            remnant=length_option(remnant, "--remnant", unit, d.remnant), prices=prices,
+            speed_limit=speed_option(max_speed), skip_faces=tuple(no_finish or ()),
+            display_unit=unit)
+        return {"units": units, "axis": common.parse_axis(axis), "material": material,
                 "system": system, "job": job, "roughing": roughing, "finishing": finishing,
                 "tolerance": tolerance}
+
+    if bar_list is None:
+        # The profiles decide: inch when every one is drawn in inch units. Each file is read once,
+        # by its part: quote with the first file's system, and again in the rare mixed batch whose
+        # first file is in inches.
+        try:
+            first = common.load(paths[0], unit=units).profile.unit
+        except RevolveError:
+            first = "mm"  # reported properly when the part is quoted
+        system = _system_of(first)
+    else:
+        system = bar_list.strip().lower()
+    settings = settings_for(system)
     counts = _quantities(quantity, len(paths))
-    pqs = [_quote_one(pth, settings, n) for pth, n in zip(paths, counts)]
+    many = len(paths) > 1
+    task = TurnTask(settings, currency=currency, rows=many, one_qty=len(set(counts)) == 1,
+                    want_json=as_json, want_csv=csv_file is not None)
+    items = list(zip(paths, counts))
+
+    def quote_all(task):
+        from revolve.cli.rows import progress_bar
+
+        with progress_bar(len(items), "quoting") as advance:
+            return [r.value for r in batch.run_many(task, items, progress=advance)]
+
+    outcomes = quote_all(task)
+    if bar_list is None:
+        found = "inch" if all(o.unit is not None and _system_of(o.unit) == "inch"
+                              for o in outcomes) else "metric"
+        if found != system:
+            system = found
+            settings = settings_for(system)
+            task = TurnTask(settings, currency=task.currency, rows=task.rows,
+                            one_qty=task.one_qty, want_json=task.want_json,
+                            want_csv=task.want_csv)
+            outcomes = quote_all(task)
+    for o in outcomes:
+        if o.error is not None:
+            raise o.error
     u = DisplayUnits.of(system)
+    if not many:
+        return _print_one(outcomes[0].quote, u, currency, as_json, csv_file, stock_price,
+                          machine_rate, tolerance, left_out)
+    rows: List[QuoteRow] = [o.quote for o in outcomes]
     if csv_file is not None:
         from revolve.cli.tables import write_csv
 
-        write_csv([_csv_row(pq, u, currency) for pq in pqs], csv_file)
+        write_csv([r.csv for r in rows], csv_file)
     if as_json:
-        objs = [_quote_dict(pq, currency) for pq in pqs]
-        if len(objs) == 1:
-            common.print_json(objs[0])
-        else:
-            common.print_json({"units": objs[0]["units"], "parts": objs,
-                               "cautions": [common.CAUTIONS["turning"]]})
+        common.print_json({"units": rows[0].json["units"], "parts": [r.json for r in rows],
+                           "cautions": [common.CAUTIONS["turning"]]})
+    else:
+        out = [_rows_text(rows, u, currency, counts)]
+        for r in rows:
+            stem = os.path.splitext(os.path.basename(r.file))[0]
+            out.extend(f"note: {stem}: {note}" for note in r.notes)
+        out.extend(f"left out {other}: not a profile (no [[loop]] or [[chain]])"
+                   for other in left_out)
+        if csv_file is not None:
+            out.append(f"wrote {csv_file}")
+        sys.stdout.write("\n".join(out) + "\n\n")
+        common.console().print(common.caution_panel(["turning"]))
+    for r in rows:
+        if r.speed_limited:
+            print(f"revolve: {r.file}: the spindle speed needed is over the machine limit "
+                  f"({r.speed_limit_rpm:.0f} rev/min); check the machine's limit for this "
+                  f"stock's size and balance", file=sys.stderr)
+    bad = [r.file for r in rows if not r.agrees]
+    if bad:
+        print(f"revolve: the two computations disagree by more than {tolerance:g} (relative) for "
+              f"{', '.join(bad)}; do not use these figures without finding out why",
+              file=sys.stderr)
+        return 1
+    return 0
+
+
+def _print_one(pq: PartQuote, u: DisplayUnits, currency, as_json, csv_file, stock_price,
+               machine_rate, tolerance, left_out) -> int:
+    """One part: the quote and cost tables (or its JSON object), as before many parts existed."""
+    if csv_file is not None:
+        from revolve.cli.tables import write_csv
+
+        write_csv([_csv_row(pq, u, currency)], csv_file)
+    if as_json:
+        common.print_json(_quote_dict(pq, currency))
     else:
         con = common.console()
-        if len(pqs) == 1:
-            con.print(_quote_table(pqs[0], u, currency))
-            con.print()
-            con.print(_cost_table(pqs[0], currency, stock_price, machine_rate))
-        else:
-            from rich.console import Console
-
-            # One row per part is wide: in a pipe, do not squeeze it to the usual 110 columns.
-            wide = Console(width=None if sys.stdout.isatty() else 160, highlight=False)
-            wide.print(_rows_table(pqs, u, currency))
-        for pq in pqs:
-            stem = os.path.splitext(os.path.basename(pq.file))[0]
-            for note in _notes(pq):
-                con.print(f"note: {stem + ': ' if len(pqs) > 1 else ''}{note}", markup=False)
+        con.print(_quote_table(pq, u, currency))
+        con.print()
+        con.print(_cost_table(pq, currency, stock_price, machine_rate))
+        for note in _notes(pq):
+            con.print(f"note: {note}", markup=False)
         for other in left_out:
             con.print(f"left out {other}: not a profile (no [[loop]] or [[chain]])", markup=False)
         if csv_file is not None:
             con.print(f"wrote {csv_file}", markup=False)
         con.print()
         con.print(common.caution_panel(["turning"]))
-    bad = [pq for pq in pqs if not pq.agrees]
-    for pq in pqs:
-        t = pq.quote.times
-        if t.roughing_limited or t.finishing_limited:
-            print(f"revolve: {pq.file}: the spindle speed needed is over the machine limit "
-                  f"({t.speed_limit * 60:.0f} rev/min); check the machine's limit for this "
-                  f"stock's size and balance", file=sys.stderr)
-    if bad:
+    t = pq.quote.times
+    if t.roughing_limited or t.finishing_limited:
+        print(f"revolve: {pq.file}: the spindle speed needed is over the machine limit "
+              f"({t.speed_limit * 60:.0f} rev/min); check the machine's limit for this "
+              f"stock's size and balance", file=sys.stderr)
+    if not pq.agrees:
         print(f"revolve: the two computations disagree by more than {tolerance:g} (relative) for "
-              f"{', '.join(pq.file for pq in bad)}; do not use these figures without finding out "
-              f"why", file=sys.stderr)
+              f"{pq.file}; do not use these figures without finding out why", file=sys.stderr)
         return 1
     return 0
 
