@@ -74,11 +74,12 @@ class PartResult:
         return self.error is None
 
 
-def _run_one(task: Callable[[str], Any], item: str) -> PartResult:
+def _run_one(task: Callable[[Any], Any], item: Any) -> PartResult:
+    file = item if isinstance(item, str) else item[0]
     try:
-        return PartResult(item, value=task(item))
+        return PartResult(file, value=task(item))
     except RevolveError as e:
-        return PartResult(item, error=str(e.located(file=item)))
+        return PartResult(file, error=str(e.located(file=file)))
 
 
 def _run_chunk(task: Callable[[str], Any], items: Sequence[str]) -> List[PartResult]:
@@ -96,6 +97,22 @@ def chunk_size(count: int, workers: int) -> int:
     return max(1, min(LARGEST_CHUNK, math.ceil(count / (max(1, workers) * CHUNKS_PER_WORKER))))
 
 
+def check_workers(workers: Optional[int]) -> None:
+    """Refuse a number of worker processes below 1 (``--workers``).
+
+    Examples
+    --------
+    >>> check_workers(None), check_workers(2)
+    (None, None)
+    >>> check_workers(0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --workers: give a whole number of at least 1, got 0
+    """
+    if workers is not None and workers < 1:
+        raise RevolveError(f"give a whole number of at least 1, got {workers}", option="--workers")
+
+
 def run_many(task: Callable[[str], Any], items: Sequence[str], *, workers: Optional[int] = None,
              serial_below: int = SERIAL_BELOW,
              progress: Optional[Callable[[int], None]] = None) -> List[PartResult]:
@@ -108,8 +125,9 @@ def run_many(task: Callable[[str], Any], items: Sequence[str], *, workers: Optio
         a ``functools.partial`` of one, or a frozen dataclass with
         ``__call__``) when a pool is used. A :class:`RevolveError` it raises
         becomes that item's error, located in the item's file.
-    items : sequence of str
-        File names (or other keys), each handed to ``task`` as it is.
+    items : sequence
+        File names, or tuples whose first element is a file name (the rest
+        is for the task), each handed to ``task`` as it is.
     workers : int, optional
         Worker processes; default ``os.cpu_count()``. 1 runs in this process.
     serial_below : int
@@ -129,6 +147,7 @@ def run_many(task: Callable[[str], Any], items: Sequence[str], *, workers: Optio
     []
     """
     items = list(items)
+    check_workers(workers)
     if workers is None:
         workers = os.cpu_count() or 1
     if workers <= 1 or len(items) < max(2, serial_below):

@@ -10,6 +10,7 @@ code is then 2. The parts are measured by :func:`revolve.jobs.batch.run_many`
 
 from __future__ import annotations
 
+import functools
 import os
 import sys
 from dataclasses import dataclass
@@ -175,9 +176,15 @@ class JsonRow:
     tolerance: float = DEFAULT_TOLERANCE
 
     def __call__(self, part) -> dict:
-        u = common.output_units(part.document.profile.unit, self.length_unit, self.area_unit,
-                                self.volume_unit, self.mass_unit)
+        u = _output_units(part.document.profile.unit, self.length_unit, self.area_unit,
+                          self.volume_unit, self.mass_unit)
         return {"file": part.file, **part_json(part, u, self.tolerance)}
+
+
+@functools.lru_cache(maxsize=64)
+def _output_units(*units):
+    """:func:`common.output_units`, worked out once per profile unit in a batch (immutable)."""
+    return common.output_units(*units)
 
 
 #: Columns of ``--csv`` for several files: one row per part, each figure with its unit beside it.
@@ -243,6 +250,7 @@ def run_measure(profile, axis: Optional[str], angle: Optional[float], material: 
     from revolve.jobs import batch
 
     items = [profile] if isinstance(profile, str) else list(profile)
+    batch.check_workers(workers)
     if csv_path is not None:
         from revolve.cli.commands.mesh import check_output
         check_output(csv_path, (".csv",), "tables", option="--csv")
@@ -399,6 +407,9 @@ def register(app: typer.Typer) -> None:
                                                help="Also write every figure of both tables to "
                                                     "this CSV file (table, quantity, value, unit); "
                                                     "for several files, one row per part."),
+        workers: Optional[int] = typer.Option(None, "--workers", help="Processes for many "
+                                              "files: default one per core (from 32 files on); "
+                                              "1 runs in one process."),
     ) -> None:
         """Measure a revolved profile: section, volume, surface by face, mass, cross-check.
 
@@ -409,6 +420,6 @@ def register(app: typer.Typer) -> None:
         """
         code = run_measure(profiles[0] if len(profiles) == 1 else profiles, axis, angle, material, density, as_json, exact, units,
                            length_unit, area_unit, volume_unit, mass_unit, tolerance,
-                           csv_path=csv_path)
+                           csv_path=csv_path, workers=workers)
         if code:
             raise typer.Exit(code)

@@ -835,7 +835,8 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
              finishing: Optional[str] = None, max_speed: Optional[str] = None,
              no_finish: Optional[List[str]] = None, currency: Optional[str] = None,
              as_json: bool = False, csv_file: Optional[str] = None,
-             tolerance: float = DEFAULT_TOLERANCE) -> int:
+             tolerance: float = DEFAULT_TOLERANCE, workers: Optional[int] = None,
+             serial_below: Optional[int] = None) -> int:
     """Quote every profile; print tables or JSON, write CSV; nothing is written on an error.
 
     Every file is read once, by the part's own task; the parts run through
@@ -843,6 +844,7 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
     """
     from revolve.jobs import batch, turning, turning_data
 
+    batch.check_workers(workers)
     paths, left_out = common.profile_paths(profiles, skip=csv_file)
     if stock not in turning.STOCK_CHOICES:
         raise RevolveError(f"choose {', '.join(turning.STOCK_CHOICES)}, not {stock!r}",
@@ -910,7 +912,9 @@ def run_turn(profiles: List[str], *, material: Optional[str] = None, axis: Optio
         from revolve.cli.rows import progress_bar
 
         with progress_bar(len(items), "quoting") as advance:
-            return [r.value for r in batch.run_many(task, items, progress=advance)]
+            pool = {} if serial_below is None else {"serial_below": serial_below}
+            return [r.value for r in batch.run_many(task, items, workers=workers,
+                                                    progress=advance, **pool)]
 
     outcomes = quote_all(task)
     if bar_list is None:
@@ -1067,6 +1071,9 @@ def register(app: typer.Typer) -> None:
         tolerance: float = typer.Option(DEFAULT_TOLERANCE, "--tolerance", help="Largest relative "
                                         "difference allowed between the engine's two "
                                         "computations before the exit code is 1."),
+        workers: Optional[int] = typer.Option(None, "--workers", help="Processes for many "
+                                              "parts: default one per core (from 32 parts on); "
+                                              "1 runs in one process."),
     ) -> None:
         """Quote turned parts: stock, material removed, bars, times and cost."""
         code = run_turn(profiles, material=material, axis=axis, units=units, bar_list=bar_list,
@@ -1078,6 +1085,7 @@ def register(app: typer.Typer) -> None:
                         setup_time=setup_time, handling_time=handling_time,
                         whole_bars=whole_bars, roughing=roughing, finishing=finishing,
                         max_speed=max_speed, no_finish=no_finish, currency=currency,
-                        as_json=as_json, csv_file=csv_file, tolerance=tolerance)
+                        as_json=as_json, csv_file=csv_file, tolerance=tolerance,
+                        workers=workers)
         if code:
             raise typer.Exit(code)
