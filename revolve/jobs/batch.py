@@ -36,12 +36,14 @@ Examples
 
 from __future__ import annotations
 
+import itertools
 import math
 import os
-from concurrent.futures import ProcessPoolExecutor, as_completed
+from collections import deque
+from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass
 from fractions import Fraction
-from typing import Any, Callable, List, Optional, Sequence
+from typing import Any, Callable, Iterator, List, Optional, Sequence
 
 from revolve.errors import RevolveError
 
@@ -113,7 +115,7 @@ def check_workers(workers: Optional[int]) -> None:
         raise RevolveError(f"give a whole number of at least 1, got {workers}", option="--workers")
 
 
-def run_many(task: Callable[[str], Any], items: Sequence[str], *, workers: Optional[int] = None,
+def run_many(task: Callable[[Any], Any], items: Sequence[Any], *, workers: Optional[int] = None,
              serial_below: int = SERIAL_BELOW,
              progress: Optional[Callable[[int], None]] = None) -> List[PartResult]:
     """Apply ``task`` to every item; one :class:`PartResult` per item, in input order.
@@ -145,29 +147,67 @@ def run_many(task: Callable[[str], Any], items: Sequence[str], *, workers: Optio
     [PartResult(file='ab', value=2, error=None), PartResult(file='abc', value=3, error=None)]
     >>> run_many(len, [])
     []
+    >>> run_many(len, ["a"], workers=0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --workers: give a whole number of at least 1, got 0
+    """
+    return list(iter_many(task, items, workers=workers, serial_below=serial_below,
+                          progress=progress))
+
+
+def iter_many(task: Callable[[Any], Any], items: Sequence[Any], *,
+              workers: Optional[int] = None, serial_below: int = SERIAL_BELOW,
+              progress: Optional[Callable[[int], None]] = None) -> Iterator[PartResult]:
+    """:func:`run_many` as an iterator: results in input order, as soon as they are ready.
+
+    A long run can write each part's row as it comes, holding only a few
+    chunks in memory: at most :data:`CHUNKS_PER_WORKER` chunks per worker are
+    handed out ahead of the one being read. The settings are checked at
+    once, before any part is read.
+
+    Examples
+    --------
+    >>> [r.value for r in iter_many(str.upper, ["a.toml", "b.toml"])]
+    ['A.TOML', 'B.TOML']
     """
     items = list(items)
     check_workers(workers)
     if workers is None:
         workers = os.cpu_count() or 1
     if workers <= 1 or len(items) < max(2, serial_below):
-        out = []
-        for item in items:
-            out.append(_run_one(task, item))
-            if progress is not None:
-                progress(1)
-        return out
+        return _serial(task, items, progress)
+    return _pooled(task, items, workers, progress)
+
+
+def _serial(task, items, progress) -> Iterator[PartResult]:
+    for item in items:
+        result = _run_one(task, item)
+        if progress is not None:
+            progress(1)
+        yield result
+
+
+def _pooled(task, items, workers: int, progress) -> Iterator[PartResult]:
     size = chunk_size(len(items), workers)
-    chunks = [items[i:i + size] for i in range(0, len(items), size)]
-    results: List[Optional[List[PartResult]]] = [None] * len(chunks)
-    with ProcessPoolExecutor(max_workers=min(workers, len(chunks))) as pool:
-        futures = {pool.submit(_run_chunk, task, chunk): k for k, chunk in enumerate(chunks)}
-        for future in as_completed(futures):
-            k = futures[future]
-            results[k] = future.result()
+    chunks = iter([items[i:i + size] for i in range(0, len(items), size)])
+    count = math.ceil(len(items) / size)
+    pool = ProcessPoolExecutor(max_workers=min(workers, count))
+    try:
+        window = deque()
+        for chunk in itertools.islice(chunks, workers * CHUNKS_PER_WORKER):
+            window.append((pool.submit(_run_chunk, task, chunk), len(chunk)))
+        while window:
+            future, n = window.popleft()
+            results = future.result()
+            following = next(chunks, None)
+            if following is not None:
+                window.append((pool.submit(_run_chunk, task, following), len(following)))
             if progress is not None:
-                progress(len(chunks[k]))
-    return [r for chunk in results for r in chunk]
+                progress(n)
+            yield from results
+    finally:
+        pool.shutdown(wait=True, cancel_futures=True)
 
 
 # -- measuring many files ------------------------------------------------------------------
@@ -345,8 +385,31 @@ def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
 
     See the module's examples.
     """
+    return list(iter_measure(paths, axis=axis, angle=angle, units=units, density=density,
+                             density_label=density_label, convert=convert, workers=workers,
+                             serial_below=serial_below, progress=progress))
+
+
+def iter_measure(paths: Sequence[str], *, axis=None, angle: Optional[float] = None,
+                 units: Optional[str] = None, density: Optional[float] = None,
+                 density_label: Optional[str] = None,
+                 convert: Optional[Callable[[PartMeasurement], Any]] = None,
+                 workers: Optional[int] = None, serial_below: int = SERIAL_BELOW,
+                 progress: Optional[Callable[[int], None]] = None) -> Iterator[PartResult]:
+    """:func:`measure_many` as an iterator, in input order (``revolve measure`` over many files).
+
+    The settings are checked at once; the parts are read as the iterator is
+    consumed, so a long run holds only a few chunks of results at a time.
+
+    Examples
+    --------
+    >>> iter_measure(["a.txt"], units="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
+    """
     check_units(units)
     task = MeasureTask(axis=axis, angle=angle, units=units, density=density,
                        density_label=density_label, convert=convert)
-    return run_many(task, [os.fspath(p) for p in paths], workers=workers,
-                    serial_below=serial_below, progress=progress)
+    return iter_many(task, [os.fspath(p) for p in paths], workers=workers,
+                     serial_below=serial_below, progress=progress)

@@ -311,45 +311,55 @@ def run_measure(profile, axis: Optional[str], angle: Optional[float], material: 
 
 def _run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], row: JsonRow, *,
                workers=None, serial_below=None) -> int:
-    """Many files: one row per part (plain table, JSON lines, CSV); errors kept in their rows."""
-    from dataclasses import replace
+    """Many files: one row per part (plain table, JSON lines, CSV); errors kept in their rows.
 
+    JSON lines are written as the parts come (in input order), so that a long
+    run holds only the small rows of the table or the CSV.
+    """
     from revolve.cli.rows import json_line, plain_table, progress_bar
     from revolve.jobs import batch
 
     pool = {} if serial_below is None else {"serial_below": serial_below}
+    csv_rows, cells, failed, disagree = [], [], [], []
+    count = any_mass = 0
+    write = sys.stdout.write
     with progress_bar(len(paths), "measuring") as advance:
-        results = batch.run_many(replace(task, convert=row), paths, workers=workers,
-                                 progress=advance, **pool)
+        for r in batch.iter_measure(paths, axis=task.axis, angle=task.angle, units=task.units,
+                                    density=task.density, density_label=task.density_label,
+                                    convert=row, workers=workers, progress=advance, **pool):
+            count += 1
+            if not r.ok:
+                failed.append(r)
+            elif not _agrees(r):
+                disagree.append(r.file)
+            if csv_path is not None:
+                csv_rows.append(batch_csv_row(r))
+            if as_json:
+                write(json_line(r.value if r.ok else {"file": r.file, "error": r.error}) + "\n")
+            else:
+                cells.append(_batch_cells(r))
+                any_mass = any_mass or (r.ok and "mass" in r.value)
     if csv_path is not None:
         from revolve.cli.tables import csv_text
         from revolve.formats.files import OutputSet
         with OutputSet() as files:
-            files.text(csv_path, csv_text([batch_csv_row(r) for r in results],
-                                          BATCH_CSV_COLUMNS), option="--csv")
-    failed = [r for r in results if not r.ok]
+            files.text(csv_path, csv_text(csv_rows, BATCH_CSV_COLUMNS), option="--csv")
     if as_json:
-        lines = [json_line(r.value if r.ok else {"file": r.file, "error": r.error})
-                 for r in results]
-        sys.stdout.write("".join(line + "\n" for line in lines))
         for other in left_out:
             print(f"revolve: left out {other}: not a profile (no [[loop]] or [[chain]])",
                   file=sys.stderr)
     else:
         heads = ["file", "volume", "surface, swept total", "mass", "cross-check"]
-        ok = len(results) - len(failed)
-        title = (f"{len(results)} parts" + (f", {len(failed)} refused" if failed else "")
-                 if ok else f"{len(results)} parts, every one refused")
-        text = plain_table(heads, [_batch_cells(r) for r in results], right=(1, 2, 3),
-                           title=title)
+        title = (f"{count} parts" + (f", {len(failed)} refused" if failed else "")
+                 if len(failed) < count else f"{count} parts, every one refused")
+        text = plain_table(heads, cells, right=(1, 2, 3), title=title)
         tail = [f"left out {other}: not a profile (no [[loop]] or [[chain]])"
                 for other in left_out]
-        if any(r.ok and "mass" in r.value for r in results):
+        if any_mass:
             tail.append("Caution: " + common.CAUTIONS["lifting"])
-        sys.stdout.write(text + "\n" + "".join(t + "\n" for t in tail))
+        write(text + "\n" + "".join(t + "\n" for t in tail))
     for r in failed:
         print(f"revolve: error: {one_line(r.error)}", file=sys.stderr)
-    disagree = [r.file for r in results if not _agrees(r)]
     if disagree:
         print(f"revolve: the two computations disagree by more than {row.tolerance:g} (relative) "
               f"for {', '.join(disagree)}; do not use these figures without finding out why",
