@@ -117,7 +117,8 @@ def check_workers(workers: Optional[int]) -> None:
 
 def run_many(task: Callable[[Any], Any], items: Sequence[Any], *, workers: Optional[int] = None,
              serial_below: int = SERIAL_BELOW,
-             progress: Optional[Callable[[int], None]] = None) -> List[PartResult]:
+             progress: Optional[Callable[[int], None]] = None,
+             chunk: Optional[int] = None) -> List[PartResult]:
     """Apply ``task`` to every item; one :class:`PartResult` per item, in input order.
 
     Parameters
@@ -136,6 +137,8 @@ def run_many(task: Callable[[Any], Any], items: Sequence[Any], *, workers: Optio
         Fewer items than this run in this process (default :data:`SERIAL_BELOW`).
     progress : callable, optional
         Called with the number of items just finished, as they finish.
+    chunk : int, optional
+        Items handed to a worker at once; default :func:`chunk_size`.
 
     Returns
     -------
@@ -153,12 +156,13 @@ def run_many(task: Callable[[Any], Any], items: Sequence[Any], *, workers: Optio
     revolve.errors.RevolveError: --workers: give a whole number of at least 1, got 0
     """
     return list(iter_many(task, items, workers=workers, serial_below=serial_below,
-                          progress=progress))
+                          progress=progress, chunk=chunk))
 
 
 def iter_many(task: Callable[[Any], Any], items: Sequence[Any], *,
               workers: Optional[int] = None, serial_below: int = SERIAL_BELOW,
-              progress: Optional[Callable[[int], None]] = None) -> Iterator[PartResult]:
+              progress: Optional[Callable[[int], None]] = None,
+              chunk: Optional[int] = None) -> Iterator[PartResult]:
     """:func:`run_many` as an iterator: results in input order, as soon as they are ready.
 
     A long run can write each part's row as it comes, holding only a few
@@ -177,7 +181,8 @@ def iter_many(task: Callable[[Any], Any], items: Sequence[Any], *,
         workers = os.cpu_count() or 1
     if workers <= 1 or len(items) < max(2, serial_below):
         return _serial(task, items, progress)
-    return _pooled(task, items, workers, progress)
+    return _pooled(task, items, workers, progress,
+                   chunk_size(len(items), workers) if chunk is None else max(1, int(chunk)))
 
 
 def _serial(task, items, progress) -> Iterator[PartResult]:
@@ -188,8 +193,7 @@ def _serial(task, items, progress) -> Iterator[PartResult]:
         yield result
 
 
-def _pooled(task, items, workers: int, progress) -> Iterator[PartResult]:
-    size = chunk_size(len(items), workers)
+def _pooled(task, items, workers: int, progress, size: int) -> Iterator[PartResult]:
     chunks = iter([items[i:i + size] for i in range(0, len(items), size)])
     count = math.ceil(len(items) / size)
     pool = ProcessPoolExecutor(max_workers=min(workers, count))
