@@ -40,7 +40,6 @@ import itertools
 import math
 import os
 from collections import deque
-from concurrent.futures import ProcessPoolExecutor
 from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any, Callable, Iterator, List, Optional, Sequence
@@ -194,6 +193,8 @@ def _serial(task, items, progress) -> Iterator[PartResult]:
 
 
 def _pooled(task, items, workers: int, progress, size: int) -> Iterator[PartResult]:
+    from concurrent.futures import ProcessPoolExecutor  # only when a pool is used: start-up
+
     chunks = iter([items[i:i + size] for i in range(0, len(items), size)])
     count = math.ceil(len(items) / size)
     pool = ProcessPoolExecutor(max_workers=min(workers, count))

@@ -79,7 +79,7 @@ def square(tmp_path, monkeypatch):
                                                            "'" + "9" * 40 + "…"),
     (["mesh", "P", "-o", "m.stl", "--tolerance"], "--tolerance: give a value after this option"),
     (["measure", "P", "--json=yes"], "--json: this option takes no value"),
-    (["measure", "P", "extra"], "unexpected extra argument 'extra'"),
+    (["mesh", "P", "-o", "m.stl", "extra"], "unexpected extra argument 'extra'"),
     (["mash", "P"], "no such command 'mash'; did you mean 'mesh'?"),
     (["measure", "P", "--x\ny"], "'--x\\ny': no such option"),
 ])

@@ -382,7 +382,7 @@ def _axis_text(ax) -> str:
 def register(app: typer.Typer) -> None:
     @app.command("measure")
     def measure_command(
-        profiles: List[str] = typer.Argument(..., help="Profile file: .toml (the project's "
+        profile: List[str] = typer.Argument(..., help="Profile file: .toml (the project's "
                                              "format), a plain list of x,y points (.txt, .csv, "
                                              ".xy), SVG path data (.svg, .svgpath) or a DXF "
                                              "drawing. Several files or folders: one row per "
@@ -428,7 +428,7 @@ def register(app: typer.Typer) -> None:
         exit code is 2. Exit codes: 0 done, 1 a cross-check disagrees, 2 input
         refused.
         """
-        code = run_measure(profiles[0] if len(profiles) == 1 else profiles, axis, angle, material, density, as_json, exact, units,
+        code = run_measure(profile[0] if len(profile) == 1 else profile, axis, angle, material, density, as_json, exact, units,
                            length_unit, area_unit, volume_unit, mass_unit, tolerance,
                            csv_path=csv_path, workers=workers)
         if code:
