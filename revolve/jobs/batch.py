@@ -376,8 +376,20 @@ def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
     ----------
     paths : sequence of str
         Profile files (any format :func:`revolve.formats.load_profile` reads).
-    axis, angle, units, density, density_label, convert
-        The settings of :class:`MeasureTask`, shared by every part.
+    axis : Axis, optional
+        Default: each file's axis, else the sketch x axis.
+    angle : float, optional
+        Revolution angle in degrees; default: each file's, else 360.
+    units : str, optional
+        Length unit of files that do not say (plain point lists); default mm.
+    density : float, optional
+        Density in kg/m³ (the one unit a bare number is taken in, as
+        ``--density 7850`` on the command line) for every part; default: each
+        file's ``material`` or ``density``, else no mass. ``density_label``
+        says where it came from, for the results.
+    convert : callable, optional
+        Applied to each :class:`PartMeasurement` where it is computed (in the
+        worker); its value is returned instead. Must be picklable.
     workers, serial_below, progress
         As for :func:`run_many`.
 

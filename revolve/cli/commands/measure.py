@@ -194,11 +194,8 @@ BATCH_CSV_COLUMNS = ("file", "name", "profile_unit", "error", "area", "area_unit
                      "crosscheck_surface_difference", "crosscheck_agrees")
 
 
-def batch_csv_row(result) -> dict:
-    """One CSV row of a batch from a PartResult whose value is a :class:`JsonRow` object."""
-    if not result.ok:
-        return {"file": result.file, "error": result.error}
-    d = result.value
+def batch_csv_row(d: dict) -> dict:
+    """One CSV row of a batch from a part's :class:`JsonRow` object (see :data:`BATCH_CSV_COLUMNS`)."""
     u = d["units"]
     c = d.get("crosscheck") or {}
     return {"file": d["file"], "name": d["profile"]["name"], "profile_unit": d["profile"]["unit"],
@@ -211,11 +208,9 @@ def batch_csv_row(result) -> dict:
             "crosscheck_agrees": c.get("agrees")}
 
 
-def _batch_cells(result) -> list:
-    """One row of the batch table: file, volume, surface, mass, cross-check (or the error)."""
-    if not result.ok:
-        return [result.file, f"error: {result.error}"]
-    d = result.value
+def batch_cells(d: dict) -> list:
+    """One row of the batch table from a part's :class:`JsonRow` object: file, volume, surface,
+    mass, cross-check (the worst relative difference), each figure with its unit."""
     u = d["units"]
     f = common.fmt
     c = d.get("crosscheck")
@@ -230,9 +225,39 @@ def _batch_cells(result) -> list:
     return [d["file"], volume, f"{f(d['surface_area'], 6)} {u['area']}", mass, check]
 
 
-def _agrees(result) -> bool:
-    c = result.value.get("crosscheck") if result.ok else None
-    return c is None or c["agrees"]
+@dataclass(frozen=True)
+class BatchRow:
+    """What the many-files outputs need of a part, made where it was measured (small to send back).
+
+    ``json`` is its JSON line, ``cells`` its table row, ``csv`` its CSV row
+    (each None when that output was not asked for).
+    """
+
+    json: Optional[str]
+    cells: Optional[list]
+    csv: Optional[dict]
+    agrees: bool
+    has_mass: bool
+
+
+@dataclass(frozen=True)
+class RowMaker:
+    """A measured part -> :class:`BatchRow` for the outputs asked for (picklable, run in workers)."""
+
+    row: JsonRow
+    json: bool = False
+    table: bool = False
+    csv: bool = False
+
+    def __call__(self, part) -> BatchRow:
+        from revolve.cli.rows import json_line
+
+        d = self.row(part)
+        c = d.get("crosscheck")
+        return BatchRow(json=json_line(d) if self.json else None,
+                        cells=batch_cells(d) if self.table else None,
+                        csv=batch_csv_row(d) if self.csv else None,
+                        agrees=c is None or c["agrees"], has_mass="mass" in d)
 
 
 def run_measure(profile, axis: Optional[str], angle: Optional[float], material: Optional[str],
@@ -320,25 +345,27 @@ def _run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], ro
     from revolve.jobs import batch
 
     pool = {} if serial_below is None else {"serial_below": serial_below}
+    maker = RowMaker(row, json=as_json, table=not as_json, csv=csv_path is not None)
     csv_rows, cells, failed, disagree = [], [], [], []
     count = any_mass = 0
     write = sys.stdout.write
     with progress_bar(len(paths), "measuring") as advance:
         for r in batch.iter_measure(paths, axis=task.axis, angle=task.angle, units=task.units,
                                     density=task.density, density_label=task.density_label,
-                                    convert=row, workers=workers, progress=advance, **pool):
+                                    convert=maker, workers=workers, progress=advance, **pool):
             count += 1
+            b = r.value
             if not r.ok:
                 failed.append(r)
-            elif not _agrees(r):
+            elif not b.agrees:
                 disagree.append(r.file)
             if csv_path is not None:
-                csv_rows.append(batch_csv_row(r))
+                csv_rows.append(b.csv if r.ok else {"file": r.file, "error": r.error})
             if as_json:
-                write(json_line(r.value if r.ok else {"file": r.file, "error": r.error}) + "\n")
+                write((b.json if r.ok else json_line({"file": r.file, "error": r.error})) + "\n")
             else:
-                cells.append(_batch_cells(r))
-                any_mass = any_mass or (r.ok and "mass" in r.value)
+                cells.append(b.cells if r.ok else [r.file, f"error: {r.error}"])
+                any_mass = any_mass or (r.ok and b.has_mass)
     if csv_path is not None:
         from revolve.cli.tables import csv_text
         from revolve.formats.files import OutputSet
