@@ -160,25 +160,32 @@ def profile_measure(folder: Path, count: int) -> None:
     run()
     prof.disable()
     stats = pstats.Stats(prof)
-    groups = {"reading (formats, TOML)": 0.0, "engine (geometry)": 0.0,
-              "output (JSON, CLI)": 0.0, "rest (batch layer, numpy, other)": 0.0}
-    for (filename, _, _), (_, _, own, _, _) in stats.stats.items():
-        f = filename.replace("\\", "/")
-        if "/revolve/formats/" in f or "tomllib" in f:
-            groups["reading (formats, TOML)"] += own
-        elif "/revolve/geometry/" in f:
-            groups["engine (geometry)"] += own
-        elif "/json/" in f or "/revolve/cli/" in f:
-            groups["output (JSON, CLI)"] += own
-        else:
-            groups["rest (batch layer, numpy, other)"] += own
-    total = sum(groups.values())
+    total = stats.total_tt
+
+    def cumulative(path_end: str, function: str) -> float:
+        """The largest cumulative time of a function of that name in that file (the outermost)."""
+        return max([v[3] for (f, _, name), v in stats.stats.items()
+                    if f.replace("\\", "/").endswith(path_end) and name == function] or [0.0])
+
+    phases = {
+        "reading the file (formats: checks, TOML, line scan, segments)":
+            cumulative("revolve/formats/__init__.py", "load_profile"),
+        "engine (geometry.measure: prepare, integrals, cross-check)":
+            cumulative("revolve/geometry/measure.py", "measure"),
+        "the part's row (JSON object and line, in the worker)":
+            cumulative("revolve/cli/commands/measure.py", "__call__"),
+    }
+    phases["the rest (batch layer, writing, listing the folder)"] = total - sum(phases.values())
     print(f"\nmeasure --json, serial, in this process under cProfile: {total / count * 1e3:.2f} "
           f"ms per part (profiling adds overhead)")
-    for name, own in groups.items():
-        print(f"  {name:36s} {own / count * 1e3:6.3f} ms/part  {100 * own / total:5.1f} %")
+    for name, own in phases.items():
+        print(f"  {name:64s} {own / count * 1e3:6.3f} ms/part  {100 * own / total:5.1f} %")
     print()
-    stats.sort_stats("tottime").print_stats(15)
+    stats.sort_stats("cumulative").print_stats(r"load_profile|parse_profile_text|find_oversize|"
+                                                r"scan_lines|tomllib.*loads|\(document\)|"
+                                                r"\(measure\)|\(prepare\)|\(section\)|"
+                                                r"washer_volume|surface_by_quadrature")
+    stats.sort_stats("tottime").print_stats(12)
 
 
 def main() -> None:
