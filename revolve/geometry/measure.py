@@ -72,7 +72,7 @@ class Section:
         return self.moments["M01"] / self.area if self.area else float("nan")
 
 
-def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
+def section(prep: PreparedProfile, symbolic: bool = False) -> Section:
     """Sum the segment integrals of a prepared profile into a :class:`Section`."""
     segs = [s for p in prep.paths for s in p]
     owner = np.concatenate([np.full(len(p), k) for k, p in enumerate(prep.paths)]) \
@@ -82,7 +82,7 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
     ends = np.array([c for s in segs for c in (s.start, s.end)], dtype=float).reshape(-1, 2)
     z_ref = float((ends[:, 0].min() + ends[:, 0].max()) / 2) if ends.size else 0.0
     r_ref = float((ends[:, 1].min() + ends[:, 1].max()) / 2) if ends.size else 0.0
-    shifted = [_shift(s, -z_ref, -r_ref) for s in segs]
+    shifted = [s.translated(-z_ref, -r_ref) for s in segs]
     res = segment_integrals(shifted, symbolic=symbolic)
     vals, errs = res.values, res.errors
     # Loop factors: solid loops count positive, holes negative, whatever their direction.
@@ -131,25 +131,6 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
                    boundary_r=float(vals[:, COL["length_y"]].sum()) / L if L else float("nan"),
                    face_length=faces, face_r_length=faces_r, loop_factors=tuple(factors),
                    error=err, methods=res.method)
-
-
-def _shift(seg, dz: float, dr: float = 0.0):
-    from dataclasses import replace
-    from revolve.geometry.segments import Arc, Curve, Line
-
-    if dz == 0 and dr == 0:
-        return seg
-
-    def mv(p):
-        return (p[0] + dz, p[1] + dr)
-
-    if isinstance(seg, Line):
-        return replace(seg, start=mv(seg.start), end=mv(seg.end))
-    if isinstance(seg, Arc):
-        return replace(seg, start=mv(seg.start), end=mv(seg.end), centre=mv(seg.centre))
-    if isinstance(seg, Curve):
-        return seg.translated(dz, dr)
-    raise TypeError(type(seg).__name__)
 
 
 @dataclass(frozen=True)

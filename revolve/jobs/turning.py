@@ -883,9 +883,8 @@ def _g(r, vc, n):
 
 def _chords(segments) -> Tuple[np.ndarray, np.ndarray]:
     """Start and end points of fine chords along frame segments (arcs to 0.25°)."""
-    from revolve.geometry.checks import flatten
 
-    pieces = [flatten(s, max_angle=math.pi / 720, curve_pieces=2048) for s in segments]
+    pieces = [s.flatten(max_angle=math.pi / 720, curve_pieces=2048) for s in segments]
     if not pieces:
         return np.zeros((0, 2)), np.zeros((0, 2))
     return (np.vstack([p[:-1] for p in pieces]), np.vstack([p[1:] for p in pieces]))
