@@ -196,7 +196,7 @@ def _relative(a: float, b: float) -> float:
 
 
 def measure(revolution: Revolution, density: Optional[float] = None, *,
-            crosscheck: bool = True, symbolic: bool = True) -> Measurement:
+            crosscheck: bool = True, symbolic: bool = False) -> Measurement:
     """Measure a revolution: section, Pappus volume and surface, mass, cross-check."""
     axis = revolution.axis
     prep = prepare(revolution.profile, axis)
