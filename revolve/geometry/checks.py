@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import cached_property
 from typing import Optional, Sequence, Tuple
 
 import numpy as np
@@ -57,6 +58,46 @@ class PreparedProfile:
     side: float
     size: float
     tolerance: float
+
+    @cached_property
+    def loop_factors(self) -> Tuple[float, ...]:
+        """Per closed loop, +1 or −1 so that solids add and holes subtract (:func:`loop_factor`).
+
+        >>> from revolve.geometry.profile import Loop, Profile, Axis
+        >>> outer = Loop.from_points([(0, 1), (4, 1), (4, 5), (0, 5)])          # counter-clockwise
+        >>> hole = Loop.from_points([(1, 2), (2, 2), (2, 3), (1, 3)])           # counter-clockwise too
+        >>> prepare(Profile(loops=(outer, hole)), Axis.x()).loop_factors
+        (1.0, -1.0)
+        """
+        from revolve.geometry.integrals import COL, segment_integrals
+
+        out = []
+        loops = [segs for segs, closed in zip(self.paths, self.closed) if closed]
+        for segs, depth in zip(loops, self.depths):
+            z0, r0, z1, r1 = _box(segs)
+            moved = [s.translated(-(z0 + z1) / 2, -(r0 + r1) / 2) for s in segs]
+            area = float(segment_integrals(moved).values[:, COL["M00"]].sum())
+            out.append(loop_factor(area, depth))
+        return tuple(out)
+
+
+def loop_factor(signed_area: float, depth: int) -> float:
+    """The one rule for a loop's sign: the sign of its area times (−1) to its nesting depth.
+
+    A solid loop then adds and a hole subtracts, whichever way each one runs; a
+    loop of zero area counts nothing.
+
+    >>> loop_factor(2.5, 0), loop_factor(2.5, 1), loop_factor(-2.5, 1), loop_factor(0.0, 0)
+    (1.0, -1.0, 1.0, 0.0)
+    """
+    if signed_area == 0:
+        return 0.0
+    return (1.0 if signed_area > 0 else -1.0) * (1.0 if depth % 2 == 0 else -1.0)
+
+
+def _box(segs) -> Tuple[float, float, float, float]:
+    b = np.array([s.bounds() for s in segs], dtype=float).reshape(-1, 4)
+    return float(b[:, 0].min()), float(b[:, 1].min()), float(b[:, 2].max()), float(b[:, 3].max())
 
 
 def _place(seg: Segment, path_no: int, seg_no: int, closed: bool) -> str:

@@ -35,7 +35,7 @@ from typing import Dict, Optional, Tuple
 import numpy as np
 
 from revolve.errors import ProfileError
-from revolve.geometry.checks import PreparedProfile, prepare
+from revolve.geometry.checks import PreparedProfile, loop_factor, prepare
 from revolve.geometry.integrals import COL, segment_integrals
 from revolve.geometry.profile import UNNAMED_FACE, Revolution
 from revolve.geometry.slicing import surface_by_quadrature, washer_volume
@@ -91,13 +91,8 @@ def section(prep: PreparedProfile, symbolic: bool = False) -> Section:
     for k, (closed) in enumerate(prep.closed):
         if closed:
             loop_index[k] = len(factors)
-            a = float(vals[owner == k, COL["M00"]].sum())
-            if a == 0:
-                factors.append(0.0)
-            else:
-                sign = 1.0 if a > 0 else -1.0
-                depth = prep.depths[loop_index[k]]
-                factors.append(sign * (1.0 if depth % 2 == 0 else -1.0))
+            factors.append(loop_factor(float(vals[owner == k, COL["M00"]].sum()),
+                                       prep.depths[loop_index[k]]))
     seg_factor = np.array([factors[loop_index[k]] if prep.closed[k] else 0.0 for k in owner])
     m = {name: float((vals[:, COL[name]] * seg_factor).sum())
          for name in ("M00", "M10", "M01", "M20", "M11", "M02", "M03")}

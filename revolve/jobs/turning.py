@@ -61,6 +61,7 @@ from typing import Dict, Mapping, Optional, Sequence, Tuple
 import numpy as np
 
 from revolve.errors import ProfileError, RevolveError
+from revolve.geometry.checks import loop_factor
 
 #: Relative slack when comparing sizes and counting parts (a nanometre per metre):
 #: a bar that covers a diameter exactly is taken, an exact fit counts.
@@ -907,7 +908,7 @@ def _section_g_integral(prepared, vc: float, n: float, length_factor: float) -> 
         dz = b[:, 0] - a[:, 0]
         area = float(-(dz * (a[:, 1] + b[:, 1]) / 2.0).sum())
         integral = float(-(dz * _mean_over(a[:, 1], b[:, 1], _H, _G, vc, n)).sum())
-        sign = (1.0 if area > 0 else -1.0) * (1.0 if depth % 2 == 0 else -1.0)
+        sign = loop_factor(area, depth)
         total += sign * integral
     return total
 
