@@ -34,7 +34,6 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from revolve.geometry.checks import prepare  # noqa: E402
-from revolve.geometry.clipping import section_loop_factors  # noqa: E402
 from revolve.geometry.horizontal import horizontal_levels, horizontal_pieces  # noqa: E402
 from revolve.geometry.measure import measure  # noqa: E402
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution  # noqa: E402
@@ -87,7 +86,7 @@ class SliceArea:
     def __init__(self, prep):
         from revolve.geometry.slicing import monotone_pieces
 
-        factors = section_loop_factors(prep)
+        factors = prep.loop_factors
         pieces = [p for segs, f in zip(prep.paths, factors) for s in segs
                   for p in monotone_pieces(s, f)]
         self.lines = np.array([p.params + (p.factor,) for p in pieces if p.kind == "line"]

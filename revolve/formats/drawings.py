@@ -318,14 +318,14 @@ def separate_strays(profile, sources: Sequence[str], *, keep: bool = False):
 
     import numpy as np
 
-    from revolve.geometry.checks import _point_in_polygon, flatten
+    from revolve.geometry.checks import _point_in_polygon
 
     paths = profile.paths
     if len(paths) < 2:
         return profile, list(sources), ["loop" if p.closed else "chain" for p in paths], []
     flat = []
     for p in paths:
-        pieces = [flatten(s) for s in p.segments]
+        pieces = [s.flatten() for s in p.segments]
         flat.append(np.vstack([pieces[0]] + [f[1:] for f in pieces[1:]]) if pieces
                     else np.zeros((0, 2)))
     loops = [k for k, p in enumerate(paths) if p.closed]
@@ -420,13 +420,12 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
     """
     import numpy as np
 
-    from revolve.geometry.checks import (RELATIVE_TOLERANCE, _chord_owner, find_self_intersection,
-                                         flatten)
+    from revolve.geometry.checks import RELATIVE_TOLERANCE, _chord_owner, find_self_intersection
 
     paths = profile.paths
     if not paths:
         return
-    flat = [[flatten(s) for s in p.segments] for p in paths]
+    flat = [[s.flatten() for s in p.segments] for p in paths]
     points = [f for fs in flat for f in fs]
     if not points:
         return

@@ -23,6 +23,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
+from functools import cached_property
 from typing import Optional, Sequence, Tuple
 
 import numpy as np
@@ -30,8 +31,7 @@ import numpy as np
 from revolve.errors import ProfileError
 from revolve.geometry.frame import to_frame
 from revolve.geometry.profile import Axis, Profile
-from revolve.geometry.segments import (COORDINATE_LIMIT, FLAT_ARC_RATIO, SIZE_LIMIT, Arc, Curve, Line,
-                                       Segment)
+from revolve.geometry.segments import COORDINATE_LIMIT, SIZE_LIMIT, Segment
 
 #: Relative tolerance (of the profile's size) for closure, axis contact and touching.
 RELATIVE_TOLERANCE = 1e-9
@@ -59,6 +59,46 @@ class PreparedProfile:
     size: float
     tolerance: float
 
+    @cached_property
+    def loop_factors(self) -> Tuple[float, ...]:
+        """Per closed loop, +1 or −1 so that solids add and holes subtract (:func:`loop_factor`).
+
+        >>> from revolve.geometry.profile import Loop, Profile, Axis
+        >>> outer = Loop.from_points([(0, 1), (4, 1), (4, 5), (0, 5)])          # counter-clockwise
+        >>> hole = Loop.from_points([(1, 2), (2, 2), (2, 3), (1, 3)])           # counter-clockwise too
+        >>> prepare(Profile(loops=(outer, hole)), Axis.x()).loop_factors
+        (1.0, -1.0)
+        """
+        from revolve.geometry.integrals import COL, segment_integrals
+
+        out = []
+        loops = [segs for segs, closed in zip(self.paths, self.closed) if closed]
+        for segs, depth in zip(loops, self.depths):
+            z0, r0, z1, r1 = _box(segs)
+            moved = [s.translated(-(z0 + z1) / 2, -(r0 + r1) / 2) for s in segs]
+            area = float(segment_integrals(moved).values[:, COL["M00"]].sum())
+            out.append(loop_factor(area, depth))
+        return tuple(out)
+
+
+def loop_factor(signed_area: float, depth: int) -> float:
+    """The one rule for a loop's sign: the sign of its area times (−1) to its nesting depth.
+
+    A solid loop then adds and a hole subtracts, whichever way each one runs; a
+    loop of zero area counts nothing.
+
+    >>> loop_factor(2.5, 0), loop_factor(2.5, 1), loop_factor(-2.5, 1), loop_factor(0.0, 0)
+    (1.0, -1.0, 1.0, 0.0)
+    """
+    if signed_area == 0:
+        return 0.0
+    return (1.0 if signed_area > 0 else -1.0) * (1.0 if depth % 2 == 0 else -1.0)
+
+
+def _box(segs) -> Tuple[float, float, float, float]:
+    b = np.array([s.bounds() for s in segs], dtype=float).reshape(-1, 4)
+    return float(b[:, 0].min()), float(b[:, 1].min()), float(b[:, 2].max()), float(b[:, 3].max())
+
 
 def _place(seg: Segment, path_no: int, seg_no: int, closed: bool) -> str:
     return f"{'loop' if closed else 'chain'} {path_no}, segment {seg_no}"
@@ -72,41 +112,9 @@ def _fail(message: str, seg: Optional[Segment] = None, place: Optional[str] = No
                         place=(where.place if where and where.place else place))
 
 
-def flatten(seg: Segment, max_angle: float = math.pi / 36, curve_pieces: int = 64) -> np.ndarray:
-    """Points along a segment, start and end included, shape (m + 1, 2).
-
-    >>> flatten(Line((0.0, 0.0), (1.0, 1.0))).tolist()
-    [[0.0, 0.0], [1.0, 1.0]]
-    """
-    if isinstance(seg, Line):
-        return np.array([seg.start, seg.end], dtype=float)
-    if isinstance(seg, Arc):
-        if is_flat_arc(seg):
-            return np.array([seg.start, seg.end], dtype=float)
-        a0, a1 = seg.angles()
-        m = max(2, int(math.ceil(abs(a1 - a0) / max_angle)))
-        a = np.linspace(a0, a1, m + 1)
-        pts = np.column_stack([seg.centre[0] + seg.radius * np.cos(a),
-                               seg.centre[1] + seg.radius * np.sin(a)])
-        pts[0], pts[-1] = seg.start, seg.end
-        return pts
-    if isinstance(seg, Curve):
-        t = np.linspace(seg.t_start, seg.t_end, curve_pieces + 1)
-        x, y, _, _ = seg.evaluate(t)
-        return np.column_stack([x, y])
-    raise TypeError(type(seg).__name__)
-
-
 def _min_distance_from_axis(seg: Segment) -> Tuple[float, Tuple[float, float]]:
-    """Lowest ``r`` along a frame segment and where it occurs (exact for lines and arcs)."""
-    pts = flatten(seg, max_angle=math.pi / 180, curve_pieces=512)
-    if isinstance(seg, Arc):
-        a0, a1 = seg.angles()
-        lo, hi = min(a0, a1), max(a0, a1)
-        k = math.ceil((lo + math.pi / 2) / (2 * math.pi))
-        bottom = -math.pi / 2 + 2 * math.pi * k
-        if lo < bottom < hi:
-            pts = np.vstack([pts, [seg.centre[0], seg.centre[1] - seg.radius]])
+    """Lowest ``r`` along a frame segment and where it occurs (exact where its turning points are)."""
+    pts = np.vstack([seg.flatten(math.pi / 180, 512), seg.points_at(seg.turning_parameters(1))])
     i = int(np.argmin(pts[:, 1]))
     return float(pts[i, 1]), (float(pts[i, 0]), float(pts[i, 1]))
 
@@ -332,59 +340,6 @@ def check_coordinate_range(points) -> None:
                            "profile in a larger unit or nearer the origin")
 
 
-def is_flat_arc(seg: Segment) -> bool:
-    """Is this an arc so flat (radius beyond FLAT_ARC_RATIO × chord, or not finite) it is a line?
-
-    >>> from revolve.geometry.segments import arc_from_radius
-    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e200))
-    True
-    >>> is_flat_arc(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e3))
-    False
-    """
-    if not isinstance(seg, Arc):
-        return False
-    chord = math.hypot(seg.end[0] - seg.start[0], seg.end[1] - seg.start[1])
-    R = seg.radius
-    return not (math.isfinite(R) and math.isfinite(seg.centre[0]) and math.isfinite(seg.centre[1])
-                and R <= FLAT_ARC_RATIO * chord)
-
-
-def straighten(seg: Segment) -> Segment:
-    """A flat arc (see :func:`is_flat_arc`) as the line of its chord; anything else unchanged.
-
-    >>> from revolve.geometry.segments import arc_from_radius
-    >>> straighten(arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e12, face="top"))
-    Line(start=(0.0, 0.0), end=(1.0, 0.0), face='top')
-    """
-    if is_flat_arc(seg):
-        return Line(seg.start, seg.end, face=seg.face, where=seg.where)
-    return seg
-
-
-def snap_to_zero(seg: Segment, tiny: float) -> Segment:
-    """The frame segment with coordinates of magnitude below ``tiny`` set to zero.
-
-    Lines and arcs only (a curve is an expression and keeps its own values).
-
-    >>> snap_to_zero(Line((5e-324, 0.5625), (2.5, 0.5625)), 1e-15)
-    Line(start=(0.0, 0.5625), end=(2.5, 0.5625), face=None)
-    """
-    from dataclasses import replace
-
-    def snap(p):
-        return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])
-
-    if isinstance(seg, Line):
-        a, b = snap(seg.start), snap(seg.end)
-        return seg if (a, b) == (seg.start, seg.end) else replace(seg, start=a, end=b)
-    if isinstance(seg, Arc):
-        a, b, c = snap(seg.start), snap(seg.end), snap(seg.centre)
-        if (a, b, c) == (seg.start, seg.end, seg.centre):
-            return seg
-        return replace(seg, start=a, end=b, centre=c)
-    return seg
-
-
 def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     """Check a profile against an axis and place it in the axis frame."""
     paths = profile.paths
@@ -392,7 +347,7 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
         raise ProfileError("the profile has no loops or chains; give at least one closed loop")
     closed = tuple(p.closed for p in paths)
     # Sketch points of every segment, for size, side and intersections.
-    flat = [[flatten(s) for s in p.segments] for p in paths]
+    flat = [[s.flatten() for s in p.segments] for p in paths]
     allpts = np.vstack([f for fs in flat for f in fs]) if any(flat) else np.zeros((0, 2))
     if allpts.size == 0:
         raise ProfileError("the profile has no segments")
@@ -437,7 +392,7 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     side = 1.0 if r_all[far] > 0 else -1.0
     frame_paths = []
     for k, p in enumerate(paths, start=1):
-        fsegs = tuple(snap_to_zero(to_frame(straighten(s), axis, side), SNAP_FRACTION * size)
+        fsegs = tuple(to_frame(s.straightened(), axis, side).snapped(SNAP_FRACTION * size)
                       for s in p.segments)
         for j, (s, fs) in enumerate(zip(p.segments, fsegs), start=1):
             rmin, (zq, rq) = _min_distance_from_axis(fs)

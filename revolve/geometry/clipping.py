@@ -133,7 +133,7 @@ class AxialPieces:
     angle to, then the end points z from, r from, z to, r to (the segment's
     own vertices at its ends, so that neighbouring pieces join exactly).
     Curves: ``curves`` is a tuple of (curve, t_from, t_to). Each kind has its
-    loop factor (see :func:`section_loop_factors`) in ``*_factor``. All in
+    loop factor (see :attr:`~revolve.geometry.checks.PreparedProfile.loop_factors`) in ``*_factor``. All in
     the frame. ``z_min`` and ``z_max`` are the lowest and highest axial
     positions of the loops; ``r_ref`` is the distance from the axis of the
     lowest point, the reference radius of the moments (see the module notes).
@@ -266,7 +266,7 @@ class ClippedProfile:
     original) holding, per loop that reaches below the level, its clipped
     loop; ``cut`` marks, per segment of each path, the straight cuts added
     along the level; ``loops`` gives the index of the original loop of each
-    path, and ``factors`` its loop factor (see :func:`section_loop_factors`).
+    path, and ``factors`` its loop factor (see :attr:`~revolve.geometry.checks.PreparedProfile.loop_factors`).
     ``touching`` holds the flat faces lying in the level plane (within the
     profile's tolerance) that are not part of the section below: wetted by
     the liquid all the same, even when nothing is below (a flat bottom at
@@ -365,7 +365,7 @@ def clip_section(prep: PreparedProfile, level: float,
     level : float
         Axial position of the cut, in the frame (measured from the axis point).
     loop_factors : sequence of float, optional
-        Per loop, see :func:`section_loop_factors` (worked out when not given).
+        Per loop, see :attr:`~revolve.geometry.checks.PreparedProfile.loop_factors` (worked out when not given).
 
     Returns
     -------
@@ -388,7 +388,7 @@ def clip_section(prep: PreparedProfile, level: float,
     """
     level = float(level)
     tol = prep.tolerance
-    factors = tuple(loop_factors) if loop_factors is not None else section_loop_factors(prep)
+    factors = tuple(loop_factors) if loop_factors is not None else prep.loop_factors
     paths, cuts, loops, depths, touching = [], [], [], [], []
     loop_no = -1
     for segs, closed in zip(prep.paths, prep.closed):
@@ -422,36 +422,6 @@ def clip_section(prep: PreparedProfile, level: float,
                               prep.side, prep.size, tol)
     return ClippedProfile(clipped, tuple(cuts), tuple(loops),
                           tuple(float(factors[k]) for k in loops), level, tuple(touching))
-
-
-def section_loop_factors(prep: PreparedProfile) -> Tuple[float, ...]:
-    """Per closed loop, the factor (+1 or -1) that makes its signed integrals add or subtract.
-
-    The sign of the loop's signed area times (-1) to the power of its nesting
-    depth, as :func:`revolve.geometry.measure.section` counts them: a solid
-    loop then adds and a hole subtracts, whichever way each one runs.
-
-    >>> from revolve.geometry.profile import Loop, Profile, Axis
-    >>> from revolve.geometry.checks import prepare
-    >>> outer = Loop.from_points([(0, 1), (4, 1), (4, 5), (0, 5)])          # counter-clockwise
-    >>> hole = Loop.from_points([(1, 2), (2, 2), (2, 3), (1, 3)])           # counter-clockwise too
-    >>> section_loop_factors(prepare(Profile(loops=(outer, hole)), Axis.x()))
-    (1.0, -1.0)
-    """
-    from revolve.geometry.integrals import COL, segment_integrals
-
-    out = []
-    k = 0
-    for segs, closed in zip(prep.paths, prep.closed):
-        if not closed:
-            continue
-        z_ref = _middle(segs)
-        area = float(segment_integrals([_shift(s, -z_ref) for s in segs],
-                                       symbolic=False).values[:, COL["M00"]].sum())
-        sign = 0.0 if area == 0 else (1.0 if area > 0 else -1.0)
-        out.append(sign * (1.0 if prep.depths[k] % 2 == 0 else -1.0))
-        k += 1
-    return tuple(out)
 
 
 def clipped_volume(clipped: ClippedProfile) -> float:
@@ -742,7 +712,7 @@ def vertical_levels(prep: PreparedProfile, levels,
     L = np.atleast_1d(np.asarray(levels, dtype=float))
     if pieces is None:
         if loop_factors is None:
-            loop_factors = section_loop_factors(prep)
+            loop_factors = prep.loop_factors
         pieces = axial_pieces(prep, loop_factors)
     pc = pieces
     r_ref = pc.r_ref

@@ -17,10 +17,8 @@ Line(start=(2.0, 1.0), end=(5.0, 1.0), face=None)
 
 from __future__ import annotations
 
-from dataclasses import replace
-
 from revolve.geometry.profile import Axis
-from revolve.geometry.segments import Arc, Curve, Line, Segment
+from revolve.geometry.segments import Segment
 
 
 def point_to_frame(p, axis: Axis, side: float):
@@ -34,22 +32,14 @@ def point_to_frame(p, axis: Axis, side: float):
 
 
 def to_frame(segment: Segment, axis: Axis, side: float) -> Segment:
-    """The same segment with sketch coordinates replaced by axis-frame coordinates."""
-    if isinstance(segment, Line):
-        return replace(segment, start=point_to_frame(segment.start, axis, side),
-                       end=point_to_frame(segment.end, axis, side))
-    if isinstance(segment, Arc):
-        return replace(segment, start=point_to_frame(segment.start, axis, side),
-                       end=point_to_frame(segment.end, axis, side),
-                       centre=point_to_frame(segment.centre, axis, side),
-                       clockwise=segment.clockwise if side > 0 else not segment.clockwise)
-    if isinstance(segment, Curve):
-        ux, uy = axis.unit_direction()
-        px, py = float(axis.point[0]), float(axis.point[1])
-        if (ux, uy, px, py, side) == (1.0, 0.0, 0.0, 0.0, 1.0):
-            return segment
-        # z = u·(p - P), r = side·(u × (p - P)): a translation, then a rotation (and mirror).
-        # The curve keeps its base expressions; only its affine map changes.
-        return segment.translated(-px, -py).transformed(
-            (ux, uy, -side * uy, side * ux))
-    raise TypeError(f"unknown segment kind {type(segment).__name__}")
+    """The same segment with sketch coordinates replaced by axis-frame coordinates.
+
+    ``z = u·(p − P)`` and ``r = side·(u × (p − P))``: a translation, then a rotation
+    (and a mirror when ``side`` is −1), through the segment's own
+    :meth:`~revolve.geometry.kinds.base.SegmentKind.transformed`, whatever its kind.
+    """
+    ux, uy = axis.unit_direction()
+    px, py = float(axis.point[0]), float(axis.point[1])
+    if (ux, uy, px, py, side) == (1.0, 0.0, 0.0, 0.0, 1.0):
+        return segment
+    return segment.translated(-px, -py).transformed((ux, uy, -side * uy, side * ux))

@@ -72,7 +72,7 @@ import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, d_minus_sin,
-                                       split_arc, split_curve, section_loop_factors)
+                                       split_arc, split_curve)
 from revolve.geometry.integrals import _end_weights
 from revolve.geometry.segments import Arc, Curve, Line
 from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
@@ -213,7 +213,7 @@ def horizontal_pieces(prep: PreparedProfile,
     ((3, 5), [2], [[0, 2]], (1, 4), 1.0)
     """
     if loop_factors is None:
-        loop_factors = section_loop_factors(prep)
+        loop_factors = prep.loop_factors
     pairs = list(_loop_segments(prep, loop_factors))
     zs = [c for s, _ in pairs for c in (s.start[0], s.end[0])]
     z_ref = float((min(zs) + max(zs)) / 2) if zs else 0.0
@@ -546,7 +546,7 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         Depths of liquid measured from the lowest inside point (``r_max``
         below the axis), in the profile's unit; 0 is empty, ``2 r_max`` full.
     loop_factors : sequence of float, optional
-        As :func:`revolve.geometry.clipping.section_loop_factors` (worked out when not given).
+        As :attr:`revolve.geometry.checks.PreparedProfile.loop_factors` (worked out when not given).
     pieces : HorizontalPieces, optional
         Reuse the split of an earlier call.
     rel_tol : float

@@ -35,7 +35,7 @@ from typing import Dict, Optional, Tuple
 import numpy as np
 
 from revolve.errors import ProfileError
-from revolve.geometry.checks import PreparedProfile, prepare
+from revolve.geometry.checks import PreparedProfile, loop_factor, prepare
 from revolve.geometry.integrals import COL, segment_integrals
 from revolve.geometry.profile import UNNAMED_FACE, Revolution
 from revolve.geometry.slicing import surface_by_quadrature, washer_volume
@@ -72,7 +72,7 @@ class Section:
         return self.moments["M01"] / self.area if self.area else float("nan")
 
 
-def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
+def section(prep: PreparedProfile, symbolic: bool = False) -> Section:
     """Sum the segment integrals of a prepared profile into a :class:`Section`."""
     segs = [s for p in prep.paths for s in p]
     owner = np.concatenate([np.full(len(p), k) for k, p in enumerate(prep.paths)]) \
@@ -82,7 +82,7 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
     ends = np.array([c for s in segs for c in (s.start, s.end)], dtype=float).reshape(-1, 2)
     z_ref = float((ends[:, 0].min() + ends[:, 0].max()) / 2) if ends.size else 0.0
     r_ref = float((ends[:, 1].min() + ends[:, 1].max()) / 2) if ends.size else 0.0
-    shifted = [_shift(s, -z_ref, -r_ref) for s in segs]
+    shifted = [s.translated(-z_ref, -r_ref) for s in segs]
     res = segment_integrals(shifted, symbolic=symbolic)
     vals, errs = res.values, res.errors
     # Loop factors: solid loops count positive, holes negative, whatever their direction.
@@ -91,13 +91,8 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
     for k, (closed) in enumerate(prep.closed):
         if closed:
             loop_index[k] = len(factors)
-            a = float(vals[owner == k, COL["M00"]].sum())
-            if a == 0:
-                factors.append(0.0)
-            else:
-                sign = 1.0 if a > 0 else -1.0
-                depth = prep.depths[loop_index[k]]
-                factors.append(sign * (1.0 if depth % 2 == 0 else -1.0))
+            factors.append(loop_factor(float(vals[owner == k, COL["M00"]].sum()),
+                                       prep.depths[loop_index[k]]))
     seg_factor = np.array([factors[loop_index[k]] if prep.closed[k] else 0.0 for k in owner])
     m = {name: float((vals[:, COL[name]] * seg_factor).sum())
          for name in ("M00", "M10", "M01", "M20", "M11", "M02", "M03")}
@@ -131,25 +126,6 @@ def section(prep: PreparedProfile, symbolic: bool = True) -> Section:
                    boundary_r=float(vals[:, COL["length_y"]].sum()) / L if L else float("nan"),
                    face_length=faces, face_r_length=faces_r, loop_factors=tuple(factors),
                    error=err, methods=res.method)
-
-
-def _shift(seg, dz: float, dr: float = 0.0):
-    from dataclasses import replace
-    from revolve.geometry.segments import Arc, Curve, Line
-
-    if dz == 0 and dr == 0:
-        return seg
-
-    def mv(p):
-        return (p[0] + dz, p[1] + dr)
-
-    if isinstance(seg, Line):
-        return replace(seg, start=mv(seg.start), end=mv(seg.end))
-    if isinstance(seg, Arc):
-        return replace(seg, start=mv(seg.start), end=mv(seg.end), centre=mv(seg.centre))
-    if isinstance(seg, Curve):
-        return seg.translated(dz, dr)
-    raise TypeError(type(seg).__name__)
 
 
 @dataclass(frozen=True)
@@ -215,7 +191,7 @@ def _relative(a: float, b: float) -> float:
 
 
 def measure(revolution: Revolution, density: Optional[float] = None, *,
-            crosscheck: bool = True, symbolic: bool = True) -> Measurement:
+            crosscheck: bool = True, symbolic: bool = False) -> Measurement:
     """Measure a revolution: section, Pappus volume and surface, mass, cross-check."""
     axis = revolution.axis
     prep = prepare(revolution.profile, axis)

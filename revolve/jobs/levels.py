@@ -227,7 +227,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
     ...
     revolve.errors.ProfileError: cup.toml: chain 1: the chain ends at (1, 2), off the axis; for a level table a chain is the inside wall drawn from the axis round to the axis (or give the liquid space as a closed loop)
     """
-    from revolve.geometry.clipping import axial_pieces, section_loop_factors
+    from revolve.geometry.clipping import axial_pieces
     from revolve.geometry.horizontal import horizontal_pieces
     from revolve.geometry.measure import measure
 
@@ -245,7 +245,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
         raise ProfileError("the profile has no closed loop or chain to hold liquid")
     m = measure(Revolution(closed, axis, 360.0), symbolic=False)
     prep = prepare(closed, axis)
-    factors = section_loop_factors(prep)
+    factors = prep.loop_factors
     if orientation == "vertical":
         pieces = axial_pieces(prep, factors)
         bottom, top = pieces.z_min, pieces.z_max

@@ -61,6 +61,7 @@ from typing import Dict, Mapping, Optional, Sequence, Tuple
 import numpy as np
 
 from revolve.errors import ProfileError, RevolveError
+from revolve.geometry.checks import loop_factor
 
 #: Relative slack when comparing sizes and counting parts (a nanometre per metre):
 #: a bar that covers a diameter exactly is taken, an exact fit counts.
@@ -883,9 +884,8 @@ def _g(r, vc, n):
 
 def _chords(segments) -> Tuple[np.ndarray, np.ndarray]:
     """Start and end points of fine chords along frame segments (arcs to 0.25°)."""
-    from revolve.geometry.checks import flatten
 
-    pieces = [flatten(s, max_angle=math.pi / 720, curve_pieces=2048) for s in segments]
+    pieces = [s.flatten(max_angle=math.pi / 720, curve_pieces=2048) for s in segments]
     if not pieces:
         return np.zeros((0, 2)), np.zeros((0, 2))
     return (np.vstack([p[:-1] for p in pieces]), np.vstack([p[1:] for p in pieces]))
@@ -908,7 +908,7 @@ def _section_g_integral(prepared, vc: float, n: float, length_factor: float) -> 
         dz = b[:, 0] - a[:, 0]
         area = float(-(dz * (a[:, 1] + b[:, 1]) / 2.0).sum())
         integral = float(-(dz * _mean_over(a[:, 1], b[:, 1], _H, _G, vc, n)).sum())
-        sign = (1.0 if area > 0 else -1.0) * (1.0 if depth % 2 == 0 else -1.0)
+        sign = loop_factor(area, depth)
         total += sign * integral
     return total
 

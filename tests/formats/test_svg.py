@@ -323,9 +323,11 @@ def test_cubic_is_its_bernstein_polynomial_with_exact_area():
     # reference library: sympy, Green's theorem over the curve and the closing chord
     green = sympy.integrate(sympy.expand((bx * sympy.diff(by, T) - by * sympy.diff(bx, T)) / 2), (T, 0, 1))
     exact_area = float(abs(green))   # the chord from (40, 0) back to (0, 0) adds nothing
-    m = measure(Revolution(doc.profile, Axis((0.0, 5.0), (1.0, 0.0)), 360.0))
+    m = measure(Revolution(doc.profile, Axis((0.0, 5.0), (1.0, 0.0)), 360.0), symbolic=True)
     assert m.area == pytest.approx(exact_area, rel=1e-13)
     assert "symbolic" in m.section.methods[0] or "symbolic" in " ".join(m.section.methods)
+    plain = measure(Revolution(doc.profile, Axis((0.0, 5.0), (1.0, 0.0)), 360.0))
+    assert plain.area == pytest.approx(exact_area, rel=1e-13) and plain.section.methods[0] == "quadrature"
     # reference library: shapely, the sampled outline
     assert sample(doc.profile.loops[0].segments).area == pytest.approx(exact_area, rel=1e-6)
 

@@ -201,7 +201,7 @@ def test_symbolic_step_runs_in_any_thread_and_ends():
 
     def work():
         curve = _explicit("x^2 + 1", 0.0, 1.0)
-        out["m"] = measure(Revolution(Profile(loops=(_under_curve(curve, 0.0, 1.0),)), Axis.x()))
+        out["m"] = measure(Revolution(Profile(loops=(_under_curve(curve, 0.0, 1.0),)), Axis.x()), symbolic=True)
 
     th = threading.Thread(target=work)
     th.start()

@@ -21,7 +21,7 @@ from geometry_testkit import (PLACEMENT_IDS, PLACEMENTS, T, assert_rel, circle_l
                               polygon, reverse_loop)
 from revolve.geometry.checks import prepare
 from revolve.geometry.clipping import (CUT_FACE, clip_section, clipped_volume,
-                                       clipped_wetted_area, section_loop_factors,
+                                       clipped_wetted_area,
                                        vertical_levels)
 from revolve.geometry.profile import Loop, Profile
 from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, curve_from_expressions
@@ -190,7 +190,7 @@ def test_loop_factors_follow_direction_and_nesting():
     outer = polygon([(0, 1), (4, 1), (4, 5), (0, 5)])
     hole = polygon([(1, 2), (2, 2), (2, 3), (1, 3)])
     prep = prepare(Profile(loops=(reverse_loop(outer), hole)), PLACEMENTS[0].axis)
-    assert section_loop_factors(prep) == (-1.0, -1.0)
+    assert prep.loop_factors == (-1.0, -1.0)
 
 
 # -- properties ------------------------------------------------------------------------

@@ -141,10 +141,9 @@ def _scipy_reference(prep, depth):
     """∫ Σ ± S(r_i(z), y) dz by scipy quad, with radii from the engine's washer code."""
     from scipy.integrate import quad
 
-    from revolve.geometry.clipping import section_loop_factors
     from revolve.geometry.slicing import _radius_at, monotone_pieces
 
-    factors = section_loop_factors(prep)
+    factors = prep.loop_factors
     pieces = []
     k = 0
     for segs, closed in zip(prep.paths, prep.closed):

@@ -104,11 +104,10 @@ def test_envelope_counts_the_arc_crest_not_only_the_ends():
 
 def test_envelope_against_shapely_bounds_of_a_dense_polygon():
     shapely = pytest.importorskip("shapely")
-    from revolve.geometry.checks import flatten
 
     m, prep, f = figures(SHAFT)
     env = tu.envelope(prep)
-    pts = [tuple(p) for s in prep.paths[0] for p in flatten(s, max_angle=1e-4)[:-1]]
+    pts = [tuple(p) for s in prep.paths[0] for p in s.flatten(max_angle=1e-4)[:-1]]
     zmin, rmin, zmax, rmax = shapely.geometry.Polygon(pts).bounds    # shapely Polygon.bounds
     # A polygon inscribed in the arcs can only fall short of the exact crest, by at most the
     # sagitta of one chord, R (1 − cos(Δ/2)).

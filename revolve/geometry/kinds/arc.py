@@ -1,0 +1,421 @@
+"""Circular arcs.
+
+An arc's exact inputs say how it was given: :class:`ArcByRadius` (two ends, a
+radius, the side of the chord and whether it is the major arc) or
+:class:`ArcByCentre` (two ends, the centre and the direction of travel).
+
+Examples
+--------
+>>> arc = arc_from_radius((1.0, 0.0), (0.0, 1.0), radius=1.0, side="right")
+>>> round(arc.centre[0], 12), round(arc.centre[1], 12), arc.clockwise
+(0.0, 0.0, False)
+>>> round(arc.sweep(), 12) == round(math.pi / 2, 12)
+True
+"""
+
+from __future__ import annotations
+
+import math
+import sys
+from dataclasses import dataclass, field, replace
+from typing import Any, NamedTuple, Optional, Union
+
+from revolve.geometry.kinds.base import (FLAT_ARC_RATIO, IDENTITY_MATRIX, Point, SegmentKind, Where,
+                                         finite_point, map_point, segment_error)
+
+
+class ArcByRadius(NamedTuple):
+    """Exact inputs of an arc given by its ends and radius."""
+
+    how: str
+    start: Any
+    end: Any
+    radius: Any
+    side: str
+    major: bool
+
+
+class ArcByCentre(NamedTuple):
+    """Exact inputs of an arc given by its ends and centre."""
+
+    how: str
+    start: Any
+    end: Any
+    centre: Any
+    clockwise: bool
+
+
+ArcExact = Union[ArcByRadius, ArcByCentre]
+
+
+@dataclass(frozen=True)
+class Arc(SegmentKind):
+    """A circular arc from ``start`` to ``end`` about ``centre``.
+
+    ``clockwise`` gives the direction of travel; the sweep is always below one
+    full turn. Build arcs with :func:`arc_from_radius` or :func:`arc_from_centre`,
+    which check the inputs.
+
+    >>> a = arc_from_centre((2.0, 0.0), (-2.0, 0.0), centre=(0.0, 0.0), clockwise=False)
+    >>> round(a.length(), 12) == round(2 * math.pi, 12)
+    True
+    """
+
+    start: Point
+    end: Point
+    centre: Point
+    clockwise: bool
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[ArcExact] = field(default=None, compare=False, repr=False)
+
+    kind = "arc"
+
+    def __post_init__(self):
+        ex = self.exact
+        if ex is not None and not isinstance(ex, (ArcByRadius, ArcByCentre)):
+            object.__setattr__(self, "exact", (ArcByRadius if ex[0] == "radius" else ArcByCentre)(*ex))
+
+    @property
+    def radius(self) -> float:
+        return math.hypot(self.start[0] - self.centre[0], self.start[1] - self.centre[1])
+
+    def angles(self) -> tuple[float, float]:
+        """Start angle and end angle (radians); their difference is the signed sweep."""
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        return a0, a0 + self.sweep()
+
+    def sweep(self) -> float:
+        """Signed sweep in radians: positive counter-clockwise, never a full turn.
+
+        >>> arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, side="left").sweep() < 0
+        True
+        """
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        a1 = math.atan2(self.end[1] - self.centre[1], self.end[0] - self.centre[0])
+        d = a1 - a0
+        if self.clockwise:
+            while d >= 0:
+                d -= 2 * math.pi
+            while d < -2 * math.pi:
+                d += 2 * math.pi
+        else:
+            while d <= 0:
+                d += 2 * math.pi
+            while d > 2 * math.pi:
+                d -= 2 * math.pi
+        # The difference of two angles far from zero keeps only their absolute precision
+        # (about 1e-16 rad): for a flat arc (radius ≫ chord) take the sweep from the chord,
+        # 2 asin(chord / 2R), which keeps its relative precision.
+        R = self.radius
+        chord = math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+        if 0 < R and math.isfinite(R) and chord < 2 * R:
+            small = 2 * math.asin(chord / (2 * R))
+            if abs(d) < 1.0:
+                d = math.copysign(small, d)
+            elif abs(d) > 2 * math.pi - 1.0:
+                d = math.copysign(2 * math.pi - small, d)
+        return d
+
+    def length(self) -> float:
+        return self.radius * abs(self.sweep())
+
+    def reversed(self) -> "Arc":
+        """The arc travelled the other way, its exact inputs turned round too.
+
+        >>> a = arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, exact=("radius", (0, 0), (2, 0), 1, "left", False))
+        >>> a.reversed().exact.side, a.reversed().clockwise != a.clockwise
+        ('right', True)
+        """
+        ex = self.exact
+        if isinstance(ex, ArcByRadius):
+            ex = ex._replace(start=ex.end, end=ex.start, side="right" if ex.side == "left" else "left")
+        elif isinstance(ex, ArcByCentre):
+            ex = ex._replace(start=ex.end, end=ex.start, clockwise=not ex.clockwise)
+        return replace(self, start=self.end, end=self.start, clockwise=not self.clockwise, exact=ex)
+
+    # -- the segment protocol: the parameter is the fraction 0…1 of the sweep ---------------
+
+    def parameter_range(self):
+        return (0.0, 1.0)
+
+    def _special(self, a: float):
+        """The exact point at an angle that is a multiple of π/2 (within rounding), else None."""
+        k = round(a / (math.pi / 2))
+        if abs(a - k * math.pi / 2) > 8 * sys.float_info.epsilon * max(1.0, abs(a)):
+            return None
+        cx, cy = self.centre
+        R = self.radius
+        return [(cx + R, cy), (cx, cy + R), (cx - R, cy), (cx, cy - R)][k % 4]
+
+    def points_at(self, params):
+        import numpy as np
+
+        s = np.asarray(params, dtype=float).reshape(-1)
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        d = self.sweep()
+        a = a0 + s * d
+        R = self.radius
+        out = np.column_stack([self.centre[0] + R * np.cos(a), self.centre[1] + R * np.sin(a)])
+        for i, (si, ai) in enumerate(zip(s, a)):
+            if si == 0.0:
+                out[i] = self.start
+            elif si == 1.0:
+                out[i] = self.end
+            else:
+                p = self._special(float(ai))
+                if p is not None:
+                    out[i] = p
+        return out
+
+    def point_at(self, s: float) -> Point:
+        x, y = self.points_at([s])[0]
+        return (float(x), float(y))
+
+    def tangents_at(self, params):
+        import numpy as np
+
+        s = np.asarray(params, dtype=float).reshape(-1)
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        d = self.sweep()
+        a = a0 + s * d
+        R = self.radius
+        return np.column_stack([-R * d * np.sin(a), R * d * np.cos(a)])
+
+    def turning_parameters(self, coordinate: int):
+        """Fractions of the sweep where ``x`` (0: angles kπ) or ``y`` (1: π/2 + kπ) turns back.
+
+        >>> arc_from_centre((0.0, 1.0), (0.0, -1.0), (0.0, 0.0), clockwise=True).turning_parameters(0)
+        [0.5]
+        """
+        a0, a1 = self.angles()
+        d = a1 - a0
+        lo, hi = min(a0, a1), max(a0, a1)
+        base = 0.0 if coordinate == 0 else math.pi / 2
+        ks = range(math.ceil((lo - base) / math.pi), math.floor((hi - base) / math.pi) + 1)
+        out = sorted((base + k * math.pi - a0) / d for k in ks if lo < base + k * math.pi < hi)
+        return [s for s in out if 0.0 < s < 1.0]
+
+    def bounds(self):
+        """Exact box: the ends and the quadrant points inside the sweep.
+
+        >>> arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False).bounds()
+        (-1.0, 0.0, 1.0, 1.0)
+        """
+        pts = [self.start, self.end]
+        for c in (0, 1):
+            pts += [tuple(p) for p in self.points_at(self.turning_parameters(c))]
+        xs, ys = [p[0] for p in pts], [p[1] for p in pts]
+        return (float(min(xs)), float(min(ys)), float(max(xs)), float(max(ys)))
+
+    def parameters_at(self, coordinate: int, value: float):
+        """Fractions of the sweep where ``x`` (0) or ``y`` (1) equals ``value``.
+
+        >>> a = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [round(s, 12) for s in a.parameters_at(1, 0.5)]     # sin a = 1/2: 30° and 150°
+        [0.166666666667, 0.833333333333]
+        """
+        a0 = math.atan2(self.start[1] - self.centre[1], self.start[0] - self.centre[0])
+        d = self.sweep()
+        out = []
+        for lo, hi in self.monotone_ranges(coordinate):
+            pa, pb = self.points_at([lo, hi])
+            va, vb = float(pa[coordinate]), float(pb[coordinate])
+            if va == value:
+                s = lo
+            elif vb == value:
+                s = hi
+            elif (va < value) != (vb < value):
+                u = (value - self.centre[coordinate]) / self.radius
+                u = min(1.0, max(-1.0, u))
+                base = math.acos(u) if coordinate == 0 else math.asin(u)
+                cands = ([base, -base] if coordinate == 0 else [base, math.pi - base])
+                aa, ab = a0 + lo * d, a0 + hi * d
+                s = None
+                for c in cands:
+                    k = math.floor((min(aa, ab) - c) / (2 * math.pi))
+                    for j in (k, k + 1, k + 2):
+                        ang = c + 2 * math.pi * j
+                        if min(aa, ab) - 1e-12 <= ang <= max(aa, ab) + 1e-12:
+                            s = min(hi, max(lo, (ang - a0) / d))
+                            break
+                    if s is not None:
+                        break
+                if s is None:
+                    continue
+            else:
+                continue
+            if not out or out[-1] != s:
+                out.append(s)
+        return out
+
+    def split_at(self, params) -> tuple:
+        if not len(params):
+            return (self,)
+        pts = [self.start] + [self.point_at(s) for s in params] + [self.end]
+        return tuple(replace(self, start=p, end=q, exact=None) for p, q in zip(pts[:-1], pts[1:]))
+
+    def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0), exact=None):
+        a, b, c, d = matrix
+        mirror = a * d - b * c < 0
+        return replace(self, start=map_point(self.start, matrix, offset),
+                       end=map_point(self.end, matrix, offset),
+                       centre=map_point(self.centre, matrix, offset),
+                       clockwise=(not self.clockwise) if mirror else self.clockwise, exact=None)
+
+    def translated(self, dx: float, dy: float = 0.0):
+        if dx == 0 and dy == 0:
+            return self
+
+        def mv(p):
+            return (p[0] + dx, p[1] + dy)
+        return replace(self, start=mv(self.start), end=mv(self.end), centre=mv(self.centre),
+                       exact=None)
+
+    def is_flat(self) -> bool:
+        """Is the arc so flat (radius beyond FLAT_ARC_RATIO × chord, or not finite) it is a line?
+
+        >>> arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e200).is_flat()
+        True
+        >>> arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e3).is_flat()
+        False
+        """
+        chord = math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+        R = self.radius
+        return not (math.isfinite(R) and math.isfinite(self.centre[0])
+                    and math.isfinite(self.centre[1]) and R <= FLAT_ARC_RATIO * chord)
+
+    def straightened(self):
+        """A flat arc (see :meth:`is_flat`) as the line of its chord; else the arc.
+
+        >>> arc_from_radius((0.0, 0.0), (1.0, 0.0), radius=1e12, face="top").straightened()
+        Line(start=(0.0, 0.0), end=(1.0, 0.0), face='top')
+        """
+        if self.is_flat():
+            from revolve.geometry.kinds.line import Line
+            return Line(self.start, self.end, face=self.face, where=self.where)
+        return self
+
+    def snapped(self, tiny: float):
+        def snap(p):
+            return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])
+        a, b, c = snap(self.start), snap(self.end), snap(self.centre)
+        if (a, b, c) == (self.start, self.end, self.centre):
+            return self
+        return replace(self, start=a, end=b, centre=c)
+
+    def flatten(self, max_angle: float = math.pi / 36, curve_pieces: int = 64):
+        """Points every ``max_angle`` at most, the ends exact.
+
+        >>> len(arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False).flatten())
+        37
+        """
+        import numpy as np
+
+        if self.is_flat():
+            return np.array([self.start, self.end], dtype=float)
+        a0, a1 = self.angles()
+        m = max(2, int(math.ceil(abs(a1 - a0) / max_angle)))
+        a = np.linspace(a0, a1, m + 1)
+        pts = np.column_stack([self.centre[0] + self.radius * np.cos(a),
+                               self.centre[1] + self.radius * np.sin(a)])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    @classmethod
+    def integral_rows(cls, segments, symbolic: bool = False):
+        """Closed forms for every arc at once.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> v, e, how = Arc.integral_rows([half])
+        >>> round(float(v[0][0]), 12) == round(math.pi, 12), how
+        (True, ('closed form',))
+        """
+        import numpy as np
+
+        from revolve.geometry.integrals import arc_integrals, closed_form_errors
+
+        # The sweep itself, not the difference of the two angles (which loses its digits
+        # on a flat arc).
+        par = np.array([(a.centre[0], a.centre[1], a.radius, a.angles()[0], a.sweep())
+                        for a in segments], dtype=float).reshape(-1, 5)
+        ends = np.array([a.start + a.end for a in segments], dtype=float).reshape(-1, 4)
+        values = arc_integrals(par[:, 0], par[:, 1], par[:, 2], par[:, 3], par[:, 4],
+                               ends[:, :2], ends[:, 2:])
+        return values, closed_form_errors(values), ("closed form",) * len(segments)
+
+
+def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
+                    major: bool = False, face: Optional[str] = None,
+                    where: Optional[Where] = None, exact: Optional[tuple] = None) -> "Arc":
+    """An arc through two points with a given radius.
+
+    ``side`` says on which side of the chord, looking from ``start`` to
+    ``end``, the arc lies ("left" or "right"). ``major=True`` takes the arc
+    longer than a half circle. A radius shorter than half the chord is refused.
+
+    >>> a = arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, side="right")
+    >>> [round(v, 12) for v in a.centre], a.clockwise
+    ([1.0, 0.0], False)
+    >>> arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=0.9)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc radius 0.9 is shorter than half the chord (1); make the radius at least 1
+    """
+    start = finite_point(start, "arc start", where)
+    end = finite_point(end, "arc end", where)
+    try:
+        radius = float(radius)
+    except (TypeError, ValueError):
+        raise segment_error(f"arc radius must be a number, got {radius!r}", where)
+    if not math.isfinite(radius) or radius <= 0:
+        raise segment_error(f"arc radius must be a positive finite number, got {radius}", where)
+    if side not in ("left", "right"):
+        raise segment_error(f"arc side must be 'left' or 'right', got {side!r}", where)
+    dx, dy = end[0] - start[0], end[1] - start[1]
+    chord = math.hypot(dx, dy)
+    if chord == 0:
+        raise segment_error("arc start and end are the same point; an arc needs two distinct ends", where)
+    half = chord / 2
+    if radius < half * (1 - 1e-12):
+        raise segment_error(f"arc radius {radius:g} is shorter than half the chord ({half:g}); "
+                     f"make the radius at least {half:g}", where)
+    h = math.sqrt(max(radius * radius - half * half, 0.0))
+    mx, my = (start[0] + end[0]) / 2, (start[1] + end[1]) / 2
+    lx, ly = -dy / chord, dx / chord  # unit normal pointing left of the chord
+    # A minor arc lying on the left has its centre on the right, and vice versa.
+    sign = -1.0 if side == "left" else 1.0
+    if major:
+        sign = -sign
+    centre = (mx + sign * h * lx, my + sign * h * ly)
+    # Arc on the left of the chord is travelled clockwise (bowing up then down).
+    clockwise = side == "left"
+    return Arc(start, end, centre, clockwise, face=face, where=where, exact=exact)
+
+
+def arc_from_centre(start: Point, end: Point, centre: Point, clockwise: bool,
+                    face: Optional[str] = None, where: Optional[Where] = None,
+                    tolerance: float = 1e-9, exact: Optional[tuple] = None) -> "Arc":
+    """An arc about a given centre; start and end must be equally far from it.
+
+    >>> arc_from_centre((1.0, 0.0), (0.0, 2.0), (0.0, 0.0), clockwise=False)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc start is 1 from the centre but the end is 2; they must be equal
+    """
+    start = finite_point(start, "arc start", where)
+    end = finite_point(end, "arc end", where)
+    centre = finite_point(centre, "arc centre", where)
+    r0 = math.hypot(start[0] - centre[0], start[1] - centre[1])
+    r1 = math.hypot(end[0] - centre[0], end[1] - centre[1])
+    if r0 == 0:
+        raise segment_error("arc centre coincides with its start point", where)
+    if abs(r0 - r1) > tolerance * max(r0, r1):
+        raise segment_error(f"arc start is {r0:g} from the centre but the end is {r1:g}; "
+                     "they must be equal", where)
+    if start == end:
+        raise segment_error("arc start and end are the same point; split a full circle into two arcs",
+                     where)
+    return Arc(start, end, centre, bool(clockwise), face=face, where=where, exact=exact)
+
+

@@ -1,0 +1,651 @@
+"""Curves given by expressions ``x(t)``, ``y(t)`` (or ``y = f(x)``).
+
+The expressions come from the whitelist parser (:mod:`revolve.expr`), never
+from ``eval``. A curve keeps its base expressions and an affine map
+(:class:`CurveMap`), so moving, mirroring or reversing it compiles nothing again.
+
+Examples
+--------
+>>> import sympy
+>>> t = sympy.Symbol("t", real=True)
+>>> c = curve_from_expressions(t, t ** 2, 0, 2)
+>>> c.end, c.turning_parameters(1)
+((2.0, 4.0), [])
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from functools import cached_property, lru_cache
+from typing import Any, Callable, NamedTuple, Optional, Tuple
+
+from revolve.geometry.kinds.base import (COORDINATE_LIMIT, IDENTITY_MATRIX, Point, SegmentKind, Where,
+                                         segment_error)
+
+
+class CurveExact(NamedTuple):
+    """The exact ends of a curve's parameter interval."""
+
+    t_start: Any
+    t_end: Any
+
+
+def _numeric_function(t, expression) -> Callable:
+    """A numpy function of ``t`` for a whitelisted expression, leaving no line-cache entry.
+
+    ``sympy.lambdify`` stores its generated source in the global
+    :data:`linecache.cache` and deletes it again when the function is garbage
+    collected. A collection during ``linecache.checkcache`` (run by doctest
+    and traceback) then removes a key the loop is about to read: ``KeyError:
+    '<lambdifygenerated-N>'``, depending on what ran before. Dropping the entry
+    at once leaves nothing that can vanish later.
+
+    >>> import linecache, sympy
+    >>> f = _numeric_function(sympy.Symbol("t"), sympy.Symbol("t") ** 2)
+    >>> float(f(3.0)), f.__code__.co_filename in linecache.cache
+    (9.0, False)
+    """
+    import linecache
+
+    import sympy
+
+    function = sympy.lambdify(t, expression, modules="numpy")
+    linecache.cache.pop(function.__code__.co_filename, None)
+    return function
+
+
+_NUMPY_FUNCTIONS = {"sin": "sin", "cos": "cos", "tan": "tan", "asin": "arcsin", "acos": "arccos",
+                    "atan": "arctan", "sinh": "sinh", "cosh": "cosh", "tanh": "tanh", "exp": "exp",
+                    "log": "log", "Abs": "abs", "sign": "sign", "atan2": "arctan2"}
+
+
+def _tree_function(t, expression) -> Optional[Callable]:
+    """A numpy function of ``t`` built by walking the expression tree, or None.
+
+    Covers what the whitelist parser (:mod:`revolve.expr`) produces and what
+    ``sympy.diff`` makes of it: numbers and constants, sums, products and
+    quotients, powers, and the parser's functions (with ``sign`` from ``|x|'``).
+    Anything else returns None and the caller uses ``sympy.lambdify``. Building
+    takes tens of microseconds where ``lambdify`` takes milliseconds (and its
+    first call imports sympy's code printers); the operations are the same
+    numpy calls that ``lambdify`` writes, so the values agree to rounding.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> f = _tree_function(t, 2 * sympy.sin(t) / (1 + t ** 2) - sympy.sqrt(t))
+    >>> round(float(f(1.0)), 15) == round(2 * math.sin(1.0) / 2 - 1.0, 15)
+    True
+    >>> _tree_function(t, sympy.gamma(t)) is None
+    True
+    """
+    import numpy as np
+    import sympy
+
+    def build(e):
+        if e == t:
+            return lambda u: u
+        if not e.free_symbols:
+            try:
+                v = float(e)
+            except (TypeError, ValueError):
+                return None
+            return lambda u: v
+        if e.is_Symbol:
+            return None
+        if e.is_Add:
+            parts = [build(a) for a in e.args]
+            if any(p is None for p in parts):
+                return None
+            first, rest = parts[0], parts[1:]
+
+            def add(u):
+                out = first(u)
+                for p in rest:
+                    out = out + p(u)
+                return out
+            return add
+        if e.is_Mul:
+            num, den = [], []
+            for a in e.args:
+                if a.is_Pow and a.exp.is_Number and a.exp.is_negative:
+                    den.append(a.base if a.exp == -1 else sympy.Pow(a.base, -a.exp,
+                                                                   evaluate=False))
+                else:
+                    num.append(a)
+            nums = [build(a) for a in num]
+            dens = [build(a) for a in den]
+            if any(p is None for p in nums + dens):
+                return None
+
+            def product(fs, u):
+                out = fs[0](u)
+                for f in fs[1:]:
+                    out = out * f(u)
+                return out
+
+            if not dens:
+                return lambda u: product(nums, u)
+            if not nums:
+                return lambda u: 1.0 / product(dens, u)
+            return lambda u: product(nums, u) / product(dens, u)
+        if e.is_Pow:
+            base = build(e.base)
+            if base is None:
+                return None
+            n = e.exp
+            if n == sympy.Rational(1, 2):
+                return lambda u: np.sqrt(base(u))
+            if n == sympy.Rational(-1, 2):
+                return lambda u: 1.0 / np.sqrt(base(u))
+            if n == -1:
+                return lambda u: 1.0 / base(u)
+            if n.is_Integer:
+                k = int(n)
+                return lambda u: base(u) ** k
+            expo = build(n)
+            if expo is None:
+                return None
+            return lambda u: np.power(base(u), expo(u))
+        name = getattr(e.func, "__name__", "")
+        if e.is_Function and name in _NUMPY_FUNCTIONS:
+            f = getattr(np, _NUMPY_FUNCTIONS[name])
+            args = [build(a) for a in e.args]
+            if any(a is None for a in args):
+                return None
+            if len(args) == 1:
+                a0 = args[0]
+                return lambda u: f(a0(u))
+            return lambda u: f(*(a(u) for a in args))
+        return None
+
+    try:
+        return build(sympy.sympify(expression, strict=True))
+    except RecursionError:   # pragma: no cover - the parser bounds nesting
+        return None
+
+
+@lru_cache(maxsize=256)
+def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callable]:
+    """Numeric functions ``(x, y, dx/dt, dy/dt)`` of a curve's base expressions, compiled once.
+
+    The cache is keyed by the expressions themselves (sympy expressions compare
+    and hash by structure), so every transformed, reversed or split copy of a
+    curve shares one compilation. ``compiled_curve.cache_info().misses`` counts
+    the compilations.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> f = compiled_curve(t ** 2, 3 * t)
+    >>> [float(g([2.0])[0]) for g in f]
+    [4.0, 6.0, 4.0, 3.0]
+    >>> compiled_curve(t ** 2, 3 * t) is f
+    True
+    """
+    import numpy as np
+    import sympy
+
+    t = sympy.Symbol("t", real=True)
+    fx = [_tree_function(t, e) or _numeric_function(t, e)
+          for e in (x_expr, y_expr, sympy.diff(x_expr, t), sympy.diff(y_expr, t))]
+
+    def vectorised(f):
+        def g(tt):
+            tt = np.asarray(tt, dtype=float)
+            return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
+        return g
+
+    return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+
+
+def _sym_number(v: float):
+    """A float as a sympy number: an Integer when whole, else a 17-digit Float (round-trips)."""
+    import sympy
+    v = float(v)
+    return sympy.Integer(int(v)) if v.is_integer() else sympy.Float(v, 17)
+
+
+def _combine(a: float, u, b: float, w, c: float = 0.0):
+    """``a·u + b·w + c`` for arrays, skipping zero terms and unit factors.
+
+    Skipping keeps a term that the map drops from reaching the result (``0 × inf``
+    would be nan) and keeps translations and swaps exact to the last bit.
+    """
+    out = None
+    for k, arr in ((a, u), (b, w)):
+        if k == 0:
+            continue
+        term = arr if k == 1 else (-arr if k == -1 else k * arr)
+        out = term if out is None else out + term
+    if out is None:
+        import numpy as np
+        out = np.zeros_like(u)
+    return out + c if c != 0 else out
+
+
+@dataclass(frozen=True)
+class CurveMap:
+    """An affine map of a curve: ``(x, y) = M·(X(u), Y(u)) + v`` with ``u = p·t + q``.
+
+    ``X``, ``Y`` are the base expressions in ``u``; ``M`` is ``matrix`` (row
+    major ``m00, m01, m10, m11``), ``v`` the ``offset``; ``p``, ``q`` reparametrise.
+    All are plain floats; ``exact`` optionally holds the same eight numbers as
+    sympy numbers (for example ``pi/2``) when they are known exactly, used only
+    when the mapped expressions are built symbolically.
+
+    >>> m = CurveMap(offset=(2.0, 0.0)).then(CurveMap(matrix=(0.0, 1.0, 1.0, 0.0)))
+    >>> m.matrix, m.offset
+    ((0.0, 1.0, 1.0, 0.0), (0.0, 2.0))
+    >>> CurveMap().is_identity
+    True
+    """
+
+    matrix: Tuple[float, float, float, float] = (1.0, 0.0, 0.0, 1.0)
+    offset: Tuple[float, float] = (0.0, 0.0)
+    p: float = 1.0
+    q: float = 0.0
+    exact: Optional[tuple] = field(default=None, compare=False)
+
+    @property
+    def is_identity(self) -> bool:
+        return (self.matrix == (1.0, 0.0, 0.0, 1.0) and self.offset == (0.0, 0.0)
+                and self.p == 1.0 and self.q == 0.0)
+
+    def numbers(self) -> tuple:
+        """The eight entries as sympy numbers: exact ones if known, else from the floats."""
+        if self.exact is not None:
+            return self.exact
+        return tuple(_sym_number(v) for v in (*self.matrix, *self.offset, self.p, self.q))
+
+    def _all_whole(self) -> bool:
+        return all(float(v).is_integer() for v in (*self.matrix, *self.offset, self.p, self.q))
+
+    def then(self, other: "CurveMap") -> "CurveMap":
+        """This map followed by ``other`` (``other``'s parameter map applies first to ``t``).
+
+        >>> CurveMap(p=-1.0, q=3.0).then(CurveMap(p=-1.0, q=3.0)).is_identity
+        True
+        """
+        a00, a01, a10, a11 = self.matrix
+        b00, b01, b10, b11 = other.matrix
+        matrix = (b00 * a00 + b01 * a10, b00 * a01 + b01 * a11,
+                  b10 * a00 + b11 * a10, b10 * a01 + b11 * a11)
+        matrix = tuple(v + 0.0 for v in matrix)  # no negative zeros
+        ox, oy = self.offset
+        offset = (float(b00 * ox + b01 * oy + other.offset[0]) + 0.0,
+                  float(b10 * ox + b11 * oy + other.offset[1]) + 0.0)
+        # t -> u' = p' t + q' (other), then u = p u' + q (self).
+        p = self.p * other.p
+        q = self.p * other.q + self.q
+        exact = None
+        if (self.exact is not None or self._all_whole()) and \
+                (other.exact is not None or other._all_whole()):
+            A, B = self.numbers(), other.numbers()
+            exact = (B[0] * A[0] + B[1] * A[2], B[0] * A[1] + B[1] * A[3],
+                     B[2] * A[0] + B[3] * A[2], B[2] * A[1] + B[3] * A[3],
+                     B[0] * A[4] + B[1] * A[5] + B[4], B[2] * A[4] + B[3] * A[5] + B[5],
+                     A[6] * B[6], A[6] * B[7] + A[7])
+        return CurveMap(matrix, offset, p + 0.0, q + 0.0, exact)
+
+
+IDENTITY = CurveMap()
+
+
+@dataclass(frozen=True)
+class Curve(SegmentKind):
+    """A curve given by expressions ``x(t)``, ``y(t)`` for ``t`` from ``t_start`` to ``t_end``.
+
+    ``base_x`` and ``base_y`` are sympy expressions in the symbol ``t`` that
+    came from the whitelist parser (:mod:`revolve.expr`), never from ``eval``.
+    An explicit curve ``y = f(x)`` is the parametric curve ``(t, f(t))``.
+    ``affine`` maps the base curve into place (a :class:`CurveMap`): moving,
+    mirroring or reversing a curve composes the map and keeps the base
+    expressions, so their numeric functions are compiled once for all copies
+    (:func:`compiled_curve`). ``x_expr`` and ``y_expr`` are the mapped
+    expressions, built only when something reads them symbolically.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = Curve(t, t ** 2, 0.0, 1.0).transformed(offset=(5.0, 0.0)).reversed()
+    >>> c.x_expr, c.y_expr
+    (6 - t, (1 - t)**2)
+    >>> [float(v[0]) for v in c.evaluate([0.25])]
+    [5.75, 0.5625, -1.0, -1.5]
+    """
+
+    base_x: Any
+    base_y: Any
+    t_start: float
+    t_end: float
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[CurveExact] = field(default=None, compare=False, repr=False)
+    affine: CurveMap = field(default=IDENTITY, repr=False)
+    #: ``(base_x, base_y, functions)`` once evaluated; ``dataclasses.replace`` carries it to
+    #: copies (moved, reversed, split), so they neither compile nor look up the cache again,
+    #: and a profile with more curves than the cache holds never compiles a curve twice.
+    _compiled: Optional[tuple] = field(default=None, compare=False, repr=False)
+
+    kind = "curve"
+
+    def __post_init__(self):
+        if self.exact is not None and not isinstance(self.exact, CurveExact):
+            object.__setattr__(self, "exact", CurveExact(*self.exact))
+
+    def _functions(self):
+        c = self._compiled
+        if c is None or c[0] is not self.base_x or c[1] is not self.base_y:
+            c = (self.base_x, self.base_y, compiled_curve(self.base_x, self.base_y))
+            object.__setattr__(self, "_compiled", c)
+        return c[2]
+
+    @cached_property
+    def _mapped(self) -> tuple:
+        import sympy
+
+        if self.affine.is_identity:
+            return self.base_x, self.base_y
+        t = sympy.Symbol("t", real=True)
+        m00, m01, m10, m11, v0, v1, p, q = self.affine.numbers()
+        X, Y = sympy.sympify(self.base_x, strict=True), sympy.sympify(self.base_y, strict=True)
+        if (self.affine.p, self.affine.q) != (1.0, 0.0):
+            sub = {s: p * t + q for s in (X.free_symbols | Y.free_symbols) if s.name == "t"}
+            X, Y = X.subs(sub), Y.subs(sub)
+        return m00 * X + m01 * Y + v0, m10 * X + m11 * Y + v1
+
+    @property
+    def x_expr(self):
+        """The mapped expression of ``x`` in ``t`` (built on first use)."""
+        return self._mapped[0]
+
+    @property
+    def y_expr(self):
+        """The mapped expression of ``y`` in ``t`` (built on first use)."""
+        return self._mapped[1]
+
+    def evaluate(self, t):
+        """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
+        import numpy as np
+
+        fx, fy, dfx, dfy = self._functions()
+        m = self.affine
+        with np.errstate(all="ignore"):
+            if m.p == 1.0 and m.q == 0.0:
+                u = t
+            else:
+                t = np.asarray(t, dtype=float)
+                u = m.q - t if m.p == -1.0 else m.p * t + m.q
+            X, Y, dX, dY = fx(u), fy(u), dfx(u), dfy(u)
+            if m is IDENTITY:
+                return X, Y, dX, dY
+            if m.p != 1.0:
+                dX, dY = (-dX, -dY) if m.p == -1.0 else (m.p * dX, m.p * dY)
+            a, b, c, d = m.matrix
+            return (_combine(a, X, b, Y, m.offset[0]), _combine(c, X, d, Y, m.offset[1]),
+                    _combine(a, dX, b, dY), _combine(c, dX, d, dY))
+
+    def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0),
+                    exact: Optional[tuple] = None) -> "Curve":
+        """The curve mapped by ``(x, y) -> M·(x, y) + offset`` (no recompilation).
+
+        ``exact`` may give the six numbers (matrix then offset) as sympy numbers.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).transformed((0.0, 1.0, 1.0, 0.0)).x_expr
+        t**2
+        """
+        matrix = tuple(float(v) for v in matrix)
+        offset = tuple(float(v) for v in offset)
+        full = None if exact is None else tuple(exact) + (1, 0)
+        if full is not None:
+            import sympy
+            full = tuple(sympy.sympify(v, strict=True) for v in full)
+        step = CurveMap(matrix, offset, exact=full)  # type: ignore[arg-type]
+        return replace(self, affine=self.affine.then(step))
+
+    def translated(self, dx: float, dy: float = 0.0) -> "Curve":
+        """The curve moved by ``(dx, dy)``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t, 0.0, 1.0).translated(0.5).x_expr
+        t + 0.5
+        """
+        if dx == 0 and dy == 0:
+            return self
+        return self.transformed(offset=(dx, dy))
+
+    @property
+    def start(self) -> Point:
+        x, y, _, _ = self.evaluate([self.t_start])
+        return (float(x[0]), float(y[0]))
+
+    @property
+    def end(self) -> Point:
+        x, y, _, _ = self.evaluate([self.t_end])
+        return (float(x[0]), float(y[0]))
+
+    def length(self) -> float:
+        from revolve.geometry.integrals import curve_length
+        return curve_length(self)
+
+    def point_at(self, s: float) -> Point:
+        t = self.t_start + s * (self.t_end - self.t_start)
+        x, y, _, _ = self.evaluate([t])
+        return (float(x[0]), float(y[0]))
+
+    def turning_parameters(self, coordinate: int = 0, samples: int = 1025) -> list[float]:
+        """Parameters inside the interval where ``x`` (coordinate 0) or ``y`` (1) turns back.
+
+        The derivative is sampled at ``samples`` points; each sign change between
+        neighbouring non-zero samples is narrowed by bisection to the last bit, and a run
+        of exact zeros between a + and a - gives its middle sample. In the axis frame
+        ``x`` is the position along the axis and ``y`` the radius, so splitting a curve
+        at these parameters gives pieces along which that coordinate moves one way only
+        (used by washers, clipping, horizontal levels and coating groups alike).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, (t - 1) ** 2, 0.0, 3.0).turning_parameters(1)   # y = (t-1)² turns at t = 1
+        [1.0]
+        >>> Curve(t, t, 0.0, 1.0).turning_parameters(0)               # monotone: none
+        []
+        """
+        import numpy as np
+
+        which = 2 + coordinate
+        t = np.linspace(self.t_start, self.t_end, samples)
+        with np.errstate(all="ignore"):
+            d = self.evaluate(t)[which]
+        d = np.nan_to_num(np.asarray(d, dtype=float) * np.ones_like(t), nan=0.0, posinf=0.0,
+                          neginf=0.0)
+        nonzero = np.flatnonzero(d != 0)
+        signs = np.sign(d[nonzero])
+        out = []
+        for k in np.flatnonzero(signs[:-1] * signs[1:] < 0):
+            i, j = nonzero[k], nonzero[k + 1]
+            if j > i + 1:            # exact zeros between: the turning point is the middle one
+                out.append(float(t[(i + j) // 2]))
+                continue
+            a, b = float(t[i]), float(t[j])
+            fa = float(self.evaluate(np.array([a]))[which][0])
+            for _ in range(200):
+                m = 0.5 * (a + b)
+                if m == a or m == b:
+                    break
+                fm = float(self.evaluate(np.array([m]))[which][0])
+                if (fm > 0) == (fa > 0):
+                    a, fa = m, fm
+                else:
+                    b = m
+            out.append(0.5 * (a + b))
+        return out
+
+    def reversed(self) -> "Curve":
+        # t -> t_start + t_end - t keeps the same parameter interval.
+        step = CurveMap(p=-1.0, q=self.t_start + self.t_end)
+        return replace(self, affine=self.affine.then(step), exact=None)
+
+    # -- the segment protocol: the parameter is t -------------------------------------
+
+    def parameter_range(self):
+        return (self.t_start, self.t_end)
+
+    def points_at(self, params):
+        import numpy as np
+
+        x, y, _, _ = self.evaluate(np.asarray(params, dtype=float).reshape(-1))
+        return np.column_stack([x, y])
+
+    def tangents_at(self, params):
+        import numpy as np
+
+        _, _, dx, dy = self.evaluate(np.asarray(params, dtype=float).reshape(-1))
+        return np.column_stack([dx, dy])
+
+    def split_at(self, params) -> tuple:
+        """Pieces between parameters ``params`` (values of ``t``), in order.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> [(p.t_start, p.t_end) for p in Curve(t, t, 0.0, 2.0).split_at([0.5, 1.0])]
+        [(0.0, 0.5), (0.5, 1.0), (1.0, 2.0)]
+        """
+        if not len(params):
+            return (self,)
+        ts = [self.t_start] + [float(p) for p in params] + [self.t_end]
+        return tuple(replace(self, t_start=a, t_end=b, exact=None) for a, b in zip(ts[:-1], ts[1:]))
+
+    def flatten(self, max_angle: float = math.pi / 36, curve_pieces: int = 64):
+        """``curve_pieces`` equal steps of ``t``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).flatten(curve_pieces=2).tolist()
+        [[0.0, 0.0], [0.5, 0.25], [1.0, 1.0]]
+        """
+        import numpy as np
+
+        return self.points_at(np.linspace(self.t_start, self.t_end, curve_pieces + 1))
+
+    def chord_count(self) -> int:
+        return 64
+
+    @classmethod
+    def integral_rows(cls, segments, symbolic: bool = False):
+        """Quadrature with an error estimate; with ``symbolic``, closed forms where sympy finds them."""
+        import numpy as np
+
+        from revolve.geometry.integrals import COLUMNS, curve_integrals
+
+        values = np.zeros((len(segments), len(COLUMNS)))
+        errors = np.zeros_like(values)
+        methods = []
+        for i, seg in enumerate(segments):
+            values[i], errors[i], how = curve_integrals(seg, symbolic=symbolic)
+            methods.append(how)
+        return values, errors, tuple(methods)
+
+    def split(self, s: float = 0.5) -> tuple["Curve", "Curve"]:
+        tm = self.t_start + s * (self.t_end - self.t_start)
+        return replace(self, t_end=tm, exact=None), replace(self, t_start=tm, exact=None)
+
+
+
+
+def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,
+                           exact=None) -> Curve:
+    """Build a parametric curve, checking the interval and that it evaluates finitely.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = curve_from_expressions(t, 2 * t, 0, 1)
+    >>> [round(v, 12) for v in c.end]
+    [1.0, 2.0]
+    >>> curve_from_expressions(t, 1 / t, 0, 1)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: the curve is not finite at t = 0; keep the interval where it is defined
+    """
+    import numpy as np
+
+    try:
+        t0, t1 = float(t_start), float(t_end)
+    except (TypeError, ValueError):
+        raise segment_error("the curve's interval must be two numbers", where)
+    if not (math.isfinite(t0) and math.isfinite(t1)):
+        raise segment_error("the curve's interval must be finite", where)
+    if t0 == t1:
+        raise segment_error("the curve's interval is empty (start equals end)", where)
+    c = Curve(x_expr, y_expr, t0, t1, face=face, where=where, exact=exact)
+    tt = np.linspace(t0, t1, 257)
+    with np.errstate(all="ignore"):
+        try:
+            vals = c.evaluate(tt)
+        except Exception as exc:  # a compiled expression failing is the input's fault
+            raise segment_error(f"the curve cannot be evaluated ({exc})", where)
+    for k, arr in enumerate(vals):
+        bad = ~np.isfinite(arr)
+        if k >= 2:
+            # A derivative may be infinite at an end (a vertical tangent): the integrals
+            # stay finite and the quadrature maps such ends smoothly.
+            bad[[0, -1]] = False
+        if bad.any():
+            raise segment_error(f"the curve is not finite at t = {tt[np.argmax(bad)]:g}; "
+                         "keep the interval where it is defined", where)
+    pole = find_pole(c)
+    if pole is not None:
+        raise segment_error(f"the curve is not finite near t = {pole:.6g} (it grows beyond "
+                     f"±{COORDINATE_LIMIT:g} there); keep the interval where it is defined", where)
+    return c
+
+
+def find_pole(curve: Curve, samples: int = 257, zooms: int = 60, points: int = 33):
+    """Parameter near which a curve's coordinates grow without bound, or None.
+
+    The curve is sampled; around every sample where ``|x|`` or ``|y|`` is a local
+    maximum (the few largest), the neighbourhood is sampled again more finely,
+    following the growth, until the interval reaches the resolution of the
+    parameter. A pole shows as values beyond :data:`COORDINATE_LIMIT` (or not
+    finite); a bounded curve settles on a finite maximum. The work is bounded:
+    at most ``8 × zooms × points`` evaluations after the first samples.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> round(find_pole(Curve(t, 2 + sympy.tan(t), 0.0, 4.0)), 6)        # π/2
+    1.570796
+    >>> find_pole(Curve(t, sympy.exp(10 * t), 0.0, 2.0)) is None         # steep, but bounded
+    True
+    >>> find_pole(Curve(t, 2 + abs(sympy.sin(1000 * t)), 0.0, 10.0)) is None
+    True
+    """
+    import numpy as np
+
+    t0, t1 = sorted((float(curve.t_start), float(curve.t_end)))
+    tt = np.linspace(t0, t1, samples)
+
+    def size(t):
+        x, y, _, _ = curve.evaluate(t)
+        with np.errstate(all="ignore"):
+            m = np.maximum(np.abs(x), np.abs(y))
+        return np.where(np.isfinite(m), m, np.inf)
+
+    m = size(tt)
+    if not np.all(m <= COORDINATE_LIMIT):
+        return float(tt[np.argmax(~(m <= COORDINATE_LIMIT))])
+    peaks = np.flatnonzero((m >= np.roll(m, 1)) & (m >= np.roll(m, -1)))
+    peaks = peaks[np.argsort(-m[peaks], kind="stable")][:8]
+    for i in peaks:
+        a, b = tt[max(i - 1, 0)], tt[min(i + 1, samples - 1)]
+        for _ in range(zooms):
+            u = np.linspace(a, b, points)
+            mu = size(u)
+            j = int(np.argmax(mu))
+            if not mu[j] <= COORDINATE_LIMIT:
+                return float(u[j])
+            na, nb = u[max(j - 1, 0)], u[min(j + 1, points - 1)]
+            if not (a < na or nb < b) or nb - na <= 4 * np.spacing(max(abs(na), abs(nb))):
+                break
+            a, b = na, nb
+    return None

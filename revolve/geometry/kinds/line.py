@@ -1,0 +1,171 @@
+"""Straight lines.
+
+Examples
+--------
+>>> seg = Line((0.0, 1.0), (3.0, 1.0), face="bore")
+>>> seg.length(), seg.turning_parameters(0)
+(3.0, [])
+>>> Line((0.0, 0.0), (2.0, 4.0), exact=(0, 0, 2, 4)).reversed().exact
+LineExact(x0=2, y0=4, x1=0, y1=0)
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from typing import Any, NamedTuple, Optional, Sequence
+
+from revolve.geometry.kinds.base import IDENTITY_MATRIX, Point, SegmentKind, Where, map_point
+
+
+class LineExact(NamedTuple):
+    """The exact coordinates of a line's ends (fractions, decimals or sympy numbers)."""
+
+    x0: Any
+    y0: Any
+    x1: Any
+    y1: Any
+
+
+@dataclass(frozen=True)
+class Line(SegmentKind):
+    """A straight segment from ``start`` to ``end``; its parameter is the fraction 0…1.
+
+    >>> Line((0.0, 0.0), (3.0, 4.0)).length()
+    5.0
+    >>> Line((1.0, 1.0), (1.0, 1.0)).length()
+    0.0
+    """
+
+    start: Point
+    end: Point
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, compare=False, repr=False)
+    exact: Optional[LineExact] = field(default=None, compare=False, repr=False)
+
+    kind = "line"
+
+    def __post_init__(self):
+        if self.exact is not None and not isinstance(self.exact, LineExact):
+            object.__setattr__(self, "exact", LineExact(*self.exact))
+
+    def length(self) -> float:
+        return math.hypot(self.end[0] - self.start[0], self.end[1] - self.start[1])
+
+    def parameter_range(self):
+        return (0.0, 1.0)
+
+    def point_at(self, s: float) -> Point:
+        """Point at fraction ``s`` in [0, 1] of the way along.
+
+        >>> Line((0.0, 0.0), (2.0, 0.0)).point_at(0.25)
+        (0.5, 0.0)
+        """
+        if s == 0:
+            return self.start
+        if s == 1:
+            return self.end
+        return (self.start[0] + s * (self.end[0] - self.start[0]),
+                self.start[1] + s * (self.end[1] - self.start[1]))
+
+    def points_at(self, params):
+        import numpy as np
+
+        s = np.asarray(params, dtype=float).reshape(-1, 1)
+        a, b = np.array(self.start), np.array(self.end)
+        out = a + s * (b - a)
+        out[s[:, 0] == 1.0] = b
+        return out
+
+    def tangents_at(self, params):
+        import numpy as np
+
+        n = np.asarray(params, dtype=float).size
+        return np.tile([self.end[0] - self.start[0], self.end[1] - self.start[1]], (n, 1))
+
+    def turning_parameters(self, coordinate: int):
+        return []
+
+    def parameters_at(self, coordinate: int, value: float):
+        """Where ``x`` (0) or ``y`` (1) equals ``value``: at most one parameter.
+
+        >>> Line((0.0, 0.0), (4.0, 2.0)).parameters_at(1, 0.5)
+        [0.25]
+        >>> Line((0.0, 1.0), (4.0, 1.0)).parameters_at(1, 1.0)   # along the line: its start
+        [0.0]
+        """
+        a, b = self.start[coordinate], self.end[coordinate]
+        if a == value:
+            return [0.0]
+        if b == value:
+            return [1.0]
+        if (a < value) == (b < value):
+            return []
+        return [(value - a) / (b - a)]
+
+    def bounds(self):
+        (x0, y0), (x1, y1) = self.start, self.end
+        return (min(x0, x1), min(y0, y1), max(x0, x1), max(y0, y1))
+
+    def split_at(self, params: Sequence[float]) -> tuple:
+        pts = [self.start] + [self.point_at(s) for s in params] + [self.end]
+        if not params:
+            return (self,)
+        return tuple(replace(self, start=p, end=q, exact=None) for p, q in zip(pts[:-1], pts[1:]))
+
+    def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0), exact=None):
+        return replace(self, start=map_point(self.start, matrix, offset),
+                       end=map_point(self.end, matrix, offset), exact=None)
+
+    def translated(self, dx: float, dy: float = 0.0):
+        if dx == 0 and dy == 0:
+            return self
+        return replace(self, start=(self.start[0] + dx, self.start[1] + dy),
+                       end=(self.end[0] + dx, self.end[1] + dy), exact=None)
+
+    def reversed(self) -> "Line":
+        ex = self.exact
+        return replace(self, start=self.end, end=self.start,
+                       exact=None if ex is None else LineExact(ex.x1, ex.y1, ex.x0, ex.y0))
+
+    def flatten(self, max_angle: float = math.pi / 36, curve_pieces: int = 64):
+        """The two ends.
+
+        >>> Line((0.0, 0.0), (1.0, 1.0)).flatten().tolist()
+        [[0.0, 0.0], [1.0, 1.0]]
+        """
+        import numpy as np
+
+        return np.array([self.start, self.end], dtype=float)
+
+    def snapped(self, tiny: float):
+        """Ends with coordinates below ``tiny`` set to zero.
+
+        >>> Line((5e-324, 0.5625), (2.5, 0.5625)).snapped(1e-15)
+        Line(start=(0.0, 0.5625), end=(2.5, 0.5625), face=None)
+        """
+        a, b = _snap(self.start, tiny), _snap(self.end, tiny)
+        return self if (a, b) == (self.start, self.end) else replace(self, start=a, end=b)
+
+    def chord_count(self) -> int:
+        return 1
+
+    @classmethod
+    def integral_rows(cls, segments, symbolic: bool = False):
+        """Closed forms for every line at once.
+
+        >>> v, e, how = Line.integral_rows([Line((1.0, 0.0), (1.0, 2.0))])
+        >>> float(v[0][0]), how
+        (2.0, ('closed form',))
+        """
+        import numpy as np
+
+        from revolve.geometry.integrals import closed_form_errors, line_integrals
+
+        se = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        values = line_integrals(se[:, 0], se[:, 1], se[:, 2], se[:, 3])
+        return values, closed_form_errors(values), ("closed form",) * len(segments)
+
+
+def _snap(p: Point, tiny: float) -> Point:
+    return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

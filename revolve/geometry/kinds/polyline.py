@@ -1,0 +1,255 @@
+"""Polylines: many straight edges held as one array, with no Python object per vertex.
+
+A point list, a long drawing polyline or a scanned outline becomes one
+:class:`Polyline` whose vertices are an ``(n, 2)`` float array. Its parameter
+is the vertex index: ``0`` at the first vertex, ``n − 1`` at the last, and
+``i + f`` a fraction ``f`` of the way along edge ``i``. Every method works on
+the whole array at once, so a 10⁶-vertex outline costs a few passes over
+memory. Its integrals are the closed forms of lines, summed edge by edge.
+
+``lines`` may give the source line of each vertex (for error messages);
+``first_edge`` numbers its edges when the polyline is a piece of a longer path.
+
+Examples
+--------
+>>> import numpy as np
+>>> zigzag = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0], [3.0, 2.0]]))
+>>> zigzag.start, zigzag.end, zigzag.turning_parameters(1)
+((0.0, 1.0), (3.0, 2.0), [1.0, 2.0])
+>>> zigzag.parameters_at(1, 1.5)
+[0.5, 1.5, 2.5]
+>>> [(p.start, p.end) for p in zigzag.split_at([1.0, 2.5])]
+[((0.0, 1.0), (1.0, 2.0)), ((1.0, 2.0), (2.5, 1.5)), ((2.5, 1.5), (3.0, 2.0))]
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field, replace
+from typing import NamedTuple, Optional, Sequence
+
+from revolve.geometry.kinds.base import IDENTITY_MATRIX, SegmentKind, Where
+
+
+class _Numpy:
+    """numpy, imported on first use: reading a profile of lines and arcs must not import it."""
+
+    def __getattr__(self, name):
+        import numpy
+
+        return getattr(numpy, name)
+
+
+np = _Numpy()
+
+
+class PolylineExact(NamedTuple):
+    """Exact vertex coordinates, ``((x0, y0), (x1, y1), ...)``, for ``--exact`` only."""
+
+    points: tuple
+
+
+def map_points(points: np.ndarray, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0)) -> np.ndarray:
+    """``M·p + offset`` for every row, skipping zero and unit factors (exact for swaps).
+
+    The same operations, in the same order, as
+    :func:`revolve.geometry.kinds.base.map_point` on each point.
+
+    >>> map_points(np.array([[2.0, 3.0]]), (0.0, 1.0, -1.0, 0.0), (1.0, 0.0)).tolist()
+    [[4.0, -2.0]]
+    """
+    a, b, c, d = matrix
+    x, y = points[:, 0], points[:, 1]
+    out = np.empty_like(points)
+    for row, (k0, k1, off) in enumerate(((a, b, offset[0]), (c, d, offset[1]))):
+        acc = None
+        for k, v in ((k0, x), (k1, y)):
+            if k == 0:
+                continue
+            term = v if k == 1 else (-v if k == -1 else k * v)
+            acc = term if acc is None else acc + term
+        if acc is None:
+            acc = np.zeros_like(x)
+        out[:, row] = acc + off + 0.0
+    return out
+
+
+@dataclass(frozen=True, eq=False)
+class Polyline(SegmentKind):
+    """Straight edges through ``points`` (an (n, 2) array, n ≥ 2), in order.
+
+    >>> p = Polyline(np.array([[0.0, 0.0], [3.0, 4.0], [3.0, 5.0]]), face="side")
+    >>> p.length(), p.bounds(), p.chord_count()
+    (6.0, (0.0, 0.0, 3.0, 5.0), 2)
+    """
+
+    points: np.ndarray
+    face: Optional[str] = None
+    where: Optional[Where] = field(default=None, repr=False)
+    exact: Optional[PolylineExact] = field(default=None, repr=False)
+    lines: Optional[np.ndarray] = field(default=None, repr=False)
+    first_edge: int = field(default=0, repr=False)
+
+    kind = "polyline"
+
+    def __post_init__(self):
+        pts = np.asarray(self.points, dtype=float)
+        if pts.ndim != 2 or pts.shape[1] != 2 or len(pts) < 2:
+            raise ValueError("a polyline needs an (n, 2) array of at least two points")
+        if pts is self.points and pts.flags.writeable:
+            pts = pts.copy()
+        pts.flags.writeable = False
+        object.__setattr__(self, "points", pts)
+
+    def __eq__(self, other) -> bool:
+        if not isinstance(other, Polyline):
+            return NotImplemented
+        return self.face == other.face and np.array_equal(self.points, other.points)
+
+    def __hash__(self) -> int:
+        return hash(("polyline", self.face, len(self.points), self.start, self.end))
+
+    def __repr__(self) -> str:
+        return (f"Polyline({len(self.points)} points from {self.start} to {self.end}, "
+                f"face={self.face!r})")
+
+    @property
+    def start(self):
+        return (float(self.points[0, 0]), float(self.points[0, 1]))
+
+    @property
+    def end(self):
+        return (float(self.points[-1, 0]), float(self.points[-1, 1]))
+
+    def edge_lengths(self) -> np.ndarray:
+        d = np.diff(self.points, axis=0)
+        return np.hypot(d[:, 0], d[:, 1])
+
+    def length(self) -> float:
+        return float(self.edge_lengths().sum())
+
+    def parameter_range(self):
+        return (0.0, float(len(self.points) - 1))
+
+    def _locate(self, params):
+        p = np.asarray(params, dtype=float).reshape(-1)
+        i = np.clip(np.floor(p).astype(np.int64), 0, len(self.points) - 2)
+        return p, i, p - i
+
+    def points_at(self, params):
+        p, i, f = self._locate(params)
+        a, b = self.points[i], self.points[i + 1]
+        out = a + f[:, None] * (b - a)
+        whole = f == 0.0
+        out[whole] = a[whole]
+        end = f == 1.0
+        out[end] = b[end]
+        return out
+
+    def tangents_at(self, params):
+        _, i, _ = self._locate(params)
+        return self.points[i + 1] - self.points[i]
+
+    def turning_parameters(self, coordinate: int):
+        """Vertices where ``x`` (0) or ``y`` (1) turns back (the first of a level run)."""
+        d = np.diff(self.points[:, coordinate])
+        nz = np.flatnonzero(d != 0)
+        if nz.size < 2:
+            return []
+        s = d[nz] > 0
+        k = np.flatnonzero(s[1:] != s[:-1])
+        return [float(v) for v in nz[k] + 1]
+
+    def parameters_at(self, coordinate: int, value: float):
+        """Every parameter where ``x`` (0) or ``y`` (1) equals ``value`` (vertices once)."""
+        c = self.points[:, coordinate]
+        a, b = c[:-1], c[1:]
+        at_vertex = np.flatnonzero(c == value).astype(float)
+        cross = np.flatnonzero(((a < value) & (b > value)) | ((a > value) & (b < value)))
+        f = (value - a[cross]) / (b[cross] - a[cross])
+        return sorted(set(at_vertex.tolist()) | set((cross + f).tolist()))
+
+    def bounds(self):
+        lo, hi = self.points.min(axis=0), self.points.max(axis=0)
+        return (float(lo[0]), float(lo[1]), float(hi[0]), float(hi[1]))
+
+    def split_at(self, params: Sequence[float]) -> tuple:
+        if not len(params):
+            return (self,)
+        out = []
+        ps = [0.0] + [float(p) for p in params] + [float(len(self.points) - 1)]
+        for a, b in zip(ps[:-1], ps[1:]):
+            ia, ib = int(math.ceil(a)), int(math.floor(b))
+            inner = self.points[ia:ib + 1]
+            parts = []
+            if a != ia:
+                parts.append(self.points_at([a]))
+            parts.append(inner)
+            if b != ib:
+                parts.append(self.points_at([b]))
+            pts = np.vstack(parts) if len(parts) > 1 else inner.copy()
+            lines = None
+            if self.lines is not None:
+                lines = self.lines[min(int(a), len(self.lines) - 1):][:len(pts)]
+                if len(lines) < len(pts):
+                    lines = np.concatenate([lines, np.full(len(pts) - len(lines), lines[-1])])
+            out.append(Polyline(pts, face=self.face, where=self.where, lines=lines,
+                                first_edge=self.first_edge + int(a)))
+        return tuple(out)
+
+    def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0), exact=None):
+        return replace(self, points=map_points(self.points, matrix, offset), exact=None)
+
+    def translated(self, dx: float, dy: float = 0.0):
+        if dx == 0 and dy == 0:
+            return self
+        return replace(self, points=self.points + np.array([dx, dy]), exact=None)
+
+    def reversed(self) -> "Polyline":
+        ex = self.exact
+        return replace(self, points=self.points[::-1].copy(),
+                       exact=None if ex is None else PolylineExact(tuple(reversed(ex.points))),
+                       lines=None if self.lines is None else self.lines[::-1].copy())
+
+    def flatten(self, max_angle: float = math.pi / 36, curve_pieces: int = 64):
+        return self.points
+
+    def snapped(self, tiny: float):
+        small = np.abs(self.points) < tiny
+        if not small.any():
+            return self
+        return replace(self, points=np.where(small, 0.0, self.points))
+
+    def chord_count(self) -> int:
+        return len(self.points) - 1
+
+    def where_at(self, edge: int) -> Optional[Where]:
+        """Where edge ``edge`` (0-based, of this polyline) came from: its first vertex's line.
+
+        >>> p = Polyline(np.zeros((3, 2)) + [[0, 0], [1, 0], [1, 1]], where=Where("a.csv", 4),
+        ...              lines=np.array([4, 5, 7]))
+        >>> str(p.where_at(2))
+        'a.csv:7'
+        """
+        w = self.where or Where()
+        if self.lines is None or not len(self.lines):
+            return w
+        line = int(self.lines[min(max(edge, 0), len(self.lines) - 1)])
+        return Where(w.file, line, w.place)
+
+    @classmethod
+    def integral_rows(cls, segments, symbolic: bool = False):
+        """Each polyline's edges summed in closed form: one row per polyline.
+
+        >>> square = Polyline(np.array([[0.0, 1.0], [1.0, 1.0], [1.0, 2.0], [0.0, 2.0], [0.0, 1.0]]))
+        >>> v, e, how = Polyline.integral_rows([square])
+        >>> float(v[0][0]), how
+        (4.0, ('closed form',))
+        """
+        from revolve.geometry.integrals import COLUMNS, polyline_sums
+
+        values = np.zeros((len(segments), len(COLUMNS)))
+        errors = np.zeros_like(values)
+        for i, seg in enumerate(segments):
+            values[i], errors[i] = polyline_sums(seg.points)
+        return values, errors, ("closed form",) * len(segments)
