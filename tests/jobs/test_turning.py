@@ -661,6 +661,6 @@ def test_limited_finishing_of_the_crown_arc_against_scipy_quad():
     want = sum(quad(integrand, a, b, epsabs=0, epsrel=1e-13)[0] for a, b in zip(edges, edges[1:]))
     area = m.surface_by_face["crown"] * f * f
     got = tu.finishing_time_limited(prep, ["crown"], area, FINISH, n, f)
-    # the correction is summed over 0.25° chords of the arc: a few parts per million of it
-    assert rel(got, want) < 1e-6
+    # the correction is the exact ramp integral along the arc (geometry.envelope)
+    assert rel(got, want) < 1e-12
     assert got > tu.finishing_time(area, FINISH)
