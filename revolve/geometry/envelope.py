@@ -149,13 +149,13 @@ def extent(prepared) -> Optional[Extent]:
                   float(b[:, 3].max()))
 
 
-def pieces_below(segments: Sequence, level: float) -> list:
+def pieces_below(segments: Sequence, level: float, boxes=None) -> list:
     """The parts of ``segments`` where the radius (``y``) is below ``level``, in order.
 
     Each segment is cut where its radius equals ``level`` (:meth:`parameters_at`,
     :meth:`split_at`) and a piece is kept when its middle lies below. A piece
     that runs along ``r = level`` is dropped (it adds nothing to the integrals
-    here).
+    here). ``boxes`` may give each segment's :meth:`bounds` when already known.
 
     Examples
     --------
@@ -169,8 +169,8 @@ def pieces_below(segments: Sequence, level: float) -> list:
     ([], [])
     """
     out = []
-    for seg in segments:
-        _, y_lo, _, y_hi = seg.bounds()
+    for k, seg in enumerate(segments):
+        _, y_lo, _, y_hi = seg.bounds() if boxes is None else boxes[k]
         if y_hi < level:
             out.append(seg)
             continue
@@ -208,11 +208,17 @@ def _check_degree(coefficients, most: int, what: str) -> None:
 
 
 def _reference(segments) -> Tuple[float, float]:
-    """The middle of the segments' box: moments about it lose no digits far from the origin."""
+    """The middle of the segments' ends: moments about it lose no digits far from the origin.
+
+    >>> from revolve.geometry.segments import Line
+    >>> _reference([Line((1e9, 1.0), (1e9 + 2.0, 3.0))]), _reference([])
+    ((1000000001.0, 2.0), (0.0, 0.0))
+    """
     if not segments:
         return 0.0, 0.0
-    b = np.asarray([s.bounds() for s in segments], dtype=float)
-    return (float(b[:, 0].min() + b[:, 2].max()) / 2, float(b[:, 1].min() + b[:, 3].max()) / 2)
+    e = np.asarray([s.start + s.end for s in segments], dtype=float).reshape(-1, 2)
+    lo, hi = e.min(axis=0), e.max(axis=0)
+    return float(lo[0] + hi[0]) / 2, float(lo[1] + hi[1]) / 2
 
 
 def radial_area_integral(prepared, coefficients: Sequence[float],
