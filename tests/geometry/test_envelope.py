@@ -15,7 +15,7 @@ import math
 import numpy as np
 import pytest
 import sympy
-from hypothesis import given, settings
+from hypothesis import example, given, settings
 from hypothesis import strategies as st
 
 from geometry_testkit import (LINE_ARC_TOL, PLACEMENT_IDS, PLACEMENTS, T, assert_rel, circle_loop,
@@ -223,6 +223,8 @@ def test_polyline_loop_against_shapely(p):
 @given(st.lists(st.tuples(st.integers(0, 40), st.integers(1, 40)), min_size=3, max_size=9,
                 unique_by=lambda q: q[0]),
        st.integers(0, 45))
+@example(raw=[(0, 5), (10, 5), (20, 9), (30, 2)], level=5)     # a run along the level, a vertex on it
+@example(raw=[(0, 3), (40, 3)], level=3)                        # the whole top on the level
 def test_star_polygons_cut_at_any_level_against_shapely(raw, level):
     # a polygon whose top runs over distinct z (a "skyline") and whose bottom is r = 0, cut at
     # every whole level, vertices on the level included
