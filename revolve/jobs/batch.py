@@ -11,10 +11,16 @@ cost of handing work to a worker is paid once per chunk, not once per part.
 The results are the same either way: each part is computed by the same
 function from the same input.
 
-:func:`measure_many` is ``revolve measure`` over many files; the command line
-calls it, with or without a ``convert`` step run in the workers (the command
-turns each part into its JSON object there, so that only plain data comes
-back).
+:func:`run_many` is :func:`iter_many` collected in a list; the iterator gives
+each result as soon as it and those before it are ready, holding only a few
+chunks at a time, so that a long run can write its rows as they come.
+
+:func:`measure_many` (and :func:`iter_measure`) is ``revolve measure`` over many
+files: the command line calls :func:`iter_measure` with a ``convert`` step
+that runs in the workers and turns each part into its output row there
+(JSON line, table cells, CSV row), so that only small plain data comes back
+and the parent only writes. ``revolve turn`` runs its parts through
+:func:`run_many` the same way, each file read once by its part's task.
 
 Examples
 --------
@@ -46,7 +52,8 @@ from typing import Any, Callable, Iterator, List, Optional, Sequence
 
 from revolve.errors import RevolveError
 
-#: Below this many parts the work runs in this process: starting a pool costs more than it saves.
+#: Below this many parts the work runs in this process: starting a pool (tens of ms) and handing
+#: out the work would cost about what it saves at a few ms per part.
 SERIAL_BELOW = 32
 
 #: Chunks per worker: enough to balance uneven parts, few enough that each hand-over is cheap.
