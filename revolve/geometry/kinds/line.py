@@ -166,6 +166,30 @@ class Line(SegmentKind):
         values = line_integrals(se[:, 0], se[:, 1], se[:, 2], se[:, 3])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance`` of the segment, shape (m + 1, 2).
+
+        A line is its own chord: its two ends, whatever the tolerance.
+
+        >>> Line((0.0, 1.0), (2.0, 1.0)).flatten_to_tolerance(0.1).tolist()
+        [[0.0, 1.0], [2.0, 1.0]]
+        >>> Line((1.0, 1.0), (1.0, 1.0)).flatten_to_tolerance(1e-9).shape   # zero length
+        (2, 2)
+        """
+        import numpy as np
+
+        return np.array([self.start, self.end], dtype=float)
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """The fewest chords :meth:`flatten_to_tolerance` gives (to refuse a mesh before any work).
+
+        >>> Line((0.0, 0.0), (5.0, 0.0)).fewest_chords(1e-6)
+        1
+        """
+        return 1
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

@@ -253,3 +253,30 @@ class Polyline(SegmentKind):
         for i, seg in enumerate(segments):
             values[i], errors[i] = polyline_sums(seg.points)
         return values, errors, ("closed form",) * len(segments)
+
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance``: the polyline's own vertices.
+
+        Its edges are its chords, exactly, whatever the tolerance, so nothing
+        is cut and ``most_pieces`` does not apply (the vertices are the input,
+        not work the tolerance asks for; a mesh counts them first, with
+        :meth:`fewest_chords`). The array itself is returned (read-only), no
+        copy and no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> p.flatten_to_tolerance(1e-9).tolist()
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]
+        >>> p.flatten_to_tolerance(0.1) is p.points
+        True
+        """
+        return self.points
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: one per edge.
+
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).fewest_chords(0.5)
+        2
+        """
+        return len(self.points) - 1
