@@ -395,6 +395,23 @@ class Arc(SegmentKind):
         a0, a1 = self.angles()
         return chord_steps(self.radius, a1 - a0, tolerance)
 
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the arc is, through its primitive ``arc``.
+
+        ``out.arc(start, end, centre, clockwise, exact, where)``; ``exact`` is
+        the typed record of how the arc was given (:class:`ArcByRadius`,
+        :class:`ArcByCentre`) or None.
+
+        >>> class Out:
+        ...     def arc(self, start, end, centre, clockwise, exact, where):
+        ...         print(start, end, centre, clockwise, exact)
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).describe_to(Out())
+        (1.0, 0.0) (0.0, 1.0) (0.0, 0.0) False None
+        """
+        out.arc(self.start, self.end, self.centre, self.clockwise, self.exact, self.where)
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

@@ -632,6 +632,24 @@ class Curve(SegmentKind):
         """
         return 16
 
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the curve is, through its primitive ``curve``.
+
+        ``out.curve(x_expr, y_expr, t_start, t_end, exact)`` with the mapped
+        expressions in ``t`` and the exact ends of the interval (or None).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> class Out:
+        ...     def curve(self, x, y, t0, t1, exact):
+        ...         print(x, y, t0, t1, exact)
+        >>> Curve(t, t ** 2, 0.0, 1.0).translated(1.0).describe_to(Out())
+        t + 1 t**2 0.0 1.0 None
+        """
+        out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
+
 
 
 

@@ -190,6 +190,26 @@ class Line(SegmentKind):
         """
         return 1
 
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the line is, through its primitive ``straight``.
+
+        ``out.straight(points, exact)`` takes the points from the start through
+        each vertex (here the two ends) and their exact coordinates, or None.
+
+        >>> class Out:
+        ...     def straight(self, points, exact):
+        ...         print(points, exact)
+        >>> Line((0.0, 1.0), (2.0, 1.0), exact=(0, 1, 2, 1)).describe_to(Out())
+        ((0.0, 1.0), (2.0, 1.0)) ((0, 1), (2, 1))
+        >>> Line((0.0, 1.0), (2.0, 1.0)).describe_to(Out())
+        ((0.0, 1.0), (2.0, 1.0)) None
+        """
+        ex = self.exact
+        out.straight((self.start, self.end),
+                     None if ex is None else ((ex.x0, ex.y0), (ex.x1, ex.y1)))
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

@@ -280,3 +280,19 @@ class Polyline(SegmentKind):
         2
         """
         return len(self.points) - 1
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the polyline is, through its primitive ``straight``.
+
+        ``out.straight(points, exact)`` gets the whole vertex array (no object
+        per vertex) and the exact vertex coordinates, or None.
+
+        >>> class Out:
+        ...     def straight(self, points, exact):
+        ...         print(points.tolist(), exact)
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).describe_to(Out())
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]] None
+        """
+        out.straight(self.points, None if self.exact is None else self.exact.points)
