@@ -412,6 +412,16 @@ class Arc(SegmentKind):
         """
         out.arc(self.start, self.end, self.centre, self.clockwise, self.exact, self.where)
 
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: an arc's end cannot move without changing its circle (a gap is bridged instead).
+
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).with_end_moved((0.0, 1.1)) is None
+        True
+        """
+        return None
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

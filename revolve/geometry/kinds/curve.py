@@ -650,6 +650,18 @@ class Curve(SegmentKind):
         """
         out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
 
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: a curve's end cannot move without changing its expressions (a gap is bridged instead).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).with_end_moved((1.0, 1.01)) is None
+        True
+        """
+        return None
+
 
 
 

@@ -210,6 +210,25 @@ class Line(SegmentKind):
         out.straight((self.start, self.end),
                      None if ex is None else ((ex.x0, ex.y0), (ex.x1, ex.y1)))
 
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """The line with its end (or start) moved onto ``point``; None if it would have no length.
+
+        A straight end can move without changing the rest of the segment's shape.
+
+        >>> Line((0.0, 0.0), (1.0, 0.0)).with_end_moved((1.0, 1e-6))
+        Line(start=(0.0, 0.0), end=(1.0, 1e-06), face=None)
+        >>> Line((0.0, 0.0), (1.0, 0.0)).with_end_moved((1.0, 0.0), at_start=True) is None
+        True
+        """
+        point = (float(point[0]), float(point[1]))
+        if point == (self.end if at_start else self.start):
+            return None
+        if at_start:
+            return replace(self, start=point, exact=None)
+        return replace(self, end=point, exact=None)
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

@@ -296,3 +296,25 @@ class Polyline(SegmentKind):
         [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]] None
         """
         out.straight(self.points, None if self.exact is None else self.exact.points)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """The polyline with its last (or first) vertex moved onto ``point``.
+
+        Its end edge is straight, so only that edge changes; None when the edge
+        would have no length. One copy of the vertex array, no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 0.0], [1.0, 0.0], [1.0, 1.0]]))
+        >>> p.with_end_moved((1.0, 1.001)).points.tolist()
+        [[0.0, 0.0], [1.0, 0.0], [1.0, 1.001]]
+        >>> p.with_end_moved((1.0, 0.0), at_start=True) is None
+        True
+        """
+        k, neighbour = (0, 1) if at_start else (-1, -2)
+        point = (float(point[0]), float(point[1]))
+        if point == (float(self.points[neighbour, 0]), float(self.points[neighbour, 1])):
+            return None
+        pts = self.points.copy()
+        pts[k] = point
+        return replace(self, points=pts, exact=None)
