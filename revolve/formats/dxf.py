@@ -444,8 +444,9 @@ def _polyline(xy, bulge, closed: bool, label: str, file) -> List[Any]:
         if straight[run[0]] and len(edges) >= POLYLINE_EDGES:
             pts = np.vstack([xy[first[edges[:1]]], xy[second[edges]]])
             v0, v1 = int(first[edges[0]]) + 1, int(second[edges[-1]]) + 1
-            segments.append(Polyline(pts, where=Where(file, None,
-                                                      f"{label}, vertices {v0} to {v1}"),
+            span = f"vertices {v0} to {v1}" if v1 > v0 else \
+                f"vertices {v0} to {count} and back to {v1}"
+            segments.append(Polyline(pts, where=Where(file, None, f"{label}, {span}"),
                                      first_edge=int(first[edges[0]])))
             continue
         for i in edges.tolist():
