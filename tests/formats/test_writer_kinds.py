@@ -8,7 +8,6 @@ round-tripping ``repr``, common practice, no source).
 
 from __future__ import annotations
 
-import math
 from fractions import Fraction
 
 import numpy as np
