@@ -344,6 +344,84 @@ class Arc(SegmentKind):
                                ends[:, :2], ends[:, 2:])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance`` of the arc, shape (m + 1, 2).
+
+        The arc is cut into the fewest equal pieces whose sagitta
+        ``R (1 - cos(Δ/2))`` is at most ``tolerance`` (exact, through
+        :func:`revolve.geometry.mesh.chord_steps`); the ends are the arc's own.
+
+        Raises
+        ------
+        RevolveError
+            When that needs more than ``most_pieces`` pieces.
+
+        >>> quarter = arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False)
+        >>> len(quarter.flatten_to_tolerance(1 - math.cos(math.pi / 8)))   # sagitta of 45°
+        3
+        >>> quarter.flatten_to_tolerance(10.0)[[0, -1]].tolist()            # coarse: quarter turns
+        [[1.0, 0.0], [0.0, 1.0]]
+        >>> quarter.flatten_to_tolerance(1e-12, most_pieces=100)
+        Traceback (most recent call last):
+        ...
+        revolve.errors.RevolveError: the chord tolerance 1e-12 needs more than 100 pieces on one arc; use a larger tolerance
+        """
+        import numpy as np
+
+        from revolve.errors import RevolveError
+
+        n = self.fewest_chords(tolerance)
+        if n > most_pieces:
+            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
+                               "pieces on one arc; use a larger tolerance")
+        a0, a1 = self.angles()
+        a = np.linspace(a0, a1, n + 1)
+        pts = np.column_stack([self.centre[0] + self.radius * np.cos(a),
+                               self.centre[1] + self.radius * np.sin(a)])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: exact for an arc.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> half.fewest_chords(1.0), half.fewest_chords(1 - math.cos(math.pi / 8))
+        (2, 4)
+        """
+        from revolve.geometry.mesh import chord_steps
+
+        a0, a1 = self.angles()
+        return chord_steps(self.radius, a1 - a0, tolerance)
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the arc is, through its primitive ``arc``.
+
+        ``out.arc(start, end, centre, clockwise, exact, where)``; ``exact`` is
+        the typed record of how the arc was given (:class:`ArcByRadius`,
+        :class:`ArcByCentre`) or None.
+
+        >>> class Out:
+        ...     def arc(self, start, end, centre, clockwise, exact, where):
+        ...         print(start, end, centre, clockwise, exact)
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).describe_to(Out())
+        (1.0, 0.0) (0.0, 1.0) (0.0, 0.0) False None
+        """
+        out.arc(self.start, self.end, self.centre, self.clockwise, self.exact, self.where)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: an arc's end cannot move without changing its circle (a gap is bridged instead).
+
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).with_end_moved((0.0, 1.1)) is None
+        True
+        """
+        return None
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

@@ -253,3 +253,68 @@ class Polyline(SegmentKind):
         for i, seg in enumerate(segments):
             values[i], errors[i] = polyline_sums(seg.points)
         return values, errors, ("closed form",) * len(segments)
+
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance``: the polyline's own vertices.
+
+        Its edges are its chords, exactly, whatever the tolerance, so nothing
+        is cut and ``most_pieces`` does not apply (the vertices are the input,
+        not work the tolerance asks for; a mesh counts them first, with
+        :meth:`fewest_chords`). The array itself is returned (read-only), no
+        copy and no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> p.flatten_to_tolerance(1e-9).tolist()
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]
+        >>> p.flatten_to_tolerance(0.1) is p.points
+        True
+        """
+        return self.points
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: one per edge.
+
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).fewest_chords(0.5)
+        2
+        """
+        return len(self.points) - 1
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the polyline is, through its primitive ``straight``.
+
+        ``out.straight(points, exact)`` gets the whole vertex array (no object
+        per vertex) and the exact vertex coordinates, or None.
+
+        >>> class Out:
+        ...     def straight(self, points, exact):
+        ...         print(points.tolist(), exact)
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).describe_to(Out())
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]] None
+        """
+        out.straight(self.points, None if self.exact is None else self.exact.points)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """The polyline with its last (or first) vertex moved onto ``point``.
+
+        Its end edge is straight, so only that edge changes; None when the edge
+        would have no length. One copy of the vertex array, no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 0.0], [1.0, 0.0], [1.0, 1.0]]))
+        >>> p.with_end_moved((1.0, 1.001)).points.tolist()
+        [[0.0, 0.0], [1.0, 0.0], [1.0, 1.001]]
+        >>> p.with_end_moved((1.0, 0.0), at_start=True) is None
+        True
+        """
+        k, neighbour = (0, 1) if at_start else (-1, -2)
+        point = (float(point[0]), float(point[1]))
+        if point == (float(self.points[neighbour, 0]), float(self.points[neighbour, 1])):
+            return None
+        pts = self.points.copy()
+        pts[k] = point
+        return replace(self, points=pts, exact=None)
