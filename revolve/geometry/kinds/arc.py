@@ -344,6 +344,90 @@ class Arc(SegmentKind):
                                ends[:, :2], ends[:, 2:])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for level tables (clipping.py, horizontal.py)
+
+    def _axial_pieces(self):
+        """Ends and angles of the pieces along which ``x`` moves one way: ``(points, angles)``.
+
+        Inner ends are the exact points at angles kπ (the angles snapped to kπ).
+        """
+        ranges = self.monotone_ranges(0)
+        cuts = [b for _, b in ranges[:-1]]
+        a0, d = self.angles()[0], self.sweep()
+        inner = [(float(p[0]), float(p[1])) for p in self.points_at(cuts)] if cuts else []
+        points = [self.start] + inner + [self.end]
+        angles = [a0] + [round((a0 + c * d) / math.pi) * math.pi for c in cuts] + [a0 + d]
+        return points, angles
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Arcs in the axis frame cut where ``z`` turns back, as circular rows (vertical tables).
+
+        Rows: centre, radius, angle from, angle to, then the ends (z0, r0, z1, r1).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [round(float(v), 12) for v in Arc.axial_level_table([half], [1.0]).rows[0]]
+        [0.0, 0.0, 1.0, 0.0, 3.14159265359, 1.0, 0.0, -1.0, 0.0]
+        >>> Arc.axial_level_table([half.reversed().transformed((0.0, 1.0, 1.0, 0.0))], [1.0]).rows.shape
+        (2, 9)
+        """
+        import numpy as np
+
+        from revolve.geometry.clipping import CircularPieces
+
+        rows, fs = [], []
+        for s, f in zip(segments, factors):
+            (cz, cr), R = s.centre, s.radius
+            points, angles = s._axial_pieces()
+            for k in range(len(points) - 1):
+                rows.append((cz, cr, R, angles[k], angles[k + 1]) + points[k] + points[k + 1])
+                fs.append(f)
+        return CircularPieces(np.array(rows, dtype=float).reshape(-1, 9), np.array(fs, dtype=float))
+
+    def _sub_arc(self, start, end):
+        """The part from ``start`` to ``end``: an arc, or its chord when so short that its sweep
+        is lost in rounding (a sweep of a few ulps would read as a full turn)."""
+        if start == end:
+            return ()
+        part = replace(self, start=start, end=end, exact=None)
+        if abs(part.sweep()) <= math.pi * (1 + 1e-9):
+            return (part,)
+        from revolve.geometry.kinds.line import Line
+        return (Line(start, end, face=self.face, where=self.where),)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: arcs about the same centre (an arc never lies flat).
+
+        The radius at a cut is found from the lower end of its piece
+        (``√((R - u)(R + u))``), so a level a hair above a rounded bottom keeps its
+        digits; no point is moved onto the level.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [(p.start, p.end) for p in half.part_below(0.0)[0]]
+        [((0.0, 1.0), (-1.0, 0.0))]
+        >>> half.part_below(-1.0), len(half.part_below(1.0)[0])
+        (((), ()), 1)
+        """
+        from revolve.geometry.clipping import _arc_cut
+
+        (cz, cr), R = self.centre, self.radius
+        points, angles = self._axial_pieces()
+        if max(z for z, _ in points) <= level:
+            return (self,), ()          # wholly below (or touching from below): as it is
+        out = []
+        for k in range(len(points) - 1):
+            start, end = points[k], points[k + 1]
+            za, zb = start[0], end[0]
+            if max(za, zb) <= level:
+                out.extend(self._sub_arc(start, end))
+                continue
+            if min(za, zb) >= level:
+                continue
+            _, rc = _arc_cut(cz, cr, R, angles[k], angles[k + 1], level, z_low=min(za, zb))
+            cut = (level, float(rc))
+            out.extend(self._sub_arc(start, cut) if za < zb else self._sub_arc(cut, end))
+        return tuple(out), ()
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,
