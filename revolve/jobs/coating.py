@@ -198,16 +198,10 @@ def turning_pieces(seg) -> list:
     """
     from dataclasses import replace
 
-    from revolve.geometry.clipping import split_arc
-
     if seg.kind == "line":
         return [seg]
     if seg.kind == "arc":
-        cuts = [q for _, q in split_arc(seg, math.pi)[:-1]]   # where z turns back
-        cz, cr = seg.centre
-        points = [seg.start] + [(cz + seg.radius * math.cos(a), cr + seg.radius * math.sin(a))
-                                for a in cuts] + [seg.end]
-        return [replace(seg, start=p, end=q, exact=None) for p, q in zip(points[:-1], points[1:])]
+        return list(seg.split_at(seg.turning_parameters(0)))   # where z turns back
     ts = [seg.t_start] + seg.turning_parameters(0)
     ts.append(seg.t_end)
     return [replace(seg, t_start=ta, t_end=tb, exact=None) for ta, tb in zip(ts[:-1], ts[1:])

@@ -223,7 +223,8 @@ def test_pieces_keep_whole_arcs_and_quarters():
     arc = arc_from_centre((R, 0.0), (-R, 0.0), (0.0, 0.0), clockwise=False)
     pc = horizontal_pieces(prepare(Profile(loops=(Loop((arc, Line((-R, 0.0), (R, 0.0)))),)),
                                    PLACEMENTS[0].axis))
-    assert pc.arc_whole.size == 1 and pc.arc_quarters.tolist() == [[0, 2]]
+    arcs = next(t for t in pc.tables if hasattr(t, "arc"))
+    assert arcs.whole.size == 1 and arcs.quarters.tolist() == [[0, 2]]
     assert pc.r_max == 1.0 and pc.length == 2.0
 
 

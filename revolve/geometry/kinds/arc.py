@@ -428,6 +428,29 @@ class Arc(SegmentKind):
             out.extend(self._sub_arc(start, cut) if za < zb else self._sub_arc(cut, end))
         return tuple(out), ()
 
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Arcs cut at every quarter turn (r and z monotone on each), as circular rows.
+
+        The centre's z is measured from ``z_ref``; the angles inside are exact
+        multiples of π/2.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> t = Arc.radial_level_table([half], [1.0])
+        >>> [[round(float(v), 6) for v in row] for row in t.arc]
+        [[0.0, 0.0, 1.0, 0.0, 1.570796], [0.0, 0.0, 1.0, 1.570796, 3.141593], [0.0, 0.0, 1.0, 0.0, 3.141593]]
+        """
+        from revolve.geometry.horizontal import CircularRows
+
+        items = []
+        for s in segments:
+            a0, d = s.angles()[0], s.sweep()
+            cuts = sorted(set(s.turning_parameters(0)) | set(s.turning_parameters(1)))
+            angles = ([a0] + [round((a0 + c * d) / (math.pi / 2)) * (math.pi / 2) for c in cuts]
+                      + [a0 + d])
+            items.append((s.centre[0] - z_ref, s.centre[1], s.radius, angles))
+        return CircularRows.from_angles(items, factors)
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

@@ -598,6 +598,26 @@ class Curve(SegmentKind):
                 out.append(replace(self, t_start=tc, t_end=q, exact=None))
         return tuple(s for s in out if s.t_end != s.t_start), ()
 
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Curves moved by ``-z_ref`` along x and cut where r turns back, as parametric rows.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.radial_level_table([Curve(t, sympy.sin(t), 0.0, 3.0)], [1.0], z_ref=1.0)
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.curves]   # r = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0), (0.0, 3.0)]
+        >>> table.extent()[:2]
+        (-1.0, 2.0)
+        """
+        from revolve.geometry.horizontal import ParametricRows
+
+        items = []
+        for s in segments:
+            ranges = s.monotone_ranges(1)
+            items.append((s.translated(-z_ref), [a for a, _ in ranges] + [ranges[-1][1]]))
+        return ParametricRows.from_parameters(items, factors)
+
 
 def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,
                            exact=None) -> Curve:

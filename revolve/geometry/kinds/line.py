@@ -207,6 +207,21 @@ class Line(SegmentKind):
         part = replace(self, end=cut, exact=None) if z0 < z1 else replace(self, start=cut, exact=None)
         return (part,), touching
 
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Lines as straight rows ``z0, r0, z1, r1`` with z from ``z_ref`` (horizontal tables).
+
+        >>> Line.radial_level_table([Line((3.0, 1.0), (5.0, 2.0))], [1.0], z_ref=4.0).line.tolist()
+        [[-1.0, 1.0, 1.0, 2.0]]
+        """
+        import numpy as np
+
+        from revolve.geometry.horizontal import StraightRows
+
+        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        rows[:, [0, 2]] -= z_ref
+        return StraightRows(rows, np.asarray(factors, dtype=float))
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

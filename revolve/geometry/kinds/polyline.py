@@ -316,6 +316,21 @@ class Polyline(SegmentKind):
                                 first_edge=self.first_edge + int(edges[0])))
         return tuple(out), touching
 
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Every edge as a straight row ``z0, r0, z1, r1`` with z from ``z_ref`` (one array).
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> Polyline.radial_level_table([p], [1.0], z_ref=1.0).line.tolist()
+        [[-1.0, 1.0, 0.0, 2.0], [0.0, 2.0, 1.0, 1.0]]
+        """
+        from revolve.geometry.horizontal import StraightRows
+
+        rows, f = _edge_rows(segments, factors)
+        rows = rows.copy()
+        rows[:, [0, 2]] -= z_ref
+        return StraightRows(rows, f)
+
 
 def _edge_rows(segments, factors):
     """Rows ``x0, y0, x1, y1`` of every edge of the polylines, and each edge's factor."""
