@@ -623,11 +623,11 @@ def _error_estimate(q: np.ndarray, n: int) -> np.ndarray:
 
 def _radii(jobs: _Jobs, pieces: HorizontalPieces, p):
     """r, dz/dp, ds/dp and r - r_max at parameters p of jobs, each from its table."""
-    kinds = np.unique(jobs.kind)
-    if kinds.size == 1:                 # one table: the common case, no scattering
-        return pieces.tables[int(kinds[0])].radii(jobs.piece, p, pieces.r_max)
+    first = int(jobs.kind[0]) if len(jobs) else 0
+    if (jobs.kind == first).all():      # one table: the common case, no scattering
+        return pieces.tables[first].radii(jobs.piece, p, pieces.r_max)
     out = [np.empty(p.shape) for _ in range(4)]
-    for k in kinds:
+    for k in np.unique(jobs.kind):
         sel = np.flatnonzero(jobs.kind == k)
         vals = pieces.tables[int(k)].radii(jobs.piece[sel], p[sel], pieces.r_max)
         for o, v in zip(out, vals):
@@ -660,7 +660,7 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
         area = r * r * angle + yy * np.sqrt(rpy * rmy)                   # S: 0 and π r² at the ends
         gv = area * dz * jac
         ga = (2.0 * r * angle) * ds * np.abs(jac)
-    if any(pieces.tables[k].cosine for k in np.unique(jobs.kind)):
+    if any(t.cosine for t in pieces.tables):
         # a curve's derivative may be infinite at an end node of a cosine map
         gv, ga = np.nan_to_num(gv), np.nan_to_num(ga)
     # einsum, not matmul: a BLAS call for an inner size of n is slower than a plain loop
