@@ -286,10 +286,12 @@ class _SplitRows:
 class CircularRows(_SplitRows):
     """Arcs: rows ``cz, cr, R, angle from, angle to`` (cz from the profile's middle).
 
-    Built by :meth:`from_angles` from each arc's centre, radius and its angles at the
-    ends and at every quarter turn inside.
+    Built by :meth:`from_pieces` from each arc's centre and radius and its pieces
+    between the ends and every quarter turn inside.
 
-    >>> t = CircularRows.from_angles([(0.0, 0.0, 1.0, [0.0, math.pi / 2, math.pi])], [1.0])
+    >>> t = CircularRows.from_pieces(np.array([[0.0, 0.0, 1.0]]), np.array([0, 0]),
+    ...                              np.array([0.0, math.pi / 2]), np.array([math.pi / 2, math.pi]),
+    ...                              np.array([1.0]))
     >>> t.arc.shape, t.whole.tolist(), t.quarters.tolist(), t.whole_r.tolist()
     ((3, 5), [2], [[0, 2]], [[0.0, 1.0]])
     """
@@ -302,26 +304,25 @@ class CircularRows(_SplitRows):
         self.size = len(factor)
 
     @classmethod
-    def from_angles(cls, arcs, factors) -> "CircularRows":
-        """From ``(cz, cr, R, angles)`` per arc, the angles in travel order (ends included)."""
-        quarters, qf, wholes, wf, wq = [], [], [], [], []
-        for (cz, cr, R, angles), f in zip(arcs, factors):
-            first = len(quarters)
-            quarters += [(cz, cr, R, p, q) for p, q in zip(angles[:-1], angles[1:]) if p != q]
-            qf += [f] * (len(quarters) - first)
-            wholes.append((cz, cr, R, angles[0], angles[-1]))
-            wf.append(f)
-            wq.append((first, len(quarters)))
+    def from_pieces(cls, centres, arc, a_from, a_to, factors) -> "CircularRows":
+        """From each arc's ``(cz, cr, R)`` and its pieces (``arc`` index, angles from and to,
+        grouped by arc in travel order, with no level tangent inside any)."""
+        n = len(centres)
+        quarters = np.column_stack([centres[arc], a_from, a_to]).reshape(-1, 5)
+        first = np.searchsorted(arc, np.arange(n), side="left")
+        stop = np.searchsorted(arc, np.arange(n), side="right")
+        wholes = np.column_stack([centres, a_from[first], a_to[stop - 1]]).reshape(-1, 5)
         nq = len(quarters)
-        arc = np.array(quarters + wholes, dtype=float).reshape(-1, 5)
-        quarter_ranges = np.array(wq, dtype=int).reshape(-1, 2)
-        # r at the cut rows' ends: its range over each whole arc
-        q = arc[:nq]
-        r_ends = np.column_stack([q[:, 1] + q[:, 2] * np.sin(q[:, 3]), q[:, 1] + q[:, 2] * np.sin(q[:, 4])])
-        whole_r = np.array([(r_ends[a:b].min(), r_ends[a:b].max()) for a, b in quarter_ranges],
-                           dtype=float).reshape(-1, 2)
-        return cls(arc, np.array(qf + wf, dtype=float), np.arange(nq, nq + len(wholes)), whole_r,
-                   quarter_ranges)
+        # r at the pieces' ends: its range over each whole arc
+        r_from = quarters[:, 1] + quarters[:, 2] * np.sin(a_from)
+        r_to = quarters[:, 1] + quarters[:, 2] * np.sin(a_to)
+        lo, hi = np.minimum(r_from, r_to), np.maximum(r_from, r_to)
+        whole_r = np.column_stack([np.minimum.reduceat(lo, first), np.maximum.reduceat(hi, first)]) \
+            if nq else np.zeros((0, 2))
+        return cls(np.vstack([quarters, wholes]),
+                   np.concatenate([factors[arc], factors]).astype(float),
+                   np.arange(nq, nq + n), whole_r.reshape(-1, 2),
+                   np.column_stack([first, stop]).astype(int).reshape(-1, 2))
 
     def extent(self) -> Tuple[float, float, float]:
         if not self.size:

@@ -346,24 +346,58 @@ class Arc(SegmentKind):
 
     # -- for level tables (clipping.py, horizontal.py)
 
-    def _axial_pieces(self):
-        """Ends and angles of the pieces along which ``x`` moves one way: ``(points, angles)``.
+    @classmethod
+    def _cut_angles(cls, segments, step: float):
+        """Every arc's angle range cut at the multiples of ``step`` inside it, for many arcs at once.
 
-        Inner ends are the exact points at angles kπ (the angles snapped to kπ).
+        The vectorised form of :meth:`turning_parameters` (``step = π``: where x
+        turns back; ``π/2``: where x or y does). Returns ``(centre_x, centre_y,
+        radius)`` per arc (arrays), and per piece, in travel order: its arc's
+        index, its angle from and to, and the multiple ``k`` of ``step`` at each
+        end (NaN at the arc's own ends; a piece end at ``k step`` is exact).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> (cx, cy, R), (arc, a, b, ka, kb) = Arc._cut_angles([half], math.pi / 2)
+        >>> arc.tolist(), [round(float(v), 6) for v in b], ka.tolist(), kb.tolist()
+        ([0, 0], [1.570796, 3.141593], [nan, 1.0], [1.0, nan])
+        >>> left = arc_from_centre((-0.6, -0.8), (-0.6, 0.8), (0.0, 0.0), clockwise=True)
+        >>> Arc._cut_angles([left], math.pi)[1][3].tolist()     # through the angle -π
+        [nan, -1.0]
         """
-        ranges = self.monotone_ranges(0)
-        cuts = [b for _, b in ranges[:-1]]
-        a0, d = self.angles()[0], self.sweep()
-        inner = [(float(p[0]), float(p[1])) for p in self.points_at(cuts)] if cuts else []
-        points = [self.start] + inner + [self.end]
-        angles = [a0] + [round((a0 + c * d) / math.pi) * math.pi for c in cuts] + [a0 + d]
-        return points, angles
+        import numpy as np
+
+        par = np.array([(s.centre[0], s.centre[1], s.radius) + s.angles() for s in segments],
+                       dtype=float).reshape(-1, 5)
+        cx, cy, R, a0, a1 = par.T
+        n = len(par)
+        lo, hi = np.minimum(a0, a1), np.maximum(a0, a1)
+        k = np.ceil(lo / step)[:, None] + np.arange(5)[None, :]      # a sweep is below 2π
+        valid = (k * step > lo[:, None]) & (k * step < hi[:, None])
+        down = (a1 < a0)[:, None]
+        key = np.where(valid, np.where(down, -k, k), np.inf)
+        order = np.argsort(key, axis=1, kind="stable")
+        k = np.take_along_axis(k, order, axis=1)
+        count = valid.sum(axis=1)
+        width = k.shape[1] + 2
+        ends_k = np.full((n, width), np.nan)
+        cols = np.arange(width)[None, :]
+        inner = (cols >= 1) & (cols <= count[:, None])
+        ends_k[inner] = k[:, :width - 2][np.arange(width - 2)[None, :] < count[:, None]]
+        angle = np.where(inner, ends_k * step, 0.0)
+        angle[:, 0] = a0
+        angle[np.arange(n), count + 1] = a1
+        pieces = (cols[:, :-1] <= count[:, None])          # piece m runs from end m to m + 1
+        arc = np.broadcast_to(np.arange(n)[:, None], pieces.shape)[pieces]
+        a_from, a_to = angle[:, :-1][pieces], angle[:, 1:][pieces]
+        k_from, k_to = ends_k[:, :-1][pieces], ends_k[:, 1:][pieces]
+        return (cx, cy, R), (arc, a_from, a_to, k_from, k_to)
 
     @classmethod
     def axial_level_table(cls, segments, factors):
         """Arcs in the axis frame cut where ``z`` turns back, as circular rows (vertical tables).
 
-        Rows: centre, radius, angle from, angle to, then the ends (z0, r0, z1, r1).
+        Rows: centre, radius, angle from, angle to, then the ends (z0, r0, z1, r1):
+        the arc's own ends, or the exact points ``(cz ± R, cr)`` where it was cut.
 
         >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
         >>> [round(float(v), 12) for v in Arc.axial_level_table([half], [1.0]).rows[0]]
@@ -375,14 +409,19 @@ class Arc(SegmentKind):
 
         from revolve.geometry.clipping import CircularPieces
 
-        rows, fs = [], []
-        for s, f in zip(segments, factors):
-            (cz, cr), R = s.centre, s.radius
-            points, angles = s._axial_pieces()
-            for k in range(len(points) - 1):
-                rows.append((cz, cr, R, angles[k], angles[k + 1]) + points[k] + points[k + 1])
-                fs.append(f)
-        return CircularPieces(np.array(rows, dtype=float).reshape(-1, 9), np.array(fs, dtype=float))
+        (cx, cy, R), (arc, a_from, a_to, k_from, k_to) = cls._cut_angles(segments, math.pi)
+        se = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+
+        def end(k, own):
+            own_end = np.isnan(k)
+            sign = np.where(np.nan_to_num(k) % 2 == 0, 1.0, -1.0)
+            return (np.where(own_end, own[:, 0], cx[arc] + sign * R[arc]),
+                    np.where(own_end, own[:, 1], cy[arc]))
+
+        z0, r0 = end(k_from, se[arc][:, 0:2])
+        z1, r1 = end(k_to, se[arc][:, 2:4])
+        rows = np.column_stack([cx[arc], cy[arc], R[arc], a_from, a_to, z0, r0, z1, r1])
+        return CircularPieces(rows, np.asarray(factors, dtype=float)[arc])
 
     def _sub_arc(self, start, end):
         """The part from ``start`` to ``end``: an arc, or its chord when so short that its sweep
@@ -411,7 +450,9 @@ class Arc(SegmentKind):
         from revolve.geometry.clipping import _arc_cut
 
         (cz, cr), R = self.centre, self.radius
-        points, angles = self._axial_pieces()
+        rows = type(self).axial_level_table([self], [1.0]).rows
+        points = [self.start] + [(float(z), float(r)) for z, r in rows[:-1, 7:9]] + [self.end]
+        angles = [float(a) for a in rows[:, 3]] + [float(rows[-1, 4])]
         if max(z for z, _ in points) <= level:
             return (self,), ()          # wholly below (or touching from below): as it is
         out = []
@@ -440,17 +481,13 @@ class Arc(SegmentKind):
         >>> [[round(float(v), 6) for v in row] for row in t.arc]
         [[0.0, 0.0, 1.0, 0.0, 1.570796], [0.0, 0.0, 1.0, 1.570796, 3.141593], [0.0, 0.0, 1.0, 0.0, 3.141593]]
         """
+        import numpy as np
+
         from revolve.geometry.horizontal import CircularRows
 
-        items = []
-        for s in segments:
-            a0, d = s.angles()[0], s.sweep()
-            cuts = sorted(set(s.turning_parameters(0)) | set(s.turning_parameters(1)))
-            angles = ([a0] + [round((a0 + c * d) / (math.pi / 2)) * (math.pi / 2) for c in cuts]
-                      + [a0 + d])
-            items.append((s.centre[0] - z_ref, s.centre[1], s.radius, angles))
-        return CircularRows.from_angles(items, factors)
-
+        (cx, cy, R), (arc, a_from, a_to, _, _) = cls._cut_angles(segments, math.pi / 2)
+        centres = np.column_stack([cx - z_ref, cy, R])
+        return CircularRows.from_pieces(centres, arc, a_from, a_to, np.asarray(factors, dtype=float))
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,
