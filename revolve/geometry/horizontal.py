@@ -165,6 +165,180 @@ def segment_area_integral(r, y):
     return np.where(inside, f, outside)
 
 
+# -- many shallow pieces at once: the segment as a series about a middle radius ----------------
+#
+# A level not tangent to a piece's circles (|y| < r all along it) needs S(r, y) only where
+# r stays near the piece's radii. About a middle radius c, S(c + δ, y) = Σ S_k δ^k converges
+# for |δ| < c - |y| (the tangent circle r = |y| is the nearest singularity), so a group of
+# pieces with radii within c ± h gives -Σ S_k(c, y) Σ f ∫ (r - c)^k dz: the moments
+# ∫ (r - c)^k dz and ∫ (r - c)^k ds are found once per piece (Gauss–Legendre, on the table's
+# own parametrisation), the coefficients once per group and level. The series is used where
+# h/(c - |y|) <= SERIES_RATIO and its estimated error (the last terms, and the moments'
+# quadrature difference) is within the group's share of the tolerance; a level above the
+# whole group (every circle under the liquid) takes S = π r² exactly; everything else goes
+# to the piece-by-piece sorting below. A corrugated shell of a thousand shallow arcs is one
+# group: a thousand levels cost a few thousand series.
+
+#: Largest ratio of a group's half width in r to the distance to the tangent circle.
+SERIES_RATIO = 0.3
+#: Terms of the series (enough for SERIES_RATIO to the last bit; the error is checked).
+SERIES_TERMS = 32
+#: Groups: pieces with their smallest radius in the same step of 1/SERIES_BINS in log₂ r.
+SERIES_BINS = 128
+#: A piece joins a group only when its own radii lie within this fraction of its smallest.
+SERIES_SHALLOW = 1.0 / 128
+#: Fewer pieces than this in a table: the pieces are sorted one by one (as cheap).
+SERIES_MIN_PIECES = 16
+
+
+def segment_taylor(c, y, terms: int = SERIES_TERMS):
+    """Taylor coefficients ``S_k`` of ``S(c + δ, y)`` in ``δ`` (arrays, shape (…, terms + 1)).
+
+    For ``c > |y|``: ``S' = 2 r acos(-y/r)`` and ``d acos(-y/r)/dr = -y g`` with
+    ``g = (r⁴ - y² r²)^(-1/2)``, whose coefficients follow from those of the
+    quartic by the power recurrence of series (J. C. P. Miller's formula, from
+    memory: ``n P₀ g_n = Σ_j ((α + 1) j - n) P_j g_{n-j}``, α = -1/2).
+
+    >>> c, y, delta = 2.0, 0.5, 0.1
+    >>> s = segment_taylor(np.array([c]), np.array([y]))[0]
+    >>> approx = float(np.polynomial.polynomial.polyval(delta, s))
+    >>> abs(approx - float(segment_area(c + delta, y))) < 1e-15 * float(segment_area(c + delta, y))
+    True
+    >>> bool(abs(s[1] - 2 * c * math.acos(-y / c)) < 1e-15 * s[1])     # S' = 2 r acos(-y/r)
+    True
+    """
+    c = np.asarray(c, dtype=float)
+    y = np.asarray(y, dtype=float)
+    ay = np.abs(y)
+    rho = c - ay
+    c2, y2 = c * c, y * y
+    P = [c2 * rho * (c + ay), 2.0 * c * (2.0 * c2 - y2), 6.0 * c2 - y2, 4.0 * c,
+         np.ones_like(c)]
+    g = [1.0 / np.sqrt(P[0])]
+    for n in range(1, terms):
+        acc = np.zeros_like(c)
+        for j in range(1, min(n, 4) + 1):
+            acc = acc + (0.5 * j - n) * P[j] * g[n - j]
+        g.append(acc / (n * P[0]))
+    theta = [_half_angle(c, c + y, c - y)] + [-y * g[n - 1] / n for n in range(1, terms)]
+    out = [segment_area(c, y, c + y, c - y)]
+    for n in range(1, terms + 1):
+        r_theta = c * theta[n - 1] + (theta[n - 2] if n >= 2 else 0.0)    # [r θ]_{n-1}
+        out.append(2.0 * r_theta / n)
+    return np.stack(out, axis=-1)
+
+
+def _moments(table, rows, centre, pa, pb, terms: int, nodes: int):
+    """``∫ (r - centre)^k dz`` and ``∫ (r - centre)^k ds`` over table rows, k = 0…terms."""
+    x, w = gauss_legendre(nodes)
+    n = rows.size
+    mapping = COSINE if table.cosine else STRAIGHT
+    jobs = _Jobs(np.zeros(n, dtype=int), rows, np.zeros(n, dtype=int),
+                 np.full(n, mapping), pa[rows], pb[rows], np.zeros(n), np.ones(n))
+    u = 0.5 + 0.5 * x[None, :] * np.ones((n, 1))
+    p, dp = _parameter(jobs, u)
+    r, dz, ds, _ = table.radii(rows, p, 0.0)
+    jac = 0.5 * dp * w[None, :]
+    with np.errstate(all="ignore"):
+        gz = np.nan_to_num(dz * jac)
+        gs = np.nan_to_num(ds * np.abs(jac))
+    delta = r - centre[:, None]
+    mz, ms = np.empty((n, terms + 1)), np.empty((n, terms + 1))
+    power = np.ones_like(delta)
+    for k in range(terms + 1):
+        mz[:, k] = (power * gz).sum(axis=1)
+        ms[:, k] = (power * gs).sum(axis=1)
+        power = power * delta
+    return mz, ms
+
+
+def _series_levels(table, kind, y, V, A, pa, pb, budget):
+    """Levels of a table's shallow pieces by groups (see the notes above).
+
+    Adds what it settles to ``V``, ``A`` (and its error estimate to the budget's
+    array) and returns the (whole index, level index) pairs left for
+    :func:`_sort_wholes`, or None when the table is left to it entirely.
+    """
+    tol_v, tol_a, E, _ = budget
+    nW, nY = table.whole.size, y.size
+    lo, hi = table.whole_r[:, 0], table.whole_r[:, 1]
+    ok = (lo > 0) & (hi - lo <= SERIES_SHALLOW * lo)
+    if ok.sum() < SERIES_MIN_PIECES or nY == 0:
+        return None
+    members = np.flatnonzero(ok)
+    bins, group = np.unique(np.floor(np.log2(lo[members]) * SERIES_BINS), return_inverse=True)
+    nG = bins.size
+    g_lo = np.full(nG, np.inf)
+    g_hi = np.full(nG, -np.inf)
+    np.minimum.at(g_lo, group, lo[members])
+    np.maximum.at(g_hi, group, hi[members])
+    centre, half = 0.5 * (g_lo + g_hi), 0.5 * (g_hi - g_lo)
+    # the moments of each member's cut rows, about its group's middle radius
+    first, stop = table.quarters[members, 0], table.quarters[members, 1]
+    count = stop - first
+    owner = np.repeat(np.arange(members.size), count)
+    rows = np.repeat(first, count) + (np.arange(count.sum()) - np.repeat(np.cumsum(count) - count,
+                                                                          count))
+    K = SERIES_TERMS
+    at = centre[group[owner]]
+    mz, ms = _moments(table, rows, at, pa, pb, K, 32)
+    mz2, ms2 = _moments(table, rows, at, pa, pb, K, 24)
+    f = table.factor[rows][:, None]
+    into = group[owner]
+    FM, NM = np.zeros((nG, K + 1)), np.zeros((nG, K + 1))
+    dFM, dNM = np.zeros((nG, K + 1)), np.zeros((nG, K + 1))
+    np.add.at(FM, into, f * mz)
+    np.add.at(NM, into, ms)
+    np.add.at(dFM, into, np.abs(f * (mz - mz2)))
+    np.add.at(dNM, into, np.abs(ms - ms2))
+    size = np.bincount(group, minlength=nG)[:, None]
+    yy = y[None, :]
+    above = yy >= g_hi[:, None]
+    below = yy <= -g_hi[:, None]
+    rho = centre[:, None] - np.abs(yy)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(rho > 0, half[:, None] / np.where(rho > 0, rho, 1.0), np.inf)
+    near = ~above & ~below & (ratio <= SERIES_RATIO)
+    done = above | below
+    # every circle under the liquid: S = π r² exactly, W = 2π r
+    c = centre[:, None]
+    full_v = -PI * (c * c * FM[:, 0:1] + 2.0 * c * FM[:, 1:2] + FM[:, 2:3])
+    full_a = 2.0 * PI * (c * NM[:, 0:1] + NM[:, 1:2])
+    full_e = PI * (c * c * dFM[:, 0:1] + 2.0 * c * dFM[:, 1:2] + dFM[:, 2:3])
+    V += np.where(above, full_v, 0.0).sum(axis=0)
+    A += np.where(above, full_a, 0.0).sum(axis=0)
+    E += np.where(above, full_e, 0.0).sum(axis=0)
+    gi, li = np.nonzero(near)
+    if gi.size:
+        S = segment_taylor(centre[gi], y[li], K + 1)               # (pairs, K + 2)
+        W = S[:, 1:] * np.arange(1, K + 2)                          # W_k = (k + 1) S_{k+1}
+        S = S[:, :K + 1]
+        v = -(S * FM[gi]).sum(axis=1)
+        a = (W * NM[gi]).sum(axis=1)
+        tail = np.abs(S[:, -2:] * FM[gi][:, -2:]).sum(axis=1)
+        err_v = 10.0 * tail + (np.abs(S) * dFM[gi]).sum(axis=1)
+        err_a = 10.0 * np.abs(W[:, -2:] * NM[gi][:, -2:]).sum(axis=1) + (np.abs(W) * dNM[gi]).sum(axis=1)
+        good = (err_v <= tol_v * size[gi, 0]) & (err_a <= tol_a * size[gi, 0]) \
+            & np.isfinite(v) & np.isfinite(a)
+        np.add.at(V, li[good], v[good])
+        np.add.at(A, li[good], a[good])
+        np.add.at(E, li[good], err_v[good])
+        done[gi[good], li[good]] = True
+    # what is left: the members of each group at its other levels, and every other piece
+    gl, ll = np.nonzero(~done)
+    by_group = np.argsort(group, kind="stable")
+    g_first = np.searchsorted(group[by_group], np.arange(nG), side="left")
+    g_count = np.bincount(group, minlength=nG)
+    reps = g_count[gl]
+    ramp = np.arange(reps.sum()) - np.repeat(np.cumsum(reps) - reps, reps)
+    left_w = members[by_group[np.repeat(g_first[gl], reps) + ramp]]
+    left_y = np.repeat(ll, reps)
+    others = np.flatnonzero(~ok)
+    W_all = np.concatenate([left_w, np.repeat(others, nY)])
+    Y_all = np.concatenate([left_y, np.tile(np.arange(nY), others.size)])
+    return W_all, Y_all
+
+
 # -- pieces: one table per segment kind ----------------------------------------------------
 #
 # Each segment kind turns its segments into one of the tables below through its class
@@ -197,7 +371,7 @@ class StraightRows:
         z, r = self.line[:, [0, 2]], self.line[:, [1, 3]]
         return float(z.min()), float(z.max()), float(r.max())
 
-    def sort_levels(self, kind: int, jobs: "_Jobs", y, d, r_max: float, V, A) -> None:
+    def sort_levels(self, kind: int, jobs: "_Jobs", y, d, r_max: float, V, A, budget=None) -> None:
         """Closed forms of every row at every level into ``V``, ``A``; nearly flat cones to ``jobs``."""
         if not self.size:
             return
@@ -275,9 +449,10 @@ class _SplitRows:
     are used where no level is tangent to their circles; cut rows where one is.
     """
 
-    def _sort(self, kind, jobs, y, V, A, pa, pb, ra, rb, washer):
+    def _sort(self, kind, jobs, y, V, A, pa, pb, ra, rb, washer, budget=None):
+        pairs = None if budget is None else _series_levels(self, kind, y, V, A, pa, pb, budget)
         sub = _sort_wholes(jobs, kind, self.whole, self.whole_r, self.quarters, pa, pb,
-                           self.factor, y, V, A, washer=washer)
+                           self.factor, y, V, A, washer=washer, pairs=pairs)
         if sub is not None:
             _sort_pairs(jobs, kind, sub[0], sub[1], pa, pb, ra, rb, self.factor, y,
                         self.parameter_at_r, V, A, washer=washer)
@@ -331,12 +506,12 @@ class CircularRows(_SplitRows):
         z = np.concatenate([cz + R * np.cos(a0), cz + R * np.cos(a1)])
         return float(z.min()), float(z.max()), float(self.whole_r[:, 1].max())
 
-    def sort_levels(self, kind, jobs, y, d, r_max, V, A) -> None:
+    def sort_levels(self, kind, jobs, y, d, r_max, V, A, budget=None) -> None:
         if not self.size:
             return
         cz, cr, R, a0, a1 = self.arc.T
         self._sort(kind, jobs, y, V, A, a0, a1, cr + R * np.sin(a0), cr + R * np.sin(a1),
-                   self.washer)
+                   self.washer, budget)
 
     def parameter_at_r(self, rows, rr):
         cz, cr, R, a0, a1 = (self.arc[rows, i] for i in range(5))
@@ -409,13 +584,13 @@ class ParametricRows(_SplitRows):
     def extent(self) -> Tuple[float, float, float]:
         return self._extent
 
-    def sort_levels(self, kind, jobs, y, d, r_max, V, A) -> None:
+    def sort_levels(self, kind, jobs, y, d, r_max, V, A, budget=None) -> None:
         if not self.size:
             return
         ta = np.array([c[1] for c in self.curves])
         tb = np.array([c[2] for c in self.curves])
         ends = np.array([c[0].points_at([c[1], c[2]])[:, 1] for c in self.curves])
-        self._sort(kind, jobs, y, V, A, ta, tb, ends[:, 0], ends[:, 1], None)
+        self._sort(kind, jobs, y, V, A, ta, tb, ends[:, 0], ends[:, 1], None, budget)
 
     def parameter_at_r(self, rows, rr):
         out = np.empty(rr.shape)
@@ -770,13 +945,13 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     A = np.zeros(nY)
     E = np.zeros(nY)
     jobs = _Jobs.empty()
-    for kind, table in enumerate(pc.tables):
-        table.sort_levels(kind, jobs, y, d, Rm, V, A)
-    # Quadrature, vectorised over levels and pieces, halving intervals not yet resolved.
-    factors = tuple(t.factor for t in pc.tables)
     share = rel_tol / max(1, sum(t.size for t in pc.tables))
     tol_v = share * PI * Rm * Rm * max(pc.length, Rm)
     tol_a = share * 2.0 * PI * Rm * max(pc.length, Rm)
+    for kind, table in enumerate(pc.tables):
+        table.sort_levels(kind, jobs, y, d, Rm, V, A, budget=(tol_v, tol_a, E, Rm))
+    # Quadrature, vectorised over levels and pieces, halving intervals not yet resolved.
+    factors = tuple(t.factor for t in pc.tables)
     round_no = 0
     work = 0
     while len(jobs):
@@ -818,19 +993,25 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
 
 
 def _sort_wholes(jobs: _Jobs, kind: int, whole_rows, whole_r, quarters, pa, pb, factor, y,
-                 V, A, washer):
-    """Whole arcs or curves against every level: closed forms and whole-piece jobs.
+                 V, A, washer, pairs=None):
+    """Whole arcs or curves against levels: closed forms and whole-piece jobs.
 
-    Returns the (quarter row, level) pairs where a level is tangent to a
-    whole piece's circles, for :func:`_sort_pairs`, or None.
+    ``pairs`` (whole index, level index) limits the work to those pairs (all
+    by default). Returns the (quarter row, level) pairs where a level is
+    tangent to a whole piece's circles, for :func:`_sort_pairs`, or None.
     """
     nW, nY = whole_rows.size, y.size
     if nW == 0:
         return None
-    rlo, rhi = whole_r[:, 0:1], whole_r[:, 1:2]
-    yy = y[None, :]
-    W = np.broadcast_to(np.arange(nW)[:, None], (nW, nY))
-    Y = np.broadcast_to(np.arange(nY)[None, :], (nW, nY))
+    if pairs is None:
+        W = np.broadcast_to(np.arange(nW)[:, None], (nW, nY))
+        Y = np.broadcast_to(np.arange(nY)[None, :], (nW, nY))
+    else:
+        W, Y = pairs
+        if W.size == 0:
+            return None
+    rlo, rhi = whole_r[W, 0], whole_r[W, 1]
+    yy = y[Y]
     above = yy >= rhi
     whole = (yy > -rhi) & ~above & (np.abs(yy) < rlo)
     split = (yy > -rhi) & ~above & ~whole

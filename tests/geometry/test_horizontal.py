@@ -300,3 +300,60 @@ def test_polyline_cylinder_is_segment_times_length(p):
         edge = 0 < hh < 2 * R
         tol = 1e-12 if edge or p.identity else 1e-7
         assert abs(a - want) <= tol * (2 * math.pi * R * L + 2 * math.pi * R * R)
+
+
+# -- many shallow arcs: the series about a group's middle radius ----------------------------
+
+def ball_of_arcs(R, n):
+    """A ball of radius R: its half circle drawn as n arcs about the same centre."""
+    a = np.linspace(0.0, math.pi, n + 1)
+    pts = [(R * math.cos(t), R * math.sin(t)) for t in a]
+    pts[0], pts[-1] = (R, 0.0), (-R, 0.0)
+    arcs = tuple(arc_from_centre(p, q, (0.0, 0.0), clockwise=False) for p, q in zip(pts, pts[1:]))
+    return Loop(arcs + (Line((-R, 0.0), (R, 0.0)),))
+
+
+@pytest.mark.parametrize("p", PLACEMENTS[:2], ids=PLACEMENT_IDS[:2])
+def test_ball_of_many_arcs_is_a_spherical_cap(p):
+    # 400 arcs: those near the equator are shallow in r and go through the series.
+    R = 1.5
+    prep, rev = prepared([ball_of_arcs(R, 400)], p)
+    h = np.concatenate([np.linspace(0.0, 2 * R, 101), [1e-9, R - 1e-9, 2 * R - 1e-9]])
+    res = horizontal_levels(prep, h)
+    cap = 4.0 / 3.0 * math.pi * R ** 3
+    for hh, v, a, e in zip(h, res.volume, res.wetted_area, res.error):
+        # CRC (from memory): spherical cap V = π h² (3R − h)/3, curved area 2π R h; the
+        # flat face on the axis has no area
+        assert abs(v - math.pi * hh * hh * (3 * R - hh) / 3) <= 1e-12 * cap, hh
+        assert abs(a - 2 * math.pi * R * hh) <= 1e-11 * 4 * math.pi * R * R, hh
+        assert e <= ERROR_BOUND * cap
+
+
+def test_series_and_piece_by_piece_agree(monkeypatch):
+    # A lying shell of 300 shallow arcs (a corrugated wall) with a ring of 60 shallow arcs
+    # (a coil, hole) inside: the same table by the series and by quadrature piece by piece.
+    import revolve.geometry.horizontal as horizontal
+
+    L, R, n = 30.0, 4.0, 300
+    z = np.linspace(0.0, L, n + 1)
+    wall = tuple(arc_from_centre((float(a), R), (float(b), R), (0.5 * (a + b), R - 0.6),
+                                 clockwise=True) for a, b in zip(z, z[1:]))
+    shell = Loop((Line((0.0, 0.0), (0.0, R)),) + wall + (Line((L, R), (L, 0.0)), Line((L, 0.0), (0.0, 0.0))))
+    a = np.linspace(0.0, -2 * math.pi, 61)         # clockwise: a hole
+    ring = [(15.0 + 0.3 * math.cos(t), 2.0 + 0.3 * math.sin(t)) for t in a]
+    ring[-1] = ring[0]
+    coil = Loop(tuple(arc_from_centre(p, q, (15.0, 2.0), clockwise=True)
+                      for p, q in zip(ring, ring[1:])))
+    prep, rev = prepared([shell, coil])
+    depths = np.linspace(0.0, 2 * horizontal_pieces(prep).r_max, 57)
+    calls = []
+    series = horizontal.segment_taylor
+    monkeypatch.setattr(horizontal, "segment_taylor", lambda c, y, k: calls.append(c.size) or series(c, y, k))
+    fast = horizontal_levels(prep, depths)
+    assert sum(calls) >= 40          # the series did take most levels of the corrugated wall
+    monkeypatch.setattr(horizontal, "SERIES_MIN_PIECES", 10 ** 9)
+    slow = horizontal_levels(prep, depths)
+    cap = measure(rev, symbolic=False).volume
+    assert np.max(np.abs(fast.volume - slow.volume)) <= 1e-12 * cap
+    assert np.max(np.abs(fast.wetted_area - slow.wetted_area)) <= 1e-12 * float(slow.wetted_area.max())
+    assert abs(fast.volume[-1] / cap - 1) <= 1e-12
