@@ -260,7 +260,7 @@ def _series_levels(table, kind, y, V, A, pa, pb, budget):
     :func:`_sort_wholes`, or None when the table is left to it entirely.
     """
     tol_v, tol_a, E, _ = budget
-    nW, nY = table.whole.size, y.size
+    nY = y.size
     lo, hi = table.whole_r[:, 0], table.whole_r[:, 1]
     ok = (lo > 0) & (hi - lo <= SERIES_SHALLOW * lo)
     if ok.sum() < SERIES_MIN_PIECES or nY == 0:
