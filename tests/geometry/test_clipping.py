@@ -387,3 +387,28 @@ def test_polyline_frustum_and_cylinder(p):
         assert abs(v - want_v) <= 1e-12 * 70.0, h
         assert abs(area - want_a) <= 1e-12 * 70.0, h
         assert abs(clipped_volume(clip_section(prep, h)) - want_v) <= 1e-12 * 70.0, h
+
+
+# -- the arcs' rows for many arcs at once keep the segment contract ------------------------------
+
+@settings(max_examples=60, deadline=None)
+@given(st.floats(-3.0, 3.0), st.floats(0.5, 3.0), st.floats(0.2, 2.0), st.floats(-7.0, 7.0),
+       st.floats(0.05, 6.2), st.booleans())
+@example(0.0, 1.0, 1.0, -2.5, 1.0, True)            # through the angle -π, clockwise
+def test_arc_rows_follow_the_contract(cz, cr, R, a0, sweep, clockwise):
+    d = -sweep if clockwise else sweep
+    start = (cz + R * math.cos(a0), cr + R * math.sin(a0))
+    end = (cz + R * math.cos(a0 + d), cr + R * math.sin(a0 + d))
+    arc = arc_from_centre(start, end, (cz, cr), clockwise=clockwise)
+    rows = type(arc).axial_level_table([arc], [1.0]).rows
+    # the pieces run from the start to the end through the points where z turns back
+    # (Arc.monotone_ranges and points_at), and z is monotone along each
+    cuts = [b for _, b in arc.monotone_ranges(0)[:-1]]
+    want = np.vstack([[arc.start], arc.points_at(cuts).reshape(-1, 2), [arc.end]])
+    got = np.vstack([rows[:, 5:7], rows[-1:, 7:9]])
+    assert got.shape == want.shape
+    assert np.allclose(got, want, rtol=0, atol=1e-12 * (abs(cz) + abs(cr) + R))
+    assert np.allclose(rows[1:, 5:7], rows[:-1, 7:9], rtol=0, atol=0)   # joined exactly
+    ang = rows[:, 3:5]
+    assert np.allclose(np.column_stack([cz + R * np.cos(ang[:, 0]), cr + R * np.sin(ang[:, 0])]),
+                       rows[:, 5:7], rtol=0, atol=1e-12 * (abs(cz) + abs(cr) + R))
