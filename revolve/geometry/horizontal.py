@@ -262,7 +262,7 @@ def _series_levels(table, kind, y, V, A, pa, pb, budget):
     tol_v, tol_a, E, _ = budget
     nY = y.size
     lo, hi = table.whole_r[:, 0], table.whole_r[:, 1]
-    ok = (lo > 0) & (hi - lo <= SERIES_SHALLOW * lo)
+    ok = (lo > 0) & (hi - lo <= SERIES_SHALLOW * lo) & getattr(table, "series_ok", True)
     if ok.sum() < SERIES_MIN_PIECES or nY == 0:
         return None
     members = np.flatnonzero(ok)
@@ -363,6 +363,13 @@ class StraightRows:
         self.line = np.asarray(rows, dtype=float).reshape(-1, 4)
         self.factor = np.asarray(factor, dtype=float).reshape(-1)
         self.size = len(self.factor)
+        # each row is its own whole piece (r is monotone along a line), for the series
+        n = self.size
+        self.whole = np.arange(n)
+        self.quarters = np.column_stack([np.arange(n), np.arange(n) + 1]).reshape(-1, 2)
+        self.whole_r = np.sort(self.line[:, [1, 3]], axis=1)
+        #: pieces the series may take: not a flat face (its parameter, z, does not move)
+        self.series_ok = self.line[:, 0] != self.line[:, 2]
 
     def extent(self) -> Tuple[float, float, float]:
         """``(z_lo, z_hi, r_max)`` of the rows (z from the profile's middle)."""
@@ -372,9 +379,18 @@ class StraightRows:
         return float(z.min()), float(z.max()), float(r.max())
 
     def sort_levels(self, kind: int, jobs: "_Jobs", y, d, r_max: float, V, A, budget=None) -> None:
-        """Closed forms of every row at every level into ``V``, ``A``; nearly flat cones to ``jobs``."""
+        """Closed forms of every row at every level into ``V``, ``A``; nearly flat cones to ``jobs``.
+
+        Many shallow rows go through the series first (:func:`_series_levels`); the
+        (row, level) pairs it leaves take the closed forms pair by pair.
+        """
         if not self.size:
             return
+        if budget is not None:
+            pairs = _series_levels(self, kind, y, V, A, self.line[:, 0], self.line[:, 2], budget)
+            if pairs is not None:
+                self._closed_pairs(kind, jobs, pairs[0], pairs[1], y, d, r_max, V, A)
+                return
         nY = d.size
         z0, r0, z1, r1 = (self.line[:, i][:, None] for i in range(4))
         f = self.factor[:, None]
@@ -414,6 +430,40 @@ class StraightRows:
             L_ = self.line
             _sort_pairs(jobs, kind, rows, lv, L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3], self.factor,
                         y, self.parameter_at_r, V, A, washer=self.washer)
+
+    def _closed_pairs(self, kind, jobs, rows, lv, y, d, r_max, V, A) -> None:
+        """The closed forms of :meth:`sort_levels` for given (row, level) pairs."""
+        if rows.size == 0:
+            return
+        z0, r0, z1, r1 = (self.line[rows, i] for i in range(4))
+        f = self.factor[rows]
+        yy, dd = y[lv], d[lv]
+        top = 2.0 * r_max - dd
+        dz, dr = z1 - z0, r1 - r0
+        length = np.hypot(dz, dr)
+        rpy0, rmy0 = (r0 - r_max) + dd, (r0 - r_max) + top
+        s0 = segment_area(r0, yy, rpy0, rmy0)
+        s1 = segment_area(r1, yy, (r1 - r_max) + dd, (r1 - r_max) + top)
+        cyl = (dr == 0)
+        radial = (dz == 0)
+        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
+        steep = ~cyl & ~radial & ~cone
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
+            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        vol = np.where(cyl, s0 * dz, 0.0)
+        if cone.any():
+            vol = vol + np.where(cone, ratio * (segment_area_integral(r1, yy)
+                                                - segment_area_integral(r0, yy)), 0.0)
+        area = np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0)
+        if cyl.any():
+            area = area + np.where(cyl, wetted_arc(r0, yy, rpy0, rmy0) * length, 0.0)
+        np.add.at(V, lv, -f * vol)
+        np.add.at(A, lv, area)
+        if steep.any():
+            L_ = self.line
+            _sort_pairs(jobs, kind, rows[steep], lv[steep], L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3],
+                        self.factor, y, self.parameter_at_r, V, A, washer=self.washer)
 
     def parameter_at_r(self, rows, rr):
         """z (the parameter of straight rows) where rows reach radii ``rr``."""
