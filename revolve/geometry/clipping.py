@@ -8,9 +8,11 @@ below the plane is the revolution of the part of the section below that
 line. This module builds that part exactly and measures it:
 
 * :func:`clip_section` returns the clipped section as a prepared profile.
-  Lines are cut into lines, arcs into arcs about the same centre, curves into
-  the same curve on a shorter parameter interval (the cut parameter found by
-  bisection on the parameter, to the last bit). Where the boundary leaves the
+  Each segment gives its own part below the level (its kind's
+  ``part_below``): lines are cut into lines, polylines into runs of the same
+  array, arcs into arcs about the same centre, curves into the same curve on
+  a shorter parameter interval (the cut parameter found by bisection on the
+  parameter, to the last bit). Where the boundary leaves the
   half plane ``z <= level`` and comes back, a straight cut is added along the
   line ``z = level`` (the liquid surface, for a vessel). This is the
   half-plane step of Sutherland–Hodgman clipping, which stays exact for a
@@ -20,13 +22,17 @@ line. This module builds that part exactly and measures it:
 * Pappus–Guldinus on the clipped section (volume = 2π ∫∫ r dA) is the
   volume below the level; the swept area of the original boundary below the
   level (2π ∫ r ds, the cuts left out) is the wetted inside surface.
-* :func:`vertical_levels` does the same for many levels at once, vectorised
-  over levels and segment pieces, with the closed forms of sub-lines and
-  sub-arcs written out (and cumulative Gauss–Legendre sums for curves), so a
-  level table of a thousand rows costs a few numpy passes.
+* :func:`vertical_levels` does the same for many levels at once: a piece
+  wholly below a level counts whole (the whole pieces' sums, sorted by their
+  tops, are accumulated once), and only the pieces a level crosses are cut,
+  with the closed forms of sub-lines and sub-arcs (and cumulative
+  Gauss–Legendre sums for curves). A table of a thousand levels on a
+  thousand lines costs a few sorts and a few thousand closed forms.
 
-A segment is first split into *pieces* along which ``z`` moves one way only
-(:func:`axial_pieces`); each such piece crosses a level at most once.
+Each kind gives its segments as a table of *pieces* along which ``z`` moves
+one way only (its ``axial_level_table``: straight, circular or parametric
+rows, see :func:`axial_pieces`); each piece crosses a level at most once. No
+algorithm here asks which kind a segment is.
 
 Both computations use Green's theorem in the form ``∫∫ r dA = -½ ∮ r² dz``,
 with ``r`` measured from a reference radius ``r₀`` near the bottom

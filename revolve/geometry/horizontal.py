@@ -22,8 +22,11 @@ point of radius ``r`` the wetted arc of the circle is ``2 r acos(-y/r)``
 (= ∂S/∂r), so the wetted area is ``∫ 2 r acos(-y/r) ds`` along every
 segment.
 
-How each piece is integrated (pieces monotone in both ``z`` and ``r``, so
-that a level meets a piece's circles tangentially at most once):
+Each kind gives its segments as a table (its ``radial_level_table``:
+straight, circular or parametric rows, see :func:`horizontal_pieces`); no
+algorithm here asks which kind a segment is. How each piece is integrated
+(pieces monotone in both ``z`` and ``r``, so that a level meets a piece's
+circles tangentially at most once):
 
 * straight pieces in closed form: a cylinder ``S(r, y) Δz``; a cone
   ``Δz/Δr · [F(r₁, y) - F(r₀, y)]`` with ``F = ∫ S dr`` (below); a flat face
@@ -31,6 +34,10 @@ that a level meets a piece's circles tangentially at most once):
   difference would lose digits goes to quadrature instead;
 * a piece entirely below or above the level in closed form (nothing, or the
   whole washer π ∫ r² dz and surface 2π ∫ r ds);
+* many pieces shallow in ``r`` (a corrugated or surveyed shell) by groups:
+  the series of ``S`` about each group's middle radius, with each piece's
+  moments ∫ (r - c)^k dz found once (see :func:`segment_taylor` and the notes
+  before it), where its error estimate allows;
 * everything else by Gauss–Legendre quadrature, vectorised over levels and
   pieces: lines in ``z``, arcs in their angle, curves in their parameter.
   Where a level is tangent to a piece's circles (``r = |y|``) the piece is
