@@ -357,3 +357,28 @@ def test_series_and_piece_by_piece_agree(monkeypatch):
     assert np.max(np.abs(fast.volume - slow.volume)) <= 1e-12 * cap
     assert np.max(np.abs(fast.wetted_area - slow.wetted_area)) <= 1e-12 * float(slow.wetted_area.max())
     assert abs(fast.volume[-1] / cap - 1) <= 1e-12
+
+
+def test_series_of_curves_and_piece_by_piece_agree(monkeypatch):
+    # A lying shell whose wall is 24 shallow curves r = R + 0.002 sin(2π (z - z_k)) (one wave
+    # each, so r turns back inside each): parametric rows through the series and without it.
+    import revolve.geometry.horizontal as horizontal
+
+    R, n = 3.0, 24
+    wall = tuple(curve_from_expressions(T, R + 0.002 * sympy.sin(2 * sympy.pi * (T - k)),
+                                        float(k), float(k + 1)) for k in range(n))
+    loop = Loop((Line((0.0, 0.0), (0.0, R)),) + wall + (Line((n, R), (n, 0.0)), Line((n, 0.0), (0.0, 0.0))))
+    prep, rev = prepared([loop])
+    depths = np.linspace(0.0, 2 * horizontal_pieces(prep).r_max, 41)
+    calls = []
+    series = horizontal.segment_taylor
+    monkeypatch.setattr(horizontal, "segment_taylor", lambda c, y, k: calls.append(c.size) or series(c, y, k))
+    fast = horizontal_levels(prep, depths)
+    assert sum(calls) >= 30
+    monkeypatch.setattr(horizontal, "SERIES_MIN_PIECES", 10 ** 9)
+    slow = horizontal_levels(prep, depths)
+    cap = measure(rev, symbolic=False).volume
+    assert np.max(np.abs(fast.volume - slow.volume)) <= 1e-11 * cap
+    assert np.max(np.abs(fast.wetted_area - slow.wetted_area)) <= 1e-11 * float(slow.wetted_area.max())
+    assert np.max(fast.error) <= ERROR_BOUND * cap
+    assert abs(fast.volume[-1] / cap - 1) <= 1e-12
