@@ -762,9 +762,9 @@ STRAIGHT, TOWARDS_START, TOWARDS_END, COSINE = 0, 1, 2, 3
 
 @dataclass
 class _Jobs:
-    """Intervals still to integrate: piece kind and index, level, parameter map, u range."""
+    """Intervals still to integrate: table and row, level, parameter map, u range."""
 
-    kind: np.ndarray     # 0 line, 1 arc, 2 curve
+    kind: np.ndarray     # which table of HorizontalPieces.tables the piece is a row of
     piece: np.ndarray
     level: np.ndarray    # index into the levels
     mapping: np.ndarray

@@ -425,7 +425,12 @@ class Arc(SegmentKind):
 
     def _sub_arc(self, start, end):
         """The part from ``start`` to ``end``: an arc, or its chord when so short that its sweep
-        is lost in rounding (a sweep of a few ulps would read as a full turn)."""
+        is lost in rounding (a sweep of a few ulps would read as a full turn).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [p.kind for p in half._sub_arc((0.0, 1.0), (-1.0, 0.0))], half._sub_arc((0.0, 1.0), (0.0, 1.0))
+        (['arc'], ())
+        """
         if start == end:
             return ()
         part = replace(self, start=start, end=end, exact=None)
