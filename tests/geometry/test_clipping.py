@@ -412,3 +412,20 @@ def test_arc_rows_follow_the_contract(cz, cr, R, a0, sweep, clockwise):
     ang = rows[:, 3:5]
     assert np.allclose(np.column_stack([cz + R * np.cos(ang[:, 0]), cr + R * np.sin(ang[:, 0])]),
                        rows[:, 5:7], rtol=0, atol=1e-12 * (abs(cz) + abs(cr) + R))
+
+
+@settings(max_examples=30, deadline=None)
+@given(star_loops(), st.lists(st.floats(-4.5, 4.5), min_size=1, max_size=8))
+@example(star_polygon([1.0] * 8), [0.0, 1e-9])
+def test_star_polyline_and_lines_agree(loop, levels):
+    points = [s.start for s in loop.segments]
+    poly = prepare(Profile(loops=(polyline_loop(points),)), PLACEMENTS[0].axis)
+    lines = prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis)
+    a, b = vertical_levels(poly, levels), vertical_levels(lines, levels)
+    full = float(vertical_levels(lines, [10.0]).volume[0])
+    assert np.max(np.abs(a.volume - b.volume)) <= 1e-12 * full
+    assert np.max(np.abs(a.wetted_area - b.wetted_area)) <= 1e-12 * float(
+        vertical_levels(lines, [10.0]).wetted_area[0])
+    for lv in levels[:2]:
+        assert abs(clipped_volume(clip_section(poly, lv)) - clipped_volume(clip_section(lines, lv))) \
+            <= 1e-12 * full
