@@ -662,7 +662,72 @@ class Curve(SegmentKind):
         """
         return None
 
+    # -- for level tables (clipping.py, horizontal.py)
 
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Curves cut where ``z`` turns back, as parametric rows ``(curve, t from, t to)``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.axial_level_table([Curve(sympy.sin(t), t, 0.0, 3.0)], [1.0])
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.pieces]      # z = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0)]
+        """
+        from revolve.geometry.clipping import ParametricPieces
+
+        rows, fs = [], []
+        for s, f in zip(segments, factors):
+            for a, b in s.monotone_ranges(0):
+                if a != b:
+                    rows.append((s, a, b))
+                    fs.append(f)
+        return ParametricPieces(rows, fs)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: the same curve on shorter intervals.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> [(p.t_start, round(p.t_end, 12)) for p in Curve(t ** 2, t, 0.0, 2.0).part_below(1.0)[0]]
+        [(0.0, 1.0)]
+        """
+        from revolve.geometry.clipping import parameters_at_values
+
+        out = []
+        for p, q in self.monotone_ranges(0):
+            za, zb = (float(v) for v in self.points_at([p, q])[:, 0])
+            if max(za, zb) <= level:
+                out.append(replace(self, t_start=p, t_end=q, exact=None))
+                continue
+            if min(za, zb) >= level:
+                continue
+            tc = float(parameters_at_values(self, p, q, [level], coordinate=0)[0])
+            if za < zb:
+                out.append(replace(self, t_start=p, t_end=tc, exact=None))
+            else:
+                out.append(replace(self, t_start=tc, t_end=q, exact=None))
+        return tuple(s for s in out if s.t_end != s.t_start), ()
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Curves moved by ``-z_ref`` along x and cut where r turns back, as parametric rows.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.radial_level_table([Curve(t, sympy.sin(t), 0.0, 3.0)], [1.0], z_ref=1.0)
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.curves]   # r = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0), (0.0, 3.0)]
+        >>> table.extent()[:2]
+        (-1.0, 2.0)
+        """
+        from revolve.geometry.horizontal import ParametricRows
+
+        items = []
+        for s in segments:
+            ranges = s.monotone_ranges(1)
+            items.append((s.translated(-z_ref), [a for a, _ in ranges] + [ranges[-1][1]]))
+        return ParametricRows.from_parameters(items, factors)
 
 
 def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,

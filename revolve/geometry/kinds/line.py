@@ -229,6 +229,62 @@ class Line(SegmentKind):
             return replace(self, start=point, exact=None)
         return replace(self, end=point, exact=None)
 
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Lines in the axis frame as straight rows ``z0, r0, z1, r1`` (vertical level tables).
+
+        >>> t = Line.axial_level_table([Line((0.0, 1.0), (2.0, 1.0))], [1.0])
+        >>> t.rows.tolist(), t.factor.tolist()
+        ([[0.0, 1.0, 2.0, 1.0]], [1.0])
+        """
+        import numpy as np
+
+        from revolve.geometry.clipping import StraightPieces
+
+        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        return StraightPieces(rows, np.asarray(factors, dtype=float))
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, flat parts lying in the level plane)``, as tuples of lines.
+
+        The cut point is found from the lower end, with ``x`` exactly the level; a
+        line perpendicular to ``x`` within ``tolerance`` above the level touches it.
+
+        >>> Line((0.0, 1.0), (4.0, 3.0)).part_below(1.0)
+        ((Line(start=(0.0, 1.0), end=(1.0, 1.5), face=None),), ())
+        >>> Line((2.0, 1.0), (2.0, 3.0)).part_below(2.0, 1e-9)   # a flat face at the level
+        ((), (Line(start=(2.0, 1.0), end=(2.0, 3.0), face=None),))
+        >>> Line((5.0, 1.0), (6.0, 1.0)).part_below(2.0)
+        ((), ())
+        """
+        z0, z1 = self.start[0], self.end[0]
+        touching = (self,) if z0 == z1 and level <= z0 <= level + tolerance else ()
+        if max(z0, z1) <= level:
+            return ((self,) if min(z0, z1) < level else ()), touching
+        if min(z0, z1) >= level:
+            return (), touching
+        (zl, rl), (zh, rh) = sorted((self.start, self.end))
+        cut = (level, rl + (level - zl) / (zh - zl) * (rh - rl))   # from the lower end
+        part = replace(self, end=cut, exact=None) if z0 < z1 else replace(self, start=cut, exact=None)
+        return (part,), touching
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Lines as straight rows ``z0, r0, z1, r1`` with z from ``z_ref`` (horizontal tables).
+
+        >>> Line.radial_level_table([Line((3.0, 1.0), (5.0, 2.0))], [1.0], z_ref=4.0).line.tolist()
+        [[-1.0, 1.0, 1.0, 2.0]]
+        """
+        import numpy as np
+
+        from revolve.geometry.horizontal import StraightRows
+
+        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        rows[:, [0, 2]] -= z_ref
+        return StraightRows(rows, np.asarray(factors, dtype=float))
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])
