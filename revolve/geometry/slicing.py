@@ -221,7 +221,9 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         if not z_from.size:
             continue
         parts.append((z_from, z_to, factor))
-        groups.append(PieceGroup(kind, tuple(segs), params, start, start + z_from.size))
+        # contiguous rows: np.take picks rows of them fast (not so from a strided view)
+        groups.append(PieceGroup(kind, tuple(segs), np.ascontiguousarray(params, dtype=float),
+                                 start, start + z_from.size))
         start += z_from.size
     if not parts:
         empty = np.zeros(0)
@@ -240,36 +242,42 @@ class _Rule:
     """Quadrature nodes for one kind's pieces on a slice part [c, d]: ``z = mid + half·x``.
 
     ``weights`` has two columns, the coarse and the fine rule (each zero on
-    the other's nodes); the integral is ``half · Σ weights · f(z)``.
+    the other's nodes), or one column when the rule is exact for the kind
+    (both estimates are then that one); the integral is ``half · Σ weights · f(z)``.
     """
 
     x: np.ndarray
     weights: np.ndarray
 
+    @property
+    def exact(self) -> bool:
+        return self.weights.shape[1] == 1
+
 
 def _rule(degree: Optional[int], n: int) -> _Rule:
-    """The two rules compared on a piece: in ``z`` for a polynomial radius, else in ``φ``.
+    """The rules used on a piece: one exact rule in ``z`` for a polynomial radius, else two in ``φ``.
 
     A radius of degree ``k`` in ``z`` makes ``r²`` of degree ``2k``: Gauss–Legendre
-    with ``k + 1`` and ``k + 2`` nodes are both exact. Otherwise ``n`` and
-    ``2n`` nodes in ``φ``, ``z = mid − half·cos φ`` (smooth at a turning point).
+    with ``k + 1`` nodes is exact, and a second rule would only add rounding
+    (its rounding is bounded instead, see :func:`washer_volume`). Otherwise
+    ``n`` and ``2n`` nodes in ``φ``, ``z = mid − half·cos φ`` (smooth at a
+    turning point), compared.
 
     >>> r = _rule(1, 24)
-    >>> r.x.size, [round(float(v), 14) for v in r.weights.sum(axis=0)]
-    (5, [2.0, 2.0])
+    >>> r.x.size, r.exact, [round(float(v), 14) for v in r.weights.sum(axis=0)]
+    (2, True, [2.0])
     >>> r = _rule(None, 24)            # ∫ sin φ dφ · π/2 over [0, π] = 2
-    >>> r.x.size, [round(float(v), 12) for v in r.weights.sum(axis=0)]
-    (72, [2.0, 2.0])
+    >>> r.x.size, r.exact, [round(float(v), 12) for v in r.weights.sum(axis=0)]
+    (72, False, [2.0, 2.0])
     """
     if degree is not None:
-        orders = (degree + 1, degree + 2)
-        parts = [gauss_legendre(k) for k in orders]
-    else:
-        parts = []
-        for k in (n, 2 * n):
-            x, w = gauss_legendre(k)
-            phi = (x + 1) * (math.pi / 2)                    # nodes on [0, π]
-            parts.append((-np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = half sin φ dφ
+        x, w = gauss_legendre(degree + 1)
+        return _Rule(x, w[:, None])
+    parts = []
+    for k in (n, 2 * n):
+        x, w = gauss_legendre(k)
+        phi = (x + 1) * (math.pi / 2)                    # nodes on [0, π]
+        parts.append((-np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = half sin φ dφ
     x = np.concatenate([p[0] for p in parts])
     weights = np.zeros((x.size, 2))
     weights[:parts[0][0].size, 0] = parts[0][1]
@@ -281,59 +289,95 @@ def _rule(degree: Optional[int], n: int) -> _Rule:
 NODE_BLOCK = 1 << 19
 
 
-def _group_sums(table: PieceTable, group: PieceGroup, pieces: np.ndarray, first: np.ndarray,
+def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
                 count: np.ndarray, a: np.ndarray, b: np.ndarray, rule: _Rule, r_ref: float,
-                out: np.ndarray) -> None:
+                out: np.ndarray) -> float:
     """Add one kind's washers over the intervals to ``out`` (m, 2): coarse and fine rule.
 
-    ``pieces`` are rows of the table (of this group), piece ``pieces[i]``
-    meeting the ``count[i]`` intervals from ``first[i]`` on. The (piece,
-    interval) pairs are expanded in blocks of at most :data:`NODE_BLOCK` nodes.
+    ``pieces`` are rows of the table (of this group; an int array, or an int
+    when they are the rows from there on), piece ``pieces[i]`` meeting the
+    ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
+    are expanded in blocks of at most :data:`NODE_BLOCK` nodes; the nodes are
+    laid out node by node (``z`` is the transpose of a (nodes, pairs) array),
+    so every operation runs along the pairs. Returns the sum of the pairs'
+    magnitudes (for a rounding bound).
     """
     ends = np.cumsum(count)
     total = int(ends[-1]) if ends.size else 0
     if total == 0:
-        return
+        return 0.0
     starts = ends - count
-    block = max(256, NODE_BLOCK // rule.x.size)
+    block = max(1024, NODE_BLOCK // rule.x.size)
+    ranged = isinstance(pieces, (int, np.integer))
+    magnitude = 0.0
     for q0 in range(0, total, block):
         q1 = min(total, q0 + block)
         p0 = int(np.searchsorted(ends, q0, side="right"))
         p1 = int(np.searchsorted(ends, q1 - 1, side="right")) + 1
-        own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
-        local = np.repeat(np.arange(p0, p1), own)
-        iv = first[local] + (np.arange(q0, q1) - starts[local])
-        piece = pieces[local]
-        c = np.maximum(a[iv], table.lo[piece])
-        d = np.minimum(b[iv], table.hi[piece])
-        mid, half = (c + d) * 0.5, (d - c) * 0.5
-        z = mid[:, None] + half[:, None] * rule.x[None, :]
-        r = group.kind.washer_radius(group.segments, group.params[piece - group.start], z)
+        if q1 - q0 == p1 - p0 and ranged:     # one interval per piece, consecutive pieces
+            iv = first[p0:p1]
+            rows = slice(pieces + p0, pieces + p1)
+            lo, hi, sign = table.lo[rows], table.hi[rows], table.sign[rows]
+            params = group.params[rows.start - group.start:rows.stop - group.start]
+        else:
+            own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
+            local = np.repeat(np.arange(p0, p1), own)
+            iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
+            piece = local + pieces if ranged else np.take(pieces, local)
+            lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
+            params = np.take(group.params, piece - group.start, axis=0)
+        c = np.maximum(np.take(a, iv), lo)
+        d = np.minimum(np.take(b, iv), hi)
+        half = d - c
+        half *= 0.5
+        c += d
+        c *= 0.5                          # the middle
+        nodes = np.empty((rule.x.size, c.size))
+        for j, x in enumerate(rule.x):
+            np.multiply(half, x, out=nodes[j])
+            nodes[j] += c
+        r = group.kind.washer_radius(group.segments, params, nodes.T)
         # Every loop crosses a slice as often going one way as the other, so r² − r_ref²
         # sums to the same washer area, without losing digits when a thin section lies far
         # from the axis.
-        sums = np.einsum("ij,jk->ik", (r - r_ref) * (r + r_ref), rule.weights)
-        sums *= (half * table.sign[piece])[:, None]
+        val = (r - r_ref) * (r + r_ref)
+        half *= sign
         lo_iv = int(iv.min())
         span = int(iv.max()) - lo_iv + 1
-        for k in range(2):
-            out[lo_iv:lo_iv + span, k] += np.bincount(iv - lo_iv, weights=sums[:, k], minlength=span)
+        iv = iv - lo_iv
+        if rule.exact:
+            w = rule.weights[:, 0]
+            sums = val[:, 0] * w[0]
+            for j in range(1, w.size):
+                sums += val[:, j] * w[j]
+            sums *= half
+            add = np.bincount(iv, weights=sums, minlength=span)
+            out[lo_iv:lo_iv + span, 0] += add
+            out[lo_iv:lo_iv + span, 1] += add
+            magnitude += float(np.abs(sums).sum())
+        else:
+            sums = np.einsum("ij,jk->ik", val, rule.weights)
+            sums *= half[:, None]
+            for k in range(2):
+                out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+            magnitude += float(np.abs(sums[:, 1]).sum())
+    return magnitude
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
-                   r_ref: float = 0.0) -> Tuple[np.ndarray, np.ndarray]:
+                   r_ref: float = 0.0) -> Tuple[np.ndarray, np.ndarray, float]:
     """∫ of the slice function over each interval [a_k, b_k], by the coarse and the fine rules.
 
     The intervals must be sorted and must not overlap (so ``b`` is sorted
     too). A piece, monotone in z, then meets a contiguous run of intervals.
     ``runs`` gives, per group of the table, ``(pieces, first, count)``: the
     pieces to take and the run of intervals each meets (from
-    :func:`_runs`). The (piece, interval) pairs are expanded from those
-    runs; each pair is the piece's washer over its part ``[max(a, lo),
-    min(b, hi)]`` of the interval; the nodes of a block of pairs are evaluated
-    at once, and the pairs are summed into their intervals with
-    ``np.bincount``. Where every piece end is an interval end (as
-    :func:`washer_volume` starts on smooth outlines), a piece's part of an
+    :func:`_partition` or :func:`_runs`). The (piece, interval) pairs are
+    expanded from those runs; each pair is the piece's washer over its part
+    ``[max(a, lo), min(b, hi)]`` of the interval; the nodes of a block of
+    pairs are evaluated at once, and the pairs are summed into their
+    intervals with ``np.bincount``. Where every piece end is an interval end
+    (as :func:`washer_volume` starts on smooth outlines), a piece's part of an
     interval is the whole interval.
 
     Cost: O(P · nodes) for P pairs, plus finding the runs (a binary search per
@@ -344,17 +388,20 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int
     every vertex), which is why :func:`washer_volume` coarsens its first
     partition until P is O(n).
 
-    Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` by the two
-    rules of :func:`_rule` for its kind on its part of the interval.
+    Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` by the
+    rules of :func:`_rule` for its kind on its part of the interval. Returns
+    the coarse and fine sums per interval and the sum of the magnitudes of
+    all pairs' values.
     """
     out = np.zeros((a.size, 2))
+    magnitude = 0.0
     if a.size == 0 or table.count == 0:
-        return out[:, 0], out[:, 1]
+        return out[:, 0], out[:, 1], magnitude
     for group, (pieces, first, count) in zip(table.groups, runs):
-        if pieces.size:
-            _group_sums(table, group, pieces, first, count, a, b,
-                        _rule(group.kind.washer_degree(), n), r_ref, out)
-    return out[:, 0], out[:, 1]
+        if count.size:
+            magnitude += _group_sums(table, group, pieces, first, count, a, b,
+                                     _rule(group.kind.washer_degree(), n), r_ref, out)
+    return out[:, 0], out[:, 1], magnitude
 
 
 def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
@@ -366,7 +413,9 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
     """
     out = []
     for k, group in enumerate(table.groups):
-        idx = np.arange(group.start, group.stop) if pieces is None else pieces[k]
+        idx = pieces[k] if pieces is not None else group.start
+        if isinstance(idx, (int, np.integer)):
+            idx = np.arange(idx, group.stop)
         first = np.searchsorted(b, table.lo[idx], side="right")
         stop = np.searchsorted(a, table.hi[idx], side="left")
         count = stop - first
@@ -383,8 +432,10 @@ def _partition(table: PieceTable):
     """The first slice intervals and, per group, the run of them each piece meets.
 
     Every distinct piece end is a break; each piece's ends are located among
-    them by one sort (``np.unique``), using that a piece usually starts where
-    the one before it ended (so ``n`` values are sorted, not ``2n``). With
+    them by one sort (its permutation gives each end its rank), using that a
+    piece usually starts where the one before it ended (so ``n`` values are
+    sorted, not ``2n``); a merge sort where the outline runs along the axis in
+    few monotone runs (about one pass), else quicksort. With
     ``step`` breaks per interval, a piece between breaks ``L < H`` meets
     intervals ``L // step … (H − 1) // step``: the pairs for a choice of
     ``step`` are counted in O(n) without any search. ``step`` doubles from 1
@@ -397,8 +448,19 @@ def _partition(table: PieceTable):
     linked = np.zeros(n, dtype=bool)
     linked[:-1] = z_to[:-1] == z_from[1:]
     values = np.concatenate([z_from, z_to[~linked]])
-    breaks, where = np.unique(values, return_inverse=True)
-    where = where.reshape(-1)
+    # A real outline runs along the axis in few monotone runs: a merge sort takes them in
+    # about one pass. A noisy one turns back at most vertices: quicksort is faster there.
+    rising = z_to > z_from
+    turns = int(np.count_nonzero(rising[1:] != rising[:-1]))
+    order = np.argsort(values, kind="stable" if turns * 16 < n else "quicksort")
+    ordered = values[order]
+    new = np.empty(ordered.size, dtype=bool)
+    new[:1] = True
+    np.not_equal(ordered[1:], ordered[:-1], out=new[1:])
+    breaks = ordered[new]
+    where = np.empty(values.size, dtype=np.int64)
+    where[order] = np.cumsum(new) - 1
+    del order, ordered, new, rising
     at_from = where[:n]
     at_to = np.empty(n, dtype=where.dtype)
     at_to[~linked] = where[n:]
@@ -419,8 +481,7 @@ def _partition(table: PieceTable):
     edges = breaks[::step]
     if edges[-1] != breaks[-1]:
         edges = np.append(edges, breaks[-1])
-    runs = [(np.arange(g.start, g.stop), first[g.start:g.stop], count[g.start:g.stop])
-            for g in table.groups]
+    runs = [(g.start, first[g.start:g.stop], count[g.start:g.stop]) for g in table.groups]
     return edges, runs
 
 
@@ -477,6 +538,10 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     first), those not yet resolved are taken with their difference plus the
     washer area they hold as the error estimate (honest, if not tight).
 
+    Kinds whose radius is a polynomial of ``z`` (straight pieces) are
+    integrated exactly by one rule; for them the error estimate is a rounding
+    bound, 16 ulps of the sum of the magnitudes of all (piece, interval) values.
+
     The first partition costs one sort of the piece ends (:func:`_partition`);
     each later round costs O(m log m) for the m intervals left plus the work of
     :func:`_interval_sums` on the pairs of pieces and intervals, only for the
@@ -502,7 +567,9 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
         if round_no:
             runs = _runs(table, a, b, [p for p, _, _ in runs])
         with np.errstate(all="ignore"):
-            coarse, fine = _interval_sums(table, a, b, runs, n, r_ref)
+            coarse, fine, magnitude = _interval_sums(table, a, b, runs, n, r_ref)
+        if math.isfinite(magnitude):
+            error += 16 * np.finfo(float).eps * magnitude
         diff = np.abs(fine - coarse)
         finite = np.isfinite(fine) & np.isfinite(diff)
         scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
