@@ -425,7 +425,7 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 
 
 #: Most (piece, interval) pairs per piece the first partition of the washers may give.
-PAIRS_PER_PIECE = 8
+PAIRS_PER_PIECE = 4
 
 
 def _partition(table: PieceTable):
