@@ -285,13 +285,13 @@ def _rule(degree: Optional[int], n: int) -> _Rule:
     return _Rule(x, weights)
 
 
-#: Most quadrature nodes (pairs × nodes per pair) evaluated at once (bounds memory: 4 MB an array).
-NODE_BLOCK = 1 << 19
+#: Most quadrature nodes (pairs × nodes per pair) evaluated at once (512 kB an array: in cache).
+NODE_BLOCK = 1 << 16
 
 
 def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
                 count: np.ndarray, a: np.ndarray, b: np.ndarray, rule: _Rule, r_ref: float,
-                out: np.ndarray) -> float:
+                out: np.ndarray) -> None:
     """Add one kind's washers over the intervals to ``out`` (m, 2): coarse and fine rule.
 
     ``pieces`` are rows of the table (of this group; an int array, or an int
@@ -299,17 +299,16 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
     ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
     are expanded in blocks of at most :data:`NODE_BLOCK` nodes; the nodes are
     laid out node by node (``z`` is the transpose of a (nodes, pairs) array),
-    so every operation runs along the pairs. Returns the sum of the pairs'
-    magnitudes (for a rounding bound).
+    so every operation runs along the pairs.
     """
     ends = np.cumsum(count)
     total = int(ends[-1]) if ends.size else 0
     if total == 0:
-        return 0.0
+        return
     starts = ends - count
     block = max(1024, NODE_BLOCK // rule.x.size)
     ranged = isinstance(pieces, (int, np.integer))
-    magnitude = 0.0
+    few = a.size <= 4 * block           # few intervals: sum into all of them
     for q0 in range(0, total, block):
         q1 = min(total, q0 + block)
         p0 = int(np.searchsorted(ends, q0, side="right"))
@@ -342,9 +341,12 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         # from the axis.
         val = (r - r_ref) * (r + r_ref)
         half *= sign
-        lo_iv = int(iv.min())
-        span = int(iv.max()) - lo_iv + 1
-        iv = iv - lo_iv
+        if few:
+            lo_iv, span = 0, a.size
+        else:                             # the intervals this block's pieces meet
+            lo_iv = int(first[p0:p1].min())
+            span = int((first[p0:p1] + count[p0:p1]).max()) - lo_iv
+            iv = iv - lo_iv
         if rule.exact:
             w = rule.weights[:, 0]
             sums = val[:, 0] * w[0]
@@ -354,18 +356,15 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
             add = np.bincount(iv, weights=sums, minlength=span)
             out[lo_iv:lo_iv + span, 0] += add
             out[lo_iv:lo_iv + span, 1] += add
-            magnitude += float(np.abs(sums).sum())
         else:
             sums = np.einsum("ij,jk->ik", val, rule.weights)
             sums *= half[:, None]
             for k in range(2):
                 out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
-            magnitude += float(np.abs(sums[:, 1]).sum())
-    return magnitude
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
-                   r_ref: float = 0.0) -> Tuple[np.ndarray, np.ndarray, float]:
+                   r_ref: float = 0.0) -> Tuple[np.ndarray, np.ndarray]:
     """∫ of the slice function over each interval [a_k, b_k], by the coarse and the fine rules.
 
     The intervals must be sorted and must not overlap (so ``b`` is sorted
@@ -390,18 +389,16 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int
 
     Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` by the
     rules of :func:`_rule` for its kind on its part of the interval. Returns
-    the coarse and fine sums per interval and the sum of the magnitudes of
-    all pairs' values.
+    the coarse and fine sums per interval.
     """
     out = np.zeros((a.size, 2))
-    magnitude = 0.0
     if a.size == 0 or table.count == 0:
-        return out[:, 0], out[:, 1], magnitude
+        return out[:, 0], out[:, 1]
     for group, (pieces, first, count) in zip(table.groups, runs):
         if count.size:
-            magnitude += _group_sums(table, group, pieces, first, count, a, b,
-                                     _rule(group.kind.washer_degree(), n), r_ref, out)
-    return out[:, 0], out[:, 1], magnitude
+            _group_sums(table, group, pieces, first, count, a, b,
+                        _rule(group.kind.washer_degree(), n), r_ref, out)
+    return out[:, 0], out[:, 1]
 
 
 def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
@@ -470,14 +467,18 @@ def _partition(table: PieceTable):
     high = np.maximum(at_from, at_to) - 1          # the last elementary interval met
     del at_from, at_to, where, values, linked, chain
     limit = PAIRS_PER_PIECE * n + 64
-    step = 1
     intervals = breaks.size - 1
+    # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
+    # every break (and fall as k grows): start from the first k that bound allows.
+    beyond = int((high - low).sum())
+    shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
     while True:
-        first = low // step if step > 1 else low
-        count = high // step - first + 1 if step > 1 else high - low + 1
+        step = 1 << shift
+        first = low >> shift if shift else low
+        count = (high >> shift) - first + 1 if shift else high - low + 1
         if int(count.sum()) <= limit or step >= intervals:
             break
-        step *= 2
+        shift += 1
     edges = breaks[::step]
     if edges[-1] != breaks[-1]:
         edges = np.append(edges, breaks[-1])
@@ -540,7 +541,9 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
 
     Kinds whose radius is a polynomial of ``z`` (straight pieces) are
     integrated exactly by one rule; for them the error estimate is a rounding
-    bound, 16 ulps of the sum of the magnitudes of all (piece, interval) values.
+    bound: 16 ulps of the largest ``|r² − r_ref²|`` times the pieces' total
+    extent along the axis (a bound on the sum of the magnitudes of all the
+    (piece, interval) values).
 
     The first partition costs one sort of the piece ends (:func:`_partition`);
     each later round costs O(m log m) for the m intervals left plus the work of
@@ -558,7 +561,8 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     r_far = max(abs(r_low), abs(r_high))
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
-    error = 0.0
+    largest = max(abs((r_high - r_ref) * (r_high + r_ref)), abs((r_low - r_ref) * (r_low + r_ref)))
+    error = 16 * np.finfo(float).eps * largest * float((table.hi - table.lo).sum())
     n = 24
     budget = a.size + max_intervals
     used = 0
@@ -567,9 +571,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
         if round_no:
             runs = _runs(table, a, b, [p for p, _, _ in runs])
         with np.errstate(all="ignore"):
-            coarse, fine, magnitude = _interval_sums(table, a, b, runs, n, r_ref)
-        if math.isfinite(magnitude):
-            error += 16 * np.finfo(float).eps * magnitude
+            coarse, fine = _interval_sums(table, a, b, runs, n, r_ref)
         diff = np.abs(fine - coarse)
         finite = np.isfinite(fine) & np.isfinite(diff)
         scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
