@@ -574,6 +574,12 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
             coarse, fine = _interval_sums(table, a, b, runs, n, r_ref)
         diff = np.abs(fine - coarse)
         finite = np.isfinite(fine) & np.isfinite(diff)
+        if finite.all():
+            scale = max(abs(value) + float(np.abs(fine).sum()), 1e-300)
+            if float(diff.max()) <= rel_tol * scale:    # every interval resolved
+                value += float(fine.sum())
+                error += float(diff.sum())
+                break
         scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
         # An interval too narrow to halve (its middle rounds onto an end) is done.
         narrow = (b - a) <= 4 * np.spacing(np.maximum(np.abs(a), np.abs(b)))
