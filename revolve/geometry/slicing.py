@@ -289,24 +289,58 @@ def _rule(degree: Optional[int], n: int) -> _Rule:
 NODE_BLOCK = 1 << 16
 
 
+#: A part of a piece at most this fraction of the piece's extent along the axis is integrated
+#: with :data:`SMALL_PART_ORDER` nodes (and twice as many) instead of the washers' full order:
+#: a short part of a smooth piece needs few nodes, and the comparison of the two rules still
+#: decides whether its interval is halved.
+SMALL_PART = 1.0 / 64
+SMALL_PART_ORDER = 8
+
+
+def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.ndarray,
+               rule: _Rule, r_ref: float) -> np.ndarray:
+    """``Σ w · (r − r_ref)(r + r_ref)`` at the rule's nodes of parts ``mid ± half``, per part.
+
+    One column per rule of ``rule`` (shape (pairs,) for an exact rule, else
+    (pairs, 2)). The nodes are laid out node by node (``z`` is the transpose
+    of a (nodes, pairs) array), so every operation runs along the pairs.
+    """
+    nodes = np.empty((rule.x.size, mid.size))
+    for j, x in enumerate(rule.x):
+        np.multiply(half, x, out=nodes[j])
+        nodes[j] += mid
+    r = group.kind.washer_radius(group.segments, params, nodes.T)
+    # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
+    # to the same washer area, without losing digits when a thin section lies far from
+    # the axis.
+    val = (r - r_ref) * (r + r_ref)
+    if rule.exact:
+        w = rule.weights[:, 0]
+        sums = val[:, 0] * w[0]
+        for j in range(1, w.size):
+            sums += val[:, j] * w[j]
+        return sums
+    return np.einsum("ij,jk->ik", val, rule.weights)
+
+
 def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
                 count: np.ndarray, a: np.ndarray, b: np.ndarray, rule: _Rule, r_ref: float,
-                out: np.ndarray) -> None:
+                out: np.ndarray, small_rule: Optional[_Rule] = None) -> None:
     """Add one kind's washers over the intervals to ``out`` (m, 2): coarse and fine rule.
 
     ``pieces`` are rows of the table (of this group; an int array, or an int
     when they are the rows from there on), piece ``pieces[i]`` meeting the
     ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
-    are expanded in blocks of at most :data:`NODE_BLOCK` nodes; the nodes are
-    laid out node by node (``z`` is the transpose of a (nodes, pairs) array),
-    so every operation runs along the pairs.
+    are expanded in blocks of at most :data:`NODE_BLOCK` nodes. With
+    ``small_rule``, parts no longer than :data:`SMALL_PART` of their piece
+    take that rule.
     """
     ends = np.cumsum(count)
     total = int(ends[-1]) if ends.size else 0
     if total == 0:
         return
     starts = ends - count
-    block = max(1024, NODE_BLOCK // rule.x.size)
+    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
     ranged = isinstance(pieces, (int, np.integer))
     few = a.size <= 4 * block           # few intervals: sum into all of them
     for q0 in range(0, total, block):
@@ -327,37 +361,41 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
             params = np.take(group.params, piece - group.start, axis=0)
         c = np.maximum(np.take(a, iv), lo)
         d = np.minimum(np.take(b, iv), hi)
+        small = None
+        if small_rule is not None:
+            small = (d - c) <= SMALL_PART * (hi - lo)
+            if small.all():
+                rule_here, small = small_rule, None
+            elif not small.any():
+                rule_here, small = rule, None
+        else:
+            rule_here = rule
         half = d - c
         half *= 0.5
         c += d
         c *= 0.5                          # the middle
-        nodes = np.empty((rule.x.size, c.size))
-        for j, x in enumerate(rule.x):
-            np.multiply(half, x, out=nodes[j])
-            nodes[j] += c
-        r = group.kind.washer_radius(group.segments, params, nodes.T)
-        # Every loop crosses a slice as often going one way as the other, so r² − r_ref²
-        # sums to the same washer area, without losing digits when a thin section lies far
-        # from the axis.
-        val = (r - r_ref) * (r + r_ref)
+        if small is None:
+            sums = _part_sums(group, params, c, half, rule_here, r_ref)
+        else:
+            sums = np.empty((c.size, 2))
+            for sel, rl in ((small, small_rule), (~small, rule)):
+                sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
         half *= sign
         if few:
             lo_iv, span = 0, a.size
         else:                             # the intervals this block's pieces meet
             lo_iv = int(first[p0:p1].min())
             span = int((first[p0:p1] + count[p0:p1]).max()) - lo_iv
+            if span > 4 * iv.size:        # a long piece: only the intervals of its pairs here
+                lo_iv = int(iv.min())
+                span = int(iv.max()) + 1 - lo_iv
             iv = iv - lo_iv
-        if rule.exact:
-            w = rule.weights[:, 0]
-            sums = val[:, 0] * w[0]
-            for j in range(1, w.size):
-                sums += val[:, j] * w[j]
+        if sums.ndim == 1:
             sums *= half
             add = np.bincount(iv, weights=sums, minlength=span)
             out[lo_iv:lo_iv + span, 0] += add
             out[lo_iv:lo_iv + span, 1] += add
         else:
-            sums = np.einsum("ij,jk->ik", val, rule.weights)
             sums *= half[:, None]
             for k in range(2):
                 out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
@@ -388,7 +426,9 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int
     partition until P is O(n).
 
     Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` by the
-    rules of :func:`_rule` for its kind on its part of the interval. Returns
+    rules of :func:`_rule` for its kind on its part of the interval (with
+    :data:`SMALL_PART_ORDER` nodes on a part no longer than :data:`SMALL_PART`
+    of a piece that is not a polynomial of ``z``). Returns
     the coarse and fine sums per interval.
     """
     out = np.zeros((a.size, 2))
@@ -396,8 +436,10 @@ def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int
         return out[:, 0], out[:, 1]
     for group, (pieces, first, count) in zip(table.groups, runs):
         if count.size:
-            _group_sums(table, group, pieces, first, count, a, b,
-                        _rule(group.kind.washer_degree(), n), r_ref, out)
+            degree = group.kind.washer_degree()
+            small = None if degree is not None else _rule(None, min(n, SMALL_PART_ORDER))
+            _group_sums(table, group, pieces, first, count, a, b, _rule(degree, n), r_ref, out,
+                        small)
     return out[:, 0], out[:, 1]
 
 
