@@ -204,3 +204,23 @@ def test_random_star_shaped_polygons_against_shapely(case):
     assert abs(s - s_ref) <= 1e-12 * s_ref
     vl, _, sl, _, _ = cross_check([Loop.from_points(pts.tolist())])
     assert abs(v - vl) <= 1e-12 * v_ref and abs(s - sl) <= 1e-12 * s_ref
+
+
+def test_long_arc_cut_by_the_slices_of_a_dense_polyline():
+    # Upper half: a polyline of 5000 vertices on a circle of radius 20 about (0, 50); lower half:
+    # one arc, cut by every slice of the polyline. Reference: shapely's area and centroid of the
+    # polygon half (closed along the diameter) plus the half disc below (centroid 4a/(3π) from
+    # its diameter, from memory), through Pappus–Guldinus; surface likewise from shapely's
+    # boundary less the diameter, plus the half circle (centroid 2a/π from it, from memory).
+    a = np.linspace(0.0, math.pi, 5000)
+    pts = np.column_stack([20 * np.cos(a), 50 + 20 * np.sin(a)])
+    pts[0], pts[-1] = (20.0, 50.0), (-20.0, 50.0)
+    arc = arc_from_centre((-20.0, 50.0), (20.0, 50.0), (0.0, 50.0), clockwise=False)
+    v, ve, s, se, _ = cross_check([Loop((Polyline(pts), arc))])
+    half = Polygon(pts)
+    half_disc = math.pi * 400 / 2
+    v_ref = FULL * (half.area * half.centroid.y + half_disc * (50 - 80 / (3 * math.pi)))
+    chain_moment = half.boundary.centroid.y * half.length - 50.0 * 40.0
+    s_ref = FULL * (chain_moment + math.pi * 20 * (50 - 40 / math.pi))
+    assert abs(v - v_ref) <= 1e-12 * v_ref and ve <= 1e-12 * v_ref
+    assert abs(s - s_ref) <= 1e-12 * s_ref
