@@ -448,7 +448,8 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 
     A piece meets the intervals with ``b > lo`` and ``a < hi``: two binary
     searches. Pieces meeting none are dropped (the next rounds only halve
-    these intervals, so they meet none of those either).
+    these intervals, so they meet none of those either). :func:`washer_volume`
+    passes only the pieces that met an interval it halves.
     """
     out = []
     for k, group in enumerate(table.groups):
@@ -590,7 +591,8 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     The first partition costs one sort of the piece ends (:func:`_partition`);
     each later round costs O(m log m) for the m intervals left plus the work of
     :func:`_interval_sums` on the pairs of pieces and intervals, only for the
-    pieces that met an unresolved interval in the round before. On an outline
+    pieces that met an unresolved interval in the round before (found from
+    their runs by a prefix count, with no search). On an outline
     of straight edges (lines, polylines) the first round resolves every
     interval.
     """
@@ -611,7 +613,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     for round_no in range(max_rounds):
         used += a.size
         if round_no:
-            runs = _runs(table, a, b, [p for p, _, _ in runs])
+            runs = _runs(table, a, b, pending)
         with np.errstate(all="ignore"):
             coarse, fine = _interval_sums(table, a, b, runs, n, r_ref)
         diff = np.abs(fine - coarse)
@@ -638,6 +640,13 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
         error += float(np.where(unsure, np.where(finite, diff, 0.0) + bound, diff)[good].sum())
         if good.all():
             break
+        # Only the pieces that meet an interval left unresolved meet any of its halves.
+        unresolved = np.concatenate([[0], np.cumsum(~good)])
+        pending = []
+        for pieces, first, count in runs:
+            if isinstance(pieces, (int, np.integer)):
+                pieces = np.arange(pieces, pieces + first.size)
+            pending.append(pieces[unresolved[first + count] > unresolved[first]])
         # Halve the rest; each pair of halves stays in place, so the intervals stay sorted.
         ab, bb = a[~good], b[~good]
         m = (ab + bb) / 2
