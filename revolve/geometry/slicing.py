@@ -8,7 +8,9 @@ integrated over ``z`` with breakpoints at every vertex and every point where
 the boundary turns back along the axis, by Gauss–Legendre quadrature in the
 variable φ of ``z = (a + b)/2 - (b - a)/2 · cos φ`` (which smooths the square-
 root behaviour of an arc at its turning points), comparing two orders and
-splitting intervals until they agree. Each crossing's part of a slice interval
+splitting intervals until they agree; a straight crossing, whose ``r²`` is a
+quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
+rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
 crossings (a noisy outline) the intervals may be coarser than the vertices
 (:func:`first_partition`); the pieces and intervals are arrays, and the work is
@@ -610,6 +612,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     n = 24
     budget = a.size + max_intervals
     used = 0
+    pending: list = []          # per group, the pieces that met an interval being halved
     for round_no in range(max_rounds):
         used += a.size
         if round_no:

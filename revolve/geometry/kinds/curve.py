@@ -554,7 +554,7 @@ class Curve(SegmentKind):
     # -- for the washer cross-check (slicing.py) ------------------------------------------
 
     def monotone_parameters(self, coordinate: int, t_from, t_to, targets, iterations: int = 70):
-        """Parameters where the curve, monotone in one coordinate on each ``[t_from, t_to]``, reaches ``targets``.
+        """Parameters where the curve, monotone in a coordinate on ``[t_from, t_to]``, reaches ``targets``.
 
         ``coordinate`` 0 inverts ``x(t)`` (the axial ``z`` in the frame), 1
         inverts ``y(t)`` (the radius). ``t_from`` and ``t_to`` broadcast
