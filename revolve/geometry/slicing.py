@@ -204,6 +204,12 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
             continue
         f = float(loop_factors[loop_no])
         loop_no += 1
+        kinds = set(map(type, segs))
+        if len(kinds) == 1:                  # a loop of one kind (a point list): at once
+            group = by_kind.setdefault(kinds.pop(), ([], []))
+            group[0].extend(segs)
+            group[1].extend([f] * len(segs))
+            continue
         for s in segs:
             group = by_kind.setdefault(type(s), ([], []))
             group[0].append(s)
@@ -559,17 +565,40 @@ def first_partition(table: PieceTable) -> np.ndarray:
 MAX_SLICE_INTERVALS = 20_000
 
 
-def _radius_range(prep) -> Tuple[float, float]:
-    """Smallest and largest radius of the profile, from each segment's ``bounds()``.
+def _radius_range(table: PieceTable) -> Tuple[float, float]:
+    """Smallest and largest radius of the pieces (the reference radius and error scale of the washers).
 
-    Kinds of many vertices (a polyline) answer from their array at once.
+    A kind whose radius is linear in ``z`` along a piece (``washer_degree()
+    == 1``: straight pieces, many of them) has its extremes at the piece
+    ends, evaluated at once by its ``washer_radius``; any other kind (arcs,
+    curves: few) answers each segment's ``bounds()``.
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> from revolve.geometry.segments import Line, arc_from_centre
+    >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> _radius_range(piece_table(prep, [1.0]))
+    (1.0, 3.0)
+    >>> top = arc_from_centre((2.0, 0.0), (-2.0, 0.0), (0.0, 0.0), clockwise=False)
+    >>> ball = prepare(Profile(loops=(Loop((top, Line((-2.0, 0.0), (2.0, 0.0)))),)), Axis.x())
+    >>> _radius_range(piece_table(ball, [1.0]))       # the top of the arc, not its ends
+    (0.0, 2.0)
     """
     lo, hi = math.inf, -math.inf
-    for path in prep.paths:
-        for s in path:
-            _, r0, _, r1 = s.bounds()
-            lo, hi = min(lo, r0), max(hi, r1)
-    return lo, hi
+    for g in table.groups:
+        if g.kind.washer_degree() == 1:
+            z = np.empty((2, g.stop - g.start))
+            z[0], z[1] = table.lo[g.start:g.stop], table.hi[g.start:g.stop]
+            with np.errstate(all="ignore"):      # a piece too short for its slope: not counted
+                r = g.kind.washer_radius(g.segments, g.params, z.T)
+            r = r[np.isfinite(r)]
+            if r.size:
+                lo, hi = min(lo, float(r.min())), max(hi, float(r.max()))
+        else:
+            for seg in g.segments:
+                _, r0, _, r1 = seg.bounds()
+                lo, hi = min(lo, r0), max(hi, r1)
+    return (lo, hi) if lo <= hi else (0.0, 0.0)
 
 
 def washer_volume(prep, loop_factors: Sequence[float], angle: float,
@@ -602,7 +631,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     if table.count == 0:
         return 0.0, 0.0
     breaks, runs = _partition(table)
-    r_low, r_high = _radius_range(prep)
+    r_low, r_high = _radius_range(table)
     r_ref = (r_low + r_high) / 2
     r_far = max(abs(r_low), abs(r_high))
     a, b = breaks[:-1], breaks[1:]
@@ -672,9 +701,13 @@ def surface_by_quadrature(prep, angle: float, n: int = 32,
     segs = [s for p in prep.paths for s in p]
     out = np.zeros(len(segs))
     err = np.zeros(len(segs))
+    kinds = list(map(type, segs))
+    if len(set(kinds)) == 1:                 # one kind (a point list): all at once
+        out[:], err[:] = kinds[0].r_ds_rows(segs, n, rel_tol)
+        return list(out * angle), list(err * angle)
     groups: Dict[type, List[int]] = {}
-    for i, s in enumerate(segs):
-        groups.setdefault(type(s), []).append(i)
+    for i, kind in enumerate(kinds):
+        groups.setdefault(kind, []).append(i)
     for kind, idx in groups.items():
         v, e = kind.r_ds_rows([segs[i] for i in idx], n, rel_tol)
         out[idx], err[idx] = v, e

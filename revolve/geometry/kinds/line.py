@@ -198,7 +198,7 @@ class Line(SegmentKind):
         """
         import numpy as np
 
-        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        rows = _end_rows(segments)
         return rows[:, 0], rows[:, 2], np.ones(len(rows), dtype=np.int64), rows
 
     @classmethod
@@ -245,10 +245,22 @@ class Line(SegmentKind):
         >>> v.tolist(), e.tolist()
         ([4.0, 10.0], [0.0, 0.0])
         """
-        import numpy as np
-
-        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        rows = _end_rows(segments)
         return _r_ds_straight(rows[:, 0], rows[:, 1], rows[:, 2], rows[:, 3])
+
+
+def _end_rows(segments):
+    """The ends ``x0, y0, x1, y1`` of many lines as an (n, 4) array (no list of tuples).
+
+    >>> _end_rows([Line((0.0, 1.0), (2.0, 3.0))]).tolist()
+    [[0.0, 1.0, 2.0, 3.0]]
+    """
+    from itertools import chain
+
+    import numpy as np
+
+    values = chain.from_iterable(s.start + s.end for s in segments)
+    return np.fromiter(values, dtype=float, count=4 * len(segments)).reshape(-1, 4)
 
 
 def _r_ds_straight(z0, r0, z1, r1):
