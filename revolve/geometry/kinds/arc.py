@@ -572,6 +572,117 @@ class Arc(SegmentKind):
         centres = np.column_stack([cx - z_ref, cy, R])
         return CircularRows.from_pieces(centres, arc, a_from, a_to, np.asarray(factors, dtype=float))
 
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """Pieces of many arcs along which the axial position moves one way, as arrays.
+
+        Each arc is cut at its :meth:`monotone_ranges` in ``z`` (where it
+        turns back along the axis); the ends come from :meth:`points_at`
+        (exact at a turning point). See :meth:`Line.washer_pieces
+        <revolve.geometry.kinds.line.Line.washer_pieces>` for what is
+        returned; an arc's row is ``cz, cr, R, s, u_e, r_e, √(R² − u_e²)``: the
+        centre, the radius, the side of the centre the piece lies on (``s`` =
+        ±1) and a known point of the piece (its start, ``u_e = z_e − cz``)
+        given without the square root of a rounded difference (exactly ``±R``,
+        ``cr`` and 0 at a turning point), for :meth:`washer_radius`.
+
+        Examples
+        --------
+        >>> top = arc_from_centre((0.0, 1.0), (0.0, -1.0), (0.0, 0.0), clockwise=True)
+        >>> zf, zt, counts, params = Arc.washer_pieces([top])
+        >>> zf.tolist(), zt.tolist(), counts.tolist()
+        ([0.0, 1.0], [1.0, 0.0], [2])
+        >>> params[1].tolist()        # below the centre, from the turning point (1, 0)
+        [0.0, 0.0, 1.0, -1.0, 1.0, 0.0, 0.0]
+        """
+        import numpy as np
+
+        rows, counts = [], []
+        for arc in segments:
+            (cz, cr), R = arc.centre, arc.radius
+            a0, d = arc.angles()[0], arc.sweep()
+            ranges = arc.monotone_ranges(0)
+            for p0, p1 in ranges:
+                (z0, _), (z1, _) = arc.points_at([p0, p1])
+                s = 1.0 if math.sin(a0 + 0.5 * (p0 + p1) * d) > 0 else -1.0
+                if p0 == 0.0:
+                    ue, re, root_e = arc.start[0] - cz, arc.start[1], abs(arc.start[1] - cr)
+                else:
+                    ue, re, root_e = (R if z0 > cz else -R), cr, 0.0
+                rows.append((z0, z1, cz, cr, R, s, ue, re, root_e))
+            counts.append(len(ranges))
+        table = np.array(rows, dtype=float).reshape(-1, 9)
+        return table[:, 0], table[:, 1], np.array(counts, dtype=np.int64), table[:, 2:]
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` (rows (m, q)) along arc pieces ``params`` (m, 7).
+
+        ``r(z) = cr + s √(R² − u²)``, ``u = z − cz``, written from the piece's
+        known point as ``r_e + s (u_e − u)(u_e + u) / (√(R² − u²) + √(R² − u_e²))``:
+        the same value, without the cancellation of ``cr`` against the root when
+        the centre is far (a flat arc).
+
+        >>> import numpy as np
+        >>> top = arc_from_centre((0.0, 1.0), (0.0, -1.0), (0.0, 0.0), clockwise=True)
+        >>> _, _, _, params = Arc.washer_pieces([top])
+        >>> r = Arc.washer_radius([top], params, np.array([[0.6, 1.0], [0.6, 0.0]]))
+        >>> [[round(float(v), 12) for v in row] for row in r]
+        [[0.8, 0.0], [-0.8, -1.0]]
+        """
+        import numpy as np
+
+        cz, cr, R, s, ue, re, root_e = (params[:, k:k + 1] for k in range(7))
+        u = z - cz
+        root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
+        with np.errstate(invalid="ignore", divide="ignore"):
+            r = re + s * (ue - u) * (ue + u) / (root + root_e)
+        return np.where(root + root_e > 0, r, cr + s * root)
+
+    @classmethod
+    def washer_degree(cls):
+        """None: the radius along an arc is not a polynomial of ``z``.
+
+        The washers then use Gauss–Legendre in ``φ``, ``z = mid − half·cos φ``,
+        which smooths the square-root behaviour at a turning point.
+
+        >>> Arc.washer_degree() is None
+        True
+        """
+        return None
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14):
+        """``∫ r ds`` along each arc by Gauss–Legendre in the angle, ``n`` and ``2n`` nodes.
+
+        Returns ``(values, errors)``: the finer sum and the difference of the two.
+        ``r = r0 + R (sin θ − sin θ0)`` is taken as a product, without cancellation
+        against a far centre.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> v, e = Arc.r_ds_rows([half])          # ∫ sin θ dθ over [0, π] = 2
+        >>> round(float(v[0]), 13), bool(e[0] < 1e-13)
+        (2.0, True)
+        """
+        import numpy as np
+
+        from revolve.geometry.slicing import gauss_legendre
+
+        par = np.array([(a.start[1], a.radius, a.angles()[0], a.sweep()) for a in segments],
+                       dtype=float).reshape(-1, 4)
+        r0, R, a0, d = par.T
+        out = []
+        for m in (n, 2 * n):
+            x, w = gauss_legendre(m)
+            half = ((x[None, :] + 1) / 4) * d[:, None]          # (θ − θ0)/2
+            r = r0[:, None] + 2 * R[:, None] * np.cos(a0[:, None] + half) * np.sin(half)
+            out.append(np.einsum("ij,j->i", r, w) * R * np.abs(d) / 2)
+        return out[1], np.abs(out[1] - out[0])
+
+
+
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,
                     where: Optional[Where] = None, exact: Optional[tuple] = None) -> "Arc":

@@ -729,6 +729,141 @@ class Curve(SegmentKind):
             items.append((s.translated(-z_ref), [a for a, _ in ranges] + [ranges[-1][1]]))
         return ParametricRows.from_parameters(items, factors)
 
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    def monotone_parameters(self, coordinate: int, t_from, t_to, targets, iterations: int = 70):
+        """Parameters where the curve, monotone in a coordinate on ``[t_from, t_to]``, reaches ``targets``.
+
+        ``coordinate`` 0 inverts ``x(t)`` (the axial ``z`` in the frame), 1
+        inverts ``y(t)`` (the radius). ``t_from`` and ``t_to`` broadcast
+        against ``targets`` (one range per row, or one for all): a vectorised
+        bisection of ``iterations`` halvings.
+
+        >>> import numpy as np, sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> c = Curve(t ** 2, t, 0.0, 2.0)
+        >>> [round(float(v), 12) for v in c.monotone_parameters(0, 0.0, 2.0, np.array([1.0, 4.0]))]
+        [1.0, 2.0]
+        >>> c.monotone_parameters(0, np.array([[0.0], [2.0]]), np.array([[1.0], [1.0]]),
+        ...                       np.array([[0.25], [1.0]])).round(12).tolist()
+        [[0.5], [1.0]]
+        """
+        import numpy as np
+
+        targets = np.asarray(targets, dtype=float)
+        ta = np.asarray(t_from, dtype=float)
+        tb = np.asarray(t_to, dtype=float)
+        rising = self.evaluate(tb)[coordinate] > self.evaluate(ta)[coordinate]
+        lo = np.array(np.broadcast_to(ta, targets.shape), dtype=float)
+        hi = np.array(np.broadcast_to(tb, targets.shape), dtype=float)
+        for _ in range(iterations):
+            mid = 0.5 * (lo + hi)
+            value = self.evaluate(mid)[coordinate]
+            below = np.where(rising, value < targets, value > targets)
+            lo = np.where(below, mid, lo)
+            hi = np.where(below, hi, mid)
+        return 0.5 * (lo + hi)
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """Pieces of many curves along which the axial position moves one way, as arrays.
+
+        Each curve is cut at its :meth:`monotone_ranges` in ``z`` (its
+        :meth:`turning_parameters`); see :meth:`Line.washer_pieces
+        <revolve.geometry.kinds.line.Line.washer_pieces>` for what is
+        returned. A curve's row is ``t_a, t_b, k``: the piece's parameter range
+        and the index of its curve in ``segments``, for :meth:`washer_radius`.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> zf, zt, counts, params = Curve.washer_pieces([Curve(t * (2 - t), t + 1, 0.0, 2.0)])
+        >>> zf.tolist(), zt.tolist(), counts.tolist(), params.tolist()
+        ([0.0, 1.0], [1.0, 0.0], [2], [[0.0, 1.0, 0.0], [1.0, 2.0, 0.0]])
+        """
+        import numpy as np
+
+        rows, counts = [], []
+        for k, seg in enumerate(segments):
+            ranges = seg.monotone_ranges(0)
+            for ta, tb in ranges:
+                za, zb = seg.points_at([ta, tb])[:, 0]
+                rows.append((za, zb, ta, tb, k))
+            counts.append(len(ranges))
+        table = np.array(rows, dtype=float).reshape(-1, 5)
+        return table[:, 0], table[:, 1], np.array(counts, dtype=np.int64), table[:, 2:]
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` (rows (m, q)) along curve pieces ``params`` (m, 3).
+
+        Each row's parameter is found by :meth:`monotone_parameters` on its
+        curve (``segments[k]``), all rows of one curve at once.
+
+        >>> import numpy as np, sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> c = Curve(t * (2 - t), t + 1, 0.0, 2.0)
+        >>> _, _, _, params = Curve.washer_pieces([c])
+        >>> Curve.washer_radius([c], params, np.array([[0.75], [0.75]])).round(12).tolist()
+        [[1.5], [2.5]]
+        """
+        import numpy as np
+
+        z = np.asarray(z, dtype=float)
+        out = np.empty(z.shape)
+        owner = params[:, 2].astype(np.int64)
+        for k in np.unique(owner):
+            rows = np.flatnonzero(owner == k)
+            seg = segments[int(k)]
+            t = seg.monotone_parameters(0, params[rows, 0:1], params[rows, 1:2], z[rows])
+            out[rows] = seg.evaluate(t)[1]
+        return out
+
+    @classmethod
+    def washer_degree(cls):
+        """None: the radius along a curve is not taken as a polynomial of ``z``.
+
+        >>> Curve.washer_degree() is None
+        True
+        """
+        return None
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14):
+        """``∫ r ds`` along each curve by adaptive Gauss–Legendre in ``φ``: ``(values, errors)``.
+
+        ``t = mid − half·cos φ`` keeps the integrand smooth at vertical tangents;
+        vectorised over intervals, with a bounded number of them (see
+        :func:`revolve.geometry.integrals.adaptive_quadrature`).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> v, e = Curve.r_ds_rows([Curve(3 * t, 4 * t, 0.0, 1.0)])   # r = 4t, ds = 5 dt: 10
+        >>> round(float(v[0]), 12), bool(e[0] < 1e-12)
+        (10.0, True)
+        """
+        import numpy as np
+
+        from revolve.geometry.integrals import adaptive_quadrature
+
+        values = np.zeros(len(segments))
+        errors = np.zeros(len(segments))
+        for i, c in enumerate(segments):
+            ta, tb = c.t_start, c.t_end
+            mid, half = (ta + tb) / 2, (tb - ta) / 2
+
+            def g(phi, c=c, mid=mid, half=half):
+                t = mid - half * np.cos(phi)
+                _, r, dz, dr = c.evaluate(t)
+                v = r * np.hypot(dz, dr) * np.sin(phi) * half
+                return np.nan_to_num(v, nan=0.0, posinf=0.0, neginf=0.0)[:, None]
+
+            with np.errstate(all="ignore"):
+                total, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, n=n // 2)
+            values[i], errors[i] = abs(float(total[0])), float(err[0])
+        return values, errors
+
+
+
 
 def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,
                            exact=None) -> Curve:

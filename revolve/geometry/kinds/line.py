@@ -285,6 +285,128 @@ class Line(SegmentKind):
         rows[:, [0, 2]] -= z_ref
         return StraightRows(rows, np.asarray(factors, dtype=float))
 
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """Pieces of many lines along which the axial position moves one way, as arrays.
+
+        Parameters
+        ----------
+        segments : sequence of Line
+            Lines in the axis frame (``x`` is the axial position ``z``, ``y`` the radius).
+
+        Returns
+        -------
+        z_from, z_to : ndarray
+            Each piece's axial position at its start and at its end (a line across
+            the axis direction gives a piece with ``z_from == z_to``, which the
+            washers leave out).
+        counts : ndarray of int
+            How many pieces each segment gives, in order (a line: one).
+        params : ndarray, shape (pieces, 4)
+            One row per piece for :meth:`washer_radius`: the ends ``z0, r0, z1, r1``.
+
+        Examples
+        --------
+        >>> zf, zt, counts, params = Line.washer_pieces([Line((0.0, 1.0), (2.0, 3.0))])
+        >>> zf.tolist(), zt.tolist(), counts.tolist(), params.tolist()
+        ([0.0], [2.0], [1], [[0.0, 1.0, 2.0, 3.0]])
+        >>> [a.shape for a in Line.washer_pieces([])]
+        [(0,), (0,), (0,), (0, 4)]
+        """
+        import numpy as np
+
+        rows = _end_rows(segments)
+        return rows[:, 0], rows[:, 2], np.ones(len(rows), dtype=np.int64), rows
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` along pieces of :meth:`washer_pieces`.
+
+        ``params`` holds the pieces' rows (shape (m, 4)) and ``z`` one row of
+        positions per piece (shape (m, q)), each within its piece's extent;
+        ``segments`` (the sequence given to :meth:`washer_pieces`) is not needed
+        by a line.
+
+        Examples
+        --------
+        >>> import numpy as np
+        >>> Line.washer_radius([], np.array([[0.0, 1.0, 2.0, 3.0]]), np.array([[0.5, 2.0]])).tolist()
+        [[1.5, 3.0]]
+        """
+        z0, r0, z1, r1 = (params[:, k:k + 1] for k in range(4))
+        return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+
+    @classmethod
+    def washer_degree(cls):
+        """Degree of the radius as a polynomial of ``z`` along a piece: 1 (None if not polynomial).
+
+        The washers integrate ``r²`` over each piece's part of a slice with
+        Gauss–Legendre rules in ``z`` of ``degree + 1`` and ``degree + 2`` nodes
+        (exact for this kind, compared all the same) instead of the smoothing
+        substitution that arcs and curves need.
+
+        >>> Line.washer_degree()
+        1
+        """
+        return 1
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14):
+        """``∫ r ds`` along each line by Gauss–Legendre quadrature: ``(values, errors)``.
+
+        ``r`` is linear along a line, so one node (the middle) and two nodes
+        are both exact; their difference is the error estimate. ``n`` and
+        ``rel_tol`` (used by curved kinds) change nothing here.
+
+        >>> v, e = Line.r_ds_rows([Line((0.0, 1.0), (0.0, 3.0)), Line((0.0, 0.0), (3.0, 4.0))])
+        >>> v.tolist(), e.tolist()
+        ([4.0, 10.0], [0.0, 0.0])
+        """
+        rows = _end_rows(segments)
+        return _r_ds_straight(rows[:, 0], rows[:, 1], rows[:, 2], rows[:, 3])
+
+
+def _end_rows(segments):
+    """The ends ``x0, y0, x1, y1`` of many lines as an (n, 4) array (no list of tuples).
+
+    >>> _end_rows([Line((0.0, 1.0), (2.0, 3.0))]).tolist()
+    [[0.0, 1.0, 2.0, 3.0]]
+    """
+    from itertools import chain
+
+    import numpy as np
+
+    values = chain.from_iterable(s.start + s.end for s in segments)
+    return np.fromiter(values, dtype=float, count=4 * len(segments)).reshape(-1, 4)
+
+
+def _r_ds_straight(z0, r0, z1, r1):
+    """Per edge, ``∫ r ds`` by Gauss–Legendre with 2 nodes and the difference from 1 node.
+
+    Shared by lines and polylines (the edges of both are straight).
+
+    >>> import numpy as np
+    >>> v, e = _r_ds_straight(np.array([0.0]), np.array([1.0]), np.array([0.0]), np.array([3.0]))
+    >>> v.tolist(), e.tolist()
+    ([4.0], [0.0])
+    """
+    import numpy as np
+
+    from revolve.geometry.slicing import gauss_legendre
+
+    half = np.hypot(z1 - z0, r1 - r0) * 0.5
+    dr = r1 - r0
+    (x1,), (w1,) = gauss_legendre(1)
+    one = (r0 + ((x1 + 1) * 0.5) * dr) * w1
+    x2, w2 = gauss_legendre(2)
+    two = (r0 + ((x2[0] + 1) * 0.5) * dr) * w2[0]
+    two += (r0 + ((x2[1] + 1) * 0.5) * dr) * w2[1]
+    return two * half, np.abs(two - one) * half
+
+
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

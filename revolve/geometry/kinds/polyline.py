@@ -170,8 +170,9 @@ class Polyline(SegmentKind):
         return sorted(set(at_vertex.tolist()) | set((cross + f).tolist()))
 
     def bounds(self):
-        lo, hi = self.points.min(axis=0), self.points.max(axis=0)
-        return (float(lo[0]), float(lo[1]), float(hi[0]), float(hi[1]))
+        # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+        x, y = self.points[:, 0], self.points[:, 1]
+        return (float(x.min()), float(y.min()), float(x.max()), float(y.max()))
 
     def split_at(self, params: Sequence[float]) -> tuple:
         if not len(params):
@@ -395,6 +396,88 @@ class Polyline(SegmentKind):
         rows = rows.copy()
         rows[:, [0, 2]] -= z_ref
         return StraightRows(rows, f)
+
+
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """The edges of many polylines as pieces for the washers, as array rows.
+
+        Every edge is a piece (straight, so ``z`` moves one way along it). The
+        rows ``z0, r0, z1, r1`` of one polyline are a read-only view of its
+        vertex array (no copy, and no Python object per vertex); several
+        polylines are concatenated. See :meth:`Line.washer_pieces
+        <revolve.geometry.kinds.line.Line.washer_pieces>` for what is returned.
+
+        Examples
+        --------
+        >>> p = Polyline(np.array([[0.0, 1.0], [2.0, 1.0], [2.0, 3.0], [0.0, 3.0]]))
+        >>> zf, zt, counts, params = Polyline.washer_pieces([p])
+        >>> zf.tolist(), zt.tolist(), counts.tolist()
+        ([0.0, 2.0, 2.0], [2.0, 2.0, 0.0], [3])
+        >>> params[2].tolist(), bool(np.shares_memory(params, p.points))
+        ([2.0, 3.0, 0.0, 3.0], True)
+        """
+        from numpy.lib.stride_tricks import sliding_window_view
+
+        rows = [sliding_window_view(np.ascontiguousarray(s.points).reshape(-1), 4)[::2]
+                for s in segments]
+        if len(rows) == 1:
+            params = rows[0]
+        else:
+            params = np.concatenate(rows) if rows else np.zeros((0, 4))
+        counts = np.array([len(s.points) - 1 for s in segments], dtype=np.int64)
+        return params[:, 0], params[:, 2], counts, params
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` (rows (m, q)) along edges given by rows ``params``.
+
+        As :meth:`Line.washer_radius <revolve.geometry.kinds.line.Line.washer_radius>`.
+
+        >>> Polyline.washer_radius([], np.array([[0.0, 1.0, 2.0, 3.0]]), np.array([[1.0]])).tolist()
+        [[2.0]]
+        """
+        z0, r0, z1, r1 = (params[:, k:k + 1] for k in range(4))
+        return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+
+    @classmethod
+    def washer_degree(cls):
+        """Degree of the radius as a polynomial of ``z`` along an edge: 1.
+
+        >>> Polyline.washer_degree()
+        1
+        """
+        return 1
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14, block: int = 1 << 16):
+        """``∫ r ds`` along each polyline, edge by edge by Gauss–Legendre: ``(values, errors)``.
+
+        One value per polyline: the sum over its edges of two nodes per edge,
+        the error the sum of the differences from one node (both exact on a
+        straight edge). Worked in blocks of ``block`` edges.
+
+        >>> square = Polyline(np.array([[0.0, 1.0], [2.0, 1.0], [2.0, 3.0], [0.0, 3.0], [0.0, 1.0]]))
+        >>> v, e = Polyline.r_ds_rows([square])
+        >>> v.tolist(), e.tolist()      # 2·1 + 2·2 + 2·3 + 2·2
+        ([16.0], [0.0])
+        """
+        from revolve.geometry.kinds.line import _r_ds_straight
+
+        values = np.zeros(len(segments))
+        errors = np.zeros(len(segments))
+        for i, seg in enumerate(segments):
+            pts = seg.points
+            m = len(pts) - 1
+            for j in range(0, m, block):
+                k = min(m, j + block)
+                v, e = _r_ds_straight(pts[j:k, 0], pts[j:k, 1], pts[j + 1:k + 1, 0], pts[j + 1:k + 1, 1])
+                values[i] += float(v.sum())
+                errors[i] += float(e.sum())
+        return values, errors
+
 
 
 def _edge_rows(segments, factors):
