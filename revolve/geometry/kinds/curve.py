@@ -58,6 +58,9 @@ def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callab
     """
     import numpy as np
 
+    from revolve.expr import as_expression
+
+    x_expr, y_expr = as_expression(x_expr), as_expression(y_expr)
     fx = [e.numpy_function("t")
           for e in (x_expr, y_expr, x_expr.derivative("t"), y_expr.derivative("t"))]
 
