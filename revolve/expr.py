@@ -412,10 +412,10 @@ class Num(Expr):
     @property
     def level(self) -> int:
         v = self.value
+        if isinstance(v, Fraction) and v.denominator != 1:
+            return 2              # "1/2" and "-1/2" read as quotients
         if v < 0:
             return 3
-        if isinstance(v, Fraction) and v.denominator != 1:
-            return 2
         return 5
 
     def text(self) -> str:
@@ -818,6 +818,8 @@ def add(a: Expr, b: Expr) -> Expr:
         return sub(a, b.arg)
     if y is not None and y < 0:
         return Sub(a, Num(-y))
+    if isinstance(b, Mul) and (_exact(b.left) or 0) < 0:
+        return Sub(a, mul(Num(-_exact(b.left)), b.right))
     return Add(a, b)
 
 

@@ -484,3 +484,156 @@ def test_importing_the_module_does_not_import_sympy():
     result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                             check=True, env={**os.environ, "PYTHONPATH": PACKAGE_ROOT})
     assert result.stdout.split() == ["False", "False"]
+
+
+# --------------------------------------------------------------------------- the own tree
+# Outside reference: sympy -- ``sympy.diff`` for derivatives and ``sympy.lambdify`` (numpy)
+# for values of the same expression, built from the tree by ``to_sympy``; the tree's own
+# derivative and compiler never see sympy.
+
+import numpy as np                                          # noqa: E402
+from hypothesis import example                              # noqa: E402
+
+from revolve.expr import from_sympy                         # noqa: E402
+
+_LEAVES = ["t", "2", "0.5", "3/4", "pi", "e", "1.25"]
+_UNARY = ["sin", "cos", "tan", "atan", "sinh", "cosh", "tanh", "exp", "sqrt", "abs",
+          "log", "asin", "acos"]
+
+
+def _expression_text():
+    """Random expressions of the parser's grammar in ``t`` (text, never sympy)."""
+    leaves = st.sampled_from(_LEAVES)
+
+    def extend(children):
+        binary = st.tuples(children, st.sampled_from(["+", "-", "*", "/"]), children).map(
+            lambda a: f"({a[0]}) {a[1]} ({a[2]})")
+        unary = st.tuples(st.sampled_from(_UNARY), children).map(lambda a: f"{a[0]}({a[1]}/4)")
+        powers = st.tuples(children, st.sampled_from(["2", "3", "-1", "1/2", "-2"])).map(
+            lambda a: f"({a[0]})^({a[1]})")
+        two = st.tuples(children, children).map(lambda a: f"atan2({a[0]}, 1 + ({a[1]})^2)")
+        return binary | unary | powers | two | children.map(lambda a: f"-({a})")
+
+    return st.recursive(leaves, extend, max_leaves=8)
+
+
+def _parsed_or_none(text):
+    try:
+        return parse_expression(text)
+    except ExpressionError:
+        return None
+
+
+TS = np.array([0.15, 0.4, 0.77, 1.1, 1.6])
+
+
+def _agree(got, want):
+    """Values agree to 1e-9 where the reference is a real number of moderate size."""
+    got = np.broadcast_to(np.asarray(got, dtype=float), TS.shape)
+    want = np.broadcast_to(np.asarray(want, dtype=float), TS.shape)
+    ok = np.isfinite(want) & (np.abs(want) < 1e12)
+    scale = np.maximum(np.abs(want), 1.0)
+    bad = ok & ~(np.abs(got - want) <= 1e-9 * scale)
+    return not bad.any(), ok
+
+
+@settings(max_examples=300, deadline=None)
+@given(_expression_text())
+@example("sqrt(t)^2")
+@example("abs(t - 1) * exp(-(t)/4)")
+@example("atan2(t, 1 + (t)^2) / (t - 3/4)")
+def test_tree_values_and_derivatives_match_sympy(text):     # reference: sympy diff, lambdify
+    tree = _parsed_or_none(text)
+    assume(tree is not None)
+    reference = tree.to_sympy()
+    with np.errstate(all="ignore"):
+        want = sympy.lambdify(t, reference, modules="numpy")(TS)
+        want_d = sympy.lambdify(t, sympy.diff(reference, t), modules="numpy")(TS)
+        got = tree.numpy_function()(TS)
+        got_d = tree.derivative().numpy_function()(TS)
+    same, ok = _agree(got, want)
+    assert same, (text, got, want)
+    same_d, ok_d = _agree(got_d, want_d)
+    assert same_d, (text, got_d, want_d)
+
+
+@settings(max_examples=200, deadline=None)
+@given(_expression_text())
+@example("-(-((t) / (-(0.5))))")       # once printed t/-1/2, which reads as (t/-1)/2
+def test_tree_text_parses_back_to_the_same_tree_value(text):
+    tree = _parsed_or_none(text)
+    assume(tree is not None)
+    again = parse_expression(tree.text())
+    assert again.to_sympy().equals(tree.to_sympy()) is not False     # reference: sympy
+    with np.errstate(all="ignore"):
+        same, _ = _agree(again.numpy_function()(TS), tree.numpy_function()(TS))
+    assert same
+
+
+def test_trees_compare_and_hash_by_structure():
+    a, b = parse_expression("t^2 + sin(t)/3"), parse_expression("t ** 2 + sin( t ) / 3")
+    assert a == b and hash(a) == hash(b) and a is not b
+    assert a != parse_expression("t^2 + sin(t)/4")
+    assert parse_expression("2") != from_sympy(sympy.Float(2.0))    # exact and float differ
+    assert {a: 1}[b] == 1
+
+
+def test_trees_are_immutable_and_pickle():
+    import pickle
+
+    tree = parse_expression("sqrt(1 + t^2) - pi")
+    with pytest.raises(AttributeError):
+        tree.left = parse_expression("1")
+    assert pickle.loads(pickle.dumps(tree)) == tree
+
+
+def test_sympy_expressions_convert_once_and_back():   # reference: sympy built by hand
+    s = 3 * t ** 2 / 90 + sympy.sqrt(2) * sympy.cos(t) - sympy.exp(t / 5) + sympy.pi
+    tree = from_sympy(s)
+    assert sympy.simplify(tree.to_sympy() - s) == 0
+    with pytest.raises(ExpressionError, match="cannot be used"):
+        from_sympy(sympy.gamma(t))
+
+
+def test_derivative_folds_zero_and_one():
+    assert parse_expression("3*t + pi").derivative().text() == "3"
+    assert parse_expression("t").derivative().text() == "1"
+    assert parse_expression("pi^2").derivative().text() == "0"
+
+
+# --------------------------------------------------------------------------- no sympy when
+# nothing exact is asked (issue 10: symbolic only where asked)
+
+def _modules_after(code: str) -> list:
+    script = ("import sys\n" + code + "\n"
+              "print([m for m in ('sympy', 'mpmath', 'scipy') if m in sys.modules])\n")
+    result = subprocess.run([sys.executable, "-c", script], capture_output=True, text=True,
+                            env={**os.environ, "PYTHONPATH": PACKAGE_ROOT}, cwd=PACKAGE_ROOT)
+    assert result.returncode == 0, result.stderr[-2000:]
+    return result.stdout.strip().splitlines()[-1]
+
+
+def test_measuring_a_curve_profile_imports_no_sympy():
+    code = ("import revolve\n"
+            "from revolve.cli.app import main\n"
+            "import contextlib, io\n"
+            "with contextlib.redirect_stdout(io.StringIO()):\n"
+            "    try:\n"
+            "        main(['measure', 'profiles/domed-lid.toml', '--json'])\n"
+            "    except SystemExit:\n"
+            "        pass\n")
+    assert _modules_after(code) == "[]"
+
+
+def test_building_and_measuring_an_ellipsoidal_vessel_imports_no_sympy():
+    code = ("from revolve.jobs.vessel import build_vessel, parse_head, summarise, "
+            "sketch_profile\n"
+            "from revolve.geometry.measure import measure\n"
+            "from revolve.geometry.profile import Revolution\n"
+            "spec = parse_head('ellipsoidal', 1200.0)\n"
+            "design = build_vessel(1200.0, 3000.0, spec, parse_head('torispherical', 1200.0),"
+            " thickness=8.0)\n"
+            "summarise(design)\n"
+            "profile, axis = sketch_profile(design, 'vertical', 'inside')\n"
+            "measure(Revolution(profile, axis))\n")
+    assert _modules_after(code) == "[]"
