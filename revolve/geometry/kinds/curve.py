@@ -67,7 +67,11 @@ def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callab
     def vectorised(f):
         def g(tt):
             tt = np.asarray(tt, dtype=float)
-            return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
+            v = f(tt)
+            if type(v) is np.ndarray and v is not tt and v.shape == tt.shape \
+                    and v.dtype == np.float64:
+                return v             # a new array already (no copy needed)
+            return np.broadcast_to(np.asarray(v, dtype=float), tt.shape).copy()
         return g
 
     return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
