@@ -221,6 +221,10 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
         if ops > MAX_INTEGRAND_OPS:
             raise NotExact(f"a curve's integrand has {ops} operations; exact integration is "
                            f"tried up to {MAX_INTEGRAND_OPS}")
+        if not tried_exactly(task[1], t):
+            raise NotExact("a curve's integral is not of a form tried exactly (a polynomial "
+                           "times the square root of a polynomial of degree 2 at most, or a "
+                           "polynomial in sin, cos, exp, sinh and cosh of a linear argument)")
     results = run_sympy(tasks, safety_seconds)
     if tasks and all(r is None for r in results) and _timed_out(results):
         raise NotExact(f"sympy's integrate did not finish within the safety limit of "
@@ -283,6 +287,58 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
     if notes:
         result["note"] = "; ".join(notes)
     return result
+
+
+_TRANSCENDENTAL = ("sin", "cos", "exp", "sinh", "cosh")
+
+
+def tried_exactly(g, t) -> bool:
+    """Whether ``sympy.integrate`` is tried on the integrand ``g`` (decided before it runs).
+
+    Two forms whose antiderivatives are elementary and that sympy integrates in
+    bounded work are tried: a polynomial in ``t`` and square roots (or other
+    rational powers) of polynomials of degree 2 at most; or a polynomial in
+    ``t`` and ``sin``, ``cos``, ``exp``, ``sinh``, ``cosh`` of linear arguments.
+    Anything else (nested roots, quotients by non-constant terms, mixed forms)
+    is not sent, so the answer does not hang on how long sympy would search.
+
+    >>> import sympy
+    >>> t = sympy.Symbol("t", real=True)
+    >>> tried_exactly(t * sympy.sqrt(1 + t ** 2 / 8100), t), tried_exactly(t * sympy.cos(3 * t), t)
+    (True, True)
+    >>> tried_exactly(sympy.sqrt(1 + t ** 3), t), tried_exactly(sympy.sin(t) * sympy.sqrt(1 + t), t)
+    (False, False)
+    >>> tried_exactly(sympy.sqrt(9 * sympy.sin(t) ** 2 + 4 * sympy.cos(t) ** 2), t)
+    False
+    """
+    import sympy
+
+    from revolve.geometry.integrals import _degree_bound
+
+    algebraic = transcendental = False
+    stack = [sympy.sympify(g, strict=True)]
+    while stack:
+        node = stack.pop()
+        if not node.has(t):
+            continue
+        if node.is_Pow and not (node.exp.is_Integer and node.exp >= 0):
+            if not node.exp.is_Rational or node.exp.is_Integer:
+                return False                     # a quotient by a term in t, or t^t
+            degree = _degree_bound(node.base, t)
+            if degree is None or degree > 2:
+                return False
+            algebraic = True
+            continue
+        if node.is_Function:
+            if getattr(node.func, "__name__", "") not in _TRANSCENDENTAL or \
+                    _degree_bound(node.args[0], t) != 1:
+                return False
+            transcendental = True
+            continue
+        if not (node.is_Add or node.is_Mul or node.is_Pow or node == t):
+            return False
+        stack.extend(node.args)
+    return not (algebraic and transcendental)
 
 
 def _timed_out(results) -> bool:

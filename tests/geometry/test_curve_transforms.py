@@ -276,3 +276,21 @@ def test_exact_refuses_large_integrands_before_running_sympy(monkeypatch):
     with pytest.raises(exact.NotExact, match="exact integration is tried up to 3"):
         _exact_of(DOMED_LID)
     assert ran == []
+
+
+def test_exact_does_not_send_integrals_outside_the_tried_forms(monkeypatch, tmp_path):
+    # y = 2 + x³/100: its length integrand sqrt(1 + 9x⁴/10⁴) has no elementary antiderivative
+    # (an elliptic integral, from memory); it is not sent to sympy at all, so the note is the
+    # same on any machine. The volume's integrand is a polynomial and needs no worker.
+    import revolve.geometry.exact as exact
+
+    path = tmp_path / "cubic.toml"
+    path.write_text('units = "mm"\n[axis]\nalong = "x"\n[[loop]]\nstart = [0, 0]\n'
+                    'segments = [\n  { line_to = [0, 2] },\n'
+                    '  { y = "2 + x^3/100", to_x = 5 },\n  { line_to = [5, 0] },\n'
+                    '  { close = true },\n]\n', encoding="utf-8")
+    ran = []
+    monkeypatch.setattr(exact, "run_sympy", lambda tasks, seconds: ran.append(tasks) or [])
+    with pytest.raises(exact.NotExact, match="not of a form tried exactly"):
+        _exact_of(path)
+    assert ran == []
