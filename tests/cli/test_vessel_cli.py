@@ -189,6 +189,7 @@ def test_bare_density_is_written_with_its_unit(tmp_path, capsys):
 def test_vessel_command_with_curved_heads_imports_no_sympy(tmp_path):
     # Issue 10: symbolic only where asked. Ellipsoidal heads are curves (expression trees,
     # compiled by the package); building, measuring and printing them needs no sympy.
+    import os
     import subprocess
     import sys
     from pathlib import Path
@@ -205,6 +206,6 @@ def test_vessel_command_with_curved_heads_imports_no_sympy(tmp_path):
         "        assert not stop.code, stop.code\n"
         "print([m for m in ('sympy', 'mpmath', 'scipy') if m in sys.modules])\n")
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
-                          cwd=tmp_path, env={**__import__("os").environ, "PYTHONPATH": str(root)})
+                          cwd=tmp_path, env={**os.environ, "PYTHONPATH": str(root)})
     assert done.returncode == 0, done.stderr[-2000:]
     assert done.stdout.strip() == "[]"
