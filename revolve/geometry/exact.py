@@ -348,8 +348,6 @@ def _timed_out(results) -> bool:
 
 def _line_terms(seg, frame, side, t):
     """A line's (m00, m01, lr) from its exact ends (:class:`LineExact`)."""
-    import sympy
-
     ex = seg.exact
     return _edge_terms(_sym(ex.x0), _sym(ex.y0), _sym(ex.x1), _sym(ex.y1), frame), ()
 
