@@ -320,10 +320,10 @@ class Expr:
     def numpy_function(self, variable: str = "t"):
         """A numpy function of one array (the ``variable``) computing this tree.
 
-        Each node becomes one numpy operation (the same calls a code printer would
-        write), so the values agree with sympy's ``lambdify`` to rounding. A
-        constant part is computed once. The result is an array of the argument's
-        shape, or a float for a constant tree (broadcast by the caller).
+        Each distinct node becomes one numpy operation (the same calls a code
+        printer would write), so the values agree with sympy's ``lambdify`` to
+        rounding; see :func:`numpy_functions`. The result is an array of the
+        argument's shape, or a float for a constant tree (broadcast by the caller).
 
         >>> import numpy as np
         >>> f = parse_expression("2*sin(t)/(1 + t^2) - sqrt(t)").numpy_function()
@@ -338,20 +338,9 @@ class Expr:
         if others:
             raise ExpressionError(f"the expression uses '{others[0]}'; only '{variable}' is "
                                   "allowed here")
-        import numpy as np
+        run = numpy_functions((self,), variable)
+        return lambda u: run(u)[0]
 
-        return self._numpy(np)
-
-    def _numpy(self, np):
-        if not self.variables:
-            value = float(self)
-            return lambda u: value
-        return self._numpy_node(np)
-
-    def _numpy_node(self, np):  # pragma: no cover
-        raise NotImplementedError
-
-    # -- sympy, for exact results only ----------------------------------------------------
 
     def to_sympy(self):
         """The same expression built with sympy (imported here; for exact results only).
@@ -483,8 +472,6 @@ class Var(Expr):
     def _derivative(self, variable):
         return ONE
 
-    def _numpy_node(self, np):
-        return lambda u: u
 
     def _to_sympy(self, sp):
         return sp.Symbol(self.name, real=True)
@@ -520,9 +507,6 @@ class Add(_Binary):
     def _derivative(self, v):
         return add(self.left.derivative(v), self.right.derivative(v))
 
-    def _numpy_node(self, np):
-        a, b = self.left._numpy(np), self.right._numpy(np)
-        return lambda u: a(u) + b(u)
 
     def _to_sympy(self, sp):
         return self.left.to_sympy() + self.right.to_sympy()
@@ -544,9 +528,6 @@ class Sub(_Binary):
     def _derivative(self, v):
         return sub(self.left.derivative(v), self.right.derivative(v))
 
-    def _numpy_node(self, np):
-        a, b = self.left._numpy(np), self.right._numpy(np)
-        return lambda u: a(u) - b(u)
 
     def _to_sympy(self, sp):
         return self.left.to_sympy() - self.right.to_sympy()
@@ -569,9 +550,6 @@ class Mul(_Binary):
         a, b = self.left, self.right
         return add(mul(a.derivative(v), b), mul(a, b.derivative(v)))
 
-    def _numpy_node(self, np):
-        a, b = self.left._numpy(np), self.right._numpy(np)
-        return lambda u: a(u) * b(u)
 
     def _to_sympy(self, sp):
         return self.left.to_sympy() * self.right.to_sympy()
@@ -597,9 +575,6 @@ class Div(_Binary):
             return div(da, b)
         return div(sub(mul(da, b), mul(a, db)), power(b, Fraction(2)))
 
-    def _numpy_node(self, np):
-        a, b = self.left._numpy(np), self.right._numpy(np)
-        return lambda u: a(u) / b(u)
 
     def _to_sympy(self, sp):
         return self.left.to_sympy() / self.right.to_sympy()
@@ -629,9 +604,6 @@ class Neg(Expr):
     def _derivative(self, v):
         return neg(self.arg.derivative(v))
 
-    def _numpy_node(self, np):
-        a = self.arg._numpy(np)
-        return lambda u: -a(u)
 
     def _to_sympy(self, sp):
         return -self.arg.to_sympy()
@@ -682,19 +654,6 @@ class Pow(Expr):
         inner = self.base.derivative(v)
         return mul(mul(Num(p), power(self.base, p - 1)), inner)
 
-    def _numpy_node(self, np):
-        b, p = self.base._numpy(np), self.exponent
-        if p == _HALF:
-            return lambda u: np.sqrt(b(u))
-        if p == -_HALF:
-            return lambda u: 1.0 / np.sqrt(b(u))
-        if p == -1:
-            return lambda u: 1.0 / b(u)
-        if p.denominator == 1:
-            k = int(p)
-            return lambda u: b(u) ** k
-        q = float(p)
-        return lambda u: np.power(b(u), q)
 
     def _to_sympy(self, sp):
         p = self.exponent
@@ -772,14 +731,6 @@ class Call(Expr):
         }[name]()
         return mul(outer, a.derivative(v))
 
-    def _numpy_node(self, np):
-        f = getattr(np, _NUMPY_NAMES.get(self.name, self.name))
-        args = [a._numpy(np) for a in self.args]
-        if len(args) == 1:
-            a0 = args[0]
-            return lambda u: f(a0(u))
-        a0, a1 = args
-        return lambda u: f(a0(u), a1(u))
 
     def _to_sympy(self, sp):
         args = [a.to_sympy() for a in self.args]
@@ -791,6 +742,110 @@ class Call(Expr):
 
 ZERO = Num(0)
 ONE = Num(1)
+
+
+def numpy_functions(exprs, variable: str = "t"):
+    """One numpy function computing several trees of one variable at once: the compiler.
+
+    Every distinct subtree (trees compare by structure) is computed once per call,
+    so a curve's coordinates and derivatives, which share ``sin(t)``, ``cos(t)``
+    and the like, cost one numpy operation per distinct node. Constant subtrees
+    are computed once, when compiling. Returns ``run(u) -> tuple`` of the
+    values in the order of ``exprs`` (floats for constant trees).
+
+    >>> import numpy as np
+    >>> x, y = parse_expression("2*cos(t)"), parse_expression("sin(t)*cos(t)")
+    >>> run = numpy_functions((x, y, x.derivative()))
+    >>> [round(float(v[0]), 12) for v in run(np.array([0.5]))] == [round(2 * math.cos(0.5), 12),
+    ...     round(math.sin(0.5) * math.cos(0.5), 12), round(-2 * math.sin(0.5), 12)]
+    True
+    >>> numpy_functions((parse_expression("x", ["x"]),))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ExpressionError: the expression uses 'x'; only 't' is allowed here
+    """
+    import numpy as np
+
+    for e in exprs:
+        others = sorted(e.variables - {variable})
+        if others:
+            raise ExpressionError(f"the expression uses '{others[0]}'; only '{variable}' is "
+                                  "allowed here")
+    slots: dict = {}
+    steps: list = []          # one function of the value list per distinct varying node
+    constants: list = []      # (slot, value) for constant nodes
+
+    def slot_of(node) -> int:
+        found = slots.get(node)
+        if found is not None:
+            return found
+        if not node.variables:
+            index = len(steps)
+            steps.append(None)
+            constants.append((index, float(node)))
+        elif isinstance(node, Var):
+            index = len(steps)
+            steps.append(None)
+        else:
+            children = [slot_of(c) for c in node.children()]
+            index = len(steps)
+            steps.append(_step(node, np, children))
+        slots[node] = index
+        return index
+
+    outputs = [slot_of(e) for e in exprs]
+    variable_slot = slots.get(Var(variable))
+    program = [(i, f) for i, f in enumerate(steps) if f is not None]
+    size = len(steps)
+
+    def run(u):
+        v = [None] * size
+        for i, value in constants:
+            v[i] = value
+        if variable_slot is not None:
+            v[variable_slot] = u
+        for i, f in program:
+            v[i] = f(v)
+        return tuple(v[k] for k in outputs)
+
+    return run
+
+
+def _step(node, np, slots):
+    """The numpy operation of one varying node, reading its children's slots."""
+    if isinstance(node, (Add, Sub, Mul, Div)):
+        a, b = slots
+        if isinstance(node, Add):
+            return lambda v: v[a] + v[b]
+        if isinstance(node, Sub):
+            return lambda v: v[a] - v[b]
+        if isinstance(node, Mul):
+            return lambda v: v[a] * v[b]
+        return lambda v: v[a] / v[b]
+    if isinstance(node, Neg):
+        (a,) = slots
+        return lambda v: -v[a]
+    if isinstance(node, Pow):
+        (a,), p = slots, node.exponent
+        if p == _HALF:
+            return lambda v: np.sqrt(v[a])
+        if p == -_HALF:
+            return lambda v: 1.0 / np.sqrt(v[a])
+        if p == -1:
+            return lambda v: 1.0 / v[a]
+        if p.denominator == 1:
+            k = int(p)
+            return lambda v: v[a] ** k
+        q = float(p)
+        return lambda v: np.power(v[a], q)
+    if isinstance(node, Call):
+        f = getattr(np, _NUMPY_NAMES.get(node.name, node.name))
+        if len(slots) == 1:
+            (a,) = slots
+            return lambda v: f(v[a])
+        a, b = slots
+        return lambda v: f(v[a], v[b])
+    raise TypeError(f"cannot compile {node!r}")  # pragma: no cover
 
 
 def _exact(e: Expr):

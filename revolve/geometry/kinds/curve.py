@@ -58,23 +58,37 @@ def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callab
     """
     import numpy as np
 
-    from revolve.expr import as_expression
+    from revolve.expr import as_expression, numpy_functions
 
     x_expr, y_expr = as_expression(x_expr), as_expression(y_expr)
-    fx = [e.numpy_function("t")
-          for e in (x_expr, y_expr, x_expr.derivative("t"), y_expr.derivative("t"))]
+    run = numpy_functions((x_expr, y_expr, x_expr.derivative("t"), y_expr.derivative("t")), "t")
 
-    def vectorised(f):
+    def filled(v, tt):
+        if type(v) is np.ndarray and v is not tt and v.shape == tt.shape and \
+                v.dtype == np.float64:
+            return v                 # a new array already (no copy needed)
+        return np.broadcast_to(np.asarray(v, dtype=float), tt.shape).copy()
+
+    def every(tt):
+        tt = np.asarray(tt, dtype=float)
+        return tuple(filled(v, tt) for v in run(tt))
+
+    def one(k):
         def g(tt):
             tt = np.asarray(tt, dtype=float)
-            v = f(tt)
-            if type(v) is np.ndarray and v is not tt and v.shape == tt.shape \
-                    and v.dtype == np.float64:
-                return v             # a new array already (no copy needed)
-            return np.broadcast_to(np.asarray(v, dtype=float), tt.shape).copy()
+            return filled(run(tt)[k], tt)
         return g
 
-    return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+    return CompiledCurve((one(0), one(1), one(2), one(3)), every)
+
+
+class CompiledCurve(tuple):
+    """The four functions ``(x, y, dx/dt, dy/dt)``, and :attr:`every`, all four in one pass."""
+
+    def __new__(cls, functions, every):
+        self = super().__new__(cls, functions)
+        self.every = every
+        return self
 
 
 def _exact_number(v: float):
@@ -262,7 +276,7 @@ class Curve(SegmentKind):
         """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
         import numpy as np
 
-        fx, fy, dfx, dfy = self._functions()
+        every = self._functions().every
         m = self.affine
         with np.errstate(all="ignore"):
             if m.p == 1.0 and m.q == 0.0:
@@ -270,7 +284,7 @@ class Curve(SegmentKind):
             else:
                 t = np.asarray(t, dtype=float)
                 u = m.q - t if m.p == -1.0 else m.p * t + m.q
-            X, Y, dX, dY = fx(u), fy(u), dfx(u), dfy(u)
+            X, Y, dX, dY = every(u)
             if m is IDENTITY:
                 return X, Y, dX, dY
             if m.p != 1.0:
