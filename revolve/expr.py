@@ -52,7 +52,7 @@ if TYPE_CHECKING:  # pragma: no cover
     import sympy
 
 __all__ = ["Expr", "parse_expression", "parse_number", "exact_number", "as_expression",
-           "constant_float", "FUNCTIONS", "CONSTANTS"]
+           "numpy_functions", "constant_float", "FUNCTIONS", "CONSTANTS"]
 
 MAX_DEPTH = 30          # nesting of parentheses and function calls
 MAX_TOKENS = 200
