@@ -816,17 +816,17 @@ def path_profile(commands: Sequence[PathCommand], *, matrix: Affine = FLIP_Y,
     for k, sub in enumerate(_subpaths(commands), 1):
         segments = []
         for item in sub.items:
-            kind, pos, letter = item[0], item[-2], item[-1]
+            command, pos, letter = item[0], item[-2], item[-1]
             where = builder.where(k, f'"{letter}"', pos)
-            if kind in ("line", "close"):
+            if command in ("line", "close"):
                 seg = builder.line_segment(item[1], item[2], where)
-                if seg is None and kind == "line":
+                if seg is None and command == "line":
                     notes.append(f"{where.place}: a line of zero length was left out")
-            elif kind == "cubic":
+            elif command == "cubic":
                 seg = builder.bezier(item[1:5], where)
                 if seg is None:
                     notes.append(f"{where.place}: a curve of zero size was left out")
-            elif kind == "quad":
+            elif command == "quad":
                 seg = builder.bezier(item[1:4], where)
                 if seg is None:
                     notes.append(f"{where.place}: a curve of zero size was left out")

@@ -210,8 +210,6 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
         for seg in path.segments:
             terms = _TERMS.get(type(seg.exact))
             if terms is None:
-                if seg.exact is None and seg.kind == "curve":
-                    raise NotExact("the curve's interval has no exact value")
                 raise NotExact(f"{indefinite(seg.kind)} has no exact inputs")
             (m00, m01, lr), todo = terms(seg, frame, side, t)
             pending.append((seg.face or UNNAMED_FACE, f, m00, m01, lr, todo))
