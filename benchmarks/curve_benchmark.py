@@ -3,9 +3,10 @@
 Run:  python benchmarks/curve_benchmark.py [--before PATH] [--runs N] [--profile]
 
 Prints ratios, never absolute promises: the machines are shared and noisy. Whole
-commands spend most of their time importing (sympy alone takes about 0.4 s), so a
-change of a tenth of a second in them is near the noise between runs; the two
-library lines time the curve work itself.
+commands spend most of their time importing, so a change of a tenth of a second in
+them is near the noise between runs; the two library lines time the curve work
+itself. (Curves no longer import sympy unless ``--exact`` is asked; see
+``startup_benchmark.py`` for the start-up ratios of issue 10.)
 
 Each command runs as a fresh process (the way a user runs it), N times
 (default 5), alternating between the variants so that load on the machine
@@ -22,8 +23,8 @@ Commands (invented inputs):
   ellipsoidal heads (curves), built, drawn in the sketch and measured;
 * ``revolve measure spindle.toml``: a waisted spindle whose waist is the curve
   ``y = 20 + 5 sin(x/10)`` (x in 0..100 mm);
-* 200 distinct cubic curves built with ``curve_from_expressions`` in one
-  process (a drawing with many splines);
+* 200 distinct cubic curves parsed and built with ``curve_from_expressions``
+  in one process (a drawing with many splines);
 * the vessel's engine work alone (build, summarise, draw, measure), timed
   inside the process after the imports, so start-up noise stays out.
 
@@ -64,17 +65,16 @@ segments = [
 
 #: 200 distinct cubic curves, as a drawing with many splines gives (each checked and compiled).
 MANY_CURVES = """\
-import sympy
+from revolve.expr import parse_expression
 from revolve.geometry.segments import curve_from_expressions
-t = sympy.Symbol("t", real=True)
 for k in range(200):
-    curve_from_expressions(sympy.Float(k, 17) + 3 * t + t ** 2 / 7,
-                           2 + sympy.Float(k / 3, 17) * t ** 3, 0.0, 1.0)
+    curve_from_expressions(parse_expression(f"{k} + 3*t + t^2/7"),
+                           parse_expression(f"2 + {k / 3!r}*t^3"), 0.0, 1.0)
 """
 
 #: The vessel's engine work in one process, imports done first (prints its own seconds).
 VESSEL_ENGINE = """\
-import time, sympy, numpy, scipy.optimize
+import time, numpy
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Revolution
 from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise

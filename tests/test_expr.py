@@ -27,7 +27,7 @@ import sympy
 from hypothesis import assume, given, settings, strategies as st
 
 from revolve.errors import ExpressionError, RevolveError
-from revolve.expr import exact_number, parse_expression, parse_number
+from revolve.expr import Expr, constant_float, exact_number, parse_expression, parse_number
 
 t = sympy.Symbol("t", real=True)
 x = sympy.Symbol("x", real=True)
@@ -115,17 +115,18 @@ def test_the_guards_can_fail():
 def test_parses_equal_sympy_built_by_hand(text, expected):   # reference library: sympy
     with nothing_runs():
         parsed = parse_expression(text, ("t", "x"))
-    assert parsed == expected
-    assert isinstance(parsed, sympy.Expr)
+    assert isinstance(parsed, Expr)
+    assert parsed.to_sympy() == expected
 
 
 def test_variables_are_real_symbols_that_other_modules_can_rebuild():
-    parsed = parse_expression("t")
+    parsed = parse_expression("t").to_sympy()
     assert parsed == sympy.Symbol("t", real=True)
     assert parsed != sympy.Symbol("t")
     assert parsed.is_real
-    assert parse_expression("radius*2", ["radius"]) == 2 * sympy.Symbol("radius", real=True)
-    assert parse_expression("y", "y") == sympy.Symbol("y", real=True)   # one name as str
+    assert parse_expression("radius*2", ["radius"]).to_sympy() == \
+        2 * sympy.Symbol("radius", real=True)
+    assert parse_expression("y", "y").to_sympy() == sympy.Symbol("y", real=True)   # one name
 
 
 @pytest.mark.parametrize("name, reference", [   # reference library: Python's math module
@@ -136,16 +137,19 @@ def test_variables_are_real_symbols_that_other_modules_can_rebuild():
 ])
 @pytest.mark.parametrize("value", [0.3, 0.7])
 def test_every_function_agrees_with_math(name, reference, value):
-    parsed = parse_expression(f"{name}(t)")
+    tree = parse_expression(f"{name}(t)")
+    parsed = tree.to_sympy()
     assert parsed == getattr(sympy, {"abs": "Abs"}.get(name, name))(t)   # reference: sympy
     assert float(parsed.subs(t, value)) == pytest.approx(reference(value), rel=1e-14)
-    negative = parse_expression(f"{name}(-t)").subs(t, value)
+    negative = parse_expression(f"{name}(-t)").to_sympy().subs(t, value)
     if name not in ("sqrt", "log"):
         assert float(negative) == pytest.approx(reference(-value), rel=1e-14)
+    compiled = tree.numpy_function()                          # the package's own compiler
+    assert float(compiled(value)) == pytest.approx(reference(value), rel=1e-14)
 
 
 def test_atan2_agrees_with_math_in_every_quadrant():   # reference library: math.atan2
-    parsed = parse_expression("atan2(t, x)", ("t", "x"))
+    parsed = parse_expression("atan2(t, x)", ("t", "x")).to_sympy()
     for y_value, x_value in ((0.3, 0.8), (0.3, -0.8), (-0.3, -0.8), (-0.3, 0.8)):
         assert float(parsed.subs({t: y_value, x: x_value})) == \
             pytest.approx(math.atan2(y_value, x_value), rel=1e-14)
@@ -161,7 +165,8 @@ def test_atan2_agrees_with_math_in_every_quadrant():   # reference library: math
     ("2 - -3", 5), ("(2^3)^2", 64),
 ])
 def test_precedence_and_associativity(text, expected):
-    assert parse_expression(text) == expected
+    assert parse_expression(text).to_sympy() == expected
+    assert parse_expression(text).exact_value() == expected     # folded to a number
 
 
 BIG = "big"
@@ -217,7 +222,7 @@ def test_random_arithmetic_matches_fractions(node):   # reference library: fract
         with pytest.raises(ExpressionError, match="division by zero|undefined"):
             parse_expression(text, ())
     else:
-        assert parse_expression(text, ()) == R(value.numerator, value.denominator)
+        assert parse_expression(text, ()).exact_value() == value
 
 
 # --------------------------------------------------------------------------- exact decimals
@@ -229,7 +234,7 @@ def test_random_arithmetic_matches_fractions(node):   # reference library: fract
                                                       123456789012345678901234567890),
 ])
 def test_decimals_are_exact(text, expected):
-    parsed = parse_expression(text)
+    parsed = parse_expression(text).to_sympy()
     assert parsed == expected and parsed.is_Rational
 
 
@@ -237,7 +242,7 @@ def test_decimals_are_exact(text, expected):
 @given(st.from_regex(r"[0-9]{1,12}(\.[0-9]{0,12})?([eE][+-]?[0-9]{1,2})?", fullmatch=True))
 def test_decimal_text_matches_the_decimal_module(text):   # reference library: decimal
     exact = Fraction(Decimal(text))
-    assert parse_number(text) == R(exact.numerator, exact.denominator)
+    assert parse_number(text).exact_value() == exact
 
 
 # --------------------------------------------------------------------------- messages
@@ -291,15 +296,17 @@ def test_bad_variable_names_are_refused(variables):
 # --------------------------------------------------------------------------- limits
 
 def test_limits_accept_up_to_the_boundary():
-    assert parse_expression("1+" * 99 + "1") == 100                       # 199 characters
-    assert parse_expression("+".join(["1"] * 100), max_length=1000) == 100  # 199 tokens
-    assert parse_expression("(" * 30 + "t" + ")" * 30) == t                 # depth 30
-    assert parse_expression("9" * 30) == 10**30 - 1                         # 30-digit literal
-    assert parse_expression("t^64 + t^-64") == t**64 + t**-64
-    assert parse_expression("(2^31)^32") == 2**992
-    assert parse_expression("sin(sin(sin(sin(t))))") == sympy.sin(sympy.sin(sympy.sin(
-        sympy.sin(t))))
-    assert parse_expression("exp(709) + exp(t/50)") == sympy.exp(709) + sympy.exp(t / 50)
+    def parsed(text, **options):
+        return parse_expression(text, **options).to_sympy()
+
+    assert parsed("1+" * 99 + "1") == 100                       # 199 characters
+    assert parsed("+".join(["1"] * 100), max_length=1000) == 100  # 199 tokens
+    assert parsed("(" * 30 + "t" + ")" * 30) == t                 # depth 30
+    assert parsed("9" * 30) == 10**30 - 1                         # 30-digit literal
+    assert parsed("t^64 + t^-64") == t**64 + t**-64
+    assert parsed("(2^31)^32") == 2**992
+    assert parsed("sin(sin(sin(sin(t))))") == sympy.sin(sympy.sin(sympy.sin(sympy.sin(t))))
+    assert parsed("exp(709) + exp(t/50)") == sympy.exp(709) + sympy.exp(t / 50)
 
 
 @pytest.mark.parametrize("text, options, message", [
@@ -398,8 +405,8 @@ def test_random_text_parses_or_raises_expression_error(text):
             value = parse_expression(text[:200], ("t", "x"))
         except ExpressionError:
             return
-    assert isinstance(value, sympy.Expr)
-    assert value.free_symbols <= {t, x}
+    assert isinstance(value, Expr)
+    assert value.variables <= {"t", "x"}
 
 
 # --------------------------------------------------------------------------- parse_number
@@ -410,11 +417,12 @@ def test_random_text_parses_or_raises_expression_error(text):
     ("sin(pi/6)", R(1, 2)), ("1/3", R(1, 3)),
 ])
 def test_parse_number_is_exact(text, expected):   # reference library: sympy
-    assert parse_number(text) == expected
+    assert parse_number(text).to_sympy() == expected
+    assert constant_float(parse_number(text)) == float(sympy.N(expected, 30))
 
 
 def test_parse_number_keeps_other_values_exact_and_right():   # reference: math
-    value = parse_number("log(e^3) + sin(1)")
+    value = parse_number("log(e^3) + sin(1)").to_sympy()
     assert value.is_number and not value.is_Float
     assert float(value) == pytest.approx(3 + math.sin(1), rel=1e-15)
 
@@ -476,3 +484,156 @@ def test_importing_the_module_does_not_import_sympy():
     result = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                             check=True, env={**os.environ, "PYTHONPATH": PACKAGE_ROOT})
     assert result.stdout.split() == ["False", "False"]
+
+
+# --------------------------------------------------------------------------- the own tree
+# Outside reference: sympy -- ``sympy.diff`` for derivatives and ``sympy.lambdify`` (numpy)
+# for values of the same expression, built from the tree by ``to_sympy``; the tree's own
+# derivative and compiler never see sympy.
+
+import numpy as np                                          # noqa: E402
+from hypothesis import example                              # noqa: E402
+
+from revolve.expr import from_sympy                         # noqa: E402
+
+_LEAVES = ["t", "2", "0.5", "3/4", "pi", "e", "1.25"]
+_UNARY = ["sin", "cos", "tan", "atan", "sinh", "cosh", "tanh", "exp", "sqrt", "abs",
+          "log", "asin", "acos"]
+
+
+def _expression_text():
+    """Random expressions of the parser's grammar in ``t`` (text, never sympy)."""
+    leaves = st.sampled_from(_LEAVES)
+
+    def extend(children):
+        binary = st.tuples(children, st.sampled_from(["+", "-", "*", "/"]), children).map(
+            lambda a: f"({a[0]}) {a[1]} ({a[2]})")
+        unary = st.tuples(st.sampled_from(_UNARY), children).map(lambda a: f"{a[0]}({a[1]}/4)")
+        powers = st.tuples(children, st.sampled_from(["2", "3", "-1", "1/2", "-2"])).map(
+            lambda a: f"({a[0]})^({a[1]})")
+        two = st.tuples(children, children).map(lambda a: f"atan2({a[0]}, 1 + ({a[1]})^2)")
+        return binary | unary | powers | two | children.map(lambda a: f"-({a})")
+
+    return st.recursive(leaves, extend, max_leaves=8)
+
+
+def _parsed_or_none(text):
+    try:
+        return parse_expression(text)
+    except ExpressionError:
+        return None
+
+
+TS = np.array([0.15, 0.4, 0.77, 1.1, 1.6])
+
+
+def _agree(got, want):
+    """Values agree to 1e-9 where the reference is a real number of moderate size."""
+    got = np.broadcast_to(np.asarray(got, dtype=float), TS.shape)
+    want = np.broadcast_to(np.asarray(want, dtype=float), TS.shape)
+    ok = np.isfinite(want) & (np.abs(want) < 1e12)
+    scale = np.maximum(np.abs(want), 1.0)
+    bad = ok & ~(np.abs(got - want) <= 1e-9 * scale)
+    return not bad.any(), ok
+
+
+@settings(max_examples=300, deadline=None)
+@given(_expression_text())
+@example("sqrt(t)^2")
+@example("abs(t - 1) * exp(-(t)/4)")
+@example("atan2(t, 1 + (t)^2) / (t - 3/4)")
+def test_tree_values_and_derivatives_match_sympy(text):     # reference: sympy diff, lambdify
+    tree = _parsed_or_none(text)
+    assume(tree is not None)
+    reference = tree.to_sympy()
+    with np.errstate(all="ignore"):
+        want = sympy.lambdify(t, reference, modules="numpy")(TS)
+        want_d = sympy.lambdify(t, sympy.diff(reference, t), modules="numpy")(TS)
+        got = tree.numpy_function()(TS)
+        got_d = tree.derivative().numpy_function()(TS)
+    same, ok = _agree(got, want)
+    assert same, (text, got, want)
+    same_d, ok_d = _agree(got_d, want_d)
+    assert same_d, (text, got_d, want_d)
+
+
+@settings(max_examples=200, deadline=None)
+@given(_expression_text())
+@example("-(-((t) / (-(0.5))))")       # once printed t/-1/2, which reads as (t/-1)/2
+def test_tree_text_parses_back_to_the_same_tree_value(text):
+    tree = _parsed_or_none(text)
+    assume(tree is not None)
+    again = parse_expression(tree.text())
+    assert again.to_sympy().equals(tree.to_sympy()) is not False     # reference: sympy
+    with np.errstate(all="ignore"):
+        same, _ = _agree(again.numpy_function()(TS), tree.numpy_function()(TS))
+    assert same
+
+
+def test_trees_compare_and_hash_by_structure():
+    a, b = parse_expression("t^2 + sin(t)/3"), parse_expression("t ** 2 + sin( t ) / 3")
+    assert a == b and hash(a) == hash(b) and a is not b
+    assert a != parse_expression("t^2 + sin(t)/4")
+    assert parse_expression("2") != from_sympy(sympy.Float(2.0))    # exact and float differ
+    assert {a: 1}[b] == 1
+
+
+def test_trees_are_immutable_and_pickle():
+    import pickle
+
+    tree = parse_expression("sqrt(1 + t^2) - pi")
+    with pytest.raises(AttributeError):
+        tree.left = parse_expression("1")
+    assert pickle.loads(pickle.dumps(tree)) == tree
+
+
+def test_sympy_expressions_convert_once_and_back():   # reference: sympy built by hand
+    s = 3 * t ** 2 / 90 + sympy.sqrt(2) * sympy.cos(t) - sympy.exp(t / 5) + sympy.pi
+    tree = from_sympy(s)
+    assert sympy.simplify(tree.to_sympy() - s) == 0
+    with pytest.raises(ExpressionError, match="cannot be used"):
+        from_sympy(sympy.gamma(t))
+
+
+def test_derivative_folds_zero_and_one():
+    assert parse_expression("3*t + pi").derivative().text() == "3"
+    assert parse_expression("t").derivative().text() == "1"
+    assert parse_expression("pi^2").derivative().text() == "0"
+
+
+# --------------------------------------------------------------------------- no sympy when
+# nothing exact is asked (issue 10: symbolic only where asked)
+
+def _modules_after(code: str) -> list:
+    script = ("import sys\n" + code + "\n"
+              "print([m for m in ('sympy', 'mpmath', 'scipy') if m in sys.modules])\n")
+    result = subprocess.run([sys.executable, "-c", script], capture_output=True, text=True,
+                            env={**os.environ, "PYTHONPATH": PACKAGE_ROOT}, cwd=PACKAGE_ROOT)
+    assert result.returncode == 0, result.stderr[-2000:]
+    return result.stdout.strip().splitlines()[-1]
+
+
+def test_measuring_a_curve_profile_imports_no_sympy():
+    code = ("import revolve\n"
+            "from revolve.cli.app import main\n"
+            "import contextlib, io\n"
+            "with contextlib.redirect_stdout(io.StringIO()):\n"
+            "    try:\n"
+            "        main(['measure', 'profiles/domed-lid.toml', '--json'])\n"
+            "    except SystemExit:\n"
+            "        pass\n")
+    assert _modules_after(code) == "[]"
+
+
+def test_building_and_measuring_an_ellipsoidal_vessel_imports_no_sympy():
+    code = ("from revolve.jobs.vessel import build_vessel, parse_head, summarise, "
+            "sketch_profile\n"
+            "from revolve.geometry.measure import measure\n"
+            "from revolve.geometry.profile import Revolution\n"
+            "spec = parse_head('ellipsoidal', 1200.0)\n"
+            "design = build_vessel(1200.0, 3000.0, spec, parse_head('torispherical', 1200.0),"
+            " thickness=8.0)\n"
+            "summarise(design)\n"
+            "profile, axis = sketch_profile(design, 'vertical', 'inside')\n"
+            "measure(Revolution(profile, axis))\n")
+    assert _modules_after(code) == "[]"

@@ -149,7 +149,7 @@ def test_expression_coordinates_are_exact_and_correct():
     assert s[0].end[0] == math.sqrt(300)  # IEEE sqrt is correctly rounded; 10*sqrt(3) = sqrt(300)
     assert s[0].exact == ("1/3", Fraction(10), "sqrt(3)*10", Fraction(10))  # strings as written
     from revolve.expr import parse_number
-    assert parse_number(s[0].exact[2]) == 10 * sympy.sqrt(3)
+    assert parse_number(s[0].exact[2]).to_sympy() == 10 * sympy.sqrt(3)
 
 
 def test_decimals_are_read_exactly():

@@ -94,3 +94,21 @@ def test_version_is_written_in_one_place():
     except importlib.metadata.PackageNotFoundError:
         return   # run from a checkout on PYTHONPATH: nothing installed to compare
     assert installed == revolve.__version__
+
+
+def test_no_algorithm_asks_which_segment_kind_it_holds():
+    # Issue 10's contract: outside revolve/geometry/kinds/ nothing tests a segment's class or
+    # its kind name; every algorithm calls the contract (kinds/base.py) instead.
+    import re
+
+    asks = re.compile(r"isinstance\([^)]*\b(Line|Arc|Curve|Polyline)\b"
+                      r"|\bkind\s*(==|!=|in)\s*\(?\s*[\"'](line|arc|curve|polyline)[\"']"
+                      r"|type\([^)]*\)\s+is\s+(Line|Arc|Curve|Polyline)\b")
+    found = []
+    for path in sorted((ROOT / "revolve").rglob("*.py")):
+        if "kinds" in path.parts:
+            continue
+        for no, line in enumerate(path.read_text(encoding="utf-8").splitlines(), start=1):
+            if asks.search(line):
+                found.append(f"{path.relative_to(ROOT)}:{no}: {line.strip()}")
+    assert not found, "\n".join(found)

@@ -111,7 +111,7 @@ from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
 from revolve.formats.source_lines import find_oversize, scan_lines
 from revolve.formats.values import (MAX_NUMBER_CHARS, Value, check_length_unit, describe,
-                                    exact_to_sympy, fail, is_one_line, number, point, quote,
+                                    exact_tree, fail, is_one_line, number, point, quote,
                                     toml_float)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
 from revolve.geometry.segments import (Line, Where, arc_from_centre, arc_from_radius,
@@ -268,9 +268,15 @@ def _check_sizes(text: str, file: Optional[str]) -> None:
 
 
 def _plain_exact(value: Any) -> Any:
-    """A sympy rational as a Fraction (like every plain number); anything else unchanged."""
-    if getattr(value, "is_Rational", False):
-        return Fraction(int(value.p), int(value.q))
+    """An exact number tree as a Fraction (like every plain number); anything else unchanged.
+
+    >>> from revolve.expr import parse_number
+    >>> _plain_exact(parse_number("25 - 0^2/180")), _plain_exact(parse_number("pi/2"))
+    (Fraction(25, 1), Expr('pi/2'))
+    """
+    exact = getattr(value, "exact_value", None)
+    if exact is not None and exact() is not None:
+        return exact()
     return value
 
 
@@ -605,9 +611,9 @@ class _Reader:
             raise exc.located(file=where.file, line=where.line, place=where.place) from None
 
     def curve(self, raw: Dict[str, Any], shape: str, current, face, where: Where):
-        import sympy
+        from revolve.expr import Var
 
-        t = sympy.Symbol("t", real=True)
+        t = Var("t")
         if shape == "parametric curve":
             x_expr = self.expression(raw["x"], "x", "t", where)
             y_expr = self.expression(raw["y"], "y", "t", where)
@@ -615,21 +621,21 @@ class _Reader:
             t1 = number(raw["t_to"], "t_to", where)
             end_exact = None
         elif shape == "curve y(x)":
-            x = sympy.Symbol("x", real=True)
-            x_expr, y_expr = t, self.expression(raw["y"], "y", "x", where).xreplace({x: t})
+            x_expr, y_expr = t, self.expression(raw["y"], "y", "x", where).substitute({"x": t})
             t0, t1 = current[0], number(raw["to_x"], "to_x", where)
             end_exact = (t1.exact, None)
         else:
-            y = sympy.Symbol("y", real=True)
-            x_expr, y_expr = self.expression(raw["x"], "x", "y", where).xreplace({y: t}), t
+            x_expr, y_expr = self.expression(raw["x"], "x", "y", where).substitute({"y": t}), t
             t0, t1 = current[1], number(raw["to_y"], "to_y", where)
             end_exact = (None, t1.exact)
         curve = curve_from_expressions(x_expr, y_expr, t0.value, t1.value, face=face,
                                        where=where, exact=(t0.exact, t1.exact))
         self.curve_checks.append((curve, (current[0].value, current[1].value), where))
-        t_end = exact_to_sympy(t1.exact)
-        ex = end_exact[0] if end_exact and end_exact[0] is not None else x_expr.xreplace({t: t_end})
-        ey = end_exact[1] if end_exact and end_exact[1] is not None else y_expr.xreplace({t: t_end})
+        t_end = exact_tree(t1.exact)
+        ex = end_exact[0] if end_exact and end_exact[0] is not None else \
+            x_expr.substitute({"t": t_end})
+        ey = end_exact[1] if end_exact and end_exact[1] is not None else \
+            y_expr.substitute({"t": t_end})
         x_end, y_end = curve.end
         return curve, (Value(x_end, _plain_exact(ex)), Value(y_end, _plain_exact(ey)))
 

@@ -570,28 +570,34 @@ def _floats(p: Point) -> Tuple[float, float]:
 
 
 def _coefficient(value: Number):
-    import sympy
+    """An exact tree number for a small fraction, else the nearest float (and whether exact)."""
+    from revolve.expr import Num
 
     if isinstance(value, Fraction):
         if max(abs(value.numerator), value.denominator) < 10 ** MAX_EXACT_DIGITS:
-            return sympy.Rational(value.numerator, value.denominator), True
+            return Num(value), True
         value = float(value)
-    return sympy.Float(float(value), 17), False
+    return Num(float(value)), False
 
 
 def _polynomial(coefficients: Sequence[Number]):
-    """Sum of c_k t^k as a sympy expression, and whether every c_k stayed exact."""
-    import sympy
+    """Sum of c_k t^k as an expression tree, and whether every c_k stayed exact.
 
-    t = sympy.Symbol("t", real=True)
-    terms, exact = [], True
+    >>> tree, exact = _polynomial([Fraction(1), Fraction(0), Fraction(-3, 2)])
+    >>> tree.text(), exact
+    ('1 - 3/2*t^2', True)
+    """
+    from revolve.expr import ZERO, Var
+
+    t = Var("t")
+    out, exact = ZERO, True
     for k, c in enumerate(coefficients):
         if c == 0:
             continue
         value, ok = _coefficient(c)
         exact = exact and ok
-        terms.append(value * t ** k)
-    return (sympy.Add(*terms) if terms else sympy.Integer(0)), exact
+        out = out + value * t ** k
+    return out, exact
 
 
 def _straight(points: Sequence[Point]) -> bool:
@@ -749,16 +755,16 @@ class _Builder:
         self.exact = False
         cx = a * centre[0] + c * centre[1] + e
         cy = b * centre[0] + d * centre[1] + f
-        import sympy
+        from revolve.expr import Num, Var, call
 
-        t = sympy.Symbol("t", real=True)
-        F = sympy.Float
+        t = Var("t")
+        cos_t, sin_t = call("cos", (t,)), call("sin", (t,))
         sign = 1.0
         t0, t1 = theta1, theta1 + dtheta
         if dtheta < 0:  # run t upwards: θ = -t
             sign, t0, t1 = -1.0, -theta1, -(theta1 + dtheta)
-        x_expr = F(cx, 17) + F(m00, 17) * sympy.cos(t) + F(sign * m01, 17) * sympy.sin(t)
-        y_expr = F(cy, 17) + F(m10, 17) * sympy.cos(t) + F(sign * m11, 17) * sympy.sin(t)
+        x_expr = Num(float(cx)) + Num(float(m00)) * cos_t + Num(sign * m01) * sin_t
+        y_expr = Num(float(cy)) + Num(float(m10)) * cos_t + Num(sign * m11) * sin_t
         return curve_from_expressions(x_expr, y_expr, t0, t1, where=where)
 
     def _circular(self, q0, q1, fq0, fq1, rx, scaled, ccw, large, radius, where):
@@ -810,17 +816,17 @@ def path_profile(commands: Sequence[PathCommand], *, matrix: Affine = FLIP_Y,
     for k, sub in enumerate(_subpaths(commands), 1):
         segments = []
         for item in sub.items:
-            kind, pos, letter = item[0], item[-2], item[-1]
+            command, pos, letter = item[0], item[-2], item[-1]
             where = builder.where(k, f'"{letter}"', pos)
-            if kind in ("line", "close"):
+            if command in ("line", "close"):
                 seg = builder.line_segment(item[1], item[2], where)
-                if seg is None and kind == "line":
+                if seg is None and command == "line":
                     notes.append(f"{where.place}: a line of zero length was left out")
-            elif kind == "cubic":
+            elif command == "cubic":
                 seg = builder.bezier(item[1:5], where)
                 if seg is None:
                     notes.append(f"{where.place}: a curve of zero size was left out")
-            elif kind == "quad":
+            elif command == "quad":
                 seg = builder.bezier(item[1:4], where)
                 if seg is None:
                     notes.append(f"{where.place}: a curve of zero size was left out")

@@ -8,11 +8,12 @@ holding an expression such as ``"sqrt(3)*10"``. Each is turned into a
   is imported for these, to keep start-up fast),
 * the original string for an expression (parsed by
   :func:`revolve.expr.parse_number`, never by Python's own evaluator), or
-* a sympy expression for a coordinate that was computed, e.g. the end of a
-  curve.
+* an expression tree (:class:`revolve.expr.Expr`) for a coordinate that was
+  computed, e.g. the end of a curve (a sympy number is taken too).
 
-:func:`exact_to_sympy` turns any of the three into a sympy number and
-:func:`exact_literal` writes one back as TOML text.
+:func:`exact_to_float` gives the float of any of them (without sympy),
+:func:`exact_tree` the expression tree, :func:`exact_to_sympy` a sympy number
+(only for exact results), and :func:`exact_literal` writes one back as TOML text.
 
 Examples
 --------
@@ -352,22 +353,29 @@ def _expression_value(text: str, what: str, where: Optional[Where]) -> float:
 
 
 def exact_to_float(exact: Any) -> float:
-    """The float nearest an exact value (Fraction, expression string or sympy number).
+    """The float nearest an exact value (Fraction, expression string or tree, sympy number).
 
-    Sympy numbers are evaluated to 30 digits and rounded once, so the same
-    input always gives the same float.
+    Values that are not plain fractions are evaluated to 30 digits and rounded
+    once (:func:`revolve.expr.constant_float`, without sympy), so the same input
+    always gives the same float.
 
     >>> exact_to_float(Fraction(1, 3)) == 1 / 3
+    True
+    >>> exact_to_float("sqrt(3)*10") == math.sqrt(300)
     True
     """
     if isinstance(exact, (Fraction, int)):
         return float(exact)
+    from revolve.expr import Expr, constant_float
+
     if isinstance(exact, str):
         if PLAIN_NUMBER.match(exact):
             return float(Fraction(exact.strip()))
         from revolve.expr import parse_number
 
         exact = parse_number(exact)
+    if isinstance(exact, Expr):
+        return constant_float(exact)
     import sympy
 
     value = sympy.N(exact, EVALUATION_DIGITS)
@@ -376,25 +384,41 @@ def exact_to_float(exact: Any) -> float:
     return float(value)
 
 
-def exact_to_sympy(exact: Any):
-    """The sympy number of an exact value (imports sympy).
+def exact_tree(exact: Any):
+    """The expression tree of an exact value (Fraction, int, expression string, tree).
 
-    >>> exact_to_sympy(Fraction(3, 4))
-    3/4
+    >>> exact_tree(Fraction(3, 4)), exact_tree("pi/2")
+    (Expr('3/4'), Expr('pi/2'))
+    """
+    from revolve.expr import Expr, Num, as_expression, parse_number
+
+    if isinstance(exact, (Fraction, int)) and not isinstance(exact, bool):
+        return Num(exact)
+    if isinstance(exact, str):
+        if PLAIN_NUMBER.match(exact):
+            return Num(Fraction(exact.strip()))
+        return parse_number(exact)
+    if isinstance(exact, Expr):
+        return exact
+    return as_expression(exact)
+
+
+def exact_to_sympy(exact: Any):
+    """The sympy number of an exact value (imports sympy: for exact results only).
+
+    >>> exact_to_sympy(Fraction(3, 4)), exact_to_sympy("pi/2")
+    (3/4, pi/2)
     """
     import sympy
+
+    from revolve.expr import Expr
 
     if isinstance(exact, Fraction):
         return sympy.Rational(exact.numerator, exact.denominator)
     if isinstance(exact, int):
         return sympy.Integer(exact)
-    if isinstance(exact, str):
-        if PLAIN_NUMBER.match(exact):
-            f = Fraction(exact.strip())
-            return sympy.Rational(f.numerator, f.denominator)
-        from revolve.expr import parse_number
-
-        return parse_number(exact)
+    if isinstance(exact, (str, Expr)):
+        return exact_tree(exact).to_sympy()
     return exact
 
 
@@ -443,13 +467,19 @@ def float_literal(value: float) -> str:
 
 
 def expression_text(expr) -> str:
-    """Text of a sympy expression in the project's expression syntax (``^`` for powers).
+    """Text of an expression (a tree or a sympy expression) in the project's syntax (``^``).
 
     >>> import sympy
     >>> t = sympy.Symbol("t", real=True)
     >>> expression_text(3 * t**2 / 90 + sympy.sqrt(2))
     't^2/30 + sqrt(2)'
+    >>> from revolve.expr import parse_number
+    >>> expression_text(parse_number("pi / 2"))
+    'pi/2'
     """
+    text = getattr(expr, "text", None)
+    if callable(text):       # an expression tree prints itself (no sympy)
+        return text()
     from sympy.printing.str import StrPrinter
 
     class Printer(StrPrinter):
@@ -482,6 +512,9 @@ def exact_literal(exact: Any) -> str:
         exact = Fraction(exact)
     if getattr(exact, "is_Rational", False):
         exact = Fraction(int(exact.p), int(exact.q))
+    plain = getattr(exact, "exact_value", None)      # an expression tree that is a fraction
+    if plain is not None and plain() is not None:
+        exact = plain()
     if isinstance(exact, Fraction):
         text = decimal_text(exact)
         if text is not None:

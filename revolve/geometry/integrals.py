@@ -623,14 +623,18 @@ def curve_integrals_symbolic(curve: Curve):
 
 
 def _exact(v):
+    """The sympy number of an exact interval end (a Fraction, an expression string or tree)."""
     import sympy
     from fractions import Fraction
+
+    from revolve.expr import Expr, parse_number
 
     if isinstance(v, Fraction):
         return sympy.Rational(v.numerator, v.denominator)
     if isinstance(v, str):
-        from revolve.expr import parse_number
-        return parse_number(v)
+        v = parse_number(v)
+    if isinstance(v, Expr):
+        return v.to_sympy()
     return sympy.nsimplify(v)
 
 

@@ -8,7 +8,9 @@ integrated over ``z`` with breakpoints at every vertex and every point where
 the boundary turns back along the axis, by Gauss–Legendre quadrature in the
 variable φ of ``z = (a + b)/2 - (b - a)/2 · cos φ`` (which smooths the square-
 root behaviour of an arc at its turning points), comparing two orders and
-splitting intervals until they agree. Each crossing's part of a slice interval
+splitting intervals until they agree; a straight crossing, whose ``r²`` is a
+quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
+rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
 crossings (a noisy outline) the intervals may be coarser than the vertices
 (:func:`first_partition`); the pieces and intervals are arrays, and the work is
@@ -17,7 +19,15 @@ O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
 Surface is ∫ r ds along every segment by Gauss–Legendre quadrature of the
 parametrisation, again comparing two orders.
 
-Neither uses the closed forms of :mod:`revolve.geometry.integrals`.
+Neither uses the closed forms of :mod:`revolve.geometry.integrals`. Nothing here
+asks which kind a segment is: each kind gives, through the segment contract
+(:mod:`revolve.geometry.kinds.base`) and four class methods kept for this
+module at the end of each kind's class (``washer_pieces``: its monotone pieces
+along the axis as array rows; ``washer_radius``: the radius of such a piece at
+given axial positions; ``washer_degree``: whether that radius is a polynomial
+of ``z``; ``r_ds_rows``: its ∫ r ds by quadrature), what the slices need. A
+polyline gives its edges as rows of a view of its vertex array, so a
+10⁶-vertex outline costs a sort and a few passes over memory, in blocks.
 
 Examples
 --------
@@ -37,12 +47,12 @@ A 2 × 2 square from r = 1 to r = 3: washers give π (3² - 1²) · 2 = 16 π.
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
-from typing import List, Sequence, Tuple
+from dataclasses import dataclass, field
+from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
-from revolve.geometry.segments import Arc, Curve, Line, Segment
+from revolve.geometry.segments import Segment
 
 _GL_CACHE: dict = {}
 
@@ -61,18 +71,25 @@ def gauss_legendre(n: int) -> Tuple[np.ndarray, np.ndarray]:
 
 @dataclass(frozen=True)
 class Piece:
-    """A part of a frame segment along which ``z`` moves one way only."""
+    """A part of a frame segment along which ``z`` moves one way only (one object: for few pieces).
+
+    ``params`` is the kind's row from ``washer_pieces`` (for example a line's
+    ``(z0, r0, z1, r1)``) and ``segment`` the frame segment it belongs to.
+    """
 
     z_from: float
     z_to: float
     kind: str
-    params: tuple  # line: (z0, r0, z1, r1); arc: (cz, cr, R, s, u_e, r_e, √(R² − u_e²));
-    #                curve: (curve, t_a, t_b)
+    params: tuple
     factor: float  # loop orientation and hole sign
+    segment: Optional[Segment] = field(default=None, compare=False, repr=False)
 
 
 def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
-    """Split a frame segment where it turns back along the axis.
+    """Split a frame segment where it turns back along the axis, one :class:`Piece` each.
+
+    For tests and small tools; the washers themselves keep pieces as array
+    rows (:func:`piece_table`). Pieces across the axis direction are left out.
 
     >>> from revolve.geometry.segments import arc_from_centre
     >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
@@ -82,74 +99,35 @@ def monotone_pieces(seg: Segment, factor: float) -> List[Piece]:
     >>> [(round(p.z_from, 12), round(p.z_to, 12)) for p in monotone_pieces(full_top, 1.0)]
     [(0.0, 1.0), (1.0, 0.0)]
     """
-    if isinstance(seg, Line):
-        (z0, r0), (z1, r1) = seg.start, seg.end
-        if z0 == z1:
-            return []
-        return [Piece(z0, z1, "line", (z0, r0, z1, r1), factor)]
-    if isinstance(seg, Arc):
-        a0, a1 = seg.angles()
-        lo, hi = min(a0, a1), max(a0, a1)
-        cuts = [k * math.pi for k in range(math.ceil(lo / math.pi), math.floor(hi / math.pi) + 1)
-                if lo < k * math.pi < hi]
-        angles = [a0] + (cuts if a1 > a0 else cuts[::-1]) + [a1]
-        cz, cr = seg.centre
-        R = seg.radius
-        out = []
-        for b0, b1 in zip(angles[:-1], angles[1:]):
-            mid = (b0 + b1) / 2
-            s = 1.0 if math.sin(mid) > 0 else -1.0
-            z_from = seg.start[0] if b0 == a0 else cz + R * math.cos(b0)
-            z_to = seg.end[0] if b1 == a1 else cz + R * math.cos(b1)
-            # A known point of the piece for the radius (see _radius_at): its start, as
-            # u_e = z_e − cz, r_e and √(R² − u_e²) = |r_e − cr|, each without a square root
-            # of a rounded difference (exactly ±R, cr and 0 at a turning point).
-            if b0 == a0:
-                ue, re, root_e = seg.start[0] - cz, seg.start[1], abs(seg.start[1] - cr)
-            else:
-                ue, re, root_e = (R if round(b0 / math.pi) % 2 == 0 else -R), cr, 0.0
-            if z_from != z_to:
-                out.append(Piece(z_from, z_to, "arc", (cz, cr, R, s, ue, re, root_e), factor))
-        return out
-    if isinstance(seg, Curve):
-        ts = [seg.t_start] + seg.turning_parameters(0)
-        ts.append(seg.t_end)
-        out = []
-        for ta, tb in zip(ts[:-1], ts[1:]):
-            za = float(seg.evaluate(np.array([ta]))[0][0])
-            zb = float(seg.evaluate(np.array([tb]))[0][0])
-            if za != zb:
-                out.append(Piece(za, zb, "curve", (seg, ta, tb), factor))
-        return out
-    raise TypeError(type(seg).__name__)
+    z_from, z_to, _, params = type(seg).washer_pieces([seg])
+    return [Piece(float(a), float(b), seg.kind, tuple(float(v) for v in row), factor, seg)
+            for a, b, row in zip(z_from, z_to, np.asarray(params)) if a != b]
 
 
 def _radius_at(piece: Piece, z: np.ndarray) -> np.ndarray:
-    if piece.kind == "line":
-        z0, r0, z1, r1 = piece.params
-        return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
-    if piece.kind == "arc":
-        # r(z) = cr + s √(R² − u²), u = z − cz, written from a known point (cz + u_e, r_e) of the
-        # piece as r_e + s (u_e − u)(u_e + u) / (√(R² − u²) + √(R² − u_e²)): the same value,
-        # without the cancellation of cr against the root when the centre is far (a flat arc).
-        cz, cr, R, s, ue, re, root_e = piece.params
-        u = z - cz
-        root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
-        with np.errstate(invalid="ignore", divide="ignore"):
-            r = re + s * (ue - u) * (ue + u) / (root + root_e)
-        return np.where(root + root_e > 0, r, cr + s * root)
-    curve, ta, tb = piece.params
-    return curve.evaluate(curve_parameter_at(curve, ta, tb, z, coordinate=0))[1]
+    """The radius of one :class:`Piece` at axial positions ``z`` (any shape).
+
+    >>> from revolve.geometry.segments import Line
+    >>> [p] = monotone_pieces(Line((0.0, 1.0), (2.0, 3.0)), 1.0)
+    >>> _radius_at(p, np.array([0.5, 1.0])).tolist()
+    [1.5, 2.0]
+    """
+    z = np.asarray(z, dtype=float)
+    seg = piece.segment
+    r = type(seg).washer_radius([seg], np.array([piece.params], dtype=float), z.reshape(1, -1))
+    return np.asarray(r).reshape(z.shape)
 
 
-def curve_parameter_at(curve: Curve, ta: float, tb: float, targets, coordinate: int = 0,
+def curve_parameter_at(curve, ta: float, tb: float, targets, coordinate: int = 0,
                        iterations: int = 70) -> np.ndarray:
     """Parameters where a curve, monotone in one coordinate on [ta, tb], reaches each target.
 
     ``coordinate`` 0 inverts x(t) (the axial z in the frame), 1 inverts y(t)
-    (the radius). Vectorised bisection over the targets.
+    (the radius). Vectorised bisection over the targets
+    (:meth:`Curve.monotone_parameters <revolve.geometry.kinds.curve.Curve.monotone_parameters>`).
 
     >>> import sympy
+    >>> from revolve.geometry.segments import Curve
     >>> t = sympy.Symbol("t", real=True)
     >>> c = Curve(t ** 2, t, 0.0, 2.0)
     >>> [round(float(v), 12) for v in curve_parameter_at(c, 0.0, 2.0, np.array([1.0, 4.0]))]
@@ -157,46 +135,49 @@ def curve_parameter_at(curve: Curve, ta: float, tb: float, targets, coordinate: 
     >>> [round(float(v), 12) for v in curve_parameter_at(c, 0.0, 2.0, np.array([0.5]), coordinate=1)]
     [0.5]
     """
-    targets = np.asarray(targets, dtype=float)
-    start = float(curve.evaluate(np.array([ta]))[coordinate][0])
-    rising = float(curve.evaluate(np.array([tb]))[coordinate][0]) > start
-    lo = np.full(targets.shape, ta, dtype=float)
-    hi = np.full(targets.shape, tb, dtype=float)
-    for _ in range(iterations):
-        mid = 0.5 * (lo + hi)
-        value = curve.evaluate(mid)[coordinate]
-        below = (value < targets) if rising else (value > targets)
-        lo = np.where(below, mid, lo)
-        hi = np.where(below, hi, mid)
-    return 0.5 * (lo + hi)
+    return curve.monotone_parameters(coordinate, ta, tb, targets, iterations)
+
+
+@dataclass(frozen=True)
+class PieceGroup:
+    """The pieces of one segment kind: rows ``start:stop`` of a :class:`PieceTable`.
+
+    ``kind`` is the segments' class (its ``washer_radius`` and ``washer_degree``
+    are called), ``segments`` the sequence its ``washer_pieces`` was given, and
+    ``params`` the pieces' rows.
+    """
+
+    kind: type
+    segments: tuple
+    params: np.ndarray
+    start: int
+    stop: int
 
 
 @dataclass(frozen=True)
 class PieceTable:
     """The monotone pieces of a profile's loops as arrays, for the washers.
 
-    ``lo`` and ``hi`` are each piece's extent along the axis and ``sign`` is
-    ``-direction × factor`` (the sign its ``r²`` takes in the slice). Lines
-    and arcs keep their parameters in columns (``line``: z0, r0, z1, r1;
-    ``arc``: cz, cr, R, s, u_e, r_e, √(R² − u_e²), as in :class:`Piece`);
-    curves stay :class:`Piece` objects (few, each inverted by bisection).
-    Rows of ``lo``, ``hi`` and ``sign`` list the lines, then the arcs, then
-    the curves.
+    ``z_from``, ``z_to`` are each piece's axial position at its start and
+    end, ``lo`` and ``hi`` its extent along the axis, and ``sign`` is
+    ``-direction × factor`` (the sign its ``r²`` takes in the slice). The
+    pieces of each kind are contiguous rows, described by ``groups``, each
+    kind's pieces in the order of their segments along the loops.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> t = piece_table(prep, [1.0])
-    >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist()
-    (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0])
+    >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist(), [g.kind.kind for g in t.groups]
+    (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0], ['line'])
     """
 
+    z_from: np.ndarray
+    z_to: np.ndarray
     lo: np.ndarray
     hi: np.ndarray
     sign: np.ndarray
-    line: np.ndarray            # (n_lines, 4)
-    arc: np.ndarray             # (n_arcs, 7)
-    curves: Tuple[Piece, ...]
+    groups: Tuple[PieceGroup, ...]
 
     @property
     def count(self) -> int:
@@ -206,150 +187,354 @@ class PieceTable:
 def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
     """Split every loop segment of a prepared profile into monotone pieces, as arrays.
 
-    Lines go straight into columns (no object per vertex); arcs and curves go
-    through :func:`monotone_pieces`. Open chains enclose nothing and are left out.
+    The segments are grouped by kind and each group's ``washer_pieces`` gives
+    its rows at once (a polyline's rows are a view of its vertices: no object
+    per vertex). Pieces across the axis direction (``z_from == z_to``) enclose
+    no washer and are left out. Open chains enclose nothing and are left out.
     An empty profile gives an empty table:
 
     >>> from revolve.geometry.checks import PreparedProfile
     >>> piece_table(PreparedProfile((), (), (), 1.0, 1.0, 1e-9), []).count
     0
     """
-    line_rows: List[np.ndarray] = []
-    line_factor: List[np.ndarray] = []
-    others: List[Piece] = []
+    by_kind: Dict[type, Tuple[list, list]] = {}
     loop_no = 0
     for segs, closed in zip(prep.paths, prep.closed):
         if not closed:
             continue
         f = float(loop_factors[loop_no])
         loop_no += 1
-        ends = [s.start + s.end for s in segs if isinstance(s, Line)]
-        if ends:
-            rows = np.array(ends, dtype=float).reshape(-1, 4)
-            rows = rows[rows[:, 0] != rows[:, 2]]           # across the axis: no washer
-            line_rows.append(rows)
-            line_factor.append(np.full(len(rows), f))
+        kinds = set(map(type, segs))
+        if len(kinds) == 1:                  # a loop of one kind (a point list): at once
+            group = by_kind.setdefault(kinds.pop(), ([], []))
+            group[0].extend(segs)
+            group[1].extend([f] * len(segs))
+            continue
         for s in segs:
-            if not isinstance(s, Line):
-                others.extend(monotone_pieces(s, f))
-    line = np.concatenate(line_rows) if line_rows else np.zeros((0, 4))
-    lf = np.concatenate(line_factor) if line_factor else np.zeros(0)
-    arcs = [p for p in others if p.kind == "arc"]
-    curves = tuple(p for p in others if p.kind == "curve")
-    arc = np.array([p.params for p in arcs], dtype=float).reshape(-1, 7)
-    ends_of = np.array([(p.z_from, p.z_to, p.factor) for p in arcs + list(curves)],
-                       dtype=float).reshape(-1, 3)
-    z_from = np.concatenate([line[:, 0], ends_of[:, 0]])
-    z_to = np.concatenate([line[:, 2], ends_of[:, 1]])
-    factor = np.concatenate([lf, ends_of[:, 2]])
-    direction = np.where(z_to > z_from, 1.0, -1.0)
-    return PieceTable(np.minimum(z_from, z_to), np.maximum(z_from, z_to), -direction * factor,
-                      line, arc, curves)
+            group = by_kind.setdefault(type(s), ([], []))
+            group[0].append(s)
+            group[1].append(f)
+    parts = []
+    start = 0
+    groups = []
+    for kind, (segs, factors) in by_kind.items():
+        z_from, z_to, counts, params = kind.washer_pieces(segs)
+        z_from = np.asarray(z_from, dtype=float)
+        z_to = np.asarray(z_to, dtype=float)
+        factor = np.repeat(np.asarray(factors, dtype=float), counts)
+        across = z_from == z_to
+        if across.any():
+            keep = ~across
+            z_from, z_to, factor, params = z_from[keep], z_to[keep], factor[keep], params[keep]
+        if not z_from.size:
+            continue
+        parts.append((z_from, z_to, factor))
+        # contiguous rows: np.take picks rows of them fast (not so from a strided view)
+        groups.append(PieceGroup(kind, tuple(segs), np.ascontiguousarray(params, dtype=float),
+                                 start, start + z_from.size))
+        start += z_from.size
+    if not parts:
+        empty = np.zeros(0)
+        return PieceTable(empty, empty, empty, empty, empty, ())
+    if len(parts) == 1:
+        z_from, z_to, factor = parts[0]
+    else:
+        z_from, z_to, factor = (np.concatenate(c) for c in zip(*parts))
+    rising = z_to > z_from
+    return PieceTable(z_from, z_to, np.where(rising, z_from, z_to), np.where(rising, z_to, z_from),
+                      np.where(rising, -factor, factor), tuple(groups))
 
 
-def _line_radius(p: np.ndarray, z: np.ndarray) -> np.ndarray:
-    """r(z) along line pieces; ``p`` rows (z0, r0, z1, r1) broadcast against ``z``."""
-    z0, r0, z1, r1 = (p[:, k:k + 1] for k in range(4))
-    return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+@dataclass(frozen=True)
+class _Rule:
+    """Quadrature nodes for one kind's pieces on a slice part [c, d]: ``z = mid + half·x``.
+
+    ``weights`` has two columns, the coarse and the fine rule (each zero on
+    the other's nodes), or one column when the rule is exact for the kind
+    (both estimates are then that one); the integral is ``half · Σ weights · f(z)``.
+    """
+
+    x: np.ndarray
+    weights: np.ndarray
+
+    @property
+    def exact(self) -> bool:
+        return self.weights.shape[1] == 1
 
 
-def _arc_radius(p: np.ndarray, z: np.ndarray) -> np.ndarray:
-    """r(z) along arc pieces, as in :func:`_radius_at` (rows of the seven arc parameters)."""
-    cz, cr, R, s, ue, re, root_e = (p[:, k:k + 1] for k in range(7))
-    u = z - cz
-    root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
-    with np.errstate(invalid="ignore", divide="ignore"):
-        r = re + s * (ue - u) * (ue + u) / (root + root_e)
-    return np.where(root + root_e > 0, r, cr + s * root)
+def _rule(degree: Optional[int], n: int) -> _Rule:
+    """The rules used on a piece: one exact rule in ``z`` for a polynomial radius, else two in ``φ``.
+
+    A radius of degree ``k`` in ``z`` makes ``r²`` of degree ``2k``: Gauss–Legendre
+    with ``k + 1`` nodes is exact, and a second rule would only add rounding
+    (its rounding is bounded instead, see :func:`washer_volume`). Otherwise
+    ``n`` and ``2n`` nodes in ``φ``, ``z = mid − half·cos φ`` (smooth at a
+    turning point), compared.
+
+    >>> r = _rule(1, 24)
+    >>> r.x.size, r.exact, [round(float(v), 14) for v in r.weights.sum(axis=0)]
+    (2, True, [2.0])
+    >>> r = _rule(None, 24)            # ∫ sin φ dφ · π/2 over [0, π] = 2
+    >>> r.x.size, r.exact, [round(float(v), 12) for v in r.weights.sum(axis=0)]
+    (72, False, [2.0, 2.0])
+    """
+    if degree is not None:
+        x, w = gauss_legendre(degree + 1)
+        return _Rule(x, w[:, None])
+    parts = []
+    for k in (n, 2 * n):
+        x, w = gauss_legendre(k)
+        phi = (x + 1) * (math.pi / 2)                    # nodes on [0, π]
+        parts.append((-np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = half sin φ dφ
+    x = np.concatenate([p[0] for p in parts])
+    weights = np.zeros((x.size, 2))
+    weights[:parts[0][0].size, 0] = parts[0][1]
+    weights[parts[0][0].size:, 1] = parts[1][1]
+    return _Rule(x, weights)
 
 
-#: Most (piece, interval) pairs evaluated at once by :func:`_interval_sums` (bounds memory).
-PAIR_BLOCK = 1 << 13
+#: Most quadrature nodes (pairs × nodes per pair) evaluated at once (512 kB an array: in cache).
+NODE_BLOCK = 1 << 16
 
 
-def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, orders: Sequence[int],
-                   r_ref: float = 0.0) -> List[np.ndarray]:
-    """∫ of the slice function over each interval [a_k, b_k], once per quadrature order.
+#: A part of a piece at most this fraction of the piece's extent along the axis is integrated
+#: with :data:`SMALL_PART_ORDER` nodes (and twice as many) instead of the washers' full order:
+#: a short part of a smooth piece needs few nodes, and the comparison of the two rules still
+#: decides whether its interval is halved.
+SMALL_PART = 1.0 / 64
+SMALL_PART_ORDER = 8
+
+
+def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.ndarray,
+               rule: _Rule, r_ref: float) -> np.ndarray:
+    """``Σ w · (r − r_ref)(r + r_ref)`` at the rule's nodes of parts ``mid ± half``, per part.
+
+    One column per rule of ``rule`` (shape (pairs,) for an exact rule, else
+    (pairs, 2)). The nodes are laid out node by node (``z`` is the transpose
+    of a (nodes, pairs) array), so every operation runs along the pairs.
+    """
+    nodes = np.empty((rule.x.size, mid.size))
+    for j, x in enumerate(rule.x):
+        np.multiply(half, x, out=nodes[j])
+        nodes[j] += mid
+    r = group.kind.washer_radius(group.segments, params, nodes.T)
+    # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
+    # to the same washer area, without losing digits when a thin section lies far from
+    # the axis.
+    val = (r - r_ref) * (r + r_ref)
+    if rule.exact:
+        w = rule.weights[:, 0]
+        sums = val[:, 0] * w[0]
+        for j in range(1, w.size):
+            sums += val[:, j] * w[j]
+        return sums
+    return np.einsum("ij,jk->ik", val, rule.weights)
+
+
+def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
+                count: np.ndarray, a: np.ndarray, b: np.ndarray, rule: _Rule, r_ref: float,
+                out: np.ndarray, small_rule: Optional[_Rule] = None) -> None:
+    """Add one kind's washers over the intervals to ``out`` (m, 2): coarse and fine rule.
+
+    ``pieces`` are rows of the table (of this group; an int array, or an int
+    when they are the rows from there on), piece ``pieces[i]`` meeting the
+    ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
+    are expanded in blocks of at most :data:`NODE_BLOCK` nodes. With
+    ``small_rule``, parts no longer than :data:`SMALL_PART` of their piece
+    take that rule.
+    """
+    ends = np.cumsum(count)
+    total = int(ends[-1]) if ends.size else 0
+    if total == 0:
+        return
+    starts = ends - count
+    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
+    ranged = isinstance(pieces, (int, np.integer))
+    few = a.size <= 4 * block           # few intervals: sum into all of them
+    for q0 in range(0, total, block):
+        q1 = min(total, q0 + block)
+        p0 = int(np.searchsorted(ends, q0, side="right"))
+        p1 = int(np.searchsorted(ends, q1 - 1, side="right")) + 1
+        if q1 - q0 == p1 - p0 and ranged:     # one interval per piece, consecutive pieces
+            iv = first[p0:p1]
+            rows = slice(pieces + p0, pieces + p1)
+            lo, hi, sign = table.lo[rows], table.hi[rows], table.sign[rows]
+            params = group.params[rows.start - group.start:rows.stop - group.start]
+        else:
+            own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
+            local = np.repeat(np.arange(p0, p1), own)
+            iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
+            piece = local + pieces if ranged else np.take(pieces, local)
+            lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
+            params = np.take(group.params, piece - group.start, axis=0)
+        c = np.maximum(np.take(a, iv), lo)
+        d = np.minimum(np.take(b, iv), hi)
+        small = None
+        if small_rule is not None:
+            small = (d - c) <= SMALL_PART * (hi - lo)
+            if small.all():
+                rule_here, small = small_rule, None
+            elif not small.any():
+                rule_here, small = rule, None
+        else:
+            rule_here = rule
+        half = d - c
+        half *= 0.5
+        c += d
+        c *= 0.5                          # the middle
+        if small is None:
+            sums = _part_sums(group, params, c, half, rule_here, r_ref)
+        else:
+            sums = np.empty((c.size, 2))
+            for sel, rl in ((small, small_rule), (~small, rule)):
+                sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
+        half *= sign
+        if few:
+            lo_iv, span = 0, a.size
+        else:                             # the intervals this block's pieces meet
+            lo_iv = int(first[p0:p1].min())
+            span = int((first[p0:p1] + count[p0:p1]).max()) - lo_iv
+            if span > 4 * iv.size:        # a long piece: only the intervals of its pairs here
+                lo_iv = int(iv.min())
+                span = int(iv.max()) + 1 - lo_iv
+            iv = iv - lo_iv
+        if sums.ndim == 1:
+            sums *= half
+            add = np.bincount(iv, weights=sums, minlength=span)
+            out[lo_iv:lo_iv + span, 0] += add
+            out[lo_iv:lo_iv + span, 1] += add
+        else:
+            sums *= half[:, None]
+            for k in range(2):
+                out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+
+
+def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
+                   r_ref: float = 0.0) -> Tuple[np.ndarray, np.ndarray]:
+    """∫ of the slice function over each interval [a_k, b_k], by the coarse and the fine rules.
 
     The intervals must be sorted and must not overlap (so ``b`` is sorted
-    too). A piece, monotone in z, then meets a contiguous run of intervals:
-    those with ``b > lo`` and ``a < hi``, found by two binary searches. The
-    (piece, interval) pairs are expanded from those runs; each pair is the
-    piece's washer over its part ``[max(a, lo), min(b, hi)]`` of the
-    interval; every node of every pair is evaluated at once, and the pairs
-    are summed into their intervals with ``np.bincount``. Where every piece
-    end is an interval end (as :func:`washer_volume` starts on smooth
-    outlines), a piece's part of an interval is the whole interval.
+    too). A piece, monotone in z, then meets a contiguous run of intervals.
+    ``runs`` gives, per group of the table, ``(pieces, first, count)``: the
+    pieces to take and the run of intervals each meets (from
+    :func:`_partition` or :func:`_runs`). The (piece, interval) pairs are
+    expanded from those runs; each pair is the piece's washer over its part
+    ``[max(a, lo), min(b, hi)]`` of the interval; the nodes of a block of
+    pairs are evaluated at once, and the pairs are summed into their
+    intervals with ``np.bincount``. Where every piece end is an interval end
+    (as :func:`washer_volume` starts on smooth outlines), a piece's part of an
+    interval is the whole interval.
 
-    Cost: O((n + m) log m + P · order) for n pieces, m intervals and P pairs.
-    P is the number of times the interval ends cut the boundary, plus n:
-    about 2m on an outline made of a few monotone chains along the axis; as
-    many as n · m for pathological partitions (many long pieces over the same
-    range, a noisy outline cut at every vertex), which is why
-    :func:`washer_volume` coarsens its first partition until P is O(n).
+    Cost: O(P · nodes) for P pairs, plus finding the runs (a binary search per
+    piece, or none on the first partition). P is the number of times the
+    interval ends cut the boundary, plus n: about 2m on an outline made of a
+    few monotone chains along the axis; as many as n · m for pathological
+    partitions (many long pieces over the same range, a noisy outline cut at
+    every vertex), which is why :func:`washer_volume` coarsens its first
+    partition until P is O(n).
 
-    Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` with n
-    Gauss–Legendre nodes in φ, ``z = (c + d)/2 − (d − c)/2 · cos φ`` on its
-    part [c, d] of the interval.
+    Each piece contributes ``sign · ∫ (r − r_ref)(r + r_ref) dz`` by the
+    rules of :func:`_rule` for its kind on its part of the interval (with
+    :data:`SMALL_PART_ORDER` nodes on a part no longer than :data:`SMALL_PART`
+    of a piece that is not a polynomial of ``z``). Returns
+    the coarse and fine sums per interval.
     """
-    m = a.size
-    out = [np.zeros(m) for _ in orders]
-    if m == 0 or table.count == 0:
-        return out
-    rules = []
-    for n in orders:
-        x, w = gauss_legendre(n)
-        phi = (x + 1) * (math.pi / 2)                      # nodes on [0, π]
-        rules.append((np.cos(phi), w * (math.pi / 2) * np.sin(phi)))   # dz = (b−a)/2 sin φ dφ
-    first = np.searchsorted(b, table.lo, side="right")     # first interval with b > lo
-    stop = np.searchsorted(a, table.hi, side="left")       # intervals with a < hi end here
-    count = np.maximum(stop - first, 0)
-    n_line, n_arc = len(table.line), len(table.arc)
-    kinds = (("line", 0, n_line), ("arc", n_line, n_line + n_arc))
-    for kind, k0, k1 in kinds:
-        if k1 == k0:
-            continue
-        params = table.line if kind == "line" else table.arc
-        radius = _line_radius if kind == "line" else _arc_radius
-        cnt = count[k0:k1]
-        ends = np.cumsum(cnt)
-        total = int(ends[-1])
-        for lo_pair in range(0, total, PAIR_BLOCK):
-            hi_pair = min(total, lo_pair + PAIR_BLOCK)
-            # Pair q belongs to the piece whose cumulative count first exceeds q.
-            q = np.arange(lo_pair, hi_pair)
-            piece = np.searchsorted(ends, q, side="right")
-            iv = first[k0 + piece] + (q - (ends[piece] - cnt[piece]))
-            p = params[piece]
-            sign = table.sign[k0 + piece]
-            c = np.maximum(a[iv], table.lo[k0 + piece])
-            d = np.minimum(b[iv], table.hi[k0 + piece])
-            mid, half = (c + d) / 2, (d - c) / 2
-            for res, (cphi, wphi) in zip(out, rules):
-                z = mid[:, None] - half[:, None] * cphi[None, :]
-                r = radius(p, z)
-                # Every loop crosses a slice as often going one way as the other, so
-                # r² − r_ref² sums to the same washer area, without losing digits when
-                # a thin section lies far from the axis.
-                val = np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half * sign
-                res += np.bincount(iv, weights=val, minlength=m)
-    for j, pc in enumerate(table.curves):
-        k = n_line + n_arc + j
-        if count[k] <= 0:
-            continue
-        sel = np.arange(first[k], first[k] + count[k])
-        c = np.maximum(a[sel], table.lo[k])
-        d = np.minimum(b[sel], table.hi[k])
-        mid, half = (c + d) / 2, (d - c) / 2
-        for res, (cphi, wphi) in zip(out, rules):
-            z = mid[:, None] - half[:, None] * cphi[None, :]
-            r = _radius_at(pc, z)
-            res[sel] += table.sign[k] * np.einsum("ij,j->i", (r - r_ref) * (r + r_ref), wphi) * half
+    out = np.zeros((a.size, 2))
+    if a.size == 0 or table.count == 0:
+        return out[:, 0], out[:, 1]
+    for group, (pieces, first, count) in zip(table.groups, runs):
+        if count.size:
+            degree = group.kind.washer_degree()
+            small = None if degree is not None else _rule(None, min(n, SMALL_PART_ORDER))
+            _group_sums(table, group, pieces, first, count, a, b, _rule(degree, n), r_ref, out,
+                        small)
+    return out[:, 0], out[:, 1]
+
+
+def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
+    """Per group, the pieces (of ``pieces``, default all) meeting any interval, with their runs.
+
+    A piece meets the intervals with ``b > lo`` and ``a < hi``: two binary
+    searches. Pieces meeting none are dropped (the next rounds only halve
+    these intervals, so they meet none of those either). :func:`washer_volume`
+    passes only the pieces that met an interval it halves.
+    """
+    out = []
+    for k, group in enumerate(table.groups):
+        idx = pieces[k] if pieces is not None else group.start
+        if isinstance(idx, (int, np.integer)):
+            idx = np.arange(idx, group.stop)
+        first = np.searchsorted(b, table.lo[idx], side="right")
+        stop = np.searchsorted(a, table.hi[idx], side="left")
+        count = stop - first
+        keep = count > 0
+        out.append((idx[keep], first[keep], count[keep]))
     return out
 
 
 #: Most (piece, interval) pairs per piece the first partition of the washers may give.
-PAIRS_PER_PIECE = 8
+PAIRS_PER_PIECE = 4
+
+
+def _partition(table: PieceTable):
+    """The first slice intervals and, per group, the run of them each piece meets.
+
+    Every distinct piece end is a break; each piece's ends are located among
+    them by one sort (its permutation gives each end its rank), using that a
+    piece usually starts where the one before it ended (so ``n`` values are
+    sorted, not ``2n``); a merge sort where the outline runs along the axis in
+    few monotone runs (about one pass), else quicksort. With
+    ``step`` breaks per interval, a piece between breaks ``L < H`` meets
+    intervals ``L // step … (H − 1) // step``: the pairs for a choice of
+    ``step`` are counted in O(n) without any search. ``step`` doubles from 1
+    until the pairs fit :data:`PAIRS_PER_PIECE` per piece.
+
+    Returns ``(edges, runs)`` as :func:`_interval_sums` takes them.
+    """
+    n = table.count
+    z_from, z_to = table.z_from, table.z_to
+    linked = np.zeros(n, dtype=bool)
+    linked[:-1] = z_to[:-1] == z_from[1:]
+    values = np.concatenate([z_from, z_to[~linked]])
+    # A real outline runs along the axis in few monotone runs: a merge sort takes them in
+    # about one pass. A noisy one turns back at most vertices: quicksort is faster there.
+    rising = z_to > z_from
+    turns = int(np.count_nonzero(rising[1:] != rising[:-1]))
+    order = np.argsort(values, kind="stable" if turns * 16 < n else "quicksort")
+    ordered = values[order]
+    new = np.empty(ordered.size, dtype=bool)
+    new[:1] = True
+    np.not_equal(ordered[1:], ordered[:-1], out=new[1:])
+    breaks = ordered[new]
+    where = np.empty(values.size, dtype=np.int64)
+    where[order] = np.cumsum(new) - 1
+    del order, ordered, new, rising
+    at_from = where[:n]
+    at_to = np.empty(n, dtype=where.dtype)
+    at_to[~linked] = where[n:]
+    chain = np.flatnonzero(linked)
+    at_to[chain] = at_from[chain + 1]
+    low = np.minimum(at_from, at_to)
+    high = np.maximum(at_from, at_to) - 1          # the last elementary interval met
+    del at_from, at_to, where, values, linked, chain
+    limit = PAIRS_PER_PIECE * n + 64
+    intervals = breaks.size - 1
+    # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
+    # every break (and fall as k grows): start from the first k that bound allows.
+    beyond = int((high - low).sum())
+    shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
+    while True:
+        step = 1 << shift
+        first = low >> shift if shift else low
+        count = (high >> shift) - first + 1 if shift else high - low + 1
+        if int(count.sum()) <= limit or step >= intervals:
+            break
+        shift += 1
+    edges = breaks[::step]
+    if edges[-1] != breaks[-1]:
+        edges = np.append(edges, breaks[-1])
+    runs = [(g.start, first[g.start:g.stop], count[g.start:g.stop]) for g in table.groups]
+    return edges, runs
 
 
 def first_partition(table: PieceTable) -> np.ndarray:
@@ -361,32 +546,59 @@ def first_partition(table: PieceTable) -> np.ndarray:
     are longer along the axis than the spacing of its points. Then every k-th
     end is kept, k doubling until they fit: each slice interval then holds the
     parts of the pieces that cross it, each piece integrated over its own part
-    (its kinks stay at the ends of its parts). The cost of the choice is
-    O(n log n) per try, with at most log₂ n tries.
+    (its kinks stay at the ends of its parts). The cost of the choice is one
+    sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
 
-    >>> t = PieceTable(np.array([0.0, 0.0]), np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
-    ...                np.zeros((2, 4)), np.zeros((0, 7)), ())
+    >>> from revolve.geometry.segments import Line
+    >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
+    >>> _, _, _, params = Line.washer_pieces(segs)
+    >>> t = PieceTable(np.array([0.0, 2.0]), np.array([2.0, 0.0]), np.array([0.0, 0.0]),
+    ...                np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
+    ...                (PieceGroup(Line, segs, params, 0, 2),))
     >>> first_partition(t).tolist()
     [0.0, 2.0]
     """
-    breaks = np.unique(np.concatenate([table.lo, table.hi]))
-    limit = PAIRS_PER_PIECE * table.count + 64
-    step = 1
-    edges = breaks
-    while edges.size > 2:
-        pairs = int((np.searchsorted(edges, table.hi, side="left")
-                     - np.searchsorted(edges, table.lo, side="right") + 1).sum())
-        if pairs <= limit:
-            break
-        step *= 2
-        edges = breaks[::step]
-        if edges[-1] != breaks[-1]:
-            edges = np.append(edges, breaks[-1])
-    return edges
+    return _partition(table)[0]
 
 
 #: Most slice intervals :func:`washer_volume` evaluates (each with 3 × 24 nodes per piece).
 MAX_SLICE_INTERVALS = 20_000
+
+
+def _radius_range(table: PieceTable) -> Tuple[float, float]:
+    """Smallest and largest radius of the pieces (the reference radius and error scale of the washers).
+
+    A kind whose radius is linear in ``z`` along a piece (``washer_degree()
+    == 1``: straight pieces, many of them) has its extremes at the piece
+    ends, evaluated at once by its ``washer_radius``; any other kind (arcs,
+    curves: few) answers each segment's ``bounds()``.
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> from revolve.geometry.checks import prepare
+    >>> from revolve.geometry.segments import Line, arc_from_centre
+    >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> _radius_range(piece_table(prep, [1.0]))
+    (1.0, 3.0)
+    >>> top = arc_from_centre((2.0, 0.0), (-2.0, 0.0), (0.0, 0.0), clockwise=False)
+    >>> ball = prepare(Profile(loops=(Loop((top, Line((-2.0, 0.0), (2.0, 0.0)))),)), Axis.x())
+    >>> _radius_range(piece_table(ball, [1.0]))       # the top of the arc, not its ends
+    (0.0, 2.0)
+    """
+    lo, hi = math.inf, -math.inf
+    for g in table.groups:
+        if g.kind.washer_degree() == 1:
+            z = np.empty((2, g.stop - g.start))
+            z[0], z[1] = table.lo[g.start:g.stop], table.hi[g.start:g.stop]
+            with np.errstate(all="ignore"):      # a piece too short for its slope: not counted
+                r = g.kind.washer_radius(g.segments, g.params, z.T)
+            r = r[np.isfinite(r)]
+            if r.size:
+                lo, hi = min(lo, float(r.min())), max(hi, float(r.max()))
+        else:
+            for seg in g.segments:
+                _, r0, _, r1 = seg.bounds()
+                lo, hi = min(lo, r0), max(hi, r1)
+    return (lo, hi) if lo <= hi else (0.0, 0.0)
 
 
 def washer_volume(prep, loop_factors: Sequence[float], angle: float,
@@ -401,30 +613,49 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     first), those not yet resolved are taken with their difference plus the
     washer area they hold as the error estimate (honest, if not tight).
 
-    The slice intervals are kept sorted, so each round costs O(m log m) for m
-    intervals plus the work of :func:`_interval_sums` on the pairs of pieces
-    and intervals, which :func:`first_partition` keeps O(n) for n pieces.
+    Kinds whose radius is a polynomial of ``z`` (straight pieces) are
+    integrated exactly by one rule; for them the error estimate is a rounding
+    bound: 16 ulps of the largest ``|r² − r_ref²|`` times the pieces' total
+    extent along the axis (a bound on the sum of the magnitudes of all the
+    (piece, interval) values).
+
+    The first partition costs one sort of the piece ends (:func:`_partition`);
+    each later round costs O(m log m) for the m intervals left plus the work of
+    :func:`_interval_sums` on the pairs of pieces and intervals, only for the
+    pieces that met an unresolved interval in the round before (found from
+    their runs by a prefix count, with no search). On an outline
+    of straight edges (lines, polylines) the first round resolves every
+    interval.
     """
     table = piece_table(prep, loop_factors)
     if table.count == 0:
         return 0.0, 0.0
-    breaks = first_partition(table)
-    ends = np.fromiter((c for p in prep.paths for s in p for c in (s.start[1], s.end[1])),
-                       dtype=float)
-    r_ref = float((ends.min() + ends.max()) / 2)
+    breaks, runs = _partition(table)
+    r_low, r_high = _radius_range(table)
+    r_ref = (r_low + r_high) / 2
+    r_far = max(abs(r_low), abs(r_high))
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
-    error = 0.0
+    largest = max(abs((r_high - r_ref) * (r_high + r_ref)), abs((r_low - r_ref) * (r_low + r_ref)))
+    error = 16 * np.finfo(float).eps * largest * float((table.hi - table.lo).sum())
     n = 24
-    r_far = max(abs(float(ends.min())), abs(float(ends.max())))
     budget = a.size + max_intervals
     used = 0
+    pending: list = []          # per group, the pieces that met an interval being halved
     for round_no in range(max_rounds):
         used += a.size
+        if round_no:
+            runs = _runs(table, a, b, pending)
         with np.errstate(all="ignore"):
-            coarse, fine = _interval_sums(table, a, b, (n, 2 * n), r_ref)
+            coarse, fine = _interval_sums(table, a, b, runs, n, r_ref)
         diff = np.abs(fine - coarse)
         finite = np.isfinite(fine) & np.isfinite(diff)
+        if finite.all():
+            scale = max(abs(value) + float(np.abs(fine).sum()), 1e-300)
+            if float(diff.max()) <= rel_tol * scale:    # every interval resolved
+                value += float(fine.sum())
+                error += float(diff.sum())
+                break
         scale = max(abs(value) + float(np.abs(fine[finite]).sum()), 1e-300)
         # An interval too narrow to halve (its middle rounds onto an end) is done.
         narrow = (b - a) <= 4 * np.spacing(np.maximum(np.abs(a), np.abs(b)))
@@ -435,12 +666,19 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
         # Where the rule could not resolve an interval (or a slope overflowed on one too
         # narrow to halve), its washers lie between nothing and a disc of the farthest
         # radius for each crossing: that bound is its error.
-        bound = table.count * r_far * r_far * (b - a)
         unsure = good & (~finite | (diff > rel_tol * scale))
         value += float(np.where(finite, fine, 0.0)[good].sum())
+        bound = table.count * r_far * r_far * (b - a)
         error += float(np.where(unsure, np.where(finite, diff, 0.0) + bound, diff)[good].sum())
         if good.all():
             break
+        # Only the pieces that meet an interval left unresolved meet any of its halves.
+        unresolved = np.concatenate([[0], np.cumsum(~good)])
+        pending = []
+        for pieces, first, count in runs:
+            if isinstance(pieces, (int, np.integer)):
+                pieces = np.arange(pieces, pieces + first.size)
+            pending.append(pieces[unresolved[first + count] > unresolved[first]])
         # Halve the rest; each pair of halves stays in place, so the intervals stay sorted.
         ab, bb = a[~good], b[~good]
         m = (ab + bb) / 2
@@ -449,65 +687,28 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     return abs(value) * angle / 2, error * angle / 2
 
 
-def _r_ds_line(segs: Sequence[Line], n: int) -> np.ndarray:
-    x, w = gauss_legendre(n)
-    s = (x + 1) / 2
-    p = np.array([l.start + l.end for l in segs], dtype=float)
-    L = np.hypot(p[:, 2] - p[:, 0], p[:, 3] - p[:, 1])
-    r = p[:, 1:2] + s[None, :] * (p[:, 3:4] - p[:, 1:2])
-    return (r @ w) * L / 2
-
-
-def _r_ds_arc(segs: Sequence[Arc], n: int) -> np.ndarray:
-    x, w = gauss_legendre(n)
-    par = np.array([(a.start[1], a.radius, a.angles()[0], a.sweep()) for a in segs], dtype=float)
-    r0, R, a0, d = par.T
-    half = ((x[None, :] + 1) / 4) * d[:, None]          # (θ − θ0)/2
-    # r = r0 + R (sin θ − sin θ0), as a product: no cancellation against a far centre.
-    r = r0[:, None] + 2 * R[:, None] * np.cos(a0[:, None] + half) * np.sin(half)
-    return (r @ w) * R * np.abs(d) / 2
-
-
-def _r_ds_curve(c: Curve, n: int, rel_tol: float) -> Tuple[float, float]:
-    """∫ r ds along a curve by adaptive Gauss–Legendre in φ, t = mid − half cos φ.
-
-    The map is smooth at vertical tangents, as in the washers. Vectorised over
-    intervals, with a bounded number of them (see
-    :func:`revolve.geometry.integrals.adaptive_quadrature`).
-    """
-    from revolve.geometry.integrals import adaptive_quadrature
-
-    ta, tb = c.t_start, c.t_end
-    mid, half = (ta + tb) / 2, (tb - ta) / 2
-
-    def g(phi):
-        t = mid - half * np.cos(phi)
-        _, r, dz, dr = c.evaluate(t)
-        v = r * np.hypot(dz, dr) * np.sin(phi) * half
-        return np.nan_to_num(v, nan=0.0, posinf=0.0, neginf=0.0)[:, None]
-
-    with np.errstate(all="ignore"):
-        total, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, n=n // 2)
-    return abs(float(total[0])), float(err[0])
-
-
 def surface_by_quadrature(prep, angle: float, n: int = 32,
                           rel_tol: float = 1e-14) -> Tuple[List[float], List[float]]:
-    """Swept area of every segment, ``angle · ∫ r ds`` by quadrature; (areas, errors) in order."""
+    """Swept area of every segment, ``angle · ∫ r ds`` by quadrature; (areas, errors) in order.
+
+    Each kind's segments are taken at once by its ``r_ds_rows`` (a polyline
+    gives one area, the sum over its edges).
+
+    >>> from revolve.geometry.checks import PreparedProfile
+    >>> surface_by_quadrature(PreparedProfile((), (), (), 1.0, 1.0, 1e-9), 1.0)
+    ([], [])
+    """
     segs = [s for p in prep.paths for s in p]
     out = np.zeros(len(segs))
     err = np.zeros(len(segs))
-    li = [i for i, s in enumerate(segs) if isinstance(s, Line)]
-    ai = [i for i, s in enumerate(segs) if isinstance(s, Arc)]
-    if li:
-        lo = _r_ds_line([segs[i] for i in li], 2)
-        hi = _r_ds_line([segs[i] for i in li], 4)
-        out[li], err[li] = hi, np.abs(hi - lo)
-    if ai:
-        lo = _r_ds_arc([segs[i] for i in ai], n)
-        hi = _r_ds_arc([segs[i] for i in ai], 2 * n)
-        out[ai], err[ai] = hi, np.abs(hi - lo)
-    for i, s in enumerate(segs):
-        if isinstance(s, Curve):
-            out[i], err[i] = _r_ds_curve(s, n, rel_tol)
+    kinds = list(map(type, segs))
+    if len(set(kinds)) == 1:                 # one kind (a point list): all at once
+        out[:], err[:] = kinds[0].r_ds_rows(segs, n, rel_tol)
+        return list(out * angle), list(err * angle)
+    groups: Dict[type, List[int]] = {}
+    for i, kind in enumerate(kinds):
+        groups.setdefault(kind, []).append(i)
+    for kind, idx in groups.items():
+        v, e = kind.r_ds_rows([segs[i] for i in idx], n, rel_tol)
+        out[idx], err[idx] = v, e
     return list(out * angle), list(err * angle)

@@ -131,9 +131,9 @@ def _value(text: str, diameter: float, what: str, place: str, allow_percent: boo
     if _PLAIN.match(t):
         v = float(t)
     else:
-        from revolve.expr import parse_number
+        from revolve.expr import constant_float, parse_number
         try:
-            v = float(parse_number(t))
+            v = constant_float(parse_number(t))
         except (RevolveError, TypeError, ValueError):
             raise RevolveError(f"{what} must be a number{' or a percentage' if allow_percent else ''}"
                                f", got {text.strip()!r}", place=place)
@@ -335,27 +335,28 @@ def _head_primitives(spec: HeadSpec, R: float, w: float, place: str):
 # -- from local primitives to frame segments ---------------------------------------------
 
 def _number(v: float):
-    import sympy
+    """A float as an exact tree number: the integer when whole (and small), else the float."""
+    from revolve.expr import Num
+
     v = float(v)
-    return sympy.Integer(int(v)) if v.is_integer() and abs(v) < 2 ** 53 else sympy.Float(v)
+    return Num(int(v)) if v.is_integer() and abs(v) < 2 ** 53 else Num(v)
 
 
 def _ellipse_curve(e: _EllipseP, head: int, length: float, face: str):
     """The ellipse primitive as a frame curve: head 1 from the pole, head 2 to the pole.
 
     Both heads share one base curve, the primitive ``(u(τ), ρ(τ))`` for τ from
-    the pole (0) to the junction (π/2); each head is that curve under an affine
-    map (head 1: z = -u; head 2: z = L + u with τ = π/2 - t), so the numeric
-    functions are compiled once for both.
+    the pole (0) to the junction (π/2), built as expression trees (no sympy);
+    each head is that curve under an affine map (head 1: z = -u; head 2:
+    z = L + u with τ = π/2 - t), so the numeric functions are compiled once for both.
     """
-    import sympy
-
+    from revolve.expr import Const, Num, Var, call
     from revolve.geometry.segments import CurveMap, curve_from_expressions
 
-    t = sympy.Symbol("t", real=True)
+    t = Var("t")
     au, ar, w = _number(e.a_u), _number(e.a_r), _number(e.offset)
-    c, s = sympy.cos(t), sympy.sin(t)
-    norm = sympy.sqrt(ar ** 2 * c ** 2 + au ** 2 * s ** 2)
+    c, s = call("cos", (t,)), call("sin", (t,))
+    norm = (ar ** 2 * c ** 2 + au ** 2 * s ** 2) ** Fraction(1, 2)
     u = au * c + (w * ar * c / norm if e.offset else 0)
     rho = ar * s + (w * au * s / norm if e.offset else 0)
     base = curve_from_expressions(u, rho, 0.0, math.pi / 2, face=face,
@@ -363,11 +364,11 @@ def _ellipse_curve(e: _EllipseP, head: int, length: float, face: str):
     if head == 1:   # τ = t from the pole (t = 0) to the junction (t = π/2); z = -u
         return base.transformed((-1.0, 0.0, 0.0, 1.0))
     # τ = π/2 - t from the junction (t = 0) to the pole (t = π/2); z = L + u
-    L = _number(length)
-    one, zero = sympy.Integer(1), sympy.Integer(0)
+    one, zero = Num(1), Num(0)
     return replace(base, affine=CurveMap((1.0, 0.0, 0.0, 1.0), (float(length), 0.0),
                                          -1.0, math.pi / 2,
-                                         exact=(one, zero, zero, one, L, zero, -one, sympy.pi / 2)))
+                                         exact=(one, zero, zero, one, _number(length), zero,
+                                                -one, Const("pi") / 2)))
 
 
 def _frame_point(p, head: int, length: float):
@@ -541,20 +542,14 @@ def _reverse(segs):
 # -- drawing the vessel in the sketch ------------------------------------------------------
 
 def _to_sketch(seg, orientation: str):
-    """Frame segment -> sketch: horizontal keeps (z, r) as (x, y); vertical draws (r, z)."""
-    from revolve.geometry.segments import Arc, Curve, Line
+    """Frame segment -> sketch: horizontal keeps (z, r) as (x, y); vertical draws (r, z).
 
+    The swap is a mirror, applied through the segment contract (``transformed``):
+    an arc's turn reverses, a curve keeps its base expressions (no recompilation).
+    """
     if orientation == "horizontal":
         return seg
-    swap = (lambda p: (p[1], p[0]))
-    if isinstance(seg, Line):
-        return replace(seg, start=swap(seg.start), end=swap(seg.end))
-    if isinstance(seg, Arc):   # a mirror: the turn reverses
-        return replace(seg, start=swap(seg.start), end=swap(seg.end), centre=swap(seg.centre),
-                       clockwise=not seg.clockwise)
-    if isinstance(seg, Curve):
-        return seg.transformed((0.0, 1.0, 1.0, 0.0))   # same base, no recompilation
-    raise TypeError(type(seg).__name__)  # pragma: no cover
+    return seg.transformed((0.0, 1.0, 1.0, 0.0))
 
 
 def sketch_profile(design: VesselDesign, orientation: str = "vertical", which: str = "inside",

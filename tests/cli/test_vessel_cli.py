@@ -184,3 +184,28 @@ def test_bare_density_is_written_with_its_unit(tmp_path, capsys):
     # CRC (from memory): hollow cylinder and spherical shell, as above.
     metal = math.pi * ((R + t) ** 2 - R ** 2) * L + 4 / 3 * math.pi * ((R + t) ** 3 - R ** 3)
     assert json.loads(out)["mass"] == pytest.approx(7850 * metal * 1e-9, rel=1e-9)
+
+
+def test_vessel_command_with_curved_heads_imports_no_sympy(tmp_path):
+    # Issue 10: symbolic only where asked. Ellipsoidal heads are curves (expression trees,
+    # compiled by the package); building, measuring and printing them needs no sympy.
+    import os
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    root = Path(__file__).resolve().parents[2]
+    code = (
+        "import sys, contextlib, io\n"
+        "from revolve.cli.app import main\n"
+        "with contextlib.redirect_stdout(io.StringIO()):\n"
+        "    try:\n"
+        "        main(['vessel', '--diameter', '2000', '--length', '5000', '--head-1',\n"
+        "              'ellipsoidal', '--head-2', 'torispherical', '--thickness', '10'])\n"
+        "    except SystemExit as stop:\n"
+        "        assert not stop.code, stop.code\n"
+        "print([m for m in ('sympy', 'mpmath', 'scipy') if m in sys.modules])\n")
+    done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
+                          cwd=tmp_path, env={**os.environ, "PYTHONPATH": str(root)})
+    assert done.returncode == 0, done.stderr[-2000:]
+    assert done.stdout.strip() == "[]"

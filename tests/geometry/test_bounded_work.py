@@ -41,7 +41,7 @@ ROOT = os.path.dirname(os.path.dirname(os.path.dirname(os.path.abspath(__file__)
 
 def _explicit(text: str, a: float, b: float, where=None):
     """y = f(x) from a to b, parsed by the whitelist parser, as the profile reader does."""
-    y = parse_expression(text, ("x",)).xreplace({X: T})
+    y = parse_expression(text, ("x",)).to_sympy().xreplace({X: T})
     return curve_from_expressions(T, y, a, b, where=where)
 
 
@@ -80,7 +80,7 @@ def test_pole_curves_of_other_kinds(text, pole):
 
 def _explicit_unchecked(text, a, b):
     from revolve.geometry.segments import Curve
-    return Curve(T, parse_expression(text, ("x",)).xreplace({X: T}), a, b)
+    return Curve(T, parse_expression(text, ("x",)).to_sympy().xreplace({X: T}), a, b)
 
 
 def test_steep_but_bounded_curve_is_measured():

@@ -13,6 +13,8 @@ and measured, compiles its ellipse once (``compiled_curve.cache_info``).
 from __future__ import annotations
 
 import math
+from fractions import Fraction
+from pathlib import Path
 
 import numpy as np
 import pytest
@@ -208,6 +210,87 @@ def test_compiled_functions_match_sympy_evalf(text):
 
     y = parse_expression(text, ("t",))
     ts = [0.3, 0.8, 1.25, 1.9]
-    got = np.array([f(ts) for f in compiled_curve(T, y)])
-    want = values(T, y, ts)
+    got = np.array([f(ts) for f in compiled_curve(parse_expression("t"), y)])
+    want = values(T, y.to_sympy(), ts)      # sympy's diff and evalf: the outside reference
     assert_close(got, want, rel=1e-14)
+
+
+# -- --exact: closed forms from the curve's trees, the same on any machine ------------------
+
+DOMED_LID = Path(__file__).resolve().parents[2] / "profiles" / "domed-lid.toml"
+
+
+def _exact_of(path, **options):
+    from revolve.formats import load_profile
+    from revolve.geometry.exact import exact_closed_forms
+    from revolve.geometry.measure import measure
+    from revolve.geometry.profile import Revolution
+
+    doc = load_profile(path)
+    rev = Revolution(doc.profile, doc.axis)
+    return exact_closed_forms(doc.profile, rev, measure(rev), Fraction(360), **options)
+
+
+def test_exact_closed_forms_of_a_curve_profile_match_sympy_integrate():
+    # The domed lid: y = 25 - x²/180 from x = 60 to 0 over a 60 × 5 step, about the y axis.
+    # Reference: sympy.integrate of the washer/shell integrals written out here (volume
+    # 2π ∫ x y dx, section area ∫ y dx, dome surface 2π ∫ x sqrt(1 + y'²) dx).
+    x = sympy.Symbol("x", real=True)
+    y = 25 - x ** 2 / 180
+    volume = 2 * sympy.pi * sympy.integrate(x * y, (x, 0, 60))
+    area = sympy.integrate(y, (x, 0, 60))
+    dome = 2 * sympy.pi * sympy.integrate(x * sympy.sqrt(1 + sympy.diff(y, x) ** 2), (x, 0, 60))
+    out = _exact_of(DOMED_LID)
+    parsed = {k: _sympy_of(out[k]) for k in ("volume", "area")}
+    assert sympy.simplify(parsed["volume"] - volume) == 0
+    assert sympy.simplify(parsed["area"] - area) == 0
+    assert sympy.simplify(_sympy_of(out["surface_by_face"]["dome"]) - dome) == 0
+    assert "note" not in out
+    assert _exact_of(DOMED_LID) == out            # the same forms again
+
+
+def _sympy_of(text):
+    """A closed form printed by --exact, read back by the whitelist parser (never sympify)."""
+    from revolve.expr import parse_number
+
+    return parse_number(text).to_sympy()
+
+
+def test_exact_safety_limit_is_reported_as_such():
+    # The wall-clock limit is only a safety: when it is reached the answer says so and names
+    # it as machine-dependent, never a silent change of the result.
+    from revolve.geometry.exact import NotExact
+
+    with pytest.raises(NotExact, match="safety limit of 0.001 s"):
+        _exact_of(DOMED_LID, safety_seconds=0.001)
+
+
+def test_exact_refuses_large_integrands_before_running_sympy(monkeypatch):
+    # Which integrals go to sympy is decided by their size, before it runs: a curve whose
+    # integrand is beyond MAX_INTEGRAND_OPS gets a note at once, whatever the machine's load.
+    import revolve.geometry.exact as exact
+
+    ran = []
+    monkeypatch.setattr(exact, "run_sympy", lambda tasks, seconds: ran.append(tasks) or [])
+    monkeypatch.setattr(exact, "MAX_INTEGRAND_OPS", 3)
+    with pytest.raises(exact.NotExact, match="exact integration is tried up to 3"):
+        _exact_of(DOMED_LID)
+    assert ran == []
+
+
+def test_exact_does_not_send_integrals_outside_the_tried_forms(monkeypatch, tmp_path):
+    # y = 2 + x³/100: its length integrand sqrt(1 + 9x⁴/10⁴) has no elementary antiderivative
+    # (an elliptic integral, from memory); it is not sent to sympy at all, so the note is the
+    # same on any machine. The volume's integrand is a polynomial and needs no worker.
+    import revolve.geometry.exact as exact
+
+    path = tmp_path / "cubic.toml"
+    path.write_text('units = "mm"\n[axis]\nalong = "x"\n[[loop]]\nstart = [0, 0]\n'
+                    'segments = [\n  { line_to = [0, 2] },\n'
+                    '  { y = "2 + x^3/100", to_x = 5 },\n  { line_to = [5, 0] },\n'
+                    '  { close = true },\n]\n', encoding="utf-8")
+    ran = []
+    monkeypatch.setattr(exact, "run_sympy", lambda tasks, seconds: ran.append(tasks) or [])
+    with pytest.raises(exact.NotExact, match="not of a form tried exactly"):
+        _exact_of(path)
+    assert ran == []

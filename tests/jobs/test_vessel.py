@@ -352,3 +352,24 @@ def test_any_vessel_adds_up(Dv, length_ratio, h1, h2, t_ratio, dimensions):
         assert s.mass_full == pytest.approx(s.metal_mass + s.liquid_mass)
         lo, hi = v.outside_poles
         assert lo <= s.centre_of_mass_full <= hi
+
+
+def test_vertical_sketch_is_the_mirror_of_the_frame_by_the_segment_contract():
+    # Drawing a vessel upright swaps (z, r) into (x, y): a mirror, which reverses every arc's
+    # turn (common practice, no source); curves keep their base expressions (no new compile).
+    import numpy as np
+
+    v = build_vessel(D, 1500.0, parse_head("ellipsoidal", D), parse_head("torispherical", D),
+                     thickness=8.0)
+    for which in ("inside", "wall"):
+        frame = (v.inside if which == "inside" else v.wall).segments
+        sketch, _ = sketch_profile(v, "vertical", which)
+        for a, b in zip(frame, sketch.loops[0].segments):
+            assert type(a) is type(b)
+            ts = np.linspace(*a.parameter_range(), 5)
+            assert np.allclose(a.points_at(ts)[:, ::-1], b.points_at(ts), rtol=1e-12, atol=1e-9)
+            if isinstance(a, Arc):
+                assert b.clockwise is (not a.clockwise)
+                assert b.centre == (a.centre[1], a.centre[0])
+            if isinstance(a, Curve):
+                assert b.base_x is a.base_x and b.base_y is a.base_y

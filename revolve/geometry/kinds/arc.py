@@ -344,6 +344,344 @@ class Arc(SegmentKind):
                                ends[:, :2], ends[:, 2:])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance`` of the arc, shape (m + 1, 2).
+
+        The arc is cut into the fewest equal pieces whose sagitta
+        ``R (1 - cos(Δ/2))`` is at most ``tolerance`` (exact, through
+        :func:`revolve.geometry.mesh.chord_steps`); the ends are the arc's own.
+
+        Raises
+        ------
+        RevolveError
+            When that needs more than ``most_pieces`` pieces.
+
+        >>> quarter = arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False)
+        >>> len(quarter.flatten_to_tolerance(1 - math.cos(math.pi / 8)))   # sagitta of 45°
+        3
+        >>> quarter.flatten_to_tolerance(10.0)[[0, -1]].tolist()            # coarse: quarter turns
+        [[1.0, 0.0], [0.0, 1.0]]
+        >>> quarter.flatten_to_tolerance(1e-12, most_pieces=100)
+        Traceback (most recent call last):
+        ...
+        revolve.errors.RevolveError: the chord tolerance 1e-12 needs more than 100 pieces on one arc; use a larger tolerance
+        """
+        import numpy as np
+
+        from revolve.errors import RevolveError
+
+        n = self.fewest_chords(tolerance)
+        if n > most_pieces:
+            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
+                               "pieces on one arc; use a larger tolerance")
+        a0, a1 = self.angles()
+        a = np.linspace(a0, a1, n + 1)
+        pts = np.column_stack([self.centre[0] + self.radius * np.cos(a),
+                               self.centre[1] + self.radius * np.sin(a)])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: exact for an arc.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> half.fewest_chords(1.0), half.fewest_chords(1 - math.cos(math.pi / 8))
+        (2, 4)
+        """
+        from revolve.geometry.mesh import chord_steps
+
+        a0, a1 = self.angles()
+        return chord_steps(self.radius, a1 - a0, tolerance)
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the arc is, through its primitive ``arc``.
+
+        ``out.arc(start, end, centre, clockwise, exact, where)``; ``exact`` is
+        the typed record of how the arc was given (:class:`ArcByRadius`,
+        :class:`ArcByCentre`) or None.
+
+        >>> class Out:
+        ...     def arc(self, start, end, centre, clockwise, exact, where):
+        ...         print(start, end, centre, clockwise, exact)
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).describe_to(Out())
+        (1.0, 0.0) (0.0, 1.0) (0.0, 0.0) False None
+        """
+        out.arc(self.start, self.end, self.centre, self.clockwise, self.exact, self.where)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: an arc's end cannot move without changing its circle (a gap is bridged instead).
+
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).with_end_moved((0.0, 1.1)) is None
+        True
+        """
+        return None
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def _cut_angles(cls, segments, step: float):
+        """Every arc's angle range cut at the multiples of ``step`` inside it, for many arcs at once.
+
+        The vectorised form of :meth:`turning_parameters` (``step = π``: where x
+        turns back; ``π/2``: where x or y does). Returns ``(centre_x, centre_y,
+        radius)`` per arc (arrays), and per piece, in travel order: its arc's
+        index, its angle from and to, and the multiple ``k`` of ``step`` at each
+        end (NaN at the arc's own ends; a piece end at ``k step`` is exact).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> (cx, cy, R), (arc, a, b, ka, kb) = Arc._cut_angles([half], math.pi / 2)
+        >>> arc.tolist(), [round(float(v), 6) for v in b], ka.tolist(), kb.tolist()
+        ([0, 0], [1.570796, 3.141593], [nan, 1.0], [1.0, nan])
+        >>> left = arc_from_centre((-0.6, -0.8), (-0.6, 0.8), (0.0, 0.0), clockwise=True)
+        >>> Arc._cut_angles([left], math.pi)[1][3].tolist()     # through the angle -π
+        [nan, -1.0]
+        """
+        import numpy as np
+
+        par = np.array([(s.centre[0], s.centre[1], s.radius) + s.angles() for s in segments],
+                       dtype=float).reshape(-1, 5)
+        cx, cy, R, a0, a1 = par.T
+        n = len(par)
+        lo, hi = np.minimum(a0, a1), np.maximum(a0, a1)
+        k = np.ceil(lo / step)[:, None] + np.arange(5)[None, :]      # a sweep is below 2π
+        valid = (k * step > lo[:, None]) & (k * step < hi[:, None])
+        down = (a1 < a0)[:, None]
+        key = np.where(valid, np.where(down, -k, k), np.inf)
+        order = np.argsort(key, axis=1, kind="stable")
+        k = np.take_along_axis(k, order, axis=1)
+        count = valid.sum(axis=1)
+        width = k.shape[1] + 2
+        ends_k = np.full((n, width), np.nan)
+        cols = np.arange(width)[None, :]
+        inner = (cols >= 1) & (cols <= count[:, None])
+        ends_k[inner] = k[:, :width - 2][np.arange(width - 2)[None, :] < count[:, None]]
+        angle = np.where(inner, ends_k * step, 0.0)
+        angle[:, 0] = a0
+        angle[np.arange(n), count + 1] = a1
+        pieces = (cols[:, :-1] <= count[:, None])          # piece m runs from end m to m + 1
+        arc = np.broadcast_to(np.arange(n)[:, None], pieces.shape)[pieces]
+        a_from, a_to = angle[:, :-1][pieces], angle[:, 1:][pieces]
+        k_from, k_to = ends_k[:, :-1][pieces], ends_k[:, 1:][pieces]
+        return (cx, cy, R), (arc, a_from, a_to, k_from, k_to)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Arcs in the axis frame cut where ``z`` turns back, as circular rows (vertical tables).
+
+        Rows: centre, radius, angle from, angle to, then the ends (z0, r0, z1, r1):
+        the arc's own ends, or the exact points ``(cz ± R, cr)`` where it was cut.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [round(float(v), 12) for v in Arc.axial_level_table([half], [1.0]).rows[0]]
+        [0.0, 0.0, 1.0, 0.0, 3.14159265359, 1.0, 0.0, -1.0, 0.0]
+        >>> Arc.axial_level_table([half.reversed().transformed((0.0, 1.0, 1.0, 0.0))], [1.0]).rows.shape
+        (2, 9)
+        """
+        import numpy as np
+
+        from revolve.geometry.clipping import CircularPieces
+
+        (cx, cy, R), (arc, a_from, a_to, k_from, k_to) = cls._cut_angles(segments, math.pi)
+        se = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+
+        def end(k, own):
+            own_end = np.isnan(k)
+            sign = np.where(np.nan_to_num(k) % 2 == 0, 1.0, -1.0)
+            return (np.where(own_end, own[:, 0], cx[arc] + sign * R[arc]),
+                    np.where(own_end, own[:, 1], cy[arc]))
+
+        z0, r0 = end(k_from, se[arc][:, 0:2])
+        z1, r1 = end(k_to, se[arc][:, 2:4])
+        rows = np.column_stack([cx[arc], cy[arc], R[arc], a_from, a_to, z0, r0, z1, r1])
+        return CircularPieces(rows, np.asarray(factors, dtype=float)[arc])
+
+    def _sub_arc(self, start, end):
+        """The part from ``start`` to ``end``: an arc, or its chord when so short that its sweep
+        is lost in rounding (a sweep of a few ulps would read as a full turn).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [p.kind for p in half._sub_arc((0.0, 1.0), (-1.0, 0.0))], half._sub_arc((0.0, 1.0), (0.0, 1.0))
+        (['arc'], ())
+        """
+        if start == end:
+            return ()
+        part = replace(self, start=start, end=end, exact=None)
+        if abs(part.sweep()) <= math.pi * (1 + 1e-9):
+            return (part,)
+        from revolve.geometry.kinds.line import Line
+        return (Line(start, end, face=self.face, where=self.where),)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: arcs about the same centre (an arc never lies flat).
+
+        The radius at a cut is found from the lower end of its piece
+        (``√((R - u)(R + u))``), so a level a hair above a rounded bottom keeps its
+        digits; no point is moved onto the level.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [(p.start, p.end) for p in half.part_below(0.0)[0]]
+        [((0.0, 1.0), (-1.0, 0.0))]
+        >>> half.part_below(-1.0), len(half.part_below(1.0)[0])
+        (((), ()), 1)
+        """
+        from revolve.geometry.clipping import _arc_cut
+
+        (cz, cr), R = self.centre, self.radius
+        rows = type(self).axial_level_table([self], [1.0]).rows
+        points = [self.start] + [(float(z), float(r)) for z, r in rows[:-1, 7:9]] + [self.end]
+        angles = [float(a) for a in rows[:, 3]] + [float(rows[-1, 4])]
+        if max(z for z, _ in points) <= level:
+            return (self,), ()          # wholly below (or touching from below): as it is
+        out = []
+        for k in range(len(points) - 1):
+            start, end = points[k], points[k + 1]
+            za, zb = start[0], end[0]
+            if max(za, zb) <= level:
+                out.extend(self._sub_arc(start, end))
+                continue
+            if min(za, zb) >= level:
+                continue
+            _, rc = _arc_cut(cz, cr, R, angles[k], angles[k + 1], level, z_low=min(za, zb))
+            cut = (level, float(rc))
+            out.extend(self._sub_arc(start, cut) if za < zb else self._sub_arc(cut, end))
+        return tuple(out), ()
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Arcs cut at every quarter turn (r and z monotone on each), as circular rows.
+
+        The centre's z is measured from ``z_ref``; the angles inside are exact
+        multiples of π/2.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> t = Arc.radial_level_table([half], [1.0])
+        >>> [[round(float(v), 6) for v in row] for row in t.arc]
+        [[0.0, 0.0, 1.0, 0.0, 1.570796], [0.0, 0.0, 1.0, 1.570796, 3.141593], [0.0, 0.0, 1.0, 0.0, 3.141593]]
+        """
+        import numpy as np
+
+        from revolve.geometry.horizontal import CircularRows
+
+        (cx, cy, R), (arc, a_from, a_to, _, _) = cls._cut_angles(segments, math.pi / 2)
+        centres = np.column_stack([cx - z_ref, cy, R])
+        return CircularRows.from_pieces(centres, arc, a_from, a_to, np.asarray(factors, dtype=float))
+
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """Pieces of many arcs along which the axial position moves one way, as arrays.
+
+        Each arc is cut at its :meth:`monotone_ranges` in ``z`` (where it
+        turns back along the axis); the ends come from :meth:`points_at`
+        (exact at a turning point). See :meth:`Line.washer_pieces
+        <revolve.geometry.kinds.line.Line.washer_pieces>` for what is
+        returned; an arc's row is ``cz, cr, R, s, u_e, r_e, √(R² − u_e²)``: the
+        centre, the radius, the side of the centre the piece lies on (``s`` =
+        ±1) and a known point of the piece (its start, ``u_e = z_e − cz``)
+        given without the square root of a rounded difference (exactly ``±R``,
+        ``cr`` and 0 at a turning point), for :meth:`washer_radius`.
+
+        Examples
+        --------
+        >>> top = arc_from_centre((0.0, 1.0), (0.0, -1.0), (0.0, 0.0), clockwise=True)
+        >>> zf, zt, counts, params = Arc.washer_pieces([top])
+        >>> zf.tolist(), zt.tolist(), counts.tolist()
+        ([0.0, 1.0], [1.0, 0.0], [2])
+        >>> params[1].tolist()        # below the centre, from the turning point (1, 0)
+        [0.0, 0.0, 1.0, -1.0, 1.0, 0.0, 0.0]
+        """
+        import numpy as np
+
+        rows, counts = [], []
+        for arc in segments:
+            (cz, cr), R = arc.centre, arc.radius
+            a0, d = arc.angles()[0], arc.sweep()
+            ranges = arc.monotone_ranges(0)
+            for p0, p1 in ranges:
+                (z0, _), (z1, _) = arc.points_at([p0, p1])
+                s = 1.0 if math.sin(a0 + 0.5 * (p0 + p1) * d) > 0 else -1.0
+                if p0 == 0.0:
+                    ue, re, root_e = arc.start[0] - cz, arc.start[1], abs(arc.start[1] - cr)
+                else:
+                    ue, re, root_e = (R if z0 > cz else -R), cr, 0.0
+                rows.append((z0, z1, cz, cr, R, s, ue, re, root_e))
+            counts.append(len(ranges))
+        table = np.array(rows, dtype=float).reshape(-1, 9)
+        return table[:, 0], table[:, 1], np.array(counts, dtype=np.int64), table[:, 2:]
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` (rows (m, q)) along arc pieces ``params`` (m, 7).
+
+        ``r(z) = cr + s √(R² − u²)``, ``u = z − cz``, written from the piece's
+        known point as ``r_e + s (u_e − u)(u_e + u) / (√(R² − u²) + √(R² − u_e²))``:
+        the same value, without the cancellation of ``cr`` against the root when
+        the centre is far (a flat arc).
+
+        >>> import numpy as np
+        >>> top = arc_from_centre((0.0, 1.0), (0.0, -1.0), (0.0, 0.0), clockwise=True)
+        >>> _, _, _, params = Arc.washer_pieces([top])
+        >>> r = Arc.washer_radius([top], params, np.array([[0.6, 1.0], [0.6, 0.0]]))
+        >>> [[round(float(v), 12) for v in row] for row in r]
+        [[0.8, 0.0], [-0.8, -1.0]]
+        """
+        import numpy as np
+
+        cz, cr, R, s, ue, re, root_e = (params[:, k:k + 1] for k in range(7))
+        u = z - cz
+        root = np.sqrt(np.maximum((R - u) * (R + u), 0.0))
+        with np.errstate(invalid="ignore", divide="ignore"):
+            r = re + s * (ue - u) * (ue + u) / (root + root_e)
+        return np.where(root + root_e > 0, r, cr + s * root)
+
+    @classmethod
+    def washer_degree(cls):
+        """None: the radius along an arc is not a polynomial of ``z``.
+
+        The washers then use Gauss–Legendre in ``φ``, ``z = mid − half·cos φ``,
+        which smooths the square-root behaviour at a turning point.
+
+        >>> Arc.washer_degree() is None
+        True
+        """
+        return None
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14):
+        """``∫ r ds`` along each arc by Gauss–Legendre in the angle, ``n`` and ``2n`` nodes.
+
+        Returns ``(values, errors)``: the finer sum and the difference of the two.
+        ``r = r0 + R (sin θ − sin θ0)`` is taken as a product, without cancellation
+        against a far centre.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> v, e = Arc.r_ds_rows([half])          # ∫ sin θ dθ over [0, π] = 2
+        >>> round(float(v[0]), 13), bool(e[0] < 1e-13)
+        (2.0, True)
+        """
+        import numpy as np
+
+        from revolve.geometry.slicing import gauss_legendre
+
+        par = np.array([(a.start[1], a.radius, a.angles()[0], a.sweep()) for a in segments],
+                       dtype=float).reshape(-1, 4)
+        r0, R, a0, d = par.T
+        out = []
+        for m in (n, 2 * n):
+            x, w = gauss_legendre(m)
+            half = ((x[None, :] + 1) / 4) * d[:, None]          # (θ − θ0)/2
+            r = r0[:, None] + 2 * R[:, None] * np.cos(a0[:, None] + half) * np.sin(half)
+            out.append(np.einsum("ij,j->i", r, w) * R * np.abs(d) / 2)
+        return out[1], np.abs(out[1] - out[0])
+
+
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

@@ -6,11 +6,17 @@ from ``eval``. A curve keeps its base expressions and an affine map
 
 Examples
 --------
->>> import sympy
->>> t = sympy.Symbol("t", real=True)
->>> c = curve_from_expressions(t, t ** 2, 0, 2)
+>>> from revolve.expr import parse_expression
+>>> c = curve_from_expressions(parse_expression("t"), parse_expression("t^2"), 0, 2)
 >>> c.end, c.turning_parameters(1)
 ((2.0, 4.0), [])
+
+Library code may still pass sympy expressions; they are converted to trees once:
+
+>>> import sympy
+>>> t = sympy.Symbol("t", real=True)
+>>> curve_from_expressions(t, t ** 2, 0, 2).base_y == parse_expression("t^2")
+True
 """
 
 from __future__ import annotations
@@ -31,178 +37,66 @@ class CurveExact(NamedTuple):
     t_end: Any
 
 
-def _numeric_function(t, expression) -> Callable:
-    """A numpy function of ``t`` for a whitelisted expression, leaving no line-cache entry.
-
-    ``sympy.lambdify`` stores its generated source in the global
-    :data:`linecache.cache` and deletes it again when the function is garbage
-    collected. A collection during ``linecache.checkcache`` (run by doctest
-    and traceback) then removes a key the loop is about to read: ``KeyError:
-    '<lambdifygenerated-N>'``, depending on what ran before. Dropping the entry
-    at once leaves nothing that can vanish later.
-
-    >>> import linecache, sympy
-    >>> f = _numeric_function(sympy.Symbol("t"), sympy.Symbol("t") ** 2)
-    >>> float(f(3.0)), f.__code__.co_filename in linecache.cache
-    (9.0, False)
-    """
-    import linecache
-
-    import sympy
-
-    function = sympy.lambdify(t, expression, modules="numpy")
-    linecache.cache.pop(function.__code__.co_filename, None)
-    return function
-
-
-_NUMPY_FUNCTIONS = {"sin": "sin", "cos": "cos", "tan": "tan", "asin": "arcsin", "acos": "arccos",
-                    "atan": "arctan", "sinh": "sinh", "cosh": "cosh", "tanh": "tanh", "exp": "exp",
-                    "log": "log", "Abs": "abs", "sign": "sign", "atan2": "arctan2"}
-
-
-def _tree_function(t, expression) -> Optional[Callable]:
-    """A numpy function of ``t`` built by walking the expression tree, or None.
-
-    Covers what the whitelist parser (:mod:`revolve.expr`) produces and what
-    ``sympy.diff`` makes of it: numbers and constants, sums, products and
-    quotients, powers, and the parser's functions (with ``sign`` from ``|x|'``).
-    Anything else returns None and the caller uses ``sympy.lambdify``. Building
-    takes tens of microseconds where ``lambdify`` takes milliseconds (and its
-    first call imports sympy's code printers); the operations are the same
-    numpy calls that ``lambdify`` writes, so the values agree to rounding.
-
-    >>> import sympy
-    >>> t = sympy.Symbol("t", real=True)
-    >>> f = _tree_function(t, 2 * sympy.sin(t) / (1 + t ** 2) - sympy.sqrt(t))
-    >>> round(float(f(1.0)), 15) == round(2 * math.sin(1.0) / 2 - 1.0, 15)
-    True
-    >>> _tree_function(t, sympy.gamma(t)) is None
-    True
-    """
-    import numpy as np
-    import sympy
-
-    def build(e):
-        if e == t:
-            return lambda u: u
-        if not e.free_symbols:
-            try:
-                v = float(e)
-            except (TypeError, ValueError):
-                return None
-            return lambda u: v
-        if e.is_Symbol:
-            return None
-        if e.is_Add:
-            parts = [build(a) for a in e.args]
-            if any(p is None for p in parts):
-                return None
-            first, rest = parts[0], parts[1:]
-
-            def add(u):
-                out = first(u)
-                for p in rest:
-                    out = out + p(u)
-                return out
-            return add
-        if e.is_Mul:
-            num, den = [], []
-            for a in e.args:
-                if a.is_Pow and a.exp.is_Number and a.exp.is_negative:
-                    den.append(a.base if a.exp == -1 else sympy.Pow(a.base, -a.exp,
-                                                                   evaluate=False))
-                else:
-                    num.append(a)
-            nums = [build(a) for a in num]
-            dens = [build(a) for a in den]
-            if any(p is None for p in nums + dens):
-                return None
-
-            def product(fs, u):
-                out = fs[0](u)
-                for f in fs[1:]:
-                    out = out * f(u)
-                return out
-
-            if not dens:
-                return lambda u: product(nums, u)
-            if not nums:
-                return lambda u: 1.0 / product(dens, u)
-            return lambda u: product(nums, u) / product(dens, u)
-        if e.is_Pow:
-            base = build(e.base)
-            if base is None:
-                return None
-            n = e.exp
-            if n == sympy.Rational(1, 2):
-                return lambda u: np.sqrt(base(u))
-            if n == sympy.Rational(-1, 2):
-                return lambda u: 1.0 / np.sqrt(base(u))
-            if n == -1:
-                return lambda u: 1.0 / base(u)
-            if n.is_Integer:
-                k = int(n)
-                return lambda u: base(u) ** k
-            expo = build(n)
-            if expo is None:
-                return None
-            return lambda u: np.power(base(u), expo(u))
-        name = getattr(e.func, "__name__", "")
-        if e.is_Function and name in _NUMPY_FUNCTIONS:
-            f = getattr(np, _NUMPY_FUNCTIONS[name])
-            args = [build(a) for a in e.args]
-            if any(a is None for a in args):
-                return None
-            if len(args) == 1:
-                a0 = args[0]
-                return lambda u: f(a0(u))
-            return lambda u: f(*(a(u) for a in args))
-        return None
-
-    try:
-        return build(sympy.sympify(expression, strict=True))
-    except RecursionError:   # pragma: no cover - the parser bounds nesting
-        return None
-
-
 @lru_cache(maxsize=256)
 def compiled_curve(x_expr, y_expr) -> tuple[Callable, Callable, Callable, Callable]:
     """Numeric functions ``(x, y, dx/dt, dy/dt)`` of a curve's base expressions, compiled once.
 
-    The cache is keyed by the expressions themselves (sympy expressions compare
+    The expressions are the package's own trees (:class:`revolve.expr.Expr`), in
+    ``t``; the derivatives are theirs (:meth:`~revolve.expr.Expr.derivative`) and
+    every function is built by :meth:`~revolve.expr.Expr.numpy_function`, the one
+    compiler: no sympy. The cache is keyed by the trees themselves (they compare
     and hash by structure), so every transformed, reversed or split copy of a
     curve shares one compilation. ``compiled_curve.cache_info().misses`` counts
     the compilations.
 
-    >>> import sympy
-    >>> t = sympy.Symbol("t", real=True)
-    >>> f = compiled_curve(t ** 2, 3 * t)
+    >>> from revolve.expr import parse_expression
+    >>> f = compiled_curve(parse_expression("t^2"), parse_expression("3*t"))
     >>> [float(g([2.0])[0]) for g in f]
     [4.0, 6.0, 4.0, 3.0]
-    >>> compiled_curve(t ** 2, 3 * t) is f
+    >>> compiled_curve(parse_expression("t ^ 2"), parse_expression("3 * t")) is f
     True
     """
     import numpy as np
-    import sympy
 
-    t = sympy.Symbol("t", real=True)
-    fx = [_tree_function(t, e) or _numeric_function(t, e)
-          for e in (x_expr, y_expr, sympy.diff(x_expr, t), sympy.diff(y_expr, t))]
+    from revolve.expr import as_expression, numpy_functions
 
-    def vectorised(f):
+    x_expr, y_expr = as_expression(x_expr), as_expression(y_expr)
+    run = numpy_functions((x_expr, y_expr, x_expr.derivative("t"), y_expr.derivative("t")), "t")
+
+    def filled(v, tt):
+        if type(v) is np.ndarray and v is not tt and v.shape == tt.shape and \
+                v.dtype == np.float64:
+            return v                 # a new array already (no copy needed)
+        return np.broadcast_to(np.asarray(v, dtype=float), tt.shape).copy()
+
+    def every(tt):
+        tt = np.asarray(tt, dtype=float)
+        return tuple(filled(v, tt) for v in run(tt))
+
+    def one(k):
         def g(tt):
             tt = np.asarray(tt, dtype=float)
-            return np.broadcast_to(np.asarray(f(tt), dtype=float), tt.shape).copy()
+            return filled(run(tt)[k], tt)
         return g
 
-    return tuple(vectorised(f) for f in fx)  # type: ignore[return-value]
+    return CompiledCurve((one(0), one(1), one(2), one(3)), every)
 
 
-def _sym_number(v: float):
-    """A float as a sympy number: an Integer when whole, else a 17-digit Float (round-trips)."""
-    import sympy
+class CompiledCurve(tuple):
+    """The four functions ``(x, y, dx/dt, dy/dt)``, and :attr:`every`, all four in one pass."""
+
+    def __new__(cls, functions, every):
+        self = super().__new__(cls, functions)
+        self.every = every
+        return self
+
+
+def _exact_number(v: float):
+    """A float as an exact tree number: the integer when whole, else the float itself."""
+    from revolve.expr import Num
+
     v = float(v)
-    return sympy.Integer(int(v)) if v.is_integer() else sympy.Float(v, 17)
+    return Num(int(v)) if v.is_integer() else Num(v)
 
 
 def _combine(a: float, u, b: float, w, c: float = 0.0):
@@ -230,8 +124,9 @@ class CurveMap:
     ``X``, ``Y`` are the base expressions in ``u``; ``M`` is ``matrix`` (row
     major ``m00, m01, m10, m11``), ``v`` the ``offset``; ``p``, ``q`` reparametrise.
     All are plain floats; ``exact`` optionally holds the same eight numbers as
-    sympy numbers (for example ``pi/2``) when they are known exactly, used only
-    when the mapped expressions are built symbolically.
+    exact constant trees (:class:`revolve.expr.Expr`, for example ``pi/2``) when
+    one of the composed maps was given exactly; they are read only when the
+    mapped expressions are built symbolically (``Curve.x_expr``).
 
     >>> m = CurveMap(offset=(2.0, 0.0)).then(CurveMap(matrix=(0.0, 1.0, 1.0, 0.0)))
     >>> m.matrix, m.offset
@@ -252,10 +147,14 @@ class CurveMap:
                 and self.p == 1.0 and self.q == 0.0)
 
     def numbers(self) -> tuple:
-        """The eight entries as sympy numbers: exact ones if known, else from the floats."""
+        """The eight entries as exact trees: the exact ones if known, else from the floats.
+
+        >>> [n.text() for n in CurveMap(offset=(0.5, 2.0)).numbers()]
+        ['1', '0', '0', '1', '0.5', '2', '1', '0']
+        """
         if self.exact is not None:
             return self.exact
-        return tuple(_sym_number(v) for v in (*self.matrix, *self.offset, self.p, self.q))
+        return tuple(_exact_number(v) for v in (*self.matrix, *self.offset, self.p, self.q))
 
     def _all_whole(self) -> bool:
         return all(float(v).is_integer() for v in (*self.matrix, *self.offset, self.p, self.q))
@@ -278,7 +177,8 @@ class CurveMap:
         p = self.p * other.p
         q = self.p * other.q + self.q
         exact = None
-        if (self.exact is not None or self._all_whole()) and \
+        if (self.exact is not None or other.exact is not None) and \
+                (self.exact is not None or self._all_whole()) and \
                 (other.exact is not None or other._all_whole()):
             A, B = self.numbers(), other.numbers()
             exact = (B[0] * A[0] + B[1] * A[2], B[0] * A[1] + B[1] * A[3],
@@ -295,8 +195,10 @@ IDENTITY = CurveMap()
 class Curve(SegmentKind):
     """A curve given by expressions ``x(t)``, ``y(t)`` for ``t`` from ``t_start`` to ``t_end``.
 
-    ``base_x`` and ``base_y`` are sympy expressions in the symbol ``t`` that
-    came from the whitelist parser (:mod:`revolve.expr`), never from ``eval``.
+    ``base_x`` and ``base_y`` are expression trees (:class:`revolve.expr.Expr`)
+    in the variable ``t`` that came from the whitelist parser, never from
+    ``eval``; a sympy expression or a number given here (by library code) is
+    converted to a tree once, on construction.
     An explicit curve ``y = f(x)`` is the parametric curve ``(t, f(t))``.
     ``affine`` maps the base curve into place (a :class:`CurveMap`): moving,
     mirroring or reversing a curve composes the map and keeps the base
@@ -329,6 +231,12 @@ class Curve(SegmentKind):
     kind = "curve"
 
     def __post_init__(self):
+        from revolve.expr import Expr, as_expression
+
+        for name in ("base_x", "base_y"):
+            value = getattr(self, name)
+            if not isinstance(value, Expr):
+                object.__setattr__(self, name, as_expression(value))
         if self.exact is not None and not isinstance(self.exact, CurveExact):
             object.__setattr__(self, "exact", CurveExact(*self.exact))
 
@@ -341,13 +249,14 @@ class Curve(SegmentKind):
 
     @cached_property
     def _mapped(self) -> tuple:
+        """The mapped expressions as sympy expressions (imports sympy: exact results only)."""
         import sympy
 
+        X, Y = self.base_x.to_sympy(), self.base_y.to_sympy()
         if self.affine.is_identity:
-            return self.base_x, self.base_y
+            return X, Y
         t = sympy.Symbol("t", real=True)
-        m00, m01, m10, m11, v0, v1, p, q = self.affine.numbers()
-        X, Y = sympy.sympify(self.base_x, strict=True), sympy.sympify(self.base_y, strict=True)
+        m00, m01, m10, m11, v0, v1, p, q = (n.to_sympy() for n in self.affine.numbers())
         if (self.affine.p, self.affine.q) != (1.0, 0.0):
             sub = {s: p * t + q for s in (X.free_symbols | Y.free_symbols) if s.name == "t"}
             X, Y = X.subs(sub), Y.subs(sub)
@@ -367,7 +276,7 @@ class Curve(SegmentKind):
         """Return ``(x, y, dx/dt, dy/dt)`` as numpy arrays at parameters ``t``."""
         import numpy as np
 
-        fx, fy, dfx, dfy = self._functions()
+        every = self._functions().every
         m = self.affine
         with np.errstate(all="ignore"):
             if m.p == 1.0 and m.q == 0.0:
@@ -375,7 +284,7 @@ class Curve(SegmentKind):
             else:
                 t = np.asarray(t, dtype=float)
                 u = m.q - t if m.p == -1.0 else m.p * t + m.q
-            X, Y, dX, dY = fx(u), fy(u), dfx(u), dfy(u)
+            X, Y, dX, dY = every(u)
             if m is IDENTITY:
                 return X, Y, dX, dY
             if m.p != 1.0:
@@ -388,7 +297,8 @@ class Curve(SegmentKind):
                     exact: Optional[tuple] = None) -> "Curve":
         """The curve mapped by ``(x, y) -> M·(x, y) + offset`` (no recompilation).
 
-        ``exact`` may give the six numbers (matrix then offset) as sympy numbers.
+        ``exact`` may give the six numbers (matrix then offset) exactly: expression
+        trees, exact numbers (int, Fraction) or sympy numbers.
 
         >>> import sympy
         >>> t = sympy.Symbol("t", real=True)
@@ -397,10 +307,10 @@ class Curve(SegmentKind):
         """
         matrix = tuple(float(v) for v in matrix)
         offset = tuple(float(v) for v in offset)
-        full = None if exact is None else tuple(exact) + (1, 0)
-        if full is not None:
-            import sympy
-            full = tuple(sympy.sympify(v, strict=True) for v in full)
+        full = None
+        if exact is not None:
+            from revolve.expr import as_expression
+            full = tuple(as_expression(v) for v in tuple(exact) + (1, 0))
         step = CurveMap(matrix, offset, exact=full)  # type: ignore[arg-type]
         return replace(self, affine=self.affine.then(step))
 
@@ -550,6 +460,317 @@ class Curve(SegmentKind):
     def split(self, s: float = 0.5) -> tuple["Curve", "Curve"]:
         tm = self.t_start + s * (self.t_end - self.t_start)
         return replace(self, t_end=tm, exact=None), replace(self, t_start=tm, exact=None)
+
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000, *,
+                             first_pieces: int = 16, deepest: int = 40):
+        """Points whose chords stay within ``tolerance`` of the curve, shape (m + 1, 2).
+
+        Adaptive subdivision in ``t``: from ``first_pieces`` equal steps, a piece
+        is halved while one of its probe points (at 1/4, 1/2 and 3/4 of it) lies
+        farther than ``tolerance`` from its chord, at most ``deepest`` times
+        (pieces still too far then are kept as they are). The ends are the
+        curve's own.
+
+        Raises
+        ------
+        RevolveError
+            When more than ``most_pieces`` pieces would be needed.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, 2 * t, 0.0, 1.0).flatten_to_tolerance(0.1).shape          # straight: 16 steps
+        (17, 2)
+        >>> pts = Curve(t, t ** 2, 0.0, 1.0).flatten_to_tolerance(1e-4)
+        >>> pts[0].tolist(), pts[-1].tolist(), bool(abs(pts[:, 1] - pts[:, 0] ** 2).max() == 0)
+        ([0.0, 0.0], [1.0, 1.0], True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).flatten_to_tolerance(1e-12, most_pieces=50)
+        Traceback (most recent call last):
+        ...
+        revolve.errors.RevolveError: the chord tolerance 1e-12 needs more than 50 pieces on one curve; use a larger tolerance
+        """
+        import numpy as np
+
+        from revolve.errors import RevolveError
+
+        def off_chord(p, a, b):
+            """Distance of points ``p`` (k, q, 2) from chords ``a``-``b`` (k, 2)."""
+            ab = np.broadcast_to((b - a)[:, None, :], p.shape)
+            ap = p - a[:, None, :]
+            ll = np.einsum("kqi,kqi->kq", ab, ab)
+            with np.errstate(invalid="ignore", divide="ignore"):
+                s = np.clip(np.einsum("kqi,kqi->kq", ap, ab) / ll, 0.0, 1.0)
+            s = np.where(ll > 0, s, 0.0)
+            return np.linalg.norm(ap - s[..., None] * ab, axis=-1)
+
+        probes = np.array([0.25, 0.5, 0.75])
+        lo = np.linspace(self.t_start, self.t_end, first_pieces + 1)
+        a, b = lo[:-1], lo[1:]
+        finished = []
+        for _ in range(deepest):
+            if a.size == 0:
+                break
+            tp = a[:, None] + (b - a)[:, None] * probes
+            x, y, _, _ = self.evaluate(np.concatenate([a, b, tp.ravel()]))
+            xy = np.column_stack([x, y])
+            k = a.size
+            pa, pb, pp = xy[:k], xy[k:2 * k], xy[2 * k:].reshape(k, probes.size, 2)
+            bad = ~(off_chord(pp, pa, pb).max(axis=1) <= tolerance)  # NaN counts as bad
+            finished.append(a[~bad])
+            mid = (a[bad] + b[bad]) / 2
+            a, b = np.concatenate([a[bad], mid]), np.concatenate([mid, b[bad]])
+            if sum(f.size for f in finished) + a.size > most_pieces:
+                raise RevolveError(f"the chord tolerance {tolerance:g} needs more than "
+                                   f"{most_pieces:,} pieces on one curve; use a larger tolerance")
+        finished.append(a)  # pieces still too far after the deepest split are kept as they are
+        t = np.sort(np.concatenate(finished + [np.array([self.t_end])]))
+        if self.t_end < self.t_start:
+            t = t[::-1]
+        x, y, _, _ = self.evaluate(t)
+        pts = np.column_stack([x, y])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """The fewest chords :meth:`flatten_to_tolerance` gives: its first equal steps.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).fewest_chords(0.1)
+        16
+        """
+        return 16
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the curve is, through its primitive ``curve``.
+
+        ``out.curve(x_expr, y_expr, t_start, t_end, exact)`` with the mapped
+        expressions in ``t`` and the exact ends of the interval (or None).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> class Out:
+        ...     def curve(self, x, y, t0, t1, exact):
+        ...         print(x, y, t0, t1, exact)
+        >>> Curve(t, t ** 2, 0.0, 1.0).translated(1.0).describe_to(Out())
+        t + 1 t**2 0.0 1.0 None
+        """
+        out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: a curve's end cannot move without changing its expressions (a gap is bridged instead).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).with_end_moved((1.0, 1.01)) is None
+        True
+        """
+        return None
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Curves cut where ``z`` turns back, as parametric rows ``(curve, t from, t to)``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.axial_level_table([Curve(sympy.sin(t), t, 0.0, 3.0)], [1.0])
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.pieces]      # z = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0)]
+        """
+        from revolve.geometry.clipping import ParametricPieces
+
+        rows, fs = [], []
+        for s, f in zip(segments, factors):
+            for a, b in s.monotone_ranges(0):
+                if a != b:
+                    rows.append((s, a, b))
+                    fs.append(f)
+        return ParametricPieces(rows, fs)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: the same curve on shorter intervals.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> [(p.t_start, round(p.t_end, 12)) for p in Curve(t ** 2, t, 0.0, 2.0).part_below(1.0)[0]]
+        [(0.0, 1.0)]
+        """
+        from revolve.geometry.clipping import parameters_at_values
+
+        out = []
+        for p, q in self.monotone_ranges(0):
+            za, zb = (float(v) for v in self.points_at([p, q])[:, 0])
+            if max(za, zb) <= level:
+                out.append(replace(self, t_start=p, t_end=q, exact=None))
+                continue
+            if min(za, zb) >= level:
+                continue
+            tc = float(parameters_at_values(self, p, q, [level], coordinate=0)[0])
+            if za < zb:
+                out.append(replace(self, t_start=p, t_end=tc, exact=None))
+            else:
+                out.append(replace(self, t_start=tc, t_end=q, exact=None))
+        return tuple(s for s in out if s.t_end != s.t_start), ()
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Curves moved by ``-z_ref`` along x and cut where r turns back, as parametric rows.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.radial_level_table([Curve(t, sympy.sin(t), 0.0, 3.0)], [1.0], z_ref=1.0)
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.curves]   # r = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0), (0.0, 3.0)]
+        >>> table.extent()[:2]
+        (-1.0, 2.0)
+        """
+        from revolve.geometry.horizontal import ParametricRows
+
+        items = []
+        for s in segments:
+            ranges = s.monotone_ranges(1)
+            items.append((s.translated(-z_ref), [a for a, _ in ranges] + [ranges[-1][1]]))
+        return ParametricRows.from_parameters(items, factors)
+
+    # -- for the washer cross-check (slicing.py) ------------------------------------------
+
+    def monotone_parameters(self, coordinate: int, t_from, t_to, targets, iterations: int = 70):
+        """Parameters where the curve, monotone in a coordinate on ``[t_from, t_to]``, reaches ``targets``.
+
+        ``coordinate`` 0 inverts ``x(t)`` (the axial ``z`` in the frame), 1
+        inverts ``y(t)`` (the radius). ``t_from`` and ``t_to`` broadcast
+        against ``targets`` (one range per row, or one for all): a vectorised
+        bisection of ``iterations`` halvings.
+
+        >>> import numpy as np, sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> c = Curve(t ** 2, t, 0.0, 2.0)
+        >>> [round(float(v), 12) for v in c.monotone_parameters(0, 0.0, 2.0, np.array([1.0, 4.0]))]
+        [1.0, 2.0]
+        >>> c.monotone_parameters(0, np.array([[0.0], [2.0]]), np.array([[1.0], [1.0]]),
+        ...                       np.array([[0.25], [1.0]])).round(12).tolist()
+        [[0.5], [1.0]]
+        """
+        import numpy as np
+
+        targets = np.asarray(targets, dtype=float)
+        ta = np.asarray(t_from, dtype=float)
+        tb = np.asarray(t_to, dtype=float)
+        rising = self.evaluate(tb)[coordinate] > self.evaluate(ta)[coordinate]
+        lo = np.array(np.broadcast_to(ta, targets.shape), dtype=float)
+        hi = np.array(np.broadcast_to(tb, targets.shape), dtype=float)
+        for _ in range(iterations):
+            mid = 0.5 * (lo + hi)
+            value = self.evaluate(mid)[coordinate]
+            below = np.where(rising, value < targets, value > targets)
+            lo = np.where(below, mid, lo)
+            hi = np.where(below, hi, mid)
+        return 0.5 * (lo + hi)
+
+    @classmethod
+    def washer_pieces(cls, segments):
+        """Pieces of many curves along which the axial position moves one way, as arrays.
+
+        Each curve is cut at its :meth:`monotone_ranges` in ``z`` (its
+        :meth:`turning_parameters`); see :meth:`Line.washer_pieces
+        <revolve.geometry.kinds.line.Line.washer_pieces>` for what is
+        returned. A curve's row is ``t_a, t_b, k``: the piece's parameter range
+        and the index of its curve in ``segments``, for :meth:`washer_radius`.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> zf, zt, counts, params = Curve.washer_pieces([Curve(t * (2 - t), t + 1, 0.0, 2.0)])
+        >>> zf.tolist(), zt.tolist(), counts.tolist(), params.tolist()
+        ([0.0, 1.0], [1.0, 0.0], [2], [[0.0, 1.0, 0.0], [1.0, 2.0, 0.0]])
+        """
+        import numpy as np
+
+        rows, counts = [], []
+        for k, seg in enumerate(segments):
+            ranges = seg.monotone_ranges(0)
+            for ta, tb in ranges:
+                za, zb = seg.points_at([ta, tb])[:, 0]
+                rows.append((za, zb, ta, tb, k))
+            counts.append(len(ranges))
+        table = np.array(rows, dtype=float).reshape(-1, 5)
+        return table[:, 0], table[:, 1], np.array(counts, dtype=np.int64), table[:, 2:]
+
+    @classmethod
+    def washer_radius(cls, segments, params, z):
+        """The radius at axial positions ``z`` (rows (m, q)) along curve pieces ``params`` (m, 3).
+
+        Each row's parameter is found by :meth:`monotone_parameters` on its
+        curve (``segments[k]``), all rows of one curve at once.
+
+        >>> import numpy as np, sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> c = Curve(t * (2 - t), t + 1, 0.0, 2.0)
+        >>> _, _, _, params = Curve.washer_pieces([c])
+        >>> Curve.washer_radius([c], params, np.array([[0.75], [0.75]])).round(12).tolist()
+        [[1.5], [2.5]]
+        """
+        import numpy as np
+
+        z = np.asarray(z, dtype=float)
+        out = np.empty(z.shape)
+        owner = params[:, 2].astype(np.int64)
+        for k in np.unique(owner):
+            rows = np.flatnonzero(owner == k)
+            seg = segments[int(k)]
+            t = seg.monotone_parameters(0, params[rows, 0:1], params[rows, 1:2], z[rows])
+            out[rows] = seg.evaluate(t)[1]
+        return out
+
+    @classmethod
+    def washer_degree(cls):
+        """None: the radius along a curve is not taken as a polynomial of ``z``.
+
+        >>> Curve.washer_degree() is None
+        True
+        """
+        return None
+
+    @classmethod
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14):
+        """``∫ r ds`` along each curve by adaptive Gauss–Legendre in ``φ``: ``(values, errors)``.
+
+        ``t = mid − half·cos φ`` keeps the integrand smooth at vertical tangents;
+        vectorised over intervals, with a bounded number of them (see
+        :func:`revolve.geometry.integrals.adaptive_quadrature`).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> v, e = Curve.r_ds_rows([Curve(3 * t, 4 * t, 0.0, 1.0)])   # r = 4t, ds = 5 dt: 10
+        >>> round(float(v[0]), 12), bool(e[0] < 1e-12)
+        (10.0, True)
+        """
+        import numpy as np
+
+        from revolve.geometry.integrals import adaptive_quadrature
+
+        values = np.zeros(len(segments))
+        errors = np.zeros(len(segments))
+        for i, c in enumerate(segments):
+            ta, tb = c.t_start, c.t_end
+            mid, half = (ta + tb) / 2, (tb - ta) / 2
+
+            def g(phi, c=c, mid=mid, half=half):
+                t = mid - half * np.cos(phi)
+                _, r, dz, dr = c.evaluate(t)
+                v = r * np.hypot(dz, dr) * np.sin(phi) * half
+                return np.nan_to_num(v, nan=0.0, posinf=0.0, neginf=0.0)[:, None]
+
+            with np.errstate(all="ignore"):
+                total, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, n=n // 2)
+            values[i], errors[i] = abs(float(total[0])), float(err[0])
+        return values, errors
 
 
 

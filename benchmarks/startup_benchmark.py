@@ -1,0 +1,113 @@
+"""Start-up of curve commands as ratios to a bare ``python -c "import numpy, typer"``, one run.
+
+Run:  python benchmarks/startup_benchmark.py [--before PATH] [--runs N]
+
+Issue 10's target: ``revolve vessel`` with ellipsoidal or torispherical heads, and
+``revolve measure`` of a curve profile without ``--exact``, within 1.7× of the bare
+start-up. Plain measuring imports no sympy (and no mpmath or scipy); only ``--exact``
+does, so the ``--exact`` line is printed for comparison, not as a target.
+
+Each command runs as a fresh process N times (default 7), alternating with the bare
+start-up and the other variants so that load on the machine falls on all of them
+alike; the median is kept and printed as a ratio, never as a promise (the machines
+are shared and noisy). Byte code is compiled once first, into a private cache
+(``PYTHONPYCACHEPREFIX``), so the figures are what an installed package costs and not
+the compilation of its sources on every run (``PYTHONDONTWRITEBYTECODE`` is unset
+for the children). With ``--before PATH`` (another checkout, e.g. the main branch
+before a change) its times are printed beside this checkout's.
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import statistics
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+ROOT = Path(__file__).resolve().parents[1]
+
+COMMANDS = {
+    "measure domed-lid.toml --json (a curve)": ["-m", "revolve", "measure",
+                                                "{root}/profiles/domed-lid.toml", "--json"],
+    "vessel, two ellipsoidal heads": ["-m", "revolve", "vessel", "--diameter", "2000",
+                                      "--length", "5000", "--head", "ellipsoidal"],
+    "vessel, torispherical heads, 10 mm wall": ["-m", "revolve", "vessel", "--diameter", "2000",
+                                                "--length", "5000", "--head", "torispherical",
+                                                "--thickness", "10"],
+    "vessel, ellipsoidal heads, 10 mm wall": ["-m", "revolve", "vessel", "--diameter", "2000",
+                                              "--length", "5000", "--head", "ellipsoidal",
+                                              "--thickness", "10"],
+    "measure domed-lid.toml --json --exact (for comparison)": [
+        "-m", "revolve", "measure", "{root}/profiles/domed-lid.toml", "--json", "--exact"],
+}
+BARE = ["-c", "import numpy, typer"]
+
+
+def run(argv, pythonpath, cwd, cache):
+    env = dict(os.environ)
+    env.pop("PYTHONDONTWRITEBYTECODE", None)
+    env["PYTHONPYCACHEPREFIX"] = cache
+    if pythonpath is None:
+        env.pop("PYTHONPATH", None)
+        argv = list(argv)
+    else:
+        env["PYTHONPATH"] = str(pythonpath)
+        argv = [a.replace("{root}", str(pythonpath)) for a in argv]
+    t0 = time.perf_counter()
+    done = subprocess.run([sys.executable] + argv, cwd=cwd, env=env,
+                          stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    elapsed = time.perf_counter() - t0
+    if done.returncode != 0:
+        raise SystemExit(f"{' '.join(argv)} failed ({done.returncode}):\n"
+                         + done.stderr.decode(errors="replace")[-2000:])
+    return elapsed
+
+
+def main() -> None:
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--before", type=Path, default=None,
+                    help="a checkout of the code before the change (its root directory)")
+    ap.add_argument("--runs", type=int, default=7)
+    args = ap.parse_args()
+    variants = {"after": ROOT}
+    if args.before is not None:
+        variants["before"] = args.before.resolve()
+
+    with tempfile.TemporaryDirectory() as tmp:
+        cache = str(Path(tmp) / "pycache")
+        for path in variants.values():              # compile byte code once, untimed
+            for argv in COMMANDS.values():
+                run(argv, path, tmp, cache)
+        run(BARE, None, tmp, cache)
+        print(f"python {sys.version.split()[0]}; median of {args.runs} runs, each a new "
+              "process; ratio = command / bare start-up (target for the first four: ≤ 1.7×)")
+        bare_all = []
+        rows = []
+        for name, argv in COMMANDS.items():
+            times = {"bare": []} | {v: [] for v in variants}
+            for _ in range(args.runs):
+                times["bare"].append(run(BARE, None, tmp, cache))
+                for v, path in variants.items():
+                    times[v].append(run(argv, path, tmp, cache))
+            bare_all += times["bare"]
+            med = {k: statistics.median(v) for k, v in times.items()}
+            rows.append((name, med))
+        print(f"\nbare start-up (python -c \"import numpy, typer\"): "
+              f"{statistics.median(bare_all):.3f} s (median of all its runs)\n")
+        header = f"{'command':58s} {'bare':>7s}"
+        for v in variants:
+            header += f" {v:>8s} {'ratio':>6s}"
+        print(header)
+        for name, med in rows:
+            line = f"{name:58s} {med['bare']:6.3f}s"
+            for v in variants:
+                line += f" {med[v]:7.3f}s {med[v] / med['bare']:5.2f}×"
+            print(line)
+
+
+if __name__ == "__main__":
+    main()
