@@ -23,7 +23,7 @@ from __future__ import annotations
 import contextlib
 import json
 import sys
-from typing import Callable, Iterator, List, Optional, Sequence
+from typing import Callable, Iterator, Optional, Sequence
 
 #: Runs with at least this many parts show a progress bar (when standard error is a terminal).
 PROGRESS_FROM = 100
