@@ -265,7 +265,9 @@ def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> 
         kinds = [s.kind for s in path.segments]
         start = path.segments[0].start if path.segments else (float("nan"), float("nan"))
         target = loops if kind == "loop" else chains
-        target.append(PathFound(kind, len(target) + 1, kinds.count("line"), kinds.count("arc"),
+        lines = kinds.count("line") + sum(s.chord_count() for s in path.segments
+                                          if s.kind == "polyline")    # a polyline's edges
+        target.append(PathFound(kind, len(target) + 1, lines, kinds.count("arc"),
                                 kinds.count("curve"), (float(start[0]), float(start[1])), source))
     return tuple(loops), tuple(chains)
 

@@ -234,8 +234,23 @@ def _start_exact(seg) -> Optional[Tuple]:
     return None
 
 
+def _edges(segments):
+    """The segments to write, a polyline as its edges (lines between its vertices, exact ones kept)."""
+    out = []
+    for seg in segments:
+        if seg.kind != "polyline":
+            out.append(seg)
+            continue
+        pts = seg.points.tolist()
+        ex = seg.exact.points if seg.exact is not None else None
+        out.extend(Line(tuple(pts[i]), tuple(pts[i + 1]), face=seg.face,
+                        exact=None if ex is None else tuple(ex[i]) + tuple(ex[i + 1]))
+                   for i in range(len(pts) - 1))
+    return out
+
+
 def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
-    segments = path.segments
+    segments = _edges(path.segments)
     if not segments:
         raise ProfileError(f"{kind} {index} has no segments; there is nothing to write")
     start = segments[0].start

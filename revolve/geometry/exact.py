@@ -153,13 +153,13 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
         for seg in path.segments:
             if seg.exact is None and seg.kind != "curve":
                 raise NotExact(f"{indefinite(seg.kind)} has no exact inputs")
+            if seg.kind == "polyline":     # its edges are lines between exact vertices
+                vertices = [_pt(p) for p in seg.exact.points]
+                for a, b in zip(vertices[:-1], vertices[1:]):
+                    pending.append((seg.face or UNNAMED_FACE, f, *_line_terms(a + b, frame), ()))
+                continue
             if seg.kind == "line":
-                x0, y0, x1, y1 = (_sym(v) for v in seg.exact)
-                (z0, r0), (z1, r1) = frame((x0, y0)), frame((x1, y1))
-                c = z0 * r1 - z1 * r0
-                m00, m01 = c / 2, c * (r0 + r1) / 6
-                length = sympy.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2)
-                lr = length * (r0 + r1) / 2
+                m00, m01, lr = _line_terms(tuple(_sym(v) for v in seg.exact), frame)
                 todo = ()
             elif seg.kind == "arc":
                 m00, m01, lr = _arc_terms(seg, frame, side)
@@ -215,6 +215,17 @@ def exact_closed_forms(profile, revolution, measurement, angle_degrees,
             raise NotExact(f"the closed form {expr} does not match the computed {num:.12g}")
     return {k: (v.replace("**", "^") if isinstance(v, str) else
                 {a: b.replace("**", "^") for a, b in v.items()}) for k, v in out.items()}
+
+
+def _line_terms(ends, frame):
+    """Exact ∫∫ dA, ∫∫ r dA (Green's theorem) and ∫ r ds of the line from (x0, y0) to (x1, y1)."""
+    import sympy
+
+    x0, y0, x1, y1 = ends
+    (z0, r0), (z1, r1) = frame((x0, y0)), frame((x1, y1))
+    c = z0 * r1 - z1 * r0
+    length = sympy.sqrt((x1 - x0) ** 2 + (y1 - y0) ** 2)
+    return c / 2, c * (r0 + r1) / 6, length * (r0 + r1) / 2
 
 
 def _arc_terms(seg, frame, side):

@@ -147,7 +147,7 @@ def run_measure(profile: str, axis: Optional[str], angle: Optional[float], mater
     if not 0 < tolerance:
         raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
 
-    doc, rev = common.revolution_from_options(profile, axis, angle, units)
+    doc, rev = common.revolution_from_options(profile, axis, angle, units, exact=exact)
     ax, ang = rev.axis, rev.angle_degrees
     dens, dens_label = common.resolve_density(material, density, doc)
     u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
