@@ -110,7 +110,9 @@ def _sketch_paths(profile, size: float):
     from revolve.geometry.mesh import flatten_segment
 
     tol = size / 3000.0
-    return [[flatten_segment(s, tol) for s in p.segments] for p in profile.paths]
+    # a polyline is its own vertices (straight edges: nothing to flatten)
+    return [[s.flatten() if s.kind == "polyline" else flatten_segment(s, tol) for s in p.segments]
+            for p in profile.paths]
 
 
 def _loop_polygon(pieces: List[np.ndarray]) -> np.ndarray:

@@ -422,7 +422,7 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
     """
     import numpy as np
 
-    from revolve.geometry.checks import RELATIVE_TOLERANCE, _chord_owner, find_self_intersection
+    from revolve.geometry.checks import RELATIVE_TOLERANCE, _chord_place, find_self_intersection
 
     paths = profile.paths
     if not paths:
@@ -440,21 +440,23 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
     if hit is None:
         return
     pa, ca, pb, cb = hit
-    sa, sb = _chord_owner(flat[pa], ca), _chord_owner(flat[pb], cb)
+    # segment index, edge in it and number in messages (a polyline's edges count one each)
+    sa, _, na = _chord_place(paths[pa].segments, flat[pa], ca)
+    sb, _, nb = _chord_place(paths[pb].segments, flat[pb], cb)
 
-    def name(k: int, j: int) -> str:
+    def name(k: int, j: int, number: int) -> str:
         seg = paths[k].segments[j]
         where = getattr(seg, "where", None)
         if where is not None and where.place:
             return where.place
-        return f"{'loop' if closed[k] else 'chain'} {k + 1}, segment {j + 1}"
+        return f"{'loop' if closed[k] else 'chain'} {k + 1}, segment {number}"
 
     seg = paths[pa].segments[sa]
     where = getattr(seg, "where", None)
     raise ProfileError(f"{after}the profile intersects itself: this segment meets "
-                       f"{name(pb, sb)}; a boundary must not cross or touch itself",
+                       f"{name(pb, sb, nb)}; a boundary must not cross or touch itself",
                        file=(where.file if where is not None and where.file else file),
-                       place=name(pa, sa))
+                       place=name(pa, sa, na))
 
 
 # -- lazy entry points -----------------------------------------------------------------
