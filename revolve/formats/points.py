@@ -42,6 +42,7 @@ from __future__ import annotations
 
 import re
 from fractions import Fraction
+from functools import lru_cache
 from typing import List, Optional, Tuple
 
 from revolve.errors import FormatError
@@ -213,14 +214,6 @@ def _careful_points(text: str, file: Optional[str]) -> Tuple[list, list]:
     return points, lines
 
 
-def _byte_table(chars: bytes):
-    import numpy as np
-
-    table = np.zeros(256, dtype=bool)
-    table[np.frombuffer(chars, dtype=np.uint8)] = True
-    return table
-
-
 def _fast_points(text: str):
     """The points and their lines of a plain point list, vectorised; None when unsure.
 
@@ -263,26 +256,29 @@ def _fast_points(text: str):
         delta[hashes[first]] += 1
         delta[line_end[line_of_hash[first]]] -= 1
         work[np.cumsum(delta[:-1], dtype=np.int8) > 0] = 32
-    blank = _byte_table(b" \t\r\n")
-    content = np.flatnonzero(~blank[work])
-    if not content.size:
+    kind = _classes()[work]                  # what each byte is (see _class_table)
+    first_content = int(np.argmax(kind != _BLANK))
+    if kind[first_content] == _BLANK:
         return None
     # The first content line may be a header of words: the careful rule decides.
-    head = int(np.searchsorted(nl, content[0]))
+    head = int(np.searchsorted(nl, first_content))
     head_from = int(nl[head - 1]) + 1 if head else 0
     fields = _fields(raw[head_from:line_end[head]].decode("utf-8").split("#", 1)[0])
     if not any(PLAIN_NUMBER.match(f) or _NOT_FINITE.match(f) for f in fields):
         work[head_from:line_end[head]] = 32
+        kind[head_from:line_end[head]] = _BLANK
     # Outside comments and the header only number characters, separators and line ends.
-    if not _byte_table(b"0123456789.eE+- \t,;\r\n")[work].all():
+    if np.any(kind == _OTHER):
         return None
-    separator = (work == 44) | (work == 59)
-    space = blank[work] | separator
-    token = ~space
-    starts = np.flatnonzero(token & np.concatenate([[True], space[:-1]]))
+    token = kind >= _DIGIT
+    edges = np.flatnonzero(token[1:] != token[:-1]) + 1          # where tokens start or stop
+    if token[0]:
+        edges = np.concatenate([[0], edges])
+    if token[-1]:
+        edges = np.append(edges, len(token))
+    starts, stops = edges[0::2], edges[1::2]
     if not starts.size:
         return None
-    stops = np.flatnonzero(token & np.concatenate([space[1:], [True]])) + 1
     if int((stops - starts).max()) > MAX_NUMBER_CHARS:
         return None
     line_of = np.searchsorted(nl, starts)                 # 0-based line of each token
@@ -290,7 +286,7 @@ def _fast_points(text: str):
     if np.any((per_line != 0) & (per_line != 2)):
         return None
     # A separator "," or ";" must stand between the two numbers of its line.
-    sep_pos = np.flatnonzero(separator)
+    sep_pos = np.flatnonzero(kind == _SEPARATOR_BYTE)
     if sep_pos.size:
         sep_line = np.searchsorted(nl, sep_pos)
         if np.bincount(sep_line).max() > 1 or np.any(per_line[sep_line] != 2):
@@ -299,7 +295,8 @@ def _fast_points(text: str):
         if np.any(before - np.searchsorted(line_of, sep_line) != 1):
             return None
         work[sep_pos] = 32
-    if not _plain_numbers(work, starts, stops):
+    special = np.flatnonzero(kind > _DIGIT)
+    if not _plain_numbers(work, starts, kind[special], special):
         return None
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
@@ -330,26 +327,25 @@ def _fast_points(text: str):
     return pts, lines
 
 
-def _digits_in(chars) -> bool:
-    return bool(((chars >= 48) & (chars <= 57)).any())
-
-
 def _mantissa_zero(literal: bytes) -> bool:
     """Whether a decimal literal's digits before its exponent are all zeros ("0.0e5")."""
     mantissa = re.split(rb"[eE]", literal, maxsplit=1)[0]
     return not re.search(rb"[1-9]", mantissa)
 
 
-def _plain_numbers(work, starts, stops) -> bool:
+def _plain_numbers(work, starts, kinds, positions) -> bool:
     """Whether every token matches ``[+-]?(digits[.digits]|.digits)([eE][+-]?digits)?``.
 
-    Vectorised over the tokens: each sign, point and exponent mark is checked
-    against its neighbours and its token.
+    ``starts`` are the tokens' first bytes; ``positions`` the bytes other than
+    digits and blanks (signs, exponent marks, points) and ``kinds`` their
+    classes. Vectorised over the tokens: each sign, point and exponent mark is
+    checked against its neighbours and its token.
 
     >>> import numpy as np
     >>> def ok(s):
     ...     w = np.frombuffer(s.encode(), dtype=np.uint8).copy()
-    ...     return _plain_numbers(w, np.array([0]), np.array([len(s)]))
+    ...     special = np.flatnonzero(_classes()[w] > _DIGIT)
+    ...     return _plain_numbers(w, np.array([0]), _classes()[w][special], special)
     >>> [ok(s) for s in ("1", "-1.5e+3", ".5", "1.", "+.5E-2", "1e", "1-2", "e5", ".", "1.2.3", "1e5e", ".e1",
     ...                  "1e.5", "+", "--1", "1e+")]
     [True, True, True, True, True, False, False, False, False, False, False, False, False, False, False, False]
@@ -357,36 +353,62 @@ def _plain_numbers(work, starts, stops) -> bool:
     import numpy as np
 
     size = len(work)
-    padded = np.concatenate([[32], work, [32]])          # neighbours of every byte exist
-    digit = _byte_table(b"0123456789")
-    is_e = _byte_table(b"eE")
+    digit = _classes() == _DIGIT
+    is_e = _classes() == _MARK
+
+    def neighbours(pos):
+        prev = work[np.maximum(pos - 1, 0)]
+        prev[pos == 0] = 32
+        nxt = work[np.minimum(pos + 1, size - 1)]
+        nxt[pos == size - 1] = 32
+        return prev, nxt
 
     def owner(pos):
         return np.searchsorted(starts, pos, side="right") - 1
 
-    signs = np.flatnonzero((work == 43) | (work == 45))
+    signs = positions[kinds == _SIGN]
     if signs.size:
-        prev, nxt = padded[signs], padded[signs + 2]
+        prev, nxt = neighbours(signs)
         after_e = is_e[prev]
-        at_start = np.isin(signs, starts)
+        at_start = starts[np.minimum(np.searchsorted(starts, signs), len(starts) - 1)] == signs
         if not np.all((after_e & digit[nxt]) | (at_start & (digit[nxt] | (nxt == 46)))):
             return False
-    marks = np.flatnonzero(is_e[work])
+    marks = positions[kinds == _MARK]
     e_of = np.full(len(starts), size + 1)
     if marks.size:
         own = owner(marks)
         if np.bincount(own).max() > 1:
             return False
-        prev, nxt = padded[marks], padded[marks + 2]
+        prev, nxt = neighbours(marks)
         if not np.all((digit[prev] | (prev == 46)) & (digit[nxt] | (nxt == 43) | (nxt == 45))):
             return False
         e_of[own] = marks
-    dots = np.flatnonzero(work == 46)
+    dots = positions[kinds == _POINT]
     if dots.size:
         own = owner(dots)
         if np.bincount(own).max() > 1 or np.any(dots > e_of[own]):
             return False
-        prev, nxt = padded[dots], padded[dots + 2]
+        prev, nxt = neighbours(dots)
         if not np.all(digit[prev] | digit[nxt]):
             return False
     return True
+
+
+def _class_table():
+    import numpy as np
+
+    table = np.full(256, _OTHER, dtype=np.uint8)
+    for chars, code in ((b" \t\r\n", _BLANK), (b",;", _SEPARATOR_BYTE), (b"0123456789", _DIGIT),
+                        (b"+-", _SIGN), (b"eE", _MARK), (b".", _POINT)):
+        table[np.frombuffer(chars, dtype=np.uint8)] = code
+    return table
+
+
+# Byte classes of the vectorised reader, in this order: tokens are the bytes >= _DIGIT.
+_BLANK, _SEPARATOR_BYTE, _DIGIT, _SIGN, _MARK, _POINT, _OTHER = range(7)
+
+
+@lru_cache(maxsize=1)
+def _classes():
+    """The byte class table (built on first use: numpy is imported only when reading)."""
+    return _class_table()
