@@ -235,7 +235,7 @@ def _fast_points(text: str):
 
     import numpy as np
 
-    if '"' in text or any(ch in text for ch in _ODD_BREAKS):
+    if not text.strip() or '"' in text or any(ch in text for ch in _ODD_BREAKS):
         return None
     raw = text.encode("utf-8")
     b = np.frombuffer(raw, dtype=np.uint8)

@@ -234,9 +234,15 @@ def _segments_cross(p, q, r, s, tol):
                  (np.minimum(a[:, 1], b[:, 1]) - tol <= c[:, 1]) & (c[:, 1] <= np.maximum(a[:, 1], b[:, 1]) + tol)
         return (np.abs(d) <= t) & inside
 
-    touch = on_segment(r, s, p, d1, t_rs) | on_segment(r, s, q, d2, t_rs) | \
-        on_segment(p, q, r, d3, t_pq) | on_segment(p, q, s, d4, t_pq)
-    return proper | touch
+    # Touching needs an orientation within its tolerance: test only those pairs.
+    near = np.flatnonzero((np.abs(d1) <= t_rs) | (np.abs(d2) <= t_rs) |
+                          (np.abs(d3) <= t_pq) | (np.abs(d4) <= t_pq))
+    if near.size:
+        p, q, r, s = p[near], q[near], r[near], s[near]
+        t_rs, t_pq = t_rs[near], t_pq[near]
+        proper[near] |= on_segment(r, s, p, d1[near], t_rs) | on_segment(r, s, q, d2[near], t_rs) | \
+            on_segment(p, q, r, d3[near], t_pq) | on_segment(p, q, s, d4[near], t_pq)
+    return proper
 
 
 def _sweep_order(lo: np.ndarray, hi: np.ndarray) -> Tuple[np.ndarray, np.ndarray]:
@@ -348,6 +354,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     n = len(a)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
+        if name == "y" and index is None and choices and choices["x"][0] <= 2 * n:
+            break       # the x sweep is already down to two pairs per chord: take it
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None)
