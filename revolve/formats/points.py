@@ -231,58 +231,104 @@ def _fast_points(text: str):
     >>> _fast_points("0,0\\n1,0\\n1,0\\n0,1\\n") is None  # a repeated point: careful pass
     True
     """
-    import warnings
-
     import numpy as np
 
     if not text.strip() or '"' in text or any(ch in text for ch in _ODD_BREAKS):
         return None
     raw = text.encode("utf-8")
-    b = np.frombuffer(raw, dtype=np.uint8)
+    # A lone carriage return is a line break for splitlines: leave it to the careful pass.
+    if raw.count(b"\r") != raw.count(b"\r\n"):
+        return None
+    # The first content line may be a header of words: the careful rule decides.
+    pos = 0
+    while True:
+        end = raw.find(b"\n", pos)
+        end = len(raw) if end < 0 else end
+        if raw[pos:end].split(b"#", 1)[0].strip():
+            break
+        if end >= len(raw):
+            return None
+        pos = end + 1
+    fields = _fields(raw[pos:end].decode("utf-8").split("#", 1)[0])
+    header = (pos, end) if not any(PLAIN_NUMBER.match(f) or _NOT_FINITE.match(f)
+                                   for f in fields) else (0, 0)
+    # Whole lines a block at a time: the temporary arrays stay small.
+    values, lines, literals = [], [], []
+    start, line0 = 0, 0
+    while start < len(raw):
+        stop = raw.find(b"\n", start + _BLOCK_BYTES)
+        stop = len(raw) if stop < 0 else stop + 1
+        block = _fast_block(raw[start:stop], line0, (header[0] - start, header[1] - start))
+        if block is None:
+            return None
+        if block[0].size:
+            values.append(block[0])
+            lines.append(block[1])
+            literals.append(block[2])
+        line0 += raw.count(b"\n", start, stop)
+        start = stop
+    if not values:
+        return None
+    pts = np.concatenate(values).reshape(-1, 2)
+    lines = np.concatenate(lines)
+    if np.all(pts[-1] == pts[0]):
+        if literals[0][0] != literals[-1][1]:
+            return None       # equal floats from different literals: decided exactly
+        pts, lines = pts[:-1], lines[:-1]
+    if len(pts) < 3 or np.any(np.all(pts[1:] == pts[:-1], axis=1)):
+        return None
+    return pts, lines
+
+
+#: Bytes of a point list that the vectorised pass reads at once (whole lines).
+_BLOCK_BYTES = 1 << 21
+
+
+def _fast_block(chunk: bytes, line0: int, blank):
+    """Numbers, vertex lines and the first and last points' literals of whole lines; None when unsure.
+
+    ``line0`` lines come before the block; bytes ``blank[0]:blank[1]`` (a
+    header, in block offsets) are skipped.
+    """
+    import warnings
+
+    import numpy as np
+
+    b = np.frombuffer(chunk, dtype=np.uint8)
     size = len(b)
     nl = np.flatnonzero(b == 10)
-    line_end = np.append(nl, size)           # line k (0-based) ends at line_end[k]
-    # A lone carriage return is a line break for splitlines: leave it to the careful pass.
-    cr = np.flatnonzero(b == 13)
-    if cr.size and (cr[-1] + 1 >= size or np.any(b[cr + 1] != 10)):
-        return None
-    work = b.copy()
+    kind = _classes()[b]                     # what each byte is (see _class_table)
+    lo, hi = max(blank[0], 0), min(blank[1], size)
+    if lo < hi:
+        kind[lo:hi] = _BLANK
     # Comments: from the first "#" of a line to its end.
     hashes = np.flatnonzero(b == 35)
     if hashes.size:
+        line_end = np.append(nl, size)
         line_of_hash = np.searchsorted(nl, hashes)
         first = np.unique(line_of_hash, return_index=True)[1]
         delta = np.zeros(size + 1, dtype=np.int8)
         delta[hashes[first]] += 1
         delta[line_end[line_of_hash[first]]] -= 1
-        work[np.cumsum(delta[:-1], dtype=np.int8) > 0] = 32
-    kind = _classes()[work]                  # what each byte is (see _class_table)
-    first_content = int(np.argmax(kind != _BLANK))
-    if kind[first_content] == _BLANK:
-        return None
-    # The first content line may be a header of words: the careful rule decides.
-    head = int(np.searchsorted(nl, first_content))
-    head_from = int(nl[head - 1]) + 1 if head else 0
-    fields = _fields(raw[head_from:line_end[head]].decode("utf-8").split("#", 1)[0])
-    if not any(PLAIN_NUMBER.match(f) or _NOT_FINITE.match(f) for f in fields):
-        work[head_from:line_end[head]] = 32
-        kind[head_from:line_end[head]] = _BLANK
+        kind[np.cumsum(delta[:-1], dtype=np.int8) > 0] = _BLANK
     # Outside comments and the header only number characters, separators and line ends.
     if np.any(kind == _OTHER):
         return None
     token = kind >= _DIGIT
     edges = np.flatnonzero(token[1:] != token[:-1]) + 1          # where tokens start or stop
-    if token[0]:
+    if size and token[0]:
         edges = np.concatenate([[0], edges])
-    if token[-1]:
-        edges = np.append(edges, len(token))
+    if size and token[-1]:
+        edges = np.append(edges, size)
+    del token
     starts, stops = edges[0::2], edges[1::2]
+    empty = np.zeros(0)
     if not starts.size:
-        return None
+        return empty, np.zeros(0, dtype=np.int64), None
     if int((stops - starts).max()) > MAX_NUMBER_CHARS:
         return None
-    line_of = np.searchsorted(nl, starts)                 # 0-based line of each token
-    per_line = np.bincount(line_of, minlength=len(line_end))
+    line_of = np.searchsorted(nl, starts)                 # line of each token in the block
+    per_line = np.bincount(line_of, minlength=len(nl) + 1)
     if np.any((per_line != 0) & (per_line != 2)):
         return None
     # A separator "," or ";" must stand between the two numbers of its line.
@@ -294,13 +340,14 @@ def _fast_points(text: str):
         before = np.searchsorted(starts, sep_pos)        # tokens starting before the separator
         if np.any(before - np.searchsorted(line_of, sep_line) != 1):
             return None
-        work[sep_pos] = 32
     special = np.flatnonzero(kind > _DIGIT)
-    if not _plain_numbers(work, starts, kind[special], special):
+    if not _plain_numbers(b, starts, kind[special], special):
         return None
+    clean = np.where(kind >= _DIGIT, b, np.uint8(32))
+    del kind
     with warnings.catch_warnings():
         warnings.simplefilter("ignore")
-        values = np.fromstring(work.tobytes(), dtype=float, sep=" ")
+        values = np.fromstring(clean.tobytes(), dtype=float, sep=" ")
     if values.size != starts.size:
         return None
     magnitude = np.abs(values)
@@ -313,18 +360,13 @@ def _fast_points(text: str):
         return None
     for k in zero.tolist():
         # a number too small for a float reads as 0: the careful pass refuses it
-        if not _mantissa_zero(raw[starts[k]:stops[k]]):
+        if not _mantissa_zero(chunk[starts[k]:stops[k]]):
             return None
-    pts = values.reshape(-1, 2)
-    lines = line_of[::2] + 1
-    if np.all(pts[-1] == pts[0]):
-        n = len(pts) - 1
-        if any(raw[starts[c]:stops[c]] != raw[starts[2 * n + c]:stops[2 * n + c]] for c in (0, 1)):
-            return None       # equal floats from different literals: decided exactly
-        pts, lines = pts[:-1], lines[:-1]
-    if len(pts) < 3 or np.any(np.all(pts[1:] == pts[:-1], axis=1)):
-        return None
-    return pts, lines
+
+    def literal(k):
+        return (chunk[starts[k]:stops[k]], chunk[starts[k + 1]:stops[k + 1]])
+
+    return values, line_of[::2] + line0 + 1, (literal(0), literal(len(starts) - 2))
 
 
 def _mantissa_zero(literal: bytes) -> bool:

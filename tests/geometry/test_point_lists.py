@@ -264,3 +264,20 @@ def test_open_chain_polyline_and_lines_sweep_the_same_surface(pts):
     lines = measure(Revolution(Profile(chains=(Chain(_lines(pts, closed=False)),)), Axis.x()))
     assert chain.surface_total == pytest.approx(lines.surface_total, rel=1e-12)
     assert chain.boundary_length == pytest.approx(lines.boundary_length, rel=1e-12)
+
+
+@pytest.mark.parametrize("block", [1, 7, 64])
+def test_reading_in_blocks_gives_the_same_points(monkeypatch, block):
+    # the vectorised pass reads whole lines a block at a time; any block size gives the careful
+    # pass's points and lines (comments, blank lines, a header and Windows line ends included)
+    import revolve.formats.points as points
+
+    rows = ["# scan of a ring", "x;y"] + [f"{x!r},{y!r}" + (" # mark" if k % 7 == 0 else "")
+                                         for k, (x, y) in enumerate(regular_polygon(200).tolist())]
+    rows[50:50] = ["", "   ", "# a note"]
+    text = "\r\n".join(rows + [rows[2]]) + "\r\n"       # last point repeats the first
+    monkeypatch.setattr(points, "_BLOCK_BYTES", block)
+    pts, lines = _fast_points(text)
+    careful, careful_lines = _careful_points(text, "t.csv")
+    assert pts.tolist() == [[float(x), float(y)] for x, y in careful]
+    assert lines.tolist() == careful_lines and len(careful) == 200
