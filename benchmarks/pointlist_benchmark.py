@@ -80,6 +80,18 @@ def noisy(n: int) -> np.ndarray:
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
 
 
+#: The command's work without the cross-check: read the file, measure, print JSON (a child
+#: process like the command, to show what the cross-check costs on top).
+NO_CHECK = """
+import json, sys
+sys.path.insert(0, sys.argv[2])
+from revolve.formats import load_profile
+from revolve.geometry.measure import measure
+from revolve.geometry.profile import Axis, Revolution
+m = measure(Revolution(load_profile(sys.argv[1]).profile, Axis.x()), crosscheck=False)
+print(json.dumps({"volume": m.volume, "area": m.area, "surface": m.surface_total}))
+"""
+
 FOUR_LINES = """units = "mm"
 [[loop]]
 start = [0, 10]
@@ -194,9 +206,11 @@ def main(argv=None):
         if t is not None:
             four_best = t if four_best is None else min(four_best, t)
     print(f"four-line profile: {fmt(four_best)} s")
+    print("(no check = the same file read and measured in a child process without the "
+          "cross-check; its ratio to plain is the engine's own share)")
     print(f"{'shape':>7} {'vertices':>9} {'plain s':>8} {'after s':>8} {'before s':>8} "
           f"{'after/plain':>12} {'vs 4 lines':>11} {'before/after':>13} {'after MB':>9} "
-          f"{'before MB':>10}")
+          f"{'before MB':>10} {'no check s':>11} {'no check/plain':>15} {'no check MB':>12}")
     library_rows = []
     for shape in shapes:
         for n in sizes:
@@ -205,12 +219,13 @@ def main(argv=None):
             np.savetxt(path, pts, delimiter=",", fmt="%.17g")
             plain_cmd = [py, "-c", PLAIN, str(path)]
             cmd = [py, "-m", "revolve", "measure", str(path), "--json"]
-            best = {"plain": None, "after": None, "before": None}
-            mem = {"after": None, "before": None}
+            no_check_cmd = [py, "-c", NO_CHECK, str(path), str(ROOT)]
+            best = {"plain": None, "after": None, "before": None, "no check": None}
+            mem = {"after": None, "before": None, "no check": None}
             slow = set()
             for _ in range(args.repeats):
                 for name, pp, c in (("plain", None, plain_cmd), ("after", ROOT, cmd),
-                                    ("before", args.before, cmd)):
+                                    ("before", args.before, cmd), ("no check", None, no_check_cmd)):
                     if name == "before" and not args.before or name in slow:
                         continue
                     t, m = run(c, pp, args.timeout, work)
@@ -227,7 +242,9 @@ def main(argv=None):
             print(f"{shape:>7} {n:>9} {fmt(best['plain'])} {fmt(best['after'])} {fmt(best['before'])} "
                   f"{ratio(best['after'], best['plain']):>12} {ratio(best['after'], four_best):>11} "
                   f"{ratio(best['before'], best['after']):>13} "
-                  f"{(mem['after'] or float('nan')):>9.0f} {(mem['before'] or float('nan')):>10.0f}",
+                  f"{(mem['after'] or float('nan')):>9.0f} {(mem['before'] or float('nan')):>10.0f} "
+                  f"{fmt(best['no check']):>11} {ratio(best['no check'], best['plain']):>15} "
+                  f"{(mem['no check'] or float('nan')):>12.0f}",
                   flush=True)
             if not args.no_library:
                 npy = work / f"{shape}-{n}.npy"

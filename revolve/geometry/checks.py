@@ -25,7 +25,7 @@ import math
 from collections.abc import Sequence as _SequenceABC
 from dataclasses import dataclass, field
 from functools import cached_property
-from typing import List, Optional, Sequence, Tuple
+from typing import Optional, Sequence, Tuple
 
 import numpy as np
 
@@ -354,8 +354,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     n = len(a)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
-        if name == "y" and index is None and choices and choices["x"][0] <= 2 * n:
-            break       # the x sweep is already down to two pairs per chord: take it
+        if name == "y" and index is None and choices and choices["x"][0] <= 3 * n:
+            break       # the x sweep is already down to three pairs per chord: take it
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None)
