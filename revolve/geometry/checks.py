@@ -304,7 +304,7 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
 
 
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 2_000_000,
+                           chunk: int = 500_000,
                            index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
@@ -319,7 +319,7 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     chords truly overlap (a noisy outline whose zigzags are far longer than
     the spacing of its points: the pairs grow as (total length)² / area).
     The exact orientation test then runs vectorised over the candidates, in
-    chunks of ``chunk`` pairs. ``index`` ("x", "y" or "grid") forces one
+    chunks of ``chunk`` pairs (small enough that their temporaries stay near 100 MB). ``index`` ("x", "y" or "grid") forces one
     index (for tests); the answer is the same whichever is used.
 
     >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
