@@ -319,8 +319,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     chords truly overlap (a noisy outline whose zigzags are far longer than
     the spacing of its points: the pairs grow as (total length)² / area).
     The exact orientation test then runs vectorised over the candidates, in
-    chunks of ``chunk`` pairs (small enough that their temporaries stay near 100 MB). ``index`` ("x", "y" or "grid") forces one
-    index (for tests); the answer is the same whichever is used.
+    chunks of ``chunk`` pairs (their temporaries stay near 100 MB). ``index``
+    ("x", "y" or "grid") forces one index (for tests); the answer is the same
+    whichever is used.
 
     >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
     >>> find_self_intersection(bow, [True], 1e-9)
