@@ -1,8 +1,20 @@
-"""Horizontal level tables: speed and agreement, side by side with scipy quad per level.
+"""Level tables: speed and agreement, vertical beside numpy frusta, horizontal beside scipy quad.
 
-Run:  python benchmarks/levels_benchmark.py [--levels N] [--baseline-levels M]
+Run:  python benchmarks/levels_benchmark.py [--levels N] [--baseline-levels M] [--no-quad]
 
 Prints ratios, never absolute promises: the machines are shared and noisy.
+
+Vertical (issue 10's target: within 50× of closed-form frusta for all levels at
+once in numpy): a table of N levels by
+:func:`revolve.geometry.clipping.vertical_levels` through the library (the
+prepared profile in, the pieces split inside the call; best of five), next to
+the plain numpy computation of the same wall's frusta for all levels (cumulative
+frustum volumes and a partial frustum found by ``searchsorted``). The surveyed
+wall is measured drawn as 1001 lines and as one polyline (an (n, 2) array), and
+the corrugated wall of arcs for scale; the lines' volumes are compared with the
+frusta.
+
+Horizontal (target: 1000 levels on 1000 arcs under 0.15 s):
 
 For each profile, a table of N levels (default 1000) from empty to full with
 the axis horizontal, by :func:`revolve.geometry.horizontal.horizontal_levels`
@@ -34,20 +46,35 @@ ROOT = Path(__file__).resolve().parents[1]
 sys.path.insert(0, str(ROOT))
 
 from revolve.geometry.checks import prepare  # noqa: E402
+from revolve.geometry.clipping import vertical_levels  # noqa: E402
 from revolve.geometry.horizontal import horizontal_levels, horizontal_pieces  # noqa: E402
 from revolve.geometry.measure import measure  # noqa: E402
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution  # noqa: E402
-from revolve.geometry.segments import Line, arc_from_radius, curve_from_expressions  # noqa: E402
+from revolve.geometry.segments import (Line, Polyline, arc_from_radius,  # noqa: E402
+                                       curve_from_expressions)
+
+
+def surveyed_wall(n=999, R=1000.0, L=4000.0):
+    """The surveyed tank's wall points (z, r), monotone in z."""
+    z = np.linspace(0.0, L, n + 1)
+    r = R + 5.0 * np.sin(2 * np.pi * z / 500.0) + 2.0 * np.cos(2 * np.pi * z / 130.0)
+    return z, r
 
 
 def surveyed_tank(n=999, R=1000.0, L=4000.0):
-    z = np.linspace(0.0, L, n + 1)
-    r = R + 5.0 * np.sin(2 * np.pi * z / 500.0) + 2.0 * np.cos(2 * np.pi * z / 130.0)
+    z, r = surveyed_wall(n, R, L)
     segs = [Line((0.0, 0.0), (0.0, float(r[0])))]
     segs += [Line((float(z[i]), float(r[i])), (float(z[i + 1]), float(r[i + 1])))
              for i in range(n)]
     segs += [Line((L, float(r[-1])), (L, 0.0)), Line((L, 0.0), (0.0, 0.0))]
     return Profile(loops=(Loop(tuple(segs)),))
+
+
+def surveyed_polyline(n=999, R=1000.0, L=4000.0):
+    """The surveyed tank as one closed polyline: (0, 0), the wall, (L, 0), back to (0, 0)."""
+    z, r = surveyed_wall(n, R, L)
+    pts = np.vstack([[0.0, 0.0], np.column_stack([z, r]), [L, 0.0], [0.0, 0.0]])
+    return Profile(loops=(Loop((Polyline(pts),)),))
 
 
 def corrugated_tank(n=998, R=1000.0, L=4000.0):
@@ -81,21 +108,37 @@ def _segment_area(r, y):
 
 
 class SliceArea:
-    """Σ ± S(r_i(z), y) over the pieces crossing the slice at z (lines and arcs)."""
+    """Σ ± S(r_i(z), y) over the pieces crossing the slice at z (lines and arcs).
+
+    The pieces are split here, independently of the engine's level tables: lines as
+    they are, arcs where z turns back (their angles 0 and π about the centre).
+    """
 
     def __init__(self, prep):
-        from revolve.geometry.slicing import monotone_pieces
-
-        factors = prep.loop_factors
-        pieces = [p for segs, f in zip(prep.paths, factors) for s in segs
-                  for p in monotone_pieces(s, f)]
-        self.lines = np.array([p.params + (p.factor,) for p in pieces if p.kind == "line"]
-                              ).reshape(-1, 5)
-        self.arcs = np.array([p.params + (p.z_from, p.z_to, p.factor)
-                              for p in pieces if p.kind == "arc"]).reshape(-1, 7)
-        if any(p.kind == "curve" for p in pieces):
-            raise ValueError("the baseline handles lines and arcs")
-        self.breaks = np.unique(np.array([[p.z_from, p.z_to] for p in pieces]).ravel())
+        lines, arcs = [], []
+        for segs, f in zip(prep.paths, prep.loop_factors):
+            for seg in segs:
+                if seg.kind == "line":
+                    (z0, r0), (z1, r1) = seg.start, seg.end
+                    if z0 != z1:
+                        lines.append((z0, r0, z1, r1, f))
+                elif seg.kind == "arc":
+                    (cz, cr), R = seg.centre, seg.radius
+                    a0, a1 = seg.angles()
+                    lo, hi = min(a0, a1), max(a0, a1)
+                    cuts = [k * math.pi for k in range(math.ceil(lo / math.pi),
+                                                       math.floor(hi / math.pi) + 1)
+                            if lo < k * math.pi < hi]
+                    angles = [a0] + (cuts if a1 > a0 else cuts[::-1]) + [a1]
+                    for p, q in zip(angles[:-1], angles[1:]):
+                        side = 1.0 if math.sin(0.5 * (p + q)) >= 0 else -1.0
+                        arcs.append((cz, cr, R, side, cz + R * math.cos(p), cz + R * math.cos(q), f))
+                else:
+                    raise ValueError("the baseline handles lines and arcs")
+        self.lines = np.array(lines, dtype=float).reshape(-1, 5)
+        self.arcs = np.array(arcs, dtype=float).reshape(-1, 7)
+        ends = np.concatenate([self.lines[:, [0, 2]].ravel(), self.arcs[:, 4:6].ravel()])
+        self.breaks = np.unique(ends)
 
     def __call__(self, z, y):
         total = 0.0
@@ -129,6 +172,37 @@ def baseline(prep, depths, r_max):
     return np.array(out)
 
 
+def frusta_all_levels(z, r, levels):
+    """Volume below each level of a wall r(z) (z increasing): cumulative frusta in numpy."""
+    dz = np.diff(z)
+    cum = np.concatenate([[0.0], np.cumsum(np.pi * dz * (r[:-1] ** 2 + r[:-1] * r[1:] + r[1:] ** 2) / 3)])
+    i = np.clip(np.searchsorted(z, levels, side="right") - 1, 0, z.size - 2)
+    h = np.clip(levels - z[i], 0.0, dz[i])
+    rc = r[i] + (r[i + 1] - r[i]) / dz[i] * h
+    return cum[i] + np.pi * h * (r[i] ** 2 + r[i] * rc + rc ** 2) / 3
+
+
+def vertical(levels: int) -> None:
+    z, r = surveyed_wall()
+    L = np.linspace(z[0], z[-1], levels)
+    t_ref, ref = best_of(lambda: frusta_all_levels(z, r, L), 20)
+    cap = float(ref[-1])
+    print(f"vertical level tables, {levels} levels each; reference: numpy frusta for all levels "
+          f"({t_ref * 1e3:.3f} ms); target ratio <= 50")
+    print(f"{'profile':44s} {'revolve ms':>10s} {'ratio':>8s} {'max diff / capacity':>20s}")
+    for name, prof, compare in (("surveyed tank, 1001 lines", surveyed_tank(), True),
+                                ("surveyed tank, one 1003-point polyline", surveyed_polyline(), True),
+                                ("corrugated tank, 998 arcs + 3 lines", corrugated_tank(), False)):
+        prep = prepare(prof, Axis.x())
+        try:
+            t, res = best_of(lambda: vertical_levels(prep, L), 5)
+        except TypeError as exc:   # a kind the code under test does not know
+            print(f"{name:44s} {'—':>10s} {'—':>8s}   ({exc})")
+            continue
+        diff = f"{float(np.max(np.abs(res.volume - ref))) / cap:20.1e}" if compare else f"{'—':>20s}"
+        print(f"{name:44s} {t * 1e3:10.2f} {t / t_ref:8.1f} {diff}")
+
+
 def best_of(fn, repeats=3):
     best, out = math.inf, None
     for _ in range(repeats):
@@ -142,14 +216,17 @@ def main(argv=None):
     ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     ap.add_argument("--levels", type=int, default=1000)
     ap.add_argument("--baseline-levels", type=int, default=8)
+    ap.add_argument("--no-quad", action="store_true", help="skip the scipy quad baseline")
     args = ap.parse_args(argv)
+    vertical(args.levels)
+    print()
     cases = [("surveyed tank, 1001 lines", surveyed_tank(), True),
              ("corrugated tank, 998 arcs + 3 lines", corrugated_tank(), True),
              ("2:1 ellipsoidal tank, 4 segments (curves)", ellipsoidal_tank(), False)]
     print(f"horizontal level tables, {args.levels} levels each; baseline: scipy quad per level, "
           f"timed on {args.baseline_levels} levels and scaled")
     print(f"{'profile':44s} {'revolve s':>10s} {'quad s (scaled)':>16s} {'ratio':>8s} "
-          f"{'max diff / capacity':>20s} {'error estimate':>15s}")
+          f"{'max diff / capacity':>20s} {'error estimate':>15s} {'s / 0.15 s':>10s}")
     for name, prof, with_baseline in cases:
         prep = prepare(prof, Axis.x())
         cap = measure(Revolution(prof, Axis.x()), symbolic=False).volume
@@ -160,17 +237,18 @@ def main(argv=None):
             return horizontal_levels(prep, depths, pieces=horizontal_pieces(prep))
 
         t_ours, res = best_of(ours)
-        if with_baseline:
+        target = f"{t_ours / 0.15:10.2f}"
+        if with_baseline and not args.no_quad:
             pick = np.linspace(1, args.levels - 2, args.baseline_levels).astype(int)
             t0 = time.perf_counter()
             ref = baseline(prep, depths[pick], pieces.r_max)
             t_base = (time.perf_counter() - t0) * args.levels / len(pick)
             diff = float(np.max(np.abs(res.volume[pick] - ref))) / cap
             print(f"{name:44s} {t_ours:10.3f} {t_base:16.1f} {t_base / t_ours:8.0f} "
-                  f"{diff:20.1e} {float(res.error.max()) / cap:15.1e}")
+                  f"{diff:20.1e} {float(res.error.max()) / cap:15.1e} {target}")
         else:
             print(f"{name:44s} {t_ours:10.3f} {'—':>16s} {'—':>8s} {'—':>20s} "
-                  f"{float(res.error.max()) / cap:15.1e}")
+                  f"{float(res.error.max()) / cap:15.1e} {target}")
         last = abs(res.volume[-1] / cap - 1)
         mono = bool(np.all(np.diff(res.volume) >= 0))
         print(f"{'':44s} last row / capacity - 1 = {last:.1e}; monotonic: {mono}")

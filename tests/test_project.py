@@ -77,3 +77,20 @@ def test_the_exact_worker_refuses_text():
     t = sympy.Symbol("t", real=True)
     # sympy.integrate of t² on [0, 1] is 1/3 (reference library: sympy, in the worker)
     assert run_sympy([("integrate", t ** 2, t, 0, 1)], 60.0) == [sympy.Rational(1, 3)]
+
+
+def test_version_is_written_in_one_place():
+    # pyproject.toml takes the version from revolve.__version__ (setuptools' dynamic attr);
+    # `revolve --version` prints the same attribute.
+    import importlib.metadata
+
+    import revolve
+
+    text = (ROOT / "pyproject.toml").read_text()
+    assert 'dynamic = ["version"]' in text and "\nversion = " not in text.split("[tool.")[0]
+    assert 'attr = "revolve.__version__"' in text
+    try:
+        installed = importlib.metadata.version("revolve")
+    except importlib.metadata.PackageNotFoundError:
+        return   # run from a checkout on PYTHONPATH: nothing installed to compare
+    assert installed == revolve.__version__

@@ -106,13 +106,14 @@ def save_figure(fig, path: str) -> None:
 # -- the profile --------------------------------------------------------------------
 
 def _sketch_paths(profile, size: float):
-    """Flattened sketch points of every segment, grouped by path."""
-    from revolve.geometry.mesh import flatten_segment
+    """Flattened sketch points of every segment, grouped by path.
 
+    Each segment flattens itself to a chord tolerance of 1/3000 of the
+    profile's size (far below a pixel) through the segment contract
+    (``flatten_to_tolerance``); a polyline gives its own vertices.
+    """
     tol = size / 3000.0
-    # a polyline is its own vertices (straight edges: nothing to flatten)
-    return [[s.flatten() if s.kind == "polyline" else flatten_segment(s, tol) for s in p.segments]
-            for p in profile.paths]
+    return [[s.flatten_to_tolerance(tol) for s in p.segments] for p in profile.paths]
 
 
 def _loop_polygon(pieces: List[np.ndarray]) -> np.ndarray:

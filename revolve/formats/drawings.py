@@ -119,6 +119,9 @@ class PathFound:
         Its number among the profile's loops (or chains), from 1.
     lines, arcs, curves : int
         How many segments of each kind it has.
+    polylines : int
+        How many polyline segments (long runs of straight edges held as one
+        array) it has.
     start : tuple of float
         Its first point, in the profile's coordinates.
     source : str
@@ -133,19 +136,24 @@ class PathFound:
     curves: int
     start: Tuple[float, float]
     source: str
+    polylines: int = 0
 
     def as_dict(self) -> Dict[str, Any]:
         return {"kind": self.kind, "index": self.index, "lines": self.lines, "arcs": self.arcs,
-                "curves": self.curves, "start": list(self.start), "source": self.source}
+                "curves": self.curves, "polylines": self.polylines, "start": list(self.start),
+                "source": self.source}
 
     def describe(self) -> str:
         """One line, e.g. ``loop 1: 3 lines, 1 arc from subpath 1 (character 1)``.
 
         >>> PathFound("loop", 1, 3, 1, 0, (0.0, 0.0), "subpath 1").describe()
         'loop 1: 3 lines, 1 arc; from subpath 1'
+        >>> PathFound("loop", 1, 0, 0, 0, (0.0, 0.0), "LWPOLYLINE #1", polylines=1).describe()
+        'loop 1: 1 polyline; from LWPOLYLINE #1'
         """
         parts = [f"{n} {word}{'' if n == 1 else 's'}"
-                 for n, word in ((self.lines, "line"), (self.arcs, "arc"), (self.curves, "curve"))
+                 for n, word in ((self.lines, "line"), (self.arcs, "arc"), (self.curves, "curve"),
+                                 (self.polylines, "polyline"))
                  if n]
         return f"{self.kind} {self.index}: {', '.join(parts) or 'no segments'}; from {self.source}"
 
@@ -265,10 +273,9 @@ def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> 
         kinds = [s.kind for s in path.segments]
         start = path.segments[0].start if path.segments else (float("nan"), float("nan"))
         target = loops if kind == "loop" else chains
-        lines = kinds.count("line") + sum(s.chord_count() for s in path.segments
-                                          if s.kind == "polyline")    # a polyline's edges
-        target.append(PathFound(kind, len(target) + 1, lines, kinds.count("arc"),
-                                kinds.count("curve"), (float(start[0]), float(start[1])), source))
+        target.append(PathFound(kind, len(target) + 1, kinds.count("line"), kinds.count("arc"),
+                                kinds.count("curve"), (float(start[0]), float(start[1])), source,
+                                kinds.count("polyline")))
     return tuple(loops), tuple(chains)
 
 

@@ -10,7 +10,12 @@ become segments:
 * ``LWPOLYLINE`` and 2-D ``POLYLINE`` straight lines, and exact arcs where a
   vertex has a bulge (bulge = tan(sweep / 4), positive counter-clockwise;
   radius = chord (1 + bulge²) / (4 |bulge|)); a 3-D polyline lying flat is
-  read as lines;
+  read as lines. The vertices are read into one array (an ``LWPOLYLINE``
+  straight from ezdxf's vertex array) and checked all at once; a run of at
+  least :data:`POLYLINE_EDGES` straight edges becomes one polyline segment
+  (:class:`~revolve.geometry.segments.Polyline`, no object per vertex, its
+  place naming the vertices it spans), a shorter run stays lines with their
+  exact decimal ends;
 * ``SPLINE`` exact curve pieces: on each knot span a B-spline is one
   polynomial (a ratio of two polynomials when it has weights), found here by
   the Cox–de Boor recursion and written as a curve in ``t`` from 0 to 1; a
@@ -30,8 +35,9 @@ are joined. Its default (:func:`default_gap_tolerance`) is the larger of
 1e-4 of the drawing's size (the diagonal of its extent) and 0.001 in
 (0.0254 mm) in the drawing's unit -- the rounding CAD exports commonly
 leave -- but never more than 1e-3 of the size. A gap wider than 1e-9 of the size is
-closed by moving the end of a straight line onto the other end, or, between
-two arcs or curves, by a short straight line; each such gap is reported.
+closed by moving a straight end (of a line or a polyline) onto the other end,
+or, between two arcs or curves, by a short straight line; each such gap is
+reported.
 Chains that close become loops; ends that meet nothing are refused unless
 open chains are allowed (a surface only), with the nearest free end and its
 distance in the message. Three or more ends meeting, and a profile crossing
@@ -74,7 +80,7 @@ from __future__ import annotations
 
 import math
 import os
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any, Dict, List, Optional, Sequence, Tuple
 
@@ -85,8 +91,8 @@ from revolve.formats.drawings import (DrawingReport, GapClosed, Skipped, check_f
                                       one_line, separate_strays, summarise_paths)
 from revolve.formats.values import check_length_unit
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
-from revolve.geometry.segments import (Arc, Line, Where, arc_from_centre, arc_from_radius,
-                                       curve_from_expressions)
+from revolve.geometry.segments import (Arc, Line, Polyline, Where, arc_from_centre,
+                                       arc_from_radius, curve_from_expressions)
 
 #: Gap tolerance for chaining, as a fraction of the drawing's size, unless one is given ...
 DEFAULT_RELATIVE_TOLERANCE = 1e-4
@@ -105,6 +111,9 @@ MAX_BLOCK_DEPTH = 8
 MAX_ENTITIES = 100_000
 #: Highest spline degree read exactly.
 MAX_SPLINE_DEGREE = 5
+#: A drawing polyline's run of at least this many straight edges is read as one polyline
+#: segment (one array); shorter runs stay lines, each with its exact decimal ends.
+POLYLINE_EDGES = 64
 
 #: $INSUNITS codes of the DXF reference and the unit names revolve uses for them.
 INSUNITS = {1: "in", 2: "ft", 4: "mm", 5: "cm", 6: "m", 7: "km", 9: "mil", 10: "yd",
@@ -340,15 +349,17 @@ def _entity_segments(entity, label: str, file: Optional[str]) -> List[Any]:
     if kind == "ELLIPSE":
         return _ellipse(entity, where)
     if kind == "LWPOLYLINE":
+        import numpy as np
+
         sign = _plane_sign(entity)
         if sign is None:
             raise _Unsupported("it is not drawn in the XY plane")
-        ocs = entity.ocs()
         z = _value(entity.dxf.get("elevation", 0.0), "the elevation")
-        vertices = [(_xy(ocs.to_wcs((_value(x, "an x coordinate"), _value(y, "a y coordinate"),
-                                     z))), _value(b, "a bulge") * sign)
-                    for x, y, b in entity.get_points("xyb")]
-        return _polyline(vertices, bool(entity.closed), label, file)
+        # x, y, start width, end width, bulge: ezdxf keeps the vertices as one array
+        table = np.asarray(entity.lwpoints.values, dtype=float).reshape(-1, 5)
+        _check_columns(table[:, [0, 1, 4]], ("x coordinate", "y coordinate", "bulge"))
+        xy = _ocs_to_wcs(entity.ocs(), table[:, 0], table[:, 1], z)
+        return _polyline(xy, table[:, 4] * sign, bool(entity.closed), label, file)
     if kind == "POLYLINE":
         return _old_polyline(entity, label, file)
     if kind == "SPLINE":
@@ -356,43 +367,119 @@ def _entity_segments(entity, label: str, file: Optional[str]) -> List[Any]:
     raise _Unsupported(_SKIP_REASONS.get(kind, f"{kind} entities are not read"))
 
 
-def _polyline(vertices, closed: bool, label: str, file) -> List[Any]:
-    segments = []
-    count = len(vertices)
+def _check_columns(table, names: Sequence[str]) -> None:
+    """Every number of a vertex table finite and within range, or the first bad one named.
+
+    >>> import numpy as np
+    >>> _check_columns(np.array([[0.0, 1.0], [2.0, float("inf")]]), ("x coordinate", "y coordinate"))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: the y coordinate of vertex 2 is inf, not a finite number
+    """
+    import numpy as np
+
+    bad = ~(np.abs(table) <= MAX_COORDINATE)   # nan too
+    if bad.any():
+        row, col = divmod(int(np.argmax(bad.ravel())), table.shape[1])
+        checked_number(table[row, col], f"the {names[col]} of vertex {row + 1}")
+
+
+def _ocs_to_wcs(ocs, x, y, z):
+    """Sketch x and y of vertices given in an entity's object coordinates, shape (n, 2).
+
+    The columns of ``ocs.ux``, ``ocs.uy``, ``ocs.uz`` (ezdxf's arbitrary axis
+    algorithm) applied to all vertices at once; ``z`` is the elevation (one
+    number, or one per vertex). Zero and unit factors are skipped, so the
+    usual extrusions (0, 0, ±1) keep every coordinate exact.
+    """
+    import numpy as np
+
+    from revolve.geometry.segments import map_points
+
+    ux, uy, uz = ocs.ux, ocs.uy, ocs.uz
+    xy = map_points(np.column_stack([x, y]), (ux[0], uy[0], ux[1], uy[1]))
+    z = np.asarray(z, dtype=float)
+    if np.any(z != 0):
+        xy[:, 0] += uz[0] * z
+        xy[:, 1] += uz[1] * z
+    _check_columns(xy, ("x coordinate", "y coordinate"))
+    return xy
+
+
+def _polyline(xy, bulge, closed: bool, label: str, file) -> List[Any]:
+    """Segments of a drawing polyline: vertices ``xy`` (n, 2), ``bulge[i]`` on the edge from vertex i.
+
+    Zero-length edges are left out. Runs of at least :data:`POLYLINE_EDGES`
+    straight edges become one :class:`Polyline`; shorter runs give lines (with
+    exact decimal ends when the bulge is exactly 0); a bulge gives an arc.
+
+    >>> import numpy as np
+    >>> segs = _polyline(np.array([[0.0, 0], [1, 0], [1, 1], [1, 1]]), np.array([0.0, 1, 0, 0]),
+    ...                  False, "LWPOLYLINE #1", None)
+    >>> [s.kind for s in segs], str(segs[1].where)
+    (['line', 'arc'], 'LWPOLYLINE #1, vertex 2')
+    >>> t = np.linspace(0, 1, 101)
+    >>> segs = _polyline(np.column_stack([t, t * t]), np.zeros(101), False, "LWPOLYLINE #2", None)
+    >>> segs, str(segs[0].where)
+    ([Polyline(101 points from (0.0, 0.0) to (1.0, 1.0), face=None)], 'LWPOLYLINE #2, vertices 1 to 101')
+    """
+    import numpy as np
+
+    xy = np.asarray(xy, dtype=float).reshape(-1, 2)
+    bulge = np.asarray(bulge, dtype=float).reshape(-1)
+    count = len(xy)
     if count < 2:
         raise _Unsupported("it has fewer than two vertices")
-    last = count if closed else count - 1
-    for i in range(last):
-        (p0, bulge), (p1, _) = vertices[i], vertices[(i + 1) % count]
-        if p0 == p1:
-            continue
-        where = Where(file, None, f"{label}, vertex {i + 1}")
-        if bulge == 0:
-            segments.append(Line(p0, p1, where=where, exact=_dec_point(p0) + _dec_point(p1)))
-        else:
-            segments.append(bulge_arc(p0, p1, bulge, where=where))
-    if not segments:
+    first = np.arange(count if closed else count - 1)
+    second = (first + 1) % count
+    kept = np.flatnonzero(np.any(xy[first] != xy[second], axis=1))
+    if not kept.size:
         raise _Unsupported("every vertex is at the same point")
+    straight = np.abs(bulge[first[kept]]) <= BULGE_STRAIGHT
+    # runs of kept edges that are all straight or all bulged
+    cuts = np.flatnonzero(straight[1:] != straight[:-1]) + 1
+    segments: List[Any] = []
+    for run in np.split(np.arange(kept.size), cuts):
+        edges = kept[run]
+        if straight[run[0]] and len(edges) >= POLYLINE_EDGES:
+            pts = np.vstack([xy[first[edges[:1]]], xy[second[edges]]])
+            v0, v1 = int(first[edges[0]]) + 1, int(second[edges[-1]]) + 1
+            span = f"vertices {v0} to {v1}" if v1 > v0 else \
+                f"vertices {v0} to {count} and back to {v1}"
+            segments.append(Polyline(pts, where=Where(file, None, f"{label}, {span}"),
+                                     first_edge=int(first[edges[0]])))
+            continue
+        for i in edges.tolist():
+            p0 = (float(xy[first[i], 0]), float(xy[first[i], 1]))
+            p1 = (float(xy[second[i], 0]), float(xy[second[i], 1]))
+            where = Where(file, None, f"{label}, vertex {i + 1}")
+            if bulge[i] == 0:
+                segments.append(Line(p0, p1, where=where, exact=_dec_point(p0) + _dec_point(p1)))
+            else:
+                segments.append(bulge_arc(p0, p1, float(bulge[i]), where=where))
     return segments
 
 
 def _old_polyline(entity, label: str, file) -> List[Any]:
+    import numpy as np
+
     if entity.is_poly_face_mesh or entity.is_polygon_mesh:
         raise _Unsupported("a polygon mesh or polyface is not a profile")
     vertices = [v for v in entity.vertices if not (v.dxf.get("flags", 0) & 16)]
+    # ezdxf holds each vertex as an entity: gather their numbers into one array
+    table = np.array([tuple(v.dxf.location)[:3] + (v.dxf.get("bulge", 0.0),) for v in vertices],
+                     dtype=float).reshape(-1, 4)
+    _check_columns(table, ("x coordinate", "y coordinate", "z coordinate", "bulge"))
     if entity.is_2d_polyline:
         sign = _plane_sign(entity)
         if sign is None:
             raise _Unsupported("it is not drawn in the XY plane")
-        ocs = entity.ocs()
-        pts = [(_xy(ocs.to_wcs(_xyz(v.dxf.location))),
-                _value(v.dxf.get("bulge", 0.0), "a bulge") * sign) for v in vertices]
-    else:
-        zs = [_value(v.dxf.location[2], "a z coordinate") for v in vertices]
-        if zs and max(zs) - min(zs) > 1e-9 * max(1.0, max(abs(z) for z in zs)):
-            raise _Unsupported("a 3-D polyline that does not lie flat")
-        pts = [(_xy(v.dxf.location), 0.0) for v in vertices]
-    return _polyline(pts, bool(entity.is_closed), label, file)
+        xy = _ocs_to_wcs(entity.ocs(), table[:, 0], table[:, 1], table[:, 2])
+        return _polyline(xy, table[:, 3] * sign, bool(entity.is_closed), label, file)
+    zs = table[:, 2]
+    if len(zs) and zs.max() - zs.min() > 1e-9 * max(1.0, float(np.abs(zs).max())):
+        raise _Unsupported("a 3-D polyline that does not lie flat")
+    return _polyline(table[:, :2], np.zeros(len(table)), bool(entity.is_closed), label, file)
 
 
 def _ellipse(entity, where: Where) -> List[Any]:
@@ -460,8 +547,10 @@ def _spline(entity, label: str, file) -> List[Any]:
     rational = bool(weights) and max(weights) - min(weights) > 1e-15 * max(weights)
     scale = max(max(abs(p[0]), abs(p[1])) for p in control) or 1.0
     if degree == 1:  # straight lines between the control points
-        pts = [(_xy(p), 0.0) for p in control]
-        return _polyline(pts, False, label, file)
+        import numpy as np
+
+        pts = np.array([_xy(p) for p in control], dtype=float)
+        return _polyline(pts, np.zeros(len(pts)), False, label, file)
     pieces = bezier_pieces(control, knots, degree, weights if rational else None)
     if not pieces:
         raise _Unsupported("its knot vector has no span of positive length")
@@ -519,14 +608,6 @@ def _distance(p, q) -> float:
     return math.hypot(p[0] - q[0], p[1] - q[1])
 
 
-def _with_start(line: Line, p) -> Line:
-    return replace(line, start=p, exact=None)
-
-
-def _with_end(line: Line, p) -> Line:
-    return replace(line, end=p, exact=None)
-
-
 def _join(path: List[Any], nxt: List[Any], labels: Tuple[str, str], tiny: float,
           gaps: List[GapClosed], file) -> None:
     """Make ``nxt`` start where ``path`` ends: a gap is closed on a line, or bridged."""
@@ -535,11 +616,13 @@ def _join(path: List[Any], nxt: List[Any], labels: Tuple[str, str], tiny: float,
     if gap == 0:
         return
     how = None
-    if isinstance(path[-1], Line) and _distance(path[-1].start, b) > 0:
-        path[-1] = _with_end(path[-1], b)
+    moved_end = path[-1].with_end_moved(b)
+    moved_start = None if moved_end is not None else nxt[0].with_end_moved(a, at_start=True)
+    if moved_end is not None:
+        path[-1] = moved_end
         how = "moved the end of the straight line"
-    elif isinstance(nxt[0], Line) and _distance(a, nxt[0].end) > 0:
-        nxt[0] = _with_start(nxt[0], a)
+    elif moved_start is not None:
+        nxt[0] = moved_start
         how = "moved the end of the straight line"
     elif gap > tiny:
         nxt.insert(0, Line(a, b, where=Where(file, None,
@@ -1000,38 +1083,47 @@ def _hint(skipped: List[Skipped]) -> str:
     return f" (skipped: {first.what}: {first.reason}{more})"
 
 
+def _flat(piece: _Piece):
+    """The piece's points along every segment (the contract's ``flatten``), shape (m, 2)."""
+    import numpy as np
+
+    return np.vstack([s.flatten() for s in piece.segments])
+
+
 def _size(pieces: List[_Piece]) -> float:
-    xs, ys = [], []
-    for piece in pieces:
-        for s in piece.segments:
-            for p in (s.start, s.end, s.point_at(0.5)):
-                xs.append(p[0])
-                ys.append(p[1])
-    return math.hypot(max(xs) - min(xs), max(ys) - min(ys))
+    import numpy as np
+
+    boxes = np.array([[f.min(axis=0), f.max(axis=0)] for f in map(_flat, pieces)])
+    lo, hi = boxes[:, 0].min(axis=0), boxes[:, 1].max(axis=0)
+    return math.hypot(float(hi[0] - lo[0]), float(hi[1] - lo[1]))
 
 
 def _key(piece: _Piece):
+    """What makes two pieces exact duplicates: the same kinds through the same points.
+
+    Each segment's flattened points, in the direction that starts at the
+    smaller end, rounded to 1e-12 of their size (so one drawn backwards
+    matches), as bytes: one object per segment, none per vertex.
+    """
+    import numpy as np
+
     parts = []
     for s in piece.segments:
-        ends = tuple(sorted((s.start, s.end)))
-        if isinstance(s, Arc):
-            extra: Any = s.centre
-        elif isinstance(s, Line):
-            extra = None
-        else:
-            extra = (s.point_at(0.25), s.point_at(0.5), s.point_at(0.75))
-            extra = tuple(sorted(extra))
-        parts.append((s.kind, ends, extra))
-    return tuple(sorted(parts, key=repr))
+        pts = s.flatten()
+        if tuple(pts[0]) > tuple(pts[-1]):
+            pts = pts[::-1]
+        scale = float(np.abs(pts).max()) or 1.0
+        parts.append((s.kind, (np.round(pts / scale, 12) + 0.0).tobytes()))
+    return tuple(sorted(parts))
 
 
 def _remove_duplicates_and_specks(pieces: List[_Piece], tolerance: float):
     seen: Dict[Any, str] = {}
     kept, skipped = [], []
     for piece in pieces:
-        pts = [p for s in piece.segments for p in (s.start, s.end, s.point_at(0.5))]
-        xs, ys = [p[0] for p in pts], [p[1] for p in pts]
-        if math.hypot(max(xs) - min(xs), max(ys) - min(ys)) <= tolerance:
+        pts = _flat(piece)
+        extent = pts.max(axis=0) - pts.min(axis=0)
+        if math.hypot(float(extent[0]), float(extent[1])) <= tolerance:
             skipped.append(Skipped(piece.label, f"it is smaller than the gap tolerance "
                                                 f"{tolerance:.3g}"))
             continue

@@ -1,10 +1,15 @@
 '''Writing a profile as the project's profile file (TOML).
 
 The writer is the reader's inverse: ``load_profile(write_profile(x))``
-rebuilds the same geometry, float for float. Lines are written as
-``line_to`` (the last line of a loop that returns to its start as
-``close = true``), arcs as ``arc_to`` with ``centre`` and ``turn``, curves as
-parametric ``x``/``y`` expressions of ``t``. Where a segment carries its exact
+rebuilds the same geometry, float for float. Every segment kind tells the
+writer what it is through the segment contract (``describe_to``, with three
+primitives: straight edges through points, an arc, a curve), so the writer
+never asks which kind it holds. Straight edges are written as ``line_to``
+(the last one of a loop that returns to its start as ``close = true``): a
+line is one, a polyline one per edge (the file has no form for a list of
+points, so it reads back as lines through the same vertices); arcs as
+``arc_to`` with ``centre`` and ``turn``, curves as parametric ``x``/``y``
+expressions of ``t``. Where a segment carries its exact
 inputs (as the readers set them) and they agree with its floats, those are
 written instead (an arc given by its radius keeps its radius and side), so
 exact results survive a round trip too. Floats are written with Python's
@@ -51,7 +56,7 @@ from revolve.formats.profile_file import CURVE_START_TOLERANCE, ORIENTATIONS
 from revolve.formats.values import (describe, exact_literal, exact_to_float, expression_text,
                                     float_literal, toml_string)
 from revolve.geometry.profile import Axis, Profile
-from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, arc_from_radius
+from revolve.geometry.segments import Arc, arc_from_centre, arc_from_radius
 
 _HEADER = "# Profile file of revolve; every coordinate is in the units below."
 
@@ -213,25 +218,69 @@ def _axis_lines(axis: Axis) -> List[str]:
 
 
 def _size(profile: Profile) -> float:
-    xs: List[float] = []
-    ys: List[float] = []
-    for seg in profile.segments():
-        for px, py in (seg.start, seg.end):
-            xs.append(px)
-            ys.append(py)
-    if not xs:
+    """Diagonal of the box of the profile's flattened points (0 for an empty profile)."""
+    import numpy as np
+
+    pts = [seg.flatten() for seg in profile.segments()]
+    if not pts:
         return 0.0
-    return math.hypot(max(xs) - min(xs), max(ys) - min(ys))
+    allpts = np.vstack(pts)
+    lo, hi = allpts.min(axis=0), allpts.max(axis=0)
+    return math.hypot(float(hi[0] - lo[0]), float(hi[1] - lo[1]))
 
 
-def _start_exact(seg) -> Optional[Tuple]:
-    if seg.exact is None:
-        return None
-    if isinstance(seg, Line):
-        return tuple(seg.exact[:2])
-    if isinstance(seg, Arc):
-        return tuple(seg.exact[1])
-    return None
+class _PathText:
+    """The records of one loop or chain, written as each segment describes itself.
+
+    A segment calls one of the primitives below from its ``describe_to``
+    (part of the segment contract): ``straight`` for straight edges through
+    points, ``arc``, ``curve``. ``current`` is where the path has reached;
+    ``loop_start`` is set while the last segment of a loop is described, so
+    that a straight edge back to the start is written ``close = true``.
+    """
+
+    def __init__(self, start) -> None:
+        self.current = start
+        self.start_exact: Optional[Tuple] = None
+        self.described = False
+        self.loop_start = None
+        self.face: Optional[str] = None
+        self.place = ""
+        self.records: List[str] = []
+
+    def _begin(self, exact_start) -> None:
+        if not self.described:
+            self.start_exact = None if exact_start is None else tuple(exact_start)
+            self.described = True
+
+    def _add(self, body: str) -> None:
+        if self.face is not None:
+            body += f", face = {toml_string(self.face)}"
+        self.records.append(f"  {{ {body} }},")
+
+    def straight(self, points, exact=None) -> None:
+        """Straight edges from ``points[0]`` through every later point (exact pairs, or None)."""
+        rows = points.tolist() if hasattr(points, "tolist") else [list(p) for p in points]
+        self._begin(None if exact is None else exact[0])
+        last = len(rows) - 1
+        for i in range(1, len(rows)):
+            end = (float(rows[i][0]), float(rows[i][1]))
+            if i == last and self.loop_start is not None and end == self.loop_start:
+                self._add("close = true")
+            else:
+                self._add(f"line_to = {_pair(None if exact is None else exact[i], end)}")
+        self.current = (float(rows[last][0]), float(rows[last][1]))
+
+    def arc(self, start, end, centre, clockwise, exact=None, where=None) -> None:
+        """A circular arc to ``end`` about ``centre`` (exact inputs as the arc keeps them)."""
+        self._begin(None if exact is None else exact.start)
+        self._add(_arc_body(end, centre, clockwise, exact, where, self.current))
+        self.current = end
+
+    def curve(self, x_expr, y_expr, t_start, t_end, exact=None) -> None:
+        """A parametric curve ``(x(t), y(t))`` for ``t`` from ``t_start`` to ``t_end``."""
+        self._begin(None)
+        self._add(_curve_body(x_expr, y_expr, t_start, t_end, exact, self.place))
 
 
 def _edges(segments):
@@ -254,75 +303,57 @@ def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
     if not segments:
         raise ProfileError(f"{kind} {index} has no segments; there is nothing to write")
     start = segments[0].start
-    lines = [f"[[{kind}]]", f"start = {_pair(_start_exact(segments[0]), start)}",
-             "segments = ["]
-    current = start
+    text = _PathText(start)
     for j, seg in enumerate(segments, 1):
+        current = text.current
         gap = math.hypot(seg.start[0] - current[0], seg.start[1] - current[1])
         if gap > CURVE_START_TOLERANCE * size:
             raise ProfileError(f"segment {j} starts at {seg.start} but the previous one ends at "
                                f"{current}; a profile file cannot hold a gap",
                                place=f"{kind} {index}, segment {j}")
-        closing = kind == "loop" and j == len(segments)
-        body = _segment_body(seg, current, start if closing else None,
-                             place=f"{kind} {index}, segment {j}")
-        if seg.face is not None:
-            body += f", face = {toml_string(seg.face)}"
-        lines.append(f"  {{ {body} }},")
-        current = seg.end
-    lines.append("]")
-    return lines
+        text.place = f"{kind} {index}, segment {j}"
+        text.loop_start = start if kind == "loop" and j == len(segments) else None
+        text.face = seg.face
+        seg.describe_to(text)
+        text.current = seg.end
+    return ([f"[[{kind}]]", f"start = {_pair(text.start_exact, start)}", "segments = ["]
+            + text.records + ["]"])
 
 
-def _segment_body(seg, current, loop_start, place: str) -> str:
-    if isinstance(seg, Line):
-        if loop_start is not None and seg.end == loop_start:
-            return "close = true"
-        exact = seg.exact[2:] if seg.exact is not None else None
-        return f"line_to = {_pair(exact, seg.end)}"
-    if isinstance(seg, Arc):
-        return _arc_body(seg, current)
-    if isinstance(seg, Curve):
-        return _curve_body(seg, place)
-    raise TypeError(f"cannot write a segment of type {type(seg).__name__}")
-
-
-def _arc_body(arc: Arc, current) -> str:
-    exact = arc.exact
+def _arc_body(end, centre, clockwise: bool, exact, where, current) -> str:
     if exact is not None and exact[0] == "radius":
         _, _, e1, radius, side, major = exact
         try:
             radius_value: Optional[float] = exact_to_float(radius)
         except (TypeError, ValueError, ArithmeticError, ExpressionError):
             radius_value = None
-        if radius_value is not None and _agrees(e1[0], arc.end[0]) and _agrees(e1[1], arc.end[1]):
+        if radius_value is not None and _agrees(e1[0], end[0]) and _agrees(e1[1], end[1]):
             try:
-                again: Optional[Arc] = arc_from_radius(current, arc.end, radius_value,
+                again: Optional[Arc] = arc_from_radius(current, end, radius_value,
                                                        side=side, major=major)
             except ProfileError:
                 again = None
-            if again is not None and again.centre == arc.centre \
-                    and again.clockwise == arc.clockwise:
-                text = (f"arc_to = {_pair(e1, arc.end)}, radius = {exact_literal(radius)}, "
+            if again is not None and again.centre == centre and again.clockwise == clockwise:
+                text = (f"arc_to = {_pair(e1, end)}, radius = {exact_literal(radius)}, "
                         f'side = "{side}"')
                 return text + (", major = true" if major else "")
     end_exact = centre_exact = None
-    if exact is not None and exact[0] == "centre" and bool(exact[4]) == arc.clockwise:
+    if exact is not None and exact[0] == "centre" and bool(exact[4]) == clockwise:
         end_exact, centre_exact = exact[2], exact[3]
     # the reader rebuilds the arc with these checks; fail here rather than write a bad file
-    arc_from_centre(current, arc.end, arc.centre, arc.clockwise, where=arc.where)
-    return (f"arc_to = {_pair(end_exact, arc.end)}, centre = {_pair(centre_exact, arc.centre)}, "
-            f'turn = "{"cw" if arc.clockwise else "ccw"}"')
+    arc_from_centre(current, end, centre, clockwise, where=where)
+    return (f"arc_to = {_pair(end_exact, end)}, centre = {_pair(centre_exact, centre)}, "
+            f'turn = "{"cw" if clockwise else "ccw"}"')
 
 
-def _curve_body(curve: Curve, place: str) -> str:
+def _curve_body(x_expr, y_expr, t_start: float, t_end: float, exact, place: str) -> str:
     import sympy
 
     from revolve.expr import parse_expression
 
     t = sympy.Symbol("t", real=True)
     texts = []
-    for expr in (curve.x_expr, curve.y_expr):
+    for expr in (x_expr, y_expr):
         if isinstance(expr, (int, float)):
             expr = sympy.Integer(expr) if isinstance(expr, int) else sympy.Float(expr)
         expr = expr.xreplace({s: t for s in expr.free_symbols if s.name == "t"})
@@ -337,6 +368,6 @@ def _curve_body(curve: Curve, place: str) -> str:
             raise FormatError(f"cannot write the curve expression {expr} ({exc})",
                               place=place) from None
         texts.append(text)
-    exact = curve.exact or (None, None)
+    exact = exact or (None, None)
     return (f"x = {toml_string(texts[0])}, y = {toml_string(texts[1])}, "
-            f"t_from = {_number(exact[0], curve.t_start)}, t_to = {_number(exact[1], curve.t_end)}")
+            f"t_from = {_number(exact[0], t_start)}, t_to = {_number(exact[1], t_end)}")

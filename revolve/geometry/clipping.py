@@ -8,9 +8,11 @@ below the plane is the revolution of the part of the section below that
 line. This module builds that part exactly and measures it:
 
 * :func:`clip_section` returns the clipped section as a prepared profile.
-  Lines are cut into lines, arcs into arcs about the same centre, curves into
-  the same curve on a shorter parameter interval (the cut parameter found by
-  bisection on the parameter, to the last bit). Where the boundary leaves the
+  Each segment gives its own part below the level (its kind's
+  ``part_below``): lines are cut into lines, polylines into runs of the same
+  array, arcs into arcs about the same centre, curves into the same curve on
+  a shorter parameter interval (the cut parameter found by bisection on the
+  parameter, to the last bit). Where the boundary leaves the
   half plane ``z <= level`` and comes back, a straight cut is added along the
   line ``z = level`` (the liquid surface, for a vessel). This is the
   half-plane step of Sutherland–Hodgman clipping, which stays exact for a
@@ -20,13 +22,17 @@ line. This module builds that part exactly and measures it:
 * Pappus–Guldinus on the clipped section (volume = 2π ∫∫ r dA) is the
   volume below the level; the swept area of the original boundary below the
   level (2π ∫ r ds, the cuts left out) is the wetted inside surface.
-* :func:`vertical_levels` does the same for many levels at once, vectorised
-  over levels and segment pieces, with the closed forms of sub-lines and
-  sub-arcs written out (and cumulative Gauss–Legendre sums for curves), so a
-  level table of a thousand rows costs a few numpy passes.
+* :func:`vertical_levels` does the same for many levels at once: a piece
+  wholly below a level counts whole (the whole pieces' sums, sorted by their
+  tops, are accumulated once), and only the pieces a level crosses are cut,
+  with the closed forms of sub-lines and sub-arcs (and cumulative
+  Gauss–Legendre sums for curves). A table of a thousand levels on a
+  thousand lines costs a few sorts and a few thousand closed forms.
 
-A segment is first split into *pieces* along which ``z`` moves one way only
-(:func:`axial_pieces`); each such piece crosses a level at most once.
+Each kind gives its segments as a table of *pieces* along which ``z`` moves
+one way only (its ``axial_level_table``: straight, circular or parametric
+rows, see :func:`axial_pieces`); each piece crosses a level at most once. No
+algorithm here asks which kind a segment is.
 
 Both computations use Green's theorem in the form ``∫∫ r dA = -½ ∮ r² dz``,
 with ``r`` measured from a reference radius ``r₀`` near the bottom
@@ -75,14 +81,14 @@ A level below the section leaves nothing:
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
-from typing import List, Optional, Sequence, Tuple
+from dataclasses import dataclass
+from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
-from revolve.geometry.segments import Arc, Curve, Line, Segment
-from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
+from revolve.geometry.segments import Line, Segment
+from revolve.geometry.slicing import gauss_legendre
 
 #: Face name given to the straight cuts along the level (the liquid surface of a vessel).
 CUT_FACE = "cut at the level"
@@ -90,61 +96,187 @@ CUT_FACE = "cut at the level"
 TWO_PI = 2.0 * math.pi
 
 
-# -- splitting segments into pieces monotone along the axis ----------------------------
+# -- pieces monotone along the axis, as tables of rows ---------------------------------
+#
+# Each segment kind turns its segments into one of the tables below through its class
+# method ``axial_level_table`` (see revolve/geometry/kinds/*.py): lines and polyline edges
+# become straight rows, arcs circular rows, and anything else parametric rows, which use
+# only the segment contract (points_at, tangents_at). Every table answers the same
+# questions, vectorised over its rows: the whole pieces' sums and the sums of the parts
+# below given levels. The algorithms below never ask which kind a segment is.
 
-def _arc_cut_angles(arc: Arc, step: float) -> List[float]:
-    """Angles strictly inside the arc's sweep that are multiples of ``step``, in travel order."""
-    a0, a1 = arc.angles()
-    lo, hi = min(a0, a1), max(a0, a1)
-    cuts = [k * step for k in range(math.ceil(lo / step), math.floor(hi / step) + 1)
-            if lo < k * step < hi]
-    return cuts if a1 > a0 else cuts[::-1]
+def parameters_at_values(seg, pa: float, pb: float, targets, coordinate: int = 0,
+                         iterations: int = 70) -> np.ndarray:
+    """Parameters in [pa, pb] where ``seg`` (monotone in ``coordinate`` there) reaches each target.
 
+    Vectorised bisection on the segment contract (:meth:`points_at`), for any kind.
 
-def split_arc(arc: Arc, step: float) -> List[Tuple[float, float]]:
-    """The arc's angle range cut at the multiples of ``step``: [(from, to), ...] in travel order.
-
-    ``step = π`` splits where ``z`` turns back, ``π/2`` also where ``r`` does.
-
-    >>> from revolve.geometry.segments import arc_from_centre
-    >>> a = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
-    >>> [(round(p, 12), round(q, 12)) for p, q in split_arc(a, math.pi / 2)]
-    [(0.0, 1.570796326795), (1.570796326795, 3.14159265359)]
+    >>> import sympy
+    >>> from revolve.geometry.segments import Curve
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = Curve(t ** 2, t, 0.0, 2.0)
+    >>> [round(float(v), 12) for v in parameters_at_values(c, 0.0, 2.0, [1.0, 4.0])]
+    [1.0, 2.0]
+    >>> [round(float(v), 12) for v in parameters_at_values(c, 0.0, 2.0, [0.5], coordinate=1)]
+    [0.5]
     """
-    a0, a1 = arc.angles()
-    angles = [a0] + _arc_cut_angles(arc, step) + [a1]
-    return [(p, q) for p, q in zip(angles[:-1], angles[1:]) if p != q]
+    targets = np.asarray(targets, dtype=float)
+    ends = seg.points_at([pa, pb])[:, coordinate]
+    rising = float(ends[1]) > float(ends[0])
+    lo = np.full(targets.shape, pa, dtype=float)
+    hi = np.full(targets.shape, pb, dtype=float)
+    for _ in range(iterations):
+        mid = 0.5 * (lo + hi)
+        with np.errstate(all="ignore"):
+            value = seg.points_at(mid.ravel())[:, coordinate].reshape(mid.shape)
+        below = (value < targets) if rising else (value > targets)
+        lo = np.where(below, mid, lo)
+        hi = np.where(below, hi, mid)
+    return 0.5 * (lo + hi)
 
 
-def split_curve(curve: Curve, which: Sequence[int]) -> List[Tuple[float, float]]:
-    """The curve's parameter interval cut where ``dz/dt`` (2) and/or ``dr/dt`` (3) turn."""
-    ts = sorted(set(t for w in which for t in curve.turning_parameters(w - 2)),
-                reverse=curve.t_end < curve.t_start)
-    ts = [curve.t_start] + ts + [curve.t_end]
-    return [(p, q) for p, q in zip(ts[:-1], ts[1:]) if p != q]
+class StraightPieces:
+    """Straight pieces: rows ``z0, r0, z1, r1`` in travel order, with their loop factors.
+
+    Lines give one row each, a polyline one row per edge (see ``axial_level_table``).
+
+    >>> t = StraightPieces(np.array([[0.0, 1.0, 2.0, 1.0]]), np.array([1.0]))
+    >>> t.full(1.0).tolist()                       # a cylinder wall at r = 1 from z = 0 to 2
+    [[-0.0, -0.0, 2.0]]
+    >>> t.partial(np.array([0]), np.array([0.5]), 0.0).tolist()
+    [[-0.5, -0.25, 0.5]]
+    """
+
+    def __init__(self, rows: np.ndarray, factor: np.ndarray):
+        self.rows = np.asarray(rows, dtype=float).reshape(-1, 4)
+        self.factor = np.asarray(factor, dtype=float).reshape(-1)
+        self.ends = self.rows
+
+    def full(self, r_ref: float) -> np.ndarray:
+        """Area, ∫∫ (r - r_ref) dA and ∫ r ds of whole pieces (Green with dz only), (n, 3)."""
+        z0, r0, z1, r1 = self.rows.T
+        a, m, _ = _line_piece(z0, r0 - r_ref, z1, r1 - r_ref, 0.0)
+        _, _, rd = _line_piece(z0, r0, z1, r1, 0.0)
+        return np.column_stack([a, m, rd])
+
+    def partial(self, rows: np.ndarray, levels: np.ndarray, r_ref: float) -> np.ndarray:
+        """The same for the part of piece ``rows[k]`` below ``levels[k]`` (crossing inside)."""
+        z0, r0, z1, r1 = self.rows[rows].T
+        rising = z1 > z0
+        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
+        rlo, rhi = np.where(rising, r0, r1), np.where(rising, r1, r0)
+        # the radius at the cut, from the lower end and measured from r_ref (never formed
+        # as r itself, which would round away a sliver's width)
+        rc_ref = (rlo - r_ref) + (levels - zlo) / (zhi - zlo) * (rhi - rlo)
+        za = np.where(rising, z0, levels)
+        ra = np.where(rising, r0 - r_ref, rc_ref)
+        zb = np.where(rising, levels, z1)
+        rb = np.where(rising, rc_ref, r1 - r_ref)
+        a, m, _ = _line_piece(za, ra, zb, rb, 0.0)
+        _, _, rd = _line_piece(za, ra + r_ref, zb, rb + r_ref, 0.0)
+        return np.column_stack([a, m, rd])
+
+    def error(self, r_ref: float) -> float:
+        return 0.0
+
+
+class CircularPieces:
+    """Arc pieces monotone in z: rows ``cz, cr, R, angle from, angle to, z0, r0, z1, r1``.
+
+    The end points are the segment's own (or the exact quadrant points where an arc
+    was split), so neighbouring pieces join exactly.
+
+    >>> half = CircularPieces(np.array([[0.0, 0.0, 1.0, 0.0, math.pi, 1.0, 0.0, -1.0, 0.0]]),
+    ...                       np.array([1.0]))
+    >>> a, m, rds = half.full(0.0)[0]          # half disc: π/2, 2/3, and 2 (a sphere's 4π/2π)
+    >>> [round(float(v), 12) for v in (a - math.pi / 2, m, rds)]
+    [0.0, 0.666666666667, 2.0]
+    """
+
+    def __init__(self, rows: np.ndarray, factor: np.ndarray):
+        self.rows = np.asarray(rows, dtype=float).reshape(-1, 9)
+        self.factor = np.asarray(factor, dtype=float).reshape(-1)
+        self.ends = self.rows[:, 5:9]
+
+    def full(self, r_ref: float) -> np.ndarray:
+        cz, cr, R, a0, a1, z0, r0, z1, r1 = self.rows.T
+        a, m, rd = _arc_piece(cr - r_ref, R, a0, a1, z0, r0 - r_ref, z1, r1 - r_ref, r_ref,
+                              shifted=True)
+        return np.column_stack([a, m, rd])
+
+    def partial(self, rows: np.ndarray, levels: np.ndarray, r_ref: float) -> np.ndarray:
+        cz, cr, R, a0, a1, z0, r0, z1, r1 = self.rows[rows].T
+        rising = z1 > z0
+        ac, rc = _arc_cut(cz, cr, R, a0, a1, levels, z_low=np.minimum(z0, z1), r_ref=r_ref)
+        r0, r1 = r0 - r_ref, r1 - r_ref
+        za, ra, pa = np.where(rising, z0, levels), np.where(rising, r0, rc), np.where(rising, a0, ac)
+        zb, rb, pb = np.where(rising, levels, z1), np.where(rising, rc, r1), np.where(rising, ac, a1)
+        a, m, rd = _arc_piece(cr - r_ref, R, pa, pb, za, ra, zb, rb, r_ref, shifted=True)
+        return np.column_stack([a, m, rd])
+
+    def error(self, r_ref: float) -> float:
+        return 0.0
+
+
+class ParametricPieces:
+    """Pieces of any kind monotone in z, ``(segment, p_from, p_to)``, by cumulative quadrature.
+
+    Uses only the segment contract (``points_at``, ``tangents_at``): curves come here,
+    and so would any kind without closed forms.
+
+    >>> import sympy
+    >>> from revolve.geometry.segments import Curve
+    >>> t = sympy.Symbol("t", real=True)
+    >>> wall = ParametricPieces(((Curve(t, 1 + 0 * t, 0.0, 2.0), 0.0, 2.0),), np.array([1.0]))
+    >>> [round(float(v), 12) for v in wall.partial(np.array([0]), np.array([0.5]), 0.0)[0]]
+    [-0.5, -0.25, 0.5]
+    """
+
+    def __init__(self, pieces, factor: np.ndarray):
+        self.pieces = tuple(pieces)
+        self.factor = np.asarray(factor, dtype=float).reshape(-1)
+        ends = [seg.points_at([pa, pb]).reshape(-1) for seg, pa, pb in self.pieces]
+        self.ends = np.array(ends, dtype=float).reshape(-1, 4)
+        self._cumulative: Dict[float, list] = {}
+
+    def cumulative(self, r_ref: float) -> list:
+        if r_ref not in self._cumulative:
+            self._cumulative[r_ref] = [_Cumulative(seg, pa, pb, r_ref) for seg, pa, pb in self.pieces]
+        return self._cumulative[r_ref]
+
+    def full(self, r_ref: float) -> np.ndarray:
+        return np.array([c.total() for c in self.cumulative(r_ref)], dtype=float).reshape(-1, 3)
+
+    def partial(self, rows: np.ndarray, levels: np.ndarray, r_ref: float) -> np.ndarray:
+        out = np.zeros((rows.size, 3))
+        cums = self.cumulative(r_ref)
+        for row in np.unique(rows):
+            sel = rows == row
+            seg, pa, pb = self.pieces[row]
+            cum = cums[row]
+            tc = parameters_at_values(seg, pa, pb, levels[sel], coordinate=0)
+            phi = cum.phi_of(tc)
+            out[sel] = cum.upto(phi) if self.ends[row, 2] > self.ends[row, 0] else cum.after(phi)
+        return out
+
+    def error(self, r_ref: float) -> float:
+        return float(sum(abs(f) * c.error for f, c in zip(self.factor, self.cumulative(r_ref))))
 
 
 @dataclass(frozen=True)
 class AxialPieces:
-    """A prepared profile's closed loops as pieces monotone in ``z``, grouped by kind (arrays).
+    """A prepared profile's closed loops as tables of pieces monotone in ``z``.
 
-    Lines: ``line`` (n, 4) holds z0, r0, z1, r1 in travel order (radial lines,
-    z0 == z1, included). Arcs: ``arc`` (n, 9) holds cz, cr, R, angle from,
-    angle to, then the end points z from, r from, z to, r to (the segment's
-    own vertices at its ends, so that neighbouring pieces join exactly).
-    Curves: ``curves`` is a tuple of (curve, t_from, t_to). Each kind has its
-    loop factor (see :attr:`~revolve.geometry.checks.PreparedProfile.loop_factors`) in ``*_factor``. All in
-    the frame. ``z_min`` and ``z_max`` are the lowest and highest axial
-    positions of the loops; ``r_ref`` is the distance from the axis of the
-    lowest point, the reference radius of the moments (see the module notes).
+    ``tables`` holds one table per segment kind present (from each kind's
+    ``axial_level_table``: :class:`StraightPieces`, :class:`CircularPieces`
+    or :class:`ParametricPieces`), each with its rows' loop factors (see
+    :attr:`~revolve.geometry.checks.PreparedProfile.loop_factors`). All in the
+    frame. ``z_min`` and ``z_max`` are the lowest and highest axial positions of
+    the loops; ``r_ref`` is the distance from the axis of the lowest point, the
+    reference radius of the moments (see the module notes).
     """
 
-    line: np.ndarray
-    line_factor: np.ndarray
-    arc: np.ndarray
-    arc_factor: np.ndarray
-    curves: Tuple[Tuple[Curve, float, float], ...]
-    curve_factor: np.ndarray
+    tables: tuple
     z_min: float = 0.0
     z_max: float = 0.0
     r_ref: float = 0.0
@@ -161,69 +293,50 @@ def _loop_segments(prep: PreparedProfile, loop_factors: Sequence[float]):
             yield s, f
 
 
-def _shifted_curve(curve: Curve, dz: float) -> Curve:
-    if dz == 0:
-        return curve
-    return curve.translated(dz)
+def kind_groups(pairs):
+    """``(segment, factor)`` pairs grouped by segment kind: {kind class: (segments, factors)}.
+
+    >>> g = kind_groups([(Line((0.0, 1.0), (1.0, 1.0)), 1.0), (Line((1.0, 1.0), (0.0, 1.0)), -1.0)])
+    >>> [(k.__name__, len(s), f) for k, (s, f) in g.items()]
+    [('Line', 2, [1.0, -1.0])]
+    """
+    groups: dict = {}
+    for s, f in pairs:
+        segs, fs = groups.setdefault(type(s), ([], []))
+        segs.append(s)
+        fs.append(f)
+    return groups
 
 
-def axial_pieces(prep: PreparedProfile, loop_factors: Sequence[float]) -> AxialPieces:
-    """Split the closed loops of a prepared profile into pieces monotone along the axis.
+def _lowest(tables) -> Tuple[float, float, float]:
+    """``(z_min, z_max, r at the lowest point)`` of the tables' piece ends."""
+    ends = np.vstack([t.ends for t in tables] + [np.zeros((0, 4))])
+    if not ends.size:
+        return 0.0, 0.0, 0.0
+    pts = np.vstack([ends[:, :2], ends[:, 2:]])
+    low = int(np.argmin(pts[:, 0]))
+    return float(pts[low, 0]), float(pts[:, 0].max()), float(pts[low, 1])
+
+
+def axial_pieces(prep: PreparedProfile, loop_factors: Optional[Sequence[float]] = None) -> AxialPieces:
+    """Split the closed loops of a prepared profile into tables of pieces monotone along the axis.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> p = axial_pieces(prep, [1.0])
-    >>> p.line.shape, p.arc.shape, (p.z_min, p.z_max, p.r_ref)
-    ((4, 4), (0, 9), (0.0, 2.0, 1.0))
+    >>> [type(t).__name__ for t in p.tables], p.tables[0].rows.shape, (p.z_min, p.z_max, p.r_ref)
+    (['StraightPieces'], (4, 4), (0.0, 2.0, 1.0))
     """
-    lines, lf, arcs, af, curves, cf = [], [], [], [], [], []
-    for s, f in _loop_segments(prep, loop_factors):
-        if isinstance(s, Line):
-            lines.append((s.start[0], s.start[1], s.end[0], s.end[1]))
-            lf.append(f)
-        elif isinstance(s, Arc):
-            cz, cr, R = s.centre[0], s.centre[1], s.radius
-            parts = split_arc(s, math.pi)
-            for k, (p, q) in enumerate(parts):
-                za, ra = s.start if k == 0 else (cz + R * math.cos(p), cr + R * math.sin(p))
-                zb, rb = s.end if k == len(parts) - 1 else (cz + R * math.cos(q), cr + R * math.sin(q))
-                arcs.append((cz, cr, R, p, q, za, ra, zb, rb))
-                af.append(f)
-        elif isinstance(s, Curve):
-            for p, q in split_curve(s, (2,)):
-                curves.append((s, p, q))
-                cf.append(f)
-        else:  # pragma: no cover - the segment kinds are closed
-            raise TypeError(type(s).__name__)
-    line = np.array(lines, dtype=float).reshape(-1, 4)
-    arc = np.array(arcs, dtype=float).reshape(-1, 9)
-    ends = [line[:, [0, 1]], line[:, [2, 3]], arc[:, [5, 6]], arc[:, [7, 8]]]
-    for c, ta, tb in curves:
-        z, r, _, _ = c.evaluate(np.array([ta, tb]))
-        ends.append(np.column_stack([z, r]))
-    ends = np.vstack(ends)
-    # An arc's lowest point may lie inside it (only at a split, which is an end here).
-    if not ends.size:
-        return AxialPieces(line, np.array(lf, dtype=float), arc, np.array(af, dtype=float),
-                           tuple(curves), np.array(cf, dtype=float))
-    low = int(np.argmin(ends[:, 0]))
-    return AxialPieces(line, np.array(lf, dtype=float), arc, np.array(af, dtype=float),
-                       tuple(curves), np.array(cf, dtype=float), float(ends[:, 0].min()),
-                       float(ends[:, 0].max()), float(ends[low, 1]))
+    if loop_factors is None:
+        loop_factors = prep.loop_factors
+    groups = kind_groups(_loop_segments(prep, loop_factors))
+    tables = tuple(kind.axial_level_table(segs, fs) for kind, (segs, fs) in groups.items())
+    tables = tuple(t for t in tables if len(t.factor))
+    return AxialPieces(tables, *_lowest(tables))
 
 
 # -- clipping one level, segment by segment -------------------------------------------
-
-def _curve_parameter_at_z(curve: Curve, ta: float, tb: float, z: np.ndarray) -> np.ndarray:
-    """Parameters where a curve monotone in z on [ta, tb] reaches each z."""
-    return curve_parameter_at(curve, ta, tb, z, coordinate=0)
-
-
-def _arc_angle_at_z(cz, cr, R, a_from, a_to, z):
-    """Angle in a z-monotone arc piece where the arc reaches axial position ``z`` (vectorised)."""
-    return _arc_cut(cz, cr, R, a_from, a_to, z)[0]
-
 
 def _arc_cut(cz, cr, R, a_from, a_to, z, z_low=None, r_ref=0.0):
     """Angle and radius where a z-monotone arc piece reaches axial position ``z`` (vectorised).
@@ -281,82 +394,15 @@ class ClippedProfile:
     touching: Tuple[Segment, ...] = ()
 
 
-def _arc_or_chord(seg: Arc, start, end) -> List[Segment]:
-    """The part of ``seg`` from ``start`` to ``end``: an arc, or its chord when so short that
-    its sweep is lost in rounding (a sweep of a few ulps would read as a full turn)."""
-    if start == end:
-        return []
-    part = replace(seg, start=start, end=end, exact=None)
-    if abs(part.sweep()) <= math.pi * (1 + 1e-9):
-        return [part]
-    return [Line(start, end, face=seg.face, where=seg.where)]
-
-
-def _kept_part(seg: Segment, level: float) -> List[Segment]:
-    """The parts of one frame segment with z < level, in travel order (pieces monotone in z).
-
-    No point is moved: a vertex a hair below the level is below it.
-    """
-    out: List[Segment] = []
-    if isinstance(seg, Line):
-        z0, z1 = seg.start[0], seg.end[0]
-        if max(z0, z1) <= level:
-            return [seg] if min(z0, z1) < level else []
-        if min(z0, z1) >= level:
-            return []
-        (zl, rl), (zh, rh) = sorted((seg.start, seg.end))
-        cut = (level, rl + (level - zl) / (zh - zl) * (rh - rl))   # from the lower end
-        part = replace(seg, end=cut, exact=None) if z0 < z1 else replace(seg, start=cut, exact=None)
-        return [part]
-    if isinstance(seg, Arc):
-        cz, cr = seg.centre
-        R = seg.radius
-        a_start, a_end = seg.angles()
-
-        def at(angle):
-            return (cz + R * math.cos(angle), cr + R * math.sin(angle))
-
-        pieces = split_arc(seg, math.pi)
-        ends = [seg.start] + [at(q) for _, q in pieces[:-1]] + [seg.end]
-        if max(z for z, _ in ends) <= level:
-            return [seg]          # wholly below (or touching from below): keep it as it is
-        for k, (p, q) in enumerate(pieces):
-            start, end = ends[k], ends[k + 1]
-            za, zb = start[0], end[0]
-            if max(za, zb) <= level:
-                out.extend(_arc_or_chord(seg, start, end))
-                continue
-            if min(za, zb) >= level:
-                continue
-            _, rc = _arc_cut(cz, cr, R, p, q, level, z_low=min(za, zb))
-            cut = (level, float(rc))
-            out.extend(_arc_or_chord(seg, start, cut) if za < zb else _arc_or_chord(seg, cut, end))
-        return out
-    if isinstance(seg, Curve):
-        for p, q in split_curve(seg, (2,)):
-            za = float(seg.evaluate(np.array([p]))[0][0])
-            zb = float(seg.evaluate(np.array([q]))[0][0])
-            if max(za, zb) <= level:
-                out.append(replace(seg, t_start=p, t_end=q, exact=None))
-                continue
-            if min(za, zb) >= level:
-                continue
-            tc = float(_curve_parameter_at_z(seg, p, q, np.array([level]))[0])
-            if za < zb:
-                out.append(replace(seg, t_start=p, t_end=tc, exact=None))
-            else:
-                out.append(replace(seg, t_start=tc, t_end=q, exact=None))
-        return [s for s in out if s.t_end != s.t_start]
-    raise TypeError(type(seg).__name__)
-
-
 def clip_section(prep: PreparedProfile, level: float,
                  loop_factors: Optional[Sequence[float]] = None) -> ClippedProfile:
     """The part of a prepared profile's section with ``z < level``, as closed loops.
 
-    Chains are left out (they bound nothing). Arcs stay arcs about the same
-    centre; curves keep their expressions on a shorter interval; straight
-    cuts along ``z = level`` close each loop (face :data:`CUT_FACE`).
+    Chains are left out (they bound nothing). Each segment gives its own part
+    below the level (its kind's ``part_below``): arcs stay arcs about the same
+    centre, curves keep their expressions on a shorter interval, a polyline
+    stays one array per run below the level. Straight cuts along
+    ``z = level`` close each loop (face :data:`CUT_FACE`).
 
     Parameters
     ----------
@@ -397,9 +443,9 @@ def clip_section(prep: PreparedProfile, level: float,
         loop_no += 1
         kept: List[Segment] = []
         for s in segs:
-            kept.extend(_kept_part(s, level))
-            if isinstance(s, Line) and s.start[0] == s.end[0] and level <= s.start[0] <= level + tol:
-                touching.append(s)      # a flat face in the level plane, not below it
+            below, touch = s.part_below(level, tol)
+            kept.extend(below)
+            touching.extend(touch)
         if not kept:
             continue
         out: List[Segment] = []
@@ -429,7 +475,7 @@ def clipped_volume(clipped: ClippedProfile) -> float:
 
     Each loop is summed as ``r₀ A + ∫∫ (r - r₀) dA`` with ``r₀`` the radius of
     its lowest point (see the module notes), so a sliver a hair deep keeps its
-    relative precision.
+    relative precision. The sums are those of the level tables' whole pieces.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
@@ -440,23 +486,12 @@ def clipped_volume(clipped: ClippedProfile) -> float:
     """
     total = 0.0
     for segs, f in zip(clipped.prepared.paths, clipped.factors):
-        low = min((p for s in segs for p in (s.start, s.end)), key=lambda p: p[0])
-        r_ref = float(low[1])
-        area = moment = 0.0
-        for s in segs:
-            if isinstance(s, Line):
-                a, m, _ = _line_piece(s.start[0], s.start[1], s.end[0], s.end[1], r_ref)
-            elif isinstance(s, Arc):
-                a0, a1 = s.angles()
-                a, m, _ = _arc_piece(s.centre[1], s.radius, a0, a1, s.start[0], s.start[1],
-                                     s.end[0], s.end[1], r_ref)
-            else:
-                a, m, _ = _CurveCumulative(s, s.t_start, s.t_end, r_ref).total()
-            area += float(a)
-            moment += float(m)
-        total += f * (r_ref * area + moment)
+        groups = kind_groups((s, 1.0) for s in segs)
+        tables = [kind.axial_level_table(ss, fs) for kind, (ss, fs) in groups.items()]
+        _, _, r_ref = _lowest(tables)
+        sums = sum(t.full(r_ref)[:, :2].sum(axis=0) for t in tables)
+        total += f * (r_ref * float(sums[0]) + float(sums[1]))
     return TWO_PI * total
-
 
 def clipped_wetted_area(clipped: ClippedProfile) -> float:
     """Swept area (2π ∫ r ds) of the original boundary below the level, the cuts left out.
@@ -470,31 +505,6 @@ def clipped_wetted_area(clipped: ClippedProfile) -> float:
     if not segs:
         return 0.0
     return TWO_PI * float(segment_integrals(segs, symbolic=False).values[:, COL["length_y"]].sum())
-
-
-def _middle(segs) -> float:
-    zs = [c for s in segs for c in (s.start[0], s.end[0])]
-    return (min(zs) + max(zs)) / 2
-
-
-def _shift(seg: Segment, dz: float) -> Segment:
-    if isinstance(seg, Line):
-        return replace(seg, start=(seg.start[0] + dz, seg.start[1]), end=(seg.end[0] + dz, seg.end[1]))
-    if isinstance(seg, Arc):
-        return replace(seg, start=(seg.start[0] + dz, seg.start[1]), end=(seg.end[0] + dz, seg.end[1]),
-                       centre=(seg.centre[0] + dz, seg.centre[1]))
-    return _shifted_curve(seg, dz)
-
-
-# -- many levels at once ----------------------------------------------------------------
-
-def _line_moments(z0, r0, z1, r1):
-    """M01 (∫∫ r dA sector moment) and ∫ r ds of straight pieces (arrays)."""
-    c = z0 * r1 - z1 * r0
-    m01 = c * (r0 + r1) / 6.0
-    r_ds = np.hypot(z1 - z0, r1 - r0) * (r0 + r1) / 2.0
-    return m01, r_ds
-
 
 def _arc_moments(cz, cr, R, a, b):
     """M01 and ∫ r ds of arcs from angle a to b about (cz, cr), with well-conditioned differences."""
@@ -576,20 +586,28 @@ def _arc_piece(cr, R, a_from, a_to, za, ra, zb, rb, r_ref, shifted=False):
     return area, moment, r_ds
 
 
-class _CurveCumulative:
-    """Cumulative integrals of area, ∫∫ (r - r_ref) dA and ∫ r ds along one curve piece.
+class _Cumulative:
+    """Cumulative integrals of area, ∫∫ (r - r_ref) dA and ∫ r ds along one monotone piece.
 
     The columns are ``-∫ r' dz``, ``-½ ∫ r'² dz`` and ``∫ r ds`` with
-    ``r' = r - r_ref``. The piece [ta, tb] is mapped to φ in [0, π] by
-    t = m - h cos φ (smooth at ends with a vertical tangent); φ is cut into
-    panels until 16- and 32-point Gauss–Legendre agree, and partial integrals
-    from either end to any φ are the panel sums on that side plus 32 nodes on
-    the rest (never a difference of two large sums).
+    ``r' = r - r_ref``, from the segment contract alone (``points_at`` and
+    ``tangents_at``). The piece [ta, tb] of the segment's parameter is mapped
+    to φ in [0, π] by t = m - h cos φ (smooth at ends with a vertical
+    tangent); φ is cut into panels until 16- and 32-point Gauss–Legendre
+    agree, and partial integrals from either end to any φ are the panel sums
+    on that side plus 32 nodes on the rest (never a difference of two large
+    sums).
+
+    >>> import sympy
+    >>> from revolve.geometry.segments import Curve
+    >>> t = sympy.Symbol("t", real=True)
+    >>> c = _Cumulative(Curve(t, 2 + 0 * t, 0.0, 3.0), 0.0, 3.0, r_ref=1.0)   # r = 2, z 0..3
+    >>> [round(float(v), 12) for v in c.total()]                           # -r'Δz, -r'²Δz/2, rΔz
+    [-3.0, -1.5, 6.0]
     """
 
-    def __init__(self, curve: Curve, ta: float, tb: float, r_ref: float = 0.0,
-                 rel_tol: float = 1e-15):
-        self.curve, self.ta, self.tb, self.r_ref = curve, ta, tb, float(r_ref)
+    def __init__(self, seg, ta: float, tb: float, r_ref: float = 0.0, rel_tol: float = 1e-15):
+        self.seg, self.ta, self.tb, self.r_ref = seg, ta, tb, float(r_ref)
         self.mid, self.half = 0.5 * (ta + tb), 0.5 * (tb - ta)
         edges = np.linspace(0.0, math.pi, 9)
         for _ in range(40):
@@ -602,7 +620,7 @@ class _CurveCumulative:
                 break
             mids = 0.5 * (edges[:-1] + edges[1:])[bad]
             edges = np.sort(np.concatenate([edges, mids]))
-            if edges.size > 20_000:   # rounding in the curve, not the rule, limits the sums
+            if edges.size > 20_000:   # rounding in the segment, not the rule, limits the sums
                 break
         if hi.shape[0] != edges.size - 1:
             lo = self._panels(edges[:-1], edges[1:], 16)
@@ -624,11 +642,15 @@ class _CurveCumulative:
 
     def _integrand(self, phi):
         t = self._t_of(phi)
-        _, r, dz, dr = self.curve.evaluate(t)
+        with np.errstate(all="ignore"):
+            r = self.seg.points_at(t.ravel())[:, 1].reshape(t.shape)
+            tangent = self.seg.tangents_at(t.ravel())
+        dz, dr = tangent[:, 0].reshape(t.shape), tangent[:, 1].reshape(t.shape)
         jac = self.half * np.sin(phi)
         rp = r - self.r_ref
-        out = np.stack([-rp * dz * jac, -0.5 * rp * rp * dz * jac,
-                        r * np.hypot(dz, dr) * np.abs(jac)], axis=-1)
+        with np.errstate(all="ignore"):
+            out = np.stack([-rp * dz * jac, -0.5 * rp * rp * dz * jac,
+                            r * np.hypot(dz, dr) * np.abs(jac)], axis=-1)
         return np.nan_to_num(out, nan=0.0, posinf=0.0, neginf=0.0)
 
     def _panels(self, a, b, n):
@@ -666,6 +688,8 @@ class _CurveCumulative:
         return self.cumulative[-1]
 
 
+
+
 @dataclass(frozen=True)
 class VerticalLevels:
     """Volume and wetted inside area below each level (arrays, profile units)."""
@@ -682,14 +706,16 @@ def vertical_levels(prep: PreparedProfile, levels,
     """Volume and wetted area below each level ``z = level`` (frame units), vectorised.
 
     The same figures as :func:`clip_section` with :func:`clipped_volume` and
-    :func:`clipped_wetted_area`, computed for all levels together: the
-    closed forms of every kept sub-line and sub-arc (chord plus circular
-    segment) and cumulative quadrature for curves, each as ``-½ ∫ r² dz``
-    about the radius of the lowest point (the cuts along the level add
-    nothing; see the module notes). Cut points are never formed as
-    coordinates: their distance from that radius is taken from the lower end
-    of the piece, so a level a hair above the bottom gets its sliver to full
-    relative precision.
+    :func:`clipped_wetted_area`, computed for all levels together, each as
+    ``-½ ∫ r² dz`` about the radius of the lowest point (the cuts along the
+    level add nothing; see the module notes). A piece below a level counts
+    whole: the whole pieces are sorted by their top and summed once
+    (cumulative sums), and each level takes the sum of those below it. Only
+    the pieces a level crosses are cut, found by sorting too, so a table costs
+    O((pieces + levels) log) plus one closed form per crossing. Cut points are
+    never formed as coordinates: their distance from the reference radius is
+    taken from the lower end of the piece, so a level a hair above the bottom
+    gets its sliver to full relative precision.
 
     Examples
     --------
@@ -708,86 +734,57 @@ def vertical_levels(prep: PreparedProfile, levels,
     >>> ring = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> [round(float(a) / math.pi, 12) for a in vertical_levels(ring, [-1.0, 0.0]).wetted_area]
     [0.0, 8.0]
+
+    No level, or no loop, gives empty or zero rows:
+
+    >>> vertical_levels(ring, []).volume.size
+    0
     """
-    L = np.atleast_1d(np.asarray(levels, dtype=float))
+    L = np.atleast_1d(np.asarray(levels, dtype=float)).ravel()
     if pieces is None:
-        if loop_factors is None:
-            loop_factors = prep.loop_factors
         pieces = axial_pieces(prep, loop_factors)
-    pc = pieces
-    r_ref = pc.r_ref
-    area = np.zeros(L.shape)        # Σ f A            (see the module notes)
-    moment = np.zeros(L.shape)      # Σ f ∫∫ (r - r_ref) dA
-    wet = np.zeros(L.shape)
-    error = 0.0
+    r_ref = pieces.r_ref
     tol = prep.tolerance
-    lv = L[None, :]
-    # Lines. A kept sub-line runs from its lower end to the level (or to its upper end).
-    if pc.line.size:
-        z0, r0, z1, r1 = (pc.line[:, i][:, None] for i in range(4))
-        f = pc.line_factor[:, None]
-        radial = (z0 == z1)
-        rising = z1 > z0
-        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
-        rlo, rhi = np.where(rising, r0, r1), np.where(rising, r1, r0)
-        s = np.clip((lv - zlo) / np.where(radial, 1.0, zhi - zlo), 0.0, 1.0)
-        # the radius at the cut, from the lower end and measured from r_ref (never
-        # formed as r itself, which would round away a sliver's width)
-        rc_ref = (rlo - r_ref) + s * (rhi - rlo)
-        crossing = ~radial & (zlo < lv) & (lv < zhi)
-        zc = np.where(crossing, lv, np.where(rising, z1, z0))
-        rc_ref = np.where(crossing, rc_ref, np.where(rising, r1, r0) - r_ref)
-        # kept sub-line: from the start to the cut when rising, from the cut to the end otherwise
-        za = np.where(rising, z0, zc)
-        ra_ref = np.where(rising, r0 - r_ref, rc_ref)
-        zb = np.where(rising, zc, z1)
-        rb_ref = np.where(rising, rc_ref, r1 - r_ref)
-        a, m, _ = _line_piece(za, ra_ref, zb, rb_ref, 0.0)
-        _, _, rd = _line_piece(za, ra_ref + r_ref, zb, rb_ref + r_ref, 0.0)
-        kept = ~radial & (zlo < lv)
-        area += (f * np.where(kept, a, 0.0)).sum(axis=0)
-        moment += (f * np.where(kept, m, 0.0)).sum(axis=0)
-        # A flat face is wetted when it lies below the level or in its plane (within the
-        # tolerance): the wetted area at a level is its limit from above.
-        radial_wet = radial & (z0 <= lv + tol)
-        _, _, rdr = _line_piece(z0, r0, z1, r1, 0.0)
-        wet += (np.where(kept, rd, 0.0) + np.where(radial_wet, rdr, 0.0)).sum(axis=0)
-    # Arcs: the kept sub-arc from its lower end to the level, as chord plus segment.
-    if pc.arc.size:
-        cz, cr, R, a0, a1, z0, r0, z1, r1 = (pc.arc[:, i][:, None] for i in range(9))
-        f = pc.arc_factor[:, None]
-        rising = z1 > z0
-        zlo, zhi = np.minimum(z0, z1), np.maximum(z0, z1)
-        # radii measured from r_ref from here on (see _arc_piece)
-        ac, rc = _arc_cut(cz, cr, R, a0, a1, lv, z_low=zlo, r_ref=r_ref)
-        r0, r1 = r0 - r_ref, r1 - r_ref
-        crossing = (zlo < lv) & (lv < zhi)
-        zc = np.where(crossing, lv, np.where(rising, z1, z0))
-        rc = np.where(crossing, rc, np.where(rising, r1, r0))
-        ac = np.where(crossing, ac, np.where(rising, a1, a0))
-        za, ra, pa = np.where(rising, z0, zc), np.where(rising, r0, rc), np.where(rising, a0, ac)
-        zb, rb, pb = np.where(rising, zc, z1), np.where(rising, rc, r1), np.where(rising, ac, a1)
-        a, m, rd = _arc_piece(cr - r_ref, R, pa, pb, za, ra, zb, rb, r_ref, shifted=True)
-        kept = zlo < lv
-        area += (f * np.where(kept, a, 0.0)).sum(axis=0)
-        moment += (f * np.where(kept, m, 0.0)).sum(axis=0)
-        wet += np.where(kept, rd, 0.0).sum(axis=0)
-    # Curves.
-    for (curve, ta, tb), f in zip(pc.curves, pc.curve_factor):
-        cum = _CurveCumulative(curve, ta, tb, r_ref)
-        error += abs(f) * cum.error
-        za = float(curve.evaluate(np.array([ta]))[0][0])
-        zb = float(curve.evaluate(np.array([tb]))[0][0])
-        zlo, zhi = min(za, zb), max(za, zb)
-        inside = (L > zlo) & (L < zhi)
-        tc = np.where(L >= zhi, tb if za < zb else ta, ta if za < zb else tb).astype(float)
-        if inside.any():
-            tc[inside] = _curve_parameter_at_z(curve, ta, tb, L[inside])
-        phi_c = cum.phi_of(tc)
-        kept_vals = cum.upto(phi_c) if za < zb else cum.after(phi_c)
-        kept = L > zlo
-        area += f * np.where(kept, kept_vals[:, 0], 0.0)
-        moment += f * np.where(kept, kept_vals[:, 1], 0.0)
-        wet += np.where(kept, kept_vals[:, 2], 0.0)
-    m01 = r_ref * area + moment
-    return VerticalLevels(L, TWO_PI * m01, TWO_PI * wet, TWO_PI * error)
+    tables = pieces.tables
+    nL = L.size
+    if not tables or nL == 0:
+        zero = np.zeros(nL)
+        return VerticalLevels(L, zero, zero.copy(), 0.0)
+    ends = np.vstack([t.ends for t in tables])
+    factor = np.concatenate([t.factor for t in tables])
+    first = np.cumsum([0] + [len(t.factor) for t in tables])
+    zlo = np.minimum(ends[:, 0], ends[:, 2])
+    zhi = np.maximum(ends[:, 0], ends[:, 2])
+    # Whole pieces: a piece counts whole from its top up. A flat face (perpendicular to the
+    # axis: no area, only wetted surface) counts from a tolerance below it: the wetted area
+    # at a level is its limit from above (a flat bottom is wetted at its own level).
+    full = np.vstack([t.full(r_ref) for t in tables])
+    full[:, :2] *= factor[:, None]
+    flat = zlo == zhi
+    starts = np.where(flat, zhi - tol, zhi)
+    order = np.argsort(starts, kind="stable")
+    running = np.vstack([np.zeros((1, 3)), np.cumsum(full[order], axis=0)])
+    sums = running[np.searchsorted(starts[order], L, side="right")]
+    # Crossed pieces: those with zlo < level < zhi, each a run of the sorted levels.
+    level_order = np.argsort(L, kind="stable")
+    sorted_levels = L[level_order]
+    i0 = np.searchsorted(sorted_levels, zlo, side="right")
+    i1 = np.searchsorted(sorted_levels, zhi, side="left")
+    count = np.where(flat, 0, np.maximum(i1 - i0, 0))
+    total = int(count.sum())
+    if total:
+        piece = np.repeat(np.arange(zlo.size), count)
+        ramp = np.arange(total) - np.repeat(np.cumsum(count) - count, count)
+        lv = level_order[np.repeat(i0, count) + ramp]
+        for k, t in enumerate(tables):
+            sel = (piece >= first[k]) & (piece < first[k + 1])
+            if not sel.any():
+                continue
+            rows, at = piece[sel] - first[k], lv[sel]
+            part = t.partial(rows, L[at], r_ref)
+            part[:, :2] *= t.factor[rows][:, None]
+            for c in range(3):
+                sums[:, c] += np.bincount(at, weights=part[:, c], minlength=nL)
+    error = sum(t.error(r_ref) for t in tables)
+    m01 = r_ref * sums[:, 0] + sums[:, 1]
+    return VerticalLevels(L, TWO_PI * m01, TWO_PI * sums[:, 2], TWO_PI * error)

@@ -22,8 +22,11 @@ point of radius ``r`` the wetted arc of the circle is ``2 r acos(-y/r)``
 (= ∂S/∂r), so the wetted area is ``∫ 2 r acos(-y/r) ds`` along every
 segment.
 
-How each piece is integrated (pieces monotone in both ``z`` and ``r``, so
-that a level meets a piece's circles tangentially at most once):
+Each kind gives its segments as a table (its ``radial_level_table``:
+straight, circular or parametric rows, see :func:`horizontal_pieces`); no
+algorithm here asks which kind a segment is. How each piece is integrated
+(pieces monotone in both ``z`` and ``r``, so that a level meets a piece's
+circles tangentially at most once):
 
 * straight pieces in closed form: a cylinder ``S(r, y) Δz``; a cone
   ``Δz/Δr · [F(r₁, y) - F(r₀, y)]`` with ``F = ∫ S dr`` (below); a flat face
@@ -31,6 +34,10 @@ that a level meets a piece's circles tangentially at most once):
   difference would lose digits goes to quadrature instead;
 * a piece entirely below or above the level in closed form (nothing, or the
   whole washer π ∫ r² dz and surface 2π ∫ r ds);
+* many pieces shallow in ``r`` (a corrugated or surveyed shell) by groups:
+  the series of ``S`` about each group's middle radius, with each piece's
+  moments ∫ (r - c)^k dz found once (see :func:`segment_taylor` and the notes
+  before it), where its error estimate allows;
 * everything else by Gauss–Legendre quadrature, vectorised over levels and
   pieces: lines in ``z``, arcs in their angle, curves in their parameter.
   Where a level is tangent to a piece's circles (``r = |y|``) the piece is
@@ -71,11 +78,10 @@ from typing import Optional, Sequence, Tuple
 import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
-from revolve.geometry.clipping import (_arc_moments, _loop_segments, _shifted_curve, d_minus_sin,
-                                       split_arc, split_curve)
+from revolve.geometry.clipping import (_arc_moments, _loop_segments, d_minus_sin, kind_groups,
+                                       parameters_at_values)
 from revolve.geometry.integrals import _end_weights
-from revolve.geometry.segments import Arc, Curve, Line
-from revolve.geometry.slicing import curve_parameter_at, gauss_legendre
+from revolve.geometry.slicing import gauss_legendre
 
 PI = math.pi
 #: Steepest cone (|Δz/Δr|) integrated in closed form; steeper ones go to quadrature.
@@ -166,35 +172,532 @@ def segment_area_integral(r, y):
     return np.where(inside, f, outside)
 
 
-# -- pieces --------------------------------------------------------------------------------
+# -- many shallow pieces at once: the segment as a series about a middle radius ----------------
+#
+# A level not tangent to a piece's circles (|y| < r all along it) needs S(r, y) only where
+# r stays near the piece's radii. About a middle radius c, S(c + δ, y) = Σ S_k δ^k converges
+# for |δ| < c - |y| (the tangent circle r = |y| is the nearest singularity), so a group of
+# pieces with radii within c ± h gives -Σ S_k(c, y) Σ f ∫ (r - c)^k dz: the moments
+# ∫ (r - c)^k dz and ∫ (r - c)^k ds are found once per piece (Gauss–Legendre, on the table's
+# own parametrisation), the coefficients once per group and level. The series is used where
+# h/(c - |y|) <= SERIES_RATIO and its estimated error (the last terms, and the moments'
+# quadrature difference) is within the group's share of the tolerance; a level above the
+# whole group (every circle under the liquid) takes S = π r² exactly; everything else goes
+# to the piece-by-piece sorting below. A corrugated shell of a thousand shallow arcs is one
+# group: a thousand levels cost a few thousand series.
+
+#: Largest ratio of a group's half width in r to the distance to the tangent circle.
+SERIES_RATIO = 0.1
+#: Terms of the series (enough for SERIES_RATIO to the last bit; the error is checked).
+SERIES_TERMS = 18
+#: Groups: pieces with their smallest radius in the same step of 1/SERIES_BINS in log₂ r.
+SERIES_BINS = 512
+#: A piece joins a group only when its own radii lie within this fraction of its smallest.
+SERIES_SHALLOW = 1.0 / 512
+#: Fewer pieces than this in a table: the pieces are sorted one by one (as cheap).
+SERIES_MIN_PIECES = 16
+
+
+def segment_taylor(c, y, terms: int = SERIES_TERMS):
+    """Taylor coefficients ``S_k`` of ``S(c + δ, y)`` in ``δ`` (arrays, shape (…, terms + 1)).
+
+    For ``c > |y|``: ``S' = 2 r acos(-y/r)`` and ``d acos(-y/r)/dr = -y g`` with
+    ``g = (r⁴ - y² r²)^(-1/2)``, whose coefficients follow from those of the
+    quartic by the power recurrence of series (J. C. P. Miller's formula, from
+    memory: ``n P₀ g_n = Σ_j ((α + 1) j - n) P_j g_{n-j}``, α = -1/2).
+
+    >>> c, y, delta = 2.0, 0.5, 0.1
+    >>> s = segment_taylor(np.array([c]), np.array([y]))[0]
+    >>> approx = float(np.polynomial.polynomial.polyval(delta, s))
+    >>> abs(approx - float(segment_area(c + delta, y))) < 1e-15 * float(segment_area(c + delta, y))
+    True
+    >>> bool(abs(s[1] - 2 * c * math.acos(-y / c)) < 1e-15 * s[1])     # S' = 2 r acos(-y/r)
+    True
+    """
+    c = np.asarray(c, dtype=float)
+    y = np.asarray(y, dtype=float)
+    ay = np.abs(y)
+    rho = c - ay
+    c2, y2 = c * c, y * y
+    P = [c2 * rho * (c + ay), 2.0 * c * (2.0 * c2 - y2), 6.0 * c2 - y2, 4.0 * c,
+         np.ones_like(c)]
+    g = [1.0 / np.sqrt(P[0])]
+    for n in range(1, terms):
+        acc = np.zeros_like(c)
+        for j in range(1, min(n, 4) + 1):
+            acc = acc + (0.5 * j - n) * P[j] * g[n - j]
+        g.append(acc / (n * P[0]))
+    theta = [_half_angle(c, c + y, c - y)] + [-y * g[n - 1] / n for n in range(1, terms)]
+    out = [segment_area(c, y, c + y, c - y)]
+    for n in range(1, terms + 1):
+        r_theta = c * theta[n - 1] + (theta[n - 2] if n >= 2 else 0.0)    # [r θ]_{n-1}
+        out.append(2.0 * r_theta / n)
+    return np.stack(out, axis=-1)
+
+
+def _moments(table, rows, centre, pa, pb, terms: int, nodes: int):
+    """``∫ (r - centre)^k dz`` and ``∫ (r - centre)^k ds`` over table rows, k = 0…terms."""
+    x, w = gauss_legendre(nodes)
+    n = rows.size
+    mapping = COSINE if table.cosine else STRAIGHT
+    jobs = _Jobs(np.zeros(n, dtype=int), rows, np.zeros(n, dtype=int),
+                 np.full(n, mapping), pa[rows], pb[rows], np.zeros(n), np.ones(n))
+    u = 0.5 + 0.5 * x[None, :] * np.ones((n, 1))
+    p, dp = _parameter(jobs, u)
+    r, dz, ds, _ = table.radii(rows, p, 0.0)
+    jac = 0.5 * dp * w[None, :]
+    with np.errstate(all="ignore"):
+        gz = np.nan_to_num(dz * jac)
+        gs = np.nan_to_num(ds * np.abs(jac))
+    delta = r - centre[:, None]
+    mz, ms = np.empty((n, terms + 1)), np.empty((n, terms + 1))
+    # Σ_nodes δ^k g for k = 0…terms, by repeated multiplication of the weights by δ
+    wz, ws = gz.copy(), gs.copy()
+    for k in range(terms + 1):
+        mz[:, k] = wz.sum(axis=1)
+        ms[:, k] = ws.sum(axis=1)
+        if k < terms:
+            wz *= delta
+            ws *= delta
+    return mz, ms
+
+
+def _series_levels(table, kind, y, V, A, pa, pb, budget):
+    """Levels of a table's shallow pieces by groups (see the notes above).
+
+    Adds what it settles to ``V``, ``A`` (and its error estimate to the budget's
+    array) and returns the (whole index, level index) pairs left for
+    :func:`_sort_wholes`, or None when the table is left to it entirely.
+    """
+    tol_v, tol_a, E, _ = budget
+    nY = y.size
+    lo, hi = table.whole_r[:, 0], table.whole_r[:, 1]
+    ok = (lo > 0) & (hi - lo <= SERIES_SHALLOW * lo) & getattr(table, "series_ok", True)
+    if ok.sum() < SERIES_MIN_PIECES or nY == 0:
+        return None
+    members = np.flatnonzero(ok)
+    bins, group = np.unique(np.floor(np.log2(lo[members]) * SERIES_BINS), return_inverse=True)
+    nG = bins.size
+    g_lo = np.full(nG, np.inf)
+    g_hi = np.full(nG, -np.inf)
+    np.minimum.at(g_lo, group, lo[members])
+    np.maximum.at(g_hi, group, hi[members])
+    centre, half = 0.5 * (g_lo + g_hi), 0.5 * (g_hi - g_lo)
+    # the moments of each member's cut rows, about its group's middle radius
+    first, stop = table.quarters[members, 0], table.quarters[members, 1]
+    count = stop - first
+    owner = np.repeat(np.arange(members.size), count)
+    rows = np.repeat(first, count) + (np.arange(count.sum()) - np.repeat(np.cumsum(count) - count,
+                                                                          count))
+    K = SERIES_TERMS
+    at = centre[group[owner]]
+    if getattr(table, "polynomial", False):
+        # r is linear in the parameter: (K + 2)/2 nodes integrate every moment exactly
+        mz, ms = _moments(table, rows, at, pa, pb, K, K // 2 + 2)
+        mz2, ms2 = mz, ms
+    else:
+        mz, ms = _moments(table, rows, at, pa, pb, K, 32)
+        mz2, ms2 = _moments(table, rows, at, pa, pb, K, 24)
+    f = table.factor[rows][:, None]
+    into = group[owner]
+    order = np.argsort(into, kind="stable")
+    starts = np.searchsorted(into[order], np.arange(nG), side="left")
+
+    def by_group(values):
+        return np.add.reduceat(values[order], starts, axis=0)
+
+    FM, NM = by_group(f * mz), by_group(ms)
+    dFM, dNM = by_group(np.abs(f * (mz - mz2))), by_group(np.abs(ms - ms2))
+    size = np.bincount(group, minlength=nG)[:, None]
+    yy = y[None, :]
+    above = yy >= g_hi[:, None]
+    below = yy <= -g_hi[:, None]
+    rho = centre[:, None] - np.abs(yy)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(rho > 0, half[:, None] / np.where(rho > 0, rho, 1.0), np.inf)
+    near = ~above & ~below & (ratio <= SERIES_RATIO)
+    done = above | below
+    # every circle under the liquid: S = π r² exactly, W = 2π r
+    c = centre[:, None]
+    full_v = -PI * (c * c * FM[:, 0:1] + 2.0 * c * FM[:, 1:2] + FM[:, 2:3])
+    full_a = 2.0 * PI * (c * NM[:, 0:1] + NM[:, 1:2])
+    full_e = PI * (c * c * dFM[:, 0:1] + 2.0 * c * dFM[:, 1:2] + dFM[:, 2:3])
+    V += np.where(above, full_v, 0.0).sum(axis=0)
+    A += np.where(above, full_a, 0.0).sum(axis=0)
+    E += np.where(above, full_e, 0.0).sum(axis=0)
+    gi, li = np.nonzero(near)
+    if gi.size:
+        S = segment_taylor(centre[gi], y[li], K + 1)               # (pairs, K + 2)
+        W = S[:, 1:] * np.arange(1, K + 2)                          # W_k = (k + 1) S_{k+1}
+        S = S[:, :K + 1]
+        v = -(S * FM[gi]).sum(axis=1)
+        a = (W * NM[gi]).sum(axis=1)
+        tail = np.abs(S[:, -2:] * FM[gi][:, -2:]).sum(axis=1)
+        err_v = 10.0 * tail + (np.abs(S) * dFM[gi]).sum(axis=1)
+        err_a = 10.0 * np.abs(W[:, -2:] * NM[gi][:, -2:]).sum(axis=1) + (np.abs(W) * dNM[gi]).sum(axis=1)
+        good = (err_v <= tol_v * size[gi, 0]) & (err_a <= tol_a * size[gi, 0]) \
+            & np.isfinite(v) & np.isfinite(a)
+        V += np.bincount(li[good], weights=v[good], minlength=nY)
+        A += np.bincount(li[good], weights=a[good], minlength=nY)
+        E += np.bincount(li[good], weights=err_v[good], minlength=nY)
+        done[gi[good], li[good]] = True
+    # what is left: the members of each group at its other levels, and every other piece
+    gl, ll = np.nonzero(~done)
+    by_group = np.argsort(group, kind="stable")
+    g_first = np.searchsorted(group[by_group], np.arange(nG), side="left")
+    g_count = np.bincount(group, minlength=nG)
+    reps = g_count[gl]
+    ramp = np.arange(reps.sum()) - np.repeat(np.cumsum(reps) - reps, reps)
+    left_w = members[by_group[np.repeat(g_first[gl], reps) + ramp]]
+    left_y = np.repeat(ll, reps)
+    others = np.flatnonzero(~ok)
+    W_all = np.concatenate([left_w, np.repeat(others, nY)])
+    Y_all = np.concatenate([left_y, np.tile(np.arange(nY), others.size)])
+    return W_all, Y_all
+
+
+# -- pieces: one table per segment kind ----------------------------------------------------
+#
+# Each segment kind turns its segments into one of the tables below through its class
+# method ``radial_level_table`` (revolve/geometry/kinds/*.py): lines and polyline edges
+# become straight rows (closed forms), arcs circular rows (cut at every quarter turn),
+# anything else parametric rows (cut where r turns back; the segment contract only).
+# Every table answers the same questions for :func:`horizontal_levels`: sort its rows
+# against the levels into closed forms and quadrature jobs, and give r, dz/dp, ds/dp at
+# parameters of its rows. The algorithm never asks which kind a segment is.
+
+class StraightRows:
+    """Straight pieces: rows ``z0, r0, z1, r1`` (z from the profile's middle), loop factors.
+
+    >>> t = StraightRows(np.array([[-1.0, 2.0, 1.0, 2.0]]), np.array([1.0]))
+    >>> t.extent(), t.size
+    ((-1.0, 1.0, 2.0), 1)
+    """
+
+    cosine = False
+    #: r is linear in the parameter (z): Gauss–Legendre moments are exact
+    polynomial = True
+
+    def __init__(self, rows: np.ndarray, factor: np.ndarray):
+        self.line = np.asarray(rows, dtype=float).reshape(-1, 4)
+        self.factor = np.asarray(factor, dtype=float).reshape(-1)
+        self.size = len(self.factor)
+        # each row is its own whole piece (r is monotone along a line), for the series
+        n = self.size
+        self.whole = np.arange(n)
+        self.quarters = np.column_stack([np.arange(n), np.arange(n) + 1]).reshape(-1, 2)
+        self.whole_r = np.sort(self.line[:, [1, 3]], axis=1)
+        #: pieces the series may take: not a flat face (its parameter, z, does not move)
+        self.series_ok = self.line[:, 0] != self.line[:, 2]
+
+    def extent(self) -> Tuple[float, float, float]:
+        """``(z_lo, z_hi, r_max)`` of the rows (z from the profile's middle)."""
+        if not self.size:
+            return math.inf, -math.inf, 0.0
+        z, r = self.line[:, [0, 2]], self.line[:, [1, 3]]
+        return float(z.min()), float(z.max()), float(r.max())
+
+    def sort_levels(self, kind: int, jobs: "_Jobs", y, d, r_max: float, V, A, budget=None) -> None:
+        """Closed forms of every row at every level into ``V``, ``A``; nearly flat cones to ``jobs``.
+
+        Many shallow rows go through the series first (:func:`_series_levels`); the
+        (row, level) pairs it leaves take the closed forms pair by pair.
+        """
+        if not self.size:
+            return
+        if budget is not None:
+            pairs = _series_levels(self, kind, y, V, A, self.line[:, 0], self.line[:, 2], budget)
+            if pairs is not None:
+                self._closed_pairs(kind, jobs, pairs[0], pairs[1], y, d, r_max, V, A)
+                return
+        nY = d.size
+        z0, r0, z1, r1 = (self.line[:, i][:, None] for i in range(4))
+        f = self.factor[:, None]
+        yy = y[None, :]
+        dz, dr = z1 - z0, r1 - r0
+        length = np.hypot(dz, dr)
+        # S, F and the wetted arc at each distinct end radius once (lines share their ends).
+        radii, where_ = np.unique(np.concatenate([self.line[:, 1], self.line[:, 3]]),
+                                  return_inverse=True)
+        ru = radii[:, None]
+        top = (2.0 * r_max - d)[None, :]           # r_max - y: the height left above the liquid
+        rpy, rmy = (ru - r_max) + d[None, :], (ru - r_max) + top
+        S_u = segment_area(ru, yy, rpy, rmy)
+        i0, i1 = where_[:self.size], where_[self.size:]
+        s0, s1 = S_u[i0], S_u[i1]
+        cyl = (dr == 0)
+        radial = (dz == 0)
+        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
+        steep = ~cyl & ~radial & ~cone
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
+            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        vol = np.where(cyl, s0 * dz, 0.0)
+        if cone.any():
+            F_u = segment_area_integral(ru, yy)
+            vol = vol + np.where(cone, ratio * (F_u[i1] - F_u[i0]), 0.0)
+        area = np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0)
+        if cyl.any():
+            W_u = wetted_arc(ru, yy, rpy, rmy)
+            area = area + np.where(cyl, W_u[i0] * length, 0.0)
+        V += (-f * vol).sum(axis=0)
+        A += area.sum(axis=0)
+        # Nearly flat cones: quadrature, split where the level is tangent.
+        st = np.flatnonzero(steep[:, 0])
+        if st.size:
+            rows, lv = np.repeat(st, nY), np.tile(np.arange(nY), st.size)
+            L_ = self.line
+            _sort_pairs(jobs, kind, rows, lv, L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3], self.factor,
+                        y, self.parameter_at_r, V, A, washer=self.washer)
+
+    def _closed_pairs(self, kind, jobs, rows, lv, y, d, r_max, V, A) -> None:
+        """The closed forms of :meth:`sort_levels` for given (row, level) pairs."""
+        if rows.size == 0:
+            return
+        z0, r0, z1, r1 = (self.line[rows, i] for i in range(4))
+        f = self.factor[rows]
+        yy, dd = y[lv], d[lv]
+        top = 2.0 * r_max - dd
+        dz, dr = z1 - z0, r1 - r0
+        length = np.hypot(dz, dr)
+        rpy0, rmy0 = (r0 - r_max) + dd, (r0 - r_max) + top
+        s0 = segment_area(r0, yy, rpy0, rmy0)
+        s1 = segment_area(r1, yy, (r1 - r_max) + dd, (r1 - r_max) + top)
+        cyl = (dr == 0)
+        radial = (dz == 0)
+        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
+        steep = ~cyl & ~radial & ~cone
+        with np.errstate(divide="ignore", invalid="ignore"):
+            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
+            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        vol = np.where(cyl, s0 * dz, 0.0)
+        if cone.any():
+            vol = vol + np.where(cone, ratio * (segment_area_integral(r1, yy)
+                                                - segment_area_integral(r0, yy)), 0.0)
+        area = np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0)
+        if cyl.any():
+            area = area + np.where(cyl, wetted_arc(r0, yy, rpy0, rmy0) * length, 0.0)
+        V += np.bincount(lv, weights=-f * vol, minlength=V.size)
+        A += np.bincount(lv, weights=area, minlength=A.size)
+        if steep.any():
+            L_ = self.line
+            _sort_pairs(jobs, kind, rows[steep], lv[steep], L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3],
+                        self.factor, y, self.parameter_at_r, V, A, washer=self.washer)
+
+    def parameter_at_r(self, rows, rr):
+        """z (the parameter of straight rows) where rows reach radii ``rr``."""
+        z0, r0, z1, r1 = (self.line[rows, i] for i in range(4))
+        return z0 + (rr - r0) * (z1 - z0) / (r1 - r0)
+
+    def washer(self, rows, a, b):
+        """Washer volume and swept surface of rows between z = a and z = b."""
+        z0, r0, z1, r1 = (self.line[rows, i] for i in range(4))
+        slope = (r1 - r0) / (z1 - z0)
+        ra, rb = r0 + (a - z0) * slope, r0 + (b - z0) * slope
+        vol = _line_washer(a, ra, b, rb)
+        surf = 2.0 * PI * np.hypot(b - a, rb - ra) * (ra + rb) / 2.0
+        return vol, surf
+
+    def radii(self, rows, p, r_max: float):
+        """r, dz/dp, ds/dp and r - r_max at parameters ``p`` (z) of rows (shape of p)."""
+        z0, r0, z1, r1 = (self.line[rows, i][:, None] for i in range(4))
+        slope = (r1 - r0) / (z1 - z0)
+        step = (p - z0) * slope
+        return (r0 + step, np.ones(p.shape), np.broadcast_to(np.sqrt(1.0 + slope * slope), p.shape),
+                (r0 - r_max) + step)
+
+    def rounding(self) -> float:
+        return 0.0
+
+
+class _SplitRows:
+    """Rows cut where r turns back (``rows``, r monotone on each) and the whole segments.
+
+    ``whole`` are the row indices of the whole segments, ``whole_r`` their r range and
+    ``quarters[k]`` the first and stop row of whole segment k's cut rows. Whole rows
+    are used where no level is tangent to their circles; cut rows where one is.
+    """
+
+    def _sort(self, kind, jobs, y, V, A, pa, pb, ra, rb, washer, budget=None):
+        pairs = None if budget is None else _series_levels(self, kind, y, V, A, pa, pb, budget)
+        sub = _sort_wholes(jobs, kind, self.whole, self.whole_r, self.quarters, pa, pb,
+                           self.factor, y, V, A, washer=washer, pairs=pairs)
+        if sub is not None:
+            _sort_pairs(jobs, kind, sub[0], sub[1], pa, pb, ra, rb, self.factor, y,
+                        self.parameter_at_r, V, A, washer=washer)
+
+
+class CircularRows(_SplitRows):
+    """Arcs: rows ``cz, cr, R, angle from, angle to`` (cz from the profile's middle).
+
+    Built by :meth:`from_pieces` from each arc's centre and radius and its pieces
+    between the ends and every quarter turn inside.
+
+    >>> t = CircularRows.from_pieces(np.array([[0.0, 0.0, 1.0]]), np.array([0, 0]),
+    ...                              np.array([0.0, math.pi / 2]), np.array([math.pi / 2, math.pi]),
+    ...                              np.array([1.0]))
+    >>> t.arc.shape, t.whole.tolist(), t.quarters.tolist(), t.whole_r.tolist()
+    ((3, 5), [2], [[0, 2]], [[0.0, 1.0]])
+    """
+
+    cosine = False
+
+    def __init__(self, arc, factor, whole, whole_r, quarters):
+        self.arc, self.factor = arc, factor
+        self.whole, self.whole_r, self.quarters = whole, whole_r, quarters
+        self.size = len(factor)
+
+    @classmethod
+    def from_pieces(cls, centres, arc, a_from, a_to, factors) -> "CircularRows":
+        """From each arc's ``(cz, cr, R)`` and its pieces (``arc`` index, angles from and to,
+        grouped by arc in travel order, with no level tangent inside any)."""
+        n = len(centres)
+        quarters = np.column_stack([centres[arc], a_from, a_to]).reshape(-1, 5)
+        first = np.searchsorted(arc, np.arange(n), side="left")
+        stop = np.searchsorted(arc, np.arange(n), side="right")
+        wholes = np.column_stack([centres, a_from[first], a_to[stop - 1]]).reshape(-1, 5)
+        nq = len(quarters)
+        # r at the pieces' ends: its range over each whole arc
+        r_from = quarters[:, 1] + quarters[:, 2] * np.sin(a_from)
+        r_to = quarters[:, 1] + quarters[:, 2] * np.sin(a_to)
+        lo, hi = np.minimum(r_from, r_to), np.maximum(r_from, r_to)
+        whole_r = np.column_stack([np.minimum.reduceat(lo, first), np.maximum.reduceat(hi, first)]) \
+            if nq else np.zeros((0, 2))
+        return cls(np.vstack([quarters, wholes]),
+                   np.concatenate([factors[arc], factors]).astype(float),
+                   np.arange(nq, nq + n), whole_r.reshape(-1, 2),
+                   np.column_stack([first, stop]).astype(int).reshape(-1, 2))
+
+    def extent(self) -> Tuple[float, float, float]:
+        if not self.size:
+            return math.inf, -math.inf, 0.0
+        cz, cr, R, a0, a1 = self.arc.T
+        z = np.concatenate([cz + R * np.cos(a0), cz + R * np.cos(a1)])
+        return float(z.min()), float(z.max()), float(self.whole_r[:, 1].max())
+
+    def sort_levels(self, kind, jobs, y, d, r_max, V, A, budget=None) -> None:
+        if not self.size:
+            return
+        cz, cr, R, a0, a1 = self.arc.T
+        self._sort(kind, jobs, y, V, A, a0, a1, cr + R * np.sin(a0), cr + R * np.sin(a1),
+                   self.washer, budget)
+
+    def parameter_at_r(self, rows, rr):
+        cz, cr, R, a0, a1 = (self.arc[rows, i] for i in range(5))
+        return _arc_angle_at_r(cz, cr, R, a0, a1, rr)
+
+    def washer(self, rows, a, b):
+        cz, cr, R = (self.arc[rows, i] for i in range(3))
+        vol = _arc_washer(cz, cr, R, a, b)
+        _, r_ds = _arc_moments(cz, cr, R, a, b)
+        return vol, 2.0 * PI * r_ds
+
+    def radii(self, rows, p, r_max: float):
+        cr, R = (self.arc[rows, i][:, None] for i in (1, 2))
+        st = np.sin(p)
+        r = cr + R * st
+        return r, -R * st, np.broadcast_to(R, p.shape), r - r_max
+
+    def rounding(self) -> float:
+        """Arcs are written about their centres; for a flat arc (radius ≫ chord) the terms of
+        size (|cr| + R)² R |sweep| cancel to a much smaller volume. Their rounding is part of
+        the error, so the estimate stays honest (negligible for ordinary arcs)."""
+        cz, cr, R, a0, a1 = (self.arc[self.whole, i] for i in range(5))
+        return 16 * np.finfo(float).eps * float(np.sum(PI * (np.abs(cr) + R) ** 2 * R
+                                                       * np.abs(a1 - a0)))
+
+
+class ParametricRows(_SplitRows):
+    """Pieces of any kind by quadrature: ``(segment, p from, p to)``, the segment contract only.
+
+    >>> import sympy
+    >>> from revolve.geometry.segments import Curve
+    >>> t = sympy.Symbol("t", real=True)
+    >>> dome = Curve(sympy.cos(t), sympy.sin(t), 0.0, math.pi)
+    >>> rows = ParametricRows.from_parameters([(dome, [0.0, math.pi / 2, math.pi])], [1.0])
+    >>> [(round(a, 6), round(b, 6)) for _, a, b in rows.curves], rows.whole_r.tolist()
+    ([(0.0, 1.570796), (1.570796, 3.141593), (0.0, 3.141593)], [[0.0, 1.0]])
+    """
+
+    cosine = True
+
+    def __init__(self, curves, factor, whole, whole_r, quarters, extent):
+        self.curves, self.factor = curves, factor
+        self.whole, self.whole_r, self.quarters = whole, whole_r, quarters
+        self._extent = extent
+        self.size = len(factor)
+
+    @classmethod
+    def from_parameters(cls, segments, factors) -> "ParametricRows":
+        """From ``(segment, parameters)`` per segment: its ends and where r turns back, in order."""
+        parts, pf, wholes, wf, wr, wq = [], [], [], [], [], []
+        z_lo, z_hi = math.inf, -math.inf
+        for (seg, params), f in zip(segments, factors):
+            first = len(parts)
+            parts += [(seg, p, q) for p, q in zip(params[:-1], params[1:]) if p != q]
+            pf += [f] * (len(parts) - first)
+            rs = seg.points_at(params)[:, 1]
+            wholes.append((seg, params[0], params[-1]))
+            wf.append(f)
+            wr.append((float(rs.min()), float(rs.max())))
+            wq.append((first, len(parts)))
+            x0, _, x1, _ = seg.bounds()
+            z_lo, z_hi = min(z_lo, x0), max(z_hi, x1)
+        nc = len(parts)
+        whole_r = np.array(wr, dtype=float).reshape(-1, 2)
+        r_max = float(whole_r[:, 1].max()) if len(wr) else 0.0
+        return cls(tuple(parts + wholes), np.array(pf + wf, dtype=float),
+                   np.arange(nc, nc + len(wholes)), whole_r, np.array(wq, dtype=int).reshape(-1, 2),
+                   (z_lo, z_hi, r_max))
+
+    def extent(self) -> Tuple[float, float, float]:
+        return self._extent
+
+    def sort_levels(self, kind, jobs, y, d, r_max, V, A, budget=None) -> None:
+        if not self.size:
+            return
+        ta = np.array([c[1] for c in self.curves])
+        tb = np.array([c[2] for c in self.curves])
+        ends = np.array([c[0].points_at([c[1], c[2]])[:, 1] for c in self.curves])
+        self._sort(kind, jobs, y, V, A, ta, tb, ends[:, 0], ends[:, 1], None, budget)
+
+    def parameter_at_r(self, rows, rr):
+        out = np.empty(rr.shape)
+        for row in np.unique(rows):
+            m = rows == row
+            seg, ta, tb = self.curves[row]
+            out[m] = parameters_at_values(seg, ta, tb, rr[m], coordinate=1)
+        return out
+
+    def radii(self, rows, p, r_max: float):
+        r, dz, ds = (np.empty(p.shape) for _ in range(3))
+        for row in np.unique(rows):
+            m = rows == row
+            seg = self.curves[row][0]
+            pp = p[m]
+            with np.errstate(all="ignore"):
+                r[m] = seg.points_at(pp.ravel())[:, 1].reshape(pp.shape)
+                tangent = seg.tangents_at(pp.ravel())
+                dz[m] = tangent[:, 0].reshape(pp.shape)
+                ds[m] = np.hypot(tangent[:, 0], tangent[:, 1]).reshape(pp.shape)
+        return r, dz, ds, r - r_max
+
+    def rounding(self) -> float:
+        return 0.0
+
 
 @dataclass(frozen=True)
 class HorizontalPieces:
     """The closed loops of a prepared profile, ready for level integrals.
 
-    ``line`` (n, 4): z0, r0, z1, r1 of each straight segment (flat faces,
-    z0 == z1, included). ``arc`` (n, 5): cz, cr, R, angle from, angle to;
-    its first rows are the arcs cut at every quarter turn (so that r is
-    monotone on each), the rows ``arc_whole`` the whole arcs, whose r range
-    is ``arc_whole_r`` and whose quarter rows are ``arc_quarters[k, 0]`` up
-    to ``arc_quarters[k, 1]``. ``curves`` and the ``curve_*`` fields are the
-    same for curves, cut where r turns back. ``*_factor`` are loop factors.
-    ``z`` is measured from ``z_ref``, the middle of the profile; ``r_max`` is
-    the largest distance from the axis and ``length`` the axial extent.
+    ``tables`` holds one table per segment kind present (each kind's
+    ``radial_level_table``: :class:`StraightRows`, :class:`CircularRows` or
+    :class:`ParametricRows`). ``z`` is measured from ``z_ref``, the middle of
+    the profile; ``r_max`` is the largest distance from the axis and
+    ``length`` the axial extent.
     """
 
-    line: np.ndarray
-    line_factor: np.ndarray
-    arc: np.ndarray
-    arc_factor: np.ndarray
-    arc_whole: np.ndarray
-    arc_whole_r: np.ndarray
-    arc_quarters: np.ndarray
-    curves: Tuple[Tuple[Curve, float, float], ...]
-    curve_factor: np.ndarray
-    curve_whole: np.ndarray
-    curve_whole_r: np.ndarray
-    curve_quarters: np.ndarray
+    tables: tuple
     z_ref: float
     r_max: float
     length: float
@@ -204,76 +707,30 @@ def horizontal_pieces(prep: PreparedProfile,
                       loop_factors: Optional[Sequence[float]] = None) -> HorizontalPieces:
     """Split the closed loops for :func:`horizontal_levels` (see :class:`HorizontalPieces`).
 
-    >>> from revolve.geometry.segments import arc_from_centre
+    >>> from revolve.geometry.segments import Line, arc_from_centre
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
     >>> p = horizontal_pieces(prepare(Profile(loops=(Loop((half, Line((-1.0, 0.0), (1.0, 0.0)))),)), Axis.x()))
-    >>> p.arc.shape, p.arc_whole.tolist(), p.arc_quarters.tolist(), p.line.shape, p.r_max
-    ((3, 5), [2], [[0, 2]], (1, 4), 1.0)
+    >>> [type(t).__name__ for t in p.tables], p.r_max, p.length
+    (['CircularRows', 'StraightRows'], 1.0, 2.0)
     """
     if loop_factors is None:
         loop_factors = prep.loop_factors
     pairs = list(_loop_segments(prep, loop_factors))
+    if not pairs:
+        return HorizontalPieces((), 0.0, 0.0, 0.0)
     zs = [c for s, _ in pairs for c in (s.start[0], s.end[0])]
-    z_ref = float((min(zs) + max(zs)) / 2) if zs else 0.0
-    lines, lf = [], []
-    quarters, qf, wholes, wf, wr, wq = [], [], [], [], [], []
-    c_parts, c_pf, c_wholes, c_wf, c_wr, c_wq = [], [], [], [], [], []
-    r_max, z_lo, z_hi = 0.0, math.inf, -math.inf
-    for s, f in pairs:
-        r_max = max(r_max, s.start[1], s.end[1])
-        z_lo, z_hi = min(z_lo, s.start[0], s.end[0]), max(z_hi, s.start[0], s.end[0])
-        if isinstance(s, Line):
-            lines.append((s.start[0] - z_ref, s.start[1], s.end[0] - z_ref, s.end[1]))
-            lf.append(f)
-        elif isinstance(s, Arc):
-            cz, cr, R = s.centre[0] - z_ref, s.centre[1], s.radius
-            first = len(quarters)
-            rs = []
-            for p, q in split_arc(s, PI / 2):
-                quarters.append((cz, cr, R, p, q))
-                qf.append(f)
-                rs += [cr + R * math.sin(p), cr + R * math.sin(q)]
-                for angle in (p, q):
-                    z_lo = min(z_lo, s.centre[0] + R * math.cos(angle))
-                    z_hi = max(z_hi, s.centre[0] + R * math.cos(angle))
-            a0, a1 = s.angles()
-            wholes.append((cz, cr, R, a0, a1))
-            wf.append(f)
-            wr.append((min(rs), max(rs)))
-            wq.append((first, len(quarters)))
-            r_max = max(r_max, max(rs))
-            for k in range(math.ceil(min(a0, a1) / PI), math.floor(max(a0, a1) / PI) + 1):
-                z_lo = min(z_lo, s.centre[0] + R * math.cos(k * PI))
-                z_hi = max(z_hi, s.centre[0] + R * math.cos(k * PI))
-        elif isinstance(s, Curve):
-            c = _shifted_curve(s, -z_ref)
-            first = len(c_parts)
-            rs = []
-            for p, q in split_curve(s, (3,)):
-                c_parts.append((c, p, q))
-                c_pf.append(f)
-                rs += [float(v) for v in s.evaluate(np.array([p, q]))[1]]
-            c_wholes.append((c, s.t_start, s.t_end))
-            c_wf.append(f)
-            c_wr.append((min(rs), max(rs)))
-            c_wq.append((first, len(c_parts)))
-            r_max = max(r_max, max(rs))
-            zz = s.evaluate(np.linspace(s.t_start, s.t_end, 257))[0]
-            z_lo, z_hi = min(z_lo, float(np.nanmin(zz))), max(z_hi, float(np.nanmax(zz)))
-        else:  # pragma: no cover
-            raise TypeError(type(s).__name__)
-    nq, nc = len(quarters), len(c_parts)
-    return HorizontalPieces(
-        np.array(lines, dtype=float).reshape(-1, 4), np.array(lf, dtype=float),
-        np.array(quarters + wholes, dtype=float).reshape(-1, 5), np.array(qf + wf, dtype=float),
-        np.arange(nq, nq + len(wholes)), np.array(wr, dtype=float).reshape(-1, 2),
-        np.array(wq, dtype=int).reshape(-1, 2),
-        tuple(c_parts + c_wholes), np.array(c_pf + c_wf, dtype=float),
-        np.arange(nc, nc + len(c_wholes)), np.array(c_wr, dtype=float).reshape(-1, 2),
-        np.array(c_wq, dtype=int).reshape(-1, 2),
-        z_ref, float(r_max), float(z_hi - z_lo) if zs else 0.0)
+    z_ref = float((min(zs) + max(zs)) / 2)
+    r_max = max(max(s.start[1], s.end[1]) for s, _ in pairs)
+    groups = kind_groups(pairs)
+    tables = tuple(kind.radial_level_table(segs, fs, z_ref) for kind, (segs, fs) in groups.items())
+    tables = tuple(t for t in tables if t.size)
+    z_lo, z_hi = min(zs) - z_ref, max(zs) - z_ref
+    for t in tables:
+        lo, hi, rm = t.extent()
+        z_lo, z_hi, r_max = min(z_lo, lo), max(z_hi, hi), max(r_max, rm)
+    return HorizontalPieces(tables, z_ref, float(r_max), float(z_hi - z_lo))
 
 
 # -- closed forms ---------------------------------------------------------------------------
@@ -305,9 +762,9 @@ STRAIGHT, TOWARDS_START, TOWARDS_END, COSINE = 0, 1, 2, 3
 
 @dataclass
 class _Jobs:
-    """Intervals still to integrate: piece kind and index, level, parameter map, u range."""
+    """Intervals still to integrate: table and row, level, parameter map, u range."""
 
-    kind: np.ndarray     # 0 line, 1 arc, 2 curve
+    kind: np.ndarray     # which table of HorizontalPieces.tables the piece is a row of
     piece: np.ndarray
     level: np.ndarray    # index into the levels
     mapping: np.ndarray
@@ -410,40 +867,17 @@ def _error_estimate(q: np.ndarray, n: int) -> np.ndarray:
 
 
 def _radii(jobs: _Jobs, pieces: HorizontalPieces, p):
-    """r, dz/dp, ds/dp and r - r_max at parameters p of jobs of any kinds."""
-    r = np.empty(p.shape)
-    dz = np.empty(p.shape)
-    ds = np.empty(p.shape)
-    r_less_max = np.empty(p.shape)     # r - r_max, without cancellation on a cylinder at r_max
-    k = jobs.kind
-    sel = np.flatnonzero(k == 0)
-    if sel.size:
-        z0, r0, z1, r1 = (pieces.line[jobs.piece[sel], i][:, None] for i in range(4))
-        slope = (r1 - r0) / (z1 - z0)
-        step = (p[sel] - z0) * slope
-        r[sel] = r0 + step
-        r_less_max[sel] = (r0 - pieces.r_max) + step
-        dz[sel] = 1.0
-        ds[sel] = np.sqrt(1.0 + slope * slope)
-    sel = np.flatnonzero(k == 1)
-    if sel.size:
-        cr, R = (pieces.arc[jobs.piece[sel], i][:, None] for i in (1, 2))
-        st = np.sin(p[sel])
-        rs = cr + R * st
-        r[sel] = rs
-        r_less_max[sel] = rs - pieces.r_max
-        dz[sel] = -R * st
-        ds[sel] = R
-    sel_c = np.flatnonzero(k == 2)
-    for ci in np.unique(jobs.piece[sel_c]):
-        rows = sel_c[jobs.piece[sel_c] == ci]
-        with np.errstate(all="ignore"):
-            _, rc, dzc, drc = pieces.curves[ci][0].evaluate(p[rows])
-        r[rows] = rc
-        r_less_max[rows] = rc - pieces.r_max
-        dz[rows] = dzc
-        ds[rows] = np.hypot(dzc, drc)
-    return r, dz, ds, r_less_max, sel_c
+    """r, dz/dp, ds/dp and r - r_max at parameters p of jobs, each from its table."""
+    first = int(jobs.kind[0]) if len(jobs) else 0
+    if (jobs.kind == first).all():      # one table: the common case, no scattering
+        return pieces.tables[first].radii(jobs.piece, p, pieces.r_max)
+    out = [np.empty(p.shape) for _ in range(4)]
+    for k in np.unique(jobs.kind):
+        sel = np.flatnonzero(jobs.kind == k)
+        vals = pieces.tables[int(k)].radii(jobs.piece[sel], p[sel], pieces.r_max)
+        for o, v in zip(out, vals):
+            o[sel] = v
+    return tuple(out)
 
 
 def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
@@ -460,17 +894,7 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
     half_u = 0.5 * (jobs.ub - jobs.ua)
     u = 0.5 * (jobs.ua + jobs.ub)[:, None] + half_u[:, None] * x[None, :]
     p, dp = _parameter(jobs, u)
-    k = jobs.kind
-    if (k == 1).all():                 # arcs only: the common case, no scattering
-        cr, R = (pieces.arc[jobs.piece, i][:, None] for i in (1, 2))
-        st = np.sin(p)
-        r = cr + R * st
-        r_less_max = r - pieces.r_max
-        dz = -R * st
-        ds = R
-        sel_c = np.zeros(0, dtype=int)
-    else:
-        r, dz, ds, r_less_max, sel_c = _radii(jobs, pieces, p)
+    r, dz, ds, r_less_max = _radii(jobs, pieces, p)
     yy = y[jobs.level][:, None]
     d = depth[jobs.level][:, None]
     rpy = np.clip(r_less_max + d, 0.0, None)                        # r + y = (r - r_max) + depth
@@ -481,7 +905,8 @@ def _evaluate_jobs(jobs: _Jobs, pieces: HorizontalPieces, y, depth, n: int):
         area = r * r * angle + yy * np.sqrt(rpy * rmy)                   # S: 0 and π r² at the ends
         gv = area * dz * jac
         ga = (2.0 * r * angle) * ds * np.abs(jac)
-    if sel_c.size:   # a curve's derivative may be infinite at an end node of a cosine map
+    if any(t.cosine for t in pieces.tables):
+        # a curve's derivative may be infinite at an end node of a cosine map
         gv, ga = np.nan_to_num(gv), np.nan_to_num(ga)
     # einsum, not matmul: a BLAS call for an inner size of n is slower than a plain loop
     qv = np.einsum("jn,nk->jk", gv[:, :n], weights)
@@ -511,9 +936,6 @@ def _arc_angle_at_r(cz, cr, R, a, b, rr):
     t0 = np.arctan2(v, np.sqrt(np.maximum((1 - v) * (1 + v), 0.0)))   # asin(v)
     return base + np.where(qm == 0, t0, np.where(qm == 3, 2 * PI + t0, PI - t0))
 
-
-def _curve_parameter_at_r(curve: Curve, ta: float, tb: float, rr: np.ndarray) -> np.ndarray:
-    return curve_parameter_at(curve, ta, tb, rr, coordinate=1)
 
 
 @dataclass(frozen=True)
@@ -573,7 +995,7 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     A ball of radius 1 (a half circle on the axis) filled to depth h holds a
     spherical cap, π h² (3 - h)/3 (CRC):
 
-    >>> from revolve.geometry.segments import arc_from_centre
+    >>> from revolve.geometry.segments import Line, arc_from_centre
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
     >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
@@ -592,75 +1014,13 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
     A = np.zeros(nY)
     E = np.zeros(nY)
     jobs = _Jobs.empty()
-    every_level = np.arange(nY)
-    # Lines --------------------------------------------------------------------------
-    if pc.line.size:
-        z0, r0, z1, r1 = (pc.line[:, i][:, None] for i in range(4))
-        f = pc.line_factor[:, None]
-        yy = y[None, :]
-        dz, dr = z1 - z0, r1 - r0
-        length = np.hypot(dz, dr)
-        # S, F and the wetted arc at each distinct end radius once (lines share their ends).
-        radii, where_ = np.unique(np.concatenate([pc.line[:, 1], pc.line[:, 3]]),
-                                  return_inverse=True)
-        ru = radii[:, None]
-        top = (2.0 * Rm - d)[None, :]           # r_max - y: the height left above the liquid
-        rpy, rmy = (ru - Rm) + d[None, :], (ru - Rm) + top
-        S_u = segment_area(ru, yy, rpy, rmy)
-        i0, i1 = where_[:len(pc.line)], where_[len(pc.line):]
-        s0, s1 = S_u[i0], S_u[i1]
-        cyl = (dr == 0)
-        radial = (dz == 0)
-        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
-        steep = ~cyl & ~radial & ~cone
-        with np.errstate(divide="ignore", invalid="ignore"):
-            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
-            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
-        vol = np.where(cyl, s0 * dz, 0.0)
-        if cone.any():
-            F_u = segment_area_integral(ru, yy)
-            vol = vol + np.where(cone, ratio * (F_u[i1] - F_u[i0]), 0.0)
-        area = np.where(radial | cone, np.where(radial, 1.0, lratio) * np.abs(s1 - s0), 0.0)
-        if cyl.any():
-            W_u = wetted_arc(ru, yy, rpy, rmy)
-            area = area + np.where(cyl, W_u[i0] * length, 0.0)
-        V += (-f * vol).sum(axis=0)
-        A += area.sum(axis=0)
-        # Nearly flat cones: quadrature, split where the level is tangent.
-        st = np.flatnonzero(steep[:, 0])
-        if st.size:
-            rows, lv = np.repeat(st, nY), np.tile(every_level, st.size)
-            L_ = pc.line
-            _sort_pairs(jobs, 0, rows, lv, L_[:, 0], L_[:, 2], L_[:, 1], L_[:, 3], pc.line_factor,
-                        y, lambda i, rr: _line_z_at_r(L_[i], rr), V, A,
-                        washer=lambda i, a, b: _line_sub(pc, i, a, b))
-    # Arcs: whole arcs where the level is not tangent to them, quarter turns where it is.
-    if pc.arc.size:
-        cz, cr, R, a0, a1 = (pc.arc[:, i] for i in range(5))
-        ra, rb = cr + R * np.sin(a0), cr + R * np.sin(a1)
-        sub = _sort_wholes(jobs, 1, pc.arc_whole, pc.arc_whole_r, pc.arc_quarters, a0, a1,
-                           pc.arc_factor, y, V, A, washer=lambda i, a, b: _arc_sub(pc, i, a, b))
-        if sub is not None:
-            _sort_pairs(jobs, 1, sub[0], sub[1], a0, a1, ra, rb, pc.arc_factor, y,
-                        lambda i, rr: _arc_angle_at_r(cz[i], cr[i], R[i], a0[i], a1[i], rr), V, A,
-                        washer=lambda i, a, b: _arc_sub(pc, i, a, b))
-    # Curves: the same, by quadrature throughout.
-    if pc.curves:
-        ta = np.array([c[1] for c in pc.curves])
-        tb = np.array([c[2] for c in pc.curves])
-        ends = [c[0].evaluate(np.array([c[1], c[2]]))[1] for c in pc.curves]
-        ra = np.array([float(e[0]) for e in ends])
-        rb = np.array([float(e[1]) for e in ends])
-        sub = _sort_wholes(jobs, 2, pc.curve_whole, pc.curve_whole_r, pc.curve_quarters, ta, tb,
-                           pc.curve_factor, y, V, A, washer=None)
-        if sub is not None:
-            _sort_pairs(jobs, 2, sub[0], sub[1], ta, tb, ra, rb, pc.curve_factor, y,
-                        lambda i, rr: _curve_parameter_at_r_rows(pc, i, rr), V, A, washer=None)
-    # Quadrature, vectorised over levels and pieces, halving intervals not yet resolved.
-    factors = (pc.line_factor, pc.arc_factor, pc.curve_factor)
-    share = rel_tol / max(1, len(pc.line) + len(pc.arc) + len(pc.curves))
+    share = rel_tol / max(1, sum(t.size for t in pc.tables))
     tol_v = share * PI * Rm * Rm * max(pc.length, Rm)
     tol_a = share * 2.0 * PI * Rm * max(pc.length, Rm)
+    for kind, table in enumerate(pc.tables):
+        table.sort_levels(kind, jobs, y, d, Rm, V, A, budget=(tol_v, tol_a, E, Rm))
+    # Quadrature, vectorised over levels and pieces, halving intervals not yet resolved.
+    factors = tuple(t.factor for t in pc.tables)
     round_no = 0
     work = 0
     while len(jobs):
@@ -695,61 +1055,32 @@ def horizontal_levels(prep: PreparedProfile, depths, loop_factors: Optional[Sequ
         round_no += 1
         if len(jobs) > max_jobs or work + len(jobs) > max_work:
             max_rounds = round_no       # the next round is the last: it takes what is left
-    # Arcs are written about their centres; for a flat arc (radius ≫ chord) the terms of
-    # size (|cr| + R)² R |sweep| cancel to a much smaller volume. Their rounding is part of
-    # the error, so the estimate stays honest (it is negligible for ordinary arcs).
-    if pc.arc_whole.size:
-        cz, cr, R, a0, a1 = (pc.arc[pc.arc_whole, i] for i in range(5))
-        E += 16 * np.finfo(float).eps * float(np.sum(PI * (np.abs(cr) + R) ** 2 * R
-                                                   * np.abs(a1 - a0)))
+    E += sum(t.rounding() for t in pc.tables)
     return HorizontalLevels(d, V, A, E, Rm)
 
 
-def _line_z_at_r(rows, rr):
-    z0, r0, z1, r1 = rows[:, 0], rows[:, 1], rows[:, 2], rows[:, 3]
-    return z0 + (rr - r0) * (z1 - z0) / (r1 - r0)
-
-
-def _line_sub(pc, idx, a, b):
-    """Washer volume and swept surface of lines between z = a and z = b (parameter is z)."""
-    z0, r0, z1, r1 = (pc.line[idx, i] for i in range(4))
-    slope = (r1 - r0) / (z1 - z0)
-    ra, rb = r0 + (a - z0) * slope, r0 + (b - z0) * slope
-    vol = _line_washer(a, ra, b, rb)
-    surf = 2.0 * PI * np.hypot(b - a, rb - ra) * (ra + rb) / 2.0
-    return vol, surf
-
-
-def _arc_sub(pc, idx, a, b):
-    cz, cr, R = (pc.arc[idx, i] for i in range(3))
-    vol = _arc_washer(cz, cr, R, a, b)
-    _, r_ds = _arc_moments(cz, cr, R, a, b)
-    return vol, 2.0 * PI * r_ds
-
-
-def _curve_parameter_at_r_rows(pc: HorizontalPieces, rows, rr):
-    out = np.empty(rr.shape)
-    for row in np.unique(rows):
-        m = rows == row
-        curve, ta, tb = pc.curves[row]
-        out[m] = _curve_parameter_at_r(curve, ta, tb, rr[m])
-    return out
 
 
 def _sort_wholes(jobs: _Jobs, kind: int, whole_rows, whole_r, quarters, pa, pb, factor, y,
-                 V, A, washer):
-    """Whole arcs or curves against every level: closed forms and whole-piece jobs.
+                 V, A, washer, pairs=None):
+    """Whole arcs or curves against levels: closed forms and whole-piece jobs.
 
-    Returns the (quarter row, level) pairs where a level is tangent to a
-    whole piece's circles, for :func:`_sort_pairs`, or None.
+    ``pairs`` (whole index, level index) limits the work to those pairs (all
+    by default). Returns the (quarter row, level) pairs where a level is
+    tangent to a whole piece's circles, for :func:`_sort_pairs`, or None.
     """
     nW, nY = whole_rows.size, y.size
     if nW == 0:
         return None
-    rlo, rhi = whole_r[:, 0:1], whole_r[:, 1:2]
-    yy = y[None, :]
-    W = np.broadcast_to(np.arange(nW)[:, None], (nW, nY))
-    Y = np.broadcast_to(np.arange(nY)[None, :], (nW, nY))
+    if pairs is None:
+        W = np.broadcast_to(np.arange(nW)[:, None], (nW, nY))
+        Y = np.broadcast_to(np.arange(nY)[None, :], (nW, nY))
+    else:
+        W, Y = pairs
+        if W.size == 0:
+            return None
+    rlo, rhi = whole_r[W, 0], whole_r[W, 1]
+    yy = y[Y]
     above = yy >= rhi
     whole = (yy > -rhi) & ~above & (np.abs(yy) < rlo)
     split = (yy > -rhi) & ~above & ~whole

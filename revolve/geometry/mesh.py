@@ -14,10 +14,11 @@ profile point by the same angle). The two distances add, so each is given
 triangles (their number goes as 1/√(s₁ s₂) with s₁ + s₂ = δ).
 
 * Each segment of the profile (placed in the axis frame) is flattened into
-  chords within δ/2: a line is its own chord; an arc of radius ``R`` is cut
+  chords within δ/2 by its own kind (``flatten_to_tolerance``, part of the
+  segment contract): a line is its own chord; an arc of radius ``R`` is cut
   into equal pieces whose sagitta ``R (1 - cos(Δ/2))`` is at most δ/2
   (exact); a curve is subdivided adaptively until the distance of probe
-  points from each chord is within δ/2.
+  points from each chord is within δ/2; a polyline's edges are its chords.
 * The flattened profile is revolved in equal angular steps chosen with the
   same sagitta formula, within δ/2, on the largest distance from the axis.
 * No mesh of more than :data:`MOST_TRIANGLES` triangles is built: a
@@ -57,7 +58,7 @@ import numpy as np
 from revolve.errors import RevolveError
 from revolve.geometry.checks import prepare
 from revolve.geometry.profile import UNNAMED_FACE, Revolution
-from revolve.geometry.segments import Arc, Curve, Line, Segment
+from revolve.geometry.segments import Segment
 
 #: The largest angle one chord may span, on an arc or in the sweep (radians).
 LARGEST_STEP = math.pi / 2
@@ -211,76 +212,21 @@ def chord_steps(radius: float, sweep: float, tolerance: float) -> int:
 def flatten_segment(segment: Segment, tolerance: float, *, most_pieces: int = 1_000_000) -> np.ndarray:
     """Points along a segment whose chords stay within ``tolerance`` of it, shape (m + 1, 2).
 
-    Start and end are the segment's own end points.
+    Start and end are the segment's own end points. Each kind flattens itself
+    (``flatten_to_tolerance``): a line is its own chord, an arc is cut by the
+    sagitta exactly (:func:`chord_steps`), a curve is subdivided adaptively,
+    a polyline gives its own vertices.
 
+    >>> from revolve.geometry.segments import Line, Polyline, arc_from_centre
     >>> flatten_segment(Line((0.0, 1.0), (2.0, 1.0)), 0.1).tolist()
     [[0.0, 1.0], [2.0, 1.0]]
-    >>> from revolve.geometry.segments import arc_from_centre
     >>> quarter = arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False)
     >>> len(flatten_segment(quarter, 1 - math.cos(math.pi / 8)))   # sagitta of 45°: 2 pieces
     3
+    >>> flatten_segment(Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])), 0.1).shape
+    (3, 2)
     """
-    if isinstance(segment, Line):
-        return np.array([segment.start, segment.end], dtype=float)
-    if isinstance(segment, Arc):
-        a0, a1 = segment.angles()
-        n = chord_steps(segment.radius, a1 - a0, tolerance)
-        if n > most_pieces:
-            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
-                               "pieces on one arc; use a larger tolerance")
-        a = np.linspace(a0, a1, n + 1)
-        pts = np.column_stack([segment.centre[0] + segment.radius * np.cos(a),
-                               segment.centre[1] + segment.radius * np.sin(a)])
-        pts[0], pts[-1] = segment.start, segment.end
-        return pts
-    if isinstance(segment, Curve):
-        return _flatten_curve(segment, tolerance, most_pieces)
-    raise TypeError(f"unknown segment kind {type(segment).__name__}")
-
-
-def _distance_to_chord(p: np.ndarray, a: np.ndarray, b: np.ndarray) -> np.ndarray:
-    """Distance of points ``p`` (k, q, 2) from chords ``a``-``b`` (k, 2)."""
-    ab = (b - a)[:, None, :]
-    ap = p - a[:, None, :]
-    ll = np.einsum("kqi,kqi->kq", np.broadcast_to(ab, ap.shape), np.broadcast_to(ab, ap.shape))
-    with np.errstate(invalid="ignore", divide="ignore"):
-        s = np.clip(np.einsum("kqi,kqi->kq", ap, np.broadcast_to(ab, ap.shape)) / ll, 0.0, 1.0)
-    s = np.where(ll > 0, s, 0.0)
-    return np.linalg.norm(ap - s[..., None] * ab, axis=-1)
-
-
-def _flatten_curve(curve: Curve, tolerance: float, most_pieces: int,
-                   first_pieces: int = 16, deepest: int = 40) -> np.ndarray:
-    """Adaptive subdivision in the parameter: split a piece while a probe strays from its chord."""
-    probes = np.array([0.25, 0.5, 0.75])
-    lo = np.linspace(curve.t_start, curve.t_end, first_pieces + 1)
-    a, b = lo[:-1], lo[1:]
-    finished: List[np.ndarray] = []
-    for _ in range(deepest):
-        if a.size == 0:
-            break
-        tp = a[:, None] + (b - a)[:, None] * probes
-        t_all = np.concatenate([a, b, tp.ravel()])
-        x, y, _, _ = curve.evaluate(t_all)
-        xy = np.column_stack([x, y])
-        k = a.size
-        pa, pb, pp = xy[:k], xy[k:2 * k], xy[2 * k:].reshape(k, probes.size, 2)
-        off = _distance_to_chord(pp, pa, pb).max(axis=1)
-        bad = ~(off <= tolerance)  # NaN counts as bad
-        finished.append(a[~bad])
-        mid = (a[bad] + b[bad]) / 2
-        a, b = np.concatenate([a[bad], mid]), np.concatenate([mid, b[bad]])
-        if sum(f.size for f in finished) + a.size > most_pieces:
-            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
-                               "pieces on one curve; use a larger tolerance")
-    finished.append(a)  # pieces still too far after the deepest split are kept as they are
-    t = np.sort(np.concatenate(finished + [np.array([curve.t_end])]))
-    if curve.t_end < curve.t_start:
-        t = t[::-1]
-    x, y, _, _ = curve.evaluate(t)
-    pts = np.column_stack([x, y])
-    pts[0], pts[-1] = curve.start, curve.end
-    return pts
+    return segment.flatten_to_tolerance(tolerance, most_pieces)
 
 
 @dataclass(frozen=True)
@@ -306,6 +252,7 @@ def flatten_path(segments: Sequence[Segment], closed: bool, tolerance: float,
     ``r <= on_axis`` are put exactly on the axis. No segment is cut into more
     than ``most_pieces`` chords (a :class:`RevolveError` says so).
 
+    >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 0.0), (2.0, 0.0)), Line((2.0, 0.0), (2.0, 1.0)), Line((2.0, 1.0), (0.0, 0.0)))
     >>> fp = flatten_path(segs, True, 0.1, lambda s: 0)
     >>> fp.points.tolist(), fp.faces.tolist()
@@ -702,8 +649,7 @@ def revolve_mesh(revolution: Revolution, tolerance: float) -> TriangleMesh:
     full = revolution.full
     r_ends = max(max(s.start[1], s.end[1]) for segs in prep.paths for s in segs)
     least_steps = max(chord_steps(r_ends, theta, half), 4 if full else 1)
-    least_chords = sum(chord_steps(s.radius, s.angles()[1] - s.angles()[0], half)
-                       if isinstance(s, Arc) else 1 for segs in prep.paths for s in segs)
+    least_chords = sum(s.fewest_chords(half) for segs in prep.paths for s in segs)
     if 2 * least_chords * least_steps > MOST_TRIANGLES:
         raise too_many()
     most_pieces = max(1, MOST_TRIANGLES // (2 * least_steps))

@@ -184,9 +184,10 @@ def turning_pieces(seg) -> list:
     """A frame segment split where it turns back along the axis (where dz/ds changes sign).
 
     Within each piece the radial part of the normal keeps one sign, so each
-    piece faces the axis or away from it all along (or lies flat). Lines are
-    one piece; arcs split at the angles 0 and π from their centre; curves
-    where dz/dt changes sign (found on 1024 steps, then by bisection).
+    piece faces the axis or away from it all along (or lies flat). The cuts
+    are the segment's own :meth:`turning_parameters` along the axis (a line
+    has none, an arc turns at the angles 0 and π from its centre, a curve
+    where dz/dt changes sign, a polyline at the vertices where z turns back).
 
     >>> from revolve.geometry.segments import arc_from_centre
     >>> circle_top = arc_from_centre((-1.0, 3.0), (1.0, 3.0), (0.0, 3.0), clockwise=True)
@@ -196,22 +197,40 @@ def turning_pieces(seg) -> list:
     >>> [tuple(round(v, 12) for v in p.end) for p in turning_pieces(whole)]
     [(1.0, 3.0), (0.0, 4.0)]
     """
-    from dataclasses import replace
+    out = []
+    for piece in seg.split_at(seg.turning_parameters(0)):
+        out.extend(_square_runs_apart(piece))
+    return out
 
-    from revolve.geometry.clipping import split_arc
 
-    if seg.kind == "line":
-        return [seg]
-    if seg.kind == "arc":
-        cuts = [q for _, q in split_arc(seg, math.pi)[:-1]]   # where z turns back
-        cz, cr = seg.centre
-        points = [seg.start] + [(cz + seg.radius * math.cos(a), cr + seg.radius * math.sin(a))
-                                for a in cuts] + [seg.end]
-        return [replace(seg, start=p, end=q, exact=None) for p, q in zip(points[:-1], points[1:])]
-    ts = [seg.t_start] + seg.turning_parameters(0)
-    ts.append(seg.t_end)
-    return [replace(seg, t_start=ta, t_end=tb, exact=None) for ta, tb in zip(ts[:-1], ts[1:])
-            if tb != ta]
+def _square_runs_apart(piece) -> list:
+    """A piece cut where it starts and stops running square to the axis.
+
+    A polyline that only moves one way along the axis may still climb a
+    shoulder (an edge of constant z) between two diameters; cutting it at the
+    ends of each such run puts the shoulder in its own piece, which
+    :func:`classify` then counts as an end. The runs are found on the piece's
+    :meth:`flatten` points and cut at :meth:`parameters_at` their z.
+
+    >>> import numpy as np
+    >>> from revolve.geometry.segments import Polyline
+    >>> step = Polyline(np.array([[0.0, 2.0], [5.0, 2.0], [5.0, 3.0], [9.0, 3.0]]))
+    >>> [(p.start, p.end) for p in _square_runs_apart(step)]
+    [((0.0, 2.0), (5.0, 2.0)), ((5.0, 2.0), (5.0, 3.0)), ((5.0, 3.0), (9.0, 3.0))]
+    """
+    import numpy as np
+
+    z = np.asarray(piece.flatten(), dtype=float)[:, 0]
+    if len(z) < 3:
+        return [piece]
+    levels = np.unique(z[1:][z[1:] == z[:-1]])
+    if not levels.size:
+        return [piece]
+    p0, p1 = piece.parameter_range()
+    lo, hi = min(p0, p1), max(p0, p1)
+    cuts = sorted({p for v in levels for p in piece.parameters_at(0, float(v)) if lo < p < hi},
+                  reverse=p1 < p0)
+    return list(piece.split_at(cuts))
 
 
 def classify(axial_extent: float, radial_normal: float, chord: float) -> str:

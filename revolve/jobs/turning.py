@@ -58,10 +58,7 @@ import math
 from dataclasses import dataclass, field
 from typing import Dict, Mapping, Optional, Sequence, Tuple
 
-import numpy as np
-
 from revolve.errors import ProfileError, RevolveError
-from revolve.geometry.checks import loop_factor
 
 #: Relative slack when comparing sizes and counting parts (a nanometre per metre):
 #: a bar that covers a diameter exactly is taken, an exact fit counts.
@@ -154,73 +151,11 @@ class Envelope:
         return 2.0 * self.min_radius if self.through_bore else 0.0
 
 
-def _arc_extremes(arcs) -> np.ndarray:
-    """Extreme points of arcs where the sweep passes 0, π/2, π, 3π/2; shape (k, 2).
-
-    Vectorised over the arcs and the four directions.
-
-    >>> from revolve.geometry.segments import arc_from_centre
-    >>> a = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
-    >>> _arc_extremes([a]).round(12).tolist()
-    [[0.0, 1.0]]
-    >>> _arc_extremes([]).shape
-    (0, 2)
-    """
-    if not arcs:
-        return np.zeros((0, 2))
-    centre = np.array([a.centre for a in arcs], dtype=float)
-    radius = np.array([a.radius for a in arcs], dtype=float)
-    ang = np.array([a.angles() for a in arcs], dtype=float)
-    lo, hi = ang.min(axis=1), ang.max(axis=1)
-    targets = np.array([0.0, 0.5, 1.0, 1.5]) * math.pi
-    # Smallest target + 2πk at or above lo; inside when strictly below hi.
-    k = np.ceil((lo[:, None] - targets[None, :]) / (2 * math.pi))
-    candidate = targets[None, :] + 2 * math.pi * k
-    inside = (candidate > lo[:, None]) & (candidate < hi[:, None])
-    rows, cols = np.nonzero(inside)
-    # Exact directions: cos/sin of 0, π/2, π, 3π/2 without rounding noise.
-    cos = np.array([1.0, 0.0, -1.0, 0.0])[cols]
-    sin = np.array([0.0, 1.0, 0.0, -1.0])[cols]
-    return np.column_stack([centre[rows, 0] + radius[rows] * cos,
-                            centre[rows, 1] + radius[rows] * sin])
-
-
-def _curve_extremes(curves) -> np.ndarray:
-    """Points of curves at their largest and smallest z and r, refined by a bounded search.
-
-    Sampled at 4097 points, then each interior extreme is polished with
-    ``scipy.optimize.minimize_scalar`` (bounded) between its neighbours.
-    """
-    if not curves:
-        return np.zeros((0, 2))
-    from scipy.optimize import minimize_scalar
-
-    out = []
-    for c in curves:
-        t = np.linspace(c.t_start, c.t_end, 4097)
-        x, y, _, _ = c.evaluate(t)
-        for values, which, sign in ((x, 0, 1.0), (x, 0, -1.0), (y, 1, 1.0), (y, 1, -1.0)):
-            i = int(np.argmax(sign * values))
-            out.append((float(x[i]), float(y[i])))
-            if 0 < i < len(t) - 1:
-                a, b = sorted((t[i - 1], t[i + 1]))
-
-                def objective(tt, which=which, sign=sign, c=c):
-                    return -sign * float(c.evaluate(np.array([tt]))[which][0])
-
-                res = minimize_scalar(objective, bounds=(a, b), method="bounded",
-                                      options={"xatol": 1e-14 * max(1.0, abs(b))})
-                xx, yy, _, _ = c.evaluate(np.array([res.x]))
-                out.append((float(xx[0]), float(yy[0])))
-    return np.array(out, dtype=float)
-
-
 def envelope(prepared, length_factor: float = 1.0) -> Envelope:
     """Extent of a prepared profile (axis frame): length along the axis, largest and smallest radius.
 
-    Exact for lines and arcs: segment ends plus each arc's points where its
-    sweep passes the four axis directions (so an arc that bulges past its
-    ends counts at its crest). Curves are sampled and refined numerically.
+    From :func:`revolve.geometry.envelope.extent` (every segment's bounds: an
+    arc or curve that bulges past its ends counts at its crest), in metres.
 
     Parameters
     ----------
@@ -258,23 +193,18 @@ def envelope(prepared, length_factor: float = 1.0) -> Envelope:
     ...
     revolve.errors.ProfileError: turning needs a solid section (a closed loop); this profile has only open chains
     """
-    from revolve.geometry.segments import Arc, Curve
+    from revolve.geometry.envelope import extent
 
-    segs = [s for path, closed in zip(prepared.paths, prepared.closed) if closed for s in path]
-    if not segs:
+    box = extent(prepared)
+    if box is None:
         raise ProfileError("turning needs a solid section (a closed loop); this profile has only "
                            "open chains")
-    ends = np.array([p for s in segs for p in (s.start, s.end)], dtype=float)
-    pts = np.vstack([ends,
-                     _arc_extremes([s for s in segs if isinstance(s, Arc)]),
-                     _curve_extremes([s for s in segs if isinstance(s, Curve)])])
-    z0, z1 = float(pts[:, 0].min()), float(pts[:, 0].max())
-    r_max, r_min = float(pts[:, 1].max()), max(0.0, float(pts[:, 1].min()))
+    r_min = max(0.0, box.r_min)
     through = r_min > prepared.tolerance
     if not through:
         r_min = 0.0
     f = float(length_factor)
-    return Envelope(z0 * f, z1 * f, r_max * f, r_min * f, through)
+    return Envelope(box.z_min * f, box.z_max * f, box.r_max * f, r_min * f, through)
 
 
 @dataclass(frozen=True)
@@ -854,63 +784,29 @@ def limit_radius(cd: CuttingData, speed_limit: Optional[float]) -> float:
     return cd.cutting_speed / (2.0 * math.pi * speed_limit)
 
 
-def _G(r: np.ndarray, vc: float, n: float) -> np.ndarray:
-    """∫₀ʳ g, with g(ρ) = max(0, 1/n − 2πρ/vc): the extra time per unit ``f``·area below the limit."""
+def _G(r: float, vc: float, n: float) -> float:
+    """∫₀ʳ g, with g(ρ) = max(0, 1/n − 2πρ/vc): the extra time per unit ``f``·area below the limit.
+
+    >>> _G(0.0, 1.0, 1.0), round(_G(10.0, 2 * math.pi, 1.0), 12)    # rc = 1: ∫₀¹ (1 − ρ) dρ
+    (0.0, 0.5)
+    """
     rc = vc / (2.0 * math.pi * n)
-    rr = np.minimum(np.maximum(r, 0.0), rc)
+    rr = min(max(float(r), 0.0), rc)
     return rr / n - math.pi * rr * rr / vc
 
 
-def _H(r: np.ndarray, vc: float, n: float) -> np.ndarray:
-    """∫₀ʳ G."""
-    rc = vc / (2.0 * math.pi * n)
-    rr = np.minimum(np.maximum(r, 0.0), rc)
-    below = rr * rr / (2.0 * n) - math.pi * rr ** 3 / (3.0 * vc)
-    return below + _G(np.asarray(r, float), vc, n) * np.maximum(np.asarray(r, float) - rc, 0.0)
-
-
-def _mean_over(a: np.ndarray, b: np.ndarray, F, f, vc: float, n: float) -> np.ndarray:
-    """Mean of f over [a, b] from its antiderivative F; f at the middle where b ≈ a."""
-    d = b - a
-    scale = np.maximum(np.maximum(np.abs(a), np.abs(b)), vc / (2 * math.pi * n))
-    small = np.abs(d) <= 1e-7 * scale
-    safe = np.where(small, 1.0, d)
-    return np.where(small, f((a + b) / 2.0, vc, n), (F(b, vc, n) - F(a, vc, n)) / safe)
-
-
-def _g(r, vc, n):
-    return np.maximum(0.0, 1.0 / n - 2.0 * math.pi * np.maximum(r, 0.0) / vc)
-
-
-def _chords(segments) -> Tuple[np.ndarray, np.ndarray]:
-    """Start and end points of fine chords along frame segments (arcs to 0.25°)."""
-
-    pieces = [s.flatten(max_angle=math.pi / 720, curve_pieces=2048) for s in segments]
-    if not pieces:
-        return np.zeros((0, 2)), np.zeros((0, 2))
-    return (np.vstack([p[:-1] for p in pieces]), np.vstack([p[1:] for p in pieces]))
-
-
 def _section_g_integral(prepared, vc: float, n: float, length_factor: float) -> float:
-    """∫∫ g(r) dA over the part's section (holes subtracted), in SI, by Green's theorem:
-    ∫∫ G'(r) dA = −∮ G(r) dz on each loop, signed by its own area and nesting depth."""
-    total = 0.0
-    depth_iter = iter(prepared.depths)
+    """∫∫ g(r) dA over the part's section (holes subtracted), in SI.
+
+    g(r) = max(0, 1/n − 2πr/vc) = (2π/vc) max(0, rc − r) with rc = vc / (2πn), so
+    this is (2π/vc) times the exact ramp integral of
+    :func:`revolve.geometry.envelope.ramp_area_integral`, scaled to metres.
+    """
+    from revolve.geometry.envelope import ramp_area_integral
+
     f = float(length_factor)
-    for path, closed in zip(prepared.paths, prepared.closed):
-        if not closed:
-            continue
-        depth = next(depth_iter)
-        a, b = _chords(path)
-        if not len(a):
-            continue
-        a, b = a * f, b * f
-        dz = b[:, 0] - a[:, 0]
-        area = float(-(dz * (a[:, 1] + b[:, 1]) / 2.0).sum())
-        integral = float(-(dz * _mean_over(a[:, 1], b[:, 1], _H, _G, vc, n)).sum())
-        sign = loop_factor(area, depth)
-        total += sign * integral
-    return total
+    rc = vc / (2.0 * math.pi * n)
+    return 2.0 * math.pi / vc * ramp_area_integral(prepared, rc / f).value * f ** 3
 
 
 def roughing_time_limited(chip_volume: float, cut_length: float, stock: StockSize, prepared,
@@ -934,7 +830,7 @@ def roughing_time_limited(chip_volume: float, cut_length: float, stock: StockSiz
         return base
     vc, n = cd.cutting_speed, float(speed_limit)
     ro, ri = stock.outside_diameter / 2.0, stock.inside_diameter / 2.0
-    stock_part = cut_length * float(_G(np.array(ro), vc, n) - _G(np.array(ri), vc, n))
+    stock_part = cut_length * (_G(ro, vc, n) - _G(ri, vc, n))
     extra = stock_part - _section_g_integral(prepared, vc, n, length_factor)
     return base + max(0.0, extra) / (cd.depth_of_cut * cd.feed)
 
@@ -981,18 +877,16 @@ def finishing_time_limited(prepared, faces: Sequence[str], area: float, cd: Cutt
     base = finishing_time(area, cd)
     if speed_limit is None or not faces:
         return base
+    from revolve.geometry.envelope import ramp_boundary_integral
     from revolve.geometry.profile import UNNAMED_FACE
 
     wanted = set(faces)
     segs = [s for path in prepared.paths for s in path if (s.face or UNNAMED_FACE) in wanted]
-    a, b = _chords(segs)
-    if not len(a):
-        return base
     f = float(length_factor)
-    a, b = a * f, b * f
-    length = np.hypot(*(b - a).T)
     vc, n = cd.cutting_speed, float(speed_limit)
-    extra = float((length * _mean_over(a[:, 1], b[:, 1], _G, _g, vc, n)).sum())
+    rc = vc / (2.0 * math.pi * n)
+    # ∫ g ds with g = (2π/vc) max(0, rc − r): the exact ramp integral along the faces, in metres.
+    extra = 2.0 * math.pi / vc * ramp_boundary_integral(segs, rc / f).value * f * f
     return base + extra / cd.feed
 
 

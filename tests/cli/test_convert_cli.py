@@ -338,3 +338,37 @@ def test_half_thou_gap_in_an_inch_drawing_converts(tmp_path, capsys):
     assert code == 0, err
     report = json.loads(out)["report"]
     assert report["tolerance"] == pytest.approx(0.001) and len(report["gaps_closed"]) == 1
+
+
+def test_a_long_drawing_polyline_converts_to_lines_through_its_vertices(tmp_path, capsys):
+    # 2000 straight edges of a closed LWPOLYLINE: read as one polyline (the report says so),
+    # written as one line_to per edge, read back through the very vertices ezdxf holds
+    # (LWPolyline.get_points). Reference for the volume: shapely Polygon.area and .centroid
+    # with Pappus V = 2π ȳ A (Stewart, from memory).
+    a = np.linspace(0.0, 2 * np.pi, 2000, endpoint=False)
+    r = 1.0 + 0.3 * np.sin(7 * a)
+    doc = ezdxf.new("R2010", setup=True)
+    doc.header["$INSUNITS"] = 4
+    msp = doc.modelspace()
+    outline = msp.add_lwpolyline(np.column_stack([r * np.cos(a), 3.0 + r * np.sin(a)]).tolist(),
+                                 close=True)
+    msp.add_line((-2, 0), (2, 0), dxfattribs={"linetype": "CENTER"})
+    drawing = str(tmp_path / "wavy.dxf")
+    doc.saveas(drawing)
+    vertices = np.array(list(outline.get_points("xy")), dtype=float)
+    out_file = str(tmp_path / "wavy.toml")
+    code, out, err = run(["convert", drawing, "-o", out_file, "--json"], capsys)
+    assert code == 0, err
+    found = json.loads(out)["report"]["loops"][0]
+    assert (found["polylines"], found["lines"], found["arcs"]) == (1, 0, 0)
+    segments = load_profile(out_file).profile.loops[0].segments
+    assert len(segments) == 2000
+    assert np.array_equal(np.array([s.start for s in segments]), vertices)
+    code, out, err = run(["measure", out_file, "--json"], capsys)
+    assert code == 0, err
+    shape = Polygon(vertices)
+    assert json.loads(out)["volume"] == pytest.approx(2 * math.pi * shape.centroid.y * shape.area,
+                                                      rel=1e-12)
+    code, out, err = run(["convert", drawing, "-o", out_file, "--force"], capsys)
+    assert code == 0, err
+    assert "polylines" in out    # the table counts it

@@ -315,3 +315,41 @@ def test_mesh_and_csv_written_together(tmp_path, capsys):
     assert trimesh.load(str(stl)).volume == pytest.approx(16 * math.pi, rel=1e-2)
     assert table.read_text(encoding="utf-8").startswith("quantity,")
     assert sorted(p.name for p in tmp_path.iterdir()) == ["m.csv", "m.stl", "tube.toml"]
+
+
+def test_a_drawing_polyline_meshes_through_its_own_vertices(tmp_path, capsys, monkeypatch):
+    # A 1000-edge LWPOLYLINE (ezdxf) read as one polyline: its edges are the mesh's chords,
+    # so the STL (trimesh) holds exactly the revolved polygon swept in n equal steps: its
+    # volume is the Pappus volume (shapely Polygon.area and .centroid, V = 2π ȳ A, Stewart,
+    # from memory) times (n / 2π) sin(2π / n), the inscribed regular n-gon (CRC, from
+    # memory); within the STL's single precision.
+    import ezdxf
+    from shapely.geometry import Polygon
+
+    from revolve.formats import READERS
+    from revolve.formats.drawings import DRAWING_READERS
+
+    for extension, reader in DRAWING_READERS.items():
+        monkeypatch.setitem(READERS, extension, reader)
+    a = np.linspace(0.0, 2 * np.pi, 1000, endpoint=False)
+    r = 1.0 + 0.3 * np.sin(7 * a)
+    doc = ezdxf.new("R2010", setup=True)
+    doc.header["$INSUNITS"] = 4
+    msp = doc.modelspace()
+    outline = msp.add_lwpolyline(np.column_stack([r * np.cos(a), 3.0 + r * np.sin(a)]).tolist(),
+                                 close=True)
+    msp.add_line((-2, 0), (2, 0), dxfattribs={"linetype": "CENTER"})
+    drawing = str(tmp_path / "wavy.dxf")
+    doc.saveas(drawing)
+    shape = Polygon(np.array(list(outline.get_points("xy")), dtype=float))
+    pappus = 2 * math.pi * shape.centroid.y * shape.area
+    stl = tmp_path / "wavy.stl"
+    code, out, err = run(["mesh", drawing, "-o", stl, "--tolerance", "0.02", "--json"], capsys)
+    assert code == 0, err
+    data = json.loads(out)
+    n = data["angular_steps"]
+    assert data["vertices"] == 1000 * n
+    tm = trimesh.load(str(stl))
+    assert tm.is_watertight and tm.is_winding_consistent
+    assert tm.volume == pytest.approx(pappus * n / (2 * math.pi) * math.sin(2 * math.pi / n),
+                                      rel=1e-5)

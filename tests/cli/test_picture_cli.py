@@ -222,3 +222,37 @@ def test_bare_density_is_kg_per_cubic_metre(tmp_path, capsys):
     assert np.array_equal(pictures["7850"], pictures["7850 kg/m^3"])
     assert np.array_equal(pictures["7850"], pictures["7.85 g/cm^3"])
     assert not np.array_equal(pictures["7850"], pictures["7.85"])
+
+
+def test_a_polyline_is_drawn_through_its_own_vertices(tmp_path):
+    # The same zigzag outline as ONE Polyline and as lines between the same vertices. The
+    # points drawn for the polyline are its vertices, none added (the segment contract's
+    # flatten_to_tolerance); both pictures, flat and 3-D, show the same thing: the face's
+    # colour (tab10's first) present, and nearly every pixel the same (the lines are drawn
+    # one by one, so only their joints may differ by a few pixels).
+    from revolve.cli import render
+    from revolve.cli.common import output_units
+    from revolve.geometry.measure import measure
+    from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    from revolve.geometry.segments import Polyline
+
+    pts = np.array([(0, 1), (1, 2), (2, 1.5), (3, 2.5), (4, 1), (4, 0.5), (0, 0.5), (0, 1)], float)
+    poly = Polyline(pts, face="zigzag")
+    pictures = {}
+    for name, loop in (("polyline", Loop((poly,))), ("lines", Loop.from_points(pts, face="zigzag"))):
+        rev = Revolution(Profile(loops=(loop,), unit="mm"), Axis.x())
+        m = measure(rev, crosscheck=False)
+        if name == "polyline":
+            (drawn,) = render._sketch_paths(rev.profile, 5.0)[0]
+            assert drawn is poly.points
+        for kind in ("flat", "solid"):
+            png = tmp_path / f"{name}-{kind}.png"
+            draw = render.profile_picture if kind == "flat" else render.solid_picture
+            draw(rev, m, str(png), units=output_units("mm"), width=600, height=400)
+            pictures[name, kind] = matplotlib.image.imread(str(png))[..., :3]
+    tab10 = colormaps["tab10"].colors
+    for kind in ("flat", "solid"):
+        a, b = pictures["polyline", kind], pictures["lines", kind]
+        assert colours_present(tmp_path / f"polyline-{kind}.png", tab10[:1]) == [True]
+        differ = np.any(np.abs(a - b) > 0.02, axis=-1).mean()
+        assert differ < 0.005, f"{kind}: {differ:.2%} of the pixels differ"

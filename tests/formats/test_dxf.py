@@ -620,3 +620,75 @@ def test_non_finite_and_huge_numbers_name_the_entity_and_the_range(tmp_path):
         read_dxf(save(doc, tmp_path))
     text = str(info.value)
     assert "LINE #2" in text and "1e+300" in text and "1e+15" in text
+
+
+# -- long polylines: one array, one segment -----------------------------------------------
+
+def wavy_outline(n):
+    """``n`` vertices of a closed wavy outline 1.7 to 4.3 from the x axis (the last not repeated)."""
+    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
+    r = 1.0 + 0.3 * np.sin(7 * a)
+    return np.column_stack([r * np.cos(a), 3.0 + r * np.sin(a)])
+
+
+def test_a_hundred_thousand_vertex_lwpolyline_is_one_polyline_measured_like_shapely(tmp_path):
+    # 10⁵ straight edges written by ezdxf; read back as ONE polyline segment (its vertices in
+    # one array). Reference: the vertices as ezdxf holds them (LWPolyline.get_points),
+    # shapely Polygon.area and .centroid, and Pappus V = 2π ȳ A (Stewart, from memory).
+    from ezdxf.entities.lwpolyline import LWPolylinePoints
+
+    doc, msp = new_drawing()
+    big = msp.add_lwpolyline([(0, 0), (1, 0)], close=True)
+    # ezdxf appends vertices one array copy at a time; its vertex array takes them all at
+    # once (x, y, start width, end width, bulge per row)
+    big.lwpoints = LWPolylinePoints(np.column_stack([wavy_outline(100_000),
+                                                     np.zeros((100_000, 3))]).tolist())
+    msp.add_line((-2, 0), (2, 0), dxfattribs={"linetype": "CENTER"})
+    name = save(doc, tmp_path)
+    profile_doc, report = read_dxf(name)
+    (loop,) = profile_doc.profile.loops
+    (seg,) = loop.segments
+    assert seg.kind == "polyline" and len(seg.points) == 100_001
+    assert seg.points[0].tolist() == seg.points[-1].tolist()
+    assert str(seg.where).endswith("vertices 1 to 100000 and back to 1")
+    assert report.loops[0].polylines == 1 and report.loops[0].lines == 0
+    outline = np.array(list(big.get_points("xy")), dtype=float)   # ezdxf's own vertices
+    assert np.array_equal(seg.points[:-1], outline)
+    shape = Polygon(outline)
+    pappus = 2 * math.pi * shape.centroid.y * shape.area
+    m = measure(Revolution(profile_doc.profile, profile_doc.axis), crosscheck=False)
+    assert m.area == pytest.approx(shape.area, rel=1e-12)
+    assert m.centroid[1] == pytest.approx(shape.centroid.y, rel=1e-12)
+    assert m.volume == pytest.approx(pappus, rel=1e-12)
+
+
+def test_a_long_polyline_keeps_its_bulged_edge_as_an_arc(tmp_path):
+    # 100 straight edges, one bulged edge (a half circle, bulge 1), 80 straight edges: a
+    # polyline, the exact arc (ezdxf.math.bulge_to_arc), a polyline.
+    doc, msp = new_drawing()
+    low = [(x, 10.0, 0.0) for x in np.linspace(0, 40, 101)]
+    low[-1] = (40.0, 10.0, 1.0)
+    high = [(x, 20.0, 0.0) for x in np.linspace(40, 0, 81)]
+    msp.add_lwpolyline(low + high, format="xyb", close=True)
+    profile_doc, _ = read_dxf(save(doc, tmp_path))
+    kinds = [s.kind for s in profile_doc.profile.loops[0].segments]
+    assert kinds == ["polyline", "arc", "polyline"]      # the closing edge joins the last run
+    arc = profile_doc.profile.loops[0].segments[1]
+    centre, a0, a1, radius = bulge_to_arc((40, 10), (40, 20), 1.0)
+    assert arc.centre == pytest.approx(tuple(centre)[:2], abs=1e-12)
+    assert arc.radius == pytest.approx(radius, rel=1e-12)
+    # Section: the 40 × 10 rectangle and a half disc of radius 5 (CRC, from memory).
+    m = measure(Revolution(profile_doc.profile, Axis.x()), crosscheck=False)
+    assert m.area == pytest.approx(400 + math.pi * 25 / 2, rel=1e-12)
+
+
+def test_a_bad_vertex_of_a_long_polyline_is_named(tmp_path):
+    doc, msp = new_drawing()
+    pts = wavy_outline(500)
+    pts[321] = (1e300, 3.0)
+    msp.add_lwpolyline(pts.tolist(), close=True)
+    with pytest.raises(FormatError) as info:
+        read_dxf(save(doc, tmp_path))
+    text = str(info.value)
+    assert "\n" not in text and "LWPOLYLINE #1" in text
+    assert "the x coordinate of vertex 322 is 1e+300" in text and "1e+15" in text

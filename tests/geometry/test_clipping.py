@@ -24,7 +24,8 @@ from revolve.geometry.clipping import (CUT_FACE, clip_section, clipped_volume,
                                        clipped_wetted_area,
                                        vertical_levels)
 from revolve.geometry.profile import Loop, Profile
-from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, curve_from_expressions
+from revolve.geometry.segments import (Arc, Curve, Line, Polyline, arc_from_centre,
+                                       curve_from_expressions)
 from revolve.geometry.slicing import washer_volume
 
 TOL = 1e-12
@@ -299,3 +300,132 @@ def test_tiny_depths_above_a_bottom_are_exact(exponent):
         assert abs(got - want) <= 1e-13 * want + rounding, f"{name}, clipped, h = 1e{exponent}"
         if name in ("cone tip on the axis", "ball bottom on the axis", "curve bottom"):
             assert_rel(got, want, 1e-13, f"{name}, clipped, h = 1e{exponent}")
+
+
+# -- polylines: one array, the same tables as its edges drawn as lines ----------------------
+
+def _placed(points, p):
+    return [p.point(float(z), float(r)) for z, r in points]
+
+
+def polyline_loop(points, p=PLACEMENTS[0]):
+    """The closed outline through ``points`` (frame) as one Polyline, placed by ``p``."""
+    pts = _placed(points, p)
+    return Loop((Polyline(np.array(pts + [pts[0]], dtype=float)),))
+
+
+def line_loop(points, p=PLACEMENTS[0]):
+    pts = _placed(points, p)
+    return Loop(tuple(Line(a, b) for a, b in zip(pts, pts[1:] + pts[:1])))
+
+
+def wavy_vessel(n=400, seed=7):
+    """A vessel wall drawn as a dense outline: a flat bottom, a wavy wall, a conical roof."""
+    rng = np.random.default_rng(seed)
+    z = np.linspace(0.0, 10.0, n)
+    r = 3.0 + 0.2 * np.sin(z * 3.0) + 0.01 * rng.standard_normal(n)
+    wall = list(zip(z.tolist(), r.tolist()))
+    return [(0.0, 0.0)] + wall + [(11.0, 1.0), (11.0, 0.0)]
+
+
+POLYLINE_SHAPES = {
+    "stepped bore": [(0, 0), (0, 2), (1, 2), (1, 1), (2, 1), (2, 0)],
+    "star off the axis": [(float(r * math.cos(a)), 6.0 + float(r * math.sin(a)))
+                          for r, a in zip([1.0, 3.5, 1.5, 4.0, 2.0, 3.0, 1.2],
+                                          np.linspace(0, 2 * np.pi, 7, endpoint=False))],
+    "wavy vessel": wavy_vessel(),
+}
+
+
+@placements
+@pytest.mark.parametrize("shape", list(POLYLINE_SHAPES))
+def test_polyline_gives_the_tables_of_its_edges_as_lines(p, shape):
+    points = POLYLINE_SHAPES[shape]
+    poly = prepare(Profile(loops=(polyline_loop(points, p),)), p.axis)
+    lines = prepare(Profile(loops=(line_loop(points, p),)), p.axis)
+    assert [s.kind for s in poly.paths[0]] == ["polyline"]
+    zs = np.array([z for z, _ in points], dtype=float)
+    # levels through every vertex, between them, below and above everything
+    levels = np.concatenate([zs, np.linspace(zs.min() - 1, zs.max() + 1, 97)])
+    a, b = vertical_levels(poly, levels), vertical_levels(lines, levels)
+    full_v, full_a = float(np.abs(b.volume).max()), float(np.abs(b.wetted_area).max())
+    assert np.max(np.abs(a.volume - b.volume)) <= 1e-12 * full_v
+    assert np.max(np.abs(a.wetted_area - b.wetted_area)) <= 1e-12 * full_a
+    for level in levels[::9]:
+        cp, cl = clip_section(poly, level), clip_section(lines, level)
+        # a polyline stays a few arrays, never one object per vertex
+        assert all(s.kind in ("polyline", "line") for path in cp.prepared.paths for s in path)
+        assert sum(len(path) for path in cp.prepared.paths) <= 4 * len(points) // 10 + 8
+        assert abs(clipped_volume(cp) - clipped_volume(cl)) <= 1e-12 * full_v
+        assert abs(clipped_wetted_area(cp) - clipped_wetted_area(cl)) <= 1e-12 * full_a
+
+
+@placements
+def test_polyline_frustum_and_cylinder(p):
+    # A frustum (r 1 -> 2 over z 0..3) on a cylinder (r = 2, z 3..5), its walls drawn with
+    # many collinear vertices. CRC (from memory): frustum V = π h (R² + R r + r²)/3, lateral
+    # area π (R + r) √((R − r)² + h²); cylinder V = π r² h, lateral 2π r h; discs π r².
+    wall = [(3.0 * t, 1.0 + t) for t in np.linspace(0, 1, 31)]
+    wall += [(3.0 + 2.0 * t, 2.0) for t in np.linspace(0, 1, 21)[1:]]
+    points = [(0.0, 0.0)] + wall + [(5.0, 0.0)]
+    prep = prepare(Profile(loops=(polyline_loop(points, p),)), p.axis)
+
+    def frustum(h):
+        r1 = 1.0 + h / 3.0
+        return math.pi * h * (1.0 + r1 + r1 * r1) / 3.0, math.pi * (1.0 + r1) * math.hypot(r1 - 1.0, h)
+
+    hs = [0.0, 0.7, 3.0, 4.2, 5.0]
+    table = vertical_levels(prep, hs)
+    for h, v, area in zip(hs, table.volume, table.wetted_area):
+        want_v, want_a = frustum(min(h, 3.0))
+        want_a += math.pi                                   # the bottom disc, r = 1
+        if h > 3.0:
+            want_v += math.pi * 4.0 * (h - 3.0)
+            want_a += 2 * math.pi * 2.0 * (h - 3.0)
+        if h == 5.0:
+            want_a += 4 * math.pi                           # the flat top, touched when full
+        assert abs(v - want_v) <= 1e-12 * 70.0, h
+        assert abs(area - want_a) <= 1e-12 * 70.0, h
+        assert abs(clipped_volume(clip_section(prep, h)) - want_v) <= 1e-12 * 70.0, h
+
+
+# -- the arcs' rows for many arcs at once keep the segment contract ------------------------------
+
+@settings(max_examples=60, deadline=None)
+@given(st.floats(-3.0, 3.0), st.floats(0.5, 3.0), st.floats(0.2, 2.0), st.floats(-7.0, 7.0),
+       st.floats(0.05, 6.2), st.booleans())
+@example(0.0, 1.0, 1.0, -2.5, 1.0, True)            # through the angle -π, clockwise
+def test_arc_rows_follow_the_contract(cz, cr, R, a0, sweep, clockwise):
+    d = -sweep if clockwise else sweep
+    start = (cz + R * math.cos(a0), cr + R * math.sin(a0))
+    end = (cz + R * math.cos(a0 + d), cr + R * math.sin(a0 + d))
+    arc = arc_from_centre(start, end, (cz, cr), clockwise=clockwise)
+    rows = type(arc).axial_level_table([arc], [1.0]).rows
+    # the pieces run from the start to the end through the points where z turns back
+    # (Arc.monotone_ranges and points_at), and z is monotone along each
+    cuts = [b for _, b in arc.monotone_ranges(0)[:-1]]
+    want = np.vstack([[arc.start], arc.points_at(cuts).reshape(-1, 2), [arc.end]])
+    got = np.vstack([rows[:, 5:7], rows[-1:, 7:9]])
+    assert got.shape == want.shape
+    assert np.allclose(got, want, rtol=0, atol=1e-12 * (abs(cz) + abs(cr) + R))
+    assert np.allclose(rows[1:, 5:7], rows[:-1, 7:9], rtol=0, atol=0)   # joined exactly
+    ang = rows[:, 3:5]
+    assert np.allclose(np.column_stack([cz + R * np.cos(ang[:, 0]), cr + R * np.sin(ang[:, 0])]),
+                       rows[:, 5:7], rtol=0, atol=1e-12 * (abs(cz) + abs(cr) + R))
+
+
+@settings(max_examples=30, deadline=None)
+@given(star_loops(), st.lists(st.floats(-4.5, 4.5), min_size=1, max_size=8))
+@example(star_polygon([1.0] * 8), [0.0, 1e-9])
+def test_star_polyline_and_lines_agree(loop, levels):
+    points = [s.start for s in loop.segments]
+    poly = prepare(Profile(loops=(polyline_loop(points),)), PLACEMENTS[0].axis)
+    lines = prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis)
+    a, b = vertical_levels(poly, levels), vertical_levels(lines, levels)
+    full = float(vertical_levels(lines, [10.0]).volume[0])
+    assert np.max(np.abs(a.volume - b.volume)) <= 1e-12 * full
+    assert np.max(np.abs(a.wetted_area - b.wetted_area)) <= 1e-12 * float(
+        vertical_levels(lines, [10.0]).wetted_area[0])
+    for lv in levels[:2]:
+        assert abs(clipped_volume(clip_section(poly, lv)) - clipped_volume(clip_section(lines, lv))) \
+            <= 1e-12 * full

@@ -23,7 +23,7 @@ from revolve.geometry.horizontal import (horizontal_levels, horizontal_pieces, s
                                          segment_area_integral, wetted_arc)
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Loop, Profile, Revolution
-from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
+from revolve.geometry.segments import Line, Polyline, arc_from_centre, curve_from_expressions
 
 placements = pytest.mark.parametrize("p", PLACEMENTS, ids=PLACEMENT_IDS)
 ERROR_BOUND = 1e-9       # of the capacity, the accuracy the horizontal tables promise
@@ -223,7 +223,8 @@ def test_pieces_keep_whole_arcs_and_quarters():
     arc = arc_from_centre((R, 0.0), (-R, 0.0), (0.0, 0.0), clockwise=False)
     pc = horizontal_pieces(prepare(Profile(loops=(Loop((arc, Line((-R, 0.0), (R, 0.0)))),)),
                                    PLACEMENTS[0].axis))
-    assert pc.arc_whole.size == 1 and pc.arc_quarters.tolist() == [[0, 2]]
+    arcs = next(t for t in pc.tables if hasattr(t, "arc"))
+    assert arcs.whole.size == 1 and arcs.quarters.tolist() == [[0, 2]]
     assert pc.r_max == 1.0 and pc.length == 2.0
 
 
@@ -247,3 +248,137 @@ def test_volume_never_decreases_with_depth(R, L, bulge, fractions):
     assert np.all(np.diff(res.volume) >= -ERROR_BOUND * cap)
     assert abs(res.volume[-1] / cap - 1) <= 1e-12
     assert np.all(res.volume >= -ERROR_BOUND * cap) and np.all(res.volume <= cap * (1 + 1e-12))
+
+
+# -- polylines: one array, the same tables as its edges drawn as lines ----------------------
+
+def _outline(points, p, as_polyline):
+    pts = [p.point(float(z), float(r)) for z, r in points]
+    if as_polyline:
+        return Profile(loops=(Loop((Polyline(np.array(pts + [pts[0]], dtype=float)),)),))
+    return Profile(loops=(Loop(tuple(Line(a, b) for a, b in zip(pts, pts[1:] + pts[:1]))),))
+
+
+def surveyed_wall(n=300, seed=3):
+    """A lying tank drawn as a dense outline: ends on the axis, a slightly uneven shell,
+    steep cones at the ends and a nearly flat one (quadrature) in the middle."""
+    rng = np.random.default_rng(seed)
+    z = np.linspace(0.0, 20.0, n)
+    r = 4.0 + 0.05 * np.sin(z) + 0.002 * rng.standard_normal(n)
+    r[n // 2] = r[n // 2 - 1] + 1e-5             # a cone steeper than CLOSED_FORM_SLOPE
+    return [(0.0, 0.0), (-1.0, 2.0)] + list(zip(z.tolist(), r.tolist())) + [(21.0, 2.0), (20.0, 0.0)]
+
+
+@placements
+def test_polyline_gives_the_tables_of_its_edges_as_lines(p):
+    points = surveyed_wall()
+    poly = prepare(_outline(points, p, True), p.axis)
+    lines = prepare(_outline(points, p, False), p.axis)
+    assert [s.kind for s in poly.paths[0]] == ["polyline"]
+    depths = np.concatenate([np.linspace(0.0, 8.2, 61), [4.0, 8.0 - 1e-9]])
+    a, b = horizontal_levels(poly, depths), horizontal_levels(lines, depths)
+    assert horizontal_pieces(poly).r_max == horizontal_pieces(lines).r_max
+    assert np.max(np.abs(a.volume - b.volume)) <= 1e-12 * float(b.volume.max())
+    assert np.max(np.abs(a.wetted_area - b.wetted_area)) <= 1e-12 * float(b.wetted_area.max())
+
+
+@placements
+def test_polyline_cylinder_is_segment_times_length(p):
+    # A cylinder of radius 2 and length 5, its shell drawn with 50 collinear vertices.
+    R, L = 2.0, 5.0
+    points = [(0.0, 0.0)] + [(float(z), R) for z in np.linspace(0.0, L, 50)] + [(L, 0.0)]
+    prep = prepare(_outline(points, p, True), p.axis)
+    h = np.array([0.0, 0.3, 1.0, 2.0, 3.7, 4.0])
+    res = horizontal_levels(prep, h)
+    for hh, v, a in zip(h, res.volume, res.wetted_area):
+        # CRC (from memory): horizontal cylinder V = L · (circular segment area); the wetted
+        # shell is L times the wetted arc 2 R acos((R − h)/R), plus both wetted end segments.
+        assert abs(v - L * crc_segment(R, hh)) <= 1e-12 * math.pi * R * R * L
+        # At the very top and bottom a placed drawing's rounding moves the area by about 1e-8
+        # of it (see test_horizontal_cylinder_is_segment_times_length).
+        want = L * 2 * R * math.acos((R - hh) / R) + 2 * crc_segment(R, hh)
+        edge = 0 < hh < 2 * R
+        tol = 1e-12 if edge or p.identity else 1e-7
+        assert abs(a - want) <= tol * (2 * math.pi * R * L + 2 * math.pi * R * R)
+
+
+# -- many shallow arcs: the series about a group's middle radius ----------------------------
+
+def ball_of_arcs(R, n):
+    """A ball of radius R: its half circle drawn as n arcs about the same centre."""
+    a = np.linspace(0.0, math.pi, n + 1)
+    pts = [(R * math.cos(t), R * math.sin(t)) for t in a]
+    pts[0], pts[-1] = (R, 0.0), (-R, 0.0)
+    arcs = tuple(arc_from_centre(p, q, (0.0, 0.0), clockwise=False) for p, q in zip(pts, pts[1:]))
+    return Loop(arcs + (Line((-R, 0.0), (R, 0.0)),))
+
+
+@pytest.mark.parametrize("p", PLACEMENTS[:2], ids=PLACEMENT_IDS[:2])
+def test_ball_of_many_arcs_is_a_spherical_cap(p):
+    # 400 arcs: those near the equator are shallow in r and go through the series.
+    R = 1.5
+    prep, rev = prepared([ball_of_arcs(R, 400)], p)
+    h = np.concatenate([np.linspace(0.0, 2 * R, 101), [1e-9, R - 1e-9, 2 * R - 1e-9]])
+    res = horizontal_levels(prep, h)
+    cap = 4.0 / 3.0 * math.pi * R ** 3
+    for hh, v, a, e in zip(h, res.volume, res.wetted_area, res.error):
+        # CRC (from memory): spherical cap V = π h² (3R − h)/3, curved area 2π R h; the
+        # flat face on the axis has no area
+        assert abs(v - math.pi * hh * hh * (3 * R - hh) / 3) <= 1e-12 * cap, hh
+        assert abs(a - 2 * math.pi * R * hh) <= 1e-11 * 4 * math.pi * R * R, hh
+        assert e <= ERROR_BOUND * cap
+
+
+def test_series_and_piece_by_piece_agree(monkeypatch):
+    # A lying shell of 300 shallow arcs (a corrugated wall) with a ring of 60 shallow arcs
+    # (a coil, hole) inside: the same table by the series and by quadrature piece by piece.
+    import revolve.geometry.horizontal as horizontal
+
+    L, R, n = 30.0, 4.0, 300
+    z = np.linspace(0.0, L, n + 1)
+    wall = tuple(arc_from_centre((float(a), R), (float(b), R), (0.5 * (a + b), R - 0.6),
+                                 clockwise=True) for a, b in zip(z, z[1:]))
+    shell = Loop((Line((0.0, 0.0), (0.0, R)),) + wall + (Line((L, R), (L, 0.0)), Line((L, 0.0), (0.0, 0.0))))
+    a = np.linspace(0.0, -2 * math.pi, 61)         # clockwise: a hole
+    ring = [(15.0 + 0.3 * math.cos(t), 2.0 + 0.3 * math.sin(t)) for t in a]
+    ring[-1] = ring[0]
+    coil = Loop(tuple(arc_from_centre(p, q, (15.0, 2.0), clockwise=True)
+                      for p, q in zip(ring, ring[1:])))
+    prep, rev = prepared([shell, coil])
+    depths = np.linspace(0.0, 2 * horizontal_pieces(prep).r_max, 57)
+    calls = []
+    series = horizontal.segment_taylor
+    monkeypatch.setattr(horizontal, "segment_taylor", lambda c, y, k: calls.append(c.size) or series(c, y, k))
+    fast = horizontal_levels(prep, depths)
+    assert sum(calls) >= 40          # the series did take most levels of the corrugated wall
+    monkeypatch.setattr(horizontal, "SERIES_MIN_PIECES", 10 ** 9)
+    slow = horizontal_levels(prep, depths)
+    cap = measure(rev, symbolic=False).volume
+    assert np.max(np.abs(fast.volume - slow.volume)) <= 1e-12 * cap
+    assert np.max(np.abs(fast.wetted_area - slow.wetted_area)) <= 1e-12 * float(slow.wetted_area.max())
+    assert abs(fast.volume[-1] / cap - 1) <= 1e-12
+
+
+def test_series_of_curves_and_piece_by_piece_agree(monkeypatch):
+    # A lying shell whose wall is 24 shallow curves r = R + 0.002 sin(2π (z - z_k)) (one wave
+    # each, so r turns back inside each): parametric rows through the series and without it.
+    import revolve.geometry.horizontal as horizontal
+
+    R, n = 3.0, 24
+    wall = tuple(curve_from_expressions(T, R + 0.002 * sympy.sin(2 * sympy.pi * (T - k)),
+                                        float(k), float(k + 1)) for k in range(n))
+    loop = Loop((Line((0.0, 0.0), (0.0, R)),) + wall + (Line((n, R), (n, 0.0)), Line((n, 0.0), (0.0, 0.0))))
+    prep, rev = prepared([loop])
+    depths = np.linspace(0.0, 2 * horizontal_pieces(prep).r_max, 41)
+    calls = []
+    series = horizontal.segment_taylor
+    monkeypatch.setattr(horizontal, "segment_taylor", lambda c, y, k: calls.append(c.size) or series(c, y, k))
+    fast = horizontal_levels(prep, depths)
+    assert sum(calls) >= 30
+    monkeypatch.setattr(horizontal, "SERIES_MIN_PIECES", 10 ** 9)
+    slow = horizontal_levels(prep, depths)
+    cap = measure(rev, symbolic=False).volume
+    assert np.max(np.abs(fast.volume - slow.volume)) <= 1e-11 * cap
+    assert np.max(np.abs(fast.wetted_area - slow.wetted_area)) <= 1e-11 * float(slow.wetted_area.max())
+    assert np.max(fast.error) <= ERROR_BOUND * cap
+    assert abs(fast.volume[-1] / cap - 1) <= 1e-12

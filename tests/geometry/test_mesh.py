@@ -10,7 +10,11 @@ References, named beside each check:
   ``.is_watertight``, ``.is_winding_consistent``, ``.area_faces``) measuring the
   mesh independently of :class:`revolve.geometry.mesh.TriangleMesh`;
 * reference library shapely (``Polygon.area``, ``unary_union``) for the
-  triangulation of cut faces.
+  triangulation of cut faces, and (``Polygon.area``, ``Polygon.centroid``)
+  with Pappus for polyline sections;
+* area of a regular n-gon inscribed in a circle, n/2 r² sin(2π/n) (CRC, from
+  memory): a straight profile swept in n equal steps keeps exactly that
+  fraction of the volume.
 
 A mesh's volume must *converge* to the exact value: each check runs several
 tolerances and looks at the trend (the error shrinks in proportion to the
@@ -33,7 +37,8 @@ from revolve.geometry.mesh import (CUT_FACE_END, CUT_FACE_START, MOST_STEPS, cho
                                    flatten_segment, revolve_mesh, signed_area,
                                    triangulate_section)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
-from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
+from revolve.geometry.measure import measure
+from revolve.geometry.segments import Line, Polyline, arc_from_centre, curve_from_expressions
 
 T = sympy.Symbol("t", real=True)
 TOLERANCES = (0.04, 0.02, 0.01, 0.005, 0.0025)
@@ -236,6 +241,85 @@ def test_curve_profile_stays_within_the_tolerance():
         np.column_stack([z, rho]), distance_upper_bound=2 * tol)
     d = np.minimum(d_curve, distance_to_segments(z, rho, [((h, r), (h, 0.0))]))
     assert d.max() <= tol
+
+
+# -- every segment kind, through the segment contract ---------------------------------------
+
+def wavy_polyline(n=2000):
+    """A closed wavy outline 1.7 to 4.3 from the x axis as ONE Polyline of ``n`` edges."""
+    a = np.linspace(0.0, 2 * np.pi, n + 1)
+    r = 1.0 + 0.3 * np.sin(5 * a)
+    pts = np.column_stack([r * np.cos(a), 3.0 + r * np.sin(a)])
+    pts[-1] = pts[0]
+    return Polyline(pts, face="wavy")
+
+
+def kind_profile(kind):
+    """A solid section made (mostly) of segments of one kind."""
+    if kind == "line":
+        return Profile(loops=(Loop.from_points([(0, 1), (4, 1), (3, 3), (0, 2)]),))
+    if kind == "arc":   # a D: a half circle bulging towards +x, closed by its diameter
+        return Profile(loops=(Loop((arc_from_centre((0.0, 1.0), (0.0, 3.0), (0.0, 2.0), False),
+                                    Line((0.0, 3.0), (0.0, 1.0)))),))
+    if kind == "curve":
+        curve = curve_from_expressions(3 * T ** 2, 1 + 2 * T, 0, 1, face="dome")
+        return Profile(loops=(Loop((curve, Line((3.0, 3.0), (3.0, 1.0)), Line((3.0, 1.0), (0.0, 1.0)))),))
+    return Profile(loops=(Loop((wavy_polyline(400),)),))
+
+
+@pytest.mark.parametrize("kind", ["line", "arc", "curve", "polyline"])
+def test_every_kind_converges_to_the_engines_volume(kind):
+    # The mesh is a different computation from the engine's Pappus sums (exact section
+    # integrals of each kind, themselves checked against published formulas elsewhere):
+    # its volume must converge to them in proportion to the tolerance (the rule above).
+    rev = Revolution(kind_profile(kind), Axis.x())
+    m = measure(rev, crosscheck=False)
+    errs = relative_errors(rev, m.volume, m.surface_total)
+    assert_converges_linearly(errs[:, 0], what=f"{kind} volume")
+    for tol in TOLERANCES:
+        tm = reference(revolve_mesh(rev, tol))
+        assert tm.is_watertight and tm.is_winding_consistent and tm.volume > 0
+
+
+def test_polyline_section_against_shapely_and_the_inscribed_polygon():
+    # The wavy outline as one Polyline: shapely's area and centroid with Pappus
+    # (V = 2π ȳ A) give the volume of the revolved polygon; swept in n equal steps its mesh
+    # keeps exactly the fraction (n / 2π) sin(2π / n) of it (inscribed regular n-gon, CRC,
+    # from memory), since the profile's chords are its own edges and add no error.
+    poly = wavy_polyline()
+    shape = Polygon(poly.points)
+    pappus = 2 * math.pi * shape.centroid.y * shape.area
+    rev = Revolution(Profile(loops=(Loop((poly,)),)), Axis.x())
+    assert math.isclose(measure(rev, crosscheck=False).volume, pappus, rel_tol=1e-12)
+    for tol in (0.05, 0.01):
+        mesh = revolve_mesh(rev, tol)
+        n = mesh.angular_steps
+        assert math.isclose(reference(mesh).volume, pappus * n / (2 * math.pi) * math.sin(2 * math.pi / n),
+                            rel_tol=1e-11)
+        # the Polyline's vertices are the mesh's rings: n vertices each, nothing added
+        assert len(mesh.vertices) == (len(poly.points) - 1) * n
+
+
+def test_polyline_mesh_stays_within_the_tolerance():
+    # A zigzag outline as one Polyline; the exact distance from each sample of each
+    # triangle to the swept surface is the meridian distance to the polyline's edges
+    # (see distance_to_segments).
+    pts = np.array([(0, 1), (1, 2), (2, 1.5), (3, 2.5), (4, 1), (4, 0.5), (0, 0.5), (0, 1)], float)
+    rev = Revolution(Profile(loops=(Loop((Polyline(pts),)),)), Axis.x())
+    for tol in (0.05, 0.01):
+        mesh = revolve_mesh(rev, tol)
+        z, rho = meridian(triangle_samples(mesh, n=6))
+        d = distance_to_segments(z, rho, list(zip(pts[:-1], pts[1:]))).max()
+        assert 0.25 * tol < d <= tol
+
+
+def test_a_polyline_too_long_for_the_triangle_cap_is_refused_before_any_work():
+    # At a tolerance of 1e-4 every edge is swept in more than 500 steps (chord_steps on the
+    # ends' radius), two triangles each: 5·10⁴ edges are past the cap of 2·10⁷ triangles.
+    big = wavy_polyline(50_000)
+    rev = Revolution(Profile(loops=(Loop((big,)),)), Axis.x())
+    with pytest.raises(RevolveError, match="would give more than 20,000,000 triangles"):
+        revolve_mesh(rev, 1e-4)
 
 
 # -- partial revolutions: cut faces -------------------------------------------------------

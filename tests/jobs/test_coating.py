@@ -625,6 +625,33 @@ def test_bushing_with_chamfers_groups_as_a_machinist_means():
     assert rel(_group(found, "ends"), 2 * PI * ((R - c) ** 2 - (r + c) ** 2)) < 1e-12
 
 
+def test_polyline_outline_groups_shoulders_as_ends():
+    # One Polyline loop (a point list held as one array): a bushing with chamfers, and a
+    # stepped shaft whose shoulders lie between two diameters inside one z-monotone run.
+    # cylinder lateral 2πrh, frustum lateral π (R + r) √((R − r)² + h²), annulus
+    # π (R² − r²) — CRC (from memory)
+    import numpy as np
+    from revolve.geometry.segments import Polyline
+    r, R, L, c = 10.0, 20.0, 30.0, 1.0
+    pts = [(c, r), (L - c, r), (L, r + c), (L, R - c), (L - c, R), (c, R), (0.0, R - c),
+           (0.0, r + c), (c, r)]
+    # (the washer cross-check takes polylines on another branch; it is not what is tested here)
+    found = surfaces(measure(Revolution(Profile(loops=(Loop((Polyline(np.array(pts)),)),))),
+                             crosscheck=False))
+    frustum = lambda a, b: PI * (a + b) * math.sqrt((a - b) ** 2 + c * c)
+    assert rel(_group(found, "inside"), 2 * PI * r * (L - 2 * c) + 2 * frustum(r, r + c)) < 1e-12
+    assert rel(_group(found, "outside"),
+               2 * PI * R * (L - 2 * c) + 2 * frustum(R, R - c)) < 1e-12
+    assert rel(_group(found, "ends"), 2 * PI * ((R - c) ** 2 - (r + c) ** 2)) < 1e-12
+    # shaft: ⌀ 2·6 over 10, ⌀ 2·9 over 15, ⌀ 2·4 over 5, solid to the axis
+    shaft = [(0.0, 0.0), (30.0, 0.0), (30.0, 4.0), (25.0, 4.0), (25.0, 9.0), (10.0, 9.0),
+             (10.0, 6.0), (0.0, 6.0), (0.0, 0.0)]
+    found = surfaces(measure(Revolution(Profile(loops=(Loop((Polyline(np.array(shaft)),)),))),
+                             crosscheck=False))
+    assert rel(_group(found, "outside"), 2 * PI * (6 * 10 + 9 * 15 + 4 * 5)) < 1e-12
+    assert rel(_group(found, "ends"), PI * (6 * 6 + (9 * 9 - 6 * 6) + (9 * 9 - 4 * 4) + 4 * 4)) < 1e-12
+
+
 def test_open_tank_chain_inner_side_is_the_tanks_inside():
     # an open tank drawn as a chain (surface only): bottom disc πR² and wall 2πRH — CRC
     # (from memory). The inner side is the side that faces the axis: the wall's inner

@@ -661,6 +661,28 @@ def test_limited_finishing_of_the_crown_arc_against_scipy_quad():
     want = sum(quad(integrand, a, b, epsabs=0, epsrel=1e-13)[0] for a, b in zip(edges, edges[1:]))
     area = m.surface_by_face["crown"] * f * f
     got = tu.finishing_time_limited(prep, ["crown"], area, FINISH, n, f)
-    # the correction is summed over 0.25° chords of the arc: a few parts per million of it
-    assert rel(got, want) < 1e-6
+    # the correction is the exact ramp integral along the arc (geometry.envelope)
+    assert rel(got, want) < 1e-12
     assert got > tu.finishing_time(area, FINISH)
+
+
+def test_a_polyline_outline_gives_the_envelope_and_limited_times_of_its_shape():
+    # A stepped shaft drawn as one Polyline (a point list held as one array): ⌀20 over 25 mm
+    # then ⌀12 over 15 mm. Envelope: the vertices' extremes (numpy min/max of the array).
+    # Roughing ⌀60 stock at the limit over the whole cut: passes × L/(f n) per step
+    # (common practice, no source), the steps added.
+    import numpy as np
+    from revolve.geometry.segments import Polyline
+    pts = np.array([(0.0, 0.0), (40.0, 0.0), (40.0, 6.0), (25.0, 6.0), (25.0, 10.0), (0.0, 10.0),
+                    (0.0, 0.0)])
+    prep = prepare(Profile(loops=(Loop((Polyline(pts),)),)), Axis.x())
+    env = tu.envelope(prep, 1e-3)
+    assert (env.z_start, env.z_end, env.max_radius, env.min_radius) == pytest.approx(
+        (pts[:, 0].min() * 1e-3, pts[:, 0].max() * 1e-3, pts[:, 1].max() * 1e-3, 0.0), rel=1e-15)
+    stock = tu.StockSize(0.060)
+    n = 100 / 60
+    chips = math.pi * (0.030 ** 2 * 0.040 - 0.010 ** 2 * 0.025 - 0.006 ** 2 * 0.015)
+    got = tu.roughing_time_limited(chips, 0.040, stock, prep, ROUGH, n, 1e-3)
+    want = sum((0.030 - r) / ROUGH.depth_of_cut * length / (ROUGH.feed * n)
+               for r, length in ((0.010, 0.025), (0.006, 0.015)))
+    assert rel(got, want) < 1e-10

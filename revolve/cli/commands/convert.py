@@ -182,11 +182,13 @@ def _print_report(report, output: str, axis) -> None:
     con.print(report.summary_line())
     if report.loops or report.chains:
         table = Table(show_edge=False, pad_edge=False)
-        for column in ("path", "lines", "arcs", "curves", "starts at", "from"):
-            table.add_column(column, justify="right" if column in ("lines", "arcs", "curves")
-                             else "left")
+        counts = ["lines", "arcs", "curves"]
+        if any(p.polylines for p in report.loops + report.chains):
+            counts.append("polylines")
+        for column in ["path"] + counts + ["starts at", "from"]:
+            table.add_column(column, justify="right" if column in counts else "left")
         for p in report.loops + report.chains:
-            table.add_row(f"{p.kind} {p.index}", str(p.lines), str(p.arcs), str(p.curves),
+            table.add_row(f"{p.kind} {p.index}", *(str(getattr(p, c)) for c in counts),
                           f"{common.fmt(p.start[0], 8)}, {common.fmt(p.start[1], 8)}", p.source)
         con.print(table)
     if report.tolerance is not None:

@@ -344,6 +344,233 @@ class Arc(SegmentKind):
                                ends[:, :2], ends[:, 2:])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance`` of the arc, shape (m + 1, 2).
+
+        The arc is cut into the fewest equal pieces whose sagitta
+        ``R (1 - cos(Δ/2))`` is at most ``tolerance`` (exact, through
+        :func:`revolve.geometry.mesh.chord_steps`); the ends are the arc's own.
+
+        Raises
+        ------
+        RevolveError
+            When that needs more than ``most_pieces`` pieces.
+
+        >>> quarter = arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False)
+        >>> len(quarter.flatten_to_tolerance(1 - math.cos(math.pi / 8)))   # sagitta of 45°
+        3
+        >>> quarter.flatten_to_tolerance(10.0)[[0, -1]].tolist()            # coarse: quarter turns
+        [[1.0, 0.0], [0.0, 1.0]]
+        >>> quarter.flatten_to_tolerance(1e-12, most_pieces=100)
+        Traceback (most recent call last):
+        ...
+        revolve.errors.RevolveError: the chord tolerance 1e-12 needs more than 100 pieces on one arc; use a larger tolerance
+        """
+        import numpy as np
+
+        from revolve.errors import RevolveError
+
+        n = self.fewest_chords(tolerance)
+        if n > most_pieces:
+            raise RevolveError(f"the chord tolerance {tolerance:g} needs more than {most_pieces:,} "
+                               "pieces on one arc; use a larger tolerance")
+        a0, a1 = self.angles()
+        a = np.linspace(a0, a1, n + 1)
+        pts = np.column_stack([self.centre[0] + self.radius * np.cos(a),
+                               self.centre[1] + self.radius * np.sin(a)])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: exact for an arc.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> half.fewest_chords(1.0), half.fewest_chords(1 - math.cos(math.pi / 8))
+        (2, 4)
+        """
+        from revolve.geometry.mesh import chord_steps
+
+        a0, a1 = self.angles()
+        return chord_steps(self.radius, a1 - a0, tolerance)
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the arc is, through its primitive ``arc``.
+
+        ``out.arc(start, end, centre, clockwise, exact, where)``; ``exact`` is
+        the typed record of how the arc was given (:class:`ArcByRadius`,
+        :class:`ArcByCentre`) or None.
+
+        >>> class Out:
+        ...     def arc(self, start, end, centre, clockwise, exact, where):
+        ...         print(start, end, centre, clockwise, exact)
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).describe_to(Out())
+        (1.0, 0.0) (0.0, 1.0) (0.0, 0.0) False None
+        """
+        out.arc(self.start, self.end, self.centre, self.clockwise, self.exact, self.where)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: an arc's end cannot move without changing its circle (a gap is bridged instead).
+
+        >>> arc_from_centre((1.0, 0.0), (0.0, 1.0), (0.0, 0.0), clockwise=False).with_end_moved((0.0, 1.1)) is None
+        True
+        """
+        return None
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def _cut_angles(cls, segments, step: float):
+        """Every arc's angle range cut at the multiples of ``step`` inside it, for many arcs at once.
+
+        The vectorised form of :meth:`turning_parameters` (``step = π``: where x
+        turns back; ``π/2``: where x or y does). Returns ``(centre_x, centre_y,
+        radius)`` per arc (arrays), and per piece, in travel order: its arc's
+        index, its angle from and to, and the multiple ``k`` of ``step`` at each
+        end (NaN at the arc's own ends; a piece end at ``k step`` is exact).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> (cx, cy, R), (arc, a, b, ka, kb) = Arc._cut_angles([half], math.pi / 2)
+        >>> arc.tolist(), [round(float(v), 6) for v in b], ka.tolist(), kb.tolist()
+        ([0, 0], [1.570796, 3.141593], [nan, 1.0], [1.0, nan])
+        >>> left = arc_from_centre((-0.6, -0.8), (-0.6, 0.8), (0.0, 0.0), clockwise=True)
+        >>> Arc._cut_angles([left], math.pi)[1][3].tolist()     # through the angle -π
+        [nan, -1.0]
+        """
+        import numpy as np
+
+        par = np.array([(s.centre[0], s.centre[1], s.radius) + s.angles() for s in segments],
+                       dtype=float).reshape(-1, 5)
+        cx, cy, R, a0, a1 = par.T
+        n = len(par)
+        lo, hi = np.minimum(a0, a1), np.maximum(a0, a1)
+        k = np.ceil(lo / step)[:, None] + np.arange(5)[None, :]      # a sweep is below 2π
+        valid = (k * step > lo[:, None]) & (k * step < hi[:, None])
+        down = (a1 < a0)[:, None]
+        key = np.where(valid, np.where(down, -k, k), np.inf)
+        order = np.argsort(key, axis=1, kind="stable")
+        k = np.take_along_axis(k, order, axis=1)
+        count = valid.sum(axis=1)
+        width = k.shape[1] + 2
+        ends_k = np.full((n, width), np.nan)
+        cols = np.arange(width)[None, :]
+        inner = (cols >= 1) & (cols <= count[:, None])
+        ends_k[inner] = k[:, :width - 2][np.arange(width - 2)[None, :] < count[:, None]]
+        angle = np.where(inner, ends_k * step, 0.0)
+        angle[:, 0] = a0
+        angle[np.arange(n), count + 1] = a1
+        pieces = (cols[:, :-1] <= count[:, None])          # piece m runs from end m to m + 1
+        arc = np.broadcast_to(np.arange(n)[:, None], pieces.shape)[pieces]
+        a_from, a_to = angle[:, :-1][pieces], angle[:, 1:][pieces]
+        k_from, k_to = ends_k[:, :-1][pieces], ends_k[:, 1:][pieces]
+        return (cx, cy, R), (arc, a_from, a_to, k_from, k_to)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Arcs in the axis frame cut where ``z`` turns back, as circular rows (vertical tables).
+
+        Rows: centre, radius, angle from, angle to, then the ends (z0, r0, z1, r1):
+        the arc's own ends, or the exact points ``(cz ± R, cr)`` where it was cut.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [round(float(v), 12) for v in Arc.axial_level_table([half], [1.0]).rows[0]]
+        [0.0, 0.0, 1.0, 0.0, 3.14159265359, 1.0, 0.0, -1.0, 0.0]
+        >>> Arc.axial_level_table([half.reversed().transformed((0.0, 1.0, 1.0, 0.0))], [1.0]).rows.shape
+        (2, 9)
+        """
+        import numpy as np
+
+        from revolve.geometry.clipping import CircularPieces
+
+        (cx, cy, R), (arc, a_from, a_to, k_from, k_to) = cls._cut_angles(segments, math.pi)
+        se = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+
+        def end(k, own):
+            own_end = np.isnan(k)
+            sign = np.where(np.nan_to_num(k) % 2 == 0, 1.0, -1.0)
+            return (np.where(own_end, own[:, 0], cx[arc] + sign * R[arc]),
+                    np.where(own_end, own[:, 1], cy[arc]))
+
+        z0, r0 = end(k_from, se[arc][:, 0:2])
+        z1, r1 = end(k_to, se[arc][:, 2:4])
+        rows = np.column_stack([cx[arc], cy[arc], R[arc], a_from, a_to, z0, r0, z1, r1])
+        return CircularPieces(rows, np.asarray(factors, dtype=float)[arc])
+
+    def _sub_arc(self, start, end):
+        """The part from ``start`` to ``end``: an arc, or its chord when so short that its sweep
+        is lost in rounding (a sweep of a few ulps would read as a full turn).
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [p.kind for p in half._sub_arc((0.0, 1.0), (-1.0, 0.0))], half._sub_arc((0.0, 1.0), (0.0, 1.0))
+        (['arc'], ())
+        """
+        if start == end:
+            return ()
+        part = replace(self, start=start, end=end, exact=None)
+        if abs(part.sweep()) <= math.pi * (1 + 1e-9):
+            return (part,)
+        from revolve.geometry.kinds.line import Line
+        return (Line(start, end, face=self.face, where=self.where),)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: arcs about the same centre (an arc never lies flat).
+
+        The radius at a cut is found from the lower end of its piece
+        (``√((R - u)(R + u))``), so a level a hair above a rounded bottom keeps its
+        digits; no point is moved onto the level.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> [(p.start, p.end) for p in half.part_below(0.0)[0]]
+        [((0.0, 1.0), (-1.0, 0.0))]
+        >>> half.part_below(-1.0), len(half.part_below(1.0)[0])
+        (((), ()), 1)
+        """
+        from revolve.geometry.clipping import _arc_cut
+
+        (cz, cr), R = self.centre, self.radius
+        rows = type(self).axial_level_table([self], [1.0]).rows
+        points = [self.start] + [(float(z), float(r)) for z, r in rows[:-1, 7:9]] + [self.end]
+        angles = [float(a) for a in rows[:, 3]] + [float(rows[-1, 4])]
+        if max(z for z, _ in points) <= level:
+            return (self,), ()          # wholly below (or touching from below): as it is
+        out = []
+        for k in range(len(points) - 1):
+            start, end = points[k], points[k + 1]
+            za, zb = start[0], end[0]
+            if max(za, zb) <= level:
+                out.extend(self._sub_arc(start, end))
+                continue
+            if min(za, zb) >= level:
+                continue
+            _, rc = _arc_cut(cz, cr, R, angles[k], angles[k + 1], level, z_low=min(za, zb))
+            cut = (level, float(rc))
+            out.extend(self._sub_arc(start, cut) if za < zb else self._sub_arc(cut, end))
+        return tuple(out), ()
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Arcs cut at every quarter turn (r and z monotone on each), as circular rows.
+
+        The centre's z is measured from ``z_ref``; the angles inside are exact
+        multiples of π/2.
+
+        >>> half = arc_from_centre((1.0, 0.0), (-1.0, 0.0), (0.0, 0.0), clockwise=False)
+        >>> t = Arc.radial_level_table([half], [1.0])
+        >>> [[round(float(v), 6) for v in row] for row in t.arc]
+        [[0.0, 0.0, 1.0, 0.0, 1.570796], [0.0, 0.0, 1.0, 1.570796, 3.141593], [0.0, 0.0, 1.0, 0.0, 3.141593]]
+        """
+        import numpy as np
+
+        from revolve.geometry.horizontal import CircularRows
+
+        (cx, cy, R), (arc, a_from, a_to, _, _) = cls._cut_angles(segments, math.pi / 2)
+        centres = np.column_stack([cx - z_ref, cy, R])
+        return CircularRows.from_pieces(centres, arc, a_from, a_to, np.asarray(factors, dtype=float))
 
 def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
                     major: bool = False, face: Optional[str] = None,

@@ -551,7 +551,183 @@ class Curve(SegmentKind):
         tm = self.t_start + s * (self.t_end - self.t_start)
         return replace(self, t_end=tm, exact=None), replace(self, t_start=tm, exact=None)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
 
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000, *,
+                             first_pieces: int = 16, deepest: int = 40):
+        """Points whose chords stay within ``tolerance`` of the curve, shape (m + 1, 2).
+
+        Adaptive subdivision in ``t``: from ``first_pieces`` equal steps, a piece
+        is halved while one of its probe points (at 1/4, 1/2 and 3/4 of it) lies
+        farther than ``tolerance`` from its chord, at most ``deepest`` times
+        (pieces still too far then are kept as they are). The ends are the
+        curve's own.
+
+        Raises
+        ------
+        RevolveError
+            When more than ``most_pieces`` pieces would be needed.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, 2 * t, 0.0, 1.0).flatten_to_tolerance(0.1).shape          # straight: 16 steps
+        (17, 2)
+        >>> pts = Curve(t, t ** 2, 0.0, 1.0).flatten_to_tolerance(1e-4)
+        >>> pts[0].tolist(), pts[-1].tolist(), bool(abs(pts[:, 1] - pts[:, 0] ** 2).max() == 0)
+        ([0.0, 0.0], [1.0, 1.0], True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).flatten_to_tolerance(1e-12, most_pieces=50)
+        Traceback (most recent call last):
+        ...
+        revolve.errors.RevolveError: the chord tolerance 1e-12 needs more than 50 pieces on one curve; use a larger tolerance
+        """
+        import numpy as np
+
+        from revolve.errors import RevolveError
+
+        def off_chord(p, a, b):
+            """Distance of points ``p`` (k, q, 2) from chords ``a``-``b`` (k, 2)."""
+            ab = np.broadcast_to((b - a)[:, None, :], p.shape)
+            ap = p - a[:, None, :]
+            ll = np.einsum("kqi,kqi->kq", ab, ab)
+            with np.errstate(invalid="ignore", divide="ignore"):
+                s = np.clip(np.einsum("kqi,kqi->kq", ap, ab) / ll, 0.0, 1.0)
+            s = np.where(ll > 0, s, 0.0)
+            return np.linalg.norm(ap - s[..., None] * ab, axis=-1)
+
+        probes = np.array([0.25, 0.5, 0.75])
+        lo = np.linspace(self.t_start, self.t_end, first_pieces + 1)
+        a, b = lo[:-1], lo[1:]
+        finished = []
+        for _ in range(deepest):
+            if a.size == 0:
+                break
+            tp = a[:, None] + (b - a)[:, None] * probes
+            x, y, _, _ = self.evaluate(np.concatenate([a, b, tp.ravel()]))
+            xy = np.column_stack([x, y])
+            k = a.size
+            pa, pb, pp = xy[:k], xy[k:2 * k], xy[2 * k:].reshape(k, probes.size, 2)
+            bad = ~(off_chord(pp, pa, pb).max(axis=1) <= tolerance)  # NaN counts as bad
+            finished.append(a[~bad])
+            mid = (a[bad] + b[bad]) / 2
+            a, b = np.concatenate([a[bad], mid]), np.concatenate([mid, b[bad]])
+            if sum(f.size for f in finished) + a.size > most_pieces:
+                raise RevolveError(f"the chord tolerance {tolerance:g} needs more than "
+                                   f"{most_pieces:,} pieces on one curve; use a larger tolerance")
+        finished.append(a)  # pieces still too far after the deepest split are kept as they are
+        t = np.sort(np.concatenate(finished + [np.array([self.t_end])]))
+        if self.t_end < self.t_start:
+            t = t[::-1]
+        x, y, _, _ = self.evaluate(t)
+        pts = np.column_stack([x, y])
+        pts[0], pts[-1] = self.start, self.end
+        return pts
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """The fewest chords :meth:`flatten_to_tolerance` gives: its first equal steps.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).fewest_chords(0.1)
+        16
+        """
+        return 16
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the curve is, through its primitive ``curve``.
+
+        ``out.curve(x_expr, y_expr, t_start, t_end, exact)`` with the mapped
+        expressions in ``t`` and the exact ends of the interval (or None).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> class Out:
+        ...     def curve(self, x, y, t0, t1, exact):
+        ...         print(x, y, t0, t1, exact)
+        >>> Curve(t, t ** 2, 0.0, 1.0).translated(1.0).describe_to(Out())
+        t + 1 t**2 0.0 1.0 None
+        """
+        out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """None: a curve's end cannot move without changing its expressions (a gap is bridged instead).
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, t ** 2, 0.0, 1.0).with_end_moved((1.0, 1.01)) is None
+        True
+        """
+        return None
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Curves cut where ``z`` turns back, as parametric rows ``(curve, t from, t to)``.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.axial_level_table([Curve(sympy.sin(t), t, 0.0, 3.0)], [1.0])
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.pieces]      # z = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0)]
+        """
+        from revolve.geometry.clipping import ParametricPieces
+
+        rows, fs = [], []
+        for s, f in zip(segments, factors):
+            for a, b in s.monotone_ranges(0):
+                if a != b:
+                    rows.append((s, a, b))
+                    fs.append(f)
+        return ParametricPieces(rows, fs)
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, ())``: the same curve on shorter intervals.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> [(p.t_start, round(p.t_end, 12)) for p in Curve(t ** 2, t, 0.0, 2.0).part_below(1.0)[0]]
+        [(0.0, 1.0)]
+        """
+        from revolve.geometry.clipping import parameters_at_values
+
+        out = []
+        for p, q in self.monotone_ranges(0):
+            za, zb = (float(v) for v in self.points_at([p, q])[:, 0])
+            if max(za, zb) <= level:
+                out.append(replace(self, t_start=p, t_end=q, exact=None))
+                continue
+            if min(za, zb) >= level:
+                continue
+            tc = float(parameters_at_values(self, p, q, [level], coordinate=0)[0])
+            if za < zb:
+                out.append(replace(self, t_start=p, t_end=tc, exact=None))
+            else:
+                out.append(replace(self, t_start=tc, t_end=q, exact=None))
+        return tuple(s for s in out if s.t_end != s.t_start), ()
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Curves moved by ``-z_ref`` along x and cut where r turns back, as parametric rows.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> table = Curve.radial_level_table([Curve(t, sympy.sin(t), 0.0, 3.0)], [1.0], z_ref=1.0)
+        >>> [(round(a, 9), round(b, 9)) for _, a, b in table.curves]   # r = sin t turns at π/2
+        [(0.0, 1.570796327), (1.570796327, 3.0), (0.0, 3.0)]
+        >>> table.extent()[:2]
+        (-1.0, 2.0)
+        """
+        from revolve.geometry.horizontal import ParametricRows
+
+        items = []
+        for s in segments:
+            ranges = s.monotone_ranges(1)
+            items.append((s.translated(-z_ref), [a for a, _ in ranges] + [ranges[-1][1]]))
+        return ParametricRows.from_parameters(items, factors)
 
 
 def curve_from_expressions(x_expr, y_expr, t_start, t_end, face=None, where=None,

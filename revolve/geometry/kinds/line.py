@@ -166,6 +166,125 @@ class Line(SegmentKind):
         values = line_integrals(se[:, 0], se[:, 1], se[:, 2], se[:, 3])
         return values, closed_form_errors(values), ("closed form",) * len(segments)
 
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance`` of the segment, shape (m + 1, 2).
+
+        A line is its own chord: its two ends, whatever the tolerance.
+
+        >>> Line((0.0, 1.0), (2.0, 1.0)).flatten_to_tolerance(0.1).tolist()
+        [[0.0, 1.0], [2.0, 1.0]]
+        >>> Line((1.0, 1.0), (1.0, 1.0)).flatten_to_tolerance(1e-9).shape   # zero length
+        (2, 2)
+        """
+        import numpy as np
+
+        return np.array([self.start, self.end], dtype=float)
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """The fewest chords :meth:`flatten_to_tolerance` gives (to refuse a mesh before any work).
+
+        >>> Line((0.0, 0.0), (5.0, 0.0)).fewest_chords(1e-6)
+        1
+        """
+        return 1
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the line is, through its primitive ``straight``.
+
+        ``out.straight(points, exact)`` takes the points from the start through
+        each vertex (here the two ends) and their exact coordinates, or None.
+
+        >>> class Out:
+        ...     def straight(self, points, exact):
+        ...         print(points, exact)
+        >>> Line((0.0, 1.0), (2.0, 1.0), exact=(0, 1, 2, 1)).describe_to(Out())
+        ((0.0, 1.0), (2.0, 1.0)) ((0, 1), (2, 1))
+        >>> Line((0.0, 1.0), (2.0, 1.0)).describe_to(Out())
+        ((0.0, 1.0), (2.0, 1.0)) None
+        """
+        ex = self.exact
+        out.straight((self.start, self.end),
+                     None if ex is None else ((ex.x0, ex.y0), (ex.x1, ex.y1)))
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """The line with its end (or start) moved onto ``point``; None if it would have no length.
+
+        A straight end can move without changing the rest of the segment's shape.
+
+        >>> Line((0.0, 0.0), (1.0, 0.0)).with_end_moved((1.0, 1e-6))
+        Line(start=(0.0, 0.0), end=(1.0, 1e-06), face=None)
+        >>> Line((0.0, 0.0), (1.0, 0.0)).with_end_moved((1.0, 0.0), at_start=True) is None
+        True
+        """
+        point = (float(point[0]), float(point[1]))
+        if point == (self.end if at_start else self.start):
+            return None
+        if at_start:
+            return replace(self, start=point, exact=None)
+        return replace(self, end=point, exact=None)
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Lines in the axis frame as straight rows ``z0, r0, z1, r1`` (vertical level tables).
+
+        >>> t = Line.axial_level_table([Line((0.0, 1.0), (2.0, 1.0))], [1.0])
+        >>> t.rows.tolist(), t.factor.tolist()
+        ([[0.0, 1.0, 2.0, 1.0]], [1.0])
+        """
+        import numpy as np
+
+        from revolve.geometry.clipping import StraightPieces
+
+        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        return StraightPieces(rows, np.asarray(factors, dtype=float))
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(parts with x < level, flat parts lying in the level plane)``, as tuples of lines.
+
+        The cut point is found from the lower end, with ``x`` exactly the level; a
+        line perpendicular to ``x`` within ``tolerance`` above the level touches it.
+
+        >>> Line((0.0, 1.0), (4.0, 3.0)).part_below(1.0)
+        ((Line(start=(0.0, 1.0), end=(1.0, 1.5), face=None),), ())
+        >>> Line((2.0, 1.0), (2.0, 3.0)).part_below(2.0, 1e-9)   # a flat face at the level
+        ((), (Line(start=(2.0, 1.0), end=(2.0, 3.0), face=None),))
+        >>> Line((5.0, 1.0), (6.0, 1.0)).part_below(2.0)
+        ((), ())
+        """
+        z0, z1 = self.start[0], self.end[0]
+        touching = (self,) if z0 == z1 and level <= z0 <= level + tolerance else ()
+        if max(z0, z1) <= level:
+            return ((self,) if min(z0, z1) < level else ()), touching
+        if min(z0, z1) >= level:
+            return (), touching
+        (zl, rl), (zh, rh) = sorted((self.start, self.end))
+        cut = (level, rl + (level - zl) / (zh - zl) * (rh - rl))   # from the lower end
+        part = replace(self, end=cut, exact=None) if z0 < z1 else replace(self, start=cut, exact=None)
+        return (part,), touching
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Lines as straight rows ``z0, r0, z1, r1`` with z from ``z_ref`` (horizontal tables).
+
+        >>> Line.radial_level_table([Line((3.0, 1.0), (5.0, 2.0))], [1.0], z_ref=4.0).line.tolist()
+        [[-1.0, 1.0, 1.0, 2.0]]
+        """
+        import numpy as np
+
+        from revolve.geometry.horizontal import StraightRows
+
+        rows = np.array([s.start + s.end for s in segments], dtype=float).reshape(-1, 4)
+        rows[:, [0, 2]] -= z_ref
+        return StraightRows(rows, np.asarray(factors, dtype=float))
+
 
 def _snap(p: Point, tiny: float) -> Point:
     return (0.0 if abs(p[0]) < tiny else p[0], 0.0 if abs(p[1]) < tiny else p[1])

@@ -253,3 +253,154 @@ class Polyline(SegmentKind):
         for i, seg in enumerate(segments):
             values[i], errors[i] = polyline_sums(seg.points)
         return values, errors, ("closed form",) * len(segments)
+
+    # -- for meshes and pictures (mesh.py) ----------------------------------------------
+
+    def flatten_to_tolerance(self, tolerance: float, most_pieces: int = 1_000_000):
+        """Points whose chords stay within ``tolerance``: the polyline's own vertices.
+
+        Its edges are its chords, exactly, whatever the tolerance, so nothing
+        is cut and ``most_pieces`` does not apply (the vertices are the input,
+        not work the tolerance asks for; a mesh counts them first, with
+        :meth:`fewest_chords`). The array itself is returned (read-only), no
+        copy and no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> p.flatten_to_tolerance(1e-9).tolist()
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]
+        >>> p.flatten_to_tolerance(0.1) is p.points
+        True
+        """
+        return self.points
+
+    def fewest_chords(self, tolerance: float) -> int:
+        """How many chords :meth:`flatten_to_tolerance` gives: one per edge.
+
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).fewest_chords(0.5)
+        2
+        """
+        return len(self.points) - 1
+
+    # -- for profile files (writer.py) ---------------------------------------------------
+
+    def describe_to(self, out) -> None:
+        """Tell a profile writer ``out`` what the polyline is, through its primitive ``straight``.
+
+        ``out.straight(points, exact)`` gets the whole vertex array (no object
+        per vertex) and the exact vertex coordinates, or None.
+
+        >>> class Out:
+        ...     def straight(self, points, exact):
+        ...         print(points.tolist(), exact)
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]])).describe_to(Out())
+        [[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]] None
+        """
+        out.straight(self.points, None if self.exact is None else self.exact.points)
+
+    # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
+
+    def with_end_moved(self, point, at_start: bool = False):
+        """The polyline with its last (or first) vertex moved onto ``point``.
+
+        Its end edge is straight, so only that edge changes; None when the edge
+        would have no length. One copy of the vertex array, no object per vertex.
+
+        >>> p = Polyline(np.array([[0.0, 0.0], [1.0, 0.0], [1.0, 1.0]]))
+        >>> p.with_end_moved((1.0, 1.001)).points.tolist()
+        [[0.0, 0.0], [1.0, 0.0], [1.0, 1.001]]
+        >>> p.with_end_moved((1.0, 0.0), at_start=True) is None
+        True
+        """
+        k, neighbour = (0, 1) if at_start else (-1, -2)
+        point = (float(point[0]), float(point[1]))
+        if point == (float(self.points[neighbour, 0]), float(self.points[neighbour, 1])):
+            return None
+        pts = self.points.copy()
+        pts[k] = point
+        return replace(self, points=pts, exact=None)
+
+    # -- for level tables (clipping.py, horizontal.py)
+
+    @classmethod
+    def axial_level_table(cls, segments, factors):
+        """Every edge as a straight row ``z0, r0, z1, r1`` (one array, no object per edge).
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> t = Polyline.axial_level_table([p], [-1.0])
+        >>> t.rows.tolist(), t.factor.tolist()
+        ([[0.0, 1.0, 1.0, 2.0], [1.0, 2.0, 2.0, 1.0]], [-1.0, -1.0])
+        """
+        from revolve.geometry.clipping import StraightPieces
+
+        return StraightPieces(*_edge_rows(segments, factors))
+
+    def part_below(self, level: float, tolerance: float = 0.0):
+        """``(runs of edges with x < level, flat edges in the level plane)``, as polylines.
+
+        Edge by edge the same rule as :meth:`Line.part_below` (the cut from the lower
+        end, with ``x`` exactly the level), on the whole array at once; consecutive
+        kept edges stay one polyline.
+
+        >>> zigzag = Polyline(np.array([[0.0, 1.0], [2.0, 2.0], [0.0, 3.0], [2.0, 4.0]]))
+        >>> [p.points.tolist() for p in zigzag.part_below(1.0)[0]]
+        [[[0.0, 1.0], [1.0, 1.5]], [[1.0, 2.5], [0.0, 3.0], [1.0, 3.5]]]
+        >>> zigzag.part_below(5.0)[0] == (zigzag,), zigzag.part_below(0.0)
+        (True, ((), ()))
+        """
+        P = self.points
+        z = P[:, 0]
+        z0, z1 = z[:-1], z[1:]
+        lo, hi = np.minimum(z0, z1), np.maximum(z0, z1)
+        flat = np.flatnonzero((z0 == z1) & (level <= z0) & (z0 <= level + tolerance))
+        touching = tuple(Polyline(P[i:i + 2], face=self.face, where=self.where,
+                                  first_edge=self.first_edge + int(i)) for i in flat)
+        kept = lo < level
+        if not kept.any():
+            return (), touching
+        if kept.all() and float(hi.max()) <= level:
+            return (self,), touching
+        rising = z1 > z0
+        zl, zh = lo, hi
+        rl, rh = np.where(rising, P[:-1, 1], P[1:, 1]), np.where(rising, P[1:, 1], P[:-1, 1])
+        with np.errstate(divide="ignore", invalid="ignore"):
+            rc = rl + (level - zl) / (zh - zl) * (rh - rl)      # from the lower end
+        start, end = P[:-1].copy(), P[1:].copy()
+        cut_start, cut_end = kept & (z0 > level), kept & (z1 > level)
+        start[cut_start] = np.column_stack([np.full(cut_start.sum(), level), rc[cut_start]])
+        end[cut_end] = np.column_stack([np.full(cut_end.sum(), level), rc[cut_end]])
+        idx = np.flatnonzero(kept)
+        # consecutive kept edges share their vertex unless it lies above the level
+        join = (idx[1:] == idx[:-1] + 1) & (z[idx[1:]] <= level)
+        bounds = np.concatenate([[0], np.flatnonzero(~join) + 1, [idx.size]])
+        out = []
+        for a, b in zip(bounds[:-1], bounds[1:]):
+            edges = idx[a:b]
+            pts = np.vstack([start[edges[:1]], end[edges]])
+            lines = None if self.lines is None else self.lines[edges[0]:edges[-1] + 2]
+            out.append(Polyline(pts, face=self.face, where=self.where, lines=lines,
+                                first_edge=self.first_edge + int(edges[0])))
+        return tuple(out), touching
+
+    @classmethod
+    def radial_level_table(cls, segments, factors, z_ref: float = 0.0):
+        """Every edge as a straight row ``z0, r0, z1, r1`` with z from ``z_ref`` (one array).
+
+        >>> p = Polyline(np.array([[0.0, 1.0], [1.0, 2.0], [2.0, 1.0]]))
+        >>> Polyline.radial_level_table([p], [1.0], z_ref=1.0).line.tolist()
+        [[-1.0, 1.0, 0.0, 2.0], [0.0, 2.0, 1.0, 1.0]]
+        """
+        from revolve.geometry.horizontal import StraightRows
+
+        rows, f = _edge_rows(segments, factors)
+        rows = rows.copy()
+        rows[:, [0, 2]] -= z_ref
+        return StraightRows(rows, f)
+
+
+def _edge_rows(segments, factors):
+    """Rows ``x0, y0, x1, y1`` of every edge of the polylines, and each edge's factor."""
+    pts = [s.points for s in segments]
+    if not pts:
+        return np.zeros((0, 4)), np.zeros(0)
+    rows = np.vstack([np.hstack([p[:-1], p[1:]]) for p in pts])
+    return rows, np.repeat(np.asarray(factors, dtype=float), [len(p) - 1 for p in pts])

@@ -1,0 +1,233 @@
+"""The engine's speed targets, each printed as a ratio measured side by side in one run.
+
+Run:  python benchmarks/engine_targets.py [--quick] [--repeats 3]
+
+Every row times revolve and a plain reference on the same input, alternated so
+that both see the same load (best of ``--repeats``), and prints the ratio next
+to its target. The machines are shared and noisy: these are ratios, never
+absolute promises, and nothing here is asserted in the test suite.
+
+1. ``revolve measure PTS --json`` on a 10⁶-vertex point list (cross-check
+   included) against a plain numpy process (``numpy.loadtxt`` + shoelace);
+   peak memory of the revolve process. Target: ≤ 4×, < 400 MB.
+2. The same command on 10⁴ vertices against a four-line profile. Target ≤ 1.5×.
+3. Library: a 10⁶-vertex loop from arrays, ``measure`` with the cross-check,
+   against shapely's area + centroid on the same vertices. Target ≤ 5×.
+4. ``revolve vessel`` with ellipsoidal heads and ``revolve measure`` of a curve
+   profile against ``python -c "import numpy, typer"``. Target ≤ 1.7×.
+5. 1000-level tables on a 1000-segment profile through the library: vertical
+   against all-levels closed-form frusta in numpy (target ≤ 50×); horizontal
+   with 1000 arcs (target < 0.15 s).
+6. ``revolve measure FOLDER --json`` over 1000 small profiles: ms per part,
+   and the projected time for 10⁶ parts. Target < 3 ms per part.
+
+``--quick`` uses 10⁵ instead of 10⁶ vertices and 200 parts (for a smoke run).
+"""
+
+from __future__ import annotations
+
+import argparse
+import math
+import os
+import resource
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+import numpy as np
+
+ROOT = Path(__file__).resolve().parents[1]
+sys.path.insert(0, str(ROOT))
+
+PLAIN = """
+import sys, numpy as np
+p = np.loadtxt(sys.argv[1], delimiter=",")
+x, y = p[:, 0], p[:, 1]
+xn, yn = np.roll(x, -1), np.roll(y, -1)
+c = x * yn - xn * y
+a = c.sum() / 2
+print(a, ((x + xn) * c).sum() / (6 * a), ((y + yn) * c).sum() / (6 * a))
+"""
+
+
+def child(cmd, cwd):
+    """Wall seconds and peak memory (MB) of one child process; None when it fails."""
+    env = dict(os.environ, PYTHONPATH=str(ROOT))
+    before = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
+    t0 = time.perf_counter()
+    r = subprocess.run(cmd, cwd=cwd, env=env, capture_output=True, text=True)
+    dt = time.perf_counter() - t0
+    peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss
+    if r.returncode not in (0,):
+        print("   failed:", " ".join(map(str, cmd[:4])), r.stderr.strip().splitlines()[-1:])
+        return None, None
+    return dt, (peak if peak > before else None)
+
+
+def side_by_side(commands, repeats, cwd):
+    """Best wall time of each command, alternating them ``repeats`` times."""
+    best = [math.inf] * len(commands)
+    peaks = [None] * len(commands)
+    for _ in range(repeats):
+        for i, cmd in enumerate(commands):
+            dt, peak = child(cmd, cwd)
+            if dt is None:
+                best[i] = None
+                continue
+            if best[i] is not None:
+                best[i] = min(best[i], dt)
+            if peak:
+                peaks[i] = max(peaks[i] or 0, peak / 1024)
+    return best, peaks
+
+
+def row(name, a, b, target, unit="×"):
+    if a is None or b is None:
+        print(f"{name:<58} did not run")
+        return
+    print(f"{name:<58} {a:8.3f} s vs {b:8.3f} s  ratio {a / b:6.2f}{unit}  (target {target})")
+
+
+def ring(n):
+    rng = np.random.default_rng(0)
+    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
+    r = 20 + 2 * np.sin(7 * a) + rng.uniform(-1, 1, n) * 0.1 * (2 * np.pi * 20 / n)
+    return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
+
+
+def toml_loop(points):
+    """A profile file of one straight-sided loop (an invented part)."""
+    segs = ", ".join(f"{{ line_to = [{x}, {y}] }}" for x, y in points[1:])
+    x0, y0 = points[0]
+    return f'units = "mm"\n[[loop]]\nstart = [{x0}, {y0}]\nsegments = [{segs}, {{ close = true }}]\n'
+
+
+def python(*args):
+    return [sys.executable, *args]
+
+
+def main():
+    ap = argparse.ArgumentParser()
+    ap.add_argument("--quick", action="store_true")
+    ap.add_argument("--repeats", type=int, default=3)
+    args = ap.parse_args()
+    big = 100_000 if args.quick else 1_000_000
+    parts = 200 if args.quick else 1000
+    work = Path(tempfile.mkdtemp(prefix="revolve-targets-"))
+    rep = args.repeats
+
+    # 1, 2: point lists through the command line.
+    pts = work / "big.csv"
+    np.savetxt(pts, ring(big), delimiter=",", fmt="%.9f")
+    small = work / "small.csv"
+    np.savetxt(small, ring(10_000), delimiter=",", fmt="%.9f")
+    four = work / "four.toml"
+    four.write_text(toml_loop([(0, 10), (40, 10), (40, 30), (0, 30)]))
+    (t_rev, t_plain), (peak, _) = side_by_side(
+        [python("-m", "revolve", "measure", str(pts), "--json"), python("-c", PLAIN, str(pts))],
+        rep, work)
+    row(f"1. measure {big:,}-vertex point list vs numpy process", t_rev, t_plain, "≤ 4×")
+    print(f"   peak memory of revolve: {peak:.0f} MB (target < 400 MB)" if peak else "")
+    (t_small, t_four), _ = side_by_side(
+        [python("-m", "revolve", "measure", str(small), "--json"),
+         python("-m", "revolve", "measure", str(four), "--json")], rep, work)
+    row("2. measure 10,000-vertex point list vs four-line profile", t_small, t_four, "≤ 1.5×")
+
+    # 3: library against shapely.
+    try:
+        import shapely
+
+        from revolve.geometry.measure import measure
+        from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+
+        xy = ring(big)
+        t_lib = t_sh = math.inf
+        for _ in range(rep):
+            t0 = time.perf_counter()
+            measure(Revolution(Profile(loops=(Loop.from_points(xy),)), Axis.x()))
+            t_lib = min(t_lib, time.perf_counter() - t0)
+            t0 = time.perf_counter()
+            poly = shapely.Polygon(xy)
+            poly.area, poly.centroid
+            t_sh = min(t_sh, time.perf_counter() - t0)
+        row(f"3. library measure of {big:,} vertices vs shapely", t_lib, t_sh, "≤ 5×")
+    except Exception as exc:  # a benchmark reports, it does not stop
+        print("3. did not run:", exc)
+
+    # 4: start-up with curves.
+    curve = ROOT / "profiles" / "domed-lid.toml"
+    (t_v, t_c, t_base), _ = side_by_side(
+        [python("-m", "revolve", "vessel", "--diameter", "1200", "--length", "2400", "--head",
+                "ellipsoidal", "-o", str(work / "tank.toml"), "--force"),
+         python("-m", "revolve", "measure", str(curve), "--json"),
+         python("-c", "import numpy, typer")], rep, work)
+    row("4. vessel with ellipsoidal heads vs import numpy, typer", t_v, t_base, "≤ 1.7×")
+    row("4. measure of a curve profile vs import numpy, typer", t_c, t_base, "≤ 1.7×")
+
+    # 5: level tables through the library.
+    try:
+        from revolve.geometry.checks import prepare
+        from revolve.geometry.clipping import vertical_levels
+        from revolve.geometry.horizontal import horizontal_levels
+        from revolve.geometry.profile import Axis, Loop, Profile
+        from revolve.geometry.segments import Line, arc_from_centre
+
+        n = 1000
+        z = np.linspace(0.0, 2000.0, n)
+        r = 400 + 100 * np.sin(z / 150.0)
+        pts = [(0.0, 0.0)] + list(zip(z.tolist(), r.tolist())) + [(2000.0, 0.0)]
+        prep = prepare(Profile(loops=(Loop.from_points(pts),)), Axis.x())
+        levels = np.linspace(0.0, 2000.0, 1000)
+        t_v = t_np = math.inf
+        for _ in range(rep):
+            t0 = time.perf_counter()
+            vertical_levels(prep, levels)
+            t_v = min(t_v, time.perf_counter() - t0)
+            t0 = time.perf_counter()
+            # All levels at once: cumulative frusta π h (r0² + r0 r1 + r1²)/3, interpolated.
+            h = np.diff(z)
+            frusta = np.pi * h * (r[:-1] ** 2 + r[:-1] * r[1:] + r[1:] ** 2) / 3
+            cum = np.concatenate([[0.0], np.cumsum(frusta)])
+            k = np.clip(np.searchsorted(z, levels) - 1, 0, n - 2)
+            rl = r[k] + (levels - z[k]) * (r[k + 1] - r[k]) / h[k]
+            cum[k] + np.pi * (levels - z[k]) * (r[k] ** 2 + r[k] * rl + rl ** 2) / 3
+            t_np = min(t_np, time.perf_counter() - t0)
+        row("5. vertical 1000-level table, 1000 segments vs numpy frusta", t_v, t_np, "≤ 50×")
+        R, step = 300.0, 2.0
+        # 1000 arcs: a corrugated shell, each arc a shallow bump.
+        arcs = []
+        for i in range(1000):
+            a, b = i * step, (i + 1) * step
+            c = ((a + b) / 2, R - 4.0)
+            arcs.append(arc_from_centre((a, R), (b, R), c, clockwise=True))
+        loop = Loop(tuple(arcs) + (Line((1000 * step, R), (1000 * step, 0.0)),
+                                   Line((1000 * step, 0.0), (0.0, 0.0)), Line((0.0, 0.0), (0.0, R))))
+        hprep = prepare(Profile(loops=(loop,)), Axis.x())
+        depths = np.linspace(0.0, 2 * R, 1000)
+        t_h = math.inf
+        for _ in range(rep):
+            t0 = time.perf_counter()
+            horizontal_levels(hprep, depths)
+            t_h = min(t_h, time.perf_counter() - t0)
+        print(f"{'5. horizontal 1000-level table, 1000 arcs':<58} {t_h:8.3f} s  (target < 0.15 s)")
+    except Exception as exc:
+        print("5. did not run:", exc)
+
+    # 6: many small parts.
+    folder = work / "parts"
+    folder.mkdir()
+    for i in range(parts):
+        d, L = 20 + (i % 17), 30 + (i % 23)
+        (folder / f"part{i:04d}.toml").write_text(
+            toml_loop([(0, 0), (L, 0), (L, d / 2), (L / 2, d / 2), (L / 2, d / 2 + 4), (0, d / 2 + 4)]))
+    (t_many,), _ = side_by_side([python("-m", "revolve", "measure", str(folder), "--json")], 1, work)
+    if t_many:
+        per = t_many / parts
+        print(f"{'6. measure over a folder of %d profiles' % parts:<58} {1000 * per:8.2f} ms per part "
+              f"(target < 3 ms); 10⁶ parts ≈ {per * 1e6 / 3600:.1f} h on {os.cpu_count()} cores")
+
+
+if __name__ == "__main__":
+    main()
