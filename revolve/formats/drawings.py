@@ -266,7 +266,7 @@ def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> 
     >>> loops, chains = summarise_paths(
     ...     Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)), ["points"], ["loop"])
     >>> loops[0].describe(), chains
-    ('loop 1: 3 lines; from points', ())
+    ('loop 1: 1 polyline; from points', ())
     """
     loops, chains = [], []
     for path, source, kind in zip(profile.paths, sources, kind_of):

@@ -283,23 +283,8 @@ class _PathText:
         self._add(_curve_body(x_expr, y_expr, t_start, t_end, exact, self.place))
 
 
-def _edges(segments):
-    """The segments to write, a polyline as its edges (lines between its vertices, exact ones kept)."""
-    out = []
-    for seg in segments:
-        if seg.kind != "polyline":
-            out.append(seg)
-            continue
-        pts = seg.points.tolist()
-        ex = seg.exact.points if seg.exact is not None else None
-        out.extend(Line(tuple(pts[i]), tuple(pts[i + 1]), face=seg.face,
-                        exact=None if ex is None else tuple(ex[i]) + tuple(ex[i + 1]))
-                   for i in range(len(pts) - 1))
-    return out
-
-
 def _path_lines(kind: str, index: int, path, size: float) -> List[str]:
-    segments = _edges(path.segments)
+    segments = path.segments
     if not segments:
         raise ProfileError(f"{kind} {index} has no segments; there is nothing to write")
     start = segments[0].start
