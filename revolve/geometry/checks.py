@@ -42,13 +42,15 @@ RELATIVE_TOLERANCE = 1e-9
 SNAP_FRACTION = 1e-15
 
 
-#: Until every algorithm takes a polyline through the segment contract (issue 10: slicing,
-#: clipping, horizontal levels, mesh, coating and the writers are being converted),
-#: :attr:`PreparedProfile.paths` shows each polyline as its edges, Line segments made on first
-#: use (:class:`EdgePath`), while :attr:`PreparedProfile.arrays` keeps every polyline whole
-#: for the section sums. Set this to False once they all do: ``paths`` then keeps polylines
-#: whole too, and nothing makes an object per vertex.
-POLYLINE_EDGES_AS_LINES = True
+#: Whether :func:`prepare` shows each polyline in :attr:`PreparedProfile.paths` as its edges,
+#: Line segments made on first use (:class:`EdgePath`), with :attr:`PreparedProfile.arrays`
+#: keeping them whole (what :func:`~revolve.geometry.measure.section` reads). A bridge for
+#: issue 10: the washers and surface quadrature of :mod:`revolve.geometry.slicing` do not take
+#: polylines yet (measure hands them :func:`with_edges_as_lines` in any case), and a few tests
+#: and jobs still read ``paths`` as lines (clipped sections measured by washers, coating's
+#: grouping by the side of the material, a turning test). Set to False once they do: nothing
+#: else then makes an object per vertex.
+POLYLINE_EDGES_AS_LINES = False
 
 
 @dataclass(frozen=True)
@@ -455,8 +457,8 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
-    >>> [s.kind for s in prep.whole_paths[0]], len(prep.paths[0]), prep.size
-    (['polyline'], 4, 2.8284271247461903)
+    >>> [(s.kind, s.chord_count()) for s in prep.whole_paths[0]], prep.size
+    ([('polyline', 4)], 2.8284271247461903)
     >>> prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 1), (0, 3)]),)), Axis.x())
     Traceback (most recent call last):
     ...
@@ -531,13 +533,30 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
             px, py = (poly[0] + poly[1]) / 2
         depths.append(sum(_point_in_polygon(px, py, other)
                           for m, other in enumerate(loops) if m != k))
-    whole = tuple(frame_paths)
-    if POLYLINE_EDGES_AS_LINES and any(_is_multi(s) for fs in whole for s in fs):
-        shown = tuple(EdgePath(fs, f"{'loop' if c else 'chain'} {k}")
-                      if any(_is_multi(s) for s in fs) else fs
-                      for k, (fs, c) in enumerate(zip(whole, closed), start=1))
-        return PreparedProfile(shown, closed, tuple(depths), side, size, tol, arrays=whole)
-    return PreparedProfile(whole, closed, tuple(depths), side, size, tol)
+    prep = PreparedProfile(tuple(frame_paths), closed, tuple(depths), side, size, tol)
+    return with_edges_as_lines(prep) if POLYLINE_EDGES_AS_LINES else prep
+
+
+def with_edges_as_lines(prep: PreparedProfile) -> PreparedProfile:
+    """The same prepared profile with each polyline shown as its edges (:class:`EdgePath`).
+
+    For an algorithm that does not yet take polylines; ``arrays`` keeps them
+    whole. A profile without polylines is returned as it is.
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> lines = with_edges_as_lines(prep)
+    >>> [s.kind for s in lines.paths[0]], [s.kind for s in lines.whole_paths[0]]
+    (['line', 'line', 'line', 'line'], ['polyline'])
+    """
+    whole = prep.whole_paths
+    if prep.arrays is not None or not any(_is_multi(s) for fs in whole for s in fs):
+        return prep                      # shown as edges already, or no polyline
+    shown = tuple(EdgePath(fs, f"{'loop' if c else 'chain'} {k}")
+                  if any(_is_multi(s) for s in fs) else fs
+                  for k, (fs, c) in enumerate(zip(whole, prep.closed), start=1))
+    return PreparedProfile(shown, prep.closed, prep.depths, prep.side, prep.size, prep.tolerance,
+                           arrays=whole)
 
 
 def _check_path(path, k: int, tol: float) -> None:

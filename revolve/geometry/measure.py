@@ -37,7 +37,7 @@ from typing import Dict, Optional, Tuple
 import numpy as np
 
 from revolve.errors import ProfileError
-from revolve.geometry.checks import PreparedProfile, loop_factor, prepare
+from revolve.geometry.checks import PreparedProfile, loop_factor, prepare, with_edges_as_lines
 from revolve.geometry.integrals import COL, segment_integrals
 from revolve.geometry.profile import UNNAMED_FACE, Revolution
 from revolve.geometry.slicing import surface_by_quadrature, washer_volume
@@ -245,8 +245,10 @@ def measure(revolution: Revolution, density: Optional[float] = None, *,
     surf_err = theta * sec.error["length_r"]
     check = None
     if crosscheck:
-        wv, we = washer_volume(prep, sec.loop_factors, theta) if has_loops else (0.0, 0.0)
-        sq, se = surface_by_quadrature(prep, theta)
+        # Until slicing takes polylines (issue 10), it reads a polyline's edges as lines.
+        lines = with_edges_as_lines(prep)
+        wv, we = washer_volume(lines, sec.loop_factors, theta) if has_loops else (0.0, 0.0)
+        sq, se = surface_by_quadrature(lines, theta)
         st = float(sum(sq))
         check = CrossCheck(volume=wv, volume_error=we, surface_area=st, surface_error=float(sum(se)),
                            volume_difference=_relative(volume, wv),

@@ -24,7 +24,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 from shapely.geometry import LinearRing, LineString, Polygon
 
-from revolve.geometry.checks import RELATIVE_TOLERANCE, find_self_intersection, prepare
+from revolve.geometry.checks import (RELATIVE_TOLERANCE, find_self_intersection, prepare,
+                                     with_edges_as_lines)
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.slicing import first_partition, piece_table, washer_volume
@@ -73,7 +74,8 @@ def test_noisy_ring_is_sliced_coarser_than_its_vertices_with_the_same_volume():
     # noisy ring: the slices at every vertex would cut ~10⁶ (piece, interval) pairs; the first
     # partition keeps fewer ends, and the volume still matches shapely + Pappus.
     pts = wavy_ring(noise=0.5)
-    prep = prepare(Profile(loops=(Loop.from_points(pts.tolist()),)), Axis.x())
+    # (the washers take a polyline's edges as lines until slicing takes polylines)
+    prep = with_edges_as_lines(prepare(Profile(loops=(Loop.from_points(pts.tolist()),)), Axis.x()))
     table = piece_table(prep, [1.0])
     edges = first_partition(table)
     assert edges.size < np.unique(np.concatenate([table.lo, table.hi])).size
@@ -89,7 +91,8 @@ def _clockwise(pts):
 def test_smooth_outline_is_sliced_at_every_vertex():
     # A smooth outline keeps every piece end as a slice end (the partition is not coarsened):
     # the 10⁴-gon's vertices have 5001 distinct positions along the axis (symmetric about it).
-    prep = prepare(Profile(loops=(Loop.from_points(torus_section().tolist()),)), Axis.x())
+    prep = with_edges_as_lines(prepare(Profile(loops=(Loop.from_points(torus_section().tolist()),)),
+                                       Axis.x()))
     table = piece_table(prep, [1.0])
     assert first_partition(table).size == np.unique(np.concatenate([table.lo, table.hi])).size
 

@@ -19,7 +19,7 @@ import sympy
 
 from revolve.errors import FormatError, MaterialError, RevolveError
 from revolve.formats import load_profile
-from revolve.geometry.checks import prepare
+from revolve.geometry.checks import prepare, with_edges_as_lines
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.segments import Line, arc_from_centre
@@ -410,7 +410,8 @@ def test_finishing_an_end_face_at_the_speed_limit():
 def test_finishing_a_diameter_entirely_at_the_limit_is_one_pass_l_over_fn():
     # ⌀20 × 40 outside diameter, limit 1000 rev/min, vc 260 m/min would need 4138 rev/min:
     # t = L / (f n) (common practice, no source).
-    prep = _cylinder(10.0, 40.0)
+    lines = with_edges_as_lines(_cylinder(10.0, 40.0))      # its sides as Line segments
+    prep = replace(lines, paths=tuple(tuple(p) for p in lines.paths), arrays=None)
     n = 1000 / 60
     side = [s for s in prep.paths[0] if s.start[1] == 10.0 and s.end[1] == 10.0]
     assert len(side) == 1
