@@ -496,20 +496,25 @@ def test_points_file_separators_comments_header(tmp_path):
     text = "# ring\nx;y\n0,10\n20 10\n\n20\t15  # top\n0 ; 15\n0, 10\n"
     doc = load_profile(put(tmp_path, "ring.csv", text), unit="in")
     loop = doc.profile.loops[0]
-    assert [s.start for s in loop.segments] == [(0.0, 10.0), (20.0, 10.0), (20.0, 15.0),
-                                                (0.0, 15.0)]
-    assert loop.segments[-1].end == (0.0, 10.0)  # closed implicitly, repeated last point dropped
-    assert [s.where.line for s in loop.segments] == [3, 4, 6, 7]
+    poly, = loop.segments                        # one polyline: its edges are the segments
+    assert poly.points[:-1].tolist() == [[0.0, 10.0], [20.0, 10.0], [20.0, 15.0], [0.0, 15.0]]
+    assert poly.end == (0.0, 10.0)  # closed implicitly, repeated last point dropped
+    assert [poly.where_at(e).line for e in range(4)] == [3, 4, 6, 7]
+    assert [doc.line_of(f"loop 1, segment {k}") for k in range(1, 5)] == [3, 4, 6, 7]
     assert doc.profile.unit == "in" and doc.axis is None and doc.exact
     # reference library: shapely Polygon.area of the same vertices (20 × 5)
     from shapely.geometry import Polygon
-    assert Polygon([s.start for s in loop.segments]).area == 100.0
+    assert Polygon(poly.points[:-1]).area == 100.0
 
 
 def test_points_exact_and_default_unit():
     doc = parse_points_text("0.1 0\n1 0\n1 1e-1\n")
     assert doc.profile.unit == "mm"
-    assert doc.profile.loops[0].segments[0].exact == (Fraction(1, 10), 0, 1, 0)
+    assert doc.profile.loops[0].segments[0].exact is None     # exact values only when asked
+    exact = parse_points_text("0.1 0\n1 0\n1 1e-1\n", exact=True).profile.loops[0].segments[0]
+    assert exact.exact.points == ((Fraction(1, 10), 0), (1, 0), (1, Fraction(1, 10)),
+                                  (Fraction(1, 10), 0))
+    assert exact.points.tolist() == doc.profile.loops[0].segments[0].points.tolist()
 
 
 @pytest.mark.parametrize("text, message", [
@@ -542,7 +547,7 @@ def test_points_bad_unit():
 @pytest.mark.parametrize("extension", [".txt", ".csv", ".xy", ".dat", ".pts", ".TXT"])
 def test_points_extensions(tmp_path, extension):
     doc = load_profile(put(tmp_path, "p" + extension, "0 0\n1 0\n0 1\n"))
-    assert len(doc.profile.loops[0].segments) == 3
+    assert doc.profile.loops[0].segments[0].chord_count() == 3
 
 
 def test_register_reader(tmp_path):
@@ -564,7 +569,20 @@ def reload(obj, **kw):
     return parse_profile_text(out.getvalue(), file="again.toml"), out.getvalue()
 
 
+def _as_lines(segments):
+    """A polyline's edges as lines (the writer writes a polyline edge by edge)."""
+    out = []
+    for s in segments:
+        if s.kind == "polyline":
+            pts = [tuple(p) for p in s.points.tolist()]
+            out += [Line(p, q, face=s.face) for p, q in zip(pts[:-1], pts[1:])]
+        else:
+            out.append(s)
+    return out
+
+
 def assert_same_geometry(a, b):
+    a, b = _as_lines(a), _as_lines(b)
     assert len(a) == len(b)
     for s, r in zip(a, b):
         assert s.kind == r.kind and s.face == r.face
@@ -583,7 +601,9 @@ def test_round_trip_lines_with_awkward_floats():
            (1e-7, 7e22)]
     loop = Loop.from_points(pts, face="x")
     doc, text = reload(Profile(loops=(loop,), unit="in"))
-    assert doc.profile.loops[0] == loop and doc.profile.unit == "in"
+    again = doc.profile.loops[0].segments        # written edge by edge, read back as lines
+    assert [s.start for s in again] + [again[-1].end] == [tuple(p) for p in loop.segments[0].points.tolist()]
+    assert {s.face for s in again} == {"x"} and doc.profile.unit == "in"
     assert "close = true" in text
 
 
@@ -594,7 +614,8 @@ def test_round_trip_lines_with_awkward_floats():
 def test_round_trip_any_polygon_is_exact(points):
     chain = Chain.from_points(points)
     doc, _ = reload(Profile(chains=(chain,)))
-    assert doc.profile.chains[0] == chain
+    again = doc.profile.chains[0].segments
+    assert [s.start for s in again] + [again[-1].end] == [(float(x), float(y)) for x, y in points]
 
 
 def test_round_trip_arcs_both_constructors():
@@ -679,7 +700,8 @@ def test_write_is_atomic(tmp_path, monkeypatch):
     bad = Loop((Line((0.0, 1.0), (1.0, 1.0)), Line((5.0, 5.0), (0.0, 1.0))))
     with pytest.raises(ProfileError):
         write_profile(Profile(loops=(bad,)), path)
-    good = Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),))
+    good = Profile(loops=(Loop((Line((0.0, 1.0), (1.0, 1.0)), Line((1.0, 1.0), (0.0, 2.0)),
+                                Line((0.0, 2.0), (0.0, 1.0)))),))
 
     def broken_replace(src, dst):
         raise OSError(28, "No space left on device")

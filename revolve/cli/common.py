@@ -107,8 +107,10 @@ def parse_axis(text: Optional[str]) -> Optional[Axis]:
     return Axis((fl[0], fl[1]), (fl[2], fl[3]), exact=((vals[0], vals[1]), (vals[2], vals[3])))
 
 
-def load(path: str, unit: Optional[str] = None):
+def load(path: str, unit: Optional[str] = None, exact: bool = False):
     """Read a profile document (any supported format); ``unit`` comes from ``--units``.
+
+    ``exact`` (from ``--exact``) keeps exact values where the reader would not otherwise.
 
     >>> load("p.txt", unit="gallon")
     Traceback (most recent call last):
@@ -123,11 +125,11 @@ def load(path: str, unit: Optional[str] = None):
             units.factor(unit, "length")
         except UnitError as e:
             raise e.located(option="--units")
-    return load_profile(path, unit=unit)
+    return load_profile(path, unit=unit, exact=exact)
 
 
 def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[float],
-                            units: Optional[str]):
+                            units: Optional[str], exact: bool = False):
     """Load a profile and build its revolution from the options, the file, then the defaults.
 
     Returns ``(document, revolution)``; errors name the option or the file line.
@@ -146,7 +148,7 @@ def revolution_from_options(profile: str, axis: Optional[str], angle: Optional[f
     """
     from revolve.geometry.profile import Revolution
 
-    doc = load(profile, unit=units)
+    doc = load(profile, unit=units, exact=exact)
     ax = parse_axis(axis) or doc.axis or parse_axis("x")
     ang = angle if angle is not None else (doc.angle_degrees if doc.angle_degrees is not None else 360.0)
     try:

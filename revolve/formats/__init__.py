@@ -10,7 +10,9 @@ profile file.
 
 A reader is called as ``reader(path, unit=unit)`` and returns a
 :class:`ProfileDocument`; it reads the file itself (through
-:func:`revolve.formats.files.read_text` for text formats).
+:func:`revolve.formats.files.read_text` for text formats). A reader whose
+attribute ``takes_exact`` is true is also given ``exact=True`` when exact
+values are asked for (``--exact``): the point-list reader keeps them only then.
 
 Importing this package and reading a profile of lines and arcs with plain
 numbers imports neither sympy, scipy nor pint.
@@ -88,7 +90,7 @@ def register_reader(extension: str, reader: Reader) -> None:
     READERS[extension] = reader
 
 
-def load_profile(path, *, unit: Optional[str] = None) -> ProfileDocument:
+def load_profile(path, *, unit: Optional[str] = None, exact: bool = False) -> ProfileDocument:
     """Read a profile from a file, choosing the reader by the file name's ending.
 
     Parameters
@@ -99,6 +101,9 @@ def load_profile(path, *, unit: Optional[str] = None) -> ProfileDocument:
         Length unit of the coordinates. Point lists use it (default
         ``"mm"``); a profile file uses it only when it gives no ``units`` and
         refuses a different one.
+    exact : bool, optional
+        Keep the exact value of every number where the reader can (a point
+        list keeps them only when asked; a profile file always does).
 
     Returns
     -------
@@ -117,6 +122,14 @@ def load_profile(path, *, unit: Optional[str] = None) -> ProfileDocument:
     Traceback (most recent call last):
     ...
     revolve.errors.FormatError: no_such_part.toml: no such file; check the name and folder
+    >>> import os, tempfile
+    >>> path = os.path.join(tempfile.mkdtemp(), "tri.csv")
+    >>> with open(path, "w") as f:
+    ...     _ = f.write("0,1\\n0.5,1\\n0,2\\n")
+    >>> load_profile(path).profile.loops[0].segments[0].exact is None
+    True
+    >>> load_profile(path, exact=True).profile.loops[0].segments[0].exact.points[1]
+    (Fraction(1, 2), Fraction(1, 1))
     """
     name = os.fspath(path)
     if not os.path.exists(name):
@@ -127,4 +140,6 @@ def load_profile(path, *, unit: Optional[str] = None) -> ProfileDocument:
         known = ", ".join(sorted(READERS, key=lambda e: (e != ".toml", e)))
         raise FormatError(f'unknown kind of file "{extension or name}"; profiles are read from '
                           f"{known}", file=name)
+    if exact and getattr(reader, "takes_exact", False):
+        return reader(name, unit=unit, exact=True)
     return reader(name, unit=unit)

@@ -13,10 +13,48 @@ True
 from __future__ import annotations
 
 from dataclasses import dataclass, field
-from typing import Any, Mapping, Optional
+from typing import Any, Iterator, Mapping, Optional
 
 from revolve.geometry.profile import Axis, Profile
 from revolve.geometry.segments import Where
+
+
+class SourceLines(Mapping):
+    """Line numbers of parts of a file, with a path's segments looked up in an array.
+
+    A point list of 10⁶ vertices keeps the line of each vertex in one integer
+    array; ``"loop 1, segment k"`` is answered from it (the line of the
+    segment's first vertex) without a dictionary entry per segment.
+
+    >>> import numpy as np
+    >>> lines = SourceLines({"loop 1": 3}, {"loop 1": np.array([3, 4, 7])})
+    >>> lines["loop 1"], lines.get("loop 1, segment 3"), lines.get("loop 1, segment 4")
+    (3, 7, None)
+    >>> len(lines), sorted(lines)[:2]
+    (4, ['loop 1', 'loop 1, segment 1'])
+    """
+
+    def __init__(self, fixed: Mapping[str, int], paths: Mapping[str, Any]):
+        self._fixed = dict(fixed)
+        self._paths = dict(paths)
+
+    def __getitem__(self, part: str) -> int:
+        if part in self._fixed:
+            return self._fixed[part]
+        path, sep, segment = part.partition(", segment ")
+        lines = self._paths.get(path)
+        if sep and lines is not None and segment.isdigit() and 1 <= int(segment) <= len(lines):
+            return int(lines[int(segment) - 1])
+        raise KeyError(part)
+
+    def __iter__(self) -> Iterator[str]:
+        yield from self._fixed
+        for path, lines in self._paths.items():
+            for k in range(len(lines)):
+                yield f"{path}, segment {k + 1}"
+
+    def __len__(self) -> int:
+        return len(self._fixed) + sum(len(v) for v in self._paths.values())
 
 
 @dataclass(frozen=True)

@@ -266,7 +266,7 @@ def summarise_paths(profile, sources: Sequence[str], kind_of: Sequence[str]) -> 
     >>> loops, chains = summarise_paths(
     ...     Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)), ["points"], ["loop"])
     >>> loops[0].describe(), chains
-    ('loop 1: 3 lines; from points', ())
+    ('loop 1: 1 polyline; from points', ())
     """
     loops, chains = [], []
     for path, source, kind in zip(profile.paths, sources, kind_of):
@@ -429,7 +429,7 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
     """
     import numpy as np
 
-    from revolve.geometry.checks import RELATIVE_TOLERANCE, _chord_owner, find_self_intersection
+    from revolve.geometry.checks import RELATIVE_TOLERANCE, _chord_place, find_self_intersection
 
     paths = profile.paths
     if not paths:
@@ -447,21 +447,23 @@ def check_no_crossings(profile, *, file: Optional[str] = None, after: str = "") 
     if hit is None:
         return
     pa, ca, pb, cb = hit
-    sa, sb = _chord_owner(flat[pa], ca), _chord_owner(flat[pb], cb)
+    # segment index, edge in it and number in messages (a polyline's edges count one each)
+    sa, _, na = _chord_place(paths[pa].segments, flat[pa], ca)
+    sb, _, nb = _chord_place(paths[pb].segments, flat[pb], cb)
 
-    def name(k: int, j: int) -> str:
+    def name(k: int, j: int, number: int) -> str:
         seg = paths[k].segments[j]
         where = getattr(seg, "where", None)
         if where is not None and where.place:
             return where.place
-        return f"{'loop' if closed[k] else 'chain'} {k + 1}, segment {j + 1}"
+        return f"{'loop' if closed[k] else 'chain'} {k + 1}, segment {number}"
 
     seg = paths[pa].segments[sa]
     where = getattr(seg, "where", None)
     raise ProfileError(f"{after}the profile intersects itself: this segment meets "
-                       f"{name(pb, sb)}; a boundary must not cross or touch itself",
+                       f"{name(pb, sb, nb)}; a boundary must not cross or touch itself",
                        file=(where.file if where is not None and where.file else file),
-                       place=name(pa, sa))
+                       place=name(pa, sa, na))
 
 
 # -- lazy entry points -----------------------------------------------------------------

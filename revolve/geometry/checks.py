@@ -31,7 +31,7 @@ import numpy as np
 from revolve.errors import ProfileError
 from revolve.geometry.frame import to_frame
 from revolve.geometry.profile import Axis, Profile
-from revolve.geometry.segments import COORDINATE_LIMIT, SIZE_LIMIT, Segment
+from revolve.geometry.segments import COORDINATE_LIMIT, SIZE_LIMIT, Segment, Where
 
 #: Relative tolerance (of the profile's size) for closure, axis contact and touching.
 RELATIVE_TOLERANCE = 1e-9
@@ -49,7 +49,8 @@ class PreparedProfile:
     ``closed`` says which paths are loops; ``depths`` is each loop's nesting
     depth (odd = a hole); ``side`` is +1 when the sketch profile lies on the
     left of the axis direction, -1 when on the right; ``size`` is the diagonal
-    of its bounding box.
+    of its bounding box. A polyline stays one segment (one array): no
+    algorithm needs a Python object per vertex.
     """
 
     paths: Tuple[Tuple[Segment, ...], ...]
@@ -79,6 +80,11 @@ class PreparedProfile:
             area = float(segment_integrals(moved).values[:, COL["M00"]].sum())
             out.append(loop_factor(area, depth))
         return tuple(out)
+
+
+def _edge_count(seg) -> int:
+    """How many segments ``seg`` counts as in messages (a polyline: one per edge)."""
+    return seg.edge_count()
 
 
 def loop_factor(signed_area: float, depth: int) -> float:
@@ -140,9 +146,15 @@ def _segments_cross(p, q, r, s, tol):
                  (np.minimum(a[:, 1], b[:, 1]) - tol <= c[:, 1]) & (c[:, 1] <= np.maximum(a[:, 1], b[:, 1]) + tol)
         return (np.abs(d) <= t) & inside
 
-    touch = on_segment(r, s, p, d1, t_rs) | on_segment(r, s, q, d2, t_rs) | \
-        on_segment(p, q, r, d3, t_pq) | on_segment(p, q, s, d4, t_pq)
-    return proper | touch
+    # Touching needs an orientation within its tolerance: test only those pairs.
+    near = np.flatnonzero((np.abs(d1) <= t_rs) | (np.abs(d2) <= t_rs) |
+                          (np.abs(d3) <= t_pq) | (np.abs(d4) <= t_pq))
+    if near.size:
+        p, q, r, s = p[near], q[near], r[near], s[near]
+        t_rs, t_pq = t_rs[near], t_pq[near]
+        proper[near] |= on_segment(r, s, p, d1[near], t_rs) | on_segment(r, s, q, d2[near], t_rs) | \
+            on_segment(p, q, r, d3[near], t_pq) | on_segment(p, q, s, d4[near], t_pq)
+    return proper
 
 
 def _sweep_order(lo: np.ndarray, hi: np.ndarray) -> Tuple[np.ndarray, np.ndarray]:
@@ -204,7 +216,7 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
 
 
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 2_000_000,
+                           chunk: int = 500_000,
                            index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
@@ -219,8 +231,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     chords truly overlap (a noisy outline whose zigzags are far longer than
     the spacing of its points: the pairs grow as (total length)² / area).
     The exact orientation test then runs vectorised over the candidates, in
-    chunks of ``chunk`` pairs. ``index`` ("x", "y" or "grid") forces one
-    index (for tests); the answer is the same whichever is used.
+    chunks of ``chunk`` pairs (their temporaries stay near 100 MB). ``index``
+    ("x", "y" or "grid") forces one index (for tests); the answer is the same
+    whichever is used.
 
     >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
     >>> find_self_intersection(bow, [True], 1e-9)
@@ -254,6 +267,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     n = len(a)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
+        if name == "y" and index is None and choices and choices["x"][0] <= 3 * n:
+            break       # the x sweep is already down to three pairs per chord: take it
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None)
@@ -341,20 +356,39 @@ def check_coordinate_range(points) -> None:
 
 
 def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
-    """Check a profile against an axis and place it in the axis frame."""
+    """Check a profile against an axis and place it in the axis frame.
+
+    Every check runs on arrays: a polyline's edges are checked all at once
+    (zero length, coordinate range, the side of the axis, self-intersection,
+    nesting), so a 10⁶-vertex outline costs a few passes over its vertices. A
+    failure names the segment as the profile numbers it (a polyline's edges
+    are its segments: "loop 1, segment 5") and, for a segment from a file,
+    the file and line (a polyline's edge: the line of its first vertex).
+
+    >>> from revolve.geometry.profile import Loop, Profile, Axis
+    >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> [(s.kind, s.chord_count()) for s in prep.paths[0]], prep.size
+    ([('polyline', 4)], 2.8284271247461903)
+    >>> prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 1), (0, 3)]),)), Axis.x())
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: loop 1, segment 2: this segment has zero length; remove it
+    """
     paths = profile.paths
     if not paths:
         raise ProfileError("the profile has no loops or chains; give at least one closed loop")
     closed = tuple(p.closed for p in paths)
     # Sketch points of every segment, for size, side and intersections.
     flat = [[s.flatten() for s in p.segments] for p in paths]
-    allpts = np.vstack([f for fs in flat for f in fs]) if any(flat) else np.zeros((0, 2))
+    pieces = [f for fs in flat for f in fs]
+    allpts = np.concatenate(pieces) if pieces else np.zeros((0, 2))
     if allpts.size == 0:
         raise ProfileError("the profile has no segments")
     if not np.all(np.isfinite(allpts)):
         raise ProfileError("the profile has a coordinate that is not a finite number")
     check_coordinate_range(allpts)
-    size = float(np.hypot(*(allpts.max(axis=0) - allpts.min(axis=0))))
+    lo, hi = allpts.min(axis=0), allpts.max(axis=0)
+    size = float(np.hypot(*(hi - lo)))
     if size == 0:
         raise ProfileError("the profile has zero size: every point is the same")
     if size < SIZE_LIMIT:
@@ -363,58 +397,44 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
                            "in a smaller unit")
     tol = RELATIVE_TOLERANCE * size
     for k, p in enumerate(paths, start=1):
-        segs = p.segments
-        if not segs:
-            raise ProfileError(f"{'loop' if p.closed else 'chain'} {k} has no segments")
-        for j, s in enumerate(segs, start=1):
-            if s.length() <= tol:
-                raise _fail("this segment has zero length; remove it", s, _place(s, k, j, p.closed))
-            if j > 1:
-                prev = segs[j - 2].end
-                gap = math.hypot(s.start[0] - prev[0], s.start[1] - prev[1])
-                if gap > tol:
-                    raise _fail(f"this segment starts at ({s.start[0]:g}, {s.start[1]:g}) but the "
-                                f"previous one ends at ({prev[0]:g}, {prev[1]:g}); segments must join",
-                                s, _place(s, k, j, p.closed))
-        if p.closed:
-            first, last = segs[0].start, segs[-1].end
-            gap = math.hypot(first[0] - last[0], first[1] - last[1])
-            if gap > tol:
-                s = segs[-1]
-                raise _fail(f"the loop is not closed: it ends at ({last[0]:g}, {last[1]:g}) but "
-                            f"starts at ({first[0]:g}, {first[1]:g}); add a segment back to the start",
-                            s, _place(s, k, len(segs), True))
+        _check_path(p, k, tol)
     # Which side of the axis?
     z_all, r_all = axis.to_frame(allpts[:, 0], allpts[:, 1])
     far = int(np.argmax(np.abs(r_all)))
     if abs(r_all[far]) <= tol:
         raise ProfileError("the whole profile lies on the axis; it would sweep nothing")
     side = 1.0 if r_all[far] > 0 else -1.0
+    del z_all, r_all
     frame_paths = []
     for k, p in enumerate(paths, start=1):
         fsegs = tuple(to_frame(s.straightened(), axis, side).snapped(SNAP_FRACTION * size)
                       for s in p.segments)
-        for j, (s, fs) in enumerate(zip(p.segments, fsegs), start=1):
-            rmin, (zq, rq) = _min_distance_from_axis(fs)
-            if rmin < -tol:
+        number = 0
+        for s, fs in zip(p.segments, fsegs):
+            low = fs.bounds()[1]               # exact: a kind's bounds include its turning points
+            if low < -tol:
+                edge, (zq, rq) = _lowest_place(fs, tol)
                 x, y = axis.from_frame(zq, rq, side)
-                raise _fail(f"the profile crosses the axis here (point ({x:.6g}, {y:.6g}) is on the "
-                            "other side); a section must lie on one side of the axis, touching it "
-                            "at most", s, _place(s, k, j, p.closed))
+                raise _fail_at(f"the profile crosses the axis here (point ({x:.6g}, {y:.6g}) is on "
+                               "the other side); a section must lie on one side of the axis, "
+                               "touching it at most", s, edge, _place(None, k, number + edge + 1,
+                                                                       p.closed))
+            number += _edge_count(s)
         frame_paths.append(fsegs)
     # Self-intersection, loops and chains together (in the sketch: a rigid map changes nothing).
-    chords = [np.vstack([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2)) for fs in flat]
+    chords = [fs[0] if len(fs) == 1 else
+              (np.concatenate([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2)))
+              for fs in flat]
     hit = find_self_intersection(chords, closed, tol)
     if hit is not None:
         pa, ca, pb, cb = hit
-        sa = _chord_owner(flat[pa], ca)
-        sb = _chord_owner(flat[pb], cb)
-        seg_a = paths[pa].segments[sa]
-        other = _place(None, pb + 1, sb + 1, closed[pb])
-        raise _fail(f"the profile intersects itself: this segment meets {other}; "
-                    "a section boundary must not cross or touch itself", seg_a,
-                    _place(seg_a, pa + 1, sa + 1, closed[pa]))
-    # Nesting depth of each loop (odd = hole).
+        sa, ea, na = _chord_place(paths[pa].segments, flat[pa], ca)
+        _, _, nb = _chord_place(paths[pb].segments, flat[pb], cb)
+        other = _place(None, pb + 1, nb, closed[pb])
+        raise _fail_at(f"the profile intersects itself: this segment meets {other}; "
+                       "a section boundary must not cross or touch itself",
+                       paths[pa].segments[sa], ea, _place(None, pa + 1, na, closed[pa]))
+    # Nesting depth of each loop (odd = hole): a point of each loop against the others.
     loops = [chords[k] for k in range(len(paths)) if closed[k]]
     depths = []
     for k, poly in enumerate(loops):
@@ -423,10 +443,80 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
             px, py = (poly[0] + poly[1]) / 2
         depths.append(sum(_point_in_polygon(px, py, other)
                           for m, other in enumerate(loops) if m != k))
-    return PreparedProfile(tuple(frame_paths), closed, tuple(depths), side, size, tol)
+    prep = PreparedProfile(tuple(frame_paths), closed, tuple(depths), side, size, tol)
+    return prep
+
+
+def _check_path(path, k: int, tol: float) -> None:
+    """Zero-length segments (a polyline's edges at once), joins and closure of path ``k``."""
+    segs = path.segments
+    if not segs:
+        raise ProfileError(f"{'loop' if path.closed else 'chain'} {k} has no segments")
+    number = 0
+    for j, s in enumerate(segs):
+        if s.edge_count() > 1:
+            short = np.flatnonzero(s.edge_lengths() <= tol)
+            if short.size:
+                e = int(short[0])
+                raise _fail_at("this segment has zero length; remove it", s, e,
+                               _place(None, k, number + e + 1, path.closed))
+        elif s.length() <= tol:
+            raise _fail("this segment has zero length; remove it", s,
+                        _place(s, k, number + 1, path.closed))
+        if j > 0:
+            prev = segs[j - 1].end
+            gap = math.hypot(s.start[0] - prev[0], s.start[1] - prev[1])
+            if gap > tol:
+                raise _fail_at(f"this segment starts at ({s.start[0]:g}, {s.start[1]:g}) but the "
+                               f"previous one ends at ({prev[0]:g}, {prev[1]:g}); segments must join",
+                               s, 0, _place(s, k, number + 1, path.closed))
+        number += _edge_count(s)
+    if path.closed:
+        first, last = segs[0].start, segs[-1].end
+        gap = math.hypot(first[0] - last[0], first[1] - last[1])
+        if gap > tol:
+            s = segs[-1]
+            raise _fail_at(f"the loop is not closed: it ends at ({last[0]:g}, {last[1]:g}) but "
+                           f"starts at ({first[0]:g}, {first[1]:g}); add a segment back to the start",
+                           s, _edge_count(s) - 1, _place(s, k, number, True))
+
+
+def _fail_at(message: str, seg: Segment, edge: int, place: str):
+    """:func:`_fail` for edge ``edge`` of a segment (a polyline names the edge's own line)."""
+    where = seg.where_at(edge) or Where()
+    return ProfileError(message, file=where.file, line=where.line, place=place)
+
+
+def _lowest_place(seg: Segment, tol: float) -> Tuple[int, Tuple[float, float]]:
+    """The first edge of a frame segment that reaches below ``−tol`` and its lowest point.
+
+    One edge for a line, an arc or a curve (its lowest point exact where its
+    turning points are); a polyline's first edge with a vertex below.
+    """
+    if seg.edge_count() > 1:          # its flattened chords are its edges
+        pts = seg.flatten()
+        i = int(np.argmax(pts[:, 1] < -tol))
+        edge = max(i - 1, 0)          # the first edge that holds vertex i
+        a, b = pts[edge], pts[edge + 1]
+        q = a if a[1] <= b[1] else b
+        return edge, (float(q[0]), float(q[1]))
+    rmin, point = _min_distance_from_axis(seg)
+    return 0, point
 
 
 def _chord_owner(flat_segments: Sequence[np.ndarray], chord: int) -> int:
     """Index of the segment that a path's chord number belongs to."""
     counts = np.cumsum([len(f) - 1 for f in flat_segments])
     return int(np.searchsorted(counts, chord, side="right"))
+
+
+def _chord_place(segments, flat_segments: Sequence[np.ndarray], chord: int) -> Tuple[int, int, int]:
+    """For a path's chord number: its segment's index, its edge in that segment, and the
+    segment number in messages (a polyline's edges count one each)."""
+    counts = np.cumsum([len(f) - 1 for f in flat_segments])
+    j = int(np.searchsorted(counts, chord, side="right"))
+    before = sum(_edge_count(s) for s in segments[:j])
+    if segments[j].edge_count() > 1:
+        edge = chord - (int(counts[j - 1]) if j else 0)
+        return j, edge, before + edge + 1
+    return j, 0, before + 1

@@ -67,7 +67,7 @@ cut at z = 0.5: a quarter of it.
 >>> round(clipped_volume(clipped) / math.pi, 12)
 4.0
 >>> [s.kind for s in clipped.prepared.paths[0]]
-['line', 'line', 'line', 'line']
+['polyline', 'line', 'polyline']
 >>> levels = vertical_levels(prep, [0.0, 0.5, 2.0])
 >>> [round(float(v) / math.pi, 12) for v in levels.volume]
 [0.0, 4.0, 16.0]

@@ -9,9 +9,8 @@ profile, an axis and an angle together; it is what
 
 Examples
 --------
->>> from revolve.geometry.segments import Line
 >>> square = Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)])
->>> len(square.segments), square.segments[-1].end
+>>> square.segments[0].chord_count(), square.segments[-1].end
 (4, (0.0, 1.0))
 >>> Axis.x().direction, Axis.y().direction
 ((1.0, 0.0), (0.0, 1.0))
@@ -27,7 +26,7 @@ from dataclasses import dataclass, field
 from typing import Iterable, Optional, Sequence, Tuple
 
 from revolve.errors import ProfileError
-from revolve.geometry.segments import COORDINATE_LIMIT, Line, Point, Segment, Where
+from revolve.geometry.segments import COORDINATE_LIMIT, Point, Segment, Where
 
 
 @dataclass(frozen=True)
@@ -42,17 +41,27 @@ class Loop:
     @classmethod
     def from_points(cls, points: Iterable[Sequence[float]], face: Optional[str] = None,
                     where: Optional[Where] = None) -> "Loop":
-        """A polygon loop through ``points``, closed back to the first point.
+        """A polygon loop through ``points`` (a sequence of pairs or an (n, 2) array).
 
-        >>> Loop.from_points([(0, 0), (1, 0), (0, 1)]).segments[2]
-        Line(start=(0.0, 1.0), end=(0.0, 0.0), face=None)
+        The loop is one :class:`~revolve.geometry.kinds.polyline.Polyline`
+        closed back to the first point (a last point equal to the first is
+        not repeated); its edges are the polygon's sides, in order.
+
+        >>> loop = Loop.from_points([(0, 0), (1, 0), (0, 1)])
+        >>> seg, = loop.segments
+        >>> seg.kind, seg.chord_count(), seg.points[-1].tolist()
+        ('polyline', 3, [0.0, 0.0])
+        >>> Loop.from_points([(0, 0), (1, 0), (0, 1), (0, 0)]).segments == loop.segments
+        True
+        >>> Loop.from_points([]).segments
+        ()
         """
-        pts = [(float(p[0]), float(p[1])) for p in points]
-        if len(pts) >= 2 and pts[0] == pts[-1]:
+        pts = _point_array(points)
+        if len(pts) >= 2 and pts[0, 0] == pts[-1, 0] and pts[0, 1] == pts[-1, 1]:
             pts = pts[:-1]
-        segs = tuple(Line(pts[i], pts[(i + 1) % len(pts)], face=face)
-                     for i in range(len(pts)))
-        return cls(segs, where=where)
+        if not len(pts):
+            return cls((), where=where)
+        return cls((_polyline(np.concatenate([pts, pts[:1]]), face, where),), where=where)
 
 
 @dataclass(frozen=True)
@@ -67,14 +76,47 @@ class Chain:
     @classmethod
     def from_points(cls, points: Iterable[Sequence[float]], face: Optional[str] = None,
                     where: Optional[Where] = None) -> "Chain":
-        """An open polyline through ``points``.
+        """An open polyline through ``points`` (a sequence of pairs or an (n, 2) array).
 
-        >>> len(Chain.from_points([(0, 1), (1, 1), (2, 2)]).segments)
-        2
+        The chain is one :class:`~revolve.geometry.kinds.polyline.Polyline`.
+
+        >>> chain = Chain.from_points([(0, 1), (1, 1), (2, 2)])
+        >>> [s.chord_count() for s in chain.segments], chain.segments[0].end
+        ([2], (2.0, 2.0))
+        >>> Chain.from_points([(0, 1)]).segments
+        ()
         """
-        pts = [(float(p[0]), float(p[1])) for p in points]
-        return cls(tuple(Line(pts[i], pts[i + 1], face=face) for i in range(len(pts) - 1)),
-                   where=where)
+        pts = _point_array(points)
+        if len(pts) < 2:
+            return cls((), where=where)
+        return cls((_polyline(pts, face, where),), where=where)
+
+
+class _Numpy:
+    """numpy, imported on first use: reading a profile of lines and arcs must not import it."""
+
+    def __getattr__(self, name):
+        import numpy
+
+        return getattr(numpy, name)
+
+
+np = _Numpy()
+
+
+def _point_array(points):
+    """``points`` as an (n, 2) float array (a copy when it is given as an array)."""
+    if hasattr(points, "__array__"):
+        pts = np.array(points, dtype=float)
+    else:
+        pts = np.array([(float(p[0]), float(p[1])) for p in points], dtype=float)
+    return pts.reshape(-1, 2)
+
+
+def _polyline(pts, face, where):
+    from revolve.geometry.kinds.polyline import Polyline
+
+    return Polyline(pts, face=face, where=where)
 
 
 @dataclass(frozen=True)
@@ -100,7 +142,7 @@ class Profile:
         """Every segment, loops first.
 
         >>> Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),)).segments()[0].kind
-        'line'
+        'polyline'
         """
         return tuple(s for p in self.paths for s in p.segments)
 

@@ -169,7 +169,7 @@ class PieceTable:
     >>> prep = prepare(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> t = piece_table(prep, [1.0])
     >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist(), [g.kind.kind for g in t.groups]
-    (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0], ['line'])
+    (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0], ['polyline'])
     """
 
     z_from: np.ndarray

@@ -279,6 +279,8 @@ class MeasureTask:
     density: Optional[float] = None
     density_label: Optional[str] = None
     convert: Optional[Callable[[PartMeasurement], Any]] = None
+    #: Keep exact values where a reader would not otherwise (a point list's Fractions), for --exact.
+    exact: bool = False
 
     def __call__(self, path: str) -> Any:
         part = measure_part(path, self)
@@ -296,7 +298,7 @@ def measure_part(path: str, task: MeasureTask = MeasureTask()) -> PartMeasuremen
     from revolve.geometry.measure import measure
     from revolve.geometry.profile import Axis, Revolution
 
-    doc = load_profile(path, unit=task.units)
+    doc = load_profile(path, unit=task.units, exact=task.exact)
     axis = task.axis or doc.axis or Axis((0.0, 0.0), (1.0, 0.0), exact=X_AXIS_EXACT)
     angle = task.angle if task.angle is not None else (
         doc.angle_degrees if doc.angle_degrees is not None else 360.0)

@@ -179,8 +179,9 @@ def test_point_list_converts(tmp_path, capsys):
     assert "point list" in out
     again = load_profile(out_file)
     original = load_profile(str(ROOT / "profiles" / "spacer-points.txt"))
+    poly, = original.profile.loops[0].segments      # a point list is one polyline
     assert [s.end for s in again.profile.loops[0].segments] == \
-        [s.end for s in original.profile.loops[0].segments]
+        [tuple(p) for p in poly.points[1:].tolist()]
 
 
 def test_output_is_not_replaced_without_force(tmp_path, capsys):

@@ -21,10 +21,11 @@ import math
 from dataclasses import dataclass
 from typing import Iterable, Sequence
 
+import numpy as np
 import sympy
 
 from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
-from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre
+from revolve.geometry.segments import Arc, Curve, Line, Polyline, arc_from_centre
 
 #: The parameter symbol every curve uses.
 T = sympy.Symbol("t", real=True)
@@ -101,6 +102,8 @@ def place(seg, p: Placement):
         x = sympy.Float(p.px, 17) + seg.x_expr * c - side * seg.y_expr * s
         y = sympy.Float(p.py, 17) + seg.x_expr * s + side * seg.y_expr * c
         return Curve(x, y, seg.t_start, seg.t_end, face=seg.face)
+    if isinstance(seg, Polyline):
+        return Polyline(np.array([p.point(*q) for q in seg.points.tolist()]), face=seg.face)
     raise TypeError(type(seg).__name__)
 
 
@@ -140,6 +143,8 @@ def reverse_segment(seg):
         sub = {T: seg.t_start + seg.t_end - T}
         return Curve(seg.x_expr.subs(sub), seg.y_expr.subs(sub), seg.t_start, seg.t_end,
                      face=seg.face)
+    if isinstance(seg, Polyline):
+        return Polyline(seg.points[::-1].copy(), face=seg.face)
     raise TypeError(type(seg).__name__)
 
 

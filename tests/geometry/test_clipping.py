@@ -48,7 +48,9 @@ def three_ways(prep, level):
     c = clip_section(prep, level)
     a = clipped_volume(c)
     b = float(vertical_levels(prep, [level]).volume[0])
-    w = washer_volume(c.prepared, c.factors, 2 * math.pi)[0] if c.prepared.paths else 0.0
+    # (the washers read a polyline's edges as lines until slicing takes polylines)
+    w = washer_volume(c.prepared, c.factors, 2 * math.pi)[0] \
+        if c.prepared.paths else 0.0
     return a, b, w, c
 
 
@@ -225,7 +227,8 @@ def test_volume_never_decreases_and_both_ways_agree(loop, levels):
         c = clip_section(prep, lv)
         assert abs(clipped_volume(c) - v) <= 1e-11 * full
         if c.prepared.paths:   # washers on the clipped section: the independent slicing method
-            assert abs(washer_volume(c.prepared, c.factors, 2 * math.pi)[0] - v) <= 1e-10 * full
+            assert abs(washer_volume(c.prepared, c.factors,
+                                     2 * math.pi)[0] - v) <= 1e-10 * full
 
 
 # -- a hair above the bottom -----------------------------------------------------------------
@@ -418,9 +421,10 @@ def test_arc_rows_follow_the_contract(cz, cr, R, a0, sweep, clockwise):
 @given(star_loops(), st.lists(st.floats(-4.5, 4.5), min_size=1, max_size=8))
 @example(star_polygon([1.0] * 8), [0.0, 1e-9])
 def test_star_polyline_and_lines_agree(loop, levels):
-    points = [s.start for s in loop.segments]
+    # the star's vertices (Loop.from_points makes one polyline of them)
+    points = [tuple(q) for s in loop.segments for q in s.flatten()[:-1].tolist()]
     poly = prepare(Profile(loops=(polyline_loop(points),)), PLACEMENTS[0].axis)
-    lines = prepare(Profile(loops=(loop,)), PLACEMENTS[0].axis)
+    lines = prepare(Profile(loops=(line_loop(points),)), PLACEMENTS[0].axis)
     a, b = vertical_levels(poly, levels), vertical_levels(lines, levels)
     full = float(vertical_levels(lines, [10.0]).volume[0])
     assert np.max(np.abs(a.volume - b.volume)) <= 1e-12 * full

@@ -814,7 +814,8 @@ def test_any_tube_on_any_axis_groups_by_the_side_of_its_material(r, wall, length
     corners = corners[start:] + corners[:start]
     if backwards:
         corners.reverse()
-    loop = Loop.from_points([place(*p) for p in corners])
+    ends = [place(*p) for p in corners]                      # four Line segments, one per side
+    loop = Loop(tuple(Line(a, b) for a, b in zip(ends, ends[1:] + ends[:1])))
     found = surfaces(run(Profile(loops=(loop,)), axis=Axis((1.0, -2.0), (c, s))))
     assert rel(_group(found, "inside"), 2 * PI * r * length) < 1e-9
     assert rel(_group(found, "outside"), 2 * PI * R * length) < 1e-9

@@ -410,7 +410,10 @@ def test_finishing_an_end_face_at_the_speed_limit():
 def test_finishing_a_diameter_entirely_at_the_limit_is_one_pass_l_over_fn():
     # ⌀20 × 40 outside diameter, limit 1000 rev/min, vc 260 m/min would need 4138 rev/min:
     # t = L / (f n) (common practice, no source).
-    prep = _cylinder(10.0, 40.0)
+    prep = prepare(Profile(loops=(Loop(tuple(
+        Line(a, b, face="face") for a, b in (((0, 0), (40, 0)), ((40, 0), (40, 10)),
+                                             ((40, 10), (0, 10)), ((0, 10), (0, 0))))),)),
+        Axis.x())                                          # its sides as Line segments
     n = 1000 / 60
     side = [s for s in prep.paths[0] if s.start[1] == 10.0 and s.end[1] == 10.0]
     assert len(side) == 1

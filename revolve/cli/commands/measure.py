@@ -290,7 +290,7 @@ def run_measure(profile, axis: Optional[str], angle: Optional[float], material: 
     common.output_units("mm", length_unit, area_unit, volume_unit, mass_unit)  # refused once
     dens, dens_label, _ = common.material_or_density(material, density)
     task = batch.MeasureTask(axis=common.parse_axis(axis), angle=angle, units=units,
-                             density=dens, density_label=dens_label)
+                             density=dens, density_label=dens_label, exact=exact)
     if not single:
         return _run_batch(paths, left_out, task, as_json, csv_path,
                           JsonRow(length_unit, area_unit, volume_unit, mass_unit, tolerance),

@@ -279,3 +279,15 @@ class SegmentKind:
     def chord_count(self) -> int:
         """How many chords :meth:`flatten` gives with its defaults (for sizing work)."""
         return len(self.flatten()) - 1
+
+    def edge_count(self) -> int:
+        """How many segments this one counts as in messages ("loop 1, segment 5"): one.
+
+        A kind holding many edges (a polyline) counts each, and its
+        :meth:`flatten` gives exactly those edges.
+        """
+        return 1
+
+    def where_at(self, edge: int) -> Optional[Where]:
+        """Where edge ``edge`` of the segment came from (for a one-edge kind, the segment)."""
+        return self.where

@@ -224,6 +224,14 @@ class Polyline(SegmentKind):
     def chord_count(self) -> int:
         return len(self.points) - 1
 
+    def edge_count(self) -> int:
+        """Each edge counts as one segment in messages.
+
+        >>> Polyline(np.array([[0.0, 1.0], [1.0, 1.0], [1.0, 2.0]])).edge_count()
+        2
+        """
+        return len(self.points) - 1
+
     def where_at(self, edge: int) -> Optional[Where]:
         """Where edge ``edge`` (0-based, of this polyline) came from: its first vertex's line.
 
