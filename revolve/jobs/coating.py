@@ -207,30 +207,34 @@ def _square_runs_apart(piece) -> list:
     """A piece cut where it starts and stops running square to the axis.
 
     A polyline that only moves one way along the axis may still climb a
-    shoulder (an edge of constant z) between two diameters; cutting it at the
-    ends of each such run puts the shoulder in its own piece, which
-    :func:`classify` then counts as an end. The runs are found on the piece's
-    :meth:`flatten` points and cut at :meth:`parameters_at` their z.
+    shoulder (an edge square to the axis, within :data:`ENDS_TOLERANCE` of
+    its length, as :func:`classify` judges a single line) between two
+    diameters; cutting it at the ends of each such run puts the shoulder in
+    its own piece, which :func:`classify` then counts as an end. A segment of
+    one edge is classified whole.
 
     >>> import numpy as np
     >>> from revolve.geometry.segments import Polyline
     >>> step = Polyline(np.array([[0.0, 2.0], [5.0, 2.0], [5.0, 3.0], [9.0, 3.0]]))
     >>> [(p.start, p.end) for p in _square_runs_apart(step)]
     [((0.0, 2.0), (5.0, 2.0)), ((5.0, 2.0), (5.0, 3.0)), ((5.0, 3.0), (9.0, 3.0))]
+    >>> tilted = Polyline(np.array([[0.0, 2.0], [5.0, 2.0], [5.0 + 1e-15, 3.0], [9.0, 3.0]]))
+    >>> len(_square_runs_apart(tilted))            # rounding noise is still a shoulder
+    3
     """
     import numpy as np
 
-    z = np.asarray(piece.flatten(), dtype=float)[:, 0]
-    if len(z) < 3:
+    if piece.edge_count() < 2:
         return [piece]
-    levels = np.unique(z[1:][z[1:] == z[:-1]])
-    if not levels.size:
+    pts = np.asarray(piece.flatten(), dtype=float)      # a many-edge kind: its vertices
+    d = np.diff(pts, axis=0)
+    square = np.abs(d[:, 0]) <= ENDS_TOLERANCE * np.hypot(d[:, 0], d[:, 1])
+    changes = np.flatnonzero(square[1:] != square[:-1]) + 1    # vertices where a run starts
+    if not changes.size:
         return [piece]
     p0, p1 = piece.parameter_range()
-    lo, hi = min(p0, p1), max(p0, p1)
-    cuts = sorted({p for v in levels for p in piece.parameters_at(0, float(v)) if lo < p < hi},
-                  reverse=p1 < p0)
-    return list(piece.split_at(cuts))
+    step = (p1 - p0) / (len(pts) - 1)
+    return list(piece.split_at([p0 + step * float(i) for i in changes]))
 
 
 def classify(axial_extent: float, radial_normal: float, chord: float) -> str:

@@ -635,7 +635,6 @@ def test_polyline_outline_groups_shoulders_as_ends():
     r, R, L, c = 10.0, 20.0, 30.0, 1.0
     pts = [(c, r), (L - c, r), (L, r + c), (L, R - c), (L - c, R), (c, R), (0.0, R - c),
            (0.0, r + c), (c, r)]
-    # (the washer cross-check takes polylines on another branch; it is not what is tested here)
     found = surfaces(measure(Revolution(Profile(loops=(Loop((Polyline(np.array(pts)),)),))),
                              crosscheck=False))
     frustum = lambda a, b: PI * (a + b) * math.sqrt((a - b) ** 2 + c * c)
@@ -814,8 +813,7 @@ def test_any_tube_on_any_axis_groups_by_the_side_of_its_material(r, wall, length
     corners = corners[start:] + corners[:start]
     if backwards:
         corners.reverse()
-    ends = [place(*p) for p in corners]                      # four Line segments, one per side
-    loop = Loop(tuple(Line(a, b) for a, b in zip(ends, ends[1:] + ends[:1])))
+    loop = Loop.from_points([place(*p) for p in corners])    # one polyline
     found = surfaces(run(Profile(loops=(loop,)), axis=Axis((1.0, -2.0), (c, s))))
     assert rel(_group(found, "inside"), 2 * PI * r * length) < 1e-9
     assert rel(_group(found, "outside"), 2 * PI * R * length) < 1e-9
