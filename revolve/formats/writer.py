@@ -6,8 +6,8 @@ writer what it is through the segment contract (``describe_to``, with three
 primitives: straight edges through points, an arc, a curve), so the writer
 never asks which kind it holds. Straight edges are written as ``line_to``
 (the last one of a loop that returns to its start as ``close = true``): a
-line is one, a polyline one per edge (the file has no form for a list of
-points, so it reads back as lines through the same vertices); arcs as
+line is one, a polyline one ``points_to`` list (it reads back as one
+polyline, float for float); arcs as
 ``arc_to`` with ``centre`` and ``turn``, curves as parametric ``x``/``y``
 expressions of ``t``. Where a segment carries its exact
 inputs (as the readers set them) and they agree with its floats, those are
@@ -259,9 +259,16 @@ class _PathText:
         self.records.append(f"  {{ {body} }},")
 
     def straight(self, points, exact=None) -> None:
-        """Straight edges from ``points[0]`` through every later point (exact pairs, or None)."""
+        """Straight edges from ``points[0]`` through every later point (exact pairs, or None).
+
+        One edge is written ``line_to`` (or ``close = true``); more as one
+        ``points_to`` list, one point per line.
+        """
         rows = points.tolist() if hasattr(points, "tolist") else [list(p) for p in points]
         self._begin(None if exact is None else exact[0])
+        if len(rows) > 2:
+            self._points_to(rows, exact)
+            return
         last = len(rows) - 1
         for i in range(1, len(rows)):
             end = (float(rows[i][0]), float(rows[i][1]))
@@ -270,6 +277,16 @@ class _PathText:
             else:
                 self._add(f"line_to = {_pair(None if exact is None else exact[i], end)}")
         self.current = (float(rows[last][0]), float(rows[last][1]))
+
+    def _points_to(self, rows, exact) -> None:
+        if exact is None:
+            items = [f"    [{float_literal(float(x))}, {float_literal(float(y))}]," for x, y in rows[1:]]
+        else:
+            items = [f"    {_pair(exact[i], (float(rows[i][0]), float(rows[i][1])))},"
+                     for i in range(1, len(rows))]
+        head = "  { " if self.face is None else f"  {{ face = {toml_string(self.face)}, "
+        self.records.append(head + "points_to = [\n" + "\n".join(items) + "\n  ] },")
+        self.current = (float(rows[-1][0]), float(rows[-1][1]))
 
     def arc(self, start, end, centre, clockwise, exact=None, where=None) -> None:
         """A circular arc to ``end`` about ``centre`` (exact inputs as the arc keeps them)."""
