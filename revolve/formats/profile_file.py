@@ -28,13 +28,12 @@ is read by the whitelist parser in :mod:`revolve.expr`::
       { y = "40 - x^2/90", to_x = 60 },
       { x = "12 + y^2/50", to_y = 0 },
       { x = "25*cos(t)", y = "25*sin(t)", t_from = 0, t_to = "pi/2" },
-      { points_to = [[30, 5], [20, 2], [10, 1]] },
       { close = true },
     ]
 
     [[chain]]                     # an open chain: a surface only (sheet, shell)
     start = [0, 50]
-    segments = [ { line_to = [10, 50] } ]
+    segments = [ { line_to = [10, 50] }, { points_to = [[20, 52], [30, 55]] } ]
 
 Segment kinds, each written as one inline table and each starting where the
 previous one ended (the first at ``start``):
