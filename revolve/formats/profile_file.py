@@ -243,19 +243,24 @@ def parse_profile_text(text: str, *, file: Optional[str] = None,
         raise FormatError(f"the file has {len(text)} characters; a profile file may have at most "
                           f"{MAX_TEXT_CHARS}", file=file)
     original = text
-    text, blocks = _take_point_lists(text)
-    _check_sizes(text, file)
+    text, blocks, shifts = _take_point_lists(text)
+    _check_sizes(text, file, shifts)
     try:
         data = tomllib.loads(text, parse_float=toml_float)
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         found = re.search(r"at line (\d+)", message)
-        raise FormatError(f"malformed TOML: {message}", file=file,
-                          line=int(found.group(1)) if found else None) from None
+        line = _line_in_file(int(found.group(1)), shifts) if found else None
+        if found:
+            message = message.replace(found.group(), f"at line {line}")
+        raise FormatError(f"malformed TOML: {message}", file=file, line=line) from None
     except (ValueError, RecursionError, MemoryError) as exc:  # bounded above; never shown raw
         raise FormatError(f"the TOML reader could not read the file "
                           f"({type(exc).__name__}); simplify it", file=file) from None
-    reader = _Reader(file, scan_lines(text))
+    lines = scan_lines(text)
+    if shifts:
+        lines = {key: _line_in_file(line, shifts) for key, line in lines.items()}
+    reader = _Reader(file, lines)
     reader.blocks, reader.source = blocks, original
     return reader.document(data, unit)
 
@@ -396,54 +401,74 @@ def _plain_block(body: str, first_line: int) -> Optional[_PointBlock]:
     return _PointBlock(values.reshape(-1, 2), body, lines)
 
 
-def _take_point_lists(text: str) -> Tuple[str, Dict[str, _PointBlock]]:
+def _take_point_lists(text: str) -> Tuple[str, Dict[str, _PointBlock], List[Tuple[int, int]]]:
     """Read plain ``points_to`` lists straight into arrays; the text with markers in their place.
 
     Each plain list is replaced by a one-string list holding a marker (with a
-    random part no file can guess) and the list's line breaks, so every line
-    number of the text stays the same and the TOML reader sees a short value.
+    random part no file can guess), on one line, so the TOML reader and the
+    size and line scans see a short text. Also returns, for each list taken
+    out, its line in the shortened text and the line breaks it held, so that
+    :func:`_line_in_file` gives back the lines of the file.
 
-    >>> text, blocks = _take_point_lists('s = [\\n  { points_to = [[1, 2],\\n [3, 4]] },\\n]')
-    >>> text.count("\\n"), [b.points.tolist() for b in blocks.values()]
-    (3, [[[1.0, 2.0], [3.0, 4.0]]])
+    >>> text, blocks, shifts = _take_point_lists('s = [\\n  { points_to = [[1, 2],\\n [3, 4]] },\\n]')
+    >>> text.count("\\n"), [b.points.tolist() for b in blocks.values()], shifts
+    (2, [[[1.0, 2.0], [3.0, 4.0]]], [(2, 1)])
     """
+    blocks: Dict[str, _PointBlock] = {}
+    shifts: List[Tuple[int, int]] = []
     if "points_to" not in text:
-        return text, {}
+        return text, blocks, shifts
     import secrets
 
     token = secrets.token_hex(8)
     pieces: List[str] = []
-    blocks: Dict[str, _PointBlock] = {}
-    done = counted = line = 0
-    for found in _POINTS_KEY.finditer(text):
-        begin = found.end()
-        if begin < done:
-            continue
-        line_start = text.rfind("\n", 0, found.start()) + 1
-        before = text[line_start:found.start()]
-        if "#" in before or before.count('"') % 2 or before.count("'") % 2:
-            continue     # inside a comment or a string: left to the TOML reader
-        body = _POINTS_BODY.match(text, begin)
-        if body is None:
-            continue
-        line += text.count("\n", counted, begin)
-        counted = begin
-        block = _plain_block(body.group(), line + 1)
+    done = counted = line = removed = 0
+    at = text.find("points_to")
+    while at >= 0:
+        key = _POINTS_KEY.match(text, at) if at == 0 or not (
+            text[at - 1].isalnum() or text[at - 1] in "_-") else None
+        body = None
+        if key is not None:
+            line_start = text.rfind("\n", 0, at) + 1
+            before = text[line_start:at]
+            # inside a comment or a string: left to the TOML reader
+            if not ("#" in before or before.count('"') % 2 or before.count("'") % 2):
+                body = _POINTS_BODY.match(text, key.end())
+        block = None
+        if body is not None:
+            line += text.count("\n", counted, key.end())
+            counted = key.end()
+            block = _plain_block(body.group(), line + 1)
         if block is None:
+            at = text.find("points_to", at + 9)
             continue
         marker = f"revolve-points-{token}-{len(blocks)}"
         blocks[marker] = block
         breaks = body.group().count("\n")
-        pieces += [text[done:begin], f'["{marker}"', "\n" * breaks, "]"]
+        pieces += [text[done:key.end()], f'["{marker}"]']
+        shifts.append((line + 1 - removed, breaks))
         line += breaks
+        removed += breaks
         done = counted = body.end()
+        at = text.find("points_to", done)
     if not blocks:
-        return text, {}
+        return text, blocks, shifts
     pieces.append(text[done:])
-    return "".join(pieces), blocks
+    return "".join(pieces), blocks, shifts
 
 
-def _check_sizes(text: str, file: Optional[str]) -> None:
+def _line_in_file(line: Optional[int], shifts: List[Tuple[int, int]]) -> Optional[int]:
+    """The file's line of a line of the text shortened by :func:`_take_point_lists`.
+
+    >>> [_line_in_file(n, [(2, 1), (4, 10)]) for n in (1, 2, 3, 4, 5)]
+    [1, 2, 4, 5, 16]
+    """
+    if line is None:
+        return None
+    return line + sum(breaks for at, breaks in shifts if at < line)
+
+
+def _check_sizes(text: str, file: Optional[str], shifts: List[Tuple[int, int]] = ()) -> None:
     """Refuse deep nesting, long numbers and long strings before the TOML reader sees them.
 
     >>> _check_sizes("angle = " + "9" * 101, "a.toml")
@@ -470,7 +495,8 @@ def _check_sizes(text: str, file: Optional[str]) -> None:
                    f"{MAX_STRING_CHARS}")
     place = None if found.key is None else (
         found.key if re.fullmatch(r"[A-Za-z0-9_.-]{1,40}", found.key) else quote(found.key))
-    raise FormatError(message, file=file, line=found.line, place=place)
+    raise FormatError(message, file=file, line=_line_in_file(found.line, list(shifts)),
+                      place=place)
 
 
 def _plain_exact(value: Any) -> Any:

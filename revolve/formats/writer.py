@@ -280,7 +280,12 @@ class _PathText:
 
     def _points_to(self, rows, exact) -> None:
         if exact is None:
-            items = [f"    [{float_literal(float(x))}, {float_literal(float(y))}]," for x, y in rows[1:]]
+            import numpy as np
+
+            if not np.isfinite(np.asarray(rows[1:], dtype=float)).all():
+                raise FormatError("cannot write a non-finite coordinate", place=self.place)
+            # repr is float_literal's text (shortest round-tripping), for all rows at once
+            items = [f"    [{float(x)!r}, {float(y)!r}]," for x, y in rows[1:]]
         else:
             items = [f"    {_pair(exact[i], (float(rows[i][0]), float(rows[i][1])))},"
                      for i in range(1, len(rows))]
