@@ -53,7 +53,7 @@ from revolve.errors import ExpressionError, FormatError, ProfileError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import write_text_atomically
 from revolve.formats.profile_file import CURVE_START_TOLERANCE, ORIENTATIONS
-from revolve.formats.values import (describe, exact_literal, exact_to_float, expression_text,
+from revolve.formats.values import (describe, exact_literal, exact_to_float,
                                     float_literal, toml_string)
 from revolve.geometry.profile import Axis, Profile
 from revolve.geometry.segments import Arc, arc_from_centre, arc_from_radius
@@ -354,25 +354,21 @@ def _arc_body(end, centre, clockwise: bool, exact, where, current) -> str:
 
 
 def _curve_body(x_expr, y_expr, t_start: float, t_end: float, exact, place: str) -> str:
-    import sympy
+    """The keys of a parametric curve, printed from its expression trees (no sympy)."""
+    from revolve.expr import as_expression, parse_expression
 
-    from revolve.expr import parse_expression
-
-    t = sympy.Symbol("t", real=True)
     texts = []
     for expr in (x_expr, y_expr):
-        if isinstance(expr, (int, float)):
-            expr = sympy.Integer(expr) if isinstance(expr, int) else sympy.Float(expr)
-        expr = expr.xreplace({s: t for s in expr.free_symbols if s.name == "t"})
-        others = sorted(s.name for s in expr.free_symbols if s != t)
+        expr = as_expression(expr)
+        others = sorted(set(expr.variables) - {"t"})
         if others:
             raise FormatError(f"cannot write a curve in {', '.join(others)}: a curve's "
                               "expressions may use only t", place=place)
+        text = expr.text()
         try:
-            text = expression_text(expr)
             parse_expression(text, variables=("t",))
         except (ExpressionError, ValueError) as exc:
-            raise FormatError(f"cannot write the curve expression {expr} ({exc})",
+            raise FormatError(f"cannot write the curve expression {text[:80]} ({exc})",
                               place=place) from None
         texts.append(text)
     exact = exact or (None, None)

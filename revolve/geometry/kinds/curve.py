@@ -548,7 +548,8 @@ class Curve(SegmentKind):
         """Tell a profile writer ``out`` what the curve is, through its primitive ``curve``.
 
         ``out.curve(x_expr, y_expr, t_start, t_end, exact)`` with the mapped
-        expressions in ``t`` and the exact ends of the interval (or None).
+        expressions in ``t`` as :class:`revolve.expr.Expr` trees (:meth:`mapped_trees`,
+        no sympy) and the exact ends of the interval (or None).
 
         >>> import sympy
         >>> t = sympy.Symbol("t", real=True)
@@ -556,9 +557,10 @@ class Curve(SegmentKind):
         ...     def curve(self, x, y, t0, t1, exact):
         ...         print(x, y, t0, t1, exact)
         >>> Curve(t, t ** 2, 0.0, 1.0).translated(1.0).describe_to(Out())
-        t + 1 t**2 0.0 1.0 None
+        t + 1 t^2 0.0 1.0 None
         """
-        out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
+        x_tree, y_tree = self.mapped_trees()
+        out.curve(x_tree, y_tree, self.t_start, self.t_end, self.exact)
 
     # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
 
@@ -771,6 +773,35 @@ class Curve(SegmentKind):
                 total, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, n=n // 2)
             values[i], errors[i] = abs(float(total[0])), float(err[0])
         return values, errors
+
+    # -- for profile files (writer.py): the mapped expressions as the package's own trees
+
+    def mapped_trees(self) -> tuple:
+        """The mapped expressions of ``x`` and ``y`` in ``t`` as :class:`revolve.expr.Expr` trees.
+
+        The curve's map (:class:`CurveMap`) applied to its base trees with the
+        trees' own operations (exact map numbers where known), so writing a
+        curve imports no sympy. Zero and unit factors fold away.
+
+        >>> from revolve.expr import parse_expression
+        >>> base = parse_expression("t^2", ["t"])
+        >>> c = Curve(parse_expression("t", ["t"]), base, 0.0, 1.0)
+        >>> [e.text() for e in c.transformed(offset=(5.0, 0.0)).reversed().mapped_trees()]
+        ['-t + 1 + 5', '(-t + 1)^2']
+        >>> [e.text() for e in c.mapped_trees()]
+        ['t', 't^2']
+        """
+        from revolve.expr import Var
+
+        X, Y = self.base_x, self.base_y
+        m = self.affine
+        if m.is_identity:
+            return X, Y
+        m00, m01, m10, m11, v0, v1, p, q = m.numbers()
+        if (m.p, m.q) != (1.0, 0.0):
+            u = p * Var("t") + q
+            X, Y = X.substitute({"t": u}), Y.substitute({"t": u})
+        return m00 * X + m01 * Y + v0, m10 * X + m11 * Y + v1
 
 
 
