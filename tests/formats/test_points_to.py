@@ -129,3 +129,15 @@ def test_write_polyline_reads_back_float_for_float():
     assert isinstance(seg, Polyline) and seg.face == "skin"
     assert np.array_equal(seg.points, pts)            # float for float
     assert text.count("points_to") == 1
+
+
+def test_exact_results_from_a_points_to_list(tmp_path):
+    # Pappus (from memory): V = 2π · A · ȳ; shoelace on (0,1), (2,1), (2,3), (1,3.5):
+    # A = 7/2, ȳ = 85/42, so V = 85π/6 exactly.
+    src = tmp_path / "p.toml"
+    src.write_text(TEXT)
+    run = subprocess.run([sys.executable, "-m", "revolve", "measure", str(src), "--exact",
+                          "--json"], capture_output=True, text=True, cwd=ROOT,
+                         env={"PYTHONPATH": str(ROOT), "PATH": "/usr/bin:/bin"})
+    assert run.returncode == 0, run.stderr
+    assert "85*pi/6" in run.stdout
