@@ -250,18 +250,40 @@ def bezier_pieces(control: Sequence[Sequence[float]], knots: Sequence[float], de
     return out
 
 
-def _poly_expr(coefficients, scale: float):
-    import sympy
+def _number_tree(value: float):
+    """A float as a tree number: an exact integer when whole (so zeros and ones fold), else the float.
 
-    t = sympy.Symbol("t", real=True)
-    terms = []
+    >>> _number_tree(2.0), _number_tree(0.25)
+    (Expr('2'), Expr('0.25'))
+    """
+    from revolve.expr import Num
+
+    value = float(value)
+    return Num(int(value)) if value.is_integer() and abs(value) < 2 ** 53 else Num(value)
+
+
+def _poly_expr(coefficients, scale: float):
+    """The polynomial ``Σ c_k t^k`` as a :class:`revolve.expr.Expr` tree (no sympy).
+
+    Coefficients below 1e-14 of ``scale`` are dropped.
+
+    >>> _poly_expr([1.0, 0.0, 0.5, 1e-20], 1.0).text()
+    '1 + 0.5*t^2'
+    >>> _poly_expr([0.0], 1.0).text()
+    '0'
+    """
+    from revolve.expr import Num, Var
+
+    t = Var("t")
+    out = None
     for k, c in enumerate(coefficients):
         c = float(c)
         if abs(c) <= 1e-14 * scale:
             continue
-        value = sympy.Integer(int(c)) if c.is_integer() and abs(c) < 2 ** 53 else sympy.Float(c, 17)
-        terms.append(value * t ** k)
-    return sympy.Add(*terms) if terms else sympy.Integer(0)
+        value = _number_tree(c)
+        term = value if k == 0 else value * (t if k == 1 else t ** k)
+        out = term if out is None else out + term
+    return out if out is not None else Num(0)
 
 
 @dataclass(frozen=True)
@@ -483,7 +505,7 @@ def _old_polyline(entity, label: str, file) -> List[Any]:
 
 
 def _ellipse(entity, where: Where) -> List[Any]:
-    import sympy
+    from revolve.expr import Var, call
 
     if _plane_sign(entity) is None:
         raise _Unsupported("it is not drawn in the XY plane")
@@ -510,10 +532,11 @@ def _ellipse(entity, where: Where) -> List[Any]:
             return [arc_from_centre(at(t0), at(t0 + math.pi), c, clockwise, where=where),
                     arc_from_centre(at(t0 + math.pi), at(t0), c, clockwise, where=where)]
         return [arc_from_centre(at(t0), at(t1), c, clockwise, where=where)]
-    t = sympy.Symbol("t", real=True)
-    F = sympy.Float
-    x = F(c[0], 17) + F(major[0], 17) * sympy.cos(t) + F(minor[0], 17) * sympy.sin(t)
-    y = F(c[1], 17) + F(major[1], 17) * sympy.cos(t) + F(minor[1], 17) * sympy.sin(t)
+    t = Var("t")
+    cos_t, sin_t = call("cos", (t,)), call("sin", (t,))
+    F = _number_tree
+    x = F(c[0]) + F(major[0]) * cos_t + F(minor[0]) * sin_t
+    y = F(c[1]) + F(major[1]) * cos_t + F(minor[1]) * sin_t
     if full:
         return [curve_from_expressions(x, y, t0, t0 + math.pi, where=where),
                 curve_from_expressions(x, y, t0 + math.pi, t1, where=where)]
@@ -521,8 +544,6 @@ def _ellipse(entity, where: Where) -> List[Any]:
 
 
 def _spline(entity, label: str, file) -> List[Any]:
-    import sympy
-
     degree = int(entity.dxf.degree)
     control = [_xyz(p) for p in entity.control_points]
     if not control:
@@ -555,7 +576,6 @@ def _spline(entity, label: str, file) -> List[Any]:
     if not pieces:
         raise _Unsupported("its knot vector has no span of positive length")
     segments = []
-    t = sympy.Symbol("t", real=True)
     for j, (span, X, Y, W) in enumerate(pieces, 1):
         where = Where(file, None, f"{label}, span {j} of {len(pieces)}")
         if rational:
@@ -566,7 +586,7 @@ def _spline(entity, label: str, file) -> List[Any]:
         else:
             x = _poly_expr(X / W[0], scale)
             y = _poly_expr(Y / W[0], scale)
-        if not (x.has(t) or y.has(t)):
+        if "t" not in x.variables and "t" not in y.variables:
             continue
         segments.append(curve_from_expressions(x, y, 0, 1, where=where,
                                                exact=(Fraction(0), Fraction(1))))

@@ -33,7 +33,7 @@ is read by the whitelist parser in :mod:`revolve.expr`::
 
     [[chain]]                     # an open chain: a surface only (sheet, shell)
     start = [0, 50]
-    segments = [ { line_to = [10, 50] } ]
+    segments = [ { line_to = [10, 50] }, { points_to = [[20, 52], [30, 55]] } ]
 
 Segment kinds, each written as one inline table and each starting where the
 previous one ended (the first at ``start``):
@@ -52,6 +52,11 @@ previous one ended (the first at ``start``):
     the curve x = g(y) from the current point to y = b.
 ``x = "x(t)", y = "y(t)", t_from = a, t_to = b``
     a parametric curve.
+``points_to = [[x1, y1], [x2, y2], ...]``
+    straight edges from the current point through every listed point, in
+    order; read as one polyline (its numbers go straight into one array, so
+    a list of 10⁵ points reads in a fraction of a second). The list may span
+    many lines, one point per line.
 ``close = true``
     a straight line back to the loop's start (last segment of a loop only;
     nothing is added when the loop is already back at its start).
@@ -65,8 +70,9 @@ than :data:`MAX_NESTING` deep, an unquoted word (a number) is longer than
 :data:`~revolve.formats.values.MAX_NUMBER_CHARS` characters, a string is
 longer than :data:`MAX_STRING_CHARS`, or the file is longer than
 :data:`MAX_TEXT_CHARS`; plain numbers other than 0 must lie between 2.2e-308
-and 1.8e308 in size. Each refusal is one line naming the file, the line and
-the key.
+and 1.8e308 in size; a ``points_to`` list may hold at most
+:data:`MAX_POLYLINE_POINTS` points. Each refusal is one line naming the file,
+the line and the key (for a point of ``points_to``, its line and index).
 
 Examples
 --------
@@ -110,7 +116,7 @@ from revolve.errors import ExpressionError, FormatError, SegmentError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
 from revolve.formats.source_lines import find_oversize, scan_lines
-from revolve.formats.values import (MAX_NUMBER_CHARS, Value, check_length_unit, describe,
+from revolve.formats.values import (MAX_NUMBER_CHARS, SMALLEST_NUMBER, Value, check_length_unit, describe,
                                     exact_tree, fail, is_one_line, number, point, quote,
                                     toml_float)
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
@@ -143,6 +149,7 @@ SHAPES: Dict[str, Tuple[Tuple[str, ...], Tuple[str, ...]]] = {
     "curve x(y)": (("x", "to_y"), ("face",)),
     "parametric curve": (("x", "y", "t_from", "t_to"), ("face",)),
     "close": (("close",), ("face",)),
+    "polyline": (("points_to",), ("face",)),
 }
 #: Every key a segment may have.
 SEGMENT_KEYS = tuple(dict.fromkeys(k for req, opt in SHAPES.values() for k in req + opt))
@@ -151,6 +158,18 @@ _CURVE_KEYS = ("x", "y", "to_x", "to_y", "t_from", "t_to")
 CURVE_START_TOLERANCE = 1e-9
 
 _DEFAULT_UNIT = "mm"
+#: Most points in one ``points_to`` list.
+MAX_POLYLINE_POINTS = 1_000_000
+
+# A points_to list in its plain form (numbers as TOML writes them, no comments, no
+# underscores) is read straight into an array before the TOML reader sees the text;
+# any other form is left to the TOML reader and read point by point.
+_PLAIN = r"[+-]?(?:0|[1-9][0-9]*)(?:\.[0-9]+)?(?:[eE][+-]?[0-9]+)?"
+_PAIR = r"\[[ \t]*" + _PLAIN + r"[ \t]*,[ \t]*" + _PLAIN + r"[ \t]*\]"
+_POINTS_KEY = re.compile(r"\bpoints_to[ \t]*=[ \t]*(?=\[)")
+_POINTS_BODY = re.compile(r"\[\s*(?:" + _PAIR + r"\s*,\s*)*" + _PAIR + r"\s*,?\s*\]")
+_ZERO = re.compile(r"[+-]?[0.]+(?:[eE].*)?\Z")
+_BRACKETS_TO_SPACES = str.maketrans("[],", "   ")
 
 
 def read_profile_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
@@ -223,21 +242,233 @@ def parse_profile_text(text: str, *, file: Optional[str] = None,
     if len(text) > MAX_TEXT_CHARS:
         raise FormatError(f"the file has {len(text)} characters; a profile file may have at most "
                           f"{MAX_TEXT_CHARS}", file=file)
-    _check_sizes(text, file)
+    original = text
+    text, blocks, shifts = _take_point_lists(text)
+    _check_sizes(text, file, shifts)
     try:
         data = tomllib.loads(text, parse_float=toml_float)
     except tomllib.TOMLDecodeError as exc:
         message = str(exc)
         found = re.search(r"at line (\d+)", message)
-        raise FormatError(f"malformed TOML: {message}", file=file,
-                          line=int(found.group(1)) if found else None) from None
+        line = _line_in_file(int(found.group(1)), shifts) if found else None
+        if found:
+            message = message.replace(found.group(), f"at line {line}")
+        raise FormatError(f"malformed TOML: {message}", file=file, line=line) from None
     except (ValueError, RecursionError, MemoryError) as exc:  # bounded above; never shown raw
         raise FormatError(f"the TOML reader could not read the file "
                           f"({type(exc).__name__}); simplify it", file=file) from None
-    return _Reader(file, scan_lines(text)).document(data, unit)
+    lines = scan_lines(text)
+    if shifts:
+        lines = {key: _line_in_file(line, shifts) for key, line in lines.items()}
+    reader = _Reader(file, lines)
+    reader.blocks, reader.source = blocks, original
+    return reader.document(data, unit)
 
 
-def _check_sizes(text: str, file: Optional[str]) -> None:
+class _PointBlock:
+    """A ``points_to`` list read straight from the text: its points as one array.
+
+    ``body`` is the list's text, kept so that exact values (Fractions) are made
+    only when asked for (:meth:`exact_points`); ``lines`` the line of each point.
+    """
+
+    def __init__(self, points, body: str, lines) -> None:
+        self.points, self.body, self.lines = points, body, lines
+
+    def tokens(self) -> List[str]:
+        return self.body.translate(_BRACKETS_TO_SPACES).split()
+
+    def exact_points(self) -> tuple:
+        words = self.tokens()
+        return tuple((Fraction(words[i]), Fraction(words[i + 1]))
+                     for i in range(0, len(words), 2))
+
+    def last_exact(self) -> Tuple[Fraction, Fraction]:
+        inner = self.body.rstrip().rstrip("]").rstrip().rstrip(",")
+        words = inner[inner.rindex("["):].translate(_BRACKETS_TO_SPACES).split()
+        return Fraction(words[0]), Fraction(words[1])
+
+
+class _LazyExactPoints:
+    """The exact vertices of a polyline read from a file, made on first use.
+
+    Plain measuring never asks for them, so a long ``points_to`` list costs
+    no Fraction per vertex unless exact results are asked for.
+
+    >>> pts = _LazyExactPoints((0, 0), lambda: ((Fraction(1, 2), 1),), 2)
+    >>> len(pts), pts[1], list(reversed(pts))[0]
+    (2, (Fraction(1, 2), 1), (Fraction(1, 2), 1))
+    """
+
+    def __init__(self, first, later, count: int) -> None:
+        self._first, self._later, self._count, self._points = first, later, count, None
+
+    def _all(self) -> tuple:
+        if self._points is None:
+            self._points = (self._first,) + tuple(self._later())
+        return self._points
+
+    def __len__(self) -> int:
+        return self._count
+
+    def __getitem__(self, index):
+        return self._all()[index]
+
+    def __iter__(self):
+        return iter(self._all())
+
+    def __reversed__(self):
+        return reversed(self._all())
+
+
+def _point_line(text: str, segment_line: int, index: int) -> Optional[int]:
+    """The line of point ``index`` (1-based) of the first ``points_to`` list from a line on.
+
+    A light scan (strings and comments skipped), used only for error messages.
+
+    >>> _point_line('a = 1\\ns = [{ points_to = [\\n [1, 2], # [\\n [3, "x"]] }]', 2, 2)
+    4
+    """
+    offset = 0
+    for _ in range(segment_line - 1):
+        offset = text.find("\n", offset) + 1
+        if offset == 0:
+            return None
+    found = _POINTS_KEY.search(text, offset)
+    if found is None:
+        return None
+    depth = count = 0
+    line = segment_line + text.count("\n", offset, found.end())
+    i = found.end()
+    while i < len(text):
+        ch = text[i]
+        if ch == "\n":
+            line += 1
+        elif ch == "#":
+            i = text.find("\n", i) - 1
+            if i < 0:
+                return None
+        elif ch in "\"'":
+            end = text.find(ch, i + 1)
+            while ch == '"' and end > 0 and text[end - 1] == "\\":
+                end = text.find(ch, end + 1)
+            if end < 0:
+                return None
+            line += text.count("\n", i, end)
+            i = end
+        elif ch in "[{":
+            depth += 1
+            if depth == 2:
+                count += 1
+                if count == index:
+                    return line
+        elif ch in "]}":
+            depth -= 1
+            if depth == 0:
+                return None
+        i += 1
+    return None
+
+
+def _plain_block(body: str, first_line: int) -> Optional[_PointBlock]:
+    """The points of a plain ``points_to`` list, or None to leave it to the TOML reader.
+
+    None when a number is too long, not finite as a float, or too small (the
+    point-by-point reading then refuses it with its line and index).
+
+    >>> block = _plain_block("[[1, 2],\\n [3.5, -4e1]]", 7)
+    >>> block.points.tolist(), block.lines.tolist(), block.exact_points()[1]
+    ([[1.0, 2.0], [3.5, -40.0]], [7, 8], (Fraction(7, 2), Fraction(-40, 1)))
+    >>> _plain_block("[[1, 2], [1e999, 0]]", 1) is None
+    True
+    """
+    import numpy as np
+
+    words = body.translate(_BRACKETS_TO_SPACES).split()
+    if len(words) > 2 * MAX_POLYLINE_POINTS or max(map(len, words)) > MAX_NUMBER_CHARS:
+        return None
+    values = np.fromiter(map(float, words), dtype=float, count=len(words))
+    size = np.abs(values)
+    if not np.isfinite(values).all():
+        return None
+    tiny = size < SMALLEST_NUMBER
+    if tiny.any() and (size[tiny] != 0).any() or \
+            not all(_ZERO.match(words[i]) for i in np.flatnonzero(tiny)):
+        return None
+    codes = np.frombuffer(body.encode("ascii"), dtype=np.uint8)
+    opens = np.flatnonzero(codes == ord("["))[1:]
+    lines = first_line + np.cumsum(codes == ord("\n"))[opens]
+    return _PointBlock(values.reshape(-1, 2), body, lines)
+
+
+def _take_point_lists(text: str) -> Tuple[str, Dict[str, _PointBlock], List[Tuple[int, int]]]:
+    """Read plain ``points_to`` lists straight into arrays; the text with markers in their place.
+
+    Each plain list is replaced by a one-string list holding a marker (with a
+    random part no file can guess), on one line, so the TOML reader and the
+    size and line scans see a short text. Also returns, for each list taken
+    out, its line in the shortened text and the line breaks it held, so that
+    :func:`_line_in_file` gives back the lines of the file.
+
+    >>> text, blocks, shifts = _take_point_lists('s = [\\n  { points_to = [[1, 2],\\n [3, 4]] },\\n]')
+    >>> text.count("\\n"), [b.points.tolist() for b in blocks.values()], shifts
+    (2, [[[1.0, 2.0], [3.0, 4.0]]], [(2, 1)])
+    """
+    blocks: Dict[str, _PointBlock] = {}
+    shifts: List[Tuple[int, int]] = []
+    if "points_to" not in text:
+        return text, blocks, shifts
+    import secrets
+
+    token = secrets.token_hex(8)
+    pieces: List[str] = []
+    done = counted = line = removed = 0
+    at = text.find("points_to")
+    while at >= 0:
+        key = _POINTS_KEY.match(text, at) if at == 0 or not (
+            text[at - 1].isalnum() or text[at - 1] in "_-") else None
+        body = None
+        if key is not None:
+            line_start = text.rfind("\n", 0, at) + 1
+            before = text[line_start:at]
+            # inside a comment or a string: left to the TOML reader
+            if not ("#" in before or before.count('"') % 2 or before.count("'") % 2):
+                body = _POINTS_BODY.match(text, key.end())
+        block = None
+        if body is not None:
+            line += text.count("\n", counted, key.end())
+            counted = key.end()
+            block = _plain_block(body.group(), line + 1)
+        if block is None:
+            at = text.find("points_to", at + 9)
+            continue
+        marker = f"revolve-points-{token}-{len(blocks)}"
+        blocks[marker] = block
+        breaks = body.group().count("\n")
+        pieces += [text[done:key.end()], f'["{marker}"]']
+        shifts.append((line + 1 - removed, breaks))
+        line += breaks
+        removed += breaks
+        done = counted = body.end()
+        at = text.find("points_to", done)
+    if not blocks:
+        return text, blocks, shifts
+    pieces.append(text[done:])
+    return "".join(pieces), blocks, shifts
+
+
+def _line_in_file(line: Optional[int], shifts: List[Tuple[int, int]]) -> Optional[int]:
+    """The file's line of a line of the text shortened by :func:`_take_point_lists`.
+
+    >>> [_line_in_file(n, [(2, 1), (4, 10)]) for n in (1, 2, 3, 4, 5)]
+    [1, 2, 4, 5, 16]
+    """
+    if line is None:
+        return None
+    return line + sum(breaks for at, breaks in shifts if at < line)
+
+
+def _check_sizes(text: str, file: Optional[str], shifts: List[Tuple[int, int]] = ()) -> None:
     """Refuse deep nesting, long numbers and long strings before the TOML reader sees them.
 
     >>> _check_sizes("angle = " + "9" * 101, "a.toml")
@@ -264,7 +495,8 @@ def _check_sizes(text: str, file: Optional[str]) -> None:
                    f"{MAX_STRING_CHARS}")
     place = None if found.key is None else (
         found.key if re.fullmatch(r"[A-Za-z0-9_.-]{1,40}", found.key) else quote(found.key))
-    raise FormatError(message, file=file, line=found.line, place=place)
+    raise FormatError(message, file=file, line=_line_in_file(found.line, list(shifts)),
+                      place=place)
 
 
 def _plain_exact(value: Any) -> Any:
@@ -306,6 +538,8 @@ class _Reader:
     def __init__(self, file: Optional[str], lines: Dict[str, int]):
         self.file = file
         self.lines = lines
+        self.blocks: Dict[str, _PointBlock] = {}
+        self.source: Optional[str] = None
         self.curve_checks: List[tuple] = []
         self.angle_exact: Any = None
 
@@ -497,12 +731,12 @@ class _Reader:
     # -- segments ---------------------------------------------------------------------
 
     def shape(self, raw: Dict[str, Any], where: Where) -> str:
-        kinds = [k for k in ("line_to", "arc_to", "close") if k in raw]
+        kinds = [k for k in ("line_to", "arc_to", "close", "points_to") if k in raw]
         if any(k in raw for k in _CURVE_KEYS):
             kinds.append("a curve (x/y)")
         if not kinds:
-            raise fail("the segment has no kind; give line_to, arc_to, a curve (x and/or y) "
-                       "or close = true", where)
+            raise fail("the segment has no kind; give line_to, points_to, arc_to, a curve "
+                       "(x and/or y) or close = true", where)
         if len(kinds) > 1:
             raise fail(f"the segment is ambiguous: it has {' and '.join(kinds)}; "
                        "give one kind per segment", where)
@@ -511,6 +745,8 @@ class _Reader:
             return "line"
         if kind == "close":
             return "close"
+        if kind == "points_to":
+            return "polyline"
         if kind == "arc_to":
             if "radius" in raw and "centre" in raw:
                 raise fail("give the arc a radius (with side) or a centre (with turn), not both",
@@ -565,6 +801,8 @@ class _Reader:
                 return None, current
             return Line(p0, (start[0].value, start[1].value), face=face, where=where,
                         exact=e0 + (start[0].exact, start[1].exact)), start
+        if shape == "polyline":
+            return self.polyline(raw["points_to"], current, face, where)
         if shape == "line":
             x1, y1 = point(raw["line_to"], "line_to", where)
             return Line(p0, (x1.value, y1.value), face=face, where=where,
@@ -590,6 +828,57 @@ class _Reader:
                                              turn == "cw"))
             return arc, (x1, y1)
         return self.curve(raw, shape, current, face, where)
+
+    def polyline(self, raw: Any, current, face, where: Where):
+        """A ``points_to`` list as one :class:`Polyline` from ``current``; and its last point.
+
+        A plain list was read into an array before the TOML reader
+        (:func:`_take_point_lists`); any other is read point by point here, each
+        bad number refused with its line and index. Exact values are made only
+        when exact results ask for them (:class:`_LazyExactPoints`).
+        """
+        import numpy as np
+
+        from revolve.geometry.kinds.polyline import Polyline, PolylineExact
+
+        block = None
+        if isinstance(raw, list) and len(raw) == 1 and isinstance(raw[0], str):
+            block = self.blocks.get(raw[0])
+        if block is not None:
+            body, lines = block.points, block.lines
+            last = block.last_exact()
+            later = block.exact_points
+        else:
+            if not isinstance(raw, list) or not raw:
+                raise fail(f"points_to must be a list of points [[x1, y1], [x2, y2], ...], "
+                           f"got {describe(raw) if raw != [] else 'an empty list'}", where)
+            if len(raw) > MAX_POLYLINE_POINTS:
+                raise fail(f"points_to has {len(raw)} points; a list may have at most "
+                           f"{MAX_POLYLINE_POINTS}", where)
+            pairs = [point(p, "points_to", self.point_where(where, i))
+                     for i, p in enumerate(raw, 1)]
+            body = np.array([(x.value, y.value) for x, y in pairs], dtype=float)
+            lines = None
+            last = (pairs[-1][0].exact, pairs[-1][1].exact)
+
+            def later(pairs=pairs):
+                return tuple((x.exact, y.exact) for x, y in pairs)
+        first = (current[0].exact, current[1].exact)
+        points = np.vstack([[(current[0].value, current[1].value)], body])
+        if lines is not None:
+            lines = np.concatenate([[where.line or 0], lines])
+        polyline = Polyline(points, face=face, where=where, lines=lines,
+                            exact=PolylineExact(_LazyExactPoints(first, later, len(points))))
+        return polyline, (Value(float(points[-1, 0]), last[0]),
+                          Value(float(points[-1, 1]), last[1]))
+
+    def point_where(self, where: Where, index: int) -> Where:
+        """Where point ``index`` (1-based) of the ``points_to`` list of a segment is written."""
+        line = where.line
+        if line is not None and self.source is not None:
+            found = _point_line(self.source, line, index)
+            line = found if found is not None else line
+        return Where(where.file, line, f"{where.place}, point {index}")
 
     def choice(self, raw: Any, key: str, options: Tuple[str, ...], where: Where) -> str:
         if raw in options:

@@ -6,8 +6,8 @@ writer what it is through the segment contract (``describe_to``, with three
 primitives: straight edges through points, an arc, a curve), so the writer
 never asks which kind it holds. Straight edges are written as ``line_to``
 (the last one of a loop that returns to its start as ``close = true``): a
-line is one, a polyline one per edge (the file has no form for a list of
-points, so it reads back as lines through the same vertices); arcs as
+line is one, a polyline one ``points_to`` list (it reads back as one
+polyline, float for float); arcs as
 ``arc_to`` with ``centre`` and ``turn``, curves as parametric ``x``/``y``
 expressions of ``t``. Where a segment carries its exact
 inputs (as the readers set them) and they agree with its floats, those are
@@ -53,7 +53,7 @@ from revolve.errors import ExpressionError, FormatError, ProfileError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import write_text_atomically
 from revolve.formats.profile_file import CURVE_START_TOLERANCE, ORIENTATIONS
-from revolve.formats.values import (describe, exact_literal, exact_to_float, expression_text,
+from revolve.formats.values import (describe, exact_literal, exact_to_float,
                                     float_literal, toml_string)
 from revolve.geometry.profile import Axis, Profile
 from revolve.geometry.segments import Arc, arc_from_centre, arc_from_radius
@@ -259,9 +259,16 @@ class _PathText:
         self.records.append(f"  {{ {body} }},")
 
     def straight(self, points, exact=None) -> None:
-        """Straight edges from ``points[0]`` through every later point (exact pairs, or None)."""
+        """Straight edges from ``points[0]`` through every later point (exact pairs, or None).
+
+        One edge is written ``line_to`` (or ``close = true``); more as one
+        ``points_to`` list, one point per line.
+        """
         rows = points.tolist() if hasattr(points, "tolist") else [list(p) for p in points]
         self._begin(None if exact is None else exact[0])
+        if len(rows) > 2:
+            self._points_to(rows, exact)
+            return
         last = len(rows) - 1
         for i in range(1, len(rows)):
             end = (float(rows[i][0]), float(rows[i][1]))
@@ -270,6 +277,21 @@ class _PathText:
             else:
                 self._add(f"line_to = {_pair(None if exact is None else exact[i], end)}")
         self.current = (float(rows[last][0]), float(rows[last][1]))
+
+    def _points_to(self, rows, exact) -> None:
+        if exact is None:
+            import numpy as np
+
+            if not np.isfinite(np.asarray(rows[1:], dtype=float)).all():
+                raise FormatError("cannot write a non-finite coordinate", place=self.place)
+            # repr is float_literal's text (shortest round-tripping), for all rows at once
+            items = [f"    [{float(x)!r}, {float(y)!r}]," for x, y in rows[1:]]
+        else:
+            items = [f"    {_pair(exact[i], (float(rows[i][0]), float(rows[i][1])))},"
+                     for i in range(1, len(rows))]
+        head = "  { " if self.face is None else f"  {{ face = {toml_string(self.face)}, "
+        self.records.append(head + "points_to = [\n" + "\n".join(items) + "\n  ] },")
+        self.current = (float(rows[-1][0]), float(rows[-1][1]))
 
     def arc(self, start, end, centre, clockwise, exact=None, where=None) -> None:
         """A circular arc to ``end`` about ``centre`` (exact inputs as the arc keeps them)."""
@@ -332,25 +354,21 @@ def _arc_body(end, centre, clockwise: bool, exact, where, current) -> str:
 
 
 def _curve_body(x_expr, y_expr, t_start: float, t_end: float, exact, place: str) -> str:
-    import sympy
+    """The keys of a parametric curve, printed from its expression trees (no sympy)."""
+    from revolve.expr import as_expression, parse_expression
 
-    from revolve.expr import parse_expression
-
-    t = sympy.Symbol("t", real=True)
     texts = []
     for expr in (x_expr, y_expr):
-        if isinstance(expr, (int, float)):
-            expr = sympy.Integer(expr) if isinstance(expr, int) else sympy.Float(expr)
-        expr = expr.xreplace({s: t for s in expr.free_symbols if s.name == "t"})
-        others = sorted(s.name for s in expr.free_symbols if s != t)
+        expr = as_expression(expr)
+        others = sorted(set(expr.variables) - {"t"})
         if others:
             raise FormatError(f"cannot write a curve in {', '.join(others)}: a curve's "
                               "expressions may use only t", place=place)
+        text = expr.text()
         try:
-            text = expression_text(expr)
             parse_expression(text, variables=("t",))
         except (ExpressionError, ValueError) as exc:
-            raise FormatError(f"cannot write the curve expression {expr} ({exc})",
+            raise FormatError(f"cannot write the curve expression {text[:80]} ({exc})",
                               place=place) from None
         texts.append(text)
     exact = exact or (None, None)

@@ -40,15 +40,15 @@ def test_a_polyline_loop_is_written_and_read_back_float_for_float():
     pts = wavy()
     profile = Profile(loops=(Loop((Polyline(pts, face="scan"),)),), unit="mm")
     text = profile_text(profile, axis=Axis.x())
-    assert text.count("line_to") == len(pts) - 2 and text.count("close = true") == 1
+    assert text.count("points_to") == 1 and "line_to" not in text
     back = parse_profile_text(text).profile
     loop = back.loops[0]
-    assert len(loop.segments) == len(pts) - 1                  # one line per edge
-    assert np.array_equal(vertices(loop), pts)                 # float for float
+    assert len(loop.segments) == 1 and loop.segments[0].kind == "polyline"  # one polyline
+    assert np.array_equal(loop.segments[0].points, pts)        # float for float
     assert {s.face for s in loop.segments} == {"scan"}
     # shapely on the re-read outline agrees with shapely on the original vertices
-    assert Polygon(vertices(loop)).area == Polygon(pts).area
-    assert Polygon(vertices(loop)).centroid.equals(Polygon(pts).centroid)
+    assert Polygon(loop.segments[0].points).area == Polygon(pts).area
+    assert Polygon(loop.segments[0].points).centroid.equals(Polygon(pts).centroid)
 
 
 def test_a_polyline_among_lines_and_arcs_in_a_chain_and_a_loop():
@@ -61,12 +61,12 @@ def test_a_polyline_among_lines_and_arcs_in_a_chain_and_a_loop():
     loop = Loop((box, Line((0.0, 3.0), (0.0, 1.0), face="end")))
     back = parse_profile_text(profile_text(Profile(loops=(loop,), chains=(chain,)))).profile
     c = back.chains[0].segments
-    assert [s.kind for s in c] == ["line", "line", "line", "line", "arc"]
-    assert np.array_equal(vertices(back.chains[0])[:5], np.vstack([[0.0, 5.0], zig.points]))
-    assert [s.face for s in c[1:4]] == ["zig"] * 3
-    assert c[4].centre == (3.0, 6.0) and c[4].clockwise
+    assert [s.kind for s in c] == ["line", "polyline", "arc"]
+    assert np.array_equal(c[1].points, zig.points)
+    assert c[1].face == "zig"
+    assert c[2].centre == (3.0, 6.0) and c[2].clockwise
     lp = back.loops[0].segments
-    assert np.array_equal(vertices(back.loops[0]), np.vstack([box.points, [[0.0, 1.0]]]))
+    assert np.array_equal(lp[0].points, box.points) and lp[-1].kind == "line"
     assert lp[-1].face == "end"
 
 
@@ -79,8 +79,8 @@ def test_exact_polyline_vertices_are_written_exactly():
     text = profile_text(Profile(chains=(chain,)))
     assert "1/3" in text
     back = parse_profile_text(text).profile.chains[0]
-    assert np.array_equal(vertices(back), pts)
-    assert [str(v) for v in back.segments[1].exact[2:]] == ["1/3", "2"]   # as written
+    assert np.array_equal(back.segments[0].points, pts)
+    assert [str(v) for v in back.segments[0].exact.points[2]] == ["1/3", "2"]   # as written
 
 
 def test_a_gap_after_a_polyline_is_refused_naming_the_segment():

@@ -548,7 +548,8 @@ class Curve(SegmentKind):
         """Tell a profile writer ``out`` what the curve is, through its primitive ``curve``.
 
         ``out.curve(x_expr, y_expr, t_start, t_end, exact)`` with the mapped
-        expressions in ``t`` and the exact ends of the interval (or None).
+        expressions in ``t`` as :class:`revolve.expr.Expr` trees (:meth:`mapped_trees`,
+        no sympy) and the exact ends of the interval (or None).
 
         >>> import sympy
         >>> t = sympy.Symbol("t", real=True)
@@ -556,9 +557,10 @@ class Curve(SegmentKind):
         ...     def curve(self, x, y, t0, t1, exact):
         ...         print(x, y, t0, t1, exact)
         >>> Curve(t, t ** 2, 0.0, 1.0).translated(1.0).describe_to(Out())
-        t + 1 t**2 0.0 1.0 None
+        t + 1 t^2 0.0 1.0 None
         """
-        out.curve(self.x_expr, self.y_expr, self.t_start, self.t_end, self.exact)
+        x_tree, y_tree = self.mapped_trees()
+        out.curve(x_tree, y_tree, self.t_start, self.t_end, self.exact)
 
     # -- for drawings: closing gaps between entities (dxf.py) ---------------------------
 
@@ -646,8 +648,13 @@ class Curve(SegmentKind):
 
         ``coordinate`` 0 inverts ``x(t)`` (the axial ``z`` in the frame), 1
         inverts ``y(t)`` (the radius). ``t_from`` and ``t_to`` broadcast
-        against ``targets`` (one range per row, or one for all): a vectorised
-        bisection of ``iterations`` halvings.
+        against ``targets`` (one range per row, or one for all). Vectorised
+        safeguarded Newton: each step uses the derivative that :meth:`evaluate`
+        gives with the value, keeps a bracket that always holds the root, and
+        halves the bracket instead when a Newton step would leave it; a row
+        stops when its value is within rounding of the target or its step is
+        within a few units in the last place, and all stop after ``iterations``
+        steps (the bound of plain bisection, which needs them all).
 
         >>> import numpy as np, sympy
         >>> t = sympy.Symbol("t", real=True)
@@ -657,22 +664,47 @@ class Curve(SegmentKind):
         >>> c.monotone_parameters(0, np.array([[0.0], [2.0]]), np.array([[1.0], [1.0]]),
         ...                       np.array([[0.25], [1.0]])).round(12).tolist()
         [[0.5], [1.0]]
+        >>> abs(float(c.monotone_parameters(0, 0.0, 2.0, np.array([2.0]))[0]) - 2 ** 0.5) < 1e-15
+        True
+        >>> c.monotone_parameters(0, 0.0, 2.0, np.array([])).shape     # no targets
+        (0,)
+        >>> round(float(c.monotone_parameters(0, 2.0, 0.0, np.array([2.0]))[0]) ** 2, 14)  # run back
+        2.0
         """
         import numpy as np
 
         targets = np.asarray(targets, dtype=float)
         ta = np.asarray(t_from, dtype=float)
         tb = np.asarray(t_to, dtype=float)
-        rising = self.evaluate(tb)[coordinate] > self.evaluate(ta)[coordinate]
+        va, vb = self.evaluate(ta)[coordinate], self.evaluate(tb)[coordinate]
+        rising = vb > va
         lo = np.array(np.broadcast_to(ta, targets.shape), dtype=float)
         hi = np.array(np.broadcast_to(tb, targets.shape), dtype=float)
-        for _ in range(iterations):
-            mid = 0.5 * (lo + hi)
-            value = self.evaluate(mid)[coordinate]
-            below = np.where(rising, value < targets, value > targets)
-            lo = np.where(below, mid, lo)
-            hi = np.where(below, hi, mid)
-        return 0.5 * (lo + hi)
+        if not targets.size:
+            return 0.5 * (lo + hi)
+        eps = np.finfo(float).eps
+        with np.errstate(all="ignore"):
+            # start where the chord between the ends reaches the target (inside the bracket)
+            share = np.clip((targets - va) / (vb - va), 0.0, 1.0)
+            t = np.where(np.isfinite(share), lo + share * (hi - lo), 0.5 * (lo + hi))
+            floor = 1e-8 * np.maximum(np.abs(lo), np.abs(hi))   # for a root at t = 0
+            level = eps * np.maximum(np.abs(va), np.abs(vb))     # half an ulp of the ends
+            for _ in range(iterations):
+                point = self.evaluate(t)
+                value, slope = point[coordinate], point[coordinate + 2]
+                below = np.where(rising, value < targets, value > targets)
+                hit = np.abs(value - targets) <= level   # as near as the floats can tell
+                lo = np.where(below & ~hit, t, lo)
+                hi = np.where(~below & ~hit, t, hi)
+                newton = t - (value - targets) / slope
+                inside = np.isfinite(newton) & ((newton - lo) * (newton - hi) < 0)  # lo > hi too
+                step = np.where(hit, t, np.where(inside, newton, 0.5 * (lo + hi)))
+                tiny = 4 * eps * np.maximum(np.abs(step), floor)
+                settled = hit | (np.abs(step - t) <= tiny) | (np.abs(hi - lo) <= tiny)
+                t = step
+                if settled.all():
+                    break
+        return t
 
     @classmethod
     def washer_pieces(cls, segments):
@@ -771,6 +803,35 @@ class Curve(SegmentKind):
                 total, err = adaptive_quadrature(g, 0.0, math.pi, rel_tol=rel_tol, n=n // 2)
             values[i], errors[i] = abs(float(total[0])), float(err[0])
         return values, errors
+
+    # -- for profile files (writer.py): the mapped expressions as the package's own trees
+
+    def mapped_trees(self) -> tuple:
+        """The mapped expressions of ``x`` and ``y`` in ``t`` as :class:`revolve.expr.Expr` trees.
+
+        The curve's map (:class:`CurveMap`) applied to its base trees with the
+        trees' own operations (exact map numbers where known), so writing a
+        curve imports no sympy. Zero and unit factors fold away.
+
+        >>> from revolve.expr import parse_expression
+        >>> base = parse_expression("t^2", ["t"])
+        >>> c = Curve(parse_expression("t", ["t"]), base, 0.0, 1.0)
+        >>> [e.text() for e in c.transformed(offset=(5.0, 0.0)).reversed().mapped_trees()]
+        ['-t + 1 + 5', '(-t + 1)^2']
+        >>> [e.text() for e in c.mapped_trees()]
+        ['t', 't^2']
+        """
+        from revolve.expr import Var
+
+        X, Y = self.base_x, self.base_y
+        m = self.affine
+        if m.is_identity:
+            return X, Y
+        m00, m01, m10, m11, v0, v1, p, q = m.numbers()
+        if (m.p, m.q) != (1.0, 0.0):
+            u = p * Var("t") + q
+            X, Y = X.substitute({"t": u}), Y.substitute({"t": u})
+        return m00 * X + m01 * Y + v0, m10 * X + m11 * Y + v1
 
 
 
