@@ -180,8 +180,8 @@ def test_point_list_converts(tmp_path, capsys):
     again = load_profile(out_file)
     original = load_profile(str(ROOT / "profiles" / "spacer-points.txt"))
     poly, = original.profile.loops[0].segments      # a point list is one polyline
-    assert [s.end for s in again.profile.loops[0].segments] == \
-        [tuple(p) for p in poly.points[1:].tolist()]
+    back, = again.profile.loops[0].segments         # written as one points_to, read as one
+    assert back.kind == "polyline" and back.points.tolist() == poly.points.tolist()
 
 
 def test_output_is_not_replaced_without_force(tmp_path, capsys):
