@@ -20,11 +20,9 @@ import math
 import os
 import re
 import sys
-from dataclasses import dataclass
-from fractions import Fraction
 from typing import Any, Dict, List, Optional, Tuple
 
-from revolve.errors import RevolveError, UnitError, quoted
+from revolve.errors import RevolveError, UnitError
 from revolve.geometry.profile import Axis  # noqa: F401
 # The rules shared with the library live in the jobs layer; commands use them through here.
 from revolve.jobs.measuring import (AXIS_LIMIT, BARE_DENSITY_UNIT, CAUTIONS, OutputUnits,  # noqa: F401

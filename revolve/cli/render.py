@@ -32,7 +32,7 @@ from __future__ import annotations
 import math
 import os
 import textwrap
-from typing import Dict, List, Optional, Sequence, Tuple
+from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
 

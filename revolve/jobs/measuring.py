@@ -28,7 +28,6 @@ Examples
 
 from __future__ import annotations
 
-import math
 import numbers
 import os
 import re
@@ -36,7 +35,7 @@ from dataclasses import dataclass
 from fractions import Fraction
 from typing import Any, Dict, Optional
 
-from revolve.errors import MaterialError, RevolveError, UnitError, quoted
+from revolve.errors import RevolveError, UnitError, quoted
 from revolve.geometry.profile import Axis, Revolution
 
 #: Relative tolerance of the cross-check unless told otherwise (``--tolerance``).
@@ -457,7 +456,38 @@ def shown_faces(m):
 
 
 def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT_TOLERANCE):
-    """The JSON form of a measurement, in the output units (see README, "JSON keys")."""
+    """The JSON form of a measurement, in the output units (see README, "JSON keys").
+
+    Parameters
+    ----------
+    m : Measurement
+        The engine's measurement (profile units, mass in kg).
+    u : OutputUnits
+        Units to give the figures in (:func:`output_units`).
+    density_label : str, optional
+        Where the density came from (shown as ``density``).
+    tolerance : float
+        Relative tolerance the cross-check is judged by.
+
+    Returns
+    -------
+    dict
+        Plain floats, lists and strings; ``mass`` and its kin only with a
+        density, ``crosscheck`` only when it was computed.
+
+    Examples
+    --------
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
+    >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),))
+    >>> d = measurement_dict(measure(Revolution(ring, Axis.x())), output_units("mm", volume="L"))
+    >>> round(d["volume"], 10), d["units"]["volume"], "mass" in d       # 16π mm³ in litres
+    (5.02655e-05, 'L', False)
+    >>> sheet = Profile(chains=(Chain.from_points([(0, 1), (2, 1)]),))     # a surface only
+    >>> d = measurement_dict(measure(Revolution(sheet, Axis.x())), output_units("mm"))
+    >>> d["volume"], d["centroid"], round(d["surface_area"], 6)          # 2π · 1 · 2
+    (0.0, None, 12.566371)
+    """
     L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
     sec = m.section
     out = {
@@ -503,7 +533,23 @@ def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT
 
 def part_json(part, u: OutputUnits, tolerance: float = DEFAULT_TOLERANCE,
               exact_out=None) -> dict:
-    """The object ``revolve measure --json`` prints for one measured file (a PartMeasurement)."""
+    """The object ``revolve measure --json`` prints for one measured part (a :class:`PartMeasurement`).
+
+    :func:`measurement_dict` plus ``profile`` (file, name, unit), ``exact``
+    when closed forms were asked for, and ``cautions`` (lifting, with a mass).
+
+    Examples
+    --------
+    >>> from revolve.formats.document import ProfileDocument
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (0, 2)]),),
+    ...                               name="cone ring"))
+    >>> d = part_json(measure_document(doc), output_units("mm"))
+    >>> d["profile"], d["cautions"]
+    ({'file': None, 'name': 'cone ring', 'unit': 'mm'}, [])
+    >>> len(part_json(measure_document(doc, density=1000.0), output_units("mm"))["cautions"])
+    1
+    """
     m, doc = part.measurement, part.document
     out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance)
     out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
@@ -526,6 +572,15 @@ class MeasureResult:
     figures in the units of :attr:`units` (the profile's length unit, its
     square and cube, kg). :meth:`to_dict` is exactly what
     ``revolve measure FILE --json`` prints.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Chain, Profile
+    >>> r = measure(Profile(chains=(Chain.from_points([(0, 1), (2, 1)]),), name="sheet"))
+    >>> r                                      # a surface only: no volume, no mass
+    <MeasureResult sheet: volume=0 mm³, surface_area=12.5664 mm²>
+    >>> r.mass is None, r.units["area"]
+    (True, 'mm²')
     """
 
     part: PartMeasurement
