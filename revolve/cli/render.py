@@ -32,24 +32,18 @@ from __future__ import annotations
 import math
 import os
 import textwrap
-from typing import Dict, List, Optional, Sequence, Tuple
+from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
 
 from revolve.errors import FormatError, RevolveError
+from revolve.render.drawing import (AXIS_COLOUR, AXIS_DASHES, CUT_FACE_COLOUR, SECTION_FILL, SECTION_HATCH,  # noqa: F401
+                                    draw_section, face_styles, sketch_paths)
+
+_sketch_paths = sketch_paths  # the name the picture tests use
 
 #: Picture formats by file name ending.
 FORMATS = {".png": "png", ".svg": "svg"}
-
-#: Fill, hatch and outline colours of the section (and of cut faces in 3-D).
-SECTION_FILL = "#ececec"
-SECTION_HATCH = "#b4b4b4"
-CUT_FACE_COLOUR = "#c9c9c9"
-AXIS_COLOUR = "#444444"
-
-#: Line styles used after the ten colours of tab10 have been used once each.
-_STYLES = ("-", (0, (6, 2)), (0, (1, 1.5)), (0, (6, 2, 1, 2)))
-
 
 def picture_format(path: str) -> str:
     """``"png"`` or ``"svg"`` from the file name's ending; anything else is refused."""
@@ -57,19 +51,6 @@ def picture_format(path: str) -> str:
     if ext not in FORMATS:
         raise FormatError(f'pictures are written as .png or .svg, not "{ext or path}"', file=path)
     return FORMATS[ext]
-
-
-def face_styles(names: Sequence[str]) -> Dict[str, Tuple[str, object]]:
-    """Colour and line style of each face: tab10 in order, then again with other dashes.
-
-    >>> s = face_styles([f"f{i}" for i in range(12)])
-    >>> s["f0"][0] == s["f10"][0], s["f0"][1] == s["f10"][1]
-    (True, False)
-    """
-    from matplotlib import colormaps
-
-    colours = colormaps["tab10"].colors
-    return {name: (colours[k % 10], _STYLES[(k // 10) % len(_STYLES)]) for k, name in enumerate(names)}
 
 
 def _figure(width: int, height: int, dpi: int):
@@ -104,21 +85,6 @@ def save_figure(fig, path: str) -> None:
 
 
 # -- the profile --------------------------------------------------------------------
-
-def _sketch_paths(profile, size: float):
-    """Flattened sketch points of every segment, grouped by path.
-
-    Each segment flattens itself to a chord tolerance of 1/3000 of the
-    profile's size (far below a pixel) through the segment contract
-    (``flatten_to_tolerance``); a polyline gives its own vertices.
-    """
-    tol = size / 3000.0
-    return [[s.flatten_to_tolerance(tol) for s in p.segments] for p in profile.paths]
-
-
-def _loop_polygon(pieces: List[np.ndarray]) -> np.ndarray:
-    return np.vstack([p[:-1] for p in pieces])
-
 
 def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequence[str] = ()) -> List[str]:
     from revolve.cli.common import fmt
@@ -287,13 +253,10 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     """
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.lines import Line2D
-    from matplotlib.patches import Patch, PathPatch
-    from matplotlib.path import Path as MplPath
+    from matplotlib.patches import Patch
 
     from revolve.cli.common import fmt
     from revolve.geometry.checks import prepare
-    from revolve.geometry.mesh import signed_area
-    from revolve.geometry.profile import UNNAMED_FACE
 
     picture_format(path)
     m, u = measurement, units
@@ -301,7 +264,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     prep = prepare(profile, axis)
     size = prep.size
     L = u.length_factor
-    flat = _sketch_paths(profile, size)
+    flat = sketch_paths(profile, size)
     allpts = np.vstack([q for fs in flat for q in fs])
     lo, hi = allpts.min(axis=0), allpts.max(axis=0)
     ux, uy = axis.unit_direction()
@@ -324,35 +287,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
 
-    # The section: solid loops anticlockwise, holes clockwise, one compound path.
-    verts, codes = [], []
-    loop_no = 0
-    for pieces, closed in zip(flat, prep.closed):
-        if not closed:
-            continue
-        poly = _loop_polygon(pieces)
-        depth = prep.depths[loop_no]
-        loop_no += 1
-        if (signed_area(poly) > 0) != (depth % 2 == 0):
-            poly = poly[::-1]
-        verts += [poly, poly[:1]]
-        codes += [MplPath.MOVETO] + [MplPath.LINETO] * (len(poly) - 1) + [MplPath.CLOSEPOLY]
-    if verts:
-        ax.add_patch(PathPatch(MplPath(np.vstack(verts), codes), facecolor=SECTION_FILL,
-                               edgecolor=SECTION_HATCH, hatch="////", lw=0, zorder=1))
-
-    # Faces: one colour each, one line per face and kind of path (gaps between segments).
-    styles = face_styles(profile.faces())
-    strokes: Dict[Tuple[str, bool], List[np.ndarray]] = {}
-    gap_row = np.full((1, 2), np.nan)
-    for path_pieces, p in zip(flat, profile.paths):
-        for pts, seg in zip(path_pieces, p.segments):
-            strokes.setdefault((seg.face or UNNAMED_FACE, p.closed), []).extend([pts, gap_row])
-    for (face, closed), parts in strokes.items():
-        colour, style = styles[face]
-        line = np.vstack(parts[:-1])
-        ax.plot(line[:, 0], line[:, 1], color=colour, linestyle=style, lw=2.2 if closed else 3.0,
-                solid_capstyle="round", solid_joinstyle="round", zorder=3)
+    verts, styles = draw_section(ax, profile, prep, flat)
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
     view_lo, view_hi = lo.copy(), hi.copy()
@@ -420,7 +355,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
                 break
         tip = tip - 0.05 * span * along
         ax.plot([a_pt[0], b_pt[0]], [a_pt[1], b_pt[1]], color=AXIS_COLOUR, lw=1.0,
-                linestyle=(0, (14, 3, 2, 3)), zorder=2)
+                linestyle=AXIS_DASHES, zorder=2)
         ax.annotate("", xy=tip + 0.04 * span * along, xytext=tip, zorder=2,
                     arrowprops=dict(arrowstyle="-|>", color=AXIS_COLOUR, lw=1.0, mutation_scale=12))
         label_at = tip - 0.035 * span * towards
@@ -462,7 +397,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     if verts:
         handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
         labels.append("section")
-    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=(0, (14, 3, 2, 3))))
+    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=AXIS_DASHES))
     labels.append("axis of revolution")
     fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01), frameon=False,
                fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
@@ -637,7 +572,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     t = (vertices - p3) @ d3
     ends = p3 + np.outer([t.min() - 0.12 * biggest, t.max() + 0.12 * biggest], d3)
     ax.add_collection3d(Line3DCollection([ends], colors=AXIS_COLOUR, linewidths=1.0,
-                                         linestyles=[(0, (14, 3, 2, 3))], zorder=3))
+                                         linestyles=[AXIS_DASHES], zorder=3))
     lo = np.minimum(lo, ends.min(axis=0))
     hi = np.maximum(hi, ends.max(axis=0))
     span = np.maximum(hi - lo, 0.02 * biggest)

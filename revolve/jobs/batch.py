@@ -42,12 +42,12 @@ Examples
 
 from __future__ import annotations
 
+import dataclasses
 import itertools
 import math
 import os
 from collections import deque
 from dataclasses import dataclass
-from fractions import Fraction
 from typing import Any, Callable, Iterator, List, Optional, Sequence
 
 from revolve.errors import RevolveError
@@ -225,24 +225,7 @@ def _pooled(task, items, workers: int, progress, size: int) -> Iterator[PartResu
 # -- measuring many files ------------------------------------------------------------------
 
 
-#: The sketch x axis with its exact description (as ``--axis x`` gives it).
-X_AXIS_EXACT = ((Fraction(0), Fraction(0)), (Fraction(1), Fraction(0)))
-
-
-@dataclass(frozen=True)
-class PartMeasurement:
-    """One measured file: its document, revolution, measurement and density used.
-
-    ``density`` is in kg/m³ (None when neither the options nor the file give
-    one); ``density_label`` says where it came from.
-    """
-
-    file: str
-    document: Any
-    revolution: Any
-    measurement: Any
-    density: Optional[float] = None
-    density_label: Optional[str] = None
+from revolve.jobs.measuring import PartMeasurement, density_value  # noqa: E402
 
 
 @dataclass(frozen=True)
@@ -293,61 +276,13 @@ def measure_part(path: str, task: MeasureTask = MeasureTask()) -> PartMeasuremen
     Errors are located in the file (or name the option that caused them,
     ``--angle``); see :class:`MeasureTask` for the rules and an example.
     """
-    from revolve import units
     from revolve.formats import load_profile
-    from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Axis, Revolution
+    from revolve.jobs.measuring import measure_document
 
     doc = load_profile(path, unit=task.units, exact=task.exact)
-    axis = task.axis or doc.axis or Axis((0.0, 0.0), (1.0, 0.0), exact=X_AXIS_EXACT)
-    angle = task.angle if task.angle is not None else (
-        doc.angle_degrees if doc.angle_degrees is not None else 360.0)
-    try:
-        rev = Revolution(doc.profile, axis, angle)
-    except RevolveError as e:
-        given = task.angle is not None
-        raise e.located(file=None if given else doc.file,
-                        line=None if given else doc.line_of("angle"),
-                        place="--angle" if given else "angle")
-    density, label = task.density, task.density_label
-    if density is None:
-        density, label = file_density(doc)
-    si = units.factor(doc.profile.unit, "length")
-    try:
-        # Density is kg/m³; the engine works in the profile's unit: kg per (unit)³.
-        m = measure(rev, density=None if density is None else density * si ** 3)
-    except RevolveError as e:
-        raise e.located(file=doc.file)
-    return PartMeasurement(doc.file or path, doc, rev, m, density, label)
-
-
-def file_density(doc):
-    """Density in kg/m³ and a label from a document's ``material`` or ``density``; else Nones.
-
-    Examples
-    --------
-    >>> from types import SimpleNamespace
-    >>> file_density(SimpleNamespace(material=None, density=None))
-    (None, None)
-    >>> file_density(SimpleNamespace(material=None, density="1000 kg/m^3", file="t.toml",
-    ...                              line_of=lambda key: 3))
-    (1000.0, '1000 kg/m³ (from the file)')
-    """
-    from revolve import materials
-
-    if doc.material:
-        try:
-            m = materials.find_material(doc.material)
-        except RevolveError as e:
-            raise e.located(file=doc.file, line=doc.line_of("material"), place="material")
-        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})"
-    if doc.density:
-        try:
-            d = materials.density_from_text(doc.density)
-        except RevolveError as e:
-            raise e.located(file=doc.file, line=doc.line_of("density"), place="density")
-        return d, f"{d:g} kg/m³ (from the file)"
-    return None, None
+    part = measure_document(doc, axis=task.axis, angle=task.angle, density=task.density,
+                            density_label=task.density_label)
+    return part if part.file else dataclasses.replace(part, file=path)
 
 
 def check_units(units: Optional[str]) -> None:
@@ -374,7 +309,7 @@ def check_units(units: Optional[str]) -> None:
 
 
 def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = None,
-                 units: Optional[str] = None, density: Optional[float] = None,
+                 units: Optional[str] = None, density: Any = None,
                  density_label: Optional[str] = None,
                  convert: Optional[Callable[[PartMeasurement], Any]] = None,
                  workers: Optional[int] = None, serial_below: int = SERIAL_BELOW,
@@ -391,9 +326,10 @@ def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
         Revolution angle in degrees; default: each file's, else 360.
     units : str, optional
         Length unit of files that do not say (plain point lists); default mm.
-    density : float, optional
-        Density in kg/m³ (the one unit a bare number is taken in, as
-        ``--density 7850`` on the command line) for every part; default: each
+    density : str, pint quantity or float, optional
+        Density with its unit (``"7850 kg/m^3"``, ``"7.85 g/cm^3"`` or a pint
+        quantity); a bare number is kg/m³ (as ``--density 7850`` on the
+        command line), never per cubed profile unit. For every part; default: each
         file's ``material`` or ``density``, else no mass. ``density_label``
         says where it came from, for the results.
     convert : callable, optional
@@ -417,7 +353,7 @@ def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
 
 
 def iter_measure(paths: Sequence[str], *, axis=None, angle: Optional[float] = None,
-                 units: Optional[str] = None, density: Optional[float] = None,
+                 units: Optional[str] = None, density: Any = None,
                  density_label: Optional[str] = None,
                  convert: Optional[Callable[[PartMeasurement], Any]] = None,
                  workers: Optional[int] = None, serial_below: int = SERIAL_BELOW,
@@ -435,6 +371,8 @@ def iter_measure(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
     revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
     """
     check_units(units)
+    if density is not None and density_label is None:
+        density, density_label = density_value(density)
     task = MeasureTask(axis=axis, angle=angle, units=units, density=density,
                        density_label=density_label, convert=convert)
     return iter_many(task, [os.fspath(p) for p in paths], workers=workers,

@@ -20,61 +20,9 @@ import typer
 
 from revolve.cli import common
 from revolve.errors import RevolveError, one_line
+from revolve.jobs.measuring import (DEFAULT_TOLERANCE, part_json,
+                                    shown_faces)
 
-DEFAULT_TOLERANCE = 1e-9
-
-
-def shown_faces(m):
-    """Surface by face, leaving out the unnamed group when it sweeps nothing (segments on the axis)."""
-    from revolve.geometry.profile import UNNAMED_FACE
-
-    return {k: v for k, v in m.surface_by_face.items()
-            if not (k == UNNAMED_FACE and v == 0.0 and len(m.surface_by_face) > 1)}
-
-
-def measurement_dict(m, u: "common.OutputUnits", *, density_label=None, tolerance=DEFAULT_TOLERANCE):
-    """The JSON form of a measurement, in the output units (see README, "JSON keys")."""
-    L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
-    sec = m.section
-    out = {
-        "units": {"length": u.length, "area": u.area, "volume": u.volume, "mass": u.mass,
-                  "inertia": u.inertia_unit()},
-        "angle_degrees": float(m.revolution.angle_degrees),
-        "axis": {"point": [float(v) * L for v in m.revolution.axis.point],
-                 "direction": list(m.revolution.axis.unit_direction())},
-        "area": m.area * A,
-        "centroid": [m.centroid[0] * L, m.centroid[1] * L] if m.has_solid else None,
-        "centroid_distance": m.centroid_distance * L if m.has_solid else None,
-        "perimeter": m.perimeter * L,
-        "boundary_length": m.boundary_length * L,
-        "boundary_centroid": [m.boundary_centroid[0] * L, m.boundary_centroid[1] * L],
-        "boundary_centroid_distance": m.boundary_centroid_distance * L,
-        "volume": m.volume * V,
-        "surface_area": m.surface_total * A,
-        "surface_by_face": {k: v * A for k, v in shown_faces(m).items()},
-        "cut_face_area": None if m.cut_face_area is None else m.cut_face_area * A,
-        "centre_of_mass_axial": None if m.centre_of_mass_axial is None else m.centre_of_mass_axial * L,
-        "centre_of_mass_offset": None if m.centre_of_mass_offset is None else m.centre_of_mass_offset * L,
-        "error_estimate": {"volume": m.volume_error * V, "surface_area": m.surface_error * A},
-        "methods": sorted(set(sec.methods)),
-    }
-    if m.mass is not None:
-        out["density_kg_m3"] = m.density / u.si_length ** 3
-        out["density"] = density_label
-        out["mass"] = m.mass * M
-        # inertia: kg·(profile unit)² -> mass unit·(length unit)²
-        out["inertia_axis"] = m.inertia_axis * M * L * L
-        out["radius_of_gyration"] = m.radius_of_gyration * L
-    if m.crosscheck is not None:
-        c = m.crosscheck
-        out["crosscheck"] = {
-            "method": {"volume": "washers: slices perpendicular to the axis, Gauss–Legendre",
-                       "surface_area": "quadrature of r ds along each segment"},
-            "volume": c.volume * V, "surface_area": c.surface_area * A,
-            "volume_difference": c.volume_difference, "surface_difference": c.surface_difference,
-            "tolerance": tolerance, "agrees": c.agrees(tolerance),
-        }
-    return out
 
 
 def _table(m, u, title: str, density_label: Optional[str], tolerance: float, exact=None):
@@ -146,19 +94,6 @@ def _check_table(m, u, tolerance):
               f(c.surface_area * u.area_factor, 14), f"{c.surface_difference:.1e}",
               "ok" if ok else "DISAGREE", style=None if ok else "bold red")
     return t
-
-
-def part_json(part, u: "common.OutputUnits", tolerance: float = DEFAULT_TOLERANCE,
-              exact_out=None) -> dict:
-    """The object ``revolve measure --json`` prints for one measured file (a PartMeasurement)."""
-    m, doc = part.measurement, part.document
-    out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance)
-    out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
-    if exact_out is not None:
-        out["exact"] = exact_out
-    cautions = ["lifting"] if m.mass is not None else []
-    out["cautions"] = [common.CAUTIONS[k] for k in cautions]
-    return out
 
 
 @dataclass(frozen=True)

@@ -1,0 +1,794 @@
+"""Measuring one part: the rule that turns a file (or a profile) plus settings into a
+revolution and a measurement, and the one JSON form of the result.
+
+The command line (``revolve measure``) and the library (:func:`revolve.measure`)
+both call the functions here, so the library's ``to_dict()`` and the command's
+``--json`` are the same object by construction.
+
+* :func:`parse_axis`, :func:`revolution_for`: the axis and angle rule (the
+  given value, else the file's, else the sketch x axis and 360°);
+* :func:`parse_density`, :func:`density_value`, :func:`material_or_density`,
+  :func:`file_density`, :func:`resolve_density`: densities, always in kg/m³; a
+  bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities
+  carry their unit;
+* :func:`output_units`: output units and factors from the profile's unit;
+* :func:`measure_document`, :func:`measurement_dict`, :func:`part_json`;
+* :func:`measure` and :class:`MeasureResult`: the library's entry point.
+
+Examples
+--------
+>>> from revolve.geometry.profile import Loop, Profile
+>>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),), unit="mm")
+>>> r = measure(ring, density="1 g/cm^3")
+>>> round(r.volume, 6), r.units["volume"]          # π (3² − 1²) · 2 = 16π mm³
+(50.265482, 'mm³')
+>>> round(r.mass * 1e6, 6), r.units["mass"]        # 16π mm³ at 1000 kg/m³, in mg
+(50.265482, 'kg')
+"""
+
+from __future__ import annotations
+
+import numbers
+import os
+import re
+from dataclasses import dataclass
+from fractions import Fraction
+from typing import Any, Dict, Optional
+
+from revolve.errors import RevolveError, UnitError, quoted
+from revolve.geometry.profile import Axis, Revolution
+
+#: Relative tolerance of the cross-check unless told otherwise (``--tolerance``).
+DEFAULT_TOLERANCE = 1e-9
+
+#: The sketch x axis with its exact description (as ``--axis x`` gives it).
+X_AXIS_EXACT = ((Fraction(0), Fraction(0)), (Fraction(1), Fraction(0)))
+
+#: The caution texts, by kind, printed (and put in JSON) where they apply.
+CAUTIONS = {
+    "lifting": "Mass and centre of mass are estimates from nominal geometry. Rigging and lifts "
+               "are planned by a competent person under local rules.",
+    "vessel": "Capacity and level tables are geometry only. Wall and head thickness for "
+              "pressure, supports and nozzles are for the applicable code and a licensed "
+              "engineer; tables for custody transfer need certified calibration.",
+    "coating": "Quantities are estimates. Follow the coating's data sheet; ventilation, fire and "
+               "confined-space rules apply to work inside vessels; respect local rules on emissions.",
+    "turning": "Times and costs are estimates; cutting data comes from the tool supplier. Guard "
+               "rotating stock and respect the machine's speed limit for the part's size and balance.",
+    "rotating": "A part spun fast stores energy: balance and speed limits are for the machine "
+                "maker's data and local rules.",
+}
+
+
+#: Largest size of a number in ``--axis``: a coordinate whose cube still fits a float with room.
+AXIS_LIMIT = 1e99
+
+_AXIS_NUMBER = re.compile(r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE]([+-]?\d+))?")
+
+
+def parse_axis(text: Optional[str], option: str = "--axis") -> Optional[Axis]:
+    """``x``, ``y`` or ``X0,Y0,DX,DY`` (a point on the axis and its direction); None stays None.
+
+    Each number is a plain decimal (``1.5``, ``-2e3``) of size at most
+    :data:`AXIS_LIMIT`; anything else is refused with ``option`` named
+    (``--axis`` on the command line, ``axis`` in the library).
+
+    >>> parse_axis("1,2,0")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --axis: give x, y or four numbers X0,Y0,DX,DY, got '1,2,0'
+    >>> parse_axis("1e999,0,1,0")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --axis: X0 = 1e999 is out of range; each number must be between -1e+99 and 1e+99
+    >>> parse_axis("0,0,nan,1")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --axis: DX = 'nan' is not a number; give four numbers X0,Y0,DX,DY such as 0,0,1,0
+    >>> parse_axis("-0,0,-0,1e-3").direction
+    (0.0, 0.001)
+    """
+    if text is None:
+        return None
+    t = text.strip().lower()
+    if t in ("x", "+x"):
+        return Axis((0.0, 0.0), (1.0, 0.0), exact=((Fraction(0), Fraction(0)), (Fraction(1), Fraction(0))))
+    if t in ("y", "+y"):
+        return Axis((0.0, 0.0), (0.0, 1.0), exact=((Fraction(0), Fraction(0)), (Fraction(0), Fraction(1))))
+    parts = [p.strip() for p in t.replace(";", ",").split(",")]
+    if len(parts) != 4:
+        raise RevolveError(f"give x, y or four numbers X0,Y0,DX,DY, got {quoted(text)}",
+                           option=option)
+    vals = []
+    for name, part in zip(("X0", "Y0", "DX", "DY"), parts):
+        number = _AXIS_NUMBER.fullmatch(part) if len(part) <= 40 else None
+        if number is None:
+            raise RevolveError(f"{name} = {quoted(part)} is not a number; give four numbers "
+                               f"X0,Y0,DX,DY such as 0,0,1,0", option=option)
+        exponent = number.group(1)
+        # Fraction would build 10**exponent exactly: refuse absurd exponents before it does.
+        if exponent is not None and abs(int(exponent)) > 400:
+            if float(part[:number.start(1) - 1]) == 0:
+                part = "0"
+            elif int(exponent) < 0:
+                raise RevolveError(f"{name} = {part} is too small to tell from 0; write 0",
+                                   option=option)
+        huge = part != "0" and exponent is not None and int(exponent) > 400
+        value = None if huge else Fraction(part)
+        if huge or abs(value) > AXIS_LIMIT:
+            raise RevolveError(f"{name} = {part} is out of range; each number must be between "
+                               f"{-AXIS_LIMIT:g} and {AXIS_LIMIT:g}", option=option)
+        vals.append(value)
+    fl = [float(v) for v in vals]
+    if fl[2] == 0 and fl[3] == 0:
+        raise RevolveError("the direction DX,DY is zero; give a direction such as 1,0",
+                           option=option)
+    return Axis((fl[0], fl[1]), (fl[2], fl[3]), exact=((vals[0], vals[1]), (vals[2], vals[3])))
+
+
+#: The unit of a density option given as a bare number (``--density 7850``), as the help says.
+BARE_DENSITY_UNIT = "kg/m^3"
+
+
+def parse_density(text: str, option: Optional[str] = None) -> float:
+    """A density option in kg/m³: a number with a unit, or a bare number in kg/m³.
+
+    This is the one reader of density options (``--density``,
+    ``--liquid-density``) for every command; errors name ``option``.
+
+    >>> parse_density("7850"), parse_density("7.85 g/cm^3"), round(parse_density("0.284 lb/in^3"))
+    (7850.0, 7850.0, 7861)
+    >>> parse_density("-850", "--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --liquid-density: a density must be positive, not '-850'
+    >>> parse_density("7850 kg", "--density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --density: 'kg' is a mass unit, not a density unit
+    """
+    from revolve import materials
+
+    try:
+        return materials.density_from_text(text, default_unit=BARE_DENSITY_UNIT)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def material_or_density(material: Optional[str], density: Optional[str], *,
+                        material_option: str = "--material", density_option: str = "--density"):
+    """``(density in kg/m³, label, material key)`` from a material option or a density option.
+
+    ``(None, None, None)`` when neither is given; the key is None for a
+    density. Errors name the option.
+
+    >>> material_or_density("water", None)[0], material_or_density(None, "850")[:2]
+    (998.2, (850.0, '850 kg/m³ (given)'))
+    >>> material_or_density("Stahl", None)  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --material: unknown material 'Stahl'...
+    >>> material_or_density("water", "1000", material_option="--liquid",
+    ...                     density_option="--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --liquid-density: give either --liquid or --liquid-density, not both
+    """
+    from revolve import materials
+
+    if material is not None and density is not None:
+        raise RevolveError(f"give either {material_option} or {density_option}, not both",
+                           option=density_option)
+    if material is not None:
+        try:
+            m = materials.find_material(material)
+        except RevolveError as e:
+            raise e.located(option=material_option)
+        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})", m.key
+    if density is not None:
+        d = parse_density(density, density_option)
+        return d, f"{d:g} kg/m³ (given)", None
+    return None, None, None
+
+
+def resolve_density(material: Optional[str], density: Optional[str], doc=None):
+    """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
+
+    A bare number in ``--density`` is taken as kg/m³ (:func:`parse_density`);
+    the file's ``density`` carries its unit.
+
+    >>> resolve_density(None, "7850")
+    (7850.0, '7850 kg/m³ (given)')
+    >>> resolve_density(None, None)
+    (None, None)
+    """
+    if material is None and density is None and doc is not None:
+        return file_density(doc)
+    d, label, _ = material_or_density(material, density)
+    return d, label
+
+
+@dataclass(frozen=True)
+class OutputUnits:
+    """Units for output and the factors from the profile's length unit (or SI for mass)."""
+
+    length: str
+    area: str
+    volume: str
+    mass: str
+    length_factor: float
+    area_factor: float
+    volume_factor: float
+    mass_factor: float  # from kg
+    si_length: float  # profile unit -> metre
+
+    def inertia_unit(self) -> str:
+        return f"{self.mass}·{self.length}²"
+
+
+def output_units(profile_unit: str, length: Optional[str] = None, area: Optional[str] = None,
+                 volume: Optional[str] = None, mass: Optional[str] = None) -> OutputUnits:
+    """Work out output units: each defaults to the profile's unit (squared, cubed) and kg.
+
+    A unit that is refused names its option:
+
+    >>> u = output_units("mm", volume="L")
+    >>> u.area, u.volume, round(u.volume_factor, 15)
+    ('mm²', 'L', 1e-06)
+    >>> output_units("mm", volume="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --volume-unit: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    >>> output_units("mm", length="kg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --length-unit: 'kg' is a mass unit, not a length unit
+    """
+    from revolve import units
+
+    def factor(text: str, kind: str, option: Optional[str]) -> float:
+        try:
+            return units.factor(text, kind)
+        except UnitError as e:
+            raise e.located(option=option)
+
+    si = units.factor(profile_unit, "length")
+    lu = length if length is not None else profile_unit
+    au = area if area is not None else f"{lu}²"
+    vu = volume if volume is not None else f"{lu}³"
+    mu = mass if mass is not None else "kg"
+    lf = si / factor(lu, "length", "--length-unit" if length is not None else None)
+    af = si ** 2 / factor(_pow_unit(au, lu, 2), "area", "--area-unit" if area is not None else None)
+    vf = si ** 3 / factor(_pow_unit(vu, lu, 3), "volume",
+                          "--volume-unit" if volume is not None else None)
+    mf = 1.0 / factor(mu, "mass", "--mass-unit" if mass is not None else None)
+    return OutputUnits(lu, au, vu, mu, lf, af, vf, mf, si)
+
+
+def _pow_unit(text: str, length: str, power: int) -> str:
+    sup = {2: "²", 3: "³"}[power]
+    if text == f"{length}{sup}":
+        return f"{length}^{power}"
+    return text
+
+
+def file_density(doc):
+    """Density in kg/m³ and a label from a document's ``material`` or ``density``; else Nones.
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace
+    >>> file_density(SimpleNamespace(material=None, density=None))
+    (None, None)
+    >>> file_density(SimpleNamespace(material=None, density="1000 kg/m^3", file="t.toml",
+    ...                              line_of=lambda key: 3))
+    (1000.0, '1000 kg/m³ (from the file)')
+    """
+    from revolve import materials
+
+    if doc.material:
+        try:
+            m = materials.find_material(doc.material)
+        except RevolveError as e:
+            raise e.located(file=doc.file, line=doc.line_of("material"), place="material")
+        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})"
+    if doc.density:
+        try:
+            d = materials.density_from_text(doc.density)
+        except RevolveError as e:
+            raise e.located(file=doc.file, line=doc.line_of("density"), place="density")
+        return d, f"{d:g} kg/m³ (from the file)"
+    return None, None
+
+
+def density_value(density: Any, option: Optional[str] = "density"):
+    """``(density in kg/m³, label)`` from text with a unit, a pint quantity or a bare number.
+
+    A bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`, as ``--density 7850``
+    on the command line); text and quantities carry their own unit, never a
+    unit guessed from the profile. None gives ``(None, None)``. Errors are
+    the command line's, naming ``option``.
+
+    Examples
+    --------
+    >>> density_value("7.85 g/cm^3"), density_value(7850)
+    ((7850.0, '7850 kg/m³ (given)'), (7850.0, '7850 kg/m³ (given)'))
+    >>> density_value(None)
+    (None, None)
+    >>> density_value("heavy")                       # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: density: ...
+    >>> density_value(0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: density: a density must be positive, not '0.0'
+    >>> density_value(True)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: density: give a density such as "7850 kg/m^3" or a number in kg/m³, got True
+    """
+    if density is None:
+        return None, None
+    if isinstance(density, str):
+        d = parse_density(density, option)
+    elif isinstance(density, numbers.Real) and not isinstance(density, bool):
+        d = parse_density(repr(float(density)), option)
+    elif hasattr(density, "to") and hasattr(density, "magnitude"):   # a pint quantity
+        try:
+            value = float(density.to("kg/m**3").magnitude)
+        except Exception:  # pint's DimensionalityError (pint is the caller's, not imported here)
+            raise UnitError(f"{quoted(str(density))} is not a density; give a mass per volume "
+                            "such as 7850 kg/m^3", option=option) from None
+        d = parse_density(repr(value), option)
+    else:
+        raise UnitError(f'give a density such as "7850 kg/m^3" or a number in kg/m³, '
+                        f"got {density!r}", option=option)
+    return d, f"{d:g} kg/m³ (given)"
+
+
+def x_axis() -> Axis:
+    """The sketch x axis, with its exact description (the default axis).
+
+    >>> x_axis().direction
+    (1.0, 0.0)
+    """
+    return Axis((0.0, 0.0), (1.0, 0.0), exact=X_AXIS_EXACT)
+
+
+def revolution_for(doc, axis: Optional[Axis] = None, angle: Optional[float] = None) -> Revolution:
+    """The revolution of a document: the given axis and angle, else the file's, else x and 360°.
+
+    This is the one rule for every command and the library. An angle that
+    is refused names ``--angle`` when it was given, else the file's line.
+
+    Examples
+    --------
+    >>> from revolve.formats.document import ProfileDocument
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (0, 2)]),)))
+    >>> rev = revolution_for(doc)
+    >>> rev.axis.direction, rev.angle_degrees
+    ((1.0, 0.0), 360.0)
+    >>> revolution_for(doc, angle=0.0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: --angle: the revolution angle must be above 0 and at most 360 degrees, got 0
+    """
+    ax = axis or doc.axis or x_axis()
+    ang = angle if angle is not None else (
+        doc.angle_degrees if doc.angle_degrees is not None else 360.0)
+    try:
+        return Revolution(doc.profile, ax, ang)
+    except RevolveError as e:
+        given = angle is not None
+        raise e.located(file=None if given else doc.file,
+                        line=None if given else doc.line_of("angle"),
+                        place="--angle" if given else "angle")
+
+
+@dataclass(frozen=True)
+class PartMeasurement:
+    """One measured part: its document, revolution, measurement and density used.
+
+    ``density`` is in kg/m³ (None when neither the settings nor the file give
+    one); ``density_label`` says where it came from.
+    """
+
+    file: Optional[str]
+    document: Any
+    revolution: Any
+    measurement: Any
+    density: Optional[float] = None
+    density_label: Optional[str] = None
+
+
+def measure_document(doc, *, axis: Optional[Axis] = None, angle: Optional[float] = None,
+                     density: Optional[float] = None,
+                     density_label: Optional[str] = None) -> PartMeasurement:
+    """Measure a document's revolution (:func:`revolution_for`) with a density in kg/m³.
+
+    Without a density, the file's ``material`` or ``density`` is used
+    (:func:`file_density`). Errors are located in the file.
+
+    Examples
+    --------
+    >>> from revolve.formats.document import ProfileDocument
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),),
+    ...                               unit="m"))
+    >>> part = measure_document(doc, density=1000.0, density_label="water")
+    >>> round(part.measurement.mass, 3)                # 16π m³ of water
+    50265.482
+    >>> measure_document(doc, angle=-1.0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: --angle: the revolution angle must be above 0 and at most 360 degrees, got -1
+    """
+    from revolve import units
+    from revolve.geometry.measure import measure as measure_revolution
+
+    rev = revolution_for(doc, axis, angle)
+    if density is None:
+        density, density_label = file_density(doc)
+    si = units.factor(doc.profile.unit, "length")
+    try:
+        # Density is kg/m³; the engine works in the profile's unit: kg per (unit)³.
+        m = measure_revolution(rev, density=None if density is None else density * si ** 3)
+    except RevolveError as e:
+        raise e.located(file=doc.file)
+    return PartMeasurement(doc.file, doc, rev, m, density, density_label)
+
+
+def shown_faces(m):
+    """Surface by face, leaving out the unnamed group when it sweeps nothing (segments on the axis).
+
+    >>> from types import SimpleNamespace
+    >>> shown_faces(SimpleNamespace(surface_by_face={"bore": 2.0, "other": 0.0}))
+    {'bore': 2.0}
+    >>> shown_faces(SimpleNamespace(surface_by_face={"other": 0.0}))
+    {'other': 0.0}
+    """
+    from revolve.geometry.profile import UNNAMED_FACE
+
+    return {k: v for k, v in m.surface_by_face.items()
+            if not (k == UNNAMED_FACE and v == 0.0 and len(m.surface_by_face) > 1)}
+
+
+def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT_TOLERANCE):
+    """The JSON form of a measurement, in the output units (see README, "JSON keys").
+
+    Parameters
+    ----------
+    m : Measurement
+        The engine's measurement (profile units, mass in kg).
+    u : OutputUnits
+        Units to give the figures in (:func:`output_units`).
+    density_label : str, optional
+        Where the density came from (shown as ``density``).
+    tolerance : float
+        Relative tolerance the cross-check is judged by.
+
+    Returns
+    -------
+    dict
+        Plain floats, lists and strings; ``mass`` and its kin only with a
+        density, ``crosscheck`` only when it was computed.
+
+    Examples
+    --------
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
+    >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),))
+    >>> d = measurement_dict(measure(Revolution(ring, Axis.x())), output_units("mm", volume="L"))
+    >>> round(d["volume"], 10), d["units"]["volume"], "mass" in d       # 16π mm³ in litres
+    (5.02655e-05, 'L', False)
+    >>> sheet = Profile(chains=(Chain.from_points([(0, 1), (2, 1)]),))     # a surface only
+    >>> d = measurement_dict(measure(Revolution(sheet, Axis.x())), output_units("mm"))
+    >>> d["volume"], d["centroid"], round(d["surface_area"], 6)          # 2π · 1 · 2
+    (0.0, None, 12.566371)
+    """
+    L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
+    sec = m.section
+    out = {
+        "units": {"length": u.length, "area": u.area, "volume": u.volume, "mass": u.mass,
+                  "inertia": u.inertia_unit()},
+        "angle_degrees": float(m.revolution.angle_degrees),
+        "axis": {"point": [float(v) * L for v in m.revolution.axis.point],
+                 "direction": list(m.revolution.axis.unit_direction())},
+        "area": m.area * A,
+        "centroid": [m.centroid[0] * L, m.centroid[1] * L] if m.has_solid else None,
+        "centroid_distance": m.centroid_distance * L if m.has_solid else None,
+        "perimeter": m.perimeter * L,
+        "boundary_length": m.boundary_length * L,
+        "boundary_centroid": [m.boundary_centroid[0] * L, m.boundary_centroid[1] * L],
+        "boundary_centroid_distance": m.boundary_centroid_distance * L,
+        "volume": m.volume * V,
+        "surface_area": m.surface_total * A,
+        "surface_by_face": {k: v * A for k, v in shown_faces(m).items()},
+        "cut_face_area": None if m.cut_face_area is None else m.cut_face_area * A,
+        "centre_of_mass_axial": None if m.centre_of_mass_axial is None else m.centre_of_mass_axial * L,
+        "centre_of_mass_offset": None if m.centre_of_mass_offset is None else m.centre_of_mass_offset * L,
+        "error_estimate": {"volume": m.volume_error * V, "surface_area": m.surface_error * A},
+        "methods": sorted(set(sec.methods)),
+    }
+    if m.mass is not None:
+        out["density_kg_m3"] = m.density / u.si_length ** 3
+        out["density"] = density_label
+        out["mass"] = m.mass * M
+        # inertia: kg·(profile unit)² -> mass unit·(length unit)²
+        out["inertia_axis"] = m.inertia_axis * M * L * L
+        out["radius_of_gyration"] = m.radius_of_gyration * L
+    if m.crosscheck is not None:
+        c = m.crosscheck
+        out["crosscheck"] = {
+            "method": {"volume": "washers: slices perpendicular to the axis, Gauss–Legendre",
+                       "surface_area": "quadrature of r ds along each segment"},
+            "volume": c.volume * V, "surface_area": c.surface_area * A,
+            "volume_difference": c.volume_difference, "surface_difference": c.surface_difference,
+            "tolerance": tolerance, "agrees": c.agrees(tolerance),
+        }
+    return out
+
+
+def part_json(part, u: OutputUnits, tolerance: float = DEFAULT_TOLERANCE,
+              exact_out=None) -> dict:
+    """The object ``revolve measure --json`` prints for one measured part (a :class:`PartMeasurement`).
+
+    :func:`measurement_dict` plus ``profile`` (file, name, unit), ``exact``
+    when closed forms were asked for, and ``cautions`` (lifting, with a mass).
+
+    Examples
+    --------
+    >>> from revolve.formats.document import ProfileDocument
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (0, 2)]),),
+    ...                               name="cone ring"))
+    >>> d = part_json(measure_document(doc), output_units("mm"))
+    >>> d["profile"], d["cautions"]
+    ({'file': None, 'name': 'cone ring', 'unit': 'mm'}, [])
+    >>> len(part_json(measure_document(doc, density=1000.0), output_units("mm"))["cautions"])
+    1
+    """
+    m, doc = part.measurement, part.document
+    out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance)
+    out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
+    if exact_out is not None:
+        out["exact"] = exact_out
+    cautions = ["lifting"] if m.mass is not None else []
+    out["cautions"] = [CAUTIONS[k] for k in cautions]
+    return out
+
+
+# -- the library's entry point ---------------------------------------------------------------
+
+
+@dataclass(frozen=True)
+class MeasureResult:
+    """What :func:`measure` gives: the engine's measurement with its part, settings and units.
+
+    ``measurement`` is the engine's :class:`~revolve.geometry.measure.Measurement`
+    (plain floats in the profile's unit); the properties give the main
+    figures in the units of :attr:`units` (the profile's length unit, its
+    square and cube, kg). :meth:`to_dict` is exactly what
+    ``revolve measure FILE --json`` prints.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Chain, Profile
+    >>> r = measure(Profile(chains=(Chain.from_points([(0, 1), (2, 1)]),), name="sheet"))
+    >>> r                                      # a surface only: no volume, no mass
+    <MeasureResult sheet: volume=0 mm³, surface_area=12.5664 mm²>
+    >>> r.mass is None, r.units["area"]
+    (True, 'mm²')
+    """
+
+    part: PartMeasurement
+    exact: Optional[Dict[str, Any]] = None
+
+    @property
+    def measurement(self):
+        """The engine's measurement (profile units; mass in kg)."""
+        return self.part.measurement
+
+    @property
+    def revolution(self) -> Revolution:
+        """The revolution measured (profile, axis, angle)."""
+        return self.part.revolution
+
+    @property
+    def profile(self):
+        """The profile measured."""
+        return self.part.revolution.profile
+
+    @property
+    def units(self) -> Dict[str, str]:
+        """Units of the figures: length, area, volume, mass, inertia."""
+        return self.to_dict()["units"]
+
+    @property
+    def volume(self) -> float:
+        """Volume in ``units["volume"]`` (0 for a profile of chains only)."""
+        return self.measurement.volume
+
+    @property
+    def surface_area(self) -> float:
+        """Swept surface, every face, in ``units["area"]``."""
+        return self.measurement.surface_total
+
+    @property
+    def mass(self) -> Optional[float]:
+        """Mass in kg, or None without a density."""
+        return self.measurement.mass
+
+    def to_dict(self) -> Dict[str, Any]:
+        """The JSON object of ``revolve measure FILE --json`` for the same input."""
+        u = output_units(self.part.document.profile.unit)
+        return part_json(self.part, u, DEFAULT_TOLERANCE, self.exact)
+
+    def __repr__(self) -> str:
+        d = self.to_dict()
+        u = d["units"]
+        name = d["profile"]["name"] or d["profile"]["file"] or "profile"
+        bits = [f"volume={d['volume']:.6g} {u['volume']}",
+                f"surface_area={d['surface_area']:.6g} {u['area']}"]
+        if "mass" in d:
+            bits.append(f"mass={d['mass']:.6g} {u['mass']}")
+        return f"<MeasureResult {name}: {', '.join(bits)}>"
+
+    def _repr_html_(self) -> str:
+        import html
+
+        d = self.to_dict()
+        u = d["units"]
+        rows = [("section area", d["area"], u["area"]), ("volume", d["volume"], u["volume"]),
+                ("surface, swept total", d["surface_area"], u["area"])]
+        rows += [(f"surface: {k}", v, u["area"]) for k, v in d["surface_by_face"].items()]
+        if "mass" in d:
+            rows += [("density", d["density_kg_m3"], "kg/m³"), ("mass", d["mass"], u["mass"]),
+                     ("moment of inertia about the axis", d["inertia_axis"], u["inertia"])]
+        c = d.get("crosscheck")
+        if c is not None:
+            rows.append(("cross-check", "agrees" if c["agrees"] else "DISAGREES", ""))
+        cells = "".join(
+            f"<tr><td>{html.escape(n)}</td><td style='text-align:right'>"
+            f"{html.escape(f'{v:.6g}' if isinstance(v, float) else str(v))}</td>"
+            f"<td>{html.escape(un)}</td></tr>" for n, v, un in rows)
+        title = html.escape(d["profile"]["name"] or d["profile"]["file"] or "profile")
+        return (f"<table><caption>{title}</caption><tr><th>quantity</th><th>value</th>"
+                f"<th>unit</th></tr>{cells}</table>")
+
+
+def as_document(profile_or_path, units: Optional[str] = None):
+    """A :class:`~revolve.formats.document.ProfileDocument` from a file name, a profile or a revolution.
+
+    A file is read by :func:`revolve.formats.load_profile` (``units`` for
+    files that do not say, e.g. point lists; default mm). A profile built in
+    Python keeps its own ``unit`` and has no exact records.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> as_document(Profile(loops=(Loop.from_points([(0, 1), (1, 1), (0, 2)]),))).profile.unit
+    'mm'
+    >>> as_document(3)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: give a file name, a Profile or a Revolution, got int
+    """
+    from revolve.formats.document import ProfileDocument
+    from revolve.geometry.profile import Profile
+
+    if isinstance(profile_or_path, (str, os.PathLike)):
+        from revolve.formats import load_profile
+
+        if units is not None:
+            from revolve import units as registry
+
+            try:
+                registry.factor(units, "length")
+            except UnitError as e:
+                raise e.located(option="units")
+        return load_profile(os.fspath(profile_or_path), unit=units)
+    if isinstance(profile_or_path, ProfileDocument):
+        return profile_or_path
+    if isinstance(profile_or_path, Profile):
+        return ProfileDocument(profile_or_path, exact=False)
+    if isinstance(profile_or_path, Revolution):
+        return ProfileDocument(profile_or_path.profile, axis=profile_or_path.axis,
+                               angle_degrees=profile_or_path.angle_degrees, exact=False)
+    raise RevolveError(f"give a file name, a Profile or a Revolution, got "
+                       f"{type(profile_or_path).__name__}")
+
+
+def _axis_of(axis) -> Optional[Axis]:
+    if axis is None or isinstance(axis, Axis):
+        return axis
+    if isinstance(axis, str):
+        return parse_axis(axis, option="axis")
+    raise RevolveError(f"give the axis as an Axis, or as x, y or X0,Y0,DX,DY, got {axis!r}",
+                       option="axis")
+
+
+def measure(profile_or_path, *, axis=None, angle: Optional[float] = None, density: Any = None,
+            material: Optional[str] = None, exact: bool = False,
+            units: Optional[str] = None) -> MeasureResult:
+    """Measure a part: section, volume, surface by face, mass, and the cross-check.
+
+    The same computation as ``revolve measure``; ``result.to_dict()`` is
+    exactly the object ``revolve measure FILE --json`` prints.
+
+    Parameters
+    ----------
+    profile_or_path : str, os.PathLike, Profile, ProfileDocument or Revolution
+        A profile file (any format :func:`revolve.load_profile` reads) or a
+        profile built in Python.
+    axis : Axis or str, optional
+        ``"x"``, ``"y"``, ``"X0,Y0,DX,DY"`` or an :class:`Axis`; default: the
+        file's axis, else the sketch x axis.
+    angle : float, optional
+        Revolution angle in degrees, above 0 and at most 360; default: the
+        file's, else 360.
+    density : str, pint quantity or float, optional
+        With its unit (``"7850 kg/m^3"``, ``"0.284 lb/in^3"``, a pint
+        quantity); a bare number is kg/m³, as on the command line, never per
+        cubed profile unit. Default: the file's material or density, else no
+        mass.
+    material : str, optional
+        A name from the material table (``"steel"``); not with ``density``.
+    exact : bool
+        Also work out closed forms (as ``--exact``; needs sympy).
+    units : str, optional
+        Length unit of files that do not say (point lists); default mm.
+
+    Returns
+    -------
+    MeasureResult
+
+    Raises
+    ------
+    revolve.RevolveError
+        With the command line's one-sentence message.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> tube = Profile(loops=(Loop.from_points([(0, 10), (100, 10), (100, 12), (0, 12)]),),
+    ...                unit="mm", name="tube")
+    >>> r = measure(tube, density="7850 kg/m^3")
+    >>> r
+    <MeasureResult tube: volume=13823 mm³, surface_area=14099.5 mm², mass=0.108511 kg>
+    >>> round(r.mass, 6)                     # π (12² − 10²) 100 mm³ × 7.85e-6 kg/mm³
+    0.108511
+    >>> measure(tube, density=7850).mass == r.mass       # a bare number is kg/m³
+    True
+    >>> round(measure(tube, angle=90).volume * 4 / r.volume, 12)    # a quarter turn
+    1.0
+    >>> measure(tube, density="7850 kg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: density: 'kg' is a mass unit, not a density unit
+    >>> measure(tube, density="7850", material="steel")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: density: give either material or density, not both
+    >>> measure(Profile())                   # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: ...
+    """
+    doc = as_document(profile_or_path, units)
+    if material is not None and density is not None:
+        raise RevolveError("give either material or density, not both", option="density")
+    if material is not None:
+        dens, label, _ = material_or_density(material, None, material_option="material")
+    else:
+        dens, label = density_value(density)
+    part = measure_document(doc, axis=_axis_of(axis), angle=angle, density=dens,
+                            density_label=label)
+    exact_out = None
+    if exact:
+        from revolve.geometry.exact import exact_results
+
+        exact_out = exact_results(doc, part.revolution, part.measurement, exact_angle=angle)
+    return MeasureResult(part, exact_out)

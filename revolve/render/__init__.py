@@ -1,0 +1,1 @@
+"""Rendering shared by the command line and the library (pictures for now)."""
