@@ -92,6 +92,29 @@ MIN_WIDTH = 2.0 ** -24
 
 # -- the circular segment and its integrals ---------------------------------------------
 
+def _straight_classes(dz, dr, length):
+    """Straight rows sorted for the closed forms: cylinders, radial faces, cones and steep ones.
+
+    Returns the four masks and, for the cones, ``dz/dr`` and ``length/|dr|``
+    (zero elsewhere). A cone steeper than :data:`CLOSED_FORM_SLOPE` goes to
+    quadrature (its closed form would cancel).
+
+    >>> import numpy as np
+    >>> c = _straight_classes(np.array([2.0, 0.0, 1.0]), np.array([0.0, 1.0, 1.0]),
+    ...                       np.array([2.0, 1.0, 2 ** 0.5]))
+    >>> [m.tolist() for m in c[:4]], c[4].tolist()
+    ([[True, False, False], [False, True, False], [False, False, True], [False, False, False]], [0.0, 0.0, 1.0])
+    """
+    cyl = (dr == 0)
+    radial = (dz == 0)
+    cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
+    steep = ~cyl & ~radial & ~cone
+    with np.errstate(divide="ignore", invalid="ignore"):
+        ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
+        lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+    return cyl, radial, cone, steep, ratio, lratio
+
+
 def _half_angle(r, r_plus_y, r_minus_y):
     """acos(-y/r) without lost digits near the bottom or the top of the circle.
 
@@ -425,13 +448,7 @@ class StraightRows:
         S_u = segment_area(ru, yy, rpy, rmy)
         i0, i1 = where_[:self.size], where_[self.size:]
         s0, s1 = S_u[i0], S_u[i1]
-        cyl = (dr == 0)
-        radial = (dz == 0)
-        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
-        steep = ~cyl & ~radial & ~cone
-        with np.errstate(divide="ignore", invalid="ignore"):
-            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
-            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        cyl, radial, cone, steep, ratio, lratio = _straight_classes(dz, dr, length)
         vol = np.where(cyl, s0 * dz, 0.0)
         if cone.any():
             F_u = segment_area_integral(ru, yy)
@@ -463,13 +480,7 @@ class StraightRows:
         rpy0, rmy0 = (r0 - r_max) + dd, (r0 - r_max) + top
         s0 = segment_area(r0, yy, rpy0, rmy0)
         s1 = segment_area(r1, yy, (r1 - r_max) + dd, (r1 - r_max) + top)
-        cyl = (dr == 0)
-        radial = (dz == 0)
-        cone = ~cyl & ~radial & (np.abs(dz) <= CLOSED_FORM_SLOPE * np.abs(dr))
-        steep = ~cyl & ~radial & ~cone
-        with np.errstate(divide="ignore", invalid="ignore"):
-            ratio = np.where(cone, dz / np.where(dr == 0, 1.0, dr), 0.0)
-            lratio = np.where(cone, length / np.where(dr == 0, 1.0, np.abs(dr)), 0.0)
+        cyl, radial, cone, steep, ratio, lratio = _straight_classes(dz, dr, length)
         vol = np.where(cyl, s0 * dz, 0.0)
         if cone.any():
             vol = vol + np.where(cone, ratio * (segment_area_integral(r1, yy)
