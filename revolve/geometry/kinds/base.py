@@ -102,17 +102,34 @@ def map_point(p: Point, matrix, offset=(0.0, 0.0)) -> Point:
     """
     a, b, c, d = matrix
     x, y = p
-    return (_dot(a, x, b, y) + offset[0] + 0.0, _dot(c, x, d, y) + offset[1] + 0.0)
+    return (combine(a, x, b, y, offset[0]), combine(c, x, d, y, offset[1]))
 
 
-def _dot(a: float, x: float, b: float, y: float) -> float:
+def combine(a: float, u, b: float, w, c: float = 0.0):
+    """``a·u + b·w + c`` for numbers or arrays, skipping zero terms and unit factors.
+
+    Skipping keeps a term that the map drops from reaching the result (``0 × inf``
+    would be nan) and keeps translations and swaps exact to the last bit; the
+    result has no negative zeros. Every kind maps its points through this one
+    function, so a line, a polyline and a curve moved alike agree to the bit.
+
+    >>> combine(0.0, float("inf"), -1.0, 2.0, 0.5), combine(1.0, -0.0, 0.0, 3.0)
+    (-1.5, 0.0)
+    """
     out = None
-    for k, v in ((a, x), (b, y)):
+    for k, v in ((a, u), (b, w)):
         if k == 0:
             continue
         term = v if k == 1 else (-v if k == -1 else k * v)
         out = term if out is None else out + term
-    return 0.0 if out is None else out
+    if out is None:
+        if hasattr(u, "shape"):
+            import numpy as np
+
+            out = np.zeros_like(u)
+        else:
+            out = 0.0
+    return out + c + 0.0
 
 
 class SegmentKind:

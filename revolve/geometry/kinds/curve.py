@@ -27,7 +27,7 @@ from functools import cached_property, lru_cache
 from typing import Any, Callable, NamedTuple, Optional, Tuple
 
 from revolve.geometry.kinds.base import (COORDINATE_LIMIT, IDENTITY_MATRIX, Point, SegmentKind, Where,
-                                         segment_error)
+                                         combine, segment_error)
 
 
 class CurveExact(NamedTuple):
@@ -97,24 +97,6 @@ def _exact_number(v: float):
 
     v = float(v)
     return Num(int(v)) if v.is_integer() else Num(v)
-
-
-def _combine(a: float, u, b: float, w, c: float = 0.0):
-    """``a·u + b·w + c`` for arrays, skipping zero terms and unit factors.
-
-    Skipping keeps a term that the map drops from reaching the result (``0 × inf``
-    would be nan) and keeps translations and swaps exact to the last bit.
-    """
-    out = None
-    for k, arr in ((a, u), (b, w)):
-        if k == 0:
-            continue
-        term = arr if k == 1 else (-arr if k == -1 else k * arr)
-        out = term if out is None else out + term
-    if out is None:
-        import numpy as np
-        out = np.zeros_like(u)
-    return out + c if c != 0 else out
 
 
 @dataclass(frozen=True)
@@ -290,8 +272,8 @@ class Curve(SegmentKind):
             if m.p != 1.0:
                 dX, dY = (-dX, -dY) if m.p == -1.0 else (m.p * dX, m.p * dY)
             a, b, c, d = m.matrix
-            return (_combine(a, X, b, Y, m.offset[0]), _combine(c, X, d, Y, m.offset[1]),
-                    _combine(a, dX, b, dY), _combine(c, dX, d, dY))
+            return (combine(a, X, b, Y, m.offset[0]), combine(c, X, d, Y, m.offset[1]),
+                    combine(a, dX, b, dY), combine(c, dX, d, dY))
 
     def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0),
                     exact: Optional[tuple] = None) -> "Curve":

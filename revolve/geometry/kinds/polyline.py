@@ -28,7 +28,7 @@ import math
 from dataclasses import dataclass, field, replace
 from typing import NamedTuple, Optional, Sequence
 
-from revolve.geometry.kinds.base import IDENTITY_MATRIX, SegmentKind, Where
+from revolve.geometry.kinds.base import IDENTITY_MATRIX, SegmentKind, Where, combine
 
 
 class _Numpy:
@@ -61,16 +61,8 @@ def map_points(points: np.ndarray, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0)) ->
     a, b, c, d = matrix
     x, y = points[:, 0], points[:, 1]
     out = np.empty_like(points)
-    for row, (k0, k1, off) in enumerate(((a, b, offset[0]), (c, d, offset[1]))):
-        acc = None
-        for k, v in ((k0, x), (k1, y)):
-            if k == 0:
-                continue
-            term = v if k == 1 else (-v if k == -1 else k * v)
-            acc = term if acc is None else acc + term
-        if acc is None:
-            acc = np.zeros_like(x)
-        out[:, row] = acc + off + 0.0
+    out[:, 0] = combine(a, x, b, y, offset[0])
+    out[:, 1] = combine(c, x, d, y, offset[1])
     return out
 
 
