@@ -1090,14 +1090,22 @@ def from_sympy(value) -> Expr:
     >>> t = sympy.Symbol("t", real=True)
     >>> from_sympy(3 * t ** 2 / 90 + sympy.sqrt(2) * sympy.sin(t) + sympy.Float(0.5)).text()
     't^2/30 + sqrt(2)*sin(t) + 0.5'
+    >>> from_sympy("__import__('os')")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ExpressionError: give expression text to revolve.expr.parse_expression, not to from_sympy
     >>> from_sympy(sympy.gamma(t))
     Traceback (most recent call last):
     ...
     revolve.errors.ExpressionError: gamma(t) cannot be used in a curve; use the functions sqrt, sin, cos, tan, asin, acos, atan, sinh, cosh, tanh, exp, log, abs, atan2
     """
-    sp = _sympy()
     if isinstance(value, Expr):
         return value
+    if isinstance(value, (str, bytes)):
+        # Text goes through the whitelist parser only; sympify would evaluate it.
+        raise ExpressionError("give expression text to revolve.expr.parse_expression, not to "
+                              "from_sympy")
+    sp = _sympy()
     v = sp.sympify(value, strict=True)   # a number or an expression already: no text
     if v.is_Symbol:
         return Var(v.name)
