@@ -44,7 +44,7 @@ app = typer.Typer(
     name=PROGRAM,
     help="Volumes, surfaces, masses and level tables of parts made by revolving a 2-D profile; "
          "every figure is cross-checked by a second, independent computation.",
-    no_args_is_help=True,
+    invoke_without_command=True,
     add_completion=False,
     pretty_exceptions_enable=False,
 )
@@ -72,10 +72,14 @@ def _show_version(value: bool) -> None:
 
 @app.callback()
 def _root(
+    ctx: typer.Context,
     version: bool = typer.Option(False, "--version", is_eager=True, callback=_show_version,
                                  help="Print the version and stop."),
 ) -> None:
     """Volumes, surfaces, masses and level tables of parts made by revolving a 2-D profile."""
+    if ctx.invoked_subcommand is None:      # `revolve` alone: the help, and success
+        print(ctx.get_help())
+        raise typer.Exit(0)
 
 
 _register_commands()

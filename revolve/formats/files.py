@@ -95,7 +95,7 @@ def _cannot(path: str, number: int, option: Optional[str]) -> FormatError:
     return FormatError(f"cannot write the file ({os.strerror(number)})", file=path, option=option)
 
 
-def check_target(path: str, option: Optional[str] = None) -> None:
+def check_target(path: str, option: Optional[str] = None, *, replace: bool = True) -> None:
     """Refuse, before anything is written, an output file name that cannot be written.
 
     The folder must exist and be writable, the name must be a file name (not
@@ -109,6 +109,9 @@ def check_target(path: str, option: Optional[str] = None) -> None:
         The file name as the user gave it; it is used unchanged in messages.
     option : str, optional
         The command-line option that gave it, named in the message.
+    replace : bool
+        Whether a file already there may be replaced. Commands pass their
+        ``--force`` flag (the one overwrite rule); the library replaces.
 
     Raises
     ------
@@ -155,6 +158,9 @@ def check_target(path: str, option: Optional[str] = None) -> None:
         raise _cannot(path, errno.ENAMETOOLONG, option)
     if not os.access(folder, os.W_OK | os.X_OK):
         raise _cannot(path, errno.EACCES, option)
+    if not replace and os.path.lexists(path):
+        raise FormatError("the file exists already; give --force to replace it", file=path,
+                          option=option)
     if os.path.exists(path) and not os.access(path, os.W_OK):
         raise FormatError("the file is read-only; nothing was written", file=path, option=option)
 
@@ -209,8 +215,9 @@ class OutputSet:
     revolve.errors.FormatError: --csv: ...v.toml: this file is given for two outputs; give another name
     """
 
-    def __init__(self) -> None:
+    def __init__(self, *, replace: bool = True) -> None:
         self._outputs: List[_Output] = []
+        self.replace = replace
 
     def __enter__(self) -> "OutputSet":
         return self
@@ -240,7 +247,7 @@ class OutputSet:
         outputs, self._outputs = self._outputs, []
         seen: Dict[str, _Output] = {}
         for out in outputs:
-            check_target(out.path, out.option)
+            check_target(out.path, out.option, replace=self.replace)
             key = os.path.normcase(os.path.realpath(out.path))
             if key in seen:
                 raise FormatError("this file is given for two outputs; give another name",
@@ -350,7 +357,8 @@ def _roll_back(outputs: List[_Output]) -> None:
         out.moved = False
 
 
-def write_atomically(path: str, write, binary: bool = False, option: Optional[str] = None) -> None:
+def write_atomically(path: str, write, binary: bool = False, option: Optional[str] = None, *,
+                     replace: bool = True) -> None:
     """Write one file through a temporary file beside it and a rename (an :class:`OutputSet` of one).
 
     ``write(handle)`` writes the contents to an open handle (text as UTF-8, or
@@ -363,11 +371,12 @@ def write_atomically(path: str, write, binary: bool = False, option: Optional[st
     ...
     revolve.errors.FormatError: no/such/folder/x.bin: cannot write the file (No such file or directory)
     """
-    with OutputSet() as out:
+    with OutputSet(replace=replace) as out:
         out.add(path, write, binary=binary, option=option)
 
 
-def write_text_atomically(path: str, text: str, option: Optional[str] = None) -> None:
+def write_text_atomically(path: str, text: str, option: Optional[str] = None, *,
+                          replace: bool = True) -> None:
     """Write ``text`` to ``path`` as UTF-8, atomically (see :func:`write_atomically`).
 
     >>> write_text_atomically("no/such/folder/x.csv", "", option="--csv")
@@ -375,10 +384,11 @@ def write_text_atomically(path: str, text: str, option: Optional[str] = None) ->
     ...
     revolve.errors.FormatError: --csv: no/such/folder/x.csv: cannot write the file (No such file or directory)
     """
-    write_atomically(path, lambda handle: handle.write(text), option=option)
+    write_atomically(path, lambda handle: handle.write(text), option=option, replace=replace)
 
 
-def write_bytes_atomically(path: str, data: bytes, option: Optional[str] = None) -> None:
+def write_bytes_atomically(path: str, data: bytes, option: Optional[str] = None, *,
+                           replace: bool = True) -> None:
     """Write ``data`` to ``path``, atomically (see :func:`write_atomically`).
 
     >>> write_bytes_atomically("no/such/folder/part.stl", b"")
@@ -386,4 +396,5 @@ def write_bytes_atomically(path: str, data: bytes, option: Optional[str] = None)
     ...
     revolve.errors.FormatError: no/such/folder/part.stl: cannot write the file (No such file or directory)
     """
-    write_atomically(path, lambda handle: handle.write(data), binary=True, option=option)
+    write_atomically(path, lambda handle: handle.write(data), binary=True, option=option,
+                     replace=replace)
