@@ -33,7 +33,7 @@ Length(value=0.125, unit='in')
 
 from __future__ import annotations
 
-from typing import Any, Callable, Optional
+from typing import Any, Callable
 
 import typer
 from typer._click.types import ParamType

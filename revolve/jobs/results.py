@@ -268,6 +268,19 @@ class Result:
                     used[f.role] = self.units.unit(f.role)
         return used
 
+    def __repr__(self) -> str:
+        parts = []
+        for t in self.tables:
+            parts.append(f"{t.key}: {len(t.fields)} figures" if t.figures else
+                         f"{t.key}: {len(t.rows)} rows")
+        return f"<{type(self).__name__} {self.command}: {', '.join(parts)}>"
+
+    def _repr_html_(self) -> str:
+        """Tables for a notebook (the same figures and units as the terminal's)."""
+        from revolve.render.output import html      # the renderer, loaded only when shown
+
+        return html(self)
+
     def to_dict(self) -> Dict[str, Any]:
         """The command's ``--json`` object: metadata once, then each table under its key."""
         out: Dict[str, Any] = {"command": self.command, "inputs": dict(self.inputs),

@@ -189,6 +189,45 @@ def renderables(r: Result) -> List[Any]:
     return out
 
 
+def html(r: Result) -> str:
+    """The tables of ``r`` as HTML (for notebooks; figures formatted as in the terminal).
+
+    >>> from revolve.jobs.results import Field, Result, Table, trade_units
+    >>> t = Table("main", "Part", (Field("volume", "volume", "volume"),), ({"volume": 1e-6},),
+    ...           figures=True)
+    >>> print(html(Result("measure", trade_units("part", "mm"), {}, (t,))))
+    <table><caption>Part</caption><tr><th>volume</th><td>1000</td><td>mm³</td></tr></table>
+    """
+    from html import escape
+
+    parts = []
+    for t in r.tables:
+        shown = t.json(r.units)
+        rows = []
+        if t.figures:
+            for f in t.fields:
+                if f.key in shown:
+                    unit = "%" if f.style == "percent" else r.units.unit(f.role)
+                    rows.append(f"<tr><th>{escape(f.label)}</th><td>{escape(cell(shown[f.key], f))}"
+                                f"</td><td>{escape(unit)}</td></tr>")
+        else:
+            fields = [f for f in t.fields if any(f.key in row for row in shown)]
+            rows.append("<tr>" + "".join(f"<th>{escape(_heading(f, r))}</th>" for f in fields)
+                        + "</tr>")
+            for row in shown:
+                rows.append("<tr>" + "".join(f"<td>{escape(cell(row.get(f.key), f))}</td>"
+                                             for f in fields) + "</tr>")
+        parts.append(f"<table><caption>{escape(t.title)}</caption>{''.join(rows)}</table>")
+    for note in r.notes:
+        parts.append(f"<p>{escape(note)}</p>")
+    if r.cautions:
+        from revolve.jobs.measuring import CAUTIONS
+
+        parts.append("<p><strong>Caution:</strong> " + escape(
+            " ".join(CAUTIONS.get(c, c) for c in r.cautions)) + "</p>")
+    return "\n".join(parts)
+
+
 def console(width: Optional[int] = None, file=None):
     """A rich console (wide enough not to wrap tables in pipes)."""
     from rich.console import Console
