@@ -870,6 +870,15 @@ class Uncertainty:
                 for n in self.largest[index]}
 
 
+def _step(run, x0, name, value, h):
+    try:
+        return run({**x0, name: value})
+    except RevolveError as err:
+        raise RevolveError(f"the model refuses {name} = {value:.10g} (a step of {h:g} from "
+                           f"{x0[name]:g} for its sensitivity): {err}; give a value further "
+                           "from the model's limit") from None
+
+
 def combined_uncertainty(model: Callable[..., Any], values: Mapping[str, float],
                          uncertainties: Mapping[str, Union[float, Tolerance]], *,
                          relative_step: float = 1e-6) -> Uncertainty:
@@ -948,8 +957,7 @@ def combined_uncertainty(model: Callable[..., Any], values: Mapping[str, float],
         if h == 0.0:
             sens[name] = np.zeros_like(y)
             continue
-        up = run({**x0, name: x0[name] + h})
-        down = run({**x0, name: x0[name] - h})
+        up, down = (_step(run, x0, name, x0[name] + d, h) for d in (h, -h))
         if up.shape != y.shape or down.shape != y.shape:
             raise RevolveError(f"the model gives a different number of outputs when "
                                f"{quoted(name)} changes; keep its outputs fixed")
