@@ -68,7 +68,7 @@ import numpy as np
 from revolve.errors import MaterialError, RevolveError, quoted
 
 __all__ = [
-    "CALIBRATION_CAUTION", "SHELL_FORMULA", "SHELL_SOURCE", "GUM_METHOD", "MAX_ROWS",
+    "CALIBRATION_CAUTION", "SHELL_FORMULA", "SHELL_TERMS", "SHELL_SOURCE", "GUM_METHOD", "MAX_ROWS",
     "innage_from_ullage", "ullage_from_innage", "level_from_innage", "innage_from_level",
     "level_from_ullage",
     "increment_levels", "per_increment",
@@ -564,12 +564,13 @@ def deadwood_at(levels, items: Sequence[Union[SpreadItem, RevolvedItem]]) -> np.
 # -- shell temperature --------------------------------------------------------------------------
 
 #: The shell temperature correction factor, as the output states it.
-SHELL_FORMULA = ("CTSh = 1 + 2·α·ΔT + α²·ΔT², ΔT = shell temperature − the table's base "
-                 "(calibration) temperature, α the shell's linear expansion coefficient")
+SHELL_FORMULA = "CTSh = 1 + 2αΔT + α²ΔT²"
+#: What its terms are.
+SHELL_TERMS = ("ΔT: shell temperature minus the table's base (calibration) temperature; "
+               "α: the shell's linear expansion coefficient")
 #: Where the formula comes from.
-SHELL_SOURCE = ("API MPMS Chapter 12.1.1 / EI HM1 Part 1 (Calculation of static petroleum "
-                "quantities, upright cylindrical tanks), correction for the effect of temperature "
-                "on the steel shell")
+SHELL_SOURCE = ("API MPMS Chapter 12.1.1 / EI HM1 Part 1 (calculation of static petroleum "
+                "quantities, upright cylindrical tanks)")
 
 _EXPANSION_FILE = "expansion.toml"
 _EXPANSION_FIELDS = ("key", "name", "aliases", "alpha_per_kelvin", "source", "note")
@@ -674,7 +675,7 @@ def find_expansion(name: str) -> Expansion:
 
 
 def shell_correction_factor(shell_temperature, base_temperature, alpha):
-    """CTSh = 1 + 2αΔT + α²ΔT² (:data:`SHELL_FORMULA`), ΔT = shell − base temperature.
+    """CTSh = 1 + 2αΔT + α²ΔT² (:data:`SHELL_FORMULA`, :data:`SHELL_SOURCE`), ΔT = shell − base.
 
     Temperatures in kelvin or °C (one scale for both), ``alpha`` per kelvin;
     arrays broadcast. The factor is (1 + αΔT)², the growth of the shell's
@@ -725,14 +726,17 @@ class ShellCorrection:
     source: str = SHELL_SOURCE
 
     def statement(self) -> str:
-        """One line for the table: the factor, its inputs, formula and sources.
+        """One line for the table: the factor, its inputs, the formula and the sources.
 
-        >>> print(shell_correction(35.0, 15.0, 12e-6).statement())  # doctest: +ELLIPSIS
-        shell temperature correction 1.00048 (ΔT = 20 K, α = 1.2e-05 /K, given): CTSh = 1 + ...
+        >>> print(shell_correction(35.0, 15.0, 12e-6).statement())
+        shell temperature correction CTSh = 1 + 2αΔT + α²ΔT² = 1.00048 (API MPMS Chapter 12.1.1 / EI HM1 Part 1 (calculation of static petroleum quantities, upright cylindrical tanks)); ΔT = 35 − 15 = 20 K; α = 1.2e-05 /K (given)
         """
-        return (f"shell temperature correction {self.factor:.6g} "
-                f"(ΔT = {self.shell_temperature - self.base_temperature:g} K, "
-                f"α = {self.alpha:g} /K, {self.alpha_source}): {self.formula}; {self.source}")
+        dT = self.shell_temperature - self.base_temperature
+        alpha = (f"α = {self.alpha:.6g} /K (given)" if self.alpha_source == "given" else
+                 f"α = {self.alpha:.6g} /K for {self.material} ({self.alpha_source})")
+        return (f"shell temperature correction {self.formula} = {self.factor:.6g} "
+                f"({self.source}); ΔT = {self.shell_temperature:g} − {self.base_temperature:g} = "
+                f"{dT:g} K; {alpha}")
 
 
 def shell_correction(shell_temperature: float, base_temperature: float,
@@ -856,6 +860,24 @@ class Uncertainty:
     def contribution(self, name: str) -> np.ndarray:
         """|∂f/∂x_i| u(x_i) of one input, for each output."""
         return np.abs(self.sensitivities[name]) * self.inputs[name]
+
+    def describe(self, index: int = 0) -> str:
+        """The largest contributors of output ``index`` in words, for the table.
+
+        >>> r = combined_uncertainty(lambda a, b: a + 2 * b, {"a": 1.0, "b": 1.0},
+        ...                          {"a": 0.3, "b": 0.2})
+        >>> r.describe()
+        'u = 0.5; largest contributors: b (64 % of the variance), a (36 %)'
+        >>> combined_uncertainty(lambda a: a, {"a": 1.0}, {}).describe()
+        'u = 0; no input has an uncertainty'
+        """
+        u = float(self.standard_uncertainty[index])
+        shares = self.shares(index)
+        if not shares:
+            return f"u = {u:.4g}; no input has an uncertainty"
+        parts = [f"{name} ({100 * share:.0f} %{' of the variance' if k == 0 else ''})"
+                 for k, (name, share) in enumerate(shares.items())]
+        return f"u = {u:.4g}; largest contributors: " + ", ".join(parts)
 
     def shares(self, index: int = 0) -> Dict[str, float]:
         """Each input's share of the variance of output ``index`` (fractions summing to 1).

@@ -411,6 +411,9 @@ def test_vessel_capacity_and_rows_against_the_analytic_gum_result():
                                                               "depth": c_h}[k][0]) * u[k])
     assert list(r.largest[0]) == analytic
     assert r.largest[1] == ("D",)            # a row in the shell depends on D alone
+    words = r.describe(0)
+    assert words.startswith(f"u = {expected[0]:.4g}; largest contributors: {analytic[0]} (")
+    assert r.describe(1).endswith("D (100 % of the variance)")
 
 
 def test_uncertainty_refusals():
