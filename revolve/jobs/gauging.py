@@ -177,6 +177,19 @@ def innage_from_ullage(reference_height: float, ullages) -> np.ndarray:
 def ullage_from_innage(reference_height: float, innages) -> np.ndarray:
     """Ullages for innage readings (the inverse of :func:`innage_from_ullage`), in metres.
 
+    Parameters
+    ----------
+    reference_height : float
+        Height of the gauge's reference point above the datum plate, m.
+    innages : float or sequence of float
+        Liquid depths above the datum plate, m, each between 0 and
+        ``reference_height``.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``reference_height - innage`` for each reading, m.
+
     Examples
     --------
     >>> ullage_from_innage(10.0, [6.75, 0.0]).tolist()
@@ -197,6 +210,18 @@ def level_from_innage(innages, datum_offset: float = 0.0) -> np.ndarray:
     (m; 0 when the plate is at the bottom, negative when it lies below it,
     as in a sump).
 
+    Parameters
+    ----------
+    innages : float or sequence of float
+        Liquid depths above the datum plate, m.
+    datum_offset : float
+        The datum plate's height above the lowest inside point, m.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``innage + datum_offset``: the table's levels, m.
+
     Examples
     --------
     >>> level_from_innage([0.0, 1.5], datum_offset=0.25).tolist()
@@ -209,6 +234,23 @@ def level_from_innage(innages, datum_offset: float = 0.0) -> np.ndarray:
 
 def innage_from_level(levels, datum_offset: float = 0.0) -> np.ndarray:
     """Innages above the datum plate for levels above the lowest inside point, in metres.
+
+    Parameters
+    ----------
+    levels : float or sequence of float
+        Levels above the lowest inside point, m; none below the datum plate.
+    datum_offset : float
+        The datum plate's height above the lowest inside point, m.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``level - datum_offset``, m.
+
+    Raises
+    ------
+    RevolveError
+        A level below the datum plate (a gauge cannot read it).
 
     Examples
     --------
@@ -309,6 +351,17 @@ def per_increment(volumes) -> np.ndarray:
     The increments of a table from empty (volume 0) to full sum to the
     capacity (to the rounding of each difference: add them with
     :func:`math.fsum` over the finite ones).
+
+    Parameters
+    ----------
+    volumes : sequence of float
+        The table's volumes, m³, in level order.
+
+    Returns
+    -------
+    numpy.ndarray
+        ``volumes[k + 1] - volumes[k]`` for each row, m³; NaN on the top row,
+        which has no row above it.
 
     Examples
     --------
@@ -680,6 +733,19 @@ def shell_correction_factor(shell_temperature, base_temperature, alpha):
     Temperatures in kelvin or °C (one scale for both), ``alpha`` per kelvin;
     arrays broadcast. The factor is (1 + αΔT)², the growth of the shell's
     cross-section; multiply a table's volume by it.
+
+    Parameters
+    ----------
+    shell_temperature, base_temperature : float or array
+        K or °C (one scale for both); the base is the table's calibration
+        temperature.
+    alpha : float or array
+        Linear expansion coefficient of the shell, per kelvin.
+
+    Returns
+    -------
+    float or numpy.ndarray
+        The factor (1 at the base temperature).
 
     Examples
     --------
