@@ -809,6 +809,11 @@ def shell_correction(shell_temperature: float, base_temperature: float,
                      material: Union[str, float]) -> ShellCorrection:
     """The shell temperature correction for a material of the table or a coefficient.
 
+    The standard states the factor for upright cylindrical tanks whose
+    tables were made for a base shell temperature; for other shapes (lying,
+    spherical) it is not the standard's correction, and the caller should
+    say so.
+
     Parameters
     ----------
     shell_temperature, base_temperature : float
