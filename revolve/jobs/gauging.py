@@ -334,7 +334,7 @@ def increment_levels(height: float, increment: float) -> np.ndarray:
     decimals = _decimals(step)
     if decimals is not None:     # 3 × 0.3 is 0.9, not 0.8999999999999999
         lv = np.round(lv, decimals)
-    lv = lv[lv < H]
+    lv = lv[lv < H - 1e-9 * step]      # a row a hair below the top is the top
     return np.append(lv, H)
 
 

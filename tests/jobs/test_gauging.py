@@ -105,6 +105,7 @@ def test_readings_outside_the_reference_height_are_refused():
 @example(H=1.0, step=0.1)          # a whole number of steps that floats make awkward
 @example(H=2.0, step=0.003175)     # 1/8 in in metres
 @example(H=0.5, step=2.0)          # one step larger than the vessel
+@example(H=1.0, step=0.9999999999999999)   # found by hypothesis: no hair-thin last row
 def test_increment_levels(H, step):
     lv = increment_levels(H, step)
     assert lv[0] == 0.0 and lv[-1] == H
