@@ -1,6 +1,6 @@
 """A shop's own stock list: the bars and tubes on its rack, with prices, from a CSV file.
 
-One row per stock item, with a header row naming the columns (any order,
+One row per stock item on one line, with a header row naming the columns (any order,
 any case)::
 
     shape,size,grade,price,length
@@ -117,7 +117,8 @@ def _length(text: str, what: str, fail, *, unit: Optional[str] = None) -> Tuple[
         raise fail(f"{what} {quoted(text)} is not a length: {err.message}")
     u = value.unit or unit
     if u is None:
-        raise fail(f"{what} {quoted(text)} has no unit; write it with its unit, such as '50 mm'")
+        raise fail(f"{what} {quoted(text)} has no unit; write it with its unit, such as "
+                   f"'{'3 m' if what == 'length' else '50 mm'}'")
     metres = value.value * units.factor(u, "length")
     if not (math.isfinite(metres) and metres > 0):
         raise fail(f"{what} {quoted(text)} must be a positive length")
@@ -167,7 +168,7 @@ def parse_stock_list(text: str, file: Optional[str] = None) -> Tuple[StockItem, 
     """
     if len(text) > MAX_BYTES:
         raise FormatError(f"the stock list is larger than {MAX_BYTES} characters", file=file)
-    rows = _rows(text)
+    rows = _rows(text, file)
     header = next(rows, None)
     if header is None:
         raise FormatError("the stock list is empty; it needs a header row: "
@@ -217,7 +218,7 @@ def parse_stock_list(text: str, file: Optional[str] = None) -> Tuple[StockItem, 
     return tuple(items)
 
 
-def _rows(text: str):
+def _rows(text: str, file: Optional[str] = None):
     """(line number, cells) of every row that is not blank or a comment."""
     if text.startswith("\ufeff"):
         text = text[1:]
@@ -227,11 +228,11 @@ def _rows(text: str):
             continue
         if "\x00" in raw:
             raise FormatError("the line holds a NUL character; is this a CSV file?",
-                              line=number)
+                              file=file, line=number)
         try:
             cells = next(csv.reader(io.StringIO(raw), strict=True))
         except csv.Error as err:
-            raise FormatError(f"the line is not CSV: {err}", line=number)
+            raise FormatError(f"the line is not CSV: {err}", file=file, line=number)
         yield number, cells
 
 
