@@ -41,7 +41,7 @@ from revolve.errors import RevolveError
 #: The rules :func:`choose_packs` knows.
 RULES = ("cheapest", "fewest", "least left over")
 #: Largest number of pack-size steps the search may look through (a bound on the work).
-MAX_STEPS = 200_000
+MAX_STEPS = 50_000
 #: Relative slack when comparing volumes (rounding of decimal litres).
 _SLACK = 1e-9
 
