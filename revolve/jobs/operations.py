@@ -530,7 +530,11 @@ def features_from_profile(prepared, length_factor: float = 1.0) -> Features:
 
 @dataclass(frozen=True)
 class Operation:
-    """One operation: its time (s), passes, spindle speed (rev/s, the first pass's) and formula."""
+    """One operation: its time (s), passes, spindle speed (rev/s, the first pass's) and formula.
+
+    ``data`` is the cutting data it was timed with (shown in m/min and mm/rev,
+    or sfm and in/rev, through :meth:`OperationData.trade_units`).
+    """
 
     name: str
     time: float
@@ -538,6 +542,7 @@ class Operation:
     spindle_speed: float
     formula: str
     detail: str = ""
+    data: Optional[OperationData] = None
 
 
 @dataclass(frozen=True)
@@ -573,8 +578,9 @@ def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationD
         first = n if first is None else first
         total += pass_time(length, data.feed, n)
     return Operation(name, total, count, first,
-                     "t = Σ L / (f n), n = vc / (π D) per pass, passes = ceil(stock / ap)",
-                     f"{what}: {count} × {_mm(stock / count)} over {_mm(length)}")
+                     "t = Σ L / (f n), n = vc / (π D) per pass (capped at the speed limit), "
+                     "passes = ceil(stock / ap)",
+                     f"{what}: {count} × {_mm(stock / count)} over {_mm(length)}", data)
 
 
 def plan_operations(features: Features, stock_diameter: float,
@@ -652,7 +658,7 @@ def plan_operations(features: Features, stock_diameter: float,
     ops.append(Operation("face", radial_pass_time(stock / 2, 0.0, face.cutting_speed, face.feed,
                                                   limit), 1, n,
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(stock)} to the centre"))
+                         f"⌀{_mm(stock)} to the centre", face))
 
     # rough and finish turn each step
     finish = data["finish turn"]
@@ -670,7 +676,8 @@ def plan_operations(features: Features, stock_diameter: float,
         if group:
             ops.append(Operation(group[0].name, math.fsum(o.time for o in group),
                                  sum(o.passes for o in group), group[0].spindle_speed,
-                                 group[0].formula, "; ".join(o.detail for o in group)))
+                                 group[0].formula, "; ".join(o.detail for o in group),
+                                 group[0].data))
 
     # centre drill, drill, bore
     bore_d, depth = features.bore_diameter, features.bore_depth
@@ -680,7 +687,7 @@ def plan_operations(features: Features, stock_diameter: float,
         ops.append(Operation("centre drill", pass_time(rules.centre_drill_depth, cd.feed, n), 1,
                              n, "t = depth / (f n), n = vc / (π D)",
                              f"⌀{_mm(rules.centre_drill_diameter)} × "
-                             f"{_mm(rules.centre_drill_depth)}"))
+                             f"{_mm(rules.centre_drill_depth)}", cd))
         if bore_d < rules.min_boring_bar_diameter:
             drill_d, why = bore_d, "drilled to size: below the smallest boring bar " \
                 f"⌀{_mm(rules.min_boring_bar_diameter)} (common practice)"
@@ -696,7 +703,8 @@ def plan_operations(features: Features, stock_diameter: float,
                                                  rules.drill_point_angle), 1, n,
                              "t = (depth + point length) / (f n), point = (d/2) / tan(angle/2), "
                              "n = vc / (π d)",
-                             f"⌀{_mm(drill_d)} × {_mm(depth)} + point {_mm(point)}; {why}"))
+                             f"⌀{_mm(drill_d)} × {_mm(depth)} + point {_mm(point)}; {why}",
+                             drill))
         if drill_d < bore_d * (1 - _SLACK):
             op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore")
             ops.append(op)
@@ -714,7 +722,7 @@ def plan_operations(features: Features, stock_diameter: float,
                              "ceil(width / tool width)",
                              f"{g.count} × {_mm(g.width)} wide, {_mm(g.depth)} deep at "
                              f"⌀{_mm(g.diameter)}; {plunges} plunge(s) of a "
-                             f"{_mm(rules.groove_tool_width)} tool"))
+                             f"{_mm(rules.groove_tool_width)} tool", gd))
 
     # part off
     po = data["part off"]
@@ -724,7 +732,8 @@ def plan_operations(features: Features, stock_diameter: float,
                                                       limit), 1,
                          spindle_speed(po.cutting_speed, at, limit),
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(at)} to " + (f"⌀{_mm(bore_d)}" if inner else "the centre")))
+                         f"⌀{_mm(at)} to " + (f"⌀{_mm(bore_d)}" if inner else "the centre"),
+                         po))
 
     return Plan(tuple(ops), warnings(features, stock, data, rules, overhang), stock)
 
@@ -743,8 +752,8 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     Examples
     --------
     >>> data = operation_data_for("steel")
-    >>> warnings(Features((OuterStep(0.02, 0.06),)), 0.022, data)[0]
-    'length over diameter 3 (60 mm over 20 mm) is within 4: no support needed (rule of thumb, common practice, no source)'
+    >>> warnings(Features((OuterStep(0.02, 0.06),)), 0.022, data)      # L/D = 3: nothing to say
+    ()
     >>> warnings(Features((OuterStep(0.02, 0.1),)), 0.022, data)[0]
     'length over diameter 5 (100 mm over 20 mm) is above 4: support the part with a tailstock (rule of thumb, common practice, no source)'
     >>> w = warnings(Features((OuterStep(0.004, 0.01),)), 0.005, data)
@@ -764,8 +773,6 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     elif ratio > rules.tailstock_ratio:
         out.append(f"{text} is above {rules.tailstock_ratio:g}: support the part with a "
                    f"tailstock {tag}")
-    else:
-        out.append(f"{text} is within {rules.tailstock_ratio:g}: no support needed {tag}")
     for op in WITH_DEPTH:
         d = data[op]
         if d.depth_of_cut > rules.depth_per_diameter * stock_diameter:
