@@ -45,7 +45,7 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass, field
 from functools import lru_cache
-from typing import Any, Dict, Mapping, Optional, Sequence, Tuple
+from typing import Any, Dict, Mapping, Optional, Tuple
 
 from revolve.errors import FormatError, RevolveError
 
@@ -60,7 +60,8 @@ GROUPS = ("steel", "stainless", "cast iron", "aluminium", "copper alloy", "titan
 _DATA_FILE = "operations.toml"
 _RULE_KEYS = ("min_boring_bar_diameter", "largest_drill", "bore_stock", "drill_point_angle",
               "centre_drill_diameter", "centre_drill_depth", "groove_tool_width",
-              "tailstock_ratio", "steady_rest_ratio", "depth_per_diameter", "feed_per_diameter")
+              "tailstock_ratio", "steady_rest_ratio", "depth_per_diameter", "feed_per_diameter",
+              "deep_hole_ratio")
 _RULE_UNITS = {"mm": 0.001, "degree": math.pi / 180.0, "1": 1.0}
 #: Relative slack when comparing sizes (a nanometre per metre).
 _SLACK = 1e-9
@@ -185,6 +186,7 @@ class Rules:
     steady_rest_ratio: float = 10.0
     depth_per_diameter: float = 0.25
     feed_per_diameter: float = 0.02
+    deep_hole_ratio: float = 5.0
     sources: Mapping[str, str] = field(default_factory=dict, compare=False)
 
     def __post_init__(self):
@@ -374,7 +376,7 @@ def equal_passes(stock: float, depth_of_cut: float, what: str = "operation") -> 
 
     >>> equal_passes(0.0035, 0.003), equal_passes(0.003, 0.003), equal_passes(0.0, 0.003)
     (2, 1, 0)
-    >>> equal_passes(1.0, 1e-6)
+    >>> equal_passes(1.0, 1e-6, "rough turn")
     Traceback (most recent call last):
     ...
     revolve.errors.RevolveError: rough turn: 1000000 passes is more than 10000; check the depth of cut
@@ -384,7 +386,7 @@ def equal_passes(stock: float, depth_of_cut: float, what: str = "operation") -> 
     count = max(1, math.ceil(stock / depth_of_cut * (1 - _SLACK)))
     if count > MAX_PASSES:
         raise RevolveError(f"{count} passes is more than {MAX_PASSES}; check the depth of cut",
-                           place=what if what != "operation" else "rough turn")
+                           place=what)
     return count
 
 
@@ -586,7 +588,7 @@ def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationD
 def plan_operations(features: Features, stock_diameter: float,
                     data: Mapping[str, OperationData], rules: Optional[Rules] = None,
                     speed_limit: Optional[float] = None,
-                    overhang: Optional[float] = None) -> Plan:
+                    overhang: Optional[float] = None, facing_allowance: float = 0.0) -> Plan:
     """Lay out and time the operations of one part, in the usual order.
 
     Order: face the bar end, rough turn each outer step (from the stock
@@ -611,6 +613,9 @@ def plan_operations(features: Features, stock_diameter: float,
         The machine's (or the chucking's) top spindle speed, rev/s.
     overhang : float, optional
         Unsupported length out of the chuck, m; default the part's length.
+    facing_allowance : float
+        Stock faced off the bar end, m: ceil(allowance / ap) facing passes,
+        at least one.
 
     Returns
     -------
@@ -649,14 +654,23 @@ def plan_operations(features: Features, stock_diameter: float,
     if stock < largest * (1 - _SLACK):
         raise RevolveError(f"the stock ({_mm(stock)}) is smaller than the part ({_mm(largest)})",
                            place="stock diameter")
-    ops = []
+    ops, deep = [], []
     limit = speed_limit
+
+    for what, diameter in (("part-off diameter", features.part_off_at),
+                           ("groove diameter", features.grooves.diameter
+                            if features.grooves is not None else 0.0)):
+        if diameter > stock * (1 + _SLACK):
+            raise RevolveError(f"the {what.split()[0]} at ⌀{_mm(diameter)} is outside the stock "
+                               f"(⌀{_mm(stock)})", place=what)
 
     # face the bar end
     face = data["face"]
     n = spindle_speed(face.cutting_speed, stock, limit)
-    ops.append(Operation("face", radial_pass_time(stock / 2, 0.0, face.cutting_speed, face.feed,
-                                                  limit), 1, n,
+    facings = max(1, equal_passes(_positive(facing_allowance, "facing allowance", zero=True),
+                                  face.depth_of_cut, "face"))
+    ops.append(Operation("face", facings * radial_pass_time(stock / 2, 0.0, face.cutting_speed,
+                                                            face.feed, limit), facings, n,
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
                          f"⌀{_mm(stock)} to the centre", face))
 
@@ -705,6 +719,10 @@ def plan_operations(features: Features, stock_diameter: float,
                              "n = vc / (π d)",
                              f"⌀{_mm(drill_d)} × {_mm(depth)} + point {_mm(point)}; {why}",
                              drill))
+        if depth > rules.deep_hole_ratio * drill_d:
+            deep.append(f"drill: a hole {depth / drill_d:.3g} diameters deep (⌀{_mm(drill_d)} × "
+                        f"{_mm(depth)}) is above {rules.deep_hole_ratio:g}: peck drill or use a "
+                        f"deep-hole drill (rule of thumb, common practice, no source)")
         if drill_d < bore_d * (1 - _SLACK):
             op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore")
             ops.append(op)
@@ -735,7 +753,7 @@ def plan_operations(features: Features, stock_diameter: float,
                          f"⌀{_mm(at)} to " + (f"⌀{_mm(bore_d)}" if inner else "the centre"),
                          po))
 
-    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang), stock)
+    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang) + tuple(deep), stock)
 
 
 def warnings(features: Features, stock_diameter: float, data: Mapping[str, OperationData],

@@ -33,7 +33,7 @@ least left over (then the fewest tins):
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from typing import Dict, Iterable, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import RevolveError

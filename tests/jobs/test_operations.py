@@ -328,6 +328,34 @@ def test_bad_input_one_line(make, text):
     assert "\n" not in str(err.value)
 
 
+def test_facing_allowance_takes_more_passes():
+    # 5 mm faced off at ap 2 → ceil(5/2) = 3 passes of π R² / (vc f) (common practice, no source)
+    plan = plan_operations(Features((OuterStep(0.03, 0.02),)), 0.032, STEEL, facing_allowance=0.005)
+    face = by_name(plan)["face"]
+    assert face.passes == 3
+    assert face.time / 60 == pytest.approx(3 * math.pi * 16 ** 2 / (200_000 * 0.25), rel=1e-12)
+
+
+@pytest.mark.parametrize("depth_mm, warned", [(30, False), (30.1, True)])
+def test_deep_hole_warning(depth_mm, warned):
+    # a hole deeper than 5 diameters: peck drilling (rule of thumb, common practice, no source);
+    # ⌀6 is drilled to size (below the smallest boring bar)
+    part = Features((OuterStep(0.03, 0.06),), bore_diameter=0.006, bore_depth=depth_mm / 1000)
+    w = plan_operations(part, 0.032, STEEL).warnings
+    assert any("peck drill" in x for x in w) == warned
+
+
+@pytest.mark.parametrize("features, place", [
+    (Features((OuterStep(0.02, 0.01),), part_off_diameter=0.03), "part-off diameter"),
+    (Features((OuterStep(0.02, 0.01),), grooves=Grooves(1, 0.002, 0.001, 0.03)),
+     "groove diameter"),
+])
+def test_cuts_outside_the_stock_are_refused(features, place):
+    with pytest.raises(RevolveError) as err:
+        plan_operations(features, 0.022, STEEL)
+    assert str(err.value).startswith(f"{place}: the ") and "outside the stock" in str(err.value)
+
+
 def test_a_typo_in_depth_of_cut_is_bounded():
     data = dict(STEEL, **{"rough turn": OperationData.from_metric(200, 0.3, 0.000001)})
     with pytest.raises(RevolveError, match="passes is more than"):
