@@ -807,6 +807,53 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     return tuple(out)
 
 
+# --------------------------------------------------------------------------- the shop's stock
+
+def choose_from_stock(items, outside_needed: float, grade: Optional[str] = None,
+                      largest_inside: float = 0.0):
+    """The smallest item of a shop's stock list that covers the part (common practice, no source).
+
+    ``items`` are rows of :func:`revolve.formats.stock_list.parse_stock_list`
+    (anything with ``shape``, ``outside_diameter``, ``inside_diameter`` and
+    ``grade``). Round bar covers a part whose largest diameter (with its
+    turning allowance) is ``outside_needed`` m; a tube also needs its bore no
+    larger than ``largest_inside`` m (0: no tube). ``grade`` (any case) picks
+    one grade. The smallest outside diameter wins; a tie goes to the row
+    first in the file. Hex and square bar are not chosen.
+
+    Examples
+    --------
+    >>> from revolve.formats.stock_list import parse_stock_list
+    >>> rack = parse_stock_list("shape,size,grade,price,length\\n"
+    ...                         "round,40 mm,S355,9 EUR/m,3 m\\nround,35 mm,S355,8 EUR/m,3 m\\n"
+    ...                         "round,36 mm,304,30 EUR/m,3 m\\ntube,36 x 20 mm,S355,3 EUR/kg,3 m\\n")
+    >>> choose_from_stock(rack, 0.034, "s355").size_text
+    '35 mm'
+    >>> choose_from_stock(rack, 0.034, largest_inside=0.022).size_text
+    '35 mm'
+    >>> choose_from_stock(rack, 0.0355, "S355", largest_inside=0.022).size_text
+    '36 x 20 mm'
+    >>> choose_from_stock(rack, 0.045)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: stock list: nothing on the stock list covers ⌀45 mm; add a larger bar or use the built-in sizes
+    """
+    fits = []
+    for item in items:
+        if grade is not None and item.grade.lower() != grade.lower():
+            continue
+        if item.outside_diameter < outside_needed * (1 - _SLACK):
+            continue
+        if item.shape == "round" or (item.shape == "tube" and item.inside_diameter
+                                     <= largest_inside * (1 + _SLACK)):
+            fits.append(item)
+    if not fits:
+        where = "" if grade is None else f" in {grade}"
+        raise RevolveError(f"nothing on the stock list covers ⌀{_mm(outside_needed)}{where}; "
+                           f"add a larger bar or use the built-in sizes", place="stock list")
+    return min(fits, key=lambda i: i.outside_diameter)
+
+
 # --------------------------------------------------------------------------- batch price
 
 @dataclass(frozen=True)

@@ -366,3 +366,21 @@ def test_cautions_cover_the_turning_rules():
     text = " ".join(ops.CAUTIONS)
     for word in ("estimates", "tool supplier", "Guard rotating", "speed limit"):
         assert word in text
+
+
+def test_stock_from_the_shops_list_and_its_price():
+    # the smallest covering bar wins, a tie goes to the first row; the price comes from the list:
+    # 55 mm of ⌀35 at 8.40 a metre = 0.462 (by hand)
+    from revolve.formats.stock_list import parse_stock_list
+    from revolve.jobs.operations import choose_from_stock
+
+    rack = parse_stock_list("shape,size,grade,price,length\n"
+                            "round,35 mm,S355,8.40 EUR/m,3 m\n"
+                            "round,35 mm,C45,9.10 EUR/m,3 m\n"
+                            "round,30 mm,S355,7.00 EUR/m,3 m\n", file="rack.csv")
+    bar = choose_from_stock(rack, 0.032)
+    assert (bar.grade, bar.line) == ("S355", 2)
+    assert choose_from_stock(rack, 0.032, grade="c45").line == 3
+    assert bar.price_for(length=0.055, mass=0.0) == pytest.approx(0.462)
+    with pytest.raises(RevolveError, match="nothing on the stock list covers ⌀36 mm in S355"):
+        choose_from_stock(rack, 0.036, grade="S355")
