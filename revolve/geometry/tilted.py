@@ -99,6 +99,8 @@ SAMPLES = 17
 #: Rounds of halving, and the most intervals evaluated in one call (bounded work).
 MAX_ROUNDS = 24
 MAX_WORK = 2_000_000
+#: Most (piece, level) pairs handled at once; more levels are taken in chunks.
+PAIR_CHUNK = 200_000
 #: Largest tilt accepted, in degrees (a vessel tipped further is not "tilted").
 MAX_TILT = 45.0
 
@@ -475,6 +477,16 @@ def tilted_levels(prep: PreparedProfile, levels, tilt_degrees: float, orientatio
         raise RevolveError("give the levels as a list of finite numbers")
     pc = pieces if pieces is not None else tilted_pieces(prep)
     a, b = plane_coefficients(tilt_degrees, orientation)
+    step = max(1, PAIR_CHUNK // max(1, len(pc)))
+    if d.size > step:       # bounded memory: levels in chunks of at most PAIR_CHUNK pairs
+        parts = [_tilted_chunk(pc, d[i:i + step], a, b, orientation, gauge_point, rel_tol)
+                 for i in range(0, d.size, step)]
+        return tuple(np.concatenate([p[k] for p in parts]) for k in range(3))
+    return _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol)
+
+
+def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
+    """:func:`tilted_levels` for one chunk of levels."""
     c = d + _reference_height(pc, a, b, orientation, gauge_point)
     nL, nP = d.size, len(pc)
     V, A, E = np.zeros(nL), np.zeros(nL), np.zeros(nL)
@@ -647,35 +659,39 @@ def tilted_crosscheck(prep: PreparedProfile, levels, tilt_degrees: float, orient
     c = d + _reference_height(pc, a, b, orientation, gauge_point)
     # the section as polygon edges (z0, r0) -> (z1, r1)
     edges = []
-    for i in range(len(pc)):
-        m = 2 if pc.straight[i] else 257
-        u = np.linspace(0.0, 1.0, m)
-        z, r, _, _ = pc.geometry(np.array([i]), (pc.pa[i] + (pc.pb[i] - pc.pa[i]) * u)[None, :])
-        edges.append(np.column_stack([z[0, :-1], r[0, :-1], z[0, 1:], r[0, 1:]]))
+    for sel, m in ((np.flatnonzero(pc.straight), 2), (np.flatnonzero(~pc.straight), 257)):
+        if sel.size:
+            u = np.linspace(0.0, 1.0, m)
+            p = pc.pa[sel, None] + (pc.pb - pc.pa)[sel, None] * u[None, :]
+            z, r, _, _ = pc.geometry(sel, p)
+            edges.append(np.column_stack([z[:, :-1].ravel(), r[:, :-1].ravel(),
+                                          z[:, 1:].ravel(), r[:, 1:].ravel()]))
     E = np.concatenate(edges)
     zs = pc.z_min + (np.arange(slices) + 0.5) * (pc.z_max - pc.z_min) / slices
     dz = (pc.z_max - pc.z_min) / slices
     z0, r0, z1, r1 = E[:, 0], E[:, 1], E[:, 2], E[:, 3]
-    crosses = ((z0[None, :] <= zs[:, None]) & (zs[:, None] < z1[None, :])) | \
-              ((z1[None, :] <= zs[:, None]) & (zs[:, None] < z0[None, :]))
     with np.errstate(divide="ignore", invalid="ignore"):
-        rz = r0[None, :] + (zs[:, None] - z0[None, :]) * ((r1 - r0) / (z1 - z0))[None, :]
-    rz = np.where(crosses, np.clip(rz, 0.0, None), np.inf)
-    rz.sort(axis=1)
-    count = crosses.sum(axis=1)
-    width_max = int(count.max()) if count.size else 0
-    rz = rz[:, :width_max]
+        slope = (r1 - r0) / (z1 - z0)
     R = pc.r_max
     ws = -R + (np.arange(rows) + 0.5) * (2 * R / rows)
     dw = 2 * R / rows
-    chord = np.zeros((slices, rows))
     w2 = ws[None, :] ** 2
-    for k in range(0, width_max - 1, 2):
-        valid = np.isfinite(rz[:, k + 1])
-        lo = np.where(valid, rz[:, k], 0.0)[:, None]
-        hi = np.where(valid, rz[:, k + 1], 0.0)[:, None]
-        chord += 2.0 * (np.sqrt(np.clip(hi * hi - w2, 0.0, None))
-                        - np.sqrt(np.clip(lo * lo - w2, 0.0, None)))
+    chord = np.zeros((slices, rows))
+    step = max(1, 4_000_000 // max(1, E.shape[0]))      # bounded memory: slices in chunks
+    for first in range(0, slices, step):
+        zc = zs[first:first + step, None]
+        crosses = ((z0[None, :] <= zc) & (zc < z1[None, :])) | ((z1[None, :] <= zc) & (zc < z0[None, :]))
+        with np.errstate(invalid="ignore"):
+            rz = r0[None, :] + (zc - z0[None, :]) * slope[None, :]
+        rz = np.where(crosses, np.clip(rz, 0.0, None), np.inf)
+        width = int(crosses.sum(axis=1).max()) if crosses.size else 0
+        rz = np.sort(rz, axis=1)[:, :width]
+        for k in range(0, width - 1, 2):                  # rings by the even-odd rule
+            valid = np.isfinite(rz[:, k + 1])
+            lo = np.where(valid, rz[:, k], 0.0)[:, None]
+            hi = np.where(valid, rz[:, k + 1], 0.0)[:, None]
+            chord[first:first + step] += 2.0 * (np.sqrt(np.clip(hi * hi - w2, 0.0, None))
+                                                - np.sqrt(np.clip(lo * lo - w2, 0.0, None)))
     running = np.concatenate([np.zeros((slices, 1)), np.cumsum(chord * dw, axis=1)], axis=1)
     edges_w = -R + np.arange(rows + 1) * dw
     out = np.empty(d.size)
