@@ -93,7 +93,7 @@ PI = math.pi
 ORIENTATIONS = ("vertical", "horizontal")
 #: The two Gauss–Legendre orders of each interval: the result is the higher one's, the
 #: difference is the error estimate.
-ORDERS = (12, 20)
+ORDERS = (8, 14)
 #: Samples per curved piece when looking for the places where a circle becomes wet or dry.
 SAMPLES = 17
 #: Rounds of halving, and the most intervals evaluated in one call (bounded work).
