@@ -138,7 +138,7 @@ def test_tilted_horizontal_cylinder_wetted_area_against_crc_arc_and_segments():
                    points=kinks or None)
     ends = _crc_segment(R, depth(0.0)) + _crc_segment(R, depth(L))
     wet = tilted_levels(prep, [h], tilt, "horizontal")[2][0]
-    assert abs(wet - (wall + ends)) <= 1e-10 * (2 * math.pi * R * L)
+    assert abs(wet - (wall + ends)) <= 1e-12 * (2 * math.pi * R * L)
 
 
 def test_ungula_when_the_liquid_touches_one_end_only():
@@ -291,3 +291,61 @@ def test_inverse_refuses_volumes_outside_the_space():
     prep = _cylinder(1.0, 2.0)
     with pytest.raises(RevolveError, match="negative"):
         tilted_level_for_volume(prep, [-1.0], 2.0, "horizontal")
+
+
+@pytest.mark.parametrize("orientation", ["vertical", "horizontal"])
+@pytest.mark.parametrize("tilt", [3.0, -17.0, 40.0])
+def test_tilted_ball_holds_a_spherical_cap(orientation, tilt):
+    # published: spherical cap of depth t, V = π t² (3R − t)/3; CRC (from memory). A ball
+    # turned about its centre is the same ball, so the cap depth is the plumb depth below
+    # the surface of the ball's lowest point, R below the centre.
+    from revolve.geometry.segments import Line, arc_from_centre
+
+    R = 1.3
+    half = arc_from_centre((R, 0.0), (-R, 0.0), (0.0, 0.0), clockwise=False)
+    prep = prepare(Profile(loops=(Loop((half, Line((-R, 0.0), (R, 0.0)))),)), Axis.x())
+    a = math.radians(tilt)
+    # the gauge point: horizontal, the bottom line (w = -R) at the middle, height -R cos α;
+    # vertical, the axis at its lowest point z = -R, height -R cos α too
+    gauge_height = -R * math.cos(a)
+    levels = np.linspace(-0.5, 2.8, 12)
+    v = tilted_levels(prep, levels, tilt, orientation)[0]
+    t = np.clip(levels + gauge_height + R, 0.0, 2 * R)
+    ref = math.pi * t * t * (3 * R - t) / 3
+    assert np.max(np.abs(v - ref)) <= 1e-12 * (4 / 3 * math.pi * R ** 3)
+
+
+def test_tilted_tank_with_ellipsoidal_heads_against_scipy_dblquad():
+    # reference: scipy.integrate.dblquad over the liquid region of the bundled diesel day tank
+    # (2:1 ellipsoidal heads as curves, semi-axes 600 across and 300 along), its radius
+    # written here from the ellipse: r = 600 √(1 − (u/300)²) on each head
+    space = _space("vessel-diesel-day-tank.toml", "horizontal")
+    R, A, L = 600.0, 300.0, 2400.0
+    tilt = 1.5
+    a = math.radians(tilt)
+
+    def radius(z):
+        u = -z if z < 0 else (z - L if z > L else 0.0)
+        return R * math.sqrt(max(0.0, 1.0 - (u / A) ** 2))
+
+    def volume(h):
+        c = -R * math.cos(a) + (L / 2) * math.sin(a) + h       # gauge: bottom line, middle
+
+        def theta_top(z):
+            r = radius(z)
+            if r == 0.0:
+                return 0.0
+            w_top = (c - z * math.sin(a)) / math.cos(a)
+            return math.acos(min(1.0, max(-1.0, -w_top / r)))
+
+        total = 0.0
+        for z0, z1 in ((-A, 0.0), (0.0, L), (L, L + A)):
+            part, _ = dblquad(lambda t, z: 2.0 * radius(z) ** 2 * math.sin(t) ** 2, z0, z1,
+                              0.0, theta_top, epsabs=1e-6, epsrel=1e-13)
+            total += part
+        return total
+
+    levels = np.array([-20.0, 5.0, 300.0, 640.0, 1190.0])
+    v = tilted_levels(space.prepared, levels, tilt, "horizontal")[0]
+    ref = np.array([volume(h) for h in levels])
+    assert np.max(np.abs(v - ref)) <= 1e-12 * space.capacity
