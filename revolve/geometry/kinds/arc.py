@@ -157,15 +157,15 @@ class Arc(SegmentKind):
         a = a0 + s * d
         R = self.radius
         out = np.column_stack([self.centre[0] + R * np.cos(a), self.centre[1] + R * np.sin(a)])
-        for i, (si, ai) in enumerate(zip(s, a)):
-            if si == 0.0:
-                out[i] = self.start
-            elif si == 1.0:
-                out[i] = self.end
-            else:
-                p = self._special(float(ai))
-                if p is not None:
-                    out[i] = p
+        # the exact point at multiples of π/2 (as _special, for all parameters at once)
+        k = np.round(a / (math.pi / 2))
+        near = np.abs(a - k * (math.pi / 2)) <= 8 * sys.float_info.epsilon * np.maximum(1.0, np.abs(a))
+        if near.any():
+            cx, cy = self.centre
+            table = np.array([(cx + R, cy), (cx, cy + R), (cx - R, cy), (cx, cy - R)])
+            out[near] = table[np.mod(k[near], 4).astype(int)]
+        out[s == 1.0] = self.end
+        out[s == 0.0] = self.start
         return out
 
     def point_at(self, s: float) -> Point:
