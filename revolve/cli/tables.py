@@ -118,7 +118,7 @@ def json_text(obj: Any) -> str:
       "unit": "mm³"
     }
     """
-    from revolve.cli.common import clean_json
+    from revolve.render.output import clean_json
 
     return json.dumps(clean_json(obj), indent=2, ensure_ascii=False)
 

@@ -122,7 +122,7 @@ def test_csv_units_beside_every_figure_in_a_mixed_batch(tmp_path, capsys):
     assert code == 0, err
     rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
     assert [(r["profile_unit"], r["volume_unit"], r["mass_unit"]) for r in rows] == \
-        [("mm", "mm³", "kg"), ("in", "in³", "kg")]
+        [("mm", "mm³", "kg"), ("in", "in³", "lb")]     # inch work in inch-pound units
 
 
 def test_pool_and_serial_give_the_same_output(tmp_path, capsys):

@@ -226,8 +226,24 @@ def test_csv_matches_json(tmp_path, capsys):
     assert code == 0
     d = json.loads(out)
     rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
-    vol = [r for r in rows if r["table"] == "results" and r["quantity"].startswith("volume")]
-    assert vol and math.isclose(float(vol[0]["value"]), d["volume"], rel_tol=1e-15)
+    assert len(rows) == 1                      # one row: every figure, its unit in its heading
+    assert math.isclose(float(rows[0]["volume (mm³)"]), d["volume"], rel_tol=1e-15)
+    assert math.isclose(float(rows[0]["volume, second method (mm³)"]),
+                        d["crosscheck"]["volume"], rel_tol=1e-15)
+    assert rows[0]["mass (kg)"] if "mass" in d else "mass (kg)" not in rows[0]
+
+
+def test_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    f = write(tmp_path, "sq.toml", SQUARE)
+    out_csv = tmp_path / "m.csv"
+    out_csv.write_text("keep me\n", encoding="utf-8")
+    code, out, err = run(["measure", f, "--csv", str(out_csv)], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --csv: ") and "--force" in err, err
+    assert out_csv.read_text(encoding="utf-8") == "keep me\n"
+    code, out, err = run(["measure", f, "--csv", str(out_csv), "--force"], capsys)
+    assert code == 0, err
+    assert out_csv.read_text(encoding="utf-8").startswith("section area (mm²),")
 
 
 def test_csv_not_written_on_bad_input(tmp_path, capsys):
