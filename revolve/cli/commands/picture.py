@@ -62,7 +62,9 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
                 finest=meshing.FINEST_PICTURE_TOLERANCE,
                 why="a picture needs no finer chord tolerance (revolve mesh makes finer meshes)")
         data, mesh = pictures.solid_picture(rev, m, output, tolerance=tol, **drawing)
-        detail = f"3-D, {len(mesh.triangles):,} triangles".replace(",", "\u202f")
+        from revolve.render.numbers import group_digits
+
+        detail = f"3-D, {group_digits(str(len(mesh.triangles)))} triangles"
     else:
         data = pictures.profile_picture(rev, m, output, **drawing)
         detail = "profile"
