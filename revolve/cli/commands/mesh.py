@@ -50,7 +50,7 @@ def register(app: typer.Typer) -> None:
     def mesh_command(
         profile: str = typer.Argument(..., help="Profile file (.toml or a plain list of x,y "
                                                 "points)."),
-        output: str = options.output_option("The STL file to write (.stl)."),
+        output: str = typer.Option(..., "--output", "-o", help="The STL file to write (.stl)."),
         chord: Optional[Any] = options.chord_tolerance_option(),
         axis: Optional[Any] = options.axis_option(),
         angle: Optional[float] = options.angle_option(),
@@ -67,10 +67,6 @@ def register(app: typer.Typer) -> None:
         no finer than 1e-6 of it (an STL keeps about 7 significant digits); a
         bare number is in the STL's length unit.
         """
-        if output is None:
-            from revolve.errors import RevolveError
-
-            raise RevolveError("give the STL file to write", option="--output")
         code = run_mesh(profile, output, chord, axis, angle, units, length_unit, as_json,
                         csv_path, force)
         if code:

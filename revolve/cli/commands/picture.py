@@ -84,7 +84,7 @@ def register(app: typer.Typer) -> None:
     def picture_command(
         profile: str = typer.Argument(..., help="Profile file (.toml or a plain list of x,y "
                                                 "points)."),
-        output: str = options.output_option("Picture to write: .png or .svg."),
+        output: str = typer.Option(..., "--output", "-o", help="Picture to write: .png or .svg."),
         solid: bool = typer.Option(False, "--3d", help="Draw the revolved solid in 3-D instead "
                                                        "of the profile."),
         axis: Optional[Any] = options.axis_option(),
@@ -110,10 +110,6 @@ def register(app: typer.Typer) -> None:
         With --3d, --chord-tolerance sets the mesh drawn (at least 1/2000 of the
         part's size; default: chosen for the picture).
         """
-        if output is None:
-            from revolve.errors import RevolveError
-
-            raise RevolveError("give the picture file to write (.png or .svg)", option="--output")
         code = run_picture(profile, output, solid, axis, angle, units, material, density, width,
                            height, dpi, chord, length_unit, area_unit, volume_unit, mass_unit,
                            force)
