@@ -11,9 +11,16 @@ both call the functions here, so the library's ``to_dict()`` and the command's
   :func:`file_density`, :func:`resolve_density`: densities, always in kg/m³; a
   bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities
   carry their unit;
-* :func:`output_units`: output units and factors from the profile's unit;
+* :func:`part_units`: the output units of a part (the ``part`` trade's
+  defaults of :func:`revolve.jobs.results.trade_units`, then the options);
 * :func:`measure_document`, :func:`measurement_dict`, :func:`part_json`;
-* :func:`measure` and :class:`MeasureResult`: the library's entry point.
+* :func:`measure_result` and :class:`MeasureResult` (a
+  :class:`~revolve.jobs.results.Result`: the figures and cross-check tables
+  for the renderer, the ``measure --json`` object from :meth:`~MeasureResult.to_dict`);
+* :func:`measure`: the library's entry point.
+
+(:class:`OutputUnits` and :func:`output_units` are the old unit factors,
+still read by ``vessel`` and ``levels`` until they are on the shared core.)
 
 Examples
 --------
@@ -211,7 +218,11 @@ def resolve_density(material: Optional[str], density: Optional[str], doc=None):
 
 @dataclass(frozen=True)
 class OutputUnits:
-    """Units for output and the factors from the profile's length unit (or SI for mass)."""
+    """Units for output and the factors from the profile's length unit (or SI for mass).
+
+    The old form, read by ``vessel`` and ``levels`` until they use
+    :class:`revolve.jobs.results.OutputUnits`; measuring uses :func:`part_units`.
+    """
 
     length: str
     area: str

@@ -1,4 +1,4 @@
-"""`revolve mesh` end to end, and the CSV/JSON writers of result tables (revolve.cli.tables).
+"""`revolve mesh` end to end, and the CSV and JSON of its results (revolve.render.output).
 
 References, named beside each check:
 
