@@ -730,7 +730,7 @@ def _figure_tables(part, u, tolerance: float, exact_out) -> Tuple[Any, Any]:
         add("radius_of_gyration", "radius of gyration", "length", s["radius_of_gyration"])
     name = doc.name or doc.file or "profile"
     title = (f"{name}\nrevolved {float(rev.angle_degrees):g}° about {axis_text(rev.axis)}; "
-             f"profile in {doc.profile.unit}")
+             f"drawing unit {doc.profile.unit}")
     figures = Table("figures", title, tuple(fields), (row,), figures=True)
     c = m.crosscheck
     if c is None:
@@ -853,8 +853,8 @@ def measure_result(part: PartMeasurement, units=None, *, tolerance: float = DEFA
     if units is None:
         units = part_units(doc.profile.unit)
     figures, check = _figure_tables(part, units, tolerance, exact_out)
-    notes = ["Pappus–Guldinus: volume = θ · d · A, surface = θ · d_L · L; the cross-check slices "
-             "the solid into washers and integrates r ds along the boundary."]
+    notes = ["volume = θ·d·A, surface = θ·d_L·L (Pappus–Guldinus); the cross-check slices "
+             "washers and integrates r ds."]
     if exact_out and exact_out.get("note"):
         notes.append(f"exact: {exact_out['note']}")
     notes += [f"note: {n}" for n in m.notes]
