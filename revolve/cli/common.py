@@ -41,15 +41,9 @@ def load(path: str, unit: Optional[str] = None, exact: bool = False):
     ...
     revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
     """
-    from revolve import units
-    from revolve.formats import load_profile
+    from revolve.jobs.measuring import load_with_unit
 
-    if unit is not None:
-        try:
-            units.factor(unit, "length")
-        except UnitError as e:
-            raise e.located(option="--units")
-    return load_profile(path, unit=unit, exact=exact)
+    return load_with_unit(path, unit, exact=exact)
 
 
 def revolution_from_options(profile: str, axis: Any, angle: Optional[float],
@@ -116,7 +110,7 @@ def check_output(path: str, endings: tuple, what: str, option: Optional[str] = "
 # module, see _MOVED); delete each one when no module of revolve/ names it any more.
 
 #: Names that moved to the jobs layer, still found here by the commands not yet converted.
-_MOVED = ("CAUTIONS", "material_or_density", "output_units", "parse_axis", "resolve_density")
+_MOVED = ("CAUTIONS", "material_or_density", "output_units", "parse_axis")
 
 
 def __getattr__(name: str):

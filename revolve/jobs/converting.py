@@ -79,9 +79,9 @@ def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=No
                         tolerance=gap_tolerance, open_chains=open_chains,
                         keep_strays=keep_strays)
     _reject("--keep-strays", keep_strays, "drawings (SVG, DXF)")
-    from revolve.cli.common import load
+    from revolve.jobs.measuring import load_with_unit
 
-    doc = load(drawing, unit=units)
+    doc = load_with_unit(drawing, units)
     profile = doc.profile
     paths = profile.paths
     loops, chains = summarise_paths(profile, ["the file"] * len(paths),

@@ -8,7 +8,7 @@ both call the functions here, so the library's ``to_dict()`` and the command's
 * :func:`parse_axis`, :func:`revolution_for`: the axis and angle rule (the
   given value, else the file's, else the sketch x axis and 360°);
 * :func:`parse_density`, :func:`density_value`, :func:`material_or_density`,
-  :func:`file_density`, :func:`resolve_density`: densities, always in kg/m³; a
+  :func:`file_density`: densities, always in kg/m³; a
   bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities
   carry their unit;
 * :func:`part_units`: the output units of a part (the ``part`` trade's
@@ -199,21 +199,24 @@ def material_or_density(material: Optional[str], density: Optional[str], *,
     return None, None, None
 
 
-def resolve_density(material: Optional[str], density: Optional[str], doc=None):
-    """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
+def load_with_unit(path: str, unit: Optional[str] = None, *, exact: bool = False,
+                   option: str = "--units"):
+    """Read a profile file; ``unit`` is the length unit of files that do not say (``--units``).
 
-    A bare number in ``--density`` is taken as kg/m³ (:func:`parse_density`);
-    the file's ``density`` carries its unit.
-
-    >>> resolve_density(None, "7850")
-    (7850.0, '7850 kg/m³ (given)')
-    >>> resolve_density(None, None)
-    (None, None)
+    >>> load_with_unit("p.txt", "gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
     """
-    if material is None and density is None and doc is not None:
-        return file_density(doc)
-    d, label, _ = material_or_density(material, density)
-    return d, label
+    from revolve import units as registry
+    from revolve.formats import load_profile
+
+    if unit is not None:
+        try:
+            registry.factor(unit, "length")
+        except UnitError as e:
+            raise e.located(option=option)
+    return load_profile(path, unit=unit, exact=exact)
 
 
 @dataclass(frozen=True)
@@ -887,16 +890,7 @@ def as_document(profile_or_path, units: Optional[str] = None):
     from revolve.geometry.profile import Profile
 
     if isinstance(profile_or_path, (str, os.PathLike)):
-        from revolve.formats import load_profile
-
-        if units is not None:
-            from revolve import units as registry
-
-            try:
-                registry.factor(units, "length")
-            except UnitError as e:
-                raise e.located(option="units")
-        return load_profile(os.fspath(profile_or_path), unit=units)
+        return load_with_unit(os.fspath(profile_or_path), units, option="units")
     if isinstance(profile_or_path, ProfileDocument):
         return profile_or_path
     if isinstance(profile_or_path, Profile):
