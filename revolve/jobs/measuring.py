@@ -701,30 +701,34 @@ def _figure_tables(part, u, tolerance: float, exact_out) -> Tuple[Any, Any]:
             fields.append(Field(key, label, role, style))
             row[key] = value
 
+    add("revolution", "revolved", None, f"{float(rev.angle_degrees):g}° about "
+        f"{axis_text(rev.axis)}", "text")
+    add("drawing_unit", "drawing unit", None, doc.profile.unit, "text")
     if m.has_solid:
         add("area", "section area", "area", s["area"])
         add("centroid", "section centroid (x, y)", "length", s["centroid"])
-        add("centroid_distance", "  distance from the axis", "length", s["centroid_distance"])
+        add("centroid_distance", "section centroid, distance from the axis", "length",
+            s["centroid_distance"])
         add("perimeter", "section perimeter", "length", s["perimeter"])
     add("boundary_length", "boundary length", "length", s["boundary_length"])
     add("boundary_centroid", "boundary centroid (x, y)", "length", s["boundary_centroid"])
-    add("boundary_centroid_distance", "  distance from the axis", "length",
+    add("boundary_centroid_distance", "boundary centroid, distance from the axis", "length",
         s["boundary_centroid_distance"])
     exact_out = exact_out or {}
     if m.has_solid:
         add("volume", "volume", "volume", s["volume"])
-        add("exact_volume", "  exact" + _exact_unit(exact_out, doc), None,
+        add("exact_volume", "volume, exact" + _exact_unit(exact_out, doc), None,
             exact_out.get("volume"), "text")
     for face, value in s["surface_by_face"].items():
         add(f"surface: {face}", f"surface: {face}", "area", value)
     add("surface_area", "surface, swept total", "area", s["surface_area"])
-    add("exact_surface_area", "  exact" + _exact_unit(exact_out, doc, 2), None,
+    add("exact_surface_area", "surface, exact" + _exact_unit(exact_out, doc, 2), None,
         exact_out.get("surface_area"), "text")
     add("cut_face_area", "cut faces (two flat ends, each)", "area", s["cut_face_area"])
     add("centre_of_mass_axial", "centre of mass along the axis", "length",
         s["centre_of_mass_axial"])
     if m.centre_of_mass_offset:
-        add("centre_of_mass_offset", "  its distance from the axis", "length",
+        add("centre_of_mass_offset", "centre of mass, distance from the axis", "length",
             s["centre_of_mass_offset"])
     if m.mass is not None:
         add("density", "density", "density", s["density"])
@@ -732,9 +736,7 @@ def _figure_tables(part, u, tolerance: float, exact_out) -> Tuple[Any, Any]:
         add("inertia_axis", "moment of inertia about the axis", "mass·length²", s["inertia_axis"])
         add("radius_of_gyration", "radius of gyration", "length", s["radius_of_gyration"])
     name = doc.name or doc.file or "profile"
-    title = (f"{name}\nrevolved {float(rev.angle_degrees):g}° about {axis_text(rev.axis)}; "
-             f"drawing unit {doc.profile.unit}")
-    figures = Table("figures", title, tuple(fields), (row,), figures=True)
+    figures = Table("figures", name, tuple(fields), (row,), figures=True)
     c = m.crosscheck
     if c is None:
         return figures, None

@@ -234,6 +234,8 @@ def test_csv_matches_json(tmp_path, capsys):
 
 
 def test_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    import csv
+
     f = write(tmp_path, "sq.toml", SQUARE)
     out_csv = tmp_path / "m.csv"
     out_csv.write_text("keep me\n", encoding="utf-8")
@@ -243,7 +245,9 @@ def test_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, ca
     assert out_csv.read_text(encoding="utf-8") == "keep me\n"
     code, out, err = run(["measure", f, "--csv", str(out_csv), "--force"], capsys)
     assert code == 0, err
-    assert out_csv.read_text(encoding="utf-8").startswith("section area (mm²),")
+    header = next(csv.reader(out_csv.open(encoding="utf-8")))
+    assert header[:3] == ["revolved", "drawing unit", "section area (mm²)"]
+    assert len(set(header)) == len(header)          # every column named once
 
 
 def test_csv_not_written_on_bad_input(tmp_path, capsys):
