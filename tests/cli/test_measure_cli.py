@@ -305,3 +305,20 @@ def test_units_option_is_named(tmp_path, capsys):
     code, out, err = run(["measure", f, "--units", "gallon"], capsys)
     assert code == 2 and err.startswith(
         "revolve: error: --units: 'gallon' is a volume unit, not a length unit"), err
+
+
+def test_tables_show_six_significant_figures_and_units_with_superscripts(tmp_path, capsys):
+    # Hollow cylinder π (3² − 1²) · 2 = 16π = 50.2655 mm³ to six significant figures (CRC, from
+    # memory); in m³ the same volume is 5.02655e-08; units print with superscripts, never ^.
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, err = run(["measure", f], capsys)
+    assert code == 0, err
+    volume = [line for line in out.splitlines() if line.startswith("volume  ")]
+    assert volume and "50.2655 │ mm³" in volume[0], out
+    assert "^" not in out and "mm²" in out
+    code, out, err = run(["measure", f, "--volume-unit", "m^3", "--mass-unit", "g",
+                          "--density", "7850"], capsys)
+    assert code == 0, err
+    assert "5.02655e-08 │ m³" in out and "^" not in out
+    # 7850 kg/m³ × 16π mm³ = 0.394584 g (six significant figures)
+    assert "0.394584 │ g" in out, out
