@@ -13,7 +13,7 @@ import numpy as np
 import pytest
 
 import revolve
-from revolve.cli.common import clean_json
+from revolve.render.output import clean_json
 
 ROOT = Path(__file__).resolve().parents[1]
 PYTHON = sys.executable
@@ -97,7 +97,10 @@ def test_density_with_units_gives_the_mass_in_kg():
     assert r.mass == pytest.approx(2700 * volume_m3, rel=1e-12)
     # The same part drawn in inches, density in lb/in³: mass = ρ V with 1 lb = 0.45359237 kg.
     r = revolve.measure(_tube(1, 2, 3, unit="in"), density="0.3 lb/in^3")
-    assert r.mass == pytest.approx(0.3 * math.pi * (4 - 1) * 3 * 0.45359237, rel=1e-12)
+    assert r.measurement.mass == pytest.approx(0.3 * math.pi * (4 - 1) * 3 * 0.45359237, rel=1e-12)
+    # An inch drawing is shown in inch-pound units (README, "Units"): the same mass in lb.
+    assert r.units["mass"] == "lb" and r.to_dict()["units"]["mass"] == "lb"
+    assert r.mass == pytest.approx(0.3 * math.pi * (4 - 1) * 3, rel=1e-12)
 
 
 def test_a_pint_quantity_is_a_density():
@@ -114,7 +117,7 @@ def test_a_bare_number_is_kg_per_cubic_metre_whatever_the_profile_unit():
     # The documented rule (README, "--density"): a bare number is kg/m³, in mm and in inch profiles.
     for unit, metre in (("mm", 1e-3), ("in", 0.0254)):
         r = revolve.measure(_tube(20, 30, 50, unit=unit), density=7850)
-        assert r.mass == pytest.approx(7850 * math.pi * (30 ** 2 - 20 ** 2) * 50 * metre ** 3,
+        assert r.measurement.mass == pytest.approx(7850 * math.pi * (30 ** 2 - 20 ** 2) * 50 * metre ** 3,
                                        rel=1e-12)
         assert r.to_dict()["density_kg_m3"] == pytest.approx(7850)
 
@@ -140,7 +143,7 @@ def test_other_bad_input_is_refused_in_one_line(tmp_path):
     for call, pattern in (
             (lambda: revolve.measure(3), r"give a file name, a Profile or a Revolution"),
             (lambda: revolve.measure(_tube(1, 2, 3), axis="1,2"), r"^axis: give x, y or four"),
-            (lambda: revolve.measure(_tube(1, 2, 3), angle=400), r"^--angle: the revolution angle"),
+            (lambda: revolve.measure(_tube(1, 2, 3), angle=400), r"^angle: the revolution angle"),
             (lambda: revolve.measure(_tube(1, 2, 3), material="unobtainium"), r"^material: unknown"),
             (lambda: revolve.measure(_tube(1, 2, 3), density=1, material="steel"), r"not both"),
             (lambda: revolve.measure(str(tmp_path / "gone.toml")), r"gone.toml: no such file"),
@@ -188,7 +191,7 @@ def test_result_repr_and_html_say_their_units():
     assert re.fullmatch(r"<MeasureResult tube: volume=\S+ mm³, surface_area=\S+ mm², mass=\S+ kg>",
                         repr(r))
     page = r._repr_html_()
-    assert page.startswith("<table>") and "mm³" in page and "kg" in page and "<td>mass</td>" in page
+    assert page.startswith("<table>") and "mm³" in page and "kg" in page and "<th>mass</th>" in page
 
 
 # -- the public face ------------------------------------------------------------------------------

@@ -8,12 +8,19 @@ both call the functions here, so the library's ``to_dict()`` and the command's
 * :func:`parse_axis`, :func:`revolution_for`: the axis and angle rule (the
   given value, else the file's, else the sketch x axis and 360°);
 * :func:`parse_density`, :func:`density_value`, :func:`material_or_density`,
-  :func:`file_density`, :func:`resolve_density`: densities, always in kg/m³; a
+  :func:`file_density`: densities, always in kg/m³; a
   bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities
   carry their unit;
-* :func:`output_units`: output units and factors from the profile's unit;
+* :func:`part_units`: the output units of a part (the ``part`` trade's
+  defaults of :func:`revolve.jobs.results.trade_units`, then the options);
 * :func:`measure_document`, :func:`measurement_dict`, :func:`part_json`;
-* :func:`measure` and :class:`MeasureResult`: the library's entry point.
+* :func:`measure_result` and :class:`MeasureResult` (a
+  :class:`~revolve.jobs.results.Result`: the figures and cross-check tables
+  for the renderer, the ``measure --json`` object from :meth:`~MeasureResult.to_dict`);
+* :func:`measure`: the library's entry point.
+
+(:class:`OutputUnits` and :func:`output_units` are the old unit factors,
+still read by ``vessel`` and ``levels`` until they are on the shared core.)
 
 Examples
 --------
@@ -33,10 +40,11 @@ import os
 import re
 from dataclasses import dataclass
 from fractions import Fraction
-from typing import Any, Dict, Optional
+from typing import Any, Dict, Optional, Tuple
 
 from revolve.errors import RevolveError, UnitError, quoted
 from revolve.geometry.profile import Axis, Revolution
+from revolve.jobs.results import Result
 
 #: Relative tolerance of the cross-check unless told otherwise (``--tolerance``).
 DEFAULT_TOLERANCE = 1e-9
@@ -191,26 +199,33 @@ def material_or_density(material: Optional[str], density: Optional[str], *,
     return None, None, None
 
 
-def resolve_density(material: Optional[str], density: Optional[str], doc=None):
-    """Density in kg/m³ and a label, from options first, else the file; (None, None) if none.
+def load_with_unit(path: str, unit: Optional[str] = None, *, exact: bool = False,
+                   option: str = "--units"):
+    """Read a profile file; ``unit`` is the length unit of files that do not say (``--units``).
 
-    A bare number in ``--density`` is taken as kg/m³ (:func:`parse_density`);
-    the file's ``density`` carries its unit.
-
-    >>> resolve_density(None, "7850")
-    (7850.0, '7850 kg/m³ (given)')
-    >>> resolve_density(None, None)
-    (None, None)
+    >>> load_with_unit("p.txt", "gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --units: 'gallon' is a volume unit, not a length unit
     """
-    if material is None and density is None and doc is not None:
-        return file_density(doc)
-    d, label, _ = material_or_density(material, density)
-    return d, label
+    from revolve import units as registry
+    from revolve.formats import load_profile
+
+    if unit is not None:
+        try:
+            registry.factor(unit, "length")
+        except UnitError as e:
+            raise e.located(option=option)
+    return load_profile(path, unit=unit, exact=exact)
 
 
 @dataclass(frozen=True)
 class OutputUnits:
-    """Units for output and the factors from the profile's length unit (or SI for mass)."""
+    """Units for output and the factors from the profile's length unit (or SI for mass).
+
+    The old form, read by ``vessel`` and ``levels`` until they use
+    :class:`revolve.jobs.results.OutputUnits`; measuring uses :func:`part_units`.
+    """
 
     length: str
     area: str
@@ -356,11 +371,13 @@ def x_axis() -> Axis:
     return Axis((0.0, 0.0), (1.0, 0.0), exact=X_AXIS_EXACT)
 
 
-def revolution_for(doc, axis: Optional[Axis] = None, angle: Optional[float] = None) -> Revolution:
+def revolution_for(doc, axis: Optional[Axis] = None, angle: Optional[float] = None, *,
+                   angle_option: str = "--angle") -> Revolution:
     """The revolution of a document: the given axis and angle, else the file's, else x and 360°.
 
     This is the one rule for every command and the library. An angle that
-    is refused names ``--angle`` when it was given, else the file's line.
+    is refused names ``angle_option`` when it was given (``--angle`` on the
+    command line, ``angle`` in the library), else the file's line.
 
     Examples
     --------
@@ -384,7 +401,7 @@ def revolution_for(doc, axis: Optional[Axis] = None, angle: Optional[float] = No
         given = angle is not None
         raise e.located(file=None if given else doc.file,
                         line=None if given else doc.line_of("angle"),
-                        place="--angle" if given else "angle")
+                        place=angle_option if given else "angle")
 
 
 @dataclass(frozen=True)
@@ -405,7 +422,8 @@ class PartMeasurement:
 
 def measure_document(doc, *, axis: Optional[Axis] = None, angle: Optional[float] = None,
                      density: Optional[float] = None,
-                     density_label: Optional[str] = None) -> PartMeasurement:
+                     density_label: Optional[str] = None,
+                     angle_option: str = "--angle") -> PartMeasurement:
     """Measure a document's revolution (:func:`revolution_for`) with a density in kg/m³.
 
     Without a density, the file's ``material`` or ``density`` is used
@@ -428,7 +446,7 @@ def measure_document(doc, *, axis: Optional[Axis] = None, angle: Optional[float]
     from revolve import units
     from revolve.geometry.measure import measure as measure_revolution
 
-    rev = revolution_for(doc, axis, angle)
+    rev = revolution_for(doc, axis, angle, angle_option=angle_option)
     if density is None:
         density, density_label = file_density(doc)
     si = units.factor(doc.profile.unit, "length")
@@ -455,19 +473,69 @@ def shown_faces(m):
             if not (k == UNNAMED_FACE and v == 0.0 and len(m.surface_by_face) > 1)}
 
 
-def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT_TOLERANCE):
+#: The option of each output unit role (errors name it).
+UNIT_OPTIONS = {"length": "--length-unit", "area": "--area-unit", "volume": "--volume-unit",
+                "mass": "--mass-unit"}
+
+
+def part_units(profile_unit: str, length: Optional[str] = None, area: Optional[str] = None,
+               volume: Optional[str] = None, mass: Optional[str] = None):
+    """The output units of a measured part: the trade defaults of ``part``, then the user's.
+
+    A part is shown in its drawing's unit (its square and cube) and kg — lb
+    for an inch or foot drawing (:func:`revolve.jobs.results.trade_units`).
+    A length unit given alone also sets the area and volume units (its
+    square and cube). A refused unit names its option.
+
+    >>> u = part_units("mm", volume="L")
+    >>> u.unit("area"), u.unit("volume"), u.unit("mass·length²")
+    ('mm²', 'L', 'kg·mm²')
+    >>> part_units("mm", length="in").unit("area"), part_units("in").unit("mass")
+    ('in²', 'lb')
+    >>> part_units("mm", volume="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --volume-unit: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
+    >>> part_units("mm", length="kg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --length-unit: 'kg' is a mass unit, not a length unit
+    """
+    from revolve.jobs.results import trade_units
+
+    overrides = {"length": length, "area": area, "volume": volume, "mass": mass}
+    if length is not None:
+        from revolve import units as registry
+
+        try:
+            shown = registry.canonical(length, "length")
+        except UnitError as e:
+            raise e.located(option=UNIT_OPTIONS["length"])
+        overrides["area"] = area if area is not None else f"{shown}²"
+        overrides["volume"] = volume if volume is not None else f"{shown}³"
+    return trade_units("part", profile_unit, overrides, options=UNIT_OPTIONS)
+
+
+def _units_json(u) -> Dict[str, str]:
+    return {"length": u.unit("length"), "area": u.unit("area"), "volume": u.unit("volume"),
+            "mass": u.unit("mass"), "inertia": u.unit("mass·length²")}
+
+
+def measurement_dict(m, u, *, density_label=None, tolerance=DEFAULT_TOLERANCE, si: float = 1e-3):
     """The JSON form of a measurement, in the output units (see README, "JSON keys").
 
     Parameters
     ----------
     m : Measurement
         The engine's measurement (profile units, mass in kg).
-    u : OutputUnits
-        Units to give the figures in (:func:`output_units`).
+    u : revolve.jobs.results.OutputUnits
+        Units to give the figures in (:func:`part_units`).
     density_label : str, optional
         Where the density came from (shown as ``density``).
     tolerance : float
         Relative tolerance the cross-check is judged by.
+    si : float
+        Metres per profile unit.
 
     Returns
     -------
@@ -480,25 +548,72 @@ def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT
     >>> from revolve.geometry.measure import measure
     >>> from revolve.geometry.profile import Axis, Chain, Loop, Profile, Revolution
     >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),))
-    >>> d = measurement_dict(measure(Revolution(ring, Axis.x())), output_units("mm", volume="L"))
+    >>> d = measurement_dict(measure(Revolution(ring, Axis.x())), part_units("mm", volume="L"))
     >>> round(d["volume"], 10), d["units"]["volume"], "mass" in d       # 16π mm³ in litres
     (5.02655e-05, 'L', False)
     >>> sheet = Profile(chains=(Chain.from_points([(0, 1), (2, 1)]),))     # a surface only
-    >>> d = measurement_dict(measure(Revolution(sheet, Axis.x())), output_units("mm"))
+    >>> d = measurement_dict(measure(Revolution(sheet, Axis.x())), part_units("mm"))
     >>> d["volume"], d["centroid"], round(d["surface_area"], 6)          # 2π · 1 · 2
     (0.0, None, 12.566371)
     """
-    L, A, V, M = u.length_factor, u.area_factor, u.volume_factor, u.mass_factor
-    sec = m.section
+    s = _si_figures(m, si)
     out = {
-        "units": {"length": u.length, "area": u.area, "volume": u.volume, "mass": u.mass,
-                  "inertia": u.inertia_unit()},
+        "units": _units_json(u),
         "angle_degrees": float(m.revolution.angle_degrees),
-        "axis": {"point": [float(v) * L for v in m.revolution.axis.point],
+        "axis": {"point": [u.show(v * si, "length") for v in m.revolution.axis.point],
                  "direction": list(m.revolution.axis.unit_direction())},
+    }
+    for key, role in _JSON_ROLES:
+        out[key] = _shown(u, s[key], role)
+    out["error_estimate"] = {"volume": u.show(s["error_estimate"]["volume"], "volume"),
+                             "surface_area": u.show(s["error_estimate"]["surface_area"], "area")}
+    out["methods"] = sorted(set(m.section.methods))
+    if m.mass is not None:
+        out["density_kg_m3"] = m.density / si ** 3
+        out["density"] = density_label
+        for key, role in (("mass", "mass"), ("inertia_axis", "mass·length²"),
+                          ("radius_of_gyration", "length")):
+            out[key] = u.show(s[key], role)
+    if m.crosscheck is not None:
+        c = m.crosscheck
+        out["crosscheck"] = {
+            "method": {"volume": "washers: slices perpendicular to the axis, Gauss–Legendre",
+                       "surface_area": "quadrature of r ds along each segment"},
+            "volume": u.show(c.volume * si ** 3, "volume"),
+            "surface_area": u.show(c.surface_area * si ** 2, "area"),
+            "volume_difference": c.volume_difference, "surface_difference": c.surface_difference,
+            "tolerance": tolerance, "agrees": c.agrees(tolerance),
+        }
+    return out
+
+
+# JSON key -> role, in the order of the README's "JSON keys" (after units, angle and axis).
+_JSON_ROLES = (("area", "area"), ("centroid", "length"), ("centroid_distance", "length"),
+               ("perimeter", "length"), ("boundary_length", "length"),
+               ("boundary_centroid", "length"), ("boundary_centroid_distance", "length"),
+               ("volume", "volume"), ("surface_area", "area"), ("surface_by_face", "area"),
+               ("cut_face_area", "area"), ("centre_of_mass_axial", "length"),
+               ("centre_of_mass_offset", "length"))
+
+
+def _shown(u, value, role):
+    if isinstance(value, dict):
+        return {k: u.show(v, role) for k, v in value.items()}
+    return u.show(value, role)
+
+
+def _si_figures(m, si: float) -> Dict[str, Any]:
+    """The measurement's figures in SI (m, m², m³, kg, kg·m²); None where they do not apply."""
+    L, A, V = si, si ** 2, si ** 3
+    solid = m.has_solid
+
+    def opt(v, f):
+        return None if v is None else v * f
+
+    out = {
         "area": m.area * A,
-        "centroid": [m.centroid[0] * L, m.centroid[1] * L] if m.has_solid else None,
-        "centroid_distance": m.centroid_distance * L if m.has_solid else None,
+        "centroid": [m.centroid[0] * L, m.centroid[1] * L] if solid else None,
+        "centroid_distance": m.centroid_distance * L if solid else None,
         "perimeter": m.perimeter * L,
         "boundary_length": m.boundary_length * L,
         "boundary_centroid": [m.boundary_centroid[0] * L, m.boundary_centroid[1] * L],
@@ -506,33 +621,20 @@ def measurement_dict(m, u: OutputUnits, *, density_label=None, tolerance=DEFAULT
         "volume": m.volume * V,
         "surface_area": m.surface_total * A,
         "surface_by_face": {k: v * A for k, v in shown_faces(m).items()},
-        "cut_face_area": None if m.cut_face_area is None else m.cut_face_area * A,
-        "centre_of_mass_axial": None if m.centre_of_mass_axial is None else m.centre_of_mass_axial * L,
-        "centre_of_mass_offset": None if m.centre_of_mass_offset is None else m.centre_of_mass_offset * L,
+        "cut_face_area": opt(m.cut_face_area, A),
+        "centre_of_mass_axial": opt(m.centre_of_mass_axial, L),
+        "centre_of_mass_offset": opt(m.centre_of_mass_offset, L),
         "error_estimate": {"volume": m.volume_error * V, "surface_area": m.surface_error * A},
-        "methods": sorted(set(sec.methods)),
+        "crosscheck_volume": None if m.crosscheck is None else m.crosscheck.volume * V,
+        "crosscheck_surface_area": None if m.crosscheck is None else m.crosscheck.surface_area * A,
     }
     if m.mass is not None:
-        out["density_kg_m3"] = m.density / u.si_length ** 3
-        out["density"] = density_label
-        out["mass"] = m.mass * M
-        # inertia: kg·(profile unit)² -> mass unit·(length unit)²
-        out["inertia_axis"] = m.inertia_axis * M * L * L
-        out["radius_of_gyration"] = m.radius_of_gyration * L
-    if m.crosscheck is not None:
-        c = m.crosscheck
-        out["crosscheck"] = {
-            "method": {"volume": "washers: slices perpendicular to the axis, Gauss–Legendre",
-                       "surface_area": "quadrature of r ds along each segment"},
-            "volume": c.volume * V, "surface_area": c.surface_area * A,
-            "volume_difference": c.volume_difference, "surface_difference": c.surface_difference,
-            "tolerance": tolerance, "agrees": c.agrees(tolerance),
-        }
+        out.update(mass=m.mass, inertia_axis=m.inertia_axis * A, density=m.density / V,
+                   radius_of_gyration=m.radius_of_gyration * L)
     return out
 
 
-def part_json(part, u: OutputUnits, tolerance: float = DEFAULT_TOLERANCE,
-              exact_out=None) -> dict:
+def part_json(part, u, tolerance: float = DEFAULT_TOLERANCE, exact_out=None) -> dict:
     """The object ``revolve measure --json`` prints for one measured part (a :class:`PartMeasurement`).
 
     :func:`measurement_dict` plus ``profile`` (file, name, unit), ``exact``
@@ -544,34 +646,135 @@ def part_json(part, u: OutputUnits, tolerance: float = DEFAULT_TOLERANCE,
     >>> from revolve.geometry.profile import Loop, Profile
     >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (0, 2)]),),
     ...                               name="cone ring"))
-    >>> d = part_json(measure_document(doc), output_units("mm"))
+    >>> d = part_json(measure_document(doc), part_units("mm"))
     >>> d["profile"], d["cautions"]
     ({'file': None, 'name': 'cone ring', 'unit': 'mm'}, [])
-    >>> len(part_json(measure_document(doc, density=1000.0), output_units("mm"))["cautions"])
+    >>> len(part_json(measure_document(doc, density=1000.0), part_units("mm"))["cautions"])
     1
     """
+    from revolve import units
+
     m, doc = part.measurement, part.document
-    out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance)
+    si = units.factor(doc.profile.unit, "length")
+    out = measurement_dict(m, u, density_label=part.density_label, tolerance=tolerance, si=si)
     out["profile"] = {"file": doc.file, "name": doc.name, "unit": doc.profile.unit}
     if exact_out is not None:
         out["exact"] = exact_out
-    cautions = ["lifting"] if m.mass is not None else []
-    out["cautions"] = [CAUTIONS[k] for k in cautions]
+    out["cautions"] = [CAUTIONS[k] for k in _cautions(m)]
     return out
 
 
-# -- the library's entry point ---------------------------------------------------------------
+def _cautions(m) -> Tuple[str, ...]:
+    return ("lifting",) if m.mass is not None else ()
 
 
-@dataclass(frozen=True)
-class MeasureResult:
+# -- the result: tables for people, the JSON above for programs --------------------------------
+
+
+def axis_text(axis) -> str:
+    """How a table title names the axis.
+
+    >>> axis_text(Axis((0.0, 0.0), (0.0, 1.0))), axis_text(Axis((0.0, 2.5), (1.0, 1.0)))
+    ('the sketch y axis', 'the axis through (0, 2.5) along (0.707107, 0.707107)')
+    """
+    from revolve.render.numbers import number
+
+    d = axis.unit_direction()
+    p = tuple(axis.point)
+    if p == (0.0, 0.0) and d in ((1.0, 0.0), (0.0, 1.0)):
+        return f"the sketch {'x' if d == (1.0, 0.0) else 'y'} axis"
+    return (f"the axis through ({number(p[0])}, {number(p[1])}) "
+            f"along ({number(d[0])}, {number(d[1])})")
+
+
+def _figure_tables(part, u, tolerance: float, exact_out) -> Tuple[Any, Any]:
+    """The figures table and the cross-check table of a measured part (values in SI)."""
+    from revolve import units
+    from revolve.jobs.results import Field, Table
+
+    m, doc, rev = part.measurement, part.document, part.revolution
+    s = _si_figures(m, units.factor(doc.profile.unit, "length"))
+    fields, row = [], {}
+
+    def add(key, label, role, value, style="number"):
+        if value is not None:
+            fields.append(Field(key, label, role, style))
+            row[key] = value
+
+    add("revolution", "revolved", None, f"{float(rev.angle_degrees):g}° about "
+        f"{axis_text(rev.axis)}", "text")
+    add("drawing_unit", "drawing unit", None, doc.profile.unit, "text")
+    if m.has_solid:
+        add("area", "section area", "area", s["area"])
+        add("centroid", "section centroid (x, y)", "length", s["centroid"])
+        add("centroid_distance", "section centroid, distance from the axis", "length",
+            s["centroid_distance"])
+        add("perimeter", "section perimeter", "length", s["perimeter"])
+    add("boundary_length", "boundary length", "length", s["boundary_length"])
+    add("boundary_centroid", "boundary centroid (x, y)", "length", s["boundary_centroid"])
+    add("boundary_centroid_distance", "boundary centroid, distance from the axis", "length",
+        s["boundary_centroid_distance"])
+    exact_out = exact_out or {}
+    if m.has_solid:
+        add("volume", "volume", "volume", s["volume"])
+        add("exact_volume", "volume, exact" + _exact_unit(exact_out, doc), None,
+            exact_out.get("volume"), "text")
+    for face, value in s["surface_by_face"].items():
+        add(f"surface: {face}", f"surface: {face}", "area", value)
+    add("surface_area", "surface, swept total", "area", s["surface_area"])
+    add("exact_surface_area", "surface, exact" + _exact_unit(exact_out, doc, 2), None,
+        exact_out.get("surface_area"), "text")
+    add("cut_face_area", "cut faces (two flat ends, each)", "area", s["cut_face_area"])
+    add("centre_of_mass_axial", "centre of mass along the axis", "length",
+        s["centre_of_mass_axial"])
+    if m.centre_of_mass_offset:
+        add("centre_of_mass_offset", "centre of mass, distance from the axis", "length",
+            s["centre_of_mass_offset"])
+    if m.mass is not None:
+        add("density", "density", "density", s["density"])
+        add("mass", "mass", "mass", s["mass"])
+        add("inertia_axis", "moment of inertia about the axis", "mass·length²", s["inertia_axis"])
+        add("radius_of_gyration", "radius of gyration", "length", s["radius_of_gyration"])
+    name = doc.name or doc.file or "profile"
+    figures = Table("figures", name, tuple(fields), (row,), figures=True)
+    c = m.crosscheck
+    if c is None:
+        return figures, None
+    cfields, crow = [], {}
+    for key, label, role, pappus, second, diff, applies in (
+            ("volume", "volume", "volume", s["volume"], s["crosscheck_volume"],
+             c.volume_difference, m.has_solid),
+            ("surface", "surface", "area", s["surface_area"], s["crosscheck_surface_area"],
+             c.surface_difference, True)):
+        if not applies:
+            continue
+        ok = diff <= tolerance
+        cfields += [Field(f"{key}_pappus", f"{label}, Pappus", role),
+                    Field(f"{key}_second", f"{label}, second method", role),
+                    Field(f"{key}_difference", f"{label}, relative difference", None, digits=2),
+                    Field(f"{key}_verdict", f"{label}, verdict", None, "text")]
+        crow.update({f"{key}_pappus": pappus, f"{key}_second": second,
+                     f"{key}_difference": diff, f"{key}_verdict": "ok" if ok else "DISAGREE"})
+    check = Table("crosscheck", "Cross-check (independent second computation)",
+                  tuple(cfields), (crow,), figures=True)
+    return figures, check
+
+
+def _exact_unit(exact_out, doc, power: int = 3) -> str:
+    if exact_out.get("unit_is_profile"):
+        return f" ({doc.profile.unit}{'²' if power == 2 else '³'})"
+    return ""
+
+
+@dataclass(frozen=True, repr=False)
+class MeasureResult(Result):
     """What :func:`measure` gives: the engine's measurement with its part, settings and units.
 
-    ``measurement`` is the engine's :class:`~revolve.geometry.measure.Measurement`
-    (plain floats in the profile's unit); the properties give the main
-    figures in the units of :attr:`units` (the profile's length unit, its
-    square and cube, kg). :meth:`to_dict` is exactly what
-    ``revolve measure FILE --json`` prints.
+    A :class:`~revolve.jobs.results.Result` (its tables are the figures and
+    the cross-check that ``revolve measure`` prints); ``measurement`` is the
+    engine's :class:`~revolve.geometry.measure.Measurement` (plain floats in
+    the profile's unit); :meth:`to_dict` is exactly what ``revolve measure
+    FILE --json`` prints (the keys of the README's "JSON keys").
 
     Examples
     --------
@@ -583,8 +786,9 @@ class MeasureResult:
     (True, 'mm²')
     """
 
-    part: PartMeasurement
+    part: Any = None
     exact: Optional[Dict[str, Any]] = None
+    tolerance: float = DEFAULT_TOLERANCE
 
     @property
     def measurement(self):
@@ -602,29 +806,29 @@ class MeasureResult:
         return self.part.revolution.profile
 
     @property
-    def units(self) -> Dict[str, str]:
-        """Units of the figures: length, area, volume, mass, inertia."""
-        return self.to_dict()["units"]
-
-    @property
     def volume(self) -> float:
-        """Volume in ``units["volume"]`` (0 for a profile of chains only)."""
-        return self.measurement.volume
+        """Volume in the JSON's volume unit (0 for a profile of chains only)."""
+        return self.to_dict()["volume"]
 
     @property
     def surface_area(self) -> float:
-        """Swept surface, every face, in ``units["area"]``."""
-        return self.measurement.surface_total
+        """Swept surface, every face, in the JSON's area unit."""
+        return self.to_dict()["surface_area"]
 
     @property
     def mass(self) -> Optional[float]:
-        """Mass in kg, or None without a density."""
-        return self.measurement.mass
+        """Mass in the JSON's mass unit, or None without a density."""
+        return self.to_dict().get("mass")
+
+    @property
+    def agrees(self) -> bool:
+        """Whether the cross-check agrees within the tolerance (True when there is none)."""
+        c = self.measurement.crosscheck
+        return c is None or c.agrees(self.tolerance)
 
     def to_dict(self) -> Dict[str, Any]:
         """The JSON object of ``revolve measure FILE --json`` for the same input."""
-        u = output_units(self.part.document.profile.unit)
-        return part_json(self.part, u, DEFAULT_TOLERANCE, self.exact)
+        return part_json(self.part, self.units, self.tolerance, self.exact)
 
     def __repr__(self) -> str:
         d = self.to_dict()
@@ -636,27 +840,35 @@ class MeasureResult:
             bits.append(f"mass={d['mass']:.6g} {u['mass']}")
         return f"<MeasureResult {name}: {', '.join(bits)}>"
 
-    def _repr_html_(self) -> str:
-        import html
 
-        d = self.to_dict()
-        u = d["units"]
-        rows = [("section area", d["area"], u["area"]), ("volume", d["volume"], u["volume"]),
-                ("surface, swept total", d["surface_area"], u["area"])]
-        rows += [(f"surface: {k}", v, u["area"]) for k, v in d["surface_by_face"].items()]
-        if "mass" in d:
-            rows += [("density", d["density_kg_m3"], "kg/m³"), ("mass", d["mass"], u["mass"]),
-                     ("moment of inertia about the axis", d["inertia_axis"], u["inertia"])]
-        c = d.get("crosscheck")
-        if c is not None:
-            rows.append(("cross-check", "agrees" if c["agrees"] else "DISAGREES", ""))
-        cells = "".join(
-            f"<tr><td>{html.escape(n)}</td><td style='text-align:right'>"
-            f"{html.escape(f'{v:.6g}' if isinstance(v, float) else str(v))}</td>"
-            f"<td>{html.escape(un)}</td></tr>" for n, v, un in rows)
-        title = html.escape(d["profile"]["name"] or d["profile"]["file"] or "profile")
-        return (f"<table><caption>{title}</caption><tr><th>quantity</th><th>value</th>"
-                f"<th>unit</th></tr>{cells}</table>")
+def measure_result(part: PartMeasurement, units=None, *, tolerance: float = DEFAULT_TOLERANCE,
+                   exact_out=None) -> MeasureResult:
+    """A measured part as a :class:`MeasureResult`: tables, notes, cautions, units.
+
+    ``units`` defaults to :func:`part_units` of the profile's unit.
+
+    >>> from revolve.formats.document import ProfileDocument
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> doc = ProfileDocument(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (0, 2)]),)))
+    >>> r = measure_result(measure_document(doc))
+    >>> [t.key for t in r.tables], len(r.notes), r.agrees
+    (['figures', 'crosscheck'], 1, True)
+    """
+    doc, m = part.document, part.measurement
+    if units is None:
+        units = part_units(doc.profile.unit)
+    figures, check = _figure_tables(part, units, tolerance, exact_out)
+    notes = ["volume = θ·d·A, surface = θ·d_L·L (Pappus–Guldinus); the cross-check slices "
+             "washers and integrates r ds."]
+    if exact_out and exact_out.get("note"):
+        notes.append(f"exact: {exact_out['note']}")
+    notes += [f"note: {n}" for n in m.notes]
+    if m.mass is not None and part.density_label:
+        notes.append(f"material: {part.density_label}")
+    inputs = {"profile": doc.file, "name": doc.name, "unit": doc.profile.unit}
+    return MeasureResult("measure", units, inputs,
+                         (figures,) if check is None else (figures, check), tuple(notes),
+                         _cautions(m), part=part, exact=exact_out, tolerance=tolerance)
 
 
 def as_document(profile_or_path, units: Optional[str] = None):
@@ -680,16 +892,7 @@ def as_document(profile_or_path, units: Optional[str] = None):
     from revolve.geometry.profile import Profile
 
     if isinstance(profile_or_path, (str, os.PathLike)):
-        from revolve.formats import load_profile
-
-        if units is not None:
-            from revolve import units as registry
-
-            try:
-                registry.factor(units, "length")
-            except UnitError as e:
-                raise e.located(option="units")
-        return load_profile(os.fspath(profile_or_path), unit=units)
+        return load_with_unit(os.fspath(profile_or_path), units, option="units")
     if isinstance(profile_or_path, ProfileDocument):
         return profile_or_path
     if isinstance(profile_or_path, Profile):
@@ -772,6 +975,14 @@ def measure(profile_or_path, *, axis=None, angle: Optional[float] = None, densit
     Traceback (most recent call last):
     ...
     revolve.errors.RevolveError: density: give either material or density, not both
+    >>> measure(tube, angle=400)             # the library names its own arguments
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: angle: the revolution angle must be above 0 and at most 360 degrees, got 400
+    >>> measure(tube, axis="1,2")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: axis: give x, y or four numbers X0,Y0,DX,DY, got '1,2'
     >>> measure(Profile())                   # doctest: +ELLIPSIS
     Traceback (most recent call last):
     ...
@@ -785,10 +996,10 @@ def measure(profile_or_path, *, axis=None, angle: Optional[float] = None, densit
     else:
         dens, label = density_value(density)
     part = measure_document(doc, axis=_axis_of(axis), angle=angle, density=dens,
-                            density_label=label)
+                            density_label=label, angle_option="angle")
     exact_out = None
     if exact:
         from revolve.geometry.exact import exact_results
 
         exact_out = exact_results(doc, part.revolution, part.measurement, exact_angle=angle)
-    return MeasureResult(part, exact_out)
+    return measure_result(part, exact_out=exact_out)

@@ -6,7 +6,8 @@ second; money in its currency; counts and texts as they are), the notes and
 the cautions that apply, and the :class:`OutputUnits` chosen for it. Each
 field of a table names a **role** (``length``, ``level``, ``film``, ``area``,
 ``capacity``, ``volume``, ``mass``, ``density``, ``time``, ``money``, or a
-ratio of two roles such as ``area/capacity`` for a spreading rate); the
+ratio of two roles such as ``area/capacity`` for a spreading rate, or a
+product such as ``mass·length²`` for a moment of inertia); the
 output units say which unit each role is shown in, so one renderer
 (:mod:`revolve.render.output`) makes the human tables, the CSV and the JSON
 of every command, and every conversion goes through :mod:`revolve.units`.
@@ -138,6 +139,14 @@ class OutputUnits:
         return replace(self, currency=currency)
 
     def _pair(self, role: str) -> Tuple[str, float]:
+        if "·" in role:            # a product such as "mass·length²" (moment of inertia)
+            shown, factor = [], 1.0
+            for part in role.split("·"):
+                power = 2 if part.endswith("²") else 1
+                a, fa = self._pair(part.rstrip("²"))
+                shown.append(a + ("²" if power == 2 else ""))
+                factor *= fa ** power
+            return "·".join(shown), factor
         if "/" in role:
             top, bottom = role.split("/", 1)
             (a, fa), (b, fb) = self._pair(top), self._pair(bottom)
@@ -148,6 +157,10 @@ class OutputUnits:
             return self.units[role]
         except KeyError:
             raise RevolveError(f"no output unit chosen for {role}") from None
+
+    def __getitem__(self, role: str) -> str:
+        """``units["volume"]``: the same as :meth:`unit` (results read like a mapping)."""
+        return self.unit(role)
 
     def unit(self, role: Optional[str]) -> str:
         """The display spelling of the unit of ``role`` ('' for a role-less field)."""

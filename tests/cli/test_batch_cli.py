@@ -122,7 +122,7 @@ def test_csv_units_beside_every_figure_in_a_mixed_batch(tmp_path, capsys):
     assert code == 0, err
     rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
     assert [(r["profile_unit"], r["volume_unit"], r["mass_unit"]) for r in rows] == \
-        [("mm", "mm³", "kg"), ("in", "in³", "kg")]
+        [("mm", "mm³", "kg"), ("in", "in³", "lb")]     # inch work in inch-pound units
 
 
 def test_pool_and_serial_give_the_same_output(tmp_path, capsys):
@@ -232,3 +232,19 @@ def test_turn_many_rows_are_plain_text_with_a_total(capsys):
                                                       "flanged-bushing", "total"]
     batch = [float(line.split()[-1].replace(",", "")) for line in table[3:5]]
     assert float(table[5].split()[-1].replace(",", "")) == pytest.approx(sum(batch), abs=0.011)
+
+
+def test_an_existing_csv_is_refused_before_any_part_is_measured(tmp_path, capsys):
+    parts = tmp_path / "parts"
+    parts.mkdir()
+    rings(parts, 3)
+    out_csv = tmp_path / "rows.csv"
+    out_csv.write_text("keep\n", encoding="utf-8")
+    code, out, err = run(["measure", parts, "--csv", out_csv], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --csv: ") and "--force" in err, err
+    assert out_csv.read_text(encoding="utf-8") == "keep\n"
+    code, out, err = run(["measure", parts, "--csv", out_csv, "--force"], capsys)
+    assert code == 0, err
+    rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
+    assert len(rows) == 3 and all(r["volume_unit"] == "mm³" for r in rows)

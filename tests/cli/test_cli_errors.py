@@ -77,7 +77,10 @@ def square(tmp_path, monkeypatch):
                                                           "got '1e999'"),
     (["picture", "P", "-o", "p.png", "--dpi", "9" * 5000], "--dpi: give a whole number, got "
                                                            "'" + "9" * 40 + "…"),
-    (["mesh", "P", "-o", "m.stl", "--tolerance"], "--tolerance: give a value after this option"),
+    (["mesh", "P", "-o", "m.stl", "--chord-tolerance"], "--chord-tolerance: give a value after "
+                                                          "this option"),
+    (["mesh", "P", "-o", "m.stl", "--tolerance", "1"], "--tolerance: no such option of "
+                                                       "'revolve mesh'; did you mean"),
     (["measure", "P", "--json=yes"], "--json: this option takes no value"),
     (["mesh", "P", "-o", "m.stl", "extra"], "unexpected extra argument 'extra'"),
     (["mash", "P"], "no such command 'mash'; did you mean 'mesh'?"),
@@ -194,14 +197,14 @@ COMMANDS = {
     "measure": (["measure", "p.txt"],
                 ["--axis", "--angle", "--units", "--material", "--density", "--length-unit",
                  "--area-unit", "--volume-unit", "--mass-unit", "--tolerance", "--csv", "--json",
-                 "--exact"]),
+                 "--exact", "--force"]),
     "mesh": (["mesh", "p.txt", "-o", "m.stl"],
-             ["--tolerance", "--axis", "--angle", "--units", "--length-unit", "--csv", "--json",
-              "-o", "--output"]),
+             ["--chord-tolerance", "--axis", "--angle", "--units", "--length-unit", "--csv",
+              "--json", "-o", "--output", "--force"]),
     "picture": (["picture", "p.txt", "-o", "p.svg", "--width", "300", "--height", "200"],
                 ["--3d", "--axis", "--angle", "--units", "--material", "--density", "--dpi",
-                 "--tolerance", "--length-unit", "--area-unit", "--volume-unit", "--mass-unit",
-                 "-o"]),
+                 "--chord-tolerance", "--length-unit", "--area-unit", "--volume-unit",
+                 "--mass-unit", "-o", "--force"]),
 }
 HOSTILE = ["1e999", "-1e999", "nan", "inf", "-inf", "-0", "0", "1", "-1", "1e-300", "5e-324",
            "x\ny", "", " ", "\r", "\x1b[31m", "9" * 5000, "a" * 300, "1,2,3,4", "0,0,1,0",
@@ -252,11 +255,11 @@ def _run_in(folder, args):
 @example(["measure", "p.txt", "--axis", "0,0,1,1e999999999"])  # Fraction would build 10**1e9
 @example(["measure", "p.txt", "--volume-unit", "x\ny"])  # a line break in the message
 @example(["measure", "p.txt", "--density", "7850"])  # a bare density: kg/m³
-@example(["mesh", "p.txt", "-o", "m.stl", "--tolerance", "1e-300"])  # was a ZeroDivisionError
+@example(["mesh", "p.txt", "-o", "m.stl", "--chord-tolerance", "1e-300"])  # was a ZeroDivisionError
 @example(["mesh", "p.txt", "-o", "m.stl", "--csv", "sub/m.csv"])  # second output unwritable
 @example(["mesh", "p.txt", "-o", "m.stl", "--csv", "m.stl"])  # one file for two outputs
 @example(["picture", "p.txt", "-o", "p.svg", "--width", "300", "--height", "200", "--3d",
-          "--tolerance", "1e-9"])  # drew for minutes
+          "--chord-tolerance", "1e-9"])  # drew for minutes
 @example(["measure", "p.txt", "--angle", "\x00"])  # NUL in an option value
 @example(["measure", "p.txt", "--angle", "5e-324"])  # was a ZeroDivisionError in measure
 @example(["measure", "p.txt", "--csv", "a\x00.csv"])  # NUL in an output name

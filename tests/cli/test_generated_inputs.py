@@ -280,13 +280,14 @@ def test_generated_measure_options(options, json):
     check_contract(argv + (["--json"] if json else []))
 
 
-MESH_OPTIONS = ["--tolerance", "--angle", "--axis", "--bogus"]
+MESH_OPTIONS = ["--chord-tolerance", "--tolerance", "--angle", "--axis", "--force", "--bogus"]
 
 
 @settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
 @given(options=st.lists(st.tuples(st.sampled_from(MESH_OPTIONS), OPTION_VALUES), max_size=2))
-@example(options=[("--tolerance", "1e-300")])
-@example(options=[("--tolerance", "nan")])
+@example(options=[("--chord-tolerance", "1e-300")])
+@example(options=[("--chord-tolerance", "nan")])
+@example(options=[("--chord-tolerance", "1/64 in")])
 def test_generated_mesh_options_leave_nothing_after_a_refusal(tmp_path_factory, options):
     folder = tmp_path_factory.mktemp("mesh")
     output = str(folder / "part.stl")

@@ -226,8 +226,28 @@ def test_csv_matches_json(tmp_path, capsys):
     assert code == 0
     d = json.loads(out)
     rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
-    vol = [r for r in rows if r["table"] == "results" and r["quantity"].startswith("volume")]
-    assert vol and math.isclose(float(vol[0]["value"]), d["volume"], rel_tol=1e-15)
+    assert len(rows) == 1                      # one row: every figure, its unit in its heading
+    assert math.isclose(float(rows[0]["volume (mm³)"]), d["volume"], rel_tol=1e-15)
+    assert math.isclose(float(rows[0]["volume, second method (mm³)"]),
+                        d["crosscheck"]["volume"], rel_tol=1e-15)
+    assert rows[0]["mass (kg)"] if "mass" in d else "mass (kg)" not in rows[0]
+
+
+def test_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    import csv
+
+    f = write(tmp_path, "sq.toml", SQUARE)
+    out_csv = tmp_path / "m.csv"
+    out_csv.write_text("keep me\n", encoding="utf-8")
+    code, out, err = run(["measure", f, "--csv", str(out_csv)], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --csv: ") and "--force" in err, err
+    assert out_csv.read_text(encoding="utf-8") == "keep me\n"
+    code, out, err = run(["measure", f, "--csv", str(out_csv), "--force"], capsys)
+    assert code == 0, err
+    header = next(csv.reader(out_csv.open(encoding="utf-8")))
+    assert header[:3] == ["revolved", "drawing unit", "section area (mm²)"]
+    assert len(set(header)) == len(header)          # every column named once
 
 
 def test_csv_not_written_on_bad_input(tmp_path, capsys):
@@ -285,3 +305,20 @@ def test_units_option_is_named(tmp_path, capsys):
     code, out, err = run(["measure", f, "--units", "gallon"], capsys)
     assert code == 2 and err.startswith(
         "revolve: error: --units: 'gallon' is a volume unit, not a length unit"), err
+
+
+def test_tables_show_six_significant_figures_and_units_with_superscripts(tmp_path, capsys):
+    # Hollow cylinder π (3² − 1²) · 2 = 16π = 50.2655 mm³ to six significant figures (CRC, from
+    # memory); in m³ the same volume is 5.02655e-08; units print with superscripts, never ^.
+    f = write(tmp_path, "sq.toml", SQUARE)
+    code, out, err = run(["measure", f], capsys)
+    assert code == 0, err
+    volume = [line for line in out.splitlines() if line.startswith("volume  ")]
+    assert volume and "50.2655 │ mm³" in volume[0], out
+    assert "^" not in out and "mm²" in out
+    code, out, err = run(["measure", f, "--volume-unit", "m^3", "--mass-unit", "g",
+                          "--density", "7850"], capsys)
+    assert code == 0, err
+    assert "5.02655e-08 │ m³" in out and "^" not in out
+    # 7850 kg/m³ × 16π mm³ = 0.394584 g (six significant figures)
+    assert "0.394584 │ g" in out, out

@@ -1,4 +1,4 @@
-"""`revolve mesh` end to end, and the CSV/JSON writers of result tables (revolve.cli.tables).
+"""`revolve mesh` end to end, and the CSV and JSON of its results (revolve.render.output).
 
 References, named beside each check:
 
@@ -78,6 +78,8 @@ def test_every_example_meshes_watertight(path, tmp_path, capsys):
     data = json.loads(out)
     tm = trimesh.load(str(stl))
     assert tm.is_watertight and tm.is_winding_consistent and tm.volume > 0
+    assert data["command"] == "mesh" and isinstance(data["closed"], bool)
+    data = data["mesh"]
     assert len(tm.faces) == data["triangles"]
     if "[[chain]]" in Path(path).read_text(encoding="utf-8"):
         # A vessel's inside wall drawn from the axis round to the axis closes on itself,
@@ -97,7 +99,7 @@ def test_torus_stl_approaches_crc_as_the_tolerance_shrinks(tmp_path, capsys):
     errs = []
     for tol in tolerances:
         stl = tmp_path / f"t{tol}.stl"
-        code, _, err = run(["mesh", profile, "-o", stl, "--tolerance", tol], capsys)
+        code, _, err = run(["mesh", profile, "-o", stl, "--chord-tolerance", tol], capsys)
         assert code == 0, err
         tm = trimesh.load(str(stl))
         assert tm.is_watertight
@@ -114,20 +116,21 @@ def test_partial_angle_and_inches(tmp_path, capsys):
     # from memory); written in inches (1 in = 25.4 mm): the volume is divided by 25.4³.
     profile = write(tmp_path, "tube.toml", TUBE)
     stl = tmp_path / "quarter.stl"
-    code, out, err = run(["mesh", profile, "-o", stl, "--angle", 90, "--tolerance", "0.001 mm",
+    code, out, err = run(["mesh", profile, "-o", stl, "--angle", 90, "--chord-tolerance", "0.001 mm",
                           "--length-unit", "in", "--json"], capsys)
     assert code == 0, err
     data = json.loads(out)
-    assert data["units"]["length"] == "in"
+    assert data["units"]["length"] == "in" and data["units"]["volume"] == "in³"
+    data = data["mesh"]
     tm = trimesh.load(str(stl))
     assert tm.is_watertight and tm.is_winding_consistent
     exact_mm3 = math.pi / 4 * (9 - 1) * 2
     assert math.isclose(tm.volume * 25.4 ** 3, exact_mm3, rel_tol=1e-3)
     assert math.isclose(data["exact_volume"] * 25.4 ** 3, exact_mm3, rel_tol=1e-12)
     # A bare tolerance is in the STL's unit: 0.001 in is 0.0254 mm.
-    code, out, _ = run(["mesh", profile, "-o", stl, "--tolerance", 0.001, "--length-unit", "in",
-                        "--json"], capsys)
-    assert math.isclose(json.loads(out)["chord_tolerance"], 0.001, rel_tol=1e-12)
+    code, out, _ = run(["mesh", profile, "-o", stl, "--chord-tolerance", 0.001, "--length-unit", "in",
+                        "--json", "--force"], capsys)
+    assert math.isclose(json.loads(out)["mesh"]["chord_tolerance"], 0.001, rel_tol=1e-12)
 
 
 def test_table_output_and_csv(tmp_path, capsys):
@@ -138,22 +141,21 @@ def test_table_output_and_csv(tmp_path, capsys):
     assert "mesh written to" in out and "volume, relative difference" in out
     with table.open(encoding="utf-8") as f:
         rows = list(csv.DictReader(f))
-    byname = {r["quantity"]: r for r in rows}
-    assert int(byname["triangles"]["value"]) == len(trimesh.load(str(stl)).faces)
+    (row,) = rows                                   # one row, each column with its unit
+    assert int(row["triangles"]) == len(trimesh.load(str(stl)).faces)
     # CRC (from memory): hollow cylinder V = π (R² − r²) h.
-    assert math.isclose(float(byname["exact volume"]["value"]), math.pi * 8 * 2, rel_tol=1e-12)
-    assert byname["exact volume"]["unit"] == "mm³"
+    assert math.isclose(float(row["exact volume (mm³)"]), math.pi * 8 * 2, rel_tol=1e-12)
 
 
 # -- bad input: exit 2, one line, nothing written ----------------------------------------
 
 @pytest.mark.parametrize("extra, message", [
-    (["--tolerance", "0"], "--tolerance"),
-    (["--tolerance", "-0.1"], "--tolerance"),
-    (["--tolerance", "3 kg"], "--tolerance"),
-    (["--tolerance", "1e-13"], "give at least"),
-    (["--tolerance", "1e-300"], "give at least"),  # once a ZeroDivisionError in the mesher
-    (["--tolerance", "x\ny"], "--tolerance: "),
+    (["--chord-tolerance", "0"], "--chord-tolerance"),
+    (["--chord-tolerance", "-0.1"], "--chord-tolerance"),
+    (["--chord-tolerance", "3 kg"], "--chord-tolerance"),
+    (["--chord-tolerance", "1e-13"], "give at least"),
+    (["--chord-tolerance", "1e-300"], "give at least"),  # once a ZeroDivisionError in the mesher
+    (["--chord-tolerance", "x\ny"], "--chord-tolerance: "),
     (["--angle", "0"], "--angle"),
     (["--angle", "361"], "--angle"),
     (["--axis", "1,2"], "--axis"),
@@ -188,61 +190,62 @@ def test_old_file_kept_on_error(tmp_path, capsys):
     profile = write(tmp_path, "tube.toml", TUBE)
     stl = tmp_path / "part.stl"
     stl.write_bytes(b"previous")
-    code, _, _ = run(["mesh", profile, "-o", stl, "--tolerance", "1e-12"], capsys)
+    code, _, _ = run(["mesh", profile, "-o", stl, "--chord-tolerance", "1e-12", "--force"],
+                     capsys)
     assert code == 2 and stl.read_bytes() == b"previous"
 
 
 def test_subprocess_error_has_no_traceback(tmp_path):
     profile = write(tmp_path, "tube.toml", TUBE)
     res = subprocess.run([sys.executable, "-m", "revolve", "mesh", profile, "-o",
-                          str(tmp_path / "p.stl"), "--tolerance", "nonsense"],
+                          str(tmp_path / "p.stl"), "--chord-tolerance", "nonsense"],
                          capture_output=True, text=True, cwd=str(tmp_path))
     assert res.returncode == 2
     assert res.stderr.count("\n") == 1 and "Traceback" not in res.stderr
     assert not (tmp_path / "p.stl").exists()
 
 
-# -- result tables as CSV and JSON (revolve.cli.tables) --------------------------------------
+# -- outputs: full precision, the one overwrite rule -----------------------------------------
 
-def test_measure_rows_match_the_measure_json(tmp_path, capsys):
-    from revolve.cli.common import output_units
-    from revolve.cli.tables import measure_rows, write_csv
-    from revolve.formats import load_profile
-    from revolve.geometry.measure import measure
-    from revolve.geometry.profile import Axis, Revolution
-
+def test_measure_csv_matches_the_measure_json(tmp_path, capsys):
     profile = write(tmp_path, "tube.toml", TUBE)
-    code, out, _ = run(["measure", profile, "--json", "--volume-unit", "L"], capsys)
+    table = tmp_path / "m.csv"
+    code, out, _ = run(["measure", profile, "--json", "--volume-unit", "L", "--csv", table], capsys)
     assert code == 0
     js = json.loads(out)
-    doc = load_profile(profile)
-    m = measure(Revolution(doc.profile, doc.axis or Axis.x()))
-    rows = measure_rows(m, output_units("mm", volume="L"), tolerance=1e-9)
-    path = tmp_path / "m.csv"
-    write_csv(rows, str(path))
-    with path.open(encoding="utf-8") as f:
-        back = {(r["table"], r["quantity"]): r for r in csv.DictReader(f)}
+    with table.open(encoding="utf-8") as f:
+        (back,) = list(csv.DictReader(f))
     # Full precision survives the CSV (repr of floats), and agrees with the JSON.
-    assert float(back[("results", "volume")]["value"]) == js["volume"]
-    assert back[("results", "volume")]["unit"] == "L"
-    assert float(back[("results", "section area")]["value"]) == js["area"]
-    assert float(back[("results", "surface: bore")]["value"]) == js["surface_by_face"]["bore"]
-    assert float(back[("cross-check", "volume, washers")]["value"]) == js["crosscheck"]["volume"]
+    assert float(back["volume (L)"]) == js["volume"]
+    assert float(back["section area (mm²)"]) == js["area"]
+    assert float(back["surface: bore (mm²)"]) == js["surface_by_face"]["bore"]
+    assert float(back["volume, second method (L)"]) == js["crosscheck"]["volume"]
     # CRC (from memory): hollow cylinder V = π (R² − r²) h = 16π mm³ = 16π·1e-6 L.
-    assert math.isclose(float(back[("results", "volume")]["value"]), 16 * math.pi * 1e-6, rel_tol=1e-13)
-    assert back[("cross-check", "agrees within the tolerance")]["value"] == "1.0"
+    assert math.isclose(float(back["volume (L)"]), 16 * math.pi * 1e-6, rel_tol=1e-13)
+    assert back["volume, verdict"] == "ok"
 
 
-def test_write_json_is_strict_and_atomic(tmp_path):
-    from revolve.cli.tables import write_json
-    from revolve.errors import FormatError
+def test_existing_stl_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    profile = write(tmp_path, "tube.toml", TUBE)
+    stl = tmp_path / "m.stl"
+    stl.write_bytes(b"previous mesh")
+    code, out, err = run(["mesh", profile, "-o", stl], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --output: ") and "--force" in err, err
+    assert stl.read_bytes() == b"previous mesh"
+    code, out, err = run(["mesh", profile, "-o", stl, "--force"], capsys)
+    assert code == 0, err
+    assert trimesh.load(str(stl)).is_watertight
 
-    path = tmp_path / "r.json"
-    write_json({"volume": 1 / 3, "missing": float("nan"), "unit": "mm³"}, str(path))
-    assert json.loads(path.read_text(encoding="utf-8")) == {"volume": 1 / 3, "missing": None, "unit": "mm³"}
-    with pytest.raises(FormatError):
-        write_json({}, str(tmp_path / "no" / "r.json"))
-    assert sorted(p.name for p in tmp_path.iterdir()) == ["r.json"]
+
+def test_tolerance_is_not_a_chord_length_any_more(tmp_path, capsys):
+    # --tolerance is the relative cross-check tolerance everywhere; mesh has none.
+    profile = write(tmp_path, "tube.toml", TUBE)
+    code, out, err = run(["mesh", profile, "-o", tmp_path / "m.stl", "--tolerance", "0.01"],
+                         capsys)
+    assert code == 2 and err.startswith("revolve: error: --tolerance: no such option"), err
+    assert "--chord-tolerance" in err
+    assert not (tmp_path / "m.stl").exists()
 
 
 # -- several outputs: both files or neither (family: an output path that cannot be written) ---
@@ -273,7 +276,7 @@ def test_unwritable_csv_leaves_no_stl(tmp_path, capsys, kind, existed):
         stl.write_bytes(b"previous mesh")
     csv_path = _unwritable(tmp_path, kind)
     before = sorted(p.name for p in tmp_path.iterdir())
-    code, out, err = run(["mesh", profile, "-o", stl, "--csv", csv_path], capsys)
+    code, out, err = run(["mesh", profile, "-o", stl, "--csv", csv_path, "--force"], capsys)
     assert code == 2, err
     assert err.count("\n") == 1 and err.startswith("revolve: error: --csv: ")
     assert "Traceback" not in err and out == ""
@@ -300,7 +303,7 @@ def test_csv_failing_while_moved_into_place_puts_the_old_stl_back(tmp_path, caps
         return real_replace(source, target)
 
     monkeypatch.setattr(os_module, "replace", replace)
-    code, _, err = run(["mesh", profile, "-o", stl, "--csv", table], capsys)
+    code, _, err = run(["mesh", profile, "-o", stl, "--csv", table, "--force"], capsys)
     assert code == 2 and err.count("\n") == 1 and "m.csv: cannot write the file" in err, err
     assert stl.read_bytes() == b"previous mesh" and not table.exists()
     assert sorted(p.name for p in tmp_path.iterdir()) == ["m.stl", "tube.toml"]
@@ -313,7 +316,7 @@ def test_mesh_and_csv_written_together(tmp_path, capsys):
     assert code == 0, err
     # CRC (from memory): hollow cylinder V = π (R² − r²) h = 16π; trimesh measures the STL.
     assert trimesh.load(str(stl)).volume == pytest.approx(16 * math.pi, rel=1e-2)
-    assert table.read_text(encoding="utf-8").startswith("quantity,")
+    assert table.read_text(encoding="utf-8").startswith("triangles,vertices,")
     assert sorted(p.name for p in tmp_path.iterdir()) == ["m.csv", "m.stl", "tube.toml"]
 
 
@@ -344,9 +347,9 @@ def test_a_drawing_polyline_meshes_through_its_own_vertices(tmp_path, capsys, mo
     shape = Polygon(np.array(list(outline.get_points("xy")), dtype=float))
     pappus = 2 * math.pi * shape.centroid.y * shape.area
     stl = tmp_path / "wavy.stl"
-    code, out, err = run(["mesh", drawing, "-o", stl, "--tolerance", "0.02", "--json"], capsys)
+    code, out, err = run(["mesh", drawing, "-o", stl, "--chord-tolerance", "0.02", "--json"], capsys)
     assert code == 0, err
-    data = json.loads(out)
+    data = json.loads(out)["mesh"]
     n = data["angular_steps"]
     assert data["vertices"] == 1000 * n
     tm = trimesh.load(str(stl))

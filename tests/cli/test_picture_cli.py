@@ -109,7 +109,7 @@ def test_png_has_the_requested_size(tmp_path, capsys, width, height, dpi):
     for extra in ([], ["--3d"]):
         png = tmp_path / "r.png"
         code, _, err = run(["picture", profile, "-o", png, "--width", width, "--height", height,
-                            "--dpi", dpi] + extra, capsys)
+                            "--dpi", dpi, "--force"] + extra, capsys)
         assert code == 0, err
         img = matplotlib.image.imread(str(png))   # matplotlib
         assert img.shape[:2] == (height, width)
@@ -121,8 +121,8 @@ def test_svg_is_xml_of_the_right_size(tmp_path, capsys):
     profile = write(tmp_path, "ring.toml", RING)
     for extra in ([], ["--3d", "--angle", "240"]):
         svg = tmp_path / "r.svg"
-        code, _, err = run(["picture", profile, "-o", svg, "--width", 900, "--height", 600] + extra,
-                           capsys)
+        code, _, err = run(["picture", profile, "-o", svg, "--width", 900, "--height", 600,
+                            "--force"] + extra, capsys)
         assert code == 0, err
         w, h = svg_size(svg)
         assert (w, h) == pytest.approx((900 * 72 / 100, 600 * 72 / 100))
@@ -147,7 +147,7 @@ def test_open_chain_and_partial_revolution(tmp_path, capsys):
     profile = write(tmp_path, "shell.toml", SHELL)
     for extra in ([], ["--3d"], ["--3d", "--angle", "120"]):
         png = tmp_path / "s.png"
-        code, _, err = run(["picture", profile, "-o", png] + extra, capsys)
+        code, _, err = run(["picture", profile, "-o", png, "--force"] + extra, capsys)
         assert code == 0, err
         assert matplotlib.image.imread(str(png)).shape[:2] == (800, 1200)
     svg = tmp_path / "s.svg"
@@ -173,9 +173,11 @@ def test_mass_in_the_caption_with_the_caution(tmp_path, capsys):
     (["-o", "p.png", "--dpi", "5"], "--dpi"),
     (["-o", "p.png", "--angle", "0"], "--angle"),
     (["-o", "p.png", "--axis", "q"], "--axis"),
-    (["-o", "p.png", "--3d", "--tolerance", "-1"], "--tolerance"),
+    (["-o", "p.png", "--3d", "--chord-tolerance", "-1"], "--chord-tolerance"),
+    (["-o", "p.png", "--3d", "--tolerance", "0.01"], "--tolerance: no such option"),
     # Finer than 1/2000 of the size: once minutes of drawing and half a gigabyte.
-    (["-o", "p.png", "--3d", "--tolerance", "1e-9"], "--tolerance: a picture needs no finer chord tolerance"),
+    (["-o", "p.png", "--3d", "--chord-tolerance", "1e-9"],
+     "--chord-tolerance: a picture needs no finer chord tolerance"),
     (["-o", "p.png", "--material", "unobtainium"], "--material: unknown material 'unobtainium'"),
     (["-o", "p.png", "--volume-unit", "gallon"], "--volume-unit: 'gallon' is ambiguous"),
     (["-o", "p.png", "--density", "7850 kg"], "--density: 'kg' is a mass unit"),
@@ -195,9 +197,22 @@ def test_bad_profile_keeps_the_old_picture(tmp_path, capsys):
     bad = write(tmp_path, "bad.toml", RING.replace("[0, 3] }", "[0, 5] }").replace("close = true", "line_to = [1, 9]"))
     png = tmp_path / "p.png"
     png.write_bytes(b"previous")
-    code, _, err = run(["picture", bad, "-o", png], capsys)
+    code, _, err = run(["picture", bad, "-o", png, "--force"], capsys)
     assert code == 2 and "bad.toml" in err and err.count("\n") == 1
     assert png.read_bytes() == b"previous"
+
+
+def test_existing_picture_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    profile = write(tmp_path, "ring.toml", RING)
+    png = tmp_path / "p.png"
+    png.write_bytes(b"previous")
+    code, out, err = run(["picture", profile, "-o", png], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --output: ") and "--force" in err, err
+    assert png.read_bytes() == b"previous"
+    code, out, err = run(["picture", profile, "-o", png, "--force"], capsys)
+    assert code == 0, err
+    assert matplotlib.image.imread(str(png)).shape[:2] == (800, 1200)
 
 
 def test_subprocess_error_has_no_traceback(tmp_path):
@@ -230,29 +245,30 @@ def test_a_polyline_is_drawn_through_its_own_vertices(tmp_path):
     # flatten_to_tolerance); both pictures, flat and 3-D, show the same thing: the face's
     # colour (tab10's first) present, and nearly every pixel the same (the lines are drawn
     # one by one, so only their joints may differ by a few pixels).
-    from revolve.cli import render
-    from revolve.cli.common import output_units
+    from revolve.jobs.measuring import part_units
+    from revolve.render import drawing, pictures
     from revolve.geometry.measure import measure
     from revolve.geometry.profile import Axis, Loop, Profile, Revolution
     from revolve.geometry.segments import Polyline
 
     pts = np.array([(0, 1), (1, 2), (2, 1.5), (3, 2.5), (4, 1), (4, 0.5), (0, 0.5), (0, 1)], float)
     poly = Polyline(pts, face="zigzag")
-    pictures = {}
+    drawn_pictures = {}
     for name, loop in (("polyline", Loop((poly,))), ("lines", Loop.from_points(pts, face="zigzag"))):
         rev = Revolution(Profile(loops=(loop,), unit="mm"), Axis.x())
         m = measure(rev, crosscheck=False)
         if name == "polyline":
-            (drawn,) = render._sketch_paths(rev.profile, 5.0)[0]
+            (drawn,) = drawing.sketch_paths(rev.profile, 5.0)[0]
             assert drawn is poly.points
         for kind in ("flat", "solid"):
             png = tmp_path / f"{name}-{kind}.png"
-            draw = render.profile_picture if kind == "flat" else render.solid_picture
-            draw(rev, m, str(png), units=output_units("mm"), width=600, height=400)
-            pictures[name, kind] = matplotlib.image.imread(str(png))[..., :3]
+            draw = pictures.profile_picture if kind == "flat" else pictures.solid_picture
+            data = draw(rev, m, str(png), units=part_units("mm"), width=600, height=400)
+            png.write_bytes(data if kind == "flat" else data[0])
+            drawn_pictures[name, kind] = matplotlib.image.imread(str(png))[..., :3]
     tab10 = colormaps["tab10"].colors
     for kind in ("flat", "solid"):
-        a, b = pictures["polyline", kind], pictures["lines", kind]
+        a, b = drawn_pictures["polyline", kind], drawn_pictures["lines", kind]
         assert colours_present(tmp_path / f"polyline-{kind}.png", tab10[:1]) == [True]
         differ = np.any(np.abs(a - b) > 0.02, axis=-1).mean()
         assert differ < 0.005, f"{kind}: {differ:.2%} of the pixels differ"

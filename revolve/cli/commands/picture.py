@@ -3,106 +3,115 @@
 The file name's ending chooses the format (``.png`` or ``.svg``). The
 profile picture shows the section, the axis, both centroids, the faces in
 colour, the bounding-box dimensions and the key results; the 3-D picture
-shows the solid shaded, a partial revolution open. Nothing is written when
-the input is refused.
+shows the solid shaded, a partial revolution open (drawn by
+:mod:`revolve.render.pictures`). Nothing is written when the input is
+refused, and an existing file is replaced only with ``--force``.
 """
 
 from __future__ import annotations
 
-from typing import Optional
+from typing import Any, Optional
 
 import typer
 
-from revolve.cli import common
-
-#: Finest chord tolerance a picture takes, as a fraction of the part's size: finer detail is
-#: far below a pixel, and the mesh (and the time to draw it) would grow without bound.
-FINEST_RELATIVE_TOLERANCE = 1 / 2000
+from revolve.cli import options
 
 
-def run_picture(profile: str, output: str, solid: bool, axis: Optional[str], angle: Optional[float],
-                units: Optional[str], material: Optional[str], density: Optional[str],
-                width: int, height: int, dpi: int, tolerance: Optional[str],
-                length_unit: Optional[str], area_unit: Optional[str], volume_unit: Optional[str],
-                mass_unit: Optional[str]) -> int:
+def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Optional[float],
+                units: Optional[str], material: Optional[str], density: Any, width: int,
+                height: int, dpi: int, chord: Any, length_unit: Optional[str],
+                area_unit: Optional[str], volume_unit: Optional[str], mass_unit: Optional[str],
+                force: bool = False) -> int:
+    """Measure and draw one profile, write the picture, say what was written; the exit code."""
     import os
 
-    from revolve.cli.commands.mesh import chord_tolerance, check_output
+    from revolve.cli import common
     from revolve.errors import RevolveError
+    from revolve.jobs import meshing
+    from revolve.jobs.measuring import (material_or_density, measure_document, parse_axis,
+                                        part_units)
 
-    check_output(output, (".png", ".svg"), "pictures")
+    common.check_output(output, (".png", ".svg"), "pictures", force=force)
     for name, value in (("--width", width), ("--height", height)):
         if not 200 <= value <= 10000:
             raise RevolveError(f"give a size from 200 to 10000 pixels, got {value}", option=name)
     if not 30 <= dpi <= 1200:
         raise RevolveError(f"give 30 to 1200 pixels per inch, got {dpi}", option="--dpi")
-    doc, rev = common.revolution_from_options(profile, axis, angle, units)
-    dens, dens_label = common.resolve_density(material, density, doc)
-    u = common.output_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
-
-    from revolve.cli import render
-    from revolve.geometry.measure import measure
-
-    m = measure(rev, density=None if dens is None else dens * u.si_length ** 3)
+    u = part_units("mm", length_unit, area_unit, volume_unit, mass_unit)      # refused early
+    if density is not None and not isinstance(density, str):
+        density = repr(float(density))
+    dens, label, _ = material_or_density(material, density)
+    doc = common.load(profile, unit=units)
+    part = measure_document(doc, axis=parse_axis(axis) if isinstance(axis, str) else axis,
+                            angle=angle, density=dens, density_label=label)
+    rev, m = part.revolution, part.measurement
+    u = part_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
     title = doc.name or os.path.basename(doc.file or "profile")
+
+    from revolve.render import output as render, pictures
+
+    drawing = dict(units=u, title=title, density_label=part.density_label, width=width,
+                   height=height, dpi=dpi)
     if solid:
         tol = None
-        if tolerance is not None:
+        if chord is not None:
             from revolve.geometry.checks import prepare
-            size = prepare(rev.profile, rev.axis).size
-            tol = chord_tolerance(tolerance, u.length, doc.profile.unit, size,
-                                  finest=FINEST_RELATIVE_TOLERANCE,
-                                  why="a picture needs no finer chord tolerance (revolve mesh "
-                                      "makes finer meshes)")
-        mesh = render.solid_picture(rev, m, output, units=u, title=title, density_label=dens_label,
-                                    width=width, height=height, dpi=dpi, tolerance=tol)
-        detail = f"3-D, {len(mesh.triangles):,} triangles"
+
+            tol = meshing.chord_tolerance(
+                chord, u.unit("length"), doc.profile.unit, prepare(rev.profile, rev.axis).size,
+                finest=meshing.FINEST_PICTURE_TOLERANCE,
+                why="a picture needs no finer chord tolerance (revolve mesh makes finer meshes)")
+        data, mesh = pictures.solid_picture(rev, m, output, tolerance=tol, **drawing)
+        from revolve.render.numbers import group_digits
+
+        detail = f"3-D, {group_digits(str(len(mesh.triangles)))} triangles"
     else:
-        render.profile_picture(rev, m, output, units=u, title=title, density_label=dens_label,
-                               width=width, height=height, dpi=dpi)
+        data = pictures.profile_picture(rev, m, output, **drawing)
         detail = "profile"
+    render.write_outputs({output: (data, "--output")}, force=force)
     size_text = f"{width} × {height} px" if output.lower().endswith(".png") else \
         f"{width * 72 / dpi:g} × {height * 72 / dpi:g} pt"
-    con = common.console()
-    con.print(f"wrote {output} ({detail}, {size_text})")
-    if m.mass is not None:
-        con.print(common.caution_panel(["lifting"]))
+    from revolve.jobs.results import Result
+
+    cautions = ("lifting",) if m.mass is not None else ()
+    render.show(Result("picture", u, {"profile": doc.file, "output": output}, (),
+                       (f"wrote {output} ({detail}, {size_text})",), cautions))
     return 0
 
 
 def register(app: typer.Typer) -> None:
     @app.command("picture")
     def picture_command(
-        profile: str = typer.Argument(..., help="Profile file (.toml or a plain list of x,y points)."),
+        profile: str = typer.Argument(..., help="Profile file (.toml or a plain list of x,y "
+                                                "points)."),
         output: str = typer.Option(..., "--output", "-o", help="Picture to write: .png or .svg."),
-        solid: bool = typer.Option(False, "--3d", help="Draw the revolved solid in 3-D instead of "
-                                                       "the profile."),
-        axis: Optional[str] = typer.Option(None, "--axis", help="x, y, or X0,Y0,DX,DY. Default: "
-                                                                "the file's axis, else x."),
-        angle: Optional[float] = typer.Option(None, "--angle", help="Revolution angle in degrees, "
-                                                                     "above 0 and up to 360."),
-        units: Optional[str] = typer.Option(None, "--units", help="Length unit of the coordinates "
-                                                                  "for files that do not say."),
-        material: Optional[str] = typer.Option(None, "--material", help="Material name, for the "
-                                                                         "mass in the caption."),
-        density: Optional[str] = typer.Option(None, "--density", help="Density, e.g. '7850 kg/m^3' "
-                                                                       "(a bare number is kg/m³), "
-                                                                       "for the mass in the caption."),
+        solid: bool = typer.Option(False, "--3d", help="Draw the revolved solid in 3-D instead "
+                                                       "of the profile."),
+        axis: Optional[Any] = options.axis_option(),
+        angle: Optional[float] = options.angle_option(),
+        units: Optional[str] = options.units_option(),
+        material: Optional[str] = options.material_option(),
+        density: Optional[Any] = options.density_option(),
         width: int = typer.Option(1200, "--width", help="Width in pixels."),
         height: int = typer.Option(800, "--height", help="Height in pixels."),
-        dpi: int = typer.Option(100, "--dpi", help="Pixels per inch: the printed size (SVG in points); the "
-                                                   "drawing looks the same."),
-        tolerance: Optional[str] = typer.Option(None, "--tolerance",
-                                                help="With --3d: chord tolerance of the mesh drawn, "
-                                                     "at least 1/2000 of the part's size "
-                                                     "(default: chosen for the picture)."),
-        length_unit: Optional[str] = typer.Option(None, "--length-unit", help="Length unit shown."),
-        area_unit: Optional[str] = typer.Option(None, "--area-unit", help="Area unit shown."),
-        volume_unit: Optional[str] = typer.Option(None, "--volume-unit", help="Volume unit shown."),
-        mass_unit: Optional[str] = typer.Option(None, "--mass-unit", help="Mass unit shown."),
+        dpi: int = typer.Option(100, "--dpi", help="Pixels per inch: the printed size (SVG in "
+                                                   "points); the drawing looks the same."),
+        chord: Optional[Any] = options.chord_tolerance_option(),
+        length_unit: Optional[str] = options.unit_option("length", "length",
+                                                         "Length unit shown."),
+        area_unit: Optional[str] = options.unit_option("area", "area", "Area unit shown."),
+        volume_unit: Optional[str] = options.unit_option("volume", "volume",
+                                                         "Volume unit shown."),
+        mass_unit: Optional[str] = options.unit_option("mass", "mass", "Mass unit shown."),
+        force: bool = options.force_option(),
     ) -> None:
-        """Draw the profile (or with --3d the revolved solid) as a PNG or SVG picture."""
+        """Draw the profile (or with --3d the revolved solid) as a PNG or SVG picture.
+
+        With --3d, --chord-tolerance sets the mesh drawn (at least 1/2000 of the
+        part's size; default: chosen for the picture).
+        """
         code = run_picture(profile, output, solid, axis, angle, units, material, density, width,
-                           height, dpi, tolerance, length_unit, area_unit, volume_unit, mass_unit)
+                           height, dpi, chord, length_unit, area_unit, volume_unit, mass_unit,
+                           force)
         if code:
             raise typer.Exit(code)

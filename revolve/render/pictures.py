@@ -13,9 +13,12 @@ partial revolution is shown open, its cut faces in the section's grey.
 matplotlib is imported inside the functions (never at start-up) and only its
 object interface is used (``Figure`` with the Agg canvas), so no global
 backend is switched. Colours come from matplotlib's default ``tab10`` cycle.
-Files are written atomically: a temporary file beside the target, then a
-rename. The picture has exactly the requested size in pixels (PNG) or in
-points at 72 per inch for ``dpi`` pixels per inch (SVG).
+Both give the picture's bytes; the command writes them under the one
+overwrite rule (:func:`revolve.render.output.write_outputs`). The picture has
+exactly the requested size in pixels (PNG) or in points at 72 per inch for
+``dpi`` pixels per inch (SVG). Units are a
+:class:`revolve.jobs.results.OutputUnits` (:func:`revolve.jobs.measuring.part_units`);
+numbers are written as the tables write them (:mod:`revolve.render.numbers`).
 
 Examples
 --------
@@ -37,13 +40,32 @@ from typing import List, Optional, Sequence, Tuple
 import numpy as np
 
 from revolve.errors import FormatError, RevolveError
-from revolve.render.drawing import (AXIS_COLOUR, AXIS_DASHES, CUT_FACE_COLOUR, SECTION_FILL, SECTION_HATCH,  # noqa: F401
-                                    draw_section, face_styles, sketch_paths)
-
-_sketch_paths = sketch_paths  # the name the picture tests use
+from revolve.render.drawing import (AXIS_COLOUR, AXIS_DASHES, CUT_FACE_COLOUR, SECTION_FILL,
+                                    SECTION_HATCH, draw_section, face_styles, sketch_paths)
+from revolve.render.numbers import number as _number
 
 #: Picture formats by file name ending.
 FORMATS = {".png": "png", ".svg": "svg"}
+
+
+def fmt(value, digits: int = 6) -> str:
+    """A figure in a picture: ``digits`` significant figures, as the tables write them."""
+    return _number(value, digits)
+
+
+class _Shown:
+    """The output units of a picture as factors from the profile's unit (and from kg)."""
+
+    def __init__(self, units, profile_unit: str):
+        from revolve import units as registry
+
+        si = registry.factor(profile_unit, "length")
+        self.length, self.area = units.unit("length"), units.unit("area")
+        self.volume, self.mass = units.unit("volume"), units.unit("mass")
+        self.length_factor = units.show(si, "length")
+        self.area_factor = units.show(si ** 2, "area")
+        self.volume_factor = units.show(si ** 3, "volume")
+        self.mass_factor = units.show(1.0, "mass")
 
 def picture_format(path: str) -> str:
     """``"png"`` or ``"svg"`` from the file name's ending; anything else is refused."""
@@ -65,31 +87,28 @@ def _figure(width: int, height: int, dpi: int):
     return Figure(figsize=(width / dpi, height / dpi), dpi=dpi)
 
 
-def save_figure(fig, path: str) -> None:
-    """Save a figure atomically in the format its name says (PNG or SVG).
+def figure_bytes(fig, path: str) -> bytes:
+    """A figure's file contents in the format its name says (PNG or SVG).
 
-    >>> save_figure(_figure(300, 200, 100), "no/such/folder/p.png")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.FormatError: no/such/folder/p.png: cannot write the file (No such file or directory)
+    >>> figure_bytes(_figure(300, 200, 100), "p.png")[:4]
+    b'\x89PNG'
     """
+    import io
+
     from matplotlib.backends.backend_agg import FigureCanvasAgg
 
     kind = picture_format(path)
     FigureCanvasAgg(fig)
-    from revolve.formats.files import write_atomically
-
     metadata = {"Software": "revolve"} if kind == "png" else {"Creator": "revolve"}
-    write_atomically(path, lambda handle: fig.savefig(handle, format=kind, dpi=fig.dpi,
-                                                      metadata=metadata), binary=True)
+    buffer = io.BytesIO()
+    fig.savefig(buffer, format=kind, dpi=fig.dpi, metadata=metadata)
+    return buffer.getvalue()
 
 
 # -- the profile --------------------------------------------------------------------
 
 def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequence[str] = ()) -> List[str]:
-    from revolve.cli.common import fmt
-
-    f = lambda v: fmt(v, 6)  # noqa: E731
+    f = fmt
     first = [f"revolved {float(revolution.angle_degrees):g}° about {_axis_text(revolution.axis)}"]
     if m.has_solid:
         first.append(f"section area {f(m.area * u.area_factor)} {u.area}")
@@ -114,8 +133,6 @@ def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequen
 
 
 def _axis_text(axis) -> str:
-    from revolve.cli.common import fmt
-
     d = axis.unit_direction()
     p = (float(axis.point[0]), float(axis.point[1]))
     if p == (0.0, 0.0) and d == (1.0, 0.0):
@@ -219,7 +236,7 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
 
 def profile_picture(revolution, measurement, path: str, *, units, title: Optional[str] = None,
                     density_label: Optional[str] = None, width: int = 1200, height: int = 800,
-                    dpi: int = 100) -> None:
+                    dpi: int = 100) -> bytes:
     """Draw the profile with its axis, centroids, faces, dimensions and key results.
 
     Parameters
@@ -228,8 +245,8 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     measurement : revolve.geometry.measure.Measurement
         Its results go into the caption and place the centroids.
     path : str
-        ``.png`` or ``.svg`` file, written atomically.
-    units : revolve.cli.common.OutputUnits
+        The file's name: its ending (``.png`` or ``.svg``) chooses the format.
+    units : revolve.jobs.results.OutputUnits
         Units of the dimensions and the caption.
     title : str, optional
         Heading (the profile's name).
@@ -241,12 +258,14 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     Examples
     --------
     >>> import os, tempfile
-    >>> from revolve.cli.common import output_units
+    >>> from revolve.jobs.measuring import part_units
     >>> from revolve.geometry.measure import measure
     >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
     >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
     >>> out = os.path.join(tempfile.mkdtemp(), "ring.png")
-    >>> profile_picture(rev, measure(rev), out, units=output_units("mm"), width=400, height=300)
+    >>> data = profile_picture(rev, measure(rev), out, units=part_units("mm"), width=400, height=300)
+    >>> with open(out, "wb") as f:
+    ...     _ = f.write(data)
     >>> import matplotlib.image
     >>> matplotlib.image.imread(out).shape[:2]
     (300, 400)
@@ -255,11 +274,10 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     from matplotlib.lines import Line2D
     from matplotlib.patches import Patch
 
-    from revolve.cli.common import fmt
     from revolve.geometry.checks import prepare
 
     picture_format(path)
-    m, u = measurement, units
+    m, u = measurement, _Shown(units, revolution.profile.unit)
     profile, axis = revolution.profile, revolution.axis
     prep = prepare(profile, axis)
     size = prep.size
@@ -407,7 +425,7 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
                  fontweight="bold", va="top", ha="left")
     fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
              linespacing=1.45, color="#222222")
-    save_figure(fig, path)
+    return figure_bytes(fig, path)
 
 
 def _chain_faces(profile) -> set:
@@ -484,7 +502,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
                   density_label: Optional[str] = None, width: int = 1200, height: int = 800,
                   dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
                   azimuth: float = -58.0):
-    """Draw the revolved solid in 3-D, shaded, faces coloured; returns the mesh drawn.
+    """Draw the revolved solid in 3-D, shaded, faces coloured; returns the bytes and the mesh drawn.
 
     The sketch plane faces the viewer as in :func:`profile_picture` (sketch
     ``x`` to the right, ``y`` up) and the sweep comes out of it towards the
@@ -493,16 +511,15 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     Examples
     --------
     >>> import os, tempfile
-    >>> from revolve.cli.common import output_units
+    >>> from revolve.jobs.measuring import part_units
     >>> from revolve.geometry.measure import measure
     >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
     >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)),
     ...                  Axis.x(), 270)
-    >>> out = os.path.join(tempfile.mkdtemp(), "ring.svg")
-    >>> mesh = solid_picture(rev, measure(rev), out, units=output_units("mm"), width=400, height=300)
-    >>> with open(out, encoding="utf-8") as f:
-    ...     f.read(200).lstrip().startswith("<?xml")
-    True
+    >>> data, mesh = solid_picture(rev, measure(rev), "ring.svg", units=part_units("mm"),
+    ...                            width=400, height=300)
+    >>> data.lstrip().startswith(b"<?xml"), mesh.closed
+    (True, True)
     """
     from matplotlib.patches import Patch
     from mpl_toolkits.mplot3d.art3d import Line3DCollection, Poly3DCollection
@@ -512,7 +529,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
 
     picture_format(path)
     mesh = picture_mesh(revolution, tolerance)
-    m, u = measurement, units
+    m, u = measurement, _Shown(units, revolution.profile.unit)
     # Sketch (x, y, z) -> picture (x, -z, y): the sketch plane stands facing the viewer.
     turn = np.array([[1.0, 0.0, 0.0], [0.0, 0.0, -1.0], [0.0, 1.0, 0.0]])
     vertices = mesh.vertices @ turn.T
@@ -596,5 +613,4 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
                  fontweight="bold", va="top", ha="left")
     fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
              linespacing=1.45, color="#222222")
-    save_figure(fig, path)
-    return mesh
+    return figure_bytes(fig, path), mesh
