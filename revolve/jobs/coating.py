@@ -1399,21 +1399,24 @@ def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance:
             if q.cost is not None:
                 line["cost"] = q.cost
             lines.append(line)
-    coats_rows = []
+    coats_rows, paint_rows = [], []
     for q in est.coats:
         c = q.coat
         film = c.dft_exact / 1_000_000 if c.dft_exact is not None else c.dft_um * 1e-6
         wet = film * 100 / _exact(c.volume_solids) if c.dft_exact is not None \
             else c.wet_film_um * 1e-6
         row = {"coat": c.name, "dft": film, "volume_solids": c.volume_solids, "wet_film": wet,
-               "spreading_rate_theoretical": c.spreading_rate_theoretical * 1000,
-               "loss": c.loss, "spreading_rate_practical": c.spreading_rate_practical * 1000,
-               "paint": q.litres / 1000}
+               "loss": c.loss, "spreading_rate_theoretical": c.spreading_rate_theoretical * 1000,
+               "spreading_rate_practical": c.spreading_rate_practical * 1000}
         if c.price_per_litre is not None:
             row["price"] = c.price_exact * 1000 if c.price_exact is not None \
                 else c.price_per_litre * 1000
-            row["cost"] = q.cost
         coats_rows.append(row)
+        row = {"coat": c.name, "area": q.area, "paint": q.litres / 1000,
+               "paint_theoretical": q.litres_theoretical / 1000}
+        if q.cost is not None:
+            row["cost"] = q.cost
+        paint_rows.append(row)
     films = [c.dft_exact for c in system.coats]
     total = {"quantity": est.quantity, "area": est.area,
              "dft": sum(films, Fraction(0)) / 1_000_000 if all(f is not None for f in films)
@@ -1437,16 +1440,17 @@ def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance:
             Field("area_each", "each", "area"), Field("area", "batch", "area"),
             Field("paint", "paint", "paint"), money,
             Field("surface_check", "surface check", digits=2)), tuple(parts_rows)),
-        Table("coats", f"Coats: {name}" + (f" ({system.file})" if system.file else "")
-              + "; each over the whole batch", (
+        Table("coats", f"Coats: {name}" + (f" ({system.file})" if system.file else ""), (
             Field("coat", "coat", style="text"), Field("dft", "DFT", "film"),
-            Field("volume_solids", "VS", style="percent"),
-            Field("wet_film", "WFT", "film"),
-            Field("spreading_rate_theoretical", "rate", "coverage/paint"),
+            Field("volume_solids", "VS", style="percent"), Field("wet_film", "WFT", "film"),
             Field("loss", "loss", style="percent"),
+            Field("spreading_rate_theoretical", "rate", "coverage/paint"),
             Field("spreading_rate_practical", "practical", "coverage/paint"),
-            Field("paint", "to buy", "paint"), Field("price", "price", "money/paint", style="money"),
-            money), tuple(coats_rows)),
+            Field("price", "price", "money/paint", style="money")), tuple(coats_rows)),
+        Table("paint", "Paint for the batch, by coat (each coat over the whole area)", (
+            Field("coat", "coat", style="text"), Field("area", "area", "area"),
+            Field("paint", "to buy", "paint"), Field("paint_theoretical", "as film", "paint"),
+            money), tuple(paint_rows)),
         Table("quantities", "Paint by part and coat", (
             Field("part", "part", style="text"), Field("coat", "coat", style="text"),
             Field("area", "area", "area"), Field("paint", "to buy", "paint"),
@@ -1633,7 +1637,7 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
     Returns
     -------
     CoatingResult
-        Tables ``surfaces``, ``parts``, ``coats``, ``quantities``, ``total``;
+        Tables ``surfaces``, ``parts``, ``coats``, ``paint``, ``quantities``, ``total``;
         ``.area``, ``.paint``, ``.cost`` in its units.
 
     Raises

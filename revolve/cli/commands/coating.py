@@ -10,9 +10,11 @@ feet, or with ``--us``), paint L (US gal), films µm (mil), spreading rates in
 area per paint unit. Small parts: when every part's coated area would show
 below 0.01 m² (ft²), areas are in cm² (in²); paint below 0.01 L (US gal) for
 every coat is in mL. ``--area-unit``, ``--volume-unit`` and ``--film-unit``
-choose others. JSON (``--json``): one object, ``units``, ``inputs``, the
-tables ``surfaces``, ``parts``, ``coats``, ``quantities`` (part × coat; what
-``--csv`` writes) and ``total``, then ``notes`` and ``cautions``.
+choose others. JSON (``--json``): one object with ``inputs`` and ``units``
+once, the tables ``surfaces``, ``parts``, ``coats``, ``paint`` (each coat for
+the batch), ``quantities`` (part × coat; what ``--csv`` writes) and
+``total``, then ``notes`` and ``cautions``. Existing files are replaced only
+with ``--force``.
 """
 
 from __future__ import annotations
