@@ -1365,7 +1365,7 @@ def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, parts
         small["area"] = SMALL_AREA[1 if imperial else 0]
     litres = max(q.litres for q in est.coats)
     if paint_unit is None and litres / 1000 < SMALL * u.read(1, "paint"):
-        small["paint"] = small["capacity"] = "mL"
+        small["paint"] = "mL"
     return (u.with_units(small) if small else u), small
 
 
@@ -1444,10 +1444,10 @@ def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance:
             Field("coat", "coat", style="text"), Field("dft", "DFT", "film"),
             Field("volume_solids", "VS", style="percent"), Field("wet_film", "WFT", "film"),
             Field("loss", "loss", style="percent"),
-            Field("spreading_rate_theoretical", "rate", "coverage/paint"),
-            Field("spreading_rate_practical", "practical", "coverage/paint"),
-            Field("price", "price", "money/paint", style="money")), tuple(coats_rows)),
-        Table("paint", "Paint for the batch, by coat (each coat over the whole area)", (
+            Field("spreading_rate_theoretical", "rate", "coverage/capacity"),
+            Field("spreading_rate_practical", "practical", "coverage/capacity"),
+            Field("price", "price", "money/capacity", style="money")), tuple(coats_rows)),
+        Table("paint", "Paint by coat, for the whole batch", (
             Field("coat", "coat", style="text"), Field("area", "area", "area"),
             Field("paint", "to buy", "paint"), Field("paint_theoretical", "as film", "paint"),
             money), tuple(paint_rows)),
@@ -1533,7 +1533,7 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
             counted = {"both": "both sides counted", "outer": "one side counted (outer)",
                        "inner": "one side counted (inner)"}[sides]
             notes.append(f"{p.name}: an open chain is a sheet with two sides of equal area; "
-                         f"{counted} ({names['sides']})")
+                         f"{counted} ({CLI_NAMES['sides']})")
         angle_text = f"{float(p.measurement.revolution.angle_degrees):g}°"
         if any(ch.surface.kind == "cut" and not ch.included for ch in chosen):
             notes.append(f"{p.name}: the flat cut faces of the {angle_text} revolution are not "
@@ -1555,10 +1555,10 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     if "area" in small:
         notes.append(f"every part's coated area is below {SMALL:g} "
                      f"{'ft²' if imperial else 'm²'}: areas are in {small['area']} "
-                     f"({names['area_unit']} to choose)")
+                     f"({CLI_NAMES['area_unit']} to choose)")
     if "paint" in small:
         notes.append(f"every coat needs below {SMALL:g} {'US gal' if imperial else 'L'}: paint "
-                     f"is in mL ({names['paint_unit']} to choose)")
+                     f"is in mL ({CLI_NAMES['paint_unit']} to choose)")
     notes.append(FORMULAS)
     n, kinds = est.quantity, len(parts)
     heading = (f"Coating estimate, {n} part{'s' if n != 1 else ''}"

@@ -124,7 +124,7 @@ def test_json_keys_units_and_caution(tmp_path, capsys):
     for key in ("spreading_rate_theoretical", "spreading_rate_practical", "wet_film", "dft"):
         assert key in d["coats"][0]
     assert d["units"]["area"] == "m²" and d["units"]["paint"] == "L"
-    assert d["units"]["film"] == "µm" and d["units"]["coverage/paint"] == "m²/L"
+    assert d["units"]["film"] == "µm" and d["units"]["coverage/capacity"] == "m²/L"
     assert d["cautions"] == [CAUTIONS["coating"]]
 
 
@@ -163,7 +163,7 @@ def test_json_coat_figures_common_practice(tmp_path, capsys):
     assert rel(p["cost"], 12.5 * area / 4) < 1e-13
     assert rel(d["total"]["paint"], area / 4) < 1e-13
     assert c["price"] == 12.5
-    assert d["inputs"]["system"]["currency"] == "EUR" and d["units"]["money/paint"] == "EUR/L"
+    assert d["inputs"]["system"]["currency"] == "EUR" and d["units"]["money/capacity"] == "EUR/L"
 
 
 def test_us_units(tmp_path, capsys):
@@ -174,7 +174,7 @@ def test_us_units(tmp_path, capsys):
     assert code == 0
     d = json.loads(out)
     assert d["units"]["area"] == "ft²" and d["units"]["paint"] == "US gal"
-    assert d["units"]["film"] == "mil" and d["units"]["coverage/paint"] == "ft²/US gal"
+    assert d["units"]["film"] == "mil" and d["units"]["coverage/capacity"] == "ft²/US gal"
     (c,) = d["coats"]
     constant = 231 / 0.001 / 144
     assert rel(c["spreading_rate_theoretical"], constant * 0.8 / 4) < 1e-12
@@ -192,7 +192,7 @@ def test_units_mixed_by_option(tmp_path, capsys):
     assert code == 0
     d = json.loads(out)
     c = d["coats"][0]
-    assert d["units"]["coverage/paint"] == "ft²/L"
+    assert d["units"]["coverage/capacity"] == "ft²/L"
     assert c["dft"] == pytest.approx(100 / 25.4, rel=1e-14)   # 1 mil = 25.4 µm (1959)
     assert rel(c["spreading_rate_theoretical"], 5.0 / (0.3048 ** 2)) < 1e-13
     # a bare --dft number is in the film unit: 4 with --film-unit mil is 4 mils = 101.6 µm
@@ -460,3 +460,158 @@ def test_us_film_echoes_the_users_number(tmp_path, capsys):
     code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--dft", "1 mil",
                           "--volume-solids", "50", "--loss", "10", "--json"], capsys)
     assert json.loads(out)["coats"][0]["dft"] == 25.4    # 1 mil = 25.4 µm (1959 agreement)
+
+
+# -- folders, the overwrite rule, small parts (issue 12) --------------------------------
+
+
+def test_a_folder_is_read_like_measure_and_its_coating_system_left_out(tmp_path, capsys):
+    folder = tmp_path / "batch"
+    folder.mkdir()
+    write(folder, "a-pipe.toml", PIPE)
+    write(folder, "b-ball.toml", BALL)
+    write(folder, "system.toml", (ROOT / "examples" / "coating-idler-system.toml").read_text())
+    code, out, err = run(["coat", str(folder), "-q", "2,10", "--system",
+                          str(folder / "system.toml"), "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert [p["part"] for p in d["parts"]] == ["Pipe spool", "Float ball"]
+    assert d["inputs"]["profiles"] == [str(folder / "a-pipe.toml"), str(folder / "b-ball.toml")]
+    # the same areas as the files named one by one: 2πrh, π(R² − r²), 4πr² — CRC (from memory)
+    assert rel(d["total"]["area"], 2 * (BORE + OUTSIDE + ENDS) + 10 * 4 * PI * 0.1 ** 2) < 1e-13
+    assert any("system.toml" in n and "left out" in n for n in d["notes"])
+
+
+def test_an_empty_folder_is_refused_exit_2(tmp_path, capsys):
+    code, out, err = run(["coat", str(tmp_path), *ONE_COAT], capsys)
+    assert_one_line_error(code, out, err, str(tmp_path), "no profile files")
+
+
+def test_an_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    target = tmp_path / "estimate.csv"
+    target.write_text("keep me\n", encoding="utf-8")
+    pipe = write(tmp_path, "pipe.toml", PIPE)
+    code, out, err = run(["coat", pipe, *ONE_COAT, "--csv", str(target)], capsys)
+    assert_one_line_error(code, out, err, "--csv", "estimate.csv", "--force")
+    assert target.read_text(encoding="utf-8") == "keep me\n" and out == ""
+    code, out, err = run(["coat", pipe, *ONE_COAT, "--csv", str(target), "--force"], capsys)
+    assert code == 0, err
+    rows = list(csv.DictReader(io.StringIO(target.read_text(encoding="utf-8"))))
+    # litres = area / (10 × 50 / 100 × 0.8) — common practice, no source
+    assert rel(float(rows[0]["to buy (L)"]), (BORE + OUTSIDE + ENDS) / 4) < 1e-13
+
+
+# A washer 1 mm thick, bore radius 3 mm, outside radius 5 mm (invented), in mm: coated area
+# 2π·5·1 + 2π·3·1 + 2π(5² − 3²) mm² = 16π + 32π = 48π mm² — CRC (from memory)
+WASHER = """
+name = "Small washer"
+units = "mm"
+[[loop]]
+start = [0, 3]
+segments = [ { line_to = [1, 3] }, { line_to = [1, 5] }, { line_to = [0, 5] }, { close = true } ]
+"""
+
+
+def test_small_parts_show_in_cm2_and_ml_with_a_note(tmp_path, capsys):
+    path = write(tmp_path, "washer.toml", WASHER)
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json"], capsys)
+    d = json.loads(out)
+    assert d["units"]["area"] == "cm²" and d["units"]["paint"] == "mL"
+    assert d["units"]["coverage/capacity"] == "m²/L"          # rates keep the trade's unit
+    assert rel(d["total"]["area"], 48 * PI / 100) < 1e-13       # mm² -> cm²: / 100
+    # 48π mm² at 4 m²/L: 48π × 1e-6 / 4 L = 12π µL = 0.012π mL — common practice, no source
+    assert rel(d["total"]["paint"], 0.012 * PI) < 1e-13
+    assert any("cm²" in n for n in d["notes"]) and any("mL" in n for n in d["notes"])
+    code, out, _ = run(["coat", path, *ONE_COAT], capsys)
+    assert "e-0" not in out and "(cm²)" in out and "(mL)" in out
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--area-unit", "m^2"], capsys)
+    d = json.loads(out)
+    assert d["units"]["area"] == "m²" and rel(d["total"]["area"], 48 * PI * 1e-6) < 1e-13
+    # a batch is judged by its largest part: with the pipe, every area is in m²
+    code, out, _ = run(["coat", path, write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--json"],
+                       capsys)
+    assert json.loads(out)["units"]["area"] == "m²"
+
+
+def test_inch_drawings_default_to_inch_pound_units(capsys):
+    sleeve = str(ROOT / "profiles" / "turned-sleeve-inch.toml")
+    code, out, _ = run(["coat", sleeve, "--dft", "3", "--volume-solids", "60", "--loss", "0",
+                        "--price-per-gallon", "45 USD", "-q", "200", "--json"], capsys)
+    d = json.loads(out)
+    assert (d["units"]["area"], d["units"]["paint"], d["units"]["film"]) == ("ft²", "US gal", "mil")
+    (c,) = d["coats"]
+    # a bare --dft is in the output's film unit: 3 mils; 1604.17 × 0.6 / 3 ft²/US gal
+    # (231 in³ / 0.001 in / 144, derived from unit definitions); the price reads back as given
+    assert c["dft"] == 3.0 and rel(c["spreading_rate_theoretical"], 231 / 0.001 / 144 * 0.2) < 1e-12
+    assert c["price"] == 45.0 and d["units"]["money/capacity"] == "USD/US gal"
+
+
+# -- the library gives the command's JSON ----------------------------------------------
+
+
+BUNDLED = sorted(p for p in (ROOT / "profiles").iterdir() if not p.name.startswith("."))
+
+
+@pytest.mark.parametrize("profile", BUNDLED, ids=lambda p: p.name)
+def test_library_to_dict_equals_the_commands_json(profile, capsys):
+    import revolve
+
+    code, out, err = run(["coat", str(profile), "--system", SYSTEM, "-q", "25", "--json"], capsys)
+    assert code == 0, err
+    result = revolve.estimate_coating(str(profile), system=SYSTEM, quantity=25)
+    assert json.loads(json.dumps(result.to_dict(), ensure_ascii=False)) == json.loads(out)
+    assert result.area == json.loads(out)["total"]["area"] > 0
+
+
+def test_library_takes_the_options_strings_and_names_its_parameters(tmp_path):
+    import revolve
+    from revolve.errors import RevolveError
+
+    pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
+    r = revolve.estimate_coating([pipe, ball], dft="100 um", volume_solids="50 %", loss=20,
+                                 price_per_litre="12.50 EUR", quantity="2,10", mask=["bore"])
+    # 2 pipes without their bores plus 10 balls — CRC (from memory); 4 m²/L (common practice)
+    area = 2 * (OUTSIDE + ENDS) + 10 * 4 * PI * 0.1 ** 2
+    assert rel(r.area, area) < 1e-13 and rel(r.paint, area / 4) < 1e-13
+    assert rel(r.cost, 12.5 * area / 4) < 1e-13
+    assert "estimate_coating" in revolve.__all__ and "<CoatingResult coat" in repr(r)
+    assert "<table>" in r._repr_html_()
+    with pytest.raises(RevolveError, match=r"^quantity: give one quantity"):
+        revolve.estimate_coating(pipe, dft="100 um", volume_solids=50, loss=20, quantity=[1, 2])
+    with pytest.raises(RevolveError, match=r"^dft: give the dry film thickness"):
+        revolve.estimate_coating(pipe, dft="thick", volume_solids=50, loss=20)
+
+
+# -- generated inputs: any tube, unit, quantity and output unit --------------------------
+
+from hypothesis import example, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+
+@settings(max_examples=25, deadline=None)
+@given(r=st.floats(0.5, 500), wall=st.floats(0.1, 50), length=st.floats(0.1, 2000),
+       unit=st.sampled_from(["mm", "cm", "m", "in", "ft"]), quantity=st.integers(1, 10_000),
+       area_unit=st.sampled_from([None, "m^2", "ft^2", "cm^2", "mm^2"]))
+@example(r=3.0, wall=2.0, length=1.0, unit="mm", quantity=1, area_unit=None)      # small part
+def test_generated_tubes_give_the_closed_form_area_in_any_unit(r, wall, length, unit, quantity,
+                                                               area_unit):
+    # a tube's surface: 2π(r + R)L + 2π(R² − r²) — CRC (from memory); units through the
+    # exact definitions of the unit table (1 in = 25.4 mm, 1959)
+    import revolve
+    from revolve import units
+    from revolve.geometry.profile import Loop, Profile
+
+    R = r + wall
+    tube = Profile(loops=(Loop.from_points([(0, r), (length, r), (length, R), (0, R)]),),
+                   unit=unit, name="tube")
+    result = revolve.estimate_coating(tube, dft="80 um", volume_solids=50, loss=0,
+                                      quantity=quantity, area_unit=area_unit)
+    d = result.to_dict()
+    want_m2 = (2 * PI * (r + R) * length + 2 * PI * (R * R - r * r)) * \
+        units.factor(unit, "length") ** 2
+    shown = d["units"]["area"]
+    assert rel(d["total"]["area"], quantity * want_m2 / units.factor(shown, "area")) < 1e-11
+    # 10 × 50 / 80 = 6.25 m²/L with no loss — common practice, no source
+    litres = quantity * want_m2 / 6.25
+    assert rel(d["total"]["paint"], litres / (units.factor(d["units"]["paint"], "volume") * 1000)) \
+        < 1e-11
