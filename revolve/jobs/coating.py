@@ -102,6 +102,7 @@ Examples
 
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import math
 import os
@@ -1163,6 +1164,15 @@ class CoatingResult(Result):
 
     disagreements: Tuple[Tuple[str, float], ...] = ()
 
+    def __repr__(self) -> str:
+        u = self.to_dict()["units"]
+        n = self._total("quantity")
+        cost = self.cost
+        money = "" if cost is None else \
+            f", cost {cost:.2f}{' ' + self.units.currency if self.units.currency else ''}"
+        return (f"<CoatingResult: {n} part{'s' if n != 1 else ''}, area {self.area:.6g} "
+                f"{u['area']}, paint {self.paint:.6g} {u['paint']}{money}>")
+
     def _total(self, key: str) -> Optional[float]:
         return self.table("total").json(self.units).get(key)
 
@@ -1349,7 +1359,7 @@ def _measure(doc, axis, angle, quantity: int, number: int) -> CoatedPart:
                       units.factor(doc.profile.unit, "length") ** 2)
 
 
-def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, parts, est, currency):
+def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, est, currency):
     """Trade units (:func:`trade_units` "coating"), the user's choices, then the small-part rule."""
     from revolve.jobs.results import trade_units
 
@@ -1526,7 +1536,7 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     areas = []
     for i, p in enumerate(parts):
         chosen = select(p.found, include, masked, sides, cut_faces)
-        parts[i] = p = replace_part(p, chosen)
+        parts[i] = p = dataclasses.replace(p, chosen=chosen)
         by_face = tuple((k, v * p.si) for k, v in area_by_face(chosen).items())
         areas.append(PartArea(p.name, coated_area(chosen) * p.si, p.quantity, by_face))
         if any(ch.surface.kind == "chain" for ch in chosen):
@@ -1550,7 +1560,7 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     if not est.cost_complete and est.cost is not None:
         missing = ", ".join(c.name for c in found_system.coats if c.price_per_litre is None)
         notes.append(f"the cost leaves out the coats without a price: {missing}")
-    u, small = _output_units(imperial, area_unit, paint_unit, film_unit, names, parts, est,
+    u, small = _output_units(imperial, area_unit, paint_unit, film_unit, names, est,
                              found_system.currency)
     if "area" in small:
         notes.append(f"every part's coated area is below {SMALL:g} "
@@ -1575,12 +1585,6 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
                 if not p.measurement.crosscheck.surface_difference <= tolerance)
     return CoatingResult("coat", u, inputs, _tables(parts, est, heading, tolerance),
                          tuple(notes), ("coating",), disagreements=bad)
-
-
-def replace_part(part: CoatedPart, chosen: Tuple[Chosen, ...]) -> CoatedPart:
-    from dataclasses import replace
-
-    return replace(part, chosen=chosen)
 
 
 def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = None,
@@ -1655,6 +1659,8 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
     ...                unit="mm", name="tube")
     >>> r = estimate_coating(tube, dft="100 um", volume_solids=50, loss="20 %", faces="outside",
     ...                      price_per_litre="12 EUR", quantity=10)
+    >>> r
+    <CoatingResult: 10 parts, area 3.14159 m², paint 0.785398 L, cost 9.42 EUR>
     >>> round(r.area, 6), round(r.paint, 6), round(r.cost, 4), r.to_dict()["units"]["paint"]
     (3.141593, 0.785398, 9.4248, 'L')
 

@@ -30,7 +30,6 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
              **inputs: Any) -> int:
     """Estimate, write the CSV, print; return the exit code (1: a cross-check disagrees)."""
     import sys
-    from dataclasses import replace
 
     from revolve.cli.common import profile_paths
     from revolve.formats.files import check_target
@@ -47,14 +46,23 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
     if as_json:
         sys.stdout.write(output.json_text(result) + "\n")
     else:
-        shown = result if len(result.table("parts").rows) > 1 else replace(
-            result, tables=tuple(t for t in result.tables if t.key != "quantities"))
-        output.show(shown)
+        output.show(_for_screen(result))
     for name, difference in result.disagreements:
         print(f"revolve: {name}: the two surface computations disagree by {difference:.1e} "
               f"(more than {result.inputs['tolerance']:g}); do not use these figures without "
               "finding out why", file=sys.stderr)
     return 1 if result.disagreements else 0
+
+
+def _for_screen(result):
+    """One part: its name once (in the parts table), no table by part and coat."""
+    from dataclasses import replace
+
+    if len(result.table("parts").rows) > 1:
+        return result
+    tables = tuple(replace(t, fields=tuple(f for f in t.fields if f.key != "part"))
+                   if t.key == "surfaces" else t for t in result.tables if t.key != "quantities")
+    return replace(result, tables=tables)
 
 
 def register(app: typer.Typer) -> None:
