@@ -1518,6 +1518,12 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     imperial = us or all(registry.canonical(d.profile.unit, "length") in IMPERIAL_LENGTHS
                          for d in docs)
     film_text = film_unit or ("mil" if imperial else "um")
+    if imperial and not us and film_unit is None and dft is not None and \
+            not re.search(r"[A-Za-zµ]", str(dft)):
+        # mils only because the drawings are in inches: a bare number would be a guess
+        raise CoatingError(f"give the dry film thickness with its unit, such as '3 mil' or "
+                           f"'75 um', got {str(dft)!r} (or choose the film unit with "
+                           f"{names['film_unit']})", option=names["dft"])
     found_system = _system(system, names, coat_name=coat_name, dft=dft,
                            volume_solids=volume_solids, loss=loss,
                            price_per_litre=price_per_litre, price_per_gallon=price_per_gallon,
@@ -1610,7 +1616,8 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
         A coating-system file (TOML, several coats); or give one coat with:
     dft : str or float
         Dry film thickness with its unit (``"75 um"``, ``"3 mil"``); a bare
-        number is in the film unit (µm, or mil for inch-pound output).
+        number is in µm, or in mils with ``us=True`` or ``film_unit="mil"``
+        (for inch or foot drawings otherwise, the unit must be written).
     volume_solids, loss : float or str
         Percentages (``58`` or ``"58 %"``): volume solids above 0 and at most
         100, loss factor at least 0 and below 100.

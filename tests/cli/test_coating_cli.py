@@ -535,12 +535,16 @@ def test_small_parts_show_in_cm2_and_ml_with_a_note(tmp_path, capsys):
 
 def test_inch_drawings_default_to_inch_pound_units(capsys):
     sleeve = str(ROOT / "profiles" / "turned-sleeve-inch.toml")
-    code, out, _ = run(["coat", sleeve, "--dft", "3", "--volume-solids", "60", "--loss", "0",
+    code, out, err = run(["coat", sleeve, "--dft", "3", "--volume-solids", "60", "--loss", "0"],
+                         capsys)
+    # mils only because the drawing is in inches: a bare --dft would be a guess, so it is refused
+    assert_one_line_error(code, out, err, "--dft", "'3 mil'")
+    code, out, _ = run(["coat", sleeve, "--dft", "3 mil", "--volume-solids", "60", "--loss", "0",
                         "--price-per-gallon", "45 USD", "-q", "200", "--json"], capsys)
     d = json.loads(out)
     assert (d["units"]["area"], d["units"]["paint"], d["units"]["film"]) == ("ft²", "US gal", "mil")
     (c,) = d["coats"]
-    # a bare --dft is in the output's film unit: 3 mils; 1604.17 × 0.6 / 3 ft²/US gal
+    # 3 mils at 60 %: 1604.17 × 0.6 / 3 ft²/US gal
     # (231 in³ / 0.001 in / 144, derived from unit definitions); the price reads back as given
     assert c["dft"] == 3.0 and rel(c["spreading_rate_theoretical"], 231 / 0.001 / 144 * 0.2) < 1e-12
     assert c["price"] == 45.0 and d["units"]["money/capacity"] == "USD/US gal"

@@ -97,7 +97,7 @@ def register(app: typer.Typer) -> None:
         dft: Optional[str] = typer.Option(None, "--dft", help="Dry film thickness of one coat "
                                                               "with its unit, e.g. '75 um' or "
                                                               "'3 mil'; a bare number is in the "
-                                                              "film unit (µm, or mil)."),
+                                                              "film unit (µm; mil with --us)."),
         volume_solids: Optional[Any] = typer.Option(
             None, "--volume-solids", click_type=options.PERCENT, metavar="PERCENT",
             help="Volume solids of the coat, % (from the data sheet)."),
