@@ -17,6 +17,8 @@ Measuring
     :func:`measure_many` (many files, on every core)
 Pictures
     :func:`draw` (on a matplotlib Axes)
+Trade jobs
+    :func:`estimate_coating` (``to_dict()`` is ``revolve coat --json``)
 Errors
     :class:`RevolveError` (a ``ValueError``; one sentence naming where)
 
@@ -60,6 +62,7 @@ _LAZY = {
     "MeasureResult": "revolve.jobs.measuring",
     "measure_many": "revolve.jobs.batch",
     "draw": "revolve.render.drawing",
+    "estimate_coating": "revolve.jobs.coating",
 }
 
 __all__ = sorted(_LAZY) + ["RevolveError", "__version__"]

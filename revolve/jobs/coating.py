@@ -102,14 +102,17 @@ Examples
 
 from __future__ import annotations
 
+import dataclasses
 import difflib
 import math
+import os
 import re
 from dataclasses import dataclass, field
 from fractions import Fraction
 from typing import Any, Dict, Iterable, List, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import FormatError, RevolveError
+from revolve.jobs.results import Result
 
 #: The groups a surface can face, besides its face name.
 GROUPS = ("outside", "inside", "ends")
@@ -315,13 +318,16 @@ def surfaces(measurement, space: bool = False) -> Tuple[Surface, ...]:
     """
     import numpy as np
 
-    from revolve.geometry.checks import prepare
     from revolve.geometry.integrals import COL, segment_integrals
     from revolve.geometry.profile import UNNAMED_FACE
 
     m = measurement
     rev = m.revolution
-    prep = prepare(rev.profile, rev.axis)
+    prep = m.prepared          # the checked profile the measurement came from: not prepared again
+    if prep is None:           # a measurement built by hand, without its prepared profile
+        from revolve.geometry.checks import prepare
+
+        prep = prepare(rev.profile, rev.axis)
     theta = rev.angle_radians
     factors = iter(m.section.loop_factors)
     # (face, facing, kind, side) per piece; chains: two entries per piece
@@ -802,7 +808,8 @@ def parse_film_thickness(text: str, default_unit: str = "um") -> float:
     return float(value * Fraction(127, 5)) if key == "dft_mils" else float(value)
 
 
-def read_film_thickness(text: str, default_unit: str = "um") -> Tuple[str, Any]:
+def read_film_thickness(text: str, default_unit: str = "um",
+                        option: str = "--dft") -> Tuple[str, Any]:
     """A dry film thickness from text, as :func:`make_coat` takes it: ``("dft_um", µm)`` or
     ``("dft_mils", mils)``, the number kept exact (a Fraction) where the unit is exact.
 
@@ -828,7 +835,7 @@ def read_film_thickness(text: str, default_unit: str = "um") -> Tuple[str, Any]:
             pass
     raise CoatingError("give the dry film thickness as a number "
                        f"({units.canonical(default_unit)}) or with its unit, e.g. 75 um or 3 mil; "
-                       f"got {text!r}", place="--dft")
+                       f"got {text!r}", place=option)
 
 
 @dataclass(frozen=True)
@@ -1117,3 +1124,563 @@ def estimate(system: CoatingSystem, parts: Sequence[PartArea]) -> Estimate:
                      for p in parts)
     total_area = float(math.fsum(p.area_total for p in parts))
     return Estimate(system, per_part, tuple(coat_quantity(c, total_area) for c in system.coats))
+
+
+# -- the job: profiles and a coating system to a Result ------------------------------------
+
+#: Relative tolerance of the surface cross-check unless told otherwise (``--tolerance``).
+DEFAULT_TOLERANCE = 1e-9
+#: The small-part rule: when every part's coated area would show below this in the default
+#: area unit (m², ft²), areas are shown in :data:`SMALL_AREA` instead; when every coat's paint
+#: would show below it in the default paint unit (L, US gal), paint is shown in mL.
+SMALL = 0.01
+#: The area unit of small parts (metric, inch-pound).
+SMALL_AREA = ("cm²", "in²")
+
+#: How errors name each input on the command line ...
+CLI_NAMES = {"dft": "--dft", "volume_solids": "--volume-solids", "loss": "--loss",
+             "price_per_litre": "--price-per-litre", "price_per_gallon": "--price-per-gallon",
+             "coat_name": "--coat-name", "currency": "--currency", "system": "--system",
+             "quantity": "--quantity", "faces": "--faces", "mask": "--mask", "sides": "--sides",
+             "area_unit": "--area-unit", "paint_unit": "--volume-unit", "film_unit": "--film-unit",
+             "axis": "--axis", "angle": "--angle", "units": "--units", "tolerance": "--tolerance"}
+#: ... and in the library (the parameters of :func:`estimate_coating`).
+LIBRARY_NAMES = {key: key for key in CLI_NAMES}
+
+#: The trade's formulas, printed under the estimate.
+FORMULAS = ("rate: the theoretical spreading rate, 10 × VS % ÷ DFT in µm, m²/L (1604.17 × VS % "
+            "÷ 100 ÷ DFT in mils, ft²/US gal); practical = rate × (1 − loss % ÷ 100); to buy = "
+            "area ÷ practical; WFT = DFT × 100 ÷ VS % (VS: volume solids)")
+
+
+@dataclass(frozen=True, repr=False)
+class CoatingResult(Result):
+    """A coating estimate (:func:`estimate_coating`): tables in SI, shown in :attr:`units`.
+
+    ``disagreements`` lists ``(file or name, relative difference)`` for every
+    part whose two surface computations differ by more than the tolerance
+    (the command then exits with code 1).
+    """
+
+    disagreements: Tuple[Tuple[str, float], ...] = ()
+
+    def __repr__(self) -> str:
+        u = self.to_dict()["units"]
+        n = self._total("quantity")
+        cost = self.cost
+        money = "" if cost is None else \
+            f", cost {cost:.2f}{' ' + self.units.currency if self.units.currency else ''}"
+        return (f"<CoatingResult: {n} part{'s' if n != 1 else ''}, area {self.area:.6g} "
+                f"{u['area']}, paint {self.paint:.6g} {u['paint']}{money}>")
+
+    def _total(self, key: str) -> Optional[float]:
+        return self.table("total").json(self.units).get(key)
+
+    @property
+    def area(self) -> float:
+        """Area each coat covers over the whole batch, in ``to_dict()["units"]["area"]``."""
+        return self._total("area")
+
+    @property
+    def paint(self) -> float:
+        """Paint to buy, every coat and part, losses included, in ``units["paint"]``."""
+        return self._total("paint")
+
+    @property
+    def cost(self) -> Optional[float]:
+        """Cost of the priced coats (None when no coat has a price)."""
+        return self._total("cost")
+
+
+def _quantities(value: Any, count: int, option: str) -> List[int]:
+    """One quantity per part: None (1 each), a whole number, a list, or text ``"200,50,100"``.
+
+    >>> _quantities(None, 2, "quantity"), _quantities("3", 2, "quantity"), _quantities([2, 5], 2, "q")
+    ([1, 1], [3, 3], [2, 5])
+    >>> _quantities([1, 2, 3], 2, "--quantity")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: --quantity: give one quantity for every part, or one per part in order (2 parts); got 3
+    """
+    from revolve.inputs import parse_list
+
+    def whole(item: Any) -> int:
+        text = str(item).strip()
+        if isinstance(item, bool) or not text.isdigit() or len(text) > 9 or int(text) < 1:
+            raise CoatingError(f"{item!r} is not a whole number of 1 or more", option=option)
+        return int(text)
+
+    if value is None:
+        values = [1]
+    elif isinstance(value, str):
+        try:
+            values = parse_list(value, whole, "whole number")
+        except RevolveError as e:
+            raise e.located(option=option)
+    elif isinstance(value, (list, tuple)):
+        values = [whole(v) for v in value]
+    else:
+        values = [whole(value)]
+    if not values:
+        values = [1]
+    if len(values) == 1:
+        return values * count
+    if len(values) != count:
+        raise CoatingError(f"give one quantity for every part, or one per part in order ({count} "
+                           f"part{'s' if count != 1 else ''}); got {len(values)}", option=option)
+    return values
+
+
+def _percent(value: Any, option: str) -> Any:
+    """A percentage as given (number, or text with or without %), for :func:`make_coat`."""
+    if not isinstance(value, str):
+        return value
+    from revolve.inputs import parse_percent
+
+    try:
+        return parse_percent(value)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def _money(value: Any, option: str) -> Tuple[Any, Optional[str]]:
+    """An amount and its currency code (None) from a number, text such as "21.50 EUR" or a Money."""
+    from revolve.inputs import Money, parse_money
+
+    if value is None:
+        return None, None
+    if isinstance(value, str):
+        try:
+            value = parse_money(value)
+        except RevolveError as e:
+            raise e.located(option=option)
+    if isinstance(value, Money):
+        return value.amount, value.currency
+    return value, None
+
+
+def _system(system: Any, names: Mapping[str, str], *, coat_name, dft, volume_solids, loss,
+            price_per_litre, price_per_gallon, currency, film_unit: str) -> CoatingSystem:
+    """The coating system: a file (or a CoatingSystem), or one coat from the single-coat inputs."""
+    from dataclasses import replace
+
+    litre, litre_code = _money(price_per_litre, names["price_per_litre"])
+    gallon, gallon_code = _money(price_per_gallon, names["price_per_gallon"])
+    codes = {names[k]: c for k, c in (("currency", currency and currency.strip().upper()),
+                                      ("price_per_litre", litre_code),
+                                      ("price_per_gallon", gallon_code)) if c}
+    if len(set(codes.values())) > 1:
+        raise CoatingError("the prices and the currency name different currencies ("
+                           + ", ".join(f"{k} {v}" for k, v in codes.items())
+                           + "); give one currency", option=next(iter(codes)))
+    code = next(iter(codes.values()), None)
+    single = {"dft": dft, "volume_solids": volume_solids, "loss": loss, "coat_name": coat_name,
+              "price_per_litre": price_per_litre, "price_per_gallon": price_per_gallon}
+    given = [names[k] for k, v in single.items() if v is not None]
+    if system is not None:
+        if given:
+            raise CoatingError(f"give either a coating-system file or the inputs of one coat, not "
+                               f"both ({', '.join(given)} given with it)", option=names["system"])
+        if isinstance(system, CoatingSystem):
+            found = system
+        else:
+            from revolve.formats.files import read_text
+
+            found = parse_coating_system(read_text(os.fspath(system)), file=os.fspath(system))
+        return replace(found, currency=code) if code else found
+    if dft is None and volume_solids is None and loss is None:
+        raise CoatingError(f"no coating given: give a coating-system file ({names['system']}), or "
+                           f"{names['dft']}, {names['volume_solids']} and {names['loss']} for one "
+                           "coat")
+    where = {"dft": (None, None, names["dft"]), "dft_um": (None, None, names["dft"]),
+             "dft_mils": (None, None, names["dft"]),
+             "volume_solids": (None, None, names["volume_solids"]),
+             "loss": (None, None, names["loss"]),
+             "price_per_litre": (None, None, names["price_per_litre"]),
+             "price_per_us_gallon": (None, None, names["price_per_gallon"]),
+             "name": (None, None, names["coat_name"])}
+    film = {}
+    if dft is not None:
+        text = dft if isinstance(dft, str) else repr(dft)
+        film = dict([read_film_thickness(text, film_unit, names["dft"])])
+    coat = make_coat(coat_name, **film, volume_solids=_percent(volume_solids,
+                                                               names["volume_solids"]),
+                     loss=_percent(loss, names["loss"]), price_per_litre=litre,
+                     price_per_us_gallon=gallon, where=where)
+    return CoatingSystem((coat,), None, code, None)
+
+
+def _document(item: Any, units_text: Optional[str], names: Mapping[str, str]):
+    """A profile document from a file name or a profile built in Python."""
+    from revolve import units
+    from revolve.errors import UnitError
+    from revolve.jobs.measuring import as_document
+
+    if units_text is not None:
+        try:
+            units.factor(units_text, "length")
+        except UnitError as e:
+            raise e.located(option=names["units"])
+    if isinstance(item, (str, os.PathLike)):
+        from revolve.formats import load_profile
+
+        return load_profile(os.fspath(item), unit=units_text)
+    return as_document(item)
+
+
+@dataclass(frozen=True)
+class CoatedPart:
+    """One kind of part of the batch: its measurement (once), surfaces and choice."""
+
+    name: str
+    file: Optional[str]
+    unit: str
+    quantity: int
+    measurement: Any
+    found: Tuple[Surface, ...]
+    si: float                              # m² per (profile unit)²
+    chosen: Tuple[Chosen, ...] = ()
+
+
+def _measure(doc, axis, angle, quantity: int, number: int) -> CoatedPart:
+    """Measure a document once (the engine's :class:`Measurement` and its prepared profile)."""
+    from revolve import units
+    from revolve.geometry.measure import measure
+    from revolve.jobs.measuring import revolution_for
+
+    rev = revolution_for(doc, axis, angle)
+    try:
+        m = measure(rev)
+    except RevolveError as e:
+        raise e.located(file=doc.file)
+    found = surfaces(m, space=getattr(doc, "section", "material") == "space")
+    name = doc.name or doc.file or f"part {number}"
+    return CoatedPart(name, doc.file, doc.profile.unit, quantity, m, found,
+                      units.factor(doc.profile.unit, "length") ** 2)
+
+
+def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, est, currency):
+    """Trade units (:func:`trade_units` "coating"), the user's choices, then the small-part rule."""
+    from revolve.jobs.results import trade_units
+
+    chosen = {"area": area_unit, "coverage": area_unit, "paint": paint_unit,
+              "capacity": paint_unit, "film": film_unit}
+    options = {"area": names["area_unit"], "coverage": names["area_unit"],
+               "paint": names["paint_unit"], "capacity": names["paint_unit"],
+               "film": names["film_unit"]}
+    u = trade_units("coating", "in" if imperial else "m", chosen, options=options,
+                    currency=currency)
+    small = {}
+    if area_unit is None and max(p.part.area_each for p in est.parts) < SMALL * u.read(1, "area"):
+        small["area"] = SMALL_AREA[1 if imperial else 0]
+    litres = max(q.litres for q in est.coats)
+    if paint_unit is None and litres / 1000 < SMALL * u.read(1, "paint"):
+        small["paint"] = "mL"
+    return (u.with_units(small) if small else u), small
+
+
+def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance: float):
+    """The estimate's tables, values in SI (m, m², m³, m²/m³; money as it is)."""
+    from revolve.jobs.results import Field, Table
+
+    system = est.system
+    surfaces_rows, parts_rows, lines = [], [], []
+    for p, pe in zip(parts, est.parts):
+        for ch in p.chosen:
+            s = ch.surface
+            row = {"part": p.name, "face": s.face, "facing": s.facing, "area": s.area * p.si,
+                   "area_batch": s.area * p.si * p.quantity if ch.included else None,
+                   "counted": ch.included}
+            if s.side:
+                row["side"] = s.side
+            if ch.reason:
+                row["reason"] = ch.reason
+            surfaces_rows.append(row)
+        c = p.measurement.crosscheck
+        row = {"part": p.name, "quantity": p.quantity,
+               "area_each": pe.part.area_each, "area": pe.part.area_total,
+               "paint": pe.litres / 1000, "surface_check": c.surface_difference}
+        if pe.cost is not None:
+            row["cost"] = pe.cost
+        parts_rows.append(row)
+        for q in pe.coats:
+            line = {"part": p.name, "coat": q.coat.name, "area": q.area, "paint": q.litres / 1000,
+                    "paint_theoretical": q.litres_theoretical / 1000}
+            if q.cost is not None:
+                line["cost"] = q.cost
+            lines.append(line)
+    coats_rows, paint_rows = [], []
+    for q in est.coats:
+        c = q.coat
+        film = c.dft_exact / 1_000_000 if c.dft_exact is not None else c.dft_um * 1e-6
+        wet = film * 100 / _exact(c.volume_solids) if c.dft_exact is not None \
+            else c.wet_film_um * 1e-6
+        row = {"coat": c.name, "dft": film, "volume_solids": c.volume_solids, "wet_film": wet,
+               "loss": c.loss, "spreading_rate_theoretical": c.spreading_rate_theoretical * 1000,
+               "spreading_rate_practical": c.spreading_rate_practical * 1000}
+        if c.price_per_litre is not None:
+            row["price"] = c.price_exact * 1000 if c.price_exact is not None \
+                else c.price_per_litre * 1000
+        coats_rows.append(row)
+        row = {"coat": c.name, "area": q.area, "paint": q.litres / 1000,
+               "paint_theoretical": q.litres_theoretical / 1000}
+        if q.cost is not None:
+            row["cost"] = q.cost
+        paint_rows.append(row)
+    films = [c.dft_exact for c in system.coats]
+    total = {"quantity": est.quantity, "area": est.area,
+             "dft": sum(films, Fraction(0)) / 1_000_000 if all(f is not None for f in films)
+             else system.dft_um * 1e-6,
+             "paint": est.litres / 1000,
+             "paint_theoretical": float(math.fsum(q.litres_theoretical for q in est.coats)) / 1000}
+    if est.cost is not None:
+        total["cost"] = est.cost
+        total["cost_complete"] = est.cost_complete
+    money = Field("cost", "cost", style="money")
+    name = system.name or "one coat, from the options"
+    return (
+        Table("surfaces", f"{heading}: surfaces to coat", (
+            Field("part", "part", style="text"), Field("face", "face", style="text"),
+            Field("facing", "facing", style="text"), Field("side", "side", style="text"),
+            Field("area", "each", "area"), Field("area_batch", "batch", "area"),
+            Field("counted", "counted", style="text"), Field("reason", "why not", style="text")),
+            tuple(surfaces_rows)),
+        Table("parts", "Parts", (
+            Field("part", "part", style="text"), Field("quantity", "quantity", style="count"),
+            Field("area_each", "each", "area"), Field("area", "batch", "area"),
+            Field("paint", "paint", "paint"), money,
+            Field("surface_check", "surface check", digits=2)), tuple(parts_rows)),
+        Table("coats", f"Coats: {name}" + (f" ({system.file})" if system.file else ""), (
+            Field("coat", "coat", style="text"), Field("dft", "DFT", "film"),
+            Field("volume_solids", "VS", style="percent"), Field("wet_film", "WFT", "film"),
+            Field("loss", "loss", style="percent"),
+            Field("spreading_rate_theoretical", "rate", "coverage/capacity"),
+            Field("spreading_rate_practical", "practical", "coverage/capacity"),
+            Field("price", "price", "money/capacity", style="money")), tuple(coats_rows)),
+        Table("paint", "Paint by coat, for the whole batch", (
+            Field("coat", "coat", style="text"), Field("area", "area", "area"),
+            Field("paint", "to buy", "paint"), Field("paint_theoretical", "as film", "paint"),
+            money), tuple(paint_rows)),
+        Table("quantities", "Paint by part and coat", (
+            Field("part", "part", style="text"), Field("coat", "coat", style="text"),
+            Field("area", "area", "area"), Field("paint", "to buy", "paint"),
+            Field("paint_theoretical", "as film", "paint"), money), tuple(lines)),
+        Table("total", "Total", (
+            Field("quantity", "parts", style="count"), Field("area", "area, each coat", "area"),
+            Field("dft", "dry film, all coats", "film"), Field("paint", "paint to buy", "paint"),
+            Field("paint_theoretical", "paint left as film", "paint"), money,
+            Field("cost_complete", "every coat priced", style="text")), (total,), figures=True),
+    )
+
+
+def _axis_text(axis: Any) -> Optional[str]:
+    if axis is None or isinstance(axis, str):
+        return axis
+    return ",".join(f"{v:g}" for v in (*axis.point, *axis.direction))
+
+
+def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: Any = None,
+        loss: Any = None, price_per_litre: Any = None, price_per_gallon: Any = None,
+        coat_name: Optional[str] = None, currency: Optional[str] = None, quantity: Any = None,
+        faces: Any = None, mask: Any = None, sides: str = "both", cut_faces: bool = False,
+        axis: Any = None, angle: Optional[float] = None, units: Optional[str] = None,
+        area_unit: Optional[str] = None, paint_unit: Optional[str] = None,
+        film_unit: Optional[str] = None, us: bool = False,
+        tolerance: float = DEFAULT_TOLERANCE, names: Mapping[str, str] = LIBRARY_NAMES,
+        left_out: Sequence[str] = ()) -> CoatingResult:
+    """The coating estimate, for the command line and the library (see :func:`estimate_coating`).
+
+    ``names`` says how errors name each input (:data:`CLI_NAMES` on the
+    command line); ``left_out`` lists files of folders that were not profiles.
+    """
+    from revolve import units as registry
+    from revolve.formats.document import ProfileDocument
+    from revolve.geometry.profile import Profile, Revolution
+    from revolve.jobs.measuring import parse_axis
+    from revolve.jobs.results import IMPERIAL_LENGTHS, OutputUnits
+
+    if not (isinstance(tolerance, (int, float)) and tolerance > 0):
+        raise CoatingError(f"the tolerance must be a number above 0, got {tolerance!r}",
+                           option=names["tolerance"])
+    sides = (sides or "both").strip().lower()
+    if sides not in SIDES:
+        raise CoatingError(f'give both, outer or inner, got "{sides}"', option=names["sides"])
+    OutputUnits.of({"area": area_unit, "paint": paint_unit, "film": film_unit},
+                   options={"area": names["area_unit"], "paint": names["paint_unit"],
+                            "film": names["film_unit"]})          # refused before any work
+    if isinstance(axis, str):
+        axis = parse_axis(axis, option=names["axis"])
+    single_kinds = (str, os.PathLike, Profile, ProfileDocument, Revolution)
+    items = [profiles] if isinstance(profiles, single_kinds) else list(profiles)
+    if not items:
+        raise CoatingError("no profiles given; give one or more profile files")
+    docs = [_document(item, units, names) for item in items]
+    imperial = us or all(registry.canonical(d.profile.unit, "length") in IMPERIAL_LENGTHS
+                         for d in docs)
+    film_text = film_unit or ("mil" if imperial else "um")
+    if imperial and not us and film_unit is None and dft is not None and \
+            not re.search(r"[A-Za-zµ]", str(dft)):
+        # mils only because the drawings are in inches: a bare number would be a guess
+        raise CoatingError(f"give the dry film thickness with its unit, such as '3 mil' or "
+                           f"'75 um', got {str(dft)!r} (or choose the film unit with "
+                           f"{names['film_unit']})", option=names["dft"])
+    found_system = _system(system, names, coat_name=coat_name, dft=dft,
+                           volume_solids=volume_solids, loss=loss,
+                           price_per_litre=price_per_litre, price_per_gallon=price_per_gallon,
+                           currency=currency, film_unit=film_text)
+    counts = _quantities(quantity, len(docs), names["quantity"])
+    parts = [_measure(d, axis, angle, q, i) for i, (d, q) in enumerate(zip(docs, counts), 1)]
+    include = split_names([faces] if isinstance(faces, str) else faces)
+    masked = split_names([mask] if isinstance(mask, str) else mask)
+    known = [name for p in parts for name in face_names(p.found)]
+    single = parts[0].file if len(parts) == 1 else None
+    check_names(include, known, names["faces"], single)
+    check_names(masked, known, names["mask"], single)
+    notes: List[str] = []
+    if left_out:
+        notes.append("left out of the folders (not profiles): " + ", ".join(left_out))
+    areas = []
+    for i, p in enumerate(parts):
+        chosen = select(p.found, include, masked, sides, cut_faces)
+        parts[i] = p = dataclasses.replace(p, chosen=chosen)
+        by_face = tuple((k, v * p.si) for k, v in area_by_face(chosen).items())
+        areas.append(PartArea(p.name, coated_area(chosen) * p.si, p.quantity, by_face))
+        if any(ch.surface.kind == "chain" for ch in chosen):
+            counted = {"both": "both sides counted", "outer": "one side counted (outer)",
+                       "inner": "one side counted (inner)"}[sides]
+            notes.append(f"{p.name}: an open chain is a sheet with two sides of equal area; "
+                         f"{counted} ({CLI_NAMES['sides']})")
+        angle_text = f"{float(p.measurement.revolution.angle_degrees):g}°"
+        if any(ch.surface.kind == "cut" and not ch.included for ch in chosen):
+            notes.append(f"{p.name}: the flat cut faces of the {angle_text} revolution are not "
+                         "counted; add --cut-faces to coat them")
+        if cut_faces and p.measurement.revolution.full:
+            notes.append(f"{p.name}: a full revolution has no cut faces")
+        if areas[-1].area_each == 0:
+            notes.append(f"{p.name}: none of the faces chosen has any area on this part")
+    if not any(a.area_each > 0 for a in areas):
+        raise CoatingError("nothing to coat: the faces chosen have no area on any part; check "
+                           f"{names['faces']}, {names['mask']} and {names['sides']}", file=single,
+                           option=names["faces"] if include else names["mask"])
+    est = estimate(found_system, areas)
+    if not est.cost_complete and est.cost is not None:
+        missing = ", ".join(c.name for c in found_system.coats if c.price_per_litre is None)
+        notes.append(f"the cost leaves out the coats without a price: {missing}")
+    u, small = _output_units(imperial, area_unit, paint_unit, film_unit, names, est,
+                             found_system.currency)
+    if "area" in small:
+        notes.append(f"every part's coated area is below {SMALL:g} "
+                     f"{'ft²' if imperial else 'm²'}: areas are in {small['area']} "
+                     f"({CLI_NAMES['area_unit']} to choose)")
+    if "paint" in small:
+        notes.append(f"every coat needs below {SMALL:g} {'US gal' if imperial else 'L'}: paint "
+                     f"is in mL ({CLI_NAMES['paint_unit']} to choose)")
+    notes.append(FORMULAS)
+    n, kinds = est.quantity, len(parts)
+    heading = (f"Coating estimate, {n} part{'s' if n != 1 else ''}"
+               + (f" of {kinds} kinds" if kinds > 1 else "")
+               + f" (faces: {', '.join(include) or ALL}"
+               + (f"; masked: {', '.join(masked)}" if masked else "") + ")")
+    inputs = {"profiles": [p.file or p.name for p in parts], "quantity": counts,
+              "faces": list(include) or [ALL], "mask": list(masked), "sides": sides,
+              "cut_faces": bool(cut_faces), "axis": _axis_text(axis), "angle": angle,
+              "system": {"name": found_system.name, "file": found_system.file,
+                         "currency": found_system.currency, "coats": len(found_system.coats)},
+              "tolerance": tolerance}
+    bad = tuple((p.file or p.name, p.measurement.crosscheck.surface_difference) for p in parts
+                if not p.measurement.crosscheck.surface_difference <= tolerance)
+    return CoatingResult("coat", u, inputs, _tables(parts, est, heading, tolerance),
+                         tuple(notes), ("coating",), disagreements=bad)
+
+
+def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = None,
+                     volume_solids: Any = None, loss: Any = None, price_per_litre: Any = None,
+                     price_per_gallon: Any = None, coat_name: Optional[str] = None,
+                     currency: Optional[str] = None, quantity: Any = None, faces: Any = None,
+                     mask: Any = None, sides: str = "both", cut_faces: bool = False,
+                     axis: Any = None, angle: Optional[float] = None,
+                     units: Optional[str] = None, area_unit: Optional[str] = None,
+                     paint_unit: Optional[str] = None, film_unit: Optional[str] = None,
+                     us: bool = False, tolerance: float = DEFAULT_TOLERANCE) -> CoatingResult:
+    """A coating estimate for a batch of parts: areas by face, and each coat's paint and cost.
+
+    The same job as ``revolve coat``; ``result.to_dict()`` is exactly the
+    object ``revolve coat ... --json`` prints for the same inputs.
+
+    Parameters
+    ----------
+    profiles_or_paths : str, os.PathLike, Profile, or a list of them
+        Profile files (any format :func:`revolve.load_profile` reads) or
+        profiles built in Python; one kind of part each.
+    system : str, os.PathLike or CoatingSystem, optional
+        A coating-system file (TOML, several coats); or give one coat with:
+    dft : str or float
+        Dry film thickness with its unit (``"75 um"``, ``"3 mil"``); a bare
+        number is in µm, or in mils with ``us=True`` or ``film_unit="mil"``
+        (for inch or foot drawings otherwise, the unit must be written).
+    volume_solids, loss : float or str
+        Percentages (``58`` or ``"58 %"``): volume solids above 0 and at most
+        100, loss factor at least 0 and below 100.
+    price_per_litre, price_per_gallon : float or str, optional
+        The coat's price per litre or per US gallon (``"21.50 EUR"``).
+    coat_name, currency : str, optional
+        The coat's name; the currency's code (a label, never converted).
+    quantity : int, list of int or str, optional
+        How many of each part: one number for every part, or one per part
+        (``[200, 50, 100]`` or ``"200,50,100"``). Default 1.
+    faces, mask : str or list of str, optional
+        Face names or the groups ``outside``, ``inside``, ``ends``, ``all``
+        to coat (default all) and to leave out.
+    sides : {"both", "outer", "inner"}
+        Which sides of open chains (sheets) to count.
+    cut_faces : bool
+        Count the two flat faces of a revolution below 360°.
+    axis, angle, units
+        As for :func:`revolve.measure`.
+    area_unit, paint_unit, film_unit : str, optional
+        Output units; default by the coating trade: m², L, µm (ft², US gal,
+        mil when every drawing is in inches or feet, or with ``us=True``).
+        Areas of small parts (every part below 0.01 m², or 0.01 ft²) are in
+        cm² (in²); paint below 0.01 L (US gal) for every coat is in mL.
+    tolerance : float
+        Relative tolerance of the surface cross-check.
+
+    Returns
+    -------
+    CoatingResult
+        Tables ``surfaces``, ``parts``, ``coats``, ``paint``, ``quantities``, ``total``;
+        ``.area``, ``.paint``, ``.cost`` in its units.
+
+    Raises
+    ------
+    revolve.RevolveError
+        With the command line's one-sentence message, naming the parameter.
+
+    Examples
+    --------
+    A tube 1 m long, 100 mm outside diameter, 80 mm bore, outside only:
+    π × 0.1 m × 1 m = 0.314159 m², at 10 × 50/100 × (1 − 0.2) = 4 m²/L.
+
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> tube = Profile(loops=(Loop.from_points([(0, 40), (1000, 40), (1000, 50), (0, 50)]),),
+    ...                unit="mm", name="tube")
+    >>> r = estimate_coating(tube, dft="100 um", volume_solids=50, loss="20 %", faces="outside",
+    ...                      price_per_litre="12 EUR", quantity=10)
+    >>> r
+    <CoatingResult: 10 parts, area 3.14159 m², paint 0.785398 L, cost 9.42 EUR>
+    >>> round(r.area, 6), round(r.paint, 6), round(r.cost, 4), r.to_dict()["units"]["paint"]
+    (3.141593, 0.785398, 9.4248, 'L')
+
+    A part with nothing to coat among the faces chosen is refused:
+
+    >>> estimate_coating(tube, dft="100 um", volume_solids=50, loss=20, faces="ends", mask="ends")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: faces: nothing to coat: the faces chosen have no area on any part; check faces, mask and sides
+    """
+    return run(profiles_or_paths, system=system, dft=dft, volume_solids=volume_solids, loss=loss,
+               price_per_litre=price_per_litre, price_per_gallon=price_per_gallon,
+               coat_name=coat_name, currency=currency, quantity=quantity, faces=faces,
+               mask=mask, sides=sides, cut_faces=cut_faces, axis=axis, angle=angle, units=units,
+               area_unit=area_unit, paint_unit=paint_unit, film_unit=film_unit, us=us,
+               tolerance=tolerance)

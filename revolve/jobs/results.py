@@ -44,6 +44,7 @@ Examples
 from __future__ import annotations
 
 from dataclasses import dataclass, field as dc_field, replace
+from fractions import Fraction
 from typing import Any, Dict, Iterable, Mapping, Optional, Tuple
 
 from revolve.errors import RevolveError, UnitError
@@ -53,7 +54,7 @@ __all__ = ["ROLES", "OutputUnits", "trade_units", "Field", "Table", "Result", "I
 #: The kind of quantity (as :mod:`revolve.units` knows it) behind each role.
 ROLES = {
     "length": "length", "level": "length", "film": "length", "diameter": "length",
-    "area": "area", "section": "area",
+    "area": "area", "section": "area", "coverage": "area",
     "volume": "volume", "capacity": "volume", "paint": "volume",
     "mass": "mass", "density": "density", "time": "time",
 }
@@ -71,10 +72,10 @@ _TRADES = {
                 "volume": "L", "capacity": "L", "mass": "kg", "density": "kg/m³"},
                {"length": "{u}", "level": "{u}", "diameter": "{u}", "area": "ft²", "section": "{u}²",
                 "volume": "US gal", "capacity": "US gal", "mass": "lb", "density": "lb/ft³"}),
-    "coating": ({"length": "{u}", "area": "m²", "paint": "L", "capacity": "L", "film": "µm",
-                 "mass": "kg"},
-                {"length": "{u}", "area": "ft²", "paint": "US gal", "capacity": "US gal",
-                 "film": "mil", "mass": "lb"}),
+    "coating": ({"length": "{u}", "area": "m²", "coverage": "m²", "paint": "L", "capacity": "L",
+                 "film": "µm", "mass": "kg"},
+                {"length": "{u}", "area": "ft²", "coverage": "ft²", "paint": "US gal",
+                 "capacity": "US gal", "film": "mil", "mass": "lb"}),
     "turning": ({"length": "mm", "diameter": "mm", "area": "cm²", "section": "cm²", "volume": "cm³",
                  "mass": "kg", "density": "kg/m³", "time": "min"},
                 {"length": "in", "diameter": "in", "area": "in²", "section": "in²", "volume": "in³",
@@ -150,7 +151,7 @@ class OutputUnits:
         if "/" in role:
             top, bottom = role.split("/", 1)
             (a, fa), (b, fb) = self._pair(top), self._pair(bottom)
-            return f"{a}/{b}", fa / fb
+            return (f"{a}/{b}" if a else f"per {b}"), fa / fb
         if role == "money":
             return (self.currency or ""), 1.0
         try:
@@ -166,12 +167,42 @@ class OutputUnits:
         """The display spelling of the unit of ``role`` ('' for a role-less field)."""
         return "" if role is None else self._pair(role)[0]
 
+    def exact(self, role: str) -> Optional[Fraction]:
+        """The exact factor of ``role``'s unit (a Fraction), or None when it has none.
+
+        >>> OutputUnits.of({"film": "mil", "paint": "US gal"}).exact("film")
+        Fraction(127, 5000000)
+        >>> OutputUnits.of({"paint": "L"}).exact("money/paint")
+        Fraction(1000, 1)
+        """
+        from revolve import units as registry
+
+        if "/" in role:
+            top, bottom = role.split("/", 1)
+            a, b = self.exact(top), self.exact(bottom)
+            return None if a is None or b is None else a / b
+        if role == "money":
+            return Fraction(1)
+        display = self.units.get(role, (None,))[0]
+        return None if display is None else registry.exact_factor(display, ROLES[role])
+
     def show(self, value: Any, role: Optional[str]) -> Any:
-        """``value`` (SI) in the unit of ``role``; non-numbers (None, text) pass through."""
+        """``value`` (SI) in the unit of ``role``; non-numbers (None, text) pass through.
+
+        A Fraction is converted exactly where the unit has an exact factor, so
+        a film the user gave as 1 mil reads back 1.0, not 0.9999999999999999.
+
+        >>> OutputUnits.of({"film": "mil"}).show(Fraction(254, 10**7), "film")
+        1.0
+        """
         if role is None or value is None or isinstance(value, (str, bool)):
             return value
         if isinstance(value, (list, tuple)):
             return [self.show(v, role) for v in value]
+        if isinstance(value, Fraction):
+            exact = self.exact(role)
+            if exact is not None:
+                return float(value / exact)
         return float(value) / self._pair(role)[1]
 
     def read(self, value: float, role: str) -> float:

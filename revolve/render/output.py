@@ -111,7 +111,7 @@ def cell(value: Any, f: Field, significant: int = numbers.SIGNIFICANT) -> str:
 
 def _heading(f: Field, r: Result) -> str:
     unit = "%" if f.style == "percent" else r.units.unit(f.role)
-    if f.style == "money" and r.units.currency:
+    if f.style == "money" and r.units.currency and "/" not in (f.role or ""):
         unit = r.units.currency
     return f"{f.label} ({unit})" if unit else f.label
 
@@ -157,7 +157,7 @@ def _rich_table(t: Table, r: Result):
         for f in t.fields:
             if f.key in shown:
                 unit = "%" if f.style == "percent" else (r.units.currency or "") \
-                    if f.style == "money" else r.units.unit(f.role)
+                    if f.style == "money" and "/" not in (f.role or "") else r.units.unit(f.role)
                 value = shown[f.key]
                 text_value = cell(value, f)
                 if f.style == "percent" and text_value.endswith(" %"):

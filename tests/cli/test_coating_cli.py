@@ -27,7 +27,7 @@ from pathlib import Path
 import pytest
 
 from revolve.cli.app import main
-from revolve.cli.common import CAUTIONS
+from revolve.jobs.measuring import CAUTIONS
 
 ROOT = Path(__file__).resolve().parents[2]
 SYSTEM = str(ROOT / "examples" / "coating-idler-system.toml")
@@ -91,6 +91,15 @@ def rel(a, b):
     return abs(a - b) / abs(b)
 
 
+def per_face(d, key="area"):
+    """Counted area by face name, adding every part's pieces (one part: ``area``; all: ``area_batch``)."""
+    out = {}
+    for s in d["surfaces"]:
+        if s["counted"]:
+            out[s["face"]] = out.get(s["face"], 0.0) + s[key]
+    return out
+
+
 def assert_one_line_error(code, out, err, *fragments):
     assert code == 2
     assert "Traceback" not in err and "Traceback" not in out
@@ -108,29 +117,32 @@ def test_json_keys_units_and_caution(tmp_path, capsys):
     code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--json"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    assert set(d["area"]) >= {"per_face", "total"}
-    for key in ("spreading_rate_theoretical", "spreading_rate_practical", "wet_film", "volume"):
+    assert list(d)[:3] == ["command", "inputs", "units"] and d["command"] == "coat"
+    for key in ("surfaces", "parts", "coats", "paint", "quantities"):
+        assert isinstance(d[key], list) and d[key], key
+    assert set(d["total"]) >= {"quantity", "area", "dft", "paint", "paint_theoretical"}
+    for key in ("spreading_rate_theoretical", "spreading_rate_practical", "wet_film", "dft"):
         assert key in d["coats"][0]
-    assert d["units"]["area"] == "m²" and d["units"]["volume"] == "L"
-    assert d["units"]["film"] == "µm" and d["units"]["spreading_rate"] == "m²/L"
+    assert d["units"]["area"] == "m²" and d["units"]["paint"] == "L"
+    assert d["units"]["film"] == "µm" and d["units"]["coverage/capacity"] == "m²/L"
     assert d["cautions"] == [CAUTIONS["coating"]]
 
 
 def test_json_areas_by_face_against_formulas(tmp_path, capsys):
     path = write(tmp_path, "pipe.toml", PIPE)
-    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "-n", "3"], capsys)
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "-q", "3"], capsys)
     assert code == 0
     d = json.loads(out)
     part = d["parts"][0]
-    faces = part["area"]["per_face"]
+    faces = per_face(d)
     assert rel(faces["bore"], BORE) < 1e-13
     assert rel(faces["outside"], OUTSIDE) < 1e-13
     assert rel(faces["flange face"], ENDS) < 1e-13
-    assert rel(part["area"]["total"], BORE + OUTSIDE + ENDS) < 1e-13
-    assert rel(part["area"]["batch"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
-    assert rel(d["area"]["total"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
-    assert rel(d["area"]["per_face"]["bore"], 3 * BORE) < 1e-13
-    assert part["surface_crosscheck"]["agrees"] is True
+    assert rel(part["area_each"], BORE + OUTSIDE + ENDS) < 1e-13
+    assert rel(part["area"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
+    assert rel(d["total"]["area"], 3 * (BORE + OUTSIDE + ENDS)) < 1e-13
+    assert rel(per_face(d, "area_batch")["bore"], 3 * BORE) < 1e-13
+    assert part["surface_check"] <= d["inputs"]["tolerance"] == 1e-9
 
 
 def test_json_coat_figures_common_practice(tmp_path, capsys):
@@ -145,11 +157,13 @@ def test_json_coat_figures_common_practice(tmp_path, capsys):
     assert c["spreading_rate_theoretical"] == pytest.approx(5.0, rel=1e-15)
     assert c["spreading_rate_practical"] == pytest.approx(4.0, rel=1e-15)
     assert c["wet_film"] == pytest.approx(200.0, rel=1e-15)
-    assert rel(c["volume"], area / 4) < 1e-13
-    assert rel(c["volume_theoretical"], area / 5) < 1e-13
-    assert rel(c["cost"], 12.5 * area / 4) < 1e-13
-    assert rel(d["total"]["volume"], area / 4) < 1e-13
-    assert d["units"]["cost"] == "EUR" and d["units"]["price"] == "EUR per L"
+    (p,) = d["paint"]
+    assert rel(p["paint"], area / 4) < 1e-13
+    assert rel(p["paint_theoretical"], area / 5) < 1e-13
+    assert rel(p["cost"], 12.5 * area / 4) < 1e-13
+    assert rel(d["total"]["paint"], area / 4) < 1e-13
+    assert c["price"] == 12.5
+    assert d["inputs"]["system"]["currency"] == "EUR" and d["units"]["money/capacity"] == "EUR/L"
 
 
 def test_us_units(tmp_path, capsys):
@@ -159,16 +173,16 @@ def test_us_units(tmp_path, capsys):
                         "--volume-solids", "80", "--loss", "0", "--json"], capsys)
     assert code == 0
     d = json.loads(out)
-    assert d["units"]["area"] == "ft²" and d["units"]["volume"] == "US gal"
-    assert d["units"]["film"] == "mil" and d["units"]["spreading_rate"] == "ft²/US gal"
+    assert d["units"]["area"] == "ft²" and d["units"]["paint"] == "US gal"
+    assert d["units"]["film"] == "mil" and d["units"]["coverage/capacity"] == "ft²/US gal"
     (c,) = d["coats"]
     constant = 231 / 0.001 / 144
     assert rel(c["spreading_rate_theoretical"], constant * 0.8 / 4) < 1e-12
     assert c["dft"] == pytest.approx(4.0, rel=1e-14) and c["wet_film"] == pytest.approx(5.0, rel=1e-14)
     ft2 = (12 * 0.0254) ** 2                      # 1 ft = 12 in, 1 in = 25.4 mm (1959)
     area_ft2 = (BORE + OUTSIDE + ENDS) / ft2
-    assert rel(d["area"]["total"], area_ft2) < 1e-12
-    assert rel(c["volume"], area_ft2 / (constant * 0.8 / 4)) < 1e-12
+    assert rel(d["total"]["area"], area_ft2) < 1e-12
+    assert rel(d["paint"][0]["paint"], area_ft2 / (constant * 0.8 / 4)) < 1e-12
 
 
 def test_units_mixed_by_option(tmp_path, capsys):
@@ -178,7 +192,7 @@ def test_units_mixed_by_option(tmp_path, capsys):
     assert code == 0
     d = json.loads(out)
     c = d["coats"][0]
-    assert d["units"]["spreading_rate"] == "ft²/L"
+    assert d["units"]["coverage/capacity"] == "ft²/L"
     assert c["dft"] == pytest.approx(100 / 25.4, rel=1e-14)   # 1 mil = 25.4 µm (1959)
     assert rel(c["spreading_rate_theoretical"], 5.0 / (0.3048 ** 2)) < 1e-13
     # a bare --dft number is in the film unit: 4 with --film-unit mil is 4 mils = 101.6 µm
@@ -197,16 +211,16 @@ def test_faces_mask_and_groups(tmp_path, capsys):
     assert code == 0
     masked = json.loads(out)
     # masking removes exactly the bore, 2πrh — CRC (from memory)
-    assert rel(masked["area"]["total"], OUTSIDE + ENDS) < 1e-13
-    assert "bore" not in masked["parts"][0]["area"]["per_face"]
-    reasons = {s["face"]: s["reason"] for s in masked["parts"][0]["surfaces"]}
+    assert rel(masked["total"]["area"], OUTSIDE + ENDS) < 1e-13
+    assert "bore" not in per_face(masked)
+    reasons = {s["face"]: s.get("reason") for s in masked["surfaces"]}
     assert reasons["bore"] == "masked" and reasons["outside"] is None
     code, out, _ = run(base + ["--faces", "outside,ends"], capsys)
-    assert rel(json.loads(out)["area"]["total"], OUTSIDE + ENDS) < 1e-13
+    assert rel(json.loads(out)["total"]["area"], OUTSIDE + ENDS) < 1e-13
     code, out, _ = run(base + ["--faces", "inside"], capsys)
-    assert rel(json.loads(out)["area"]["total"], BORE) < 1e-13
+    assert rel(json.loads(out)["total"]["area"], BORE) < 1e-13
     code, out, _ = run(base + ["--faces", "all", "--mask", "ends", "--mask", "outside"], capsys)
-    assert rel(json.loads(out)["area"]["total"], BORE) < 1e-13
+    assert rel(json.loads(out)["total"]["area"], BORE) < 1e-13
 
 
 def test_sphere_area(tmp_path, capsys):
@@ -214,8 +228,8 @@ def test_sphere_area(tmp_path, capsys):
     code, out, _ = run(["coat", write(tmp_path, "ball.toml", BALL), *ONE_COAT, "--json"], capsys)
     assert code == 0
     d = json.loads(out)
-    assert rel(d["area"]["total"], 4 * PI * 0.1 ** 2) < 1e-13
-    assert [s["facing"] for s in d["parts"][0]["surfaces"]] == ["outside"]
+    assert rel(d["total"]["area"], 4 * PI * 0.1 ** 2) < 1e-13
+    assert [s["facing"] for s in d["surfaces"]] == ["outside"]
 
 
 def test_chain_sides(tmp_path, capsys):
@@ -226,11 +240,11 @@ def test_chain_sides(tmp_path, capsys):
     for sides in ("both", "inner", "outer"):
         code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--sides", sides], capsys)
         assert code == 0
-        totals[sides] = json.loads(out)["area"]["total"]
+        totals[sides] = json.loads(out)["total"]["area"]
     assert rel(totals["both"], 2 * one) < 1e-13
     assert rel(totals["inner"], one) < 1e-13 and rel(totals["outer"], one) < 1e-13
     code, out, _ = run(["coat", path, *ONE_COAT], capsys)
-    assert "outer side" in out and "inner side" in out and "both sides counted" in out
+    assert "outer" in out and "inner" in out and "both sides counted" in out
 
 
 def test_partial_revolution_cut_faces(tmp_path, capsys):
@@ -240,38 +254,38 @@ def test_partial_revolution_cut_faces(tmp_path, capsys):
     code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--angle", "180"], capsys)
     half = (BORE + OUTSIDE + ENDS) / 2
     d = json.loads(out)
-    assert rel(d["area"]["total"], half) < 1e-13
+    assert rel(d["total"]["area"], half) < 1e-13
     assert any("--cut-faces" in n for n in d["notes"])
     code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--angle", "180", "--cut-faces"],
                        capsys)
-    assert rel(json.loads(out)["area"]["total"], half + 2 * (2.0 * 0.1)) < 1e-13
+    assert rel(json.loads(out)["total"]["area"], half + 2 * (2.0 * 0.1)) < 1e-13
 
 
 def test_several_profiles_one_row_each_and_a_total(tmp_path, capsys):
     pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
-    code, out, _ = run(["coat", pipe, ball, "-n", "2", "-n", "10", "--system", SYSTEM, "--json"],
-                       capsys)
+    code, out, _ = run(["coat", pipe, ball, "-q", "2,10", "--system", SYSTEM, "--json"], capsys)
     assert code == 0
     d = json.loads(out)
     pipe_area, ball_area = BORE + OUTSIDE + ENDS, 4 * PI * 0.1 ** 2
     assert [p["quantity"] for p in d["parts"]] == [2, 10]
-    assert rel(d["area"]["total"], 2 * pipe_area + 10 * ball_area) < 1e-13
+    assert rel(d["total"]["area"], 2 * pipe_area + 10 * ball_area) < 1e-13
     assert d["total"]["quantity"] == 12
-    assert len(d["coats"]) == 2
-    for i, c in enumerate(d["coats"]):
+    assert len(d["coats"]) == 2 and len(d["paint"]) == 2 and len(d["quantities"]) == 4
+    for c, p in zip(d["coats"], d["paint"]):
         # every coat covers the whole batch; parts add up to the coat's total
-        assert rel(c["area"], d["area"]["total"]) < 1e-15
-        assert rel(sum(p["coats"][i]["volume"] for p in d["parts"]), c["volume"]) < 1e-13
+        assert rel(p["area"], d["total"]["area"]) < 1e-15
+        lines = [q for q in d["quantities"] if q["coat"] == c["coat"]]
+        assert rel(sum(q["paint"] for q in lines), p["paint"]) < 1e-13
         # common practice, no source
-        assert rel(c["volume"], c["area"] / c["spreading_rate_practical"]) < 1e-13
+        assert rel(p["paint"], p["area"] / c["spreading_rate_practical"]) < 1e-13
         assert rel(c["spreading_rate_theoretical"], 10 * c["volume_solids"] / c["dft"]) < 1e-13
-    assert rel(d["total"]["cost"], sum(c["cost"] for c in d["coats"])) < 1e-13
-    assert d["system"]["file"] == SYSTEM and d["units"]["cost"] == "EUR"
+    assert rel(d["total"]["cost"], sum(p["cost"] for p in d["paint"])) < 1e-13
+    assert d["inputs"]["system"]["file"] == SYSTEM and d["inputs"]["system"]["currency"] == "EUR"
 
 
 def test_one_quantity_applies_to_every_profile(tmp_path, capsys):
     pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
-    code, out, _ = run(["coat", pipe, ball, "-n", "4", *ONE_COAT, "--json"], capsys)
+    code, out, _ = run(["coat", pipe, ball, "-q", "4", *ONE_COAT, "--json"], capsys)
     assert [p["quantity"] for p in json.loads(out)["parts"]] == [4, 4]
 
 
@@ -280,10 +294,10 @@ def test_one_quantity_applies_to_every_profile(tmp_path, capsys):
 
 def test_human_estimate_reads_like_one(capsys):
     code, out, err = run(["coat", str(ROOT / "profiles" / "flanged-bushing.toml"),
-                          str(ROOT / "profiles" / "grooved-pulley.toml"), "-n", "50", "-n", "12",
+                          str(ROOT / "profiles" / "grooved-pulley.toml"), "-q", "50,12",
                           "--system", SYSTEM, "--mask", "bore"], capsys)
     assert code == 0, err
-    for words in ("Coating estimate", "62 parts", "outside diameter", "not counted: masked",
+    for words in ("Coating estimate", "62 parts", "outside diameter", "masked",
                   "Parts", "zinc epoxy primer", "polyurethane finish", "practical", "WFT",
                   "m²/L", "EUR", "Caution", "Quantities are estimates"):
         assert words in out, words
@@ -293,17 +307,16 @@ def test_human_estimate_reads_like_one(capsys):
 def test_csv_rows_and_atomic_write(tmp_path, capsys):
     target = tmp_path / "estimate.csv"
     pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
-    code, _, _ = run(["coat", pipe, ball, "-n", "2", "-n", "10", "--system", SYSTEM,
-                      "--csv", str(target)], capsys)
+    code, out, _ = run(["coat", pipe, ball, "-q", "2,10", "--system", SYSTEM, "--json",
+                        "--csv", str(target)], capsys)
     assert code == 0
+    d = json.loads(out)
     rows = list(csv.DictReader(io.StringIO(target.read_text(encoding="utf-8"))))
-    assert len(rows) == 2 * 2 + 2 + 1      # part × coat, each coat for all parts, total
+    assert len(rows) == 2 * 2                 # part × coat
     assert rows[0]["part"] == "Pipe spool" and rows[0]["coat"] == "zinc epoxy primer"
     assert rel(float(rows[0]["area (m²)"]), 2 * (BORE + OUTSIDE + ENDS)) < 1e-13
-    total = rows[-1]
-    assert total["coat"] == "all coats"
-    assert rel(float(total["volume (L)"]),
-               sum(float(r["volume (L)"]) for r in rows[4:6])) < 1e-13
+    assert rel(sum(float(r["to buy (L)"]) for r in rows), d["total"]["paint"]) < 1e-13
+    assert [float(r["to buy (L)"]) for r in rows] == [q["paint"] for q in d["quantities"]]
     assert [p.name for p in tmp_path.iterdir() if p.name.startswith(".")] == []
 
 
@@ -312,18 +325,26 @@ def test_csv_rows_and_atomic_write(tmp_path, capsys):
 
 @pytest.mark.parametrize("options, fragments", [
     (["--dft", "100", "--volume-solids", "0", "--loss", "5"], ["--volume-solids", "above 0"]),
-    (["--dft", "100", "--volume-solids", "120", "--loss", "5"], ["--volume-solids", "at most 100"]),
+    (["--dft", "100", "--volume-solids", "120", "--loss", "5"], ["--volume-solids", "0 to 100"]),
     (["--dft", "-100", "--volume-solids", "50", "--loss", "5"], ["--dft", "above 0"]),
     (["--dft", "100", "--volume-solids", "50", "--loss", "100"], ["--loss", "below 100"]),
-    (["--dft", "100", "--volume-solids", "50", "--loss", "-3"], ["--loss", "at least 0"]),
+    (["--dft", "100", "--volume-solids", "50", "--loss", "-3"], ["--loss", "0 to 100"]),
     (["--dft", "100", "--volume-solids", "50"], ["--loss", "missing"]),
     (["--dft", "thin", "--volume-solids", "50", "--loss", "5"], ["--dft"]),
     ([*ONE_COAT, "--faces", "bor"], ["pipe.toml", "--faces", 'did you mean "bore"']),
     ([*ONE_COAT, "--mask", "flange fase"], ["pipe.toml", "--mask", '"flange face"']),
     ([*ONE_COAT, "--faces", "inside", "--mask", "bore"], ["nothing to coat"]),
     ([*ONE_COAT, "--sides", "top"], ["--sides"]),
-    ([*ONE_COAT, "-n", "0"], ["--quantity"]),
-    ([*ONE_COAT, "-n", "1", "-n", "2"], ["--quantity", "once per profile"]),
+    ([*ONE_COAT, "-q", "0"], ["--quantity"]),
+    ([*ONE_COAT, "-q", "1,2"], ["--quantity", "one per part"]),
+    ([*ONE_COAT, "-q", "1,,2"], ["--quantity", "item 2 is empty"]),
+    ([*ONE_COAT, "-n", "2"], ["-n"]),
+    ([*ONE_COAT, "--price-per-litre", "twelve"], ["--price-per-litre", "money"]),
+    ([*ONE_COAT, "--price-per-litre", "12 EUR", "--currency", "USD"], ["--currency", "one currency"]),
+    ([*ONE_COAT, "--volume-solids", "fifty"], ["--volume-solids"]),
+    ([*ONE_COAT, "--film-unit", "kg"], ["--film-unit"]),
+    ([*ONE_COAT, "--axis", "z"], ["--axis"]),
+    ([*ONE_COAT, "--tolerance", "0"], ["--tolerance"]),
     ([*ONE_COAT, "--area-unit", "kg"], ["--area-unit"]),
     ([*ONE_COAT, "--volume-unit", "m"], ["--volume-unit"]),
     ([*ONE_COAT, "--system", SYSTEM], ["--system"]),
@@ -379,7 +400,7 @@ def test_subprocess_exit_codes_and_no_heavy_imports(tmp_path):
     assert bad.stderr.strip().count("\n") == 0 and "--volume-solids" in bad.stderr
     good = subprocess.run([sys.executable, "-m", "revolve", "coat", pipe, *ONE_COAT, "--json"],
                           capture_output=True, text=True, cwd=ROOT)
-    assert good.returncode == 0 and json.loads(good.stdout)["coats"][0]["volume"] > 0
+    assert good.returncode == 0 and json.loads(good.stdout)["paint"][0]["paint"] > 0
     # the command module imports nothing heavy at start-up (RULES: start-up budget)
     probe = ("import sys, revolve.cli.commands.coating; "
              "print(sorted(m for m in ('sympy', 'scipy', 'pint', 'matplotlib', 'ezdxf', "
@@ -430,8 +451,171 @@ def test_us_film_echoes_the_users_number(tmp_path, capsys):
     assert code in (0, None), err
     d = json.loads(out)
     assert d["coats"][0]["dft"] == 1.0 and d["coats"][0]["wet_film"] == 2.0
-    assert d["system"]["dft_total"] == 1.0
-    assert "0.99999" not in target.read_text() and "1.99999" not in target.read_text()
+    assert d["total"]["dft"] == 1.0
+    code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--us", "--dft", "1",
+                          "--volume-solids", "50", "--loss", "10"], capsys)
+    coat_line = next(line for line in out.splitlines() if line.startswith("coat 1 "))
+    assert coat_line.split("│")[1].strip() == "1" and coat_line.split("│")[3].strip() == "2"
+    assert "0.99999" not in out and "1.99999" not in out
     code, out, err = run(["coat", write(tmp_path, "pipe.toml", PIPE), "--dft", "1 mil",
                           "--volume-solids", "50", "--loss", "10", "--json"], capsys)
     assert json.loads(out)["coats"][0]["dft"] == 25.4    # 1 mil = 25.4 µm (1959 agreement)
+
+
+# -- folders, the overwrite rule, small parts (issue 12) --------------------------------
+
+
+def test_a_folder_is_read_like_measure_and_its_coating_system_left_out(tmp_path, capsys):
+    folder = tmp_path / "batch"
+    folder.mkdir()
+    write(folder, "a-pipe.toml", PIPE)
+    write(folder, "b-ball.toml", BALL)
+    write(folder, "system.toml", (ROOT / "examples" / "coating-idler-system.toml").read_text())
+    code, out, err = run(["coat", str(folder), "-q", "2,10", "--system",
+                          str(folder / "system.toml"), "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert [p["part"] for p in d["parts"]] == ["Pipe spool", "Float ball"]
+    assert d["inputs"]["profiles"] == [str(folder / "a-pipe.toml"), str(folder / "b-ball.toml")]
+    # the same areas as the files named one by one: 2πrh, π(R² − r²), 4πr² — CRC (from memory)
+    assert rel(d["total"]["area"], 2 * (BORE + OUTSIDE + ENDS) + 10 * 4 * PI * 0.1 ** 2) < 1e-13
+    assert any("system.toml" in n and "left out" in n for n in d["notes"])
+
+
+def test_an_empty_folder_is_refused_exit_2(tmp_path, capsys):
+    code, out, err = run(["coat", str(tmp_path), *ONE_COAT], capsys)
+    assert_one_line_error(code, out, err, str(tmp_path), "no profile files")
+
+
+def test_an_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    target = tmp_path / "estimate.csv"
+    target.write_text("keep me\n", encoding="utf-8")
+    pipe = write(tmp_path, "pipe.toml", PIPE)
+    code, out, err = run(["coat", pipe, *ONE_COAT, "--csv", str(target)], capsys)
+    assert_one_line_error(code, out, err, "--csv", "estimate.csv", "--force")
+    assert target.read_text(encoding="utf-8") == "keep me\n" and out == ""
+    code, out, err = run(["coat", pipe, *ONE_COAT, "--csv", str(target), "--force"], capsys)
+    assert code == 0, err
+    rows = list(csv.DictReader(io.StringIO(target.read_text(encoding="utf-8"))))
+    # litres = area / (10 × 50 / 100 × 0.8) — common practice, no source
+    assert rel(float(rows[0]["to buy (L)"]), (BORE + OUTSIDE + ENDS) / 4) < 1e-13
+
+
+# A washer 1 mm thick, bore radius 3 mm, outside radius 5 mm (invented), in mm: coated area
+# 2π·5·1 + 2π·3·1 + 2π(5² − 3²) mm² = 16π + 32π = 48π mm² — CRC (from memory)
+WASHER = """
+name = "Small washer"
+units = "mm"
+[[loop]]
+start = [0, 3]
+segments = [ { line_to = [1, 3] }, { line_to = [1, 5] }, { line_to = [0, 5] }, { close = true } ]
+"""
+
+
+def test_small_parts_show_in_cm2_and_ml_with_a_note(tmp_path, capsys):
+    path = write(tmp_path, "washer.toml", WASHER)
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json"], capsys)
+    d = json.loads(out)
+    assert d["units"]["area"] == "cm²" and d["units"]["paint"] == "mL"
+    assert d["units"]["coverage/capacity"] == "m²/L"          # rates keep the trade's unit
+    assert rel(d["total"]["area"], 48 * PI / 100) < 1e-13       # mm² -> cm²: / 100
+    # 48π mm² at 4 m²/L: 48π × 1e-6 / 4 L = 12π µL = 0.012π mL — common practice, no source
+    assert rel(d["total"]["paint"], 0.012 * PI) < 1e-13
+    assert any("cm²" in n for n in d["notes"]) and any("mL" in n for n in d["notes"])
+    code, out, _ = run(["coat", path, *ONE_COAT], capsys)
+    assert "e-0" not in out and "(cm²)" in out and "(mL)" in out
+    code, out, _ = run(["coat", path, *ONE_COAT, "--json", "--area-unit", "m^2"], capsys)
+    d = json.loads(out)
+    assert d["units"]["area"] == "m²" and rel(d["total"]["area"], 48 * PI * 1e-6) < 1e-13
+    # a batch is judged by its largest part: with the pipe, every area is in m²
+    code, out, _ = run(["coat", path, write(tmp_path, "pipe.toml", PIPE), *ONE_COAT, "--json"],
+                       capsys)
+    assert json.loads(out)["units"]["area"] == "m²"
+
+
+def test_inch_drawings_default_to_inch_pound_units(capsys):
+    sleeve = str(ROOT / "profiles" / "turned-sleeve-inch.toml")
+    code, out, err = run(["coat", sleeve, "--dft", "3", "--volume-solids", "60", "--loss", "0"],
+                         capsys)
+    # mils only because the drawing is in inches: a bare --dft would be a guess, so it is refused
+    assert_one_line_error(code, out, err, "--dft", "'3 mil'")
+    code, out, _ = run(["coat", sleeve, "--dft", "3 mil", "--volume-solids", "60", "--loss", "0",
+                        "--price-per-gallon", "45 USD", "-q", "200", "--json"], capsys)
+    d = json.loads(out)
+    assert (d["units"]["area"], d["units"]["paint"], d["units"]["film"]) == ("ft²", "US gal", "mil")
+    (c,) = d["coats"]
+    # 3 mils at 60 %: 1604.17 × 0.6 / 3 ft²/US gal
+    # (231 in³ / 0.001 in / 144, derived from unit definitions); the price reads back as given
+    assert c["dft"] == 3.0 and rel(c["spreading_rate_theoretical"], 231 / 0.001 / 144 * 0.2) < 1e-12
+    assert c["price"] == 45.0 and d["units"]["money/capacity"] == "USD/US gal"
+
+
+# -- the library gives the command's JSON ----------------------------------------------
+
+
+BUNDLED = sorted(p for p in (ROOT / "profiles").iterdir() if not p.name.startswith("."))
+
+
+@pytest.mark.parametrize("profile", BUNDLED, ids=lambda p: p.name)
+def test_library_to_dict_equals_the_commands_json(profile, capsys):
+    import revolve
+
+    code, out, err = run(["coat", str(profile), "--system", SYSTEM, "-q", "25", "--json"], capsys)
+    assert code == 0, err
+    result = revolve.estimate_coating(str(profile), system=SYSTEM, quantity=25)
+    assert json.loads(json.dumps(result.to_dict(), ensure_ascii=False)) == json.loads(out)
+    assert result.area == json.loads(out)["total"]["area"] > 0
+
+
+def test_library_takes_the_options_strings_and_names_its_parameters(tmp_path):
+    import revolve
+    from revolve.errors import RevolveError
+
+    pipe, ball = write(tmp_path, "pipe.toml", PIPE), write(tmp_path, "ball.toml", BALL)
+    r = revolve.estimate_coating([pipe, ball], dft="100 um", volume_solids="50 %", loss=20,
+                                 price_per_litre="12.50 EUR", quantity="2,10", mask=["bore"])
+    # 2 pipes without their bores plus 10 balls — CRC (from memory); 4 m²/L (common practice)
+    area = 2 * (OUTSIDE + ENDS) + 10 * 4 * PI * 0.1 ** 2
+    assert rel(r.area, area) < 1e-13 and rel(r.paint, area / 4) < 1e-13
+    assert rel(r.cost, 12.5 * area / 4) < 1e-13
+    assert "estimate_coating" in revolve.__all__ and repr(r).startswith("<CoatingResult: 12 parts, area ")
+    assert "<table>" in r._repr_html_()
+    with pytest.raises(RevolveError, match=r"^quantity: give one quantity"):
+        revolve.estimate_coating(pipe, dft="100 um", volume_solids=50, loss=20, quantity=[1, 2])
+    with pytest.raises(RevolveError, match=r"^dft: give the dry film thickness"):
+        revolve.estimate_coating(pipe, dft="thick", volume_solids=50, loss=20)
+
+
+# -- generated inputs: any tube, unit, quantity and output unit --------------------------
+
+from hypothesis import example, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+
+@settings(max_examples=25, deadline=None)
+@given(r=st.floats(0.5, 500), wall=st.floats(0.1, 50), length=st.floats(0.1, 2000),
+       unit=st.sampled_from(["mm", "cm", "m", "in", "ft"]), quantity=st.integers(1, 10_000),
+       area_unit=st.sampled_from([None, "m^2", "ft^2", "cm^2", "mm^2"]))
+@example(r=3.0, wall=2.0, length=1.0, unit="mm", quantity=1, area_unit=None)      # small part
+def test_generated_tubes_give_the_closed_form_area_in_any_unit(r, wall, length, unit, quantity,
+                                                               area_unit):
+    # a tube's surface: 2π(r + R)L + 2π(R² − r²) — CRC (from memory); units through the
+    # exact definitions of the unit table (1 in = 25.4 mm, 1959)
+    import revolve
+    from revolve import units
+    from revolve.geometry.profile import Loop, Profile
+
+    R = r + wall
+    tube = Profile(loops=(Loop.from_points([(0, r), (length, r), (length, R), (0, R)]),),
+                   unit=unit, name="tube")
+    result = revolve.estimate_coating(tube, dft="80 um", volume_solids=50, loss=0,
+                                      quantity=quantity, area_unit=area_unit)
+    d = result.to_dict()
+    want_m2 = (2 * PI * (r + R) * length + 2 * PI * (R * R - r * r)) * \
+        units.factor(unit, "length") ** 2
+    shown = d["units"]["area"]
+    assert rel(d["total"]["area"], quantity * want_m2 / units.factor(shown, "area")) < 1e-11
+    # 10 × 50 / 80 = 6.25 m²/L with no loss — common practice, no source
+    litres = quantity * want_m2 / 6.25
+    assert rel(d["total"]["paint"], litres / (units.factor(d["units"]["paint"], "volume") * 1000)) \
+        < 1e-11

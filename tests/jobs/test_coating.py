@@ -852,3 +852,19 @@ def test_prices_read_back_as_the_user_wrote_them(number):
     assert coat.price_in("L") == float(Fraction(str(number)) / Fraction("3.785411784"))
     assert make_coat(dft_um=50, volume_solids=50, loss=0,
                      price_per_litre=price).price_in("L") == price
+
+
+def test_surfaces_use_the_measurements_prepared_profile(monkeypatch):
+    # the job measures once: surfaces() reads Measurement.prepared and never prepares again
+    import revolve.geometry.checks as checks
+
+    tube = Loop.from_points([(0, 1), (10, 1), (10, 2), (0, 2)])
+    m = measure(Revolution(Profile(loops=(tube,))))
+    assert m.prepared is not None
+
+    def refuse(*args, **kwargs):
+        raise AssertionError("prepared again")
+
+    monkeypatch.setattr(checks, "prepare", refuse)
+    # a tube: bore 2π·1·10, outside 2π·2·10, two annuli π(2² − 1²) — CRC (from memory)
+    assert rel(sum(s.area for s in surfaces(m)), math.pi * (20 + 40 + 6)) < 1e-13
