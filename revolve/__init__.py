@@ -17,6 +17,9 @@ Measuring
     :func:`measure_many` (many files, on every core)
 Pictures
     :func:`draw` (on a matplotlib Axes)
+Turning
+    :func:`quote_turning` (one part; ``to_dict()`` is ``revolve turn --json``),
+    :func:`quote_turning_many` (many files, one row per part)
 Errors
     :class:`RevolveError` (a ``ValueError``; one sentence naming where)
 
@@ -60,6 +63,9 @@ _LAZY = {
     "MeasureResult": "revolve.jobs.measuring",
     "measure_many": "revolve.jobs.batch",
     "draw": "revolve.render.drawing",
+    "quote_turning": "revolve.jobs.turning_quote",
+    "quote_turning_many": "revolve.jobs.turning_quote",
+    "TurningResult": "revolve.jobs.turning_quote",
 }
 
 __all__ = sorted(_LAZY) + ["RevolveError", "__version__"]

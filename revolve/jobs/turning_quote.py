@@ -612,8 +612,9 @@ ALLOWANCE_FIELDS = (
     _f("parting_width", "parting width", "length"),
     _f("holding_length", "holding length", "length"),
 )
-#: Columns of the many-parts table (and of every CSV): one row per part, figures in the units.
-ROW_FIELDS = (
+#: Columns of the many-parts table (and of every CSV): one row per part, figures in the units,
+#: each headed by its key (``part_volume (cm³)``).
+ROW_FIELDS = tuple(replace(f, label=f.key) for f in (
     (_f("file", "file", style="text"), _f("name", "name", style="text"),
      _f("material", "material", style="text"))
     + tuple(f for f in PART_FIELDS)
@@ -628,7 +629,7 @@ ROW_FIELDS = (
        _f("batch_cost", "batch cost", "money", "money"),
        _f("crosscheck_agrees", "cross-check agrees", style="text"),
        _f("error", "error", style="text"))
-)
+))
 
 _KIND_TEXT = {"bar": "round bar", "tube": "tube (hollow bar)", "blank": "blank (given)"}
 

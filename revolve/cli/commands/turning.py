@@ -21,10 +21,12 @@ import typer
 from revolve.cli import options
 from revolve.errors import RevolveError
 
-#: Columns of the plain many-parts table (keys of the job's rows).
-ROW_COLUMNS = ("material", "part_diameter", "part_length", "stock_label", "stock_length",
-               "part_mass", "stock_mass", "utilisation_percent", "quantity", "bars_needed",
-               "cycle_time", "cost_per_part", "batch_cost")
+#: Columns of the plain many-parts table (keys of the job's rows) and their short headings.
+ROW_COLUMNS = {"material": "material", "part_diameter": "⌀", "part_length": "length",
+               "stock_label": "stock", "stock_length": "stock length", "part_mass": "part",
+               "stock_mass": "stock", "utilisation_percent": "used", "quantity": "qty",
+               "bars_needed": "bars", "cycle_time": "cycle", "cost_per_part": "per part",
+               "batch_cost": "batch"}
 
 
 def _rows_text(result, one_qty: bool) -> str:
@@ -41,7 +43,7 @@ def _rows_text(result, one_qty: bool) -> str:
     for k in cols:
         f = fields[k]
         unit = "%" if f.style == "percent" else u.unit(f.role)
-        heads.append(f.label.split(" (")[0] + (f", {unit}" if unit else ""))
+        heads.append(ROW_COLUMNS[k] + (f", {unit}" if unit else ""))
     cells, costs = [], []
     for row in table.rows:
         stem = os.path.splitext(os.path.basename(row["file"]))[0]
