@@ -494,3 +494,84 @@ def test_material_removed_block_shows_volume_and_mass_for_each_quantity(capsys):
     assert rel(r["offcut_volume"], offcut) < 1e-12
     assert rel(r["offcut_mass"], 7850 * offcut * 1e-6) < 1e-12
     assert rel(r["offcut_mass"] + r["chip_mass"], r["removed_mass"]) < 1e-12
+
+
+# -- the library: quote_turning(...).to_dict() is `revolve turn FILE --json` -----------------
+
+TURNABLE = [ROOT / "profiles" / n for n in ("domed-lid.toml", "flanged-bushing.toml",
+                                             "grooved-pulley.toml", "turned-sleeve-inch.toml",
+                                             "turned-stepped-shaft.toml")]
+SOLID_POINTS = [ROOT / "profiles" / "spacer-points.txt", ROOT / "profiles" / "tilted-ring.toml"]
+
+
+@pytest.mark.parametrize("path", TURNABLE + SOLID_POINTS, ids=lambda p: p.name)
+def test_library_to_dict_equals_the_command_json(path, capsys):
+    import revolve
+    from revolve.render.output import clean_json
+
+    extra = ["--material", "aluminium 6061"] if path in SOLID_POINTS else []
+    code, out, err = run([str(path), "--json", "-q", "25", "--stock-price", "3.10/kg",
+                          "--machine-rate", "70/h", *extra], capsys)
+    assert code == 0, err
+    r = revolve.quote_turning(str(path), quantity=25, stock_price="3.10/kg", machine_rate="70/h",
+                              material=extra[1] if extra else None)
+    assert json.loads(json.dumps(clean_json(r.to_dict()), ensure_ascii=False)) == json.loads(out)
+    assert "TurningResult" in repr(r) and "<table>" in r._repr_html_()
+
+
+def test_library_quote_many_keeps_a_refused_file(tmp_path):
+    import revolve
+
+    b = revolve.quote_turning_many([SHAFT, tmp_path / "gone.toml"], quantity=[3, 4])
+    rows = b.to_dict()["parts"]
+    assert rows[0]["quantity"] == 3 and "no such file" in rows[1]["error"]
+    assert [f for f, _ in b.failed] == [str(tmp_path / "gone.toml")]
+
+
+def test_each_part_is_prepared_once(monkeypatch):
+    # The quote reads the measurement's prepared profile instead of preparing again.
+    import revolve
+    from revolve.geometry import checks, measure
+
+    calls = []
+    real = checks.prepare
+
+    def counting(*args, **kwargs):
+        calls.append(1)
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(checks, "prepare", counting)
+    monkeypatch.setattr(measure, "prepare", counting)
+    revolve.quote_turning(SHAFT, max_speed="2000")
+    assert len(calls) == 1
+
+
+# -- generated option text: a quote or one line naming the option, never a traceback --------
+
+from hypothesis import example, given, strategies as st  # noqa: E402
+
+
+@given(st.sampled_from(["--parting-width", "--bar-length", "--blank", "--stock-price",
+                        "--machine-rate", "--max-speed", "--roughing", "-q"]),
+       st.text(alphabet="0123456789 ./-x,=EURkgminvcfap'\"", min_size=1, max_size=12))
+@example("--parting-width", "1/0 in")
+@example("-q", "0,1")
+@example("--roughing", "vc=1e999")
+def test_generated_option_text_is_quoted_or_refused_in_one_line(option, text):
+    import contextlib
+    import io
+
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        try:
+            main(["turn", SHAFT, "--json", option, text])
+            code = 0
+        except SystemExit as e:
+            code = e.code
+    assert "Traceback" not in err.getvalue()
+    if code == 0:
+        json.loads(out.getvalue())
+    else:
+        assert code == 2 and out.getvalue() == "", (option, text, err.getvalue())
+        lines = err.getvalue().splitlines()
+        assert len(lines) == 1 and lines[0].startswith("revolve: error: "), lines
