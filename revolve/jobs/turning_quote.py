@@ -776,6 +776,28 @@ class TurningResult(Result):
                 f"{q.stock.mass:.6g} kg, cycle {q.times.cycle / 60:.4g} min{cost}>")
 
     @property
+    def heading(self) -> str:
+        """The part, its file and its material, as the quote's first lines.
+
+        >>> from revolve.geometry.profile import Loop, Profile
+        >>> pin = Profile(loops=(Loop.from_points([(0, 0), (5, 0), (5, 1), (0, 1)]),), name="pin")
+        >>> print(quote_turning(pin, material="carbon steel").heading)
+        pin
+        Carbon steel, 7850 kg/m³ (common practice, no source)
+        """
+        pq = self.part
+        m = pq.material
+        return (pq.name + (f"  ({pq.file})" if pq.file else "")
+                + f"\n{m.name}, {m.density:g} kg/m³ ({m.source})")
+
+    def _repr_html_(self) -> str:
+        from html import escape
+
+        from revolve.render.output import html
+
+        return "<p>" + escape(self.heading).replace("\n", "<br>") + "</p>\n" + html(self)
+
+    @property
     def volume(self) -> float:
         """Part volume, m³."""
         return self.quote.part.volume
@@ -827,11 +849,8 @@ def result_of(pq: PartQuote, options: TurnOptions) -> TurningResult:
     currency = options.currency_label()
     sec = _sections(pq)
     m = pq.material
-    title = (f"{pq.name}" + (f"  ({pq.file})" if pq.file else "") +
-             f"\n{m.name}, {m.density:g} kg/m³ ({m.source}); {m.group} cutting data "
-             f"({pq.cutting_source})")
     q = pq.quote
-    tables = [Table("part", title, PART_FIELDS, (sec["part"],), figures=True),
+    tables = [Table("part", "Part", PART_FIELDS, (sec["part"],), figures=True),
               Table("faces", "Surface by face", FACE_FIELDS, tuple(sec["faces"])),
               Table("stock", f"Stock: {_KIND_TEXT[q.stock.size.kind]}", STOCK_FIELDS,
                     (sec["stock"],), figures=True),
@@ -843,7 +862,8 @@ def result_of(pq: PartQuote, options: TurnOptions) -> TurningResult:
                             (sec["bars"],), figures=True))
     tables += [Table("allowances", "Allowances", ALLOWANCE_FIELDS, (sec["allowances"],),
                      figures=True),
-               Table("cutting", "Cutting data and spindle speeds", CUTTING_FIELDS,
+               Table("cutting", f"Cutting data ({m.group}: {pq.cutting_source}) and spindle "
+                     f"speeds", CUTTING_FIELDS,
                      tuple(sec["cutting"])),
                Table("times", "Time per part", TIME_FIELDS, (sec["times"],), figures=True),
                Table("cost", f"Cost, batch of {q.cost.quantity}", COST_FIELDS,

@@ -93,6 +93,7 @@ def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bo
         if as_json:
             print(output.json_text(r))
         else:
+            print(r.heading)
             output.show(r)
             for line in left + ([f"wrote {csv_file}"] if csv_file else []):
                 print(line)
