@@ -18,7 +18,9 @@ Measuring
 Pictures
     :func:`draw` (on a matplotlib Axes)
 Trade jobs
-    :func:`estimate_coating` (``to_dict()`` is ``revolve coat --json``)
+    :func:`estimate_coating` (``to_dict()`` is ``revolve coat --json``),
+    :func:`quote_turning` (one part; ``to_dict()`` is ``revolve turn --json``),
+    :func:`quote_turning_many` (many files, one row per part)
 Errors
     :class:`RevolveError` (a ``ValueError``; one sentence naming where)
 
@@ -63,6 +65,9 @@ _LAZY = {
     "measure_many": "revolve.jobs.batch",
     "draw": "revolve.render.drawing",
     "estimate_coating": "revolve.jobs.coating",
+    "quote_turning": "revolve.jobs.turning_quote",
+    "quote_turning_many": "revolve.jobs.turning_quote",
+    "TurningResult": "revolve.jobs.turning_quote",
 }
 
 __all__ = sorted(_LAZY) + ["RevolveError", "__version__"]

@@ -57,6 +57,8 @@ ROLES = {
     "area": "area", "section": "area", "coverage": "area",
     "volume": "volume", "capacity": "volume", "paint": "volume",
     "mass": "mass", "density": "density", "time": "time",
+    # the distance in a cutting speed (m/min, ft/min): "cutting_distance/time"
+    "cutting_distance": "length",
 }
 
 #: Length units after which a drawing is taken as inch-pound work.
@@ -77,9 +79,9 @@ _TRADES = {
                 {"length": "{u}", "area": "ft²", "coverage": "ft²", "paint": "US gal",
                  "capacity": "US gal", "film": "mil", "mass": "lb"}),
     "turning": ({"length": "mm", "diameter": "mm", "area": "cm²", "section": "cm²", "volume": "cm³",
-                 "mass": "kg", "density": "kg/m³", "time": "min"},
+                 "mass": "kg", "density": "kg/m³", "time": "min", "cutting_distance": "m"},
                 {"length": "in", "diameter": "in", "area": "in²", "section": "in²", "volume": "in³",
-                 "mass": "lb", "density": "lb/ft³", "time": "min"}),
+                 "mass": "lb", "density": "lb/ft³", "time": "min", "cutting_distance": "ft"}),
 }
 
 

@@ -499,15 +499,15 @@ def check_blank(blank: StockSize, env: Envelope, allowances: Allowances,
     if not _covers(blank.outside_diameter, env.diameter):
         raise RevolveError(f"the blank's diameter {_length(blank.outside_diameter, unit)} is smaller "
                            f"than the part's largest diameter {_length(env.diameter, unit)}",
-                           place="--blank")
+                           option="--blank")
     if blank.inside_diameter > 0 and not _covers(env.bore_diameter, blank.inside_diameter):
         what = (f"the part's smallest bore {_length(env.bore_diameter, unit)}" if env.through_bore
                 else "a part that is solid at the axis")
         raise RevolveError(f"the blank's bore {_length(blank.inside_diameter, unit)} is too large for "
-                           f"{what}", place="--blank")
+                           f"{what}", option="--blank")
     if blank.length is not None and not _covers(blank.length, env.length):
         raise RevolveError(f"the blank's length {_length(blank.length, unit)} is shorter than the "
-                           f"part's length {_length(env.length, unit)}", place="--blank-length")
+                           f"part's length {_length(env.length, unit)}", option="--blank-length")
     extra = blank.outside_diameter - env.diameter
     if not _covers(extra, allowances.turning) and allowances.turning > 0:
         notes.append(f"the blank leaves {_length(extra, unit)} on the diameter, less than the "
@@ -644,7 +644,7 @@ def bars_needed(quantity: int, per_bar: int) -> int:
     """
     if per_bar <= 0:
         raise RevolveError("a bar gives no part; use a longer bar or a shorter remnant",
-                           place="--bar-length")
+                           option="--bar-length")
     return -(-int(quantity) // int(per_bar))
 
 
@@ -687,7 +687,7 @@ def bar_use(bar_length: float, remnant: float, length_per_part: float, quantity:
     if per <= 0:
         raise RevolveError(f"a bar of {_length(bar_length, unit)} less a remnant of "
                            f"{_length(remnant, unit)} gives no part of {_length(length_per_part, unit)}"
-                           f"; use a longer bar or a shorter remnant", place="--bar-length")
+                           f"; use a longer bar or a shorter remnant", option="--bar-length")
     bars = bars_needed(quantity, per)
     last = int(quantity) - (bars - 1) * per
     unused = max(0.0, bar_length - remnant - per * length_per_part)
@@ -856,7 +856,7 @@ def finished_faces(surface_by_face: Mapping[str, float], skip: Sequence[str] = (
     for s in skip:
         if s not in surface_by_face:
             raise RevolveError(f"the part has no face {s!r}; its faces are: {', '.join(names)}",
-                               place="--no-finish")
+                               option="--no-finish")
     return {k: v for k, v in surface_by_face.items() if v > 0 and k not in set(skip)}
 
 
@@ -947,9 +947,9 @@ class Prices:
     def __post_init__(self):
         if isinstance(self.quantity, bool) or not isinstance(self.quantity, int) or self.quantity < 1:
             raise RevolveError(f"must be a whole number of at least 1, got {self.quantity!r}",
-                               place="--quantity")
+                               option="--quantity")
         if self.basis not in PRICE_BASES:
-            raise RevolveError("the stock price is per kg or per m", place="--stock-price")
+            raise RevolveError("the stock price is per kg or per m", option="--stock-price")
         _check_number(self.stock_price, "--stock-price", allow_none=True)
         _check_number(self.machine_rate, "--machine-rate", allow_none=True)
         _check_number(self.setup_time, "--setup-time")
@@ -1054,7 +1054,7 @@ class TurningJob:
             _check_number(self.speed_limit, "--max-speed", positive=True)
         if self.choice not in STOCK_CHOICES:
             raise RevolveError(f"choose one of {', '.join(STOCK_CHOICES)}, not {self.choice!r}",
-                               place="--stock")
+                               option="--stock")
 
 
 @dataclass(frozen=True)

@@ -232,7 +232,7 @@ def load_bar_list(system: str) -> BarList:
     if system not in SYSTEMS:
         from revolve.errors import RevolveError
 
-        raise RevolveError(f"choose metric or inch, not {system!r}", place="--bar-list")
+        raise RevolveError(f"choose metric or inch, not {system!r}", option="--bar-list")
     text = _read(_BAR_FILE)
     return parse_bar_sizes(text, system, file=_BAR_FILE)
 

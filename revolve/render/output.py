@@ -146,9 +146,10 @@ def csv_text(r: Result, key: Optional[str] = None) -> str:
 
 
 def _rich_table(t: Table, r: Result):
+    from rich.markup import escape
     from rich.table import Table as RichTable
 
-    rt = RichTable(title=t.title, title_justify="left", show_edge=False, pad_edge=False)
+    rt = RichTable(title=escape(t.title), title_justify="left", show_edge=False, pad_edge=False)
     shown = t.json(r.units)
     if t.figures:
         rt.add_column("quantity")
@@ -162,14 +163,14 @@ def _rich_table(t: Table, r: Result):
                 text_value = cell(value, f)
                 if f.style == "percent" and text_value.endswith(" %"):
                     text_value = text_value[:-2]
-                rt.add_row(f.label, text_value, unit)
+                rt.add_row(escape(f.label), escape(text_value), unit)
         return rt
     fields = [f for f in t.fields if any(f.key in row for row in shown)]
     for f in fields:
-        rt.add_column(_heading(f, r) if f.style != "percent" else f.label,
+        rt.add_column(escape(_heading(f, r) if f.style != "percent" else f.label),
                       justify="left" if f.style == "text" else "right")
     for row in shown:
-        rt.add_row(*[cell(row.get(f.key), f) for f in fields])
+        rt.add_row(*[escape(cell(row.get(f.key), f)) for f in fields])
     return rt
 
 
@@ -180,7 +181,7 @@ def renderables(r: Result) -> List[Any]:
 
     out: List[Any] = [_rich_table(t, r) for t in r.tables]
     for note in r.notes:
-        out.append(Text(note))
+        out.append(Text(note))          # plain text: brackets in names stay as written
     if r.cautions:
         from revolve.jobs.measuring import CAUTIONS
 

@@ -201,11 +201,12 @@ def test_turn_pool_and_serial_give_the_same_quotes(tmp_path, capsys):
     assert outputs[0] == outputs[1]
     parts = outputs[0]["parts"]
     assert [Path(p["file"]).name for p in parts] == sorted(p.name for p in folder.iterdir())
-    # a solid round bar: stock volume π/4 D² L (CRC, from memory)
+    # a solid round bar: stock volume π/4 D² L (CRC, from memory); D, L in mm, V in cm³
+    assert outputs[0]["units"]["volume"] == "cm³" and outputs[0]["units"]["length"] == "mm"
     for p in parts:
         if p["stock_kind"] == "bar" and not p["stock_inside_diameter"]:
             assert math.isclose(p["stock_volume"],
-                                math.pi / 4 * p["stock_diameter"] ** 2 * p["stock_length"],
+                                math.pi / 4 * p["stock_diameter"] ** 2 * p["stock_length"] / 1000,
                                 rel_tol=1e-12)
 
 

@@ -65,51 +65,71 @@ segments = [
 # -- one part ---------------------------------------------------------------------------
 
 
+def cost_rows(d):
+    return {row["item"]: row for row in d["cost"]}
+
+
 def test_one_part_quote_table_reads_like_a_quote(capsys):
     code, out, err = run([SHAFT, "-q", "200", "--stock-price", "2.40/kg", "--machine-rate", "85",
                           "--setup-time", "45", "--currency", "EUR"], capsys)
     assert code == 0, err
     assert err == ""
     for text in ("Stepped shaft, crowned collar", "round bar", "42 mm", "stock length per part",
-                 "parts per bar", "bars for 200 parts", "utilisation", "roughing", "finishing",
-                 "spindle speed", "Cost, batch of 200", "EUR", "Caution"):
+                 "parts per bar", "Bars, 200 parts", "utilisation", "roughing", "finishing",
+                 "spindle speeds", "Cost, batch of 200", "EUR", "Caution"):
         assert text in out, text
     assert "Times and costs are estimates" in out
     # parts per bar floor((3000 − 100) / 85) = 34 (common practice, no source)
-    assert re.search(r"parts per bar\s+│\s+34\b", out)
+    assert re.search(r"parts per bar .*│\s+34\s+│", out)
     # n = 1000 vc / (π D) = 1000 · 200 / (π · 42) = 1516 rev/min (common practice, no source)
-    assert re.search(r"stock diameter\s+│\s+1516\s+│ rev/min", out)
+    assert re.search(r"roughing\s+│\s+200\s+│.*│\s+42\s+│\s+1516\s+│", out)
 
 
 def test_json_keys_and_hand_worked_figures(capsys):
     code, out, err = run([SHAFT, "--json"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    for key in ("part_volume", "part_mass", "stock_diameter", "stock_length", "stock_mass",
-                "removed_volume", "utilisation", "chip_mass", "bars", "times", "cost", "units",
-                "cautions"):
+    for key in ("command", "inputs", "units", "part", "faces", "stock", "removed", "bars",
+                "allowances", "cutting", "times", "cost", "notes", "cautions"):
         assert key in d, key
-    assert d["units"]["length"] == "m" and d["units"]["mass"] == "kg"
+    assert d["units"]["length"] == "mm" and d["units"]["mass"] == "kg"
+    assert d["units"]["volume"] == "cm³" and d["units"]["cutting_distance/time"] == "m/min"
+    s = d["stock"]
     # ⌀40 (crown) + 2 allowance = the 42 mm bar; 80 + 2·1 + 3 + 0 = 85 mm (common practice)
-    assert d["stock_diameter"] == 0.042
-    assert rel(d["stock_length"], 0.085) < 1e-12
-    # stock V = π r² L (CRC, from memory); mass at 7850 kg/m³ (common practice, no source)
-    assert rel(d["stock_volume"], math.pi * 0.021 ** 2 * 0.085) < 1e-12
-    assert rel(d["stock_mass"], 7850 * math.pi * 0.021 ** 2 * 0.085) < 1e-12
-    assert d["removed_volume"] == d["stock_volume"] - d["part_volume"]
-    assert d["utilisation"] == pytest.approx(d["part_mass"] / d["stock_mass"], rel=1e-15)
+    assert s["stock_diameter"] == 42.0
+    assert rel(s["stock_length"], 85.0) < 1e-12
+    # stock V = π r² L (CRC, from memory), here in cm³; mass at 7850 kg/m³ (common practice)
+    assert rel(s["stock_volume"], math.pi * 2.1 ** 2 * 8.5) < 1e-12
+    assert rel(s["stock_mass"], 7850 * math.pi * 0.021 ** 2 * 0.085) < 1e-12
+    r = d["removed"]
+    assert rel(r["removed_volume"], s["stock_volume"] - d["part"]["part_volume"]) < 1e-12
+    assert r["utilisation_percent"] == pytest.approx(
+        100 * d["part"]["part_mass"] / s["stock_mass"], rel=1e-15)
     assert d["bars"]["parts_per_bar"] == 34 and d["bars"]["bars_needed"] == 1
+    t = d["times"]
     # Q = vc ap f = 200 m/min × 3 mm × 0.3 mm/rev = 180 cm³/min (common practice, no source)
-    assert rel(d["metal_removal_rate"], 180e-6 / 60) < 1e-12
-    assert rel(d["times"]["roughing"], d["chip_volume"] / (180e-6 / 60)) < 1e-12
-    # finishing A / (vc f) with vc 260 m/min, f 0.12 mm/rev (the steel table row)
-    assert rel(d["times"]["finishing"], d["finished_surface"] / (260 / 60 * 0.12e-3)) < 1e-12
-    assert rel(d["spindle_speed_rpm"]["roughing_at_stock_diameter"],
-               1000 * 200 / (math.pi * 42)) < 1e-12
-    assert d["cost"]["per_part"] is None and d["cost"]["complete"] is False
+    assert rel(t["metal_removal_rate"], 180) < 1e-12
+    assert rel(t["roughing_time"], r["chip_volume"] / 180) < 1e-12
+    # finishing A / (vc f) with vc 260 m/min, f 0.12 mm/rev (the steel table row), in minutes
+    assert rel(t["finishing_time"],
+               d["part"]["finished_surface"] * 1e-4 / (260 * 0.12e-3)) < 1e-12
+    rough, fin = d["cutting"]
+    assert (rough["cutting_speed"], rough["feed_per_rev"], rough["depth_of_cut"]) == \
+        pytest.approx((200, 0.3, 3), rel=1e-12)
+    assert rel(rough["spindle_speed_rpm"], 1000 * 200 / (math.pi * 42)) < 1e-12
+    c = cost_rows(d)
+    assert c["total"]["per_part"] is None and c["total"]["how"].startswith("incomplete")
     assert d["cautions"] == [
         "Times and costs are estimates; cutting data comes from the tool supplier. Guard rotating "
         "stock and respect the machine's speed limit for the part's size and balance."]
+
+
+def test_removed_is_stock_minus_part_exactly_through_the_library():
+    import revolve
+
+    q = revolve.quote_turning(SHAFT).quote
+    assert q.removal.removed_volume == q.stock.volume - q.part.volume      # SI, exact
+    assert q.removal.utilisation == pytest.approx(q.part.mass / q.stock.mass, rel=1e-15)
 
 
 def test_costs_by_hand(capsys):
@@ -117,27 +137,35 @@ def test_costs_by_hand(capsys):
                           "1.5/min", "--setup-time", "0.75 h", "--handling-time", "30 s"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    c, t = d["cost"], d["times"]
-    assert t["handling"] == 30.0 and t["setup"] == 2700.0
-    assert rel(c["stock_per_part"], 12 * 0.085) < 1e-12              # per metre × stock length
-    assert rel(c["machine_per_part"], 90 * t["cycle"] / 3600) < 1e-12   # 1.5/min = 90/h
-    assert rel(c["setup_batch"], 90 * 0.75) < 1e-12
-    assert rel(c["batch"], 200 * (c["stock_per_part"] + c["machine_per_part"]) + 67.5) < 1e-12
-    assert rel(c["per_part"], c["batch"] / 200) < 1e-12
+    c, t = cost_rows(d), d["times"]
+    assert t["handling_time"] == 0.5 and t["setup_time"] == 45.0                # minutes
+    assert rel(c["stock"]["per_part"], 12 * 0.085) < 1e-12              # per metre × stock length
+    assert rel(c["machine time"]["per_part"], 90 * t["cycle_time"] / 60) < 1e-12   # 1.5/min = 90/h
+    assert rel(c["set-up"]["batch"], 90 * 0.75) < 1e-12
+    assert rel(c["total"]["batch"],
+               200 * (c["stock"]["per_part"] + c["machine time"]["per_part"]) + 67.5) < 1e-12
+    assert rel(c["total"]["per_part"], c["total"]["batch"] / 200) < 1e-12
     # whole bars: 6 bars of 3 m at 12/m
     code, out, err = run([SHAFT, "--json", "-q", "200", "--stock-price", "12/m", "--whole-bars"],
                          capsys)
     d = json.loads(out)
     assert d["bars"]["bars_needed"] == 6
-    assert rel(d["cost"]["stock_batch"], 6 * 3.0 * 12) < 1e-12
+    assert rel(cost_rows(d)["stock"]["batch"], 6 * 3.0 * 12) < 1e-12
 
 
 def test_price_per_pound_round_trip(capsys):
     # 1.10 per lb is 1.10 / 0.45359237 per kg (1 lb = 0.45359237 kg, 1959 agreement)
     _, out_lb, _ = run([SHAFT, "--json", "--stock-price", "1.10/lb"], capsys)
     _, out_kg, _ = run([SHAFT, "--json", "--stock-price", f"{1.10 / 0.45359237!r}/kg"], capsys)
-    a, b = json.loads(out_lb)["cost"], json.loads(out_kg)["cost"]
-    assert rel(a["stock_per_part"], b["stock_per_part"]) < 1e-12
+    a, b = cost_rows(json.loads(out_lb)), cost_rows(json.loads(out_kg))
+    assert rel(a["stock"]["per_part"], b["stock"]["per_part"]) < 1e-12
+
+
+def test_currency_written_with_the_price(capsys):
+    code, out, err = run([SHAFT, "--json", "--stock-price", "2.40 EUR/kg"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["units"]["money"] == "EUR" and d["inputs"]["currency"] == "EUR"
 
 
 def test_cutting_data_override_scales_the_time(capsys):
@@ -145,49 +173,65 @@ def test_cutting_data_override_scales_the_time(capsys):
     _, fast, _ = run([SHAFT, "--json", "--roughing", "vc=400", "--finishing", "f=0.24"], capsys)
     b, f = json.loads(base), json.loads(fast)
     # t = V / (vc ap f) and A / (vc f): doubling vc or f halves the time (common practice)
-    assert rel(f["times"]["roughing"], b["times"]["roughing"] / 2) < 1e-12
-    assert rel(f["times"]["finishing"], b["times"]["finishing"] / 2) < 1e-12
-    assert f["cutting_data"]["source"] == "given"
-    assert b["cutting_data"]["source"] == "typical, common practice, no source"
+    assert rel(f["times"]["roughing_time"], b["times"]["roughing_time"] / 2) < 1e-12
+    assert rel(f["times"]["finishing_time"], b["times"]["finishing_time"] / 2) < 1e-12
+    assert f["inputs"]["cutting_data_source"] == "given"
+    assert b["inputs"]["cutting_data_source"] == "typical, common practice, no source"
 
 
 def test_speed_limit_is_flagged_and_used(capsys):
     code, out, err = run([SHAFT, "--json", "--max-speed", "1200"], capsys)
     assert code == 0
     d = json.loads(out)
-    s = d["spindle_speed_rpm"]
-    assert s["limit"] == 1200 and s["roughing_over_limit"] and s["finishing_over_limit"]
+    assert d["times"]["speed_limit_rpm"] == 1200
+    assert all(row["over_limit"] for row in d["cutting"])
     assert "over the machine limit" in err and err.count("\n") == 1
     assert any("over the machine limit" in n for n in d["notes"])
     _, free, _ = run([SHAFT, "--json"], capsys)
-    assert d["times"]["finishing"] > json.loads(free)["times"]["finishing"]
+    assert d["times"]["finishing_time"] > json.loads(free)["times"]["finishing_time"]
     # a limit well above every speed needed changes nothing but the solid part's centre,
     # where the spindle would pass any limit; a high limit still costs only a little time
     _, high, err = run([SHAFT, "--json", "--max-speed", "100000"], capsys)
     h = json.loads(high)
-    assert err == "" and not h["spindle_speed_rpm"]["roughing_over_limit"]
-    assert rel(h["times"]["roughing"], json.loads(free)["times"]["roughing"]) < 1e-3
+    assert err == "" and not h["cutting"][0]["over_limit"]
+    assert rel(h["times"]["roughing_time"], json.loads(free)["times"]["roughing_time"]) < 1e-3
 
 
 def test_no_finish_leaves_a_face_out(capsys):
     _, out, _ = run([SHAFT, "--json", "--no-finish", "right end", "--no-finish", "left end"],
                     capsys)
     d = json.loads(out)
-    assert "right end" not in d["finished_surface_by_face"]
+    faces = {row["face"]: row["finished"] for row in d["faces"]}
+    assert faces["right end"] is False and faces["left end"] is False and faces["crown"] is True
     # end faces are discs and annuli: π r² (CRC, from memory): right end r = 18, left end r = 9
+    # (in cm²: 1.8 and 0.9 cm)
     _, full, _ = run([SHAFT, "--json"], capsys)
     f = json.loads(full)
-    assert rel(f["finished_surface"] - d["finished_surface"],
-               math.pi * (0.018 ** 2 + 0.009 ** 2)) < 1e-12
+    assert rel(f["part"]["finished_surface"] - d["part"]["finished_surface"],
+               math.pi * (1.8 ** 2 + 0.9 ** 2)) < 1e-12
 
 
 def test_blank_of_given_length(capsys):
     code, out, err = run([SHAFT, "--json", "--blank", "45", "--blank-length", "90"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    assert d["stock_kind"] == "blank" and d["bars"] is None
-    assert d["stock_diameter"] == 0.045 and d["stock_length"] == 0.09
-    assert rel(d["stock_volume"], math.pi * 0.0225 ** 2 * 0.09) < 1e-12
+    s = d["stock"]
+    assert s["stock_kind"] == "blank" and "bars" not in d
+    assert s["stock_diameter"] == 45.0 and s["stock_length"] == 90.0
+    assert rel(s["stock_volume"], math.pi * 2.25 ** 2 * 9.0) < 1e-12          # cm³
+
+
+def test_lengths_take_fractions_and_units(capsys):
+    # parting width 1/8 in = 3.175 mm (1959 agreement): 80 + 2 + 3.175 = 85.175 mm
+    code, out, err = run([SHAFT, "--json", "--parting-width", "1/8 in"], capsys)
+    assert code == 0, err
+    assert rel(json.loads(out)["stock"]["stock_length"], 85.175) < 1e-12
+    code, out, err = run([SHAFT, "--json", "--blank", "2 in", "--blank-length", "3 1/2 in"],
+                         capsys)
+    assert code == 0, err
+    s = json.loads(out)["stock"]
+    assert rel(s["stock_diameter"], 50.8) < 1e-12 and s["stock_label"] == "2 in"
+    assert rel(s["stock_length"], 88.9) < 1e-12
 
 
 # -- inch ---------------------------------------------------------------------------------
@@ -197,14 +241,16 @@ def test_inch_part_inch_list_and_units(capsys):
     code, out, err = run([SLEEVE, "--json", "--stock", "lighter"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    assert d["stock_label"] == "2 × 1 in"
-    assert d["stock_diameter"] == 2 * INCH and d["stock_inside_diameter"] == 1 * INCH
-    assert rel(d["part_volume"], SLEEVE_IN3 * INCH ** 3) < 1e-12
+    s = d["stock"]
+    assert d["units"]["length"] == "in" and d["units"]["cutting_distance/time"] == "ft/min"
+    assert s["stock_label"] == "2 × 1 in"
+    assert s["stock_diameter"] == 2.0 and s["stock_inside_diameter"] == 1.0
+    assert rel(d["part"]["part_volume"], SLEEVE_IN3) < 1e-12
     # 2.5 + 2/32 + 1/8 = 2.6875 in; floor((144 − 4) / 2.6875) = 52 (common practice, no source)
-    assert rel(d["stock_length"], 2.6875 * INCH) < 1e-12
+    assert rel(s["stock_length"], 2.6875) < 1e-12
     assert d["bars"]["parts_per_bar"] == 52
     code, out, err = run([SLEEVE], capsys)
-    assert "in³" in out and " lb " in out and "2 in" in out
+    assert "in³" in out and re.search(r"│ lb\b", out) and "2 in" in out and "ft/min" in out
 
 
 def test_inch_csv_round_trip_with_a_millimetre_drawing(tmp_path, capsys):
@@ -228,10 +274,10 @@ def test_inch_csv_round_trip_with_a_millimetre_drawing(tmp_path, capsys):
             assert a[key] == b[key], key
             continue
         assert x == pytest.approx(y, rel=1e-11), key
-    assert float(a["stock_diameter_in"]) == 2.0 and float(a["part_volume_in3"]) == \
+    assert float(a["stock_diameter (in)"]) == 2.0 and float(a["part_volume (in³)"]) == \
         pytest.approx(SLEEVE_IN3, rel=1e-11)
     # lb from kg: 1 lb = 0.45359237 kg (1959 agreement)
-    assert float(a["part_mass_lb"]) == pytest.approx(
+    assert float(a["part_mass (lb)"]) == pytest.approx(
         8800 * SLEEVE_IN3 * INCH ** 3 / 0.45359237, rel=1e-11)
 
 
@@ -251,21 +297,23 @@ def test_many_parts_one_row_each_and_csv(tmp_path, capsys):
     assert [r["file"] for r in rows] == [SHAFT, SLEEVE, pin]
     pin_row = rows[2]
     # pin ⌀30 × 50: 32 mm bar, 50 + 2 + 3 = 55 mm, V = π 15² 50 (CRC, from memory)
-    assert pin_row["stock"] == "32 mm" and float(pin_row["stock_length_mm"]) == 55.0
-    assert float(pin_row["part_volume_cm3"]) == pytest.approx(math.pi * 15 ** 2 * 50 / 1000,
-                                                               rel=1e-11)
-    assert float(pin_row["utilisation_percent"]) == pytest.approx(100 * 30 ** 2 * 50 / (32 ** 2 * 55),
-                                                                  rel=1e-11)
+    assert pin_row["stock_label"] == "32 mm" and float(pin_row["stock_length (mm)"]) == \
+        pytest.approx(55.0, rel=1e-15)
+    assert float(pin_row["part_volume (cm³)"]) == pytest.approx(math.pi * 15 ** 2 * 50 / 1000,
+                                                                 rel=1e-11)
+    assert float(pin_row["utilisation_percent (%)"]) == pytest.approx(
+        100 * 30 ** 2 * 50 / (32 ** 2 * 55), rel=1e-11)
     assert [n for n in os.listdir(tmp_path) if n.startswith(".")] == []   # no temporary left
 
 
 def test_many_parts_json_and_quantity_per_part(tmp_path, capsys):
     pin = write(tmp_path, "pin.toml", PIN)
-    code, out, err = run([SHAFT, pin, "--json", "-q", "5", "-q", "7"], capsys)
+    code, out, err = run([SHAFT, pin, "--json", "-q", "5,7"], capsys)
     assert code == 0, err
     d = json.loads(out)
-    assert [p["cost"]["quantity"] for p in d["parts"]] == [5, 7]
-    assert d["units"]["volume"] == "m³"
+    assert [p["quantity"] for p in d["parts"]] == [5, 7]
+    assert d["units"]["volume"] == "cm³" and d["inputs"]["quantity"] == [5, 7]
+    assert len(d["cautions"]) == 1
 
 
 def test_folder_of_profiles_leaves_out_other_inputs(tmp_path, capsys):
@@ -283,7 +331,33 @@ def test_names_with_brackets_are_shown_as_written(tmp_path, capsys):
               .replace("Plain pin", "Pin [rev B]"))
     code, out, err = run([f], capsys)
     assert code == 0, err
-    assert "finished: [seal] land" in out and "Pin [rev B]" in out
+    assert "[seal] land" in out and "Pin [rev B]" in out
+
+
+def test_bad_file_among_good_ones_keeps_its_row(tmp_path, capsys):
+    broken = write(tmp_path, "broken.toml", PIN.replace("{ close = true, face = \"end\" },", ""))
+    out_csv = tmp_path / "rows.csv"
+    code, out, err = run([SHAFT, broken, "--csv", out_csv], capsys)
+    assert code == 2
+    assert err.count("\n") == 1 and err.startswith("revolve: error: ") and broken in err
+    assert "not closed" in err and "Traceback" not in err
+    row = [line for line in out.splitlines() if line.startswith("broken")]
+    assert len(row) == 1 and "error: " in row[0]
+    rows = list(csv.DictReader(out_csv.open(encoding="utf-8")))
+    assert [r["file"] for r in rows] == [SHAFT, broken]
+    assert rows[1]["error"] and rows[1]["part_volume (cm³)"] == "" and not rows[0]["error"]
+
+
+def test_existing_csv_is_refused_without_force(tmp_path, capsys):
+    out_csv = tmp_path / "q.csv"
+    out_csv.write_text("keep\n", encoding="utf-8")
+    code, out, err = run([SHAFT, "--csv", out_csv], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert "--csv" in err and "--force" in err
+    assert out_csv.read_text(encoding="utf-8") == "keep\n"
+    code, out, err = run([SHAFT, "--csv", out_csv, "--force"], capsys)
+    assert code == 0, err
+    assert out_csv.read_text(encoding="utf-8").startswith("file,name,material,part_diameter (mm)")
 
 
 # -- bad input: exit 2, one line naming the file or option, nothing written ----------------
@@ -333,9 +407,9 @@ def test_empty_folder(tmp_path, capsys):
     _bad(tmp_path, capsys, [folder], str(folder), "no profile files")
 
 
-def test_bad_file_among_good_ones_writes_nothing(tmp_path, capsys):
+def test_bad_file_alone_writes_nothing(tmp_path, capsys):
     broken = write(tmp_path, "broken.toml", PIN.replace("{ close = true, face = \"end\" },", ""))
-    _bad(tmp_path, capsys, [SHAFT, broken], broken, "not closed")
+    _bad(tmp_path, capsys, [broken], broken, "not closed")
 
 
 def test_not_a_profile_file(tmp_path, capsys):
@@ -364,7 +438,14 @@ def test_missing_file(tmp_path, capsys):
     (["--bar-length", "150"], "--bar-length"),
     (["--no-finish", "crownn"], "--no-finish"),
     (["-q", "0"], "--quantity"),
-    (["-q", "2", "-q", "3"], "--quantity"),
+    (["-q", "2,3"], "--quantity"),
+    (["-q", "2,,3"], "--quantity"),
+    (["--parting-width", "three"], "--parting-width"),
+    (["--bar-length", "1/0 in"], "--bar-length"),
+    (["--remnant", "3 kg"], "--remnant"),
+    (["--blank", "2 x 1 kg"], "--blank"),
+    (["--stock-price", "2.40 EUR/kg", "--currency", "USD"], "--currency"),
+    (["--axis", "1,2"], "--axis"),
 ])
 def test_bad_options(tmp_path, capsys, args, must):
     _bad(tmp_path, capsys, [SHAFT, *args], must)
@@ -404,11 +485,93 @@ def test_material_removed_block_shows_volume_and_mass_for_each_quantity(capsys):
     assert code == 0, err
     block = out.split("Material removed", 1)[1].split("utilisation", 1)[0]
     for what in ("removed", "holding piece (offcut),", "chips,"):
-        assert re.search(re.escape(what) + r" ?volume\s+│\s+[\d.]+\s+│ cm³", block), what
-        assert re.search(re.escape(what) + r" ?mass\s+│\s+[\d.]+\s+│ kg", block), what
+        assert re.search(re.escape(what) + r" ?volume[^│\n]*│\s+[\d.]+\s+│ cm³", block), what
+        assert re.search(re.escape(what) + r" ?mass[^│\n]*│\s+[\d.]+\s+│ kg", block), what
     code, out, err = run([SHAFT, "--holding-length", "20", "--json"], capsys)
     d = json.loads(out)
-    offcut = math.pi / 4 * 0.042 ** 2 * 0.020
-    assert rel(d["offcut_volume"], offcut) < 1e-12
-    assert rel(d["offcut_mass"], 7850 * offcut) < 1e-12
-    assert rel(d["offcut_mass"] + d["chip_mass"], d["removed_mass"]) < 1e-12
+    r = d["removed"]
+    offcut = math.pi / 4 * 4.2 ** 2 * 2.0            # cm³
+    assert rel(r["offcut_volume"], offcut) < 1e-12
+    assert rel(r["offcut_mass"], 7850 * offcut * 1e-6) < 1e-12
+    assert rel(r["offcut_mass"] + r["chip_mass"], r["removed_mass"]) < 1e-12
+
+
+# -- the library: quote_turning(...).to_dict() is `revolve turn FILE --json` -----------------
+
+TURNABLE = [ROOT / "profiles" / n for n in ("domed-lid.toml", "flanged-bushing.toml",
+                                             "grooved-pulley.toml", "turned-sleeve-inch.toml",
+                                             "turned-stepped-shaft.toml")]
+SOLID_POINTS = [ROOT / "profiles" / "spacer-points.txt", ROOT / "profiles" / "tilted-ring.toml"]
+
+
+@pytest.mark.parametrize("path", TURNABLE + SOLID_POINTS, ids=lambda p: p.name)
+def test_library_to_dict_equals_the_command_json(path, capsys):
+    import revolve
+    from revolve.render.output import clean_json
+
+    extra = ["--material", "aluminium 6061"] if path in SOLID_POINTS else []
+    code, out, err = run([str(path), "--json", "-q", "25", "--stock-price", "3.10/kg",
+                          "--machine-rate", "70/h", *extra], capsys)
+    assert code == 0, err
+    r = revolve.quote_turning(str(path), quantity=25, stock_price="3.10/kg", machine_rate="70/h",
+                              material=extra[1] if extra else None)
+    assert json.loads(json.dumps(clean_json(r.to_dict()), ensure_ascii=False)) == json.loads(out)
+    assert "TurningResult" in repr(r) and "<table>" in r._repr_html_()
+
+
+def test_library_quote_many_keeps_a_refused_file(tmp_path):
+    import revolve
+
+    b = revolve.quote_turning_many([SHAFT, tmp_path / "gone.toml"], quantity=[3, 4])
+    rows = b.to_dict()["parts"]
+    assert rows[0]["quantity"] == 3 and "no such file" in rows[1]["error"]
+    assert [f for f, _ in b.failed] == [str(tmp_path / "gone.toml")]
+
+
+def test_each_part_is_prepared_once(monkeypatch):
+    # The quote reads the measurement's prepared profile instead of preparing again.
+    import revolve
+    from revolve.geometry import checks, measure
+
+    calls = []
+    real = checks.prepare
+
+    def counting(*args, **kwargs):
+        calls.append(1)
+        return real(*args, **kwargs)
+
+    monkeypatch.setattr(checks, "prepare", counting)
+    monkeypatch.setattr(measure, "prepare", counting)
+    revolve.quote_turning(SHAFT, max_speed="2000")
+    assert len(calls) == 1
+
+
+# -- generated option text: a quote or one line naming the option, never a traceback --------
+
+from hypothesis import example, given, strategies as st  # noqa: E402
+
+
+@given(st.sampled_from(["--parting-width", "--bar-length", "--blank", "--stock-price",
+                        "--machine-rate", "--max-speed", "--roughing", "-q"]),
+       st.text(alphabet="0123456789 ./-x,=EURkgminvcfap'\"", min_size=1, max_size=12))
+@example("--parting-width", "1/0 in")
+@example("-q", "0,1")
+@example("--roughing", "vc=1e999")
+def test_generated_option_text_is_quoted_or_refused_in_one_line(option, text):
+    import contextlib
+    import io
+
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        try:
+            main(["turn", SHAFT, "--json", option, text])
+            code = 0
+        except SystemExit as e:
+            code = e.code
+    assert "Traceback" not in err.getvalue()
+    if code == 0:
+        json.loads(out.getvalue())
+    else:
+        assert code == 2 and out.getvalue() == "", (option, text, err.getvalue())
+        lines = err.getvalue().splitlines()
+        assert len(lines) == 1 and lines[0].startswith("revolve: error: "), lines

@@ -452,7 +452,7 @@ def test_finished_faces_skip_and_unknown_face():
     assert tu.finished_faces(faces, ["bore"]) == {"od": 2.0}
     with pytest.raises(RevolveError) as exc:
         tu.finished_faces(faces, ["od2"])
-    assert exc.value.place == "--no-finish"
+    assert exc.value.option == "--no-finish"
 
 
 # -- cost ------------------------------------------------------------------------------
