@@ -54,7 +54,7 @@ Examples
 --------
 A 2:1 ellipsoidal head holds π D³/24 beyond its tangent line:
 
->>> v = build_vessel(1000.0, 2000.0, parse_head("ellipsoidal", 1000.0),
+>>> v = design_vessel(1000.0, 2000.0, parse_head("ellipsoidal", 1000.0),
 ...                  parse_head("hemispherical", 1000.0))
 >>> s = summarise(v)
 >>> round(s.heads[0].volume / (math.pi * 1000.0 ** 3 / 24), 12), s.heads[0].depth
@@ -146,7 +146,7 @@ def parse_head(text: str, diameter: float, place: str = "head") -> HeadSpec:
     """Read a head written ``KIND`` or ``KIND:key=value,...`` (see the module notes).
 
     Percentages are of ``diameter`` (the stated one). Named proportions are
-    filled in; the geometry is checked later, by :func:`build_vessel`.
+    filled in; the geometry is checked later, by :func:`design_vessel`.
 
     >>> parse_head("torispherical", 1000.0)
     HeadSpec(kind='torispherical', crown=1000.0, knuckle=60.0, angle=None)
@@ -456,7 +456,7 @@ def _common_practice_notes(spec: HeadSpec, D: float, which: str) -> List[str]:
     return notes
 
 
-def build_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadSpec, *,
+def design_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadSpec, *,
                  thickness: Optional[float] = None, dimensions: str = "inside",
                  unit: str = "mm") -> VesselDesign:
     """Build the inside (and, with a thickness, the wall) of a vessel; exact geometry.
@@ -479,13 +479,13 @@ def build_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadS
 
     Examples
     --------
-    >>> v = build_vessel(1000.0, 1500.0, HeadSpec("flat"), HeadSpec("hemispherical"),
+    >>> v = design_vessel(1000.0, 1500.0, HeadSpec("flat"), HeadSpec("hemispherical"),
     ...                  thickness=10.0)
     >>> [s.kind for s in v.inside.segments]
     ['line', 'line', 'arc', 'line']
     >>> v.outside_diameter
     1020.0
-    >>> build_vessel(1000.0, 1000.0, HeadSpec("torispherical", crown=400.0, knuckle=60.0),
+    >>> design_vessel(1000.0, 1000.0, HeadSpec("torispherical", crown=400.0, knuckle=60.0),
     ...              HeadSpec("flat"))
     Traceback (most recent call last):
     ...
@@ -559,7 +559,7 @@ def sketch_profile(design: VesselDesign, orientation: str = "vertical", which: s
     Vertical vessels are drawn with the axis along the sketch y (up) and the
     radius along x; horizontal ones with the axis along x.
 
-    >>> v = build_vessel(1000.0, 1000.0, HeadSpec("flat"), HeadSpec("flat"))
+    >>> v = design_vessel(1000.0, 1000.0, HeadSpec("flat"), HeadSpec("flat"))
     >>> p, axis = sketch_profile(v, "vertical")
     >>> axis.direction, p.loops[0].segments[0].start, p.loops[0].segments[0].end
     ((0.0, 1.0), (0.0, 0.0), (500.0, 0.0))
@@ -577,7 +577,7 @@ def sketch_profile(design: VesselDesign, orientation: str = "vertical", which: s
 def describe(design: VesselDesign) -> str:
     """A one-line name for the vessel, e.g. for the profile file.
 
-    >>> describe(build_vessel(1200.0, 3000.0, HeadSpec("ellipsoidal"), HeadSpec("ellipsoidal")))
+    >>> describe(design_vessel(1200.0, 3000.0, HeadSpec("ellipsoidal"), HeadSpec("ellipsoidal")))
     'vessel, inside diameter 1200 mm, shell 3000 mm, heads ellipsoidal 2:1 / ellipsoidal 2:1'
     """
     u = design.unit
@@ -643,7 +643,7 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
     from the engine (Pappus–Guldinus, with its independent cross-check);
     head volumes from the section clipped at the tangent lines.
 
-    >>> v = build_vessel(1000.0, 0.0, HeadSpec("hemispherical"), HeadSpec("hemispherical"),
+    >>> v = design_vessel(1000.0, 0.0, HeadSpec("hemispherical"), HeadSpec("hemispherical"),
     ...                  thickness=10.0)
     >>> s = summarise(v, metal_density=7850.0, liquid_density=1000.0)
     >>> round(s.capacity / (4 / 3 * math.pi * 500.0 ** 3), 12)           # a sphere
