@@ -60,6 +60,10 @@ _LAZY = {
     "MeasureResult": "revolve.jobs.measuring",
     "measure_many": "revolve.jobs.batch",
     "draw": "revolve.render.drawing",
+    "build_vessel": "revolve.jobs.vessel",
+    "VesselResult": "revolve.jobs.vessel",
+    "level_table": "revolve.jobs.levels",
+    "LevelResult": "revolve.jobs.levels",
 }
 
 __all__ = sorted(_LAZY) + ["RevolveError", "__version__"]

@@ -73,6 +73,7 @@ from typing import Dict, List, Optional, Tuple
 
 from revolve.errors import ProfileError, RevolveError, indefinite
 from revolve.geometry.profile import Axis, Loop, Profile
+from revolve.jobs.results import Result
 
 HEAD_KINDS = ("flat", "hemispherical", "ellipsoidal", "torispherical", "torispherical-10",
               "torispherical-80", "conical")
@@ -702,3 +703,293 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
                          outside_length, m_in.surface_total, faces.get("shell", 0.0), outside_area,
                          metal_volume, metal_density, metal_mass, liquid_density, liquid_mass,
                          mass_full, com_liquid, com_empty, com_full, check, design.notes)
+
+
+# -- the job: a vessel from text settings, as a result --------------------------------------
+
+#: Largest relative difference allowed between the two computations.
+DEFAULT_TOLERANCE = 1e-9
+#: The library's names of the settings (the command line passes its option names instead).
+LIBRARY_NAMES = {"diameter": "diameter", "length": "length", "head": "head",
+                 "head_1": "head_1", "head_2": "head_2", "units": "units",
+                 "dimensions": "dimensions", "thickness": "thickness", "material": "material",
+                 "density": "density", "liquid": "liquid", "liquid_density": "liquid_density",
+                 "orientation": "orientation", "length_unit": "length_unit",
+                 "volume_unit": "volume_unit", "area_unit": "area_unit",
+                 "mass_unit": "mass_unit", "tolerance": "tolerance", "name": "name"}
+_HEAD_HELP = ("flat, hemispherical, ellipsoidal, torispherical, torispherical-10, "
+              "torispherical-80, conical:angle=A")
+
+
+@dataclass(frozen=True, repr=False)
+class VesselResult(Result):
+    """A built vessel and its figures; ``to_dict()`` is ``revolve vessel --json``.
+
+    ``design`` is the :class:`VesselDesign` (exact geometry, vessel units),
+    ``summary`` the :class:`VesselSummary`; :meth:`profile_text` and
+    :meth:`wall_text` give the profile files ``revolve vessel`` writes.
+    ``capacity`` is in the capacity unit (``units.unit("capacity")``).
+    """
+
+    design: Optional[VesselDesign] = None
+    summary: Optional[VesselSummary] = None
+    orientation: str = "vertical"
+    name: str = ""
+    metal_key: Optional[str] = None
+
+    @property
+    def capacity(self) -> float:
+        return self.table("vessel").json(self.units)["capacity"]
+
+    def profile_text(self) -> str:
+        """The liquid space as a profile file (for ``revolve measure`` and ``revolve levels``)."""
+        from revolve.formats.writer import profile_text
+
+        profile, axis = sketch_profile(self.design, self.orientation, "inside", name=self.name)
+        return profile_text(profile, axis=axis, angle=360, section="space",
+                            orientation=self.orientation)
+
+    def wall_text(self) -> str:
+        """The wall (metal section) as a profile file, with its material or density."""
+        from revolve.formats.writer import profile_text
+
+        wall, axis = sketch_profile(self.design, self.orientation, "wall",
+                                    name=self.name + " (wall)")
+        density = self.summary.metal_density
+        return profile_text(wall, axis=axis, angle=360, orientation=self.orientation,
+                            material=self.metal_key or None,
+                            density=None if self.metal_key or density is None
+                            else f"{density!r} kg/m^3")
+
+
+def _vessel_length(value, unit: str, option: str) -> float:
+    """A length (``1200``, ``"1.2 m"``, ``"3' 4 1/8\\""``, a Length or pint quantity) in ``unit``."""
+    from revolve.inputs import Length, parse_length
+
+    try:
+        if isinstance(value, Length):
+            length = value
+        elif hasattr(value, "to") and hasattr(value, "magnitude"):
+            length = Length(float(value.to("m").magnitude), "m")
+        else:
+            length = parse_length(value)
+        return length.in_unit(unit, unit)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def _material(material, density, material_option: str, density_option: str):
+    """(kg/m³, label, material key) from a material name or a density (text, number, pint)."""
+    from revolve.jobs.measuring import density_value, material_or_density
+
+    if density is None or isinstance(density, str) or material is not None:
+        return material_or_density(material, density if density is None or isinstance(
+            density, str) else repr(density), material_option=material_option,
+            density_option=density_option)
+    d, label = density_value(density, density_option)
+    return d, label, None
+
+
+def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Optional[str] = None,
+                 head_2: Optional[str] = None, units: str = "mm", dimensions: str = "inside",
+                 thickness=None, material: Optional[str] = None, density=None,
+                 liquid: Optional[str] = None, liquid_density=None,
+                 orientation: str = "vertical", name: Optional[str] = None,
+                 length_unit: Optional[str] = None, volume_unit: Optional[str] = None,
+                 area_unit: Optional[str] = None, mass_unit: Optional[str] = None,
+                 tolerance: float = DEFAULT_TOLERANCE, names=None) -> VesselResult:
+    """Build a vessel from its diameter, shell length and heads; its capacity, surfaces and masses.
+
+    The same computation as ``revolve vessel``: ``result.to_dict()`` is the
+    object ``revolve vessel --json`` prints (``files`` empty).
+
+    Parameters
+    ----------
+    diameter, length : length text, number, Length or pint quantity
+        Shell diameter and straight shell (tangent line to tangent line; 0
+        for two heads only): ``"1.2 m"``, ``"48 in"``; a bare number is in ``units``.
+    head, head_1, head_2 : str
+        Both heads, or head 1 (start of the axis, the bottom) and head 2:
+        ``flat``, ``hemispherical``, ``ellipsoidal``, ``torispherical``,
+        ``torispherical-10``, ``torispherical-80``, ``conical:angle=A`` (see
+        the module notes for the settings).
+    units : str
+        The vessel's length unit (of bare numbers and of the profile files).
+    dimensions : "inside" or "outside"
+        The surface the diameter and head radii describe.
+    thickness : length, optional
+        Wall thickness (shell and heads); needed for the metal.
+    material, density : optional
+        The metal: a material of the table, or a density with its unit
+        (``"7850 kg/m^3"``; a bare number is kg/m³).
+    liquid, liquid_density : optional
+        The contents, likewise (``"water"``, ``"850 kg/m^3"``).
+    orientation : "vertical" or "horizontal"
+        How the profile files draw it (and how ``revolve levels`` reads them).
+    length_unit, volume_unit, area_unit, mass_unit : str, optional
+        Output units; defaults by the vessel trade: lengths in ``units``,
+        capacities and volumes in L (US gal for inch or foot work), areas
+        in m² (ft²), masses in kg (lb).
+
+    Returns
+    -------
+    VesselResult
+
+    Examples
+    --------
+    A sphere of 1 m made of two hemispherical heads holds π/6 m³:
+
+    >>> r = build_vessel("1 m", 0, head="hemispherical")
+    >>> round(r.capacity, 6), r.units.unit("capacity")
+    (523.598776, 'L')
+    >>> build_vessel(1000, 500, head="flat", thickness=0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: thickness: the wall thickness must be positive, got 0
+    """
+    from revolve import units as registry
+    from revolve.jobs.results import Field, Table, rows_of, trade_units
+
+    n = dict(LIBRARY_NAMES, **(names or {}))
+    try:
+        unit = registry.canonical(units, "length")
+    except RevolveError as e:
+        raise e.located(option=n["units"])
+    overrides = {"length": length_unit, "level": length_unit, "diameter": length_unit,
+                 "area": area_unit, "capacity": volume_unit, "volume": volume_unit,
+                 "mass": mass_unit}
+    opts = {"length": n["length_unit"], "level": n["length_unit"],
+            "diameter": n["length_unit"], "area": n["area_unit"], "capacity": n["volume_unit"],
+            "volume": n["volume_unit"], "mass": n["mass_unit"]}
+    shown = trade_units("vessel", unit, overrides, options=opts)
+    orientation = str(orientation or "vertical").strip().lower()
+    if orientation not in ("vertical", "horizontal"):
+        raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
+                           option=n["orientation"])
+    dimensions = str(dimensions or "inside").strip().lower()
+    if dimensions not in ("inside", "outside"):
+        raise RevolveError(f"give inside or outside, got {dimensions!r}", option=n["dimensions"])
+    try:
+        tolerance = float(tolerance)
+    except (TypeError, ValueError):
+        tolerance = float("nan")
+    if not tolerance > 0:
+        raise RevolveError("the tolerance must be a positive number", option=n["tolerance"])
+    D = _vessel_length(diameter, unit, n["diameter"])
+    L = _vessel_length(length, unit, n["length"])
+    if not D > 0:
+        raise RevolveError(f"the diameter must be positive, got {D:g}", option=n["diameter"])
+    if L < 0:
+        raise RevolveError(f"the shell length must not be negative, got {L:g}",
+                           option=n["length"])
+    t = None if thickness is None else _vessel_length(thickness, unit, n["thickness"])
+    if head and (head_1 or head_2):
+        raise RevolveError(f"give {n['head']} for both ends, or {n['head_1']} and {n['head_2']}, "
+                           "not both", option=n["head"])
+    text_1, text_2 = (head, head) if head else (head_1, head_2)
+    if not text_1 or not text_2:
+        missing = n["head_1"] if not text_1 else n["head_2"]
+        raise RevolveError(f"give the heads: {n['head']} KIND for both ends, or {n['head_1']} and "
+                           f"{n['head_2']} ({_HEAD_HELP})",
+                           option=missing if head_1 or head_2 else n["head"])
+    spec_1 = parse_head(text_1, D, place=n["head"] if head else n["head_1"])
+    spec_2 = parse_head(text_2, D, place=n["head"] if head else n["head_2"])
+    metal_d, metal_label, metal_key = _material(material, density, n["material"], n["density"])
+    liquid_d, liquid_label, _ = _material(liquid, liquid_density, n["liquid"],
+                                          n["liquid_density"])
+    if metal_d is not None and t is None:
+        raise RevolveError("the metal's mass needs a wall thickness; give " + n["thickness"],
+                           option=n["material"] if material else n["density"])
+    try:
+        design = design_vessel(D, L, spec_1, spec_2, thickness=t, dimensions=dimensions,
+                               unit=unit)
+    except RevolveError as e:
+        place = e.place or ""
+        if place in ("head 1", "head 2"):
+            option = n["head"] if head else n["head_1" if place == "head 1" else "head_2"]
+            raise type(e)(e.message, option=option, place=place) from None
+        if place in ("diameter", "length", "thickness", "dimensions"):
+            raise type(e)(e.message, option=n[place]) from None
+        raise
+    metre = registry.factor(unit, "length")
+    s = summarise(design, metal_density=metal_d, liquid_density=liquid_d, si_length=metre)
+    description = describe(design)
+    title = name.strip() if name and name.strip() else description
+
+    def si(value, power=1):
+        return None if value is None else value * metre ** power
+
+    figures = {
+        "diameter": si(design.diameter), "inside_diameter": si(design.inside_diameter),
+        "outside_diameter": si(design.outside_diameter), "shell_length": si(design.length),
+        "thickness": si(design.thickness), "inside_length": si(s.inside_length),
+        "outside_length": si(s.outside_length),
+        "capacity": si(s.capacity, 3), "shell_volume": si(s.shell_volume, 3),
+        "inside_area": si(s.inside_area, 2), "shell_inside_area": si(s.shell_inside_area, 2),
+        "outside_area": si(s.outside_area, 2), "metal_volume": si(s.metal_volume, 3),
+        "metal_mass": s.metal_mass, "liquid_mass": s.liquid_mass, "mass_full": s.mass_full,
+        "centre_of_mass_liquid": si(s.centre_of_mass_liquid),
+        "centre_of_mass_empty": si(s.centre_of_mass_empty),
+        "centre_of_mass_full": si(s.centre_of_mass_full)}
+    figure_fields = (
+        Field("diameter", f"diameter as given ({dimensions})", "length"),
+        Field("inside_diameter", "inside diameter", "length"),
+        Field("outside_diameter", "outside diameter", "length"),
+        Field("shell_length", "straight shell (tangent to tangent)", "length"),
+        Field("thickness", "wall thickness", "length"),
+        Field("inside_length", "inside length (pole to pole)", "length"),
+        Field("outside_length", "outside length", "length"),
+        Field("capacity", "capacity", "capacity"),
+        Field("shell_volume", "  of it in the shell", "capacity"),
+        Field("inside_area", "inside surface", "area"),
+        Field("shell_inside_area", "  of it on the shell", "area"),
+        Field("outside_area", "outside surface", "area"),
+        Field("metal_volume", "metal volume", "volume"),
+        Field("metal_mass", "metal mass (empty)", "mass"),
+        Field("liquid_mass", "liquid mass, full", "mass"),
+        Field("mass_full", "mass full", "mass"),
+        Field("centre_of_mass_liquid", "centre of mass of the liquid, full", "length"),
+        Field("centre_of_mass_empty", "centre of mass, empty", "length"),
+        Field("centre_of_mass_full", "centre of mass, full", "length"))
+    heads = []
+    for h in s.heads:
+        row = {"which": h.which, "kind": h.spec.kind, "description": h.spec.describe(unit),
+               "crown": si(h.spec.crown), "knuckle": si(h.spec.knuckle),
+               "angle_degrees": h.spec.angle, "depth": si(h.depth),
+               "depth_outside": si(h.depth_outside), "volume": si(h.volume, 3),
+               "inside_area": si(h.inside_area, 2)}
+        heads.append({k: v for k, v in row.items() if v is not None})
+    head_fields = (Field("which", "head", style="text"),
+                   Field("description", "kind", style="text"),
+                   Field("depth", "depth", "length"),
+                   Field("depth_outside", "depth outside", "length"),
+                   Field("volume", "volume", "capacity"),
+                   Field("inside_area", "inside area", "area"))
+    notes = ["heads: depth and volume beyond the tangent line (where the head meets the shell)",
+             "centres of mass: along the axis from the tangent line of head 1",
+             f"drawn {orientation}; head 1 is at the start of the axis"
+             + (" (the bottom)" if orientation == "vertical" else " (the left end)")]
+    if title != description:
+        notes.insert(0, description)
+    if metal_label:
+        notes.append(f"metal: {metal_label}")
+    if liquid_label:
+        notes.append(f"liquid: {liquid_label}")
+    notes += list(s.notes)
+    notes.append(f"cross-check: largest relative difference {s.crosscheck_difference:.1e}")
+    check = s.crosscheck_difference
+    inputs = {"unit": unit, "dimensions": dimensions,
+              "heads": [spec_1.describe(unit), spec_2.describe(unit)],
+              "orientation": orientation, "name": title}
+    extra = {"description": description, "metal": metal_label, "liquid": liquid_label,
+             "files": {"liquid_space": None, "wall": None},
+             "crosscheck": {"largest_difference": check, "tolerance": tolerance,
+                            "agrees": bool(check <= tolerance)}}
+    cautions = ("vessel",) + (("lifting",) if s.metal_mass is not None else ())
+    return VesselResult(
+        "vessel", shown, inputs,
+        (Table("vessel", title, figure_fields,
+               rows_of([{k: v for k, v in figures.items() if v is not None}]), figures=True),
+         Table("heads", "Heads", head_fields, rows_of(heads))),
+        tuple(notes), cautions, extra, design=design, summary=s, orientation=orientation,
+        name=title, metal_key=metal_key)
