@@ -702,7 +702,8 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     metre = registry.factor(unit, "length")           # one profile unit in metres
     lu = shown.unit("level")
     full_shown = shown.show(space.height * metre, "level")
-    level_in_profile = shown.units["level"][1] / metre    # one level unit in profile units
+    level_factor = shown.units["level"][1]                # one level unit in metres
+    level_in_profile = level_factor / metre               # one level unit in profile units
     asked_key, asked_values = None, None
 
     if mode == "step":
@@ -756,7 +757,8 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     rows = []
     for k in range(len(table)):
         row = {} if asked_key is None else {asked_key: float(asked_values[k])}
-        row.update(level=float(table.level[k]) * metre, volume=float(table.volume[k]) * metre ** 3,
+        row.update(level=float(table.level[k]) * metre,
+                   volume=float(table.volume[k]) * metre ** 3,
                    percent=float(table.percent[k]),
                    wetted_area=float(table.wetted_area[k]) * metre ** 2,
                    volume_error=float(table.error[k]) * metre ** 3)
@@ -767,7 +769,8 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
         Field("percent", "full", style="percent"),
         Field("wetted_area", "wetted area", "area"),
         Field("volume_error", "error estimate", "capacity", digits=2))
-    figures = {"capacity": space.capacity * metre ** 3, "full_level": space.height * metre,
+    figures = {"capacity": space.capacity * metre ** 3,
+               "full_level": space.height * metre,
                "inside_area": space.inside_area * metre ** 2}
     figure_fields = [Field("capacity", "capacity", "capacity"),
                      Field("full_level", "full level", "level"),
