@@ -862,6 +862,9 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
             "diameter": n["length_unit"], "area": n["area_unit"], "capacity": n["volume_unit"],
             "volume": n["volume_unit"], "mass": n["mass_unit"]}
     shown = trade_units("vessel", unit, overrides, options=opts)
+    from revolve.jobs.levels import TradeUnits
+
+    shown = TradeUnits(shown.units, shown.currency)
     orientation = str(orientation or "vertical").strip().lower()
     if orientation not in ("vertical", "horizontal"):
         raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
@@ -920,7 +923,7 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
         return None if value is None else value * metre ** power
 
     figures = {
-        "diameter": si(design.diameter), "inside_diameter": si(design.inside_diameter),
+        "inside_diameter": si(design.inside_diameter),
         "outside_diameter": si(design.outside_diameter), "shell_length": si(design.length),
         "thickness": si(design.thickness), "inside_length": si(s.inside_length),
         "outside_length": si(s.outside_length),
@@ -932,7 +935,6 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
         "centre_of_mass_empty": si(s.centre_of_mass_empty),
         "centre_of_mass_full": si(s.centre_of_mass_full)}
     figure_fields = (
-        Field("diameter", f"diameter as given ({dimensions})", "length"),
         Field("inside_diameter", "inside diameter", "length"),
         Field("outside_diameter", "outside diameter", "length"),
         Field("shell_length", "straight shell (tangent to tangent)", "length"),
