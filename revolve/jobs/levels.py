@@ -75,7 +75,7 @@ from revolve.errors import ProfileError, RevolveError
 from revolve.geometry.checks import PreparedProfile, prepare
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.segments import Line
-from revolve.jobs.results import OutputUnits, Result
+from revolve.jobs.results import Result
 
 ORIENTATIONS = ("vertical", "horizontal")
 #: Most rows a table may have (a step far too small for the vessel is a mistake, not a wish).
@@ -542,31 +542,6 @@ def _volume_si(value, shown) -> float:
     return shown.read(v, "capacity")
 
 
-def snapped(value: float) -> float:
-    """``value`` to 15 significant digits, the decimal precision of a float.
-
-    A unit conversion or a ratio leaves noise in the last bits
-    (5.999999999999999 for 6 in, 62.499999999999986 %); the 15-digit form
-    drops it and changes a value by less than 1e-15 of itself, so the JSON
-    and the CSV keep the figures' full precision without the noise.
-
-    >>> snapped(0.1524 / 0.0254), snapped(62.499999999999986), snapped(20943.951023931953)
-    (6.0, 62.5, 20943.951023932)
-    """
-    if not isinstance(value, float) or not math.isfinite(value):
-        return value
-    return float(f"{value:.15g}")
-
-
-@dataclass(frozen=True)
-class TradeUnits(OutputUnits):
-    """Output units whose shown values carry no last-bit noise (see :func:`snapped`)."""
-
-    def show(self, value: Any, role: Optional[str]) -> Any:
-        shown = OutputUnits.show(self, value, role)
-        return [snapped(v) for v in shown] if isinstance(shown, list) else snapped(shown)
-
-
 def _named(option, fn, *args):
     """``fn(*args)``, its errors naming ``option``."""
     try:
@@ -668,6 +643,7 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     from revolve import units as registry
     from revolve.jobs.measuring import _axis_of, as_document, parse_axis
     from revolve.jobs.results import Field, Table, rows_of, trade_units
+    from revolve.jobs.vessel import TradeUnits, snapped
 
     n = dict(LIBRARY_NAMES, **(names or {}))
     given = [key for key, v in (("step", step), ("count", count), ("at", at),

@@ -69,11 +69,11 @@ import math
 import re
 from dataclasses import dataclass, field, replace
 from fractions import Fraction
-from typing import Dict, List, Optional, Tuple
+from typing import Any, Dict, List, Optional, Tuple
 
 from revolve.errors import ProfileError, RevolveError, indefinite
 from revolve.geometry.profile import Axis, Loop, Profile
-from revolve.jobs.results import Result
+from revolve.jobs.results import OutputUnits, Result
 
 HEAD_KINDS = ("flat", "hemispherical", "ellipsoidal", "torispherical", "torispherical-10",
               "torispherical-80", "conical")
@@ -721,6 +721,31 @@ _HEAD_HELP = ("flat, hemispherical, ellipsoidal, torispherical, torispherical-10
               "torispherical-80, conical:angle=A")
 
 
+def snapped(value: float) -> float:
+    """``value`` to 15 significant digits, the decimal precision of a float.
+
+    A unit conversion or a ratio leaves noise in the last bits
+    (5.999999999999999 for 6 in, 62.499999999999986 %); the 15-digit form
+    drops it and changes a value by less than 1e-15 of itself, so the JSON
+    and the CSV keep the figures' full precision without the noise.
+
+    >>> snapped(0.1524 / 0.0254), snapped(62.499999999999986), snapped(20943.951023931953)
+    (6.0, 62.5, 20943.951023932)
+    """
+    if not isinstance(value, float) or not math.isfinite(value):
+        return value
+    return float(f"{value:.15g}")
+
+
+@dataclass(frozen=True)
+class TradeUnits(OutputUnits):
+    """Output units whose shown values carry no last-bit noise (see :func:`snapped`)."""
+
+    def show(self, value: Any, role: Optional[str]) -> Any:
+        shown = OutputUnits.show(self, value, role)
+        return [snapped(v) for v in shown] if isinstance(shown, list) else snapped(shown)
+
+
 @dataclass(frozen=True, repr=False)
 class VesselResult(Result):
     """A built vessel and its figures; ``to_dict()`` is ``revolve vessel --json``.
@@ -862,8 +887,6 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
             "diameter": n["length_unit"], "area": n["area_unit"], "capacity": n["volume_unit"],
             "volume": n["volume_unit"], "mass": n["mass_unit"]}
     shown = trade_units("vessel", unit, overrides, options=opts)
-    from revolve.jobs.levels import TradeUnits
-
     shown = TradeUnits(shown.units, shown.currency)
     orientation = str(orientation or "vertical").strip().lower()
     if orientation not in ("vertical", "horizontal"):
