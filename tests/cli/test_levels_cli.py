@@ -415,3 +415,46 @@ def test_library_to_dict_equals_the_json_for_every_vessel_example(path, args, kw
     assert code == 0, err
     library = revolve.level_table(str(path), **kwargs).to_dict()
     assert json.loads(json.dumps(library)) == json.loads(out)
+
+
+# -- generated options (hypothesis): a table that checks out, or one line naming the option ----
+
+from hypothesis import example, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_AMOUNTS = st.one_of(st.integers(0, 40).map(str), st.sampled_from(["1/8", "3 1/2", "0.5", "1/0",
+                                                                   "-2", "2.5e1", "", "x"]))
+_UNITS = st.sampled_from(["", " in", " mm", " ft", " cm", " kg", " L", "in", " furlong"])
+
+
+@settings(max_examples=40, deadline=None)
+@given(option=st.sampled_from(["--step", "--at"]),
+       items=st.lists(st.tuples(_AMOUNTS, _UNITS), min_size=1, max_size=3))
+@example(option="--step", items=[("1/8", " in")])
+@example(option="--at", items=[("3 1/2", " in"), ("254", " mm")])
+@example(option="--at", items=[("1/0", " in")])
+def test_generated_levels_options(tmp_path_factory, option, items):
+    import contextlib
+    import io
+
+    tmp = tmp_path_factory.mktemp("gen")
+    path = write(tmp, "drum.toml", DRUM_IN)
+    out_csv = tmp / "t.csv"
+    value = ",".join(a + u for a, u in items)
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        with pytest.raises(SystemExit) as stop:
+            main(["levels", path, option, value, "--level-unit", "in", "--volume-unit", "in^3",
+                  "--csv", str(out_csv), "--json"])
+    if stop.value.code == 2:
+        (line,) = err.getvalue().strip().splitlines()
+        assert line.startswith(f"revolve: error: {option}: ") and "Traceback" not in line
+        assert out.getvalue() == "" and not out_csv.exists()
+        return
+    assert stop.value.code in (0, None), err.getvalue()
+    d = json.loads(out.getvalue())
+    for r in d["levels"]:
+        # CRC: cylinder π r² h (r = 10 in), levels and volumes in in and in³
+        assert 0 <= r["level"] <= 24 * (1 + 1e-15)
+        assert r["volume"] == pytest.approx(math.pi * 100 * r["level"], rel=1e-13, abs=1e-9)
+    assert out_csv.exists()
