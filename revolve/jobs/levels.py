@@ -245,7 +245,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
     if not closed.loops:
         raise ProfileError("the profile has no closed loop or chain to hold liquid")
     m = measure(Revolution(closed, axis, 360.0), symbolic=False)
-    prep = prepare(closed, axis)
+    prep = m.prepared or prepare(closed, axis)     # the measurement's, not again
     factors = prep.loop_factors
     if orientation == "vertical":
         pieces = axial_pieces(prep, factors)

@@ -662,7 +662,7 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
     axis = Axis.x()
     inside_profile = Profile(loops=(design.inside,), unit=design.unit)
     m_in = measure(Revolution(inside_profile, axis), symbolic=False)
-    prep = prepare(inside_profile, axis)
+    prep = m_in.prepared or prepare(inside_profile, axis)   # the measurement's, not again
     below = vertical_levels(prep, [0.0, design.length])
     v_head1 = float(below.volume[0])
     v_head2 = m_in.volume - float(below.volume[1])

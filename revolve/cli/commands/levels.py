@@ -44,11 +44,12 @@ def run_levels(profile: str, *, csv_file: Optional[str], force: bool, as_json: b
     import sys
     from dataclasses import replace
 
-    from revolve.formats.files import check_target
     from revolve.jobs.levels import level_table
     from revolve.render import output
 
     if csv_file:
+        from revolve.formats.files import check_target
+
         check_target(csv_file, option="--csv", replace=force)
     result = level_table(profile, names=NAMES, **settings)
     if csv_file:

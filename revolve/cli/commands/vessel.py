@@ -45,7 +45,6 @@ def run_vessel(*, output: Optional[str], wall_output: Optional[str], force: bool
     from dataclasses import replace
 
     from revolve.errors import RevolveError
-    from revolve.formats.files import check_target
     from revolve.jobs.vessel import build_vessel
     from revolve.render import output as render
 
@@ -55,16 +54,20 @@ def run_vessel(*, output: Optional[str], wall_output: Optional[str], force: bool
     if output and wall_output and output == wall_output:
         raise RevolveError("the liquid space and the wall need two different files",
                            option="--wall-output")
-    for path, option in ((output, "--output"), (wall_output, "--wall-output")):
-        if path:
-            check_target(path, option=option, replace=force)
+    if output or wall_output:         # the files module only when there are files to write
+        from revolve.formats.files import check_target
+
+        for path, option in ((output, "--output"), (wall_output, "--wall-output")):
+            if path:
+                check_target(path, option=option, replace=force)
     result = build_vessel(names=NAMES, **settings)
     files = {}
     if output:
         files[output] = (result.profile_text(), "--output")
     if wall_output:
         files[wall_output] = (result.wall_text(), "--wall-output")
-    render.write_outputs(files, force=force)    # both files together, or neither
+    if files:
+        render.write_outputs(files, force=force)    # both files together, or neither
     written = {"liquid_space": output, "wall": wall_output}
     notes = result.notes
     if output:
