@@ -577,6 +577,11 @@ class LevelResult(Result):
     def capacity(self) -> float:
         return self.table("space").json(self.units)["capacity"]
 
+    def __repr__(self) -> str:
+        return (f"<LevelResult {self.table('space').title}: {len(self.table('levels').rows)} rows, "
+                f"{self.extra['orientation']}, capacity={self.capacity:.6g} "
+                f"{self.units.unit('capacity')}>")
+
 
 def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None, step=None,
                 count: Optional[int] = None, at=None, volumes=None, percent=None,
@@ -632,6 +637,8 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     >>> r = level_table(drum, orientation="vertical", axis="y", step="500 mm")
     >>> [row["level"] for row in r.rows], round(r.capacity, 3), r.units.unit("capacity")
     ([0.0, 500.0, 1000.0, 1500.0, 2000.0], 1570.796, 'L')
+    >>> r
+    <LevelResult liquid space: 5 rows, vertical, capacity=1570.8 L>
     >>> [round(row["level"], 9) for row in level_table(drum, orientation="vertical", axis="y",
     ...                                                volumes="0 L").rows]    # empty: level 0
     [0.0]

@@ -766,6 +766,14 @@ class VesselResult(Result):
     def capacity(self) -> float:
         return self.table("vessel").json(self.units)["capacity"]
 
+    def __repr__(self) -> str:
+        figures = self.table("vessel").json(self.units)
+        text = (f"capacity={figures['capacity']:.6g} {self.units.unit('capacity')}, "
+                f"inside surface={figures['inside_area']:.6g} {self.units.unit('area')}")
+        if "metal_mass" in figures:
+            text += f", metal={figures['metal_mass']:.6g} {self.units.unit('mass')}"
+        return f"<VesselResult {self.name}: {text}>"
+
     def profile_text(self) -> str:
         """The liquid space as a profile file (for ``revolve measure`` and ``revolve levels``)."""
         from revolve.formats.writer import profile_text
@@ -867,6 +875,8 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
     >>> r = build_vessel("1 m", 0, head="hemispherical")
     >>> round(r.capacity, 6), r.units.unit("capacity")
     (523.598776, 'L')
+    >>> r                                                   # doctest: +ELLIPSIS
+    <VesselResult vessel, inside diameter 1000 mm, ...: capacity=523.599 L, inside surface=3.14159 m²>
     >>> build_vessel(1000, 500, head="flat", thickness=0)
     Traceback (most recent call last):
     ...
