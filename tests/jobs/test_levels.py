@@ -329,3 +329,53 @@ def test_choose_orientation_refuses_to_guess(asked, written):
     with pytest.raises(RevolveError) as err:
         choose_orientation(asked, written, option="--orientation")
     assert str(err.value).startswith("--orientation: ") and "\n" not in str(err.value)
+
+
+# -- the library's job: revolve.level_table (issue 11) ---------------------------------------
+
+def _drum():
+    # An upright drum, radius 10 in and 24 in high, drawn as the inside wall (a chain).
+    return Profile(chains=(Chain.from_points([(0, 0), (10, 0), (10, 24), (0, 24)]),), unit="in",
+                   name="drum")
+
+
+def test_level_table_takes_the_options_strings_and_bare_numbers_in_the_level_unit():
+    import revolve
+
+    # CRC (from memory): cylinder π r² h; 1 US gal = 231 in³ (US customary definition)
+    by_text = revolve.level_table(_drum(), orientation="vertical", axis="y",
+                                  at="3 1/2 in,254 mm,1 ft")
+    by_numbers = revolve.level_table(_drum(), orientation="vertical", axis="y", at=[3.5, 10, 12])
+    assert by_text.to_dict()["levels"] == by_numbers.to_dict()["levels"]
+    assert by_text.units.unit("capacity") == "US gal" and by_text.units.unit("area") == "ft²"
+    for row in by_text.rows:
+        assert row["volume"] == pytest.approx(math.pi * 100 * row["level"] / 231, rel=1e-13)
+
+
+def test_level_table_inverse_by_volume_with_units():
+    import revolve
+
+    r = revolve.level_table(_drum(), orientation="vertical", axis="y",
+                            volumes=["231 in^3", 2], volume_unit="US_gallon")
+    # 231 in³ = 1 US gal fills π · 10² · h = 231 in³
+    assert [row["level"] for row in r.rows] == pytest.approx([231 / (100 * math.pi),
+                                                              462 / (100 * math.pi)], rel=1e-12)
+    assert [row["volume_asked"] for row in r.rows] == pytest.approx([1.0, 2.0], rel=1e-14)
+
+
+@pytest.mark.parametrize("kwargs,expected", [
+    (dict(step="1/0 in"), "step: '1/0 in': a fraction cannot have 0 below the line"),
+    (dict(at="30 in"), "at: level 30 in is above the full level 24 in"),
+    (dict(volumes="2 m"), "volumes: 'm' is a length unit"),
+    (dict(percent=[120]), "percent: 120 % is outside 0 to 100 %"),
+    (dict(count=0), "count: the count must be 1 or more"),
+    (dict(step=1, at=2), "at: give one of step, count, at, volumes and percent, not step and at"),
+    (dict(orientation="sideways"), "orientation: give vertical or horizontal"),
+])
+def test_level_table_errors_name_the_setting(kwargs, expected):
+    import revolve
+
+    kwargs.setdefault("orientation", "vertical")
+    with pytest.raises(revolve.RevolveError) as err:
+        revolve.level_table(_drum(), axis="y", **kwargs)
+    assert str(err.value).startswith(expected) and "\n" not in str(err.value)

@@ -373,3 +373,40 @@ def test_vertical_sketch_is_the_mirror_of_the_frame_by_the_segment_contract():
                 assert b.centre == (a.centre[1], a.centre[0])
             if isinstance(a, Curve):
                 assert b.base_x is a.base_x and b.base_y is a.base_y
+
+
+# -- the library's job: revolve.build_vessel (issue 11) --------------------------------------
+
+def test_build_vessel_takes_lengths_with_units_and_densities_with_units():
+    import revolve
+
+    r = revolve.build_vessel("4 ft", "6 ft", head="hemispherical", units="in",
+                             thickness="1/4 in", density="0.284 lb/in^3", liquid_density="1000")
+    v = r.to_dict()["vessel"]
+    R, L, t = 24.0, 72.0, 0.25
+    # CRC (from memory): cylinder π R² L plus a sphere 4/3 π R³; hollow cylinder and spherical
+    # shell for the metal; 1 US gal = 231 in³, 1 lb = 0.45359237 kg, 1 in = 0.0254 m (exact)
+    assert r.units.unit("capacity") == "US gal" and r.units.unit("mass") == "lb"
+    assert v["capacity"] == pytest.approx((math.pi * R * R * L + 4 / 3 * math.pi * R ** 3) / 231,
+                                          rel=1e-13)
+    metal_in3 = math.pi * ((R + t) ** 2 - R ** 2) * L + 4 / 3 * math.pi * ((R + t) ** 3 - R ** 3)
+    assert v["metal_mass"] == pytest.approx(0.284 * metal_in3, rel=1e-9)
+    liquid_m3 = (math.pi * R * R * L + 4 / 3 * math.pi * R ** 3) * 0.0254 ** 3
+    assert v["liquid_mass"] == pytest.approx(1000 * liquid_m3 / 0.45359237, rel=1e-12)
+
+
+@pytest.mark.parametrize("kwargs,expected", [
+    (dict(diameter="big"), "diameter: 'big' is not a length"),
+    (dict(head=None), "head: give the heads"),
+    (dict(head="torispherical:crown=400"), "head: head 1: the crown radius 400"),
+    (dict(volume_unit="mm"), "volume_unit: 'mm' is a length unit"),
+    (dict(density="7850"), "density: the metal's mass needs a wall thickness"),
+])
+def test_build_vessel_errors_name_the_setting(kwargs, expected):
+    import revolve
+
+    settings = dict(diameter=1000, length=1500, head="flat")
+    settings.update(kwargs)
+    with pytest.raises(revolve.RevolveError) as err:
+        revolve.build_vessel(**settings)
+    assert str(err.value).startswith(expected) and "\n" not in str(err.value)
