@@ -620,6 +620,9 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     tolerance : float
         Relative difference allowed between the capacity and its washer
         cross-check (``result.extra["crosscheck"]["agrees"]``).
+    names : mapping, optional
+        The names errors give the settings (:data:`LIBRARY_NAMES`; the
+        command line passes its option names, ``--step``, ``--volume``…).
 
     Returns
     -------

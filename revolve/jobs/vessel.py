@@ -863,6 +863,12 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
         Output units; defaults by the vessel trade: lengths in ``units``,
         capacities and volumes in L (US gal for inch or foot work), areas
         in m² (ft²), masses in kg (lb).
+    tolerance : float
+        Relative difference allowed between the two computations
+        (``result.extra["crosscheck"]["agrees"]``).
+    names : mapping, optional
+        The names errors give the settings (:data:`LIBRARY_NAMES`; the
+        command line passes its option names).
 
     Returns
     -------
