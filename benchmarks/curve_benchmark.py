@@ -77,10 +77,10 @@ VESSEL_ENGINE = """\
 import time, numpy
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Revolution
-from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise
+from revolve.jobs.vessel import design_vessel, parse_head, sketch_profile, summarise
 t0 = time.perf_counter()
 spec = parse_head("ellipsoidal", 2000.0)
-design = build_vessel(2000.0, 5000.0, spec, spec)
+design = design_vessel(2000.0, 5000.0, spec, spec)
 summarise(design)
 profile, axis = sketch_profile(design, "vertical", "inside")
 measure(Revolution(profile, axis), symbolic=False)

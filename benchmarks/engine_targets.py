@@ -160,7 +160,7 @@ def main():
     curve = ROOT / "profiles" / "domed-lid.toml"
     (t_v, t_c, t_base), _ = side_by_side(
         [python("-m", "revolve", "vessel", "--diameter", "1200", "--length", "2400", "--head",
-                "ellipsoidal", "-o", str(work / "tank.toml")),
+                "ellipsoidal", "-o", str(work / "tank.toml"), "--force"),
          python("-m", "revolve", "measure", str(curve), "--json"),
          python("-c", "import numpy, typer")], rep, work)
     row("4. vessel with ellipsoidal heads vs import numpy, typer", t_v, t_base, "≤ 1.7×")

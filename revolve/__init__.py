@@ -20,7 +20,9 @@ Pictures
 Trade jobs
     :func:`estimate_coating` (``to_dict()`` is ``revolve coat --json``),
     :func:`quote_turning` (one part; ``to_dict()`` is ``revolve turn --json``),
-    :func:`quote_turning_many` (many files, one row per part)
+    :func:`quote_turning_many` (many files, one row per part),
+    :func:`build_vessel` (``revolve vessel --json``),
+    :func:`level_table` (forward and inverse; ``revolve levels --json``)
 Errors
     :class:`RevolveError` (a ``ValueError``; one sentence naming where)
 
@@ -68,6 +70,10 @@ _LAZY = {
     "quote_turning": "revolve.jobs.turning_quote",
     "quote_turning_many": "revolve.jobs.turning_quote",
     "TurningResult": "revolve.jobs.turning_quote",
+    "build_vessel": "revolve.jobs.vessel",
+    "VesselResult": "revolve.jobs.vessel",
+    "level_table": "revolve.jobs.levels",
+    "LevelResult": "revolve.jobs.levels",
 }
 
 __all__ = sorted(_LAZY) + ["RevolveError", "__version__"]

@@ -626,12 +626,12 @@ def test_measuring_a_curve_profile_imports_no_sympy():
 
 
 def test_building_and_measuring_an_ellipsoidal_vessel_imports_no_sympy():
-    code = ("from revolve.jobs.vessel import build_vessel, parse_head, summarise, "
+    code = ("from revolve.jobs.vessel import design_vessel, parse_head, summarise, "
             "sketch_profile\n"
             "from revolve.geometry.measure import measure\n"
             "from revolve.geometry.profile import Revolution\n"
             "spec = parse_head('ellipsoidal', 1200.0)\n"
-            "design = build_vessel(1200.0, 3000.0, spec, parse_head('torispherical', 1200.0),"
+            "design = design_vessel(1200.0, 3000.0, spec, parse_head('torispherical', 1200.0),"
             " thickness=8.0)\n"
             "summarise(design)\n"
             "profile, axis = sketch_profile(design, 'vertical', 'inside')\n"

@@ -54,7 +54,7 @@ Examples
 --------
 A 2:1 ellipsoidal head holds π D³/24 beyond its tangent line:
 
->>> v = build_vessel(1000.0, 2000.0, parse_head("ellipsoidal", 1000.0),
+>>> v = design_vessel(1000.0, 2000.0, parse_head("ellipsoidal", 1000.0),
 ...                  parse_head("hemispherical", 1000.0))
 >>> s = summarise(v)
 >>> round(s.heads[0].volume / (math.pi * 1000.0 ** 3 / 24), 12), s.heads[0].depth
@@ -69,10 +69,11 @@ import math
 import re
 from dataclasses import dataclass, field, replace
 from fractions import Fraction
-from typing import Dict, List, Optional, Tuple
+from typing import Any, Dict, List, Optional, Tuple
 
 from revolve.errors import ProfileError, RevolveError, indefinite
 from revolve.geometry.profile import Axis, Loop, Profile
+from revolve.jobs.results import OutputUnits, Result
 
 HEAD_KINDS = ("flat", "hemispherical", "ellipsoidal", "torispherical", "torispherical-10",
               "torispherical-80", "conical")
@@ -146,7 +147,7 @@ def parse_head(text: str, diameter: float, place: str = "head") -> HeadSpec:
     """Read a head written ``KIND`` or ``KIND:key=value,...`` (see the module notes).
 
     Percentages are of ``diameter`` (the stated one). Named proportions are
-    filled in; the geometry is checked later, by :func:`build_vessel`.
+    filled in; the geometry is checked later, by :func:`design_vessel`.
 
     >>> parse_head("torispherical", 1000.0)
     HeadSpec(kind='torispherical', crown=1000.0, knuckle=60.0, angle=None)
@@ -456,7 +457,7 @@ def _common_practice_notes(spec: HeadSpec, D: float, which: str) -> List[str]:
     return notes
 
 
-def build_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadSpec, *,
+def design_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadSpec, *,
                  thickness: Optional[float] = None, dimensions: str = "inside",
                  unit: str = "mm") -> VesselDesign:
     """Build the inside (and, with a thickness, the wall) of a vessel; exact geometry.
@@ -479,13 +480,13 @@ def build_vessel(diameter: float, length: float, head_1: HeadSpec, head_2: HeadS
 
     Examples
     --------
-    >>> v = build_vessel(1000.0, 1500.0, HeadSpec("flat"), HeadSpec("hemispherical"),
+    >>> v = design_vessel(1000.0, 1500.0, HeadSpec("flat"), HeadSpec("hemispherical"),
     ...                  thickness=10.0)
     >>> [s.kind for s in v.inside.segments]
     ['line', 'line', 'arc', 'line']
     >>> v.outside_diameter
     1020.0
-    >>> build_vessel(1000.0, 1000.0, HeadSpec("torispherical", crown=400.0, knuckle=60.0),
+    >>> design_vessel(1000.0, 1000.0, HeadSpec("torispherical", crown=400.0, knuckle=60.0),
     ...              HeadSpec("flat"))
     Traceback (most recent call last):
     ...
@@ -559,7 +560,7 @@ def sketch_profile(design: VesselDesign, orientation: str = "vertical", which: s
     Vertical vessels are drawn with the axis along the sketch y (up) and the
     radius along x; horizontal ones with the axis along x.
 
-    >>> v = build_vessel(1000.0, 1000.0, HeadSpec("flat"), HeadSpec("flat"))
+    >>> v = design_vessel(1000.0, 1000.0, HeadSpec("flat"), HeadSpec("flat"))
     >>> p, axis = sketch_profile(v, "vertical")
     >>> axis.direction, p.loops[0].segments[0].start, p.loops[0].segments[0].end
     ((0.0, 1.0), (0.0, 0.0), (500.0, 0.0))
@@ -577,7 +578,7 @@ def sketch_profile(design: VesselDesign, orientation: str = "vertical", which: s
 def describe(design: VesselDesign) -> str:
     """A one-line name for the vessel, e.g. for the profile file.
 
-    >>> describe(build_vessel(1200.0, 3000.0, HeadSpec("ellipsoidal"), HeadSpec("ellipsoidal")))
+    >>> describe(design_vessel(1200.0, 3000.0, HeadSpec("ellipsoidal"), HeadSpec("ellipsoidal")))
     'vessel, inside diameter 1200 mm, shell 3000 mm, heads ellipsoidal 2:1 / ellipsoidal 2:1'
     """
     u = design.unit
@@ -643,7 +644,7 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
     from the engine (Pappus–Guldinus, with its independent cross-check);
     head volumes from the section clipped at the tangent lines.
 
-    >>> v = build_vessel(1000.0, 0.0, HeadSpec("hemispherical"), HeadSpec("hemispherical"),
+    >>> v = design_vessel(1000.0, 0.0, HeadSpec("hemispherical"), HeadSpec("hemispherical"),
     ...                  thickness=10.0)
     >>> s = summarise(v, metal_density=7850.0, liquid_density=1000.0)
     >>> round(s.capacity / (4 / 3 * math.pi * 500.0 ** 3), 12)           # a sphere
@@ -661,7 +662,7 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
     axis = Axis.x()
     inside_profile = Profile(loops=(design.inside,), unit=design.unit)
     m_in = measure(Revolution(inside_profile, axis), symbolic=False)
-    prep = prepare(inside_profile, axis)
+    prep = m_in.prepared or prepare(inside_profile, axis)   # the measurement's, not again
     below = vertical_levels(prep, [0.0, design.length])
     v_head1 = float(below.volume[0])
     v_head2 = m_in.volume - float(below.volume[1])
@@ -702,3 +703,334 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
                          outside_length, m_in.surface_total, faces.get("shell", 0.0), outside_area,
                          metal_volume, metal_density, metal_mass, liquid_density, liquid_mass,
                          mass_full, com_liquid, com_empty, com_full, check, design.notes)
+
+
+# -- the job: a vessel from text settings, as a result --------------------------------------
+
+#: Largest relative difference allowed between the two computations.
+DEFAULT_TOLERANCE = 1e-9
+#: The library's names of the settings (the command line passes its option names instead).
+LIBRARY_NAMES = {"diameter": "diameter", "length": "length", "head": "head",
+                 "head_1": "head_1", "head_2": "head_2", "units": "units",
+                 "dimensions": "dimensions", "thickness": "thickness", "material": "material",
+                 "density": "density", "liquid": "liquid", "liquid_density": "liquid_density",
+                 "orientation": "orientation", "length_unit": "length_unit",
+                 "volume_unit": "volume_unit", "area_unit": "area_unit",
+                 "mass_unit": "mass_unit", "tolerance": "tolerance", "name": "name"}
+_HEAD_HELP = ("flat, hemispherical, ellipsoidal, torispherical, torispherical-10, "
+              "torispherical-80, conical:angle=A")
+
+
+def snapped(value: float) -> float:
+    """``value`` to 15 significant digits, the decimal precision of a float.
+
+    A unit conversion or a ratio leaves noise in the last bits
+    (5.999999999999999 for 6 in, 62.499999999999986 %); the 15-digit form
+    drops it and changes a value by less than 1e-15 of itself, so the JSON
+    and the CSV keep the figures' full precision without the noise.
+
+    >>> snapped(0.1524 / 0.0254), snapped(62.499999999999986), snapped(20943.951023931953)
+    (6.0, 62.5, 20943.951023932)
+    """
+    if not isinstance(value, float) or not math.isfinite(value):
+        return value
+    return float(f"{value:.15g}")
+
+
+@dataclass(frozen=True)
+class TradeUnits(OutputUnits):
+    """Output units whose shown values carry no last-bit noise (see :func:`snapped`)."""
+
+    def show(self, value: Any, role: Optional[str]) -> Any:
+        shown = OutputUnits.show(self, value, role)
+        return [snapped(v) for v in shown] if isinstance(shown, list) else snapped(shown)
+
+
+@dataclass(frozen=True, repr=False)
+class VesselResult(Result):
+    """A built vessel and its figures; ``to_dict()`` is ``revolve vessel --json``.
+
+    ``design`` is the :class:`VesselDesign` (exact geometry, vessel units),
+    ``summary`` the :class:`VesselSummary`; :meth:`profile_text` and
+    :meth:`wall_text` give the profile files ``revolve vessel`` writes.
+    ``capacity`` is in the capacity unit (``units.unit("capacity")``).
+    """
+
+    design: Optional[VesselDesign] = None
+    summary: Optional[VesselSummary] = None
+    orientation: str = "vertical"
+    name: str = ""
+    metal_key: Optional[str] = None
+
+    @property
+    def capacity(self) -> float:
+        return self.table("vessel").json(self.units)["capacity"]
+
+    def __repr__(self) -> str:
+        figures = self.table("vessel").json(self.units)
+        text = (f"capacity={figures['capacity']:.6g} {self.units.unit('capacity')}, "
+                f"inside surface={figures['inside_area']:.6g} {self.units.unit('area')}")
+        if "metal_mass" in figures:
+            text += f", metal={figures['metal_mass']:.6g} {self.units.unit('mass')}"
+        return f"<VesselResult {self.name}: {text}>"
+
+    def profile_text(self) -> str:
+        """The liquid space as a profile file (for ``revolve measure`` and ``revolve levels``)."""
+        from revolve.formats.writer import profile_text
+
+        profile, axis = sketch_profile(self.design, self.orientation, "inside", name=self.name)
+        return profile_text(profile, axis=axis, angle=360, section="space",
+                            orientation=self.orientation)
+
+    def wall_text(self) -> str:
+        """The wall (metal section) as a profile file, with its material or density."""
+        from revolve.formats.writer import profile_text
+
+        wall, axis = sketch_profile(self.design, self.orientation, "wall",
+                                    name=self.name + " (wall)")
+        density = self.summary.metal_density
+        return profile_text(wall, axis=axis, angle=360, orientation=self.orientation,
+                            material=self.metal_key or None,
+                            density=None if self.metal_key or density is None
+                            else f"{density!r} kg/m^3")
+
+
+def _vessel_length(value, unit: str, option: str) -> float:
+    """A length (``1200``, ``"1.2 m"``, ``"3' 4 1/8\\""``, a Length or pint quantity) in ``unit``."""
+    from revolve.inputs import Length, parse_length
+
+    try:
+        if isinstance(value, Length):
+            length = value
+        elif hasattr(value, "to") and hasattr(value, "magnitude"):
+            length = Length(float(value.to("m").magnitude), "m")
+        else:
+            length = parse_length(value)
+        return length.in_unit(unit, unit)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def _material(material, density, material_option: str, density_option: str):
+    """(kg/m³, label, material key) from a material name or a density (text, number, pint)."""
+    from revolve.jobs.measuring import density_value, material_or_density
+
+    if density is None or isinstance(density, str) or material is not None:
+        return material_or_density(material, density if density is None or isinstance(
+            density, str) else repr(density), material_option=material_option,
+            density_option=density_option)
+    d, label = density_value(density, density_option)
+    return d, label, None
+
+
+def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Optional[str] = None,
+                 head_2: Optional[str] = None, units: str = "mm", dimensions: str = "inside",
+                 thickness=None, material: Optional[str] = None, density=None,
+                 liquid: Optional[str] = None, liquid_density=None,
+                 orientation: str = "vertical", name: Optional[str] = None,
+                 length_unit: Optional[str] = None, volume_unit: Optional[str] = None,
+                 area_unit: Optional[str] = None, mass_unit: Optional[str] = None,
+                 tolerance: float = DEFAULT_TOLERANCE, names=None) -> VesselResult:
+    """Build a vessel from its diameter, shell length and heads; its capacity, surfaces and masses.
+
+    The same computation as ``revolve vessel``: ``result.to_dict()`` is the
+    object ``revolve vessel --json`` prints (``files`` empty).
+
+    Parameters
+    ----------
+    diameter, length : length text, number, Length or pint quantity
+        Shell diameter and straight shell (tangent line to tangent line; 0
+        for two heads only): ``"1.2 m"``, ``"48 in"``; a bare number is in ``units``.
+    head, head_1, head_2 : str
+        Both heads, or head 1 (start of the axis, the bottom) and head 2:
+        ``flat``, ``hemispherical``, ``ellipsoidal``, ``torispherical``,
+        ``torispherical-10``, ``torispherical-80``, ``conical:angle=A`` (see
+        the module notes for the settings).
+    units : str
+        The vessel's length unit (of bare numbers and of the profile files).
+    dimensions : "inside" or "outside"
+        The surface the diameter and head radii describe.
+    thickness : length, optional
+        Wall thickness (shell and heads); needed for the metal.
+    material, density : optional
+        The metal: a material of the table, or a density with its unit
+        (``"7850 kg/m^3"``; a bare number is kg/m³).
+    liquid, liquid_density : optional
+        The contents, likewise (``"water"``, ``"850 kg/m^3"``).
+    orientation : "vertical" or "horizontal"
+        How the profile files draw it (and how ``revolve levels`` reads them).
+    length_unit, volume_unit, area_unit, mass_unit : str, optional
+        Output units; defaults by the vessel trade: lengths in ``units``,
+        capacities and volumes in L (US gal for inch or foot work), areas
+        in m² (ft²), masses in kg (lb).
+    tolerance : float
+        Relative difference allowed between the two computations
+        (``result.extra["crosscheck"]["agrees"]``).
+    names : mapping, optional
+        The names errors give the settings (:data:`LIBRARY_NAMES`; the
+        command line passes its option names).
+
+    Returns
+    -------
+    VesselResult
+
+    Examples
+    --------
+    A sphere of 1 m made of two hemispherical heads holds π/6 m³:
+
+    >>> r = build_vessel("1 m", 0, head="hemispherical")
+    >>> round(r.capacity, 6), r.units.unit("capacity")
+    (523.598776, 'L')
+    >>> r                                                   # doctest: +ELLIPSIS
+    <VesselResult vessel, inside diameter 1000 mm, ...: capacity=523.599 L, inside surface=3.14159 m²>
+    >>> build_vessel(1000, 500, head="flat", thickness=0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: thickness: the wall thickness must be positive, got 0
+    """
+    from revolve import units as registry
+    from revolve.jobs.results import Field, Table, rows_of, trade_units
+
+    n = dict(LIBRARY_NAMES, **(names or {}))
+    try:
+        unit = registry.canonical(units, "length")
+    except RevolveError as e:
+        raise e.located(option=n["units"])
+    overrides = {"length": length_unit, "level": length_unit, "diameter": length_unit,
+                 "area": area_unit, "capacity": volume_unit, "volume": volume_unit,
+                 "mass": mass_unit}
+    opts = {"length": n["length_unit"], "level": n["length_unit"],
+            "diameter": n["length_unit"], "area": n["area_unit"], "capacity": n["volume_unit"],
+            "volume": n["volume_unit"], "mass": n["mass_unit"]}
+    shown = trade_units("vessel", unit, overrides, options=opts)
+    shown = TradeUnits(shown.units, shown.currency)
+    orientation = str(orientation or "vertical").strip().lower()
+    if orientation not in ("vertical", "horizontal"):
+        raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
+                           option=n["orientation"])
+    dimensions = str(dimensions or "inside").strip().lower()
+    if dimensions not in ("inside", "outside"):
+        raise RevolveError(f"give inside or outside, got {dimensions!r}", option=n["dimensions"])
+    try:
+        tolerance = float(tolerance)
+    except (TypeError, ValueError):
+        tolerance = float("nan")
+    if not tolerance > 0:
+        raise RevolveError("the tolerance must be a positive number", option=n["tolerance"])
+    D = _vessel_length(diameter, unit, n["diameter"])
+    L = _vessel_length(length, unit, n["length"])
+    if not D > 0:
+        raise RevolveError(f"the diameter must be positive, got {D:g}", option=n["diameter"])
+    if L < 0:
+        raise RevolveError(f"the shell length must not be negative, got {L:g}",
+                           option=n["length"])
+    t = None if thickness is None else _vessel_length(thickness, unit, n["thickness"])
+    if head and (head_1 or head_2):
+        raise RevolveError(f"give {n['head']} for both ends, or {n['head_1']} and {n['head_2']}, "
+                           "not both", option=n["head"])
+    text_1, text_2 = (head, head) if head else (head_1, head_2)
+    if not text_1 or not text_2:
+        missing = n["head_1"] if not text_1 else n["head_2"]
+        raise RevolveError(f"give the heads: {n['head']} KIND for both ends, or {n['head_1']} and "
+                           f"{n['head_2']} ({_HEAD_HELP})",
+                           option=missing if head_1 or head_2 else n["head"])
+    spec_1 = parse_head(text_1, D, place=n["head"] if head else n["head_1"])
+    spec_2 = parse_head(text_2, D, place=n["head"] if head else n["head_2"])
+    metal_d, metal_label, metal_key = _material(material, density, n["material"], n["density"])
+    liquid_d, liquid_label, _ = _material(liquid, liquid_density, n["liquid"],
+                                          n["liquid_density"])
+    if metal_d is not None and t is None:
+        raise RevolveError("the metal's mass needs a wall thickness; give " + n["thickness"],
+                           option=n["material"] if material else n["density"])
+    try:
+        design = design_vessel(D, L, spec_1, spec_2, thickness=t, dimensions=dimensions,
+                               unit=unit)
+    except RevolveError as e:
+        place = e.place or ""
+        if place in ("head 1", "head 2"):
+            option = n["head"] if head else n["head_1" if place == "head 1" else "head_2"]
+            raise type(e)(e.message, option=option, place=place) from None
+        if place in ("diameter", "length", "thickness", "dimensions"):
+            raise type(e)(e.message, option=n[place]) from None
+        raise
+    metre = registry.factor(unit, "length")
+    s = summarise(design, metal_density=metal_d, liquid_density=liquid_d, si_length=metre)
+    description = describe(design)
+    title = name.strip() if name and name.strip() else description
+
+    def si(value, power=1):
+        return None if value is None else value * metre ** power
+
+    figures = {
+        "inside_diameter": si(design.inside_diameter),
+        "outside_diameter": si(design.outside_diameter), "shell_length": si(design.length),
+        "thickness": si(design.thickness), "inside_length": si(s.inside_length),
+        "outside_length": si(s.outside_length),
+        "capacity": si(s.capacity, 3), "shell_volume": si(s.shell_volume, 3),
+        "inside_area": si(s.inside_area, 2), "shell_inside_area": si(s.shell_inside_area, 2),
+        "outside_area": si(s.outside_area, 2), "metal_volume": si(s.metal_volume, 3),
+        "metal_mass": s.metal_mass, "liquid_mass": s.liquid_mass, "mass_full": s.mass_full,
+        "centre_of_mass_liquid": si(s.centre_of_mass_liquid),
+        "centre_of_mass_empty": si(s.centre_of_mass_empty),
+        "centre_of_mass_full": si(s.centre_of_mass_full)}
+    figure_fields = (
+        Field("inside_diameter", "inside diameter", "length"),
+        Field("outside_diameter", "outside diameter", "length"),
+        Field("shell_length", "straight shell (tangent to tangent)", "length"),
+        Field("thickness", "wall thickness", "length"),
+        Field("inside_length", "inside length (pole to pole)", "length"),
+        Field("outside_length", "outside length", "length"),
+        Field("capacity", "capacity", "capacity"),
+        Field("shell_volume", "  of it in the shell", "capacity"),
+        Field("inside_area", "inside surface", "area"),
+        Field("shell_inside_area", "  of it on the shell", "area"),
+        Field("outside_area", "outside surface", "area"),
+        Field("metal_volume", "metal volume", "volume"),
+        Field("metal_mass", "metal mass (empty)", "mass"),
+        Field("liquid_mass", "liquid mass, full", "mass"),
+        Field("mass_full", "mass full", "mass"),
+        Field("centre_of_mass_liquid", "centre of mass of the liquid, full", "length"),
+        Field("centre_of_mass_empty", "centre of mass, empty", "length"),
+        Field("centre_of_mass_full", "centre of mass, full", "length"))
+    heads = []
+    for h in s.heads:
+        row = {"which": h.which, "kind": h.spec.kind, "description": h.spec.describe(unit),
+               "crown": si(h.spec.crown), "knuckle": si(h.spec.knuckle),
+               "angle_degrees": h.spec.angle, "depth": si(h.depth),
+               "depth_outside": si(h.depth_outside), "volume": si(h.volume, 3),
+               "inside_area": si(h.inside_area, 2)}
+        heads.append({k: v for k, v in row.items() if v is not None})
+    head_fields = (Field("which", "head", style="text"),
+                   Field("description", "kind", style="text"),
+                   Field("depth", "depth", "length"),
+                   Field("depth_outside", "depth outside", "length"),
+                   Field("volume", "volume", "capacity"),
+                   Field("inside_area", "inside area", "area"))
+    notes = ["heads: depth and volume beyond the tangent line (where the head meets the shell)",
+             "centres of mass: along the axis from the tangent line of head 1",
+             f"drawn {orientation}; head 1 is at the start of the axis"
+             + (" (the bottom)" if orientation == "vertical" else " (the left end)")]
+    if title != description:
+        notes.insert(0, description)
+    if metal_label:
+        notes.append(f"metal: {metal_label}")
+    if liquid_label:
+        notes.append(f"liquid: {liquid_label}")
+    notes += list(s.notes)
+    notes.append(f"cross-check: largest relative difference {s.crosscheck_difference:.1e}")
+    check = s.crosscheck_difference
+    inputs = {"unit": unit, "dimensions": dimensions,
+              "heads": [spec_1.describe(unit), spec_2.describe(unit)],
+              "orientation": orientation, "name": title}
+    extra = {"description": description, "metal": metal_label, "liquid": liquid_label,
+             "files": {"liquid_space": None, "wall": None},
+             "crosscheck": {"largest_difference": check, "tolerance": tolerance,
+                            "agrees": bool(check <= tolerance)}}
+    cautions = ("vessel",) + (("lifting",) if s.metal_mass is not None else ())
+    return VesselResult(
+        "vessel", shown, inputs,
+        (Table("vessel", title, figure_fields,
+               rows_of([{k: v for k, v in figures.items() if v is not None}]), figures=True),
+         Table("heads", "Heads", head_fields, rows_of(heads))),
+        tuple(notes), cautions, extra, design=design, summary=s, orientation=orientation,
+        name=title, metal_key=metal_key)

@@ -17,7 +17,7 @@ from pathlib import Path
 import pytest
 
 from revolve.cli.app import main
-from revolve.cli.common import CAUTIONS
+from revolve.jobs.measuring import CAUTIONS
 
 ROOT = Path(__file__).resolve().parents[2]
 EXAMPLES = sorted((ROOT / "profiles").glob("vessel-*.toml"))
@@ -69,18 +69,24 @@ def segment(r, h):
     return r * r * math.acos((r - h) / r) - (r - h) * math.sqrt(2 * r * h - h * h)
 
 
-def test_json_list_of_rows_in_profile_units(tmp_path, capsys):
+def test_json_is_one_object_with_the_rows_in_a_list(tmp_path, capsys):
     path = write(tmp_path, "drum.toml", DRUM_IN)
-    code, out, err = run(["levels", path, "--orientation", "vertical", "--step", "6", "--json"],
-                         capsys)
+    code, out, err = run(["levels", path, "--orientation", "vertical", "--step", "6",
+                          "--volume-unit", "in^3", "--json"], capsys)
     assert code == 0, err
-    rows = json.loads(out)
-    assert isinstance(rows, list) and [r["level"] for r in rows] == [0, 6, 12, 18, 24]
-    # CRC: cylinder π r² h, in the profile's unit (in³)
+    d = json.loads(out)
+    rows = d["levels"]
+    assert isinstance(rows, list)
+    assert [r["level"] for r in rows] == pytest.approx([0, 6, 12, 18, 24], rel=1e-15)
+    # CRC: cylinder π r² h (in³)
     for r in rows:
         assert r["volume"] == pytest.approx(math.pi * 100 * r["level"], rel=1e-14, abs=1e-12)
-        assert r["level_unit"] == "in" and r["volume_unit"] == "in³"
-        assert r["caution"] == CAUTIONS["vessel"]
+        assert not {"level_unit", "volume_unit", "capacity", "caution", "orientation"} & set(r)
+    assert d["units"] == {"level": "in", "capacity": "in³", "area": "ft²"}
+    assert d["cautions"] == [CAUTIONS["vessel"]]
+    assert d["space"]["capacity"] == pytest.approx(math.pi * 100 * 24, rel=1e-14)
+    assert (d["orientation"], d["orientation_from"]) == ("vertical", "asked")
+    assert d["crosscheck"]["agrees"] is True
     assert rows[-1]["percent"] == pytest.approx(100.0, rel=1e-12)
 
 
@@ -89,13 +95,14 @@ def test_units_us_gallons_and_feet(tmp_path, capsys):
     code, out, err = run(["levels", path, "--at", "1", "--level-unit", "ft", "--volume-unit",
                           "US_gallon", "--area-unit", "ft^2", "--json"], capsys)
     assert code == 0, err
-    (row,) = json.loads(out)
+    d = json.loads(out)
+    (row,) = d["levels"]
     # 1 US gal = 231 in³ (US customary definition); 1 ft = 12 in (1959 agreement)
     assert row["level"] == 1.0
     assert row["volume"] == pytest.approx(math.pi * 100 * 12 / 231, rel=1e-14)
     assert row["wetted_area"] == pytest.approx((math.pi * 100 + 2 * math.pi * 10 * 12) / 144,
                                                rel=1e-14)
-    assert (row["volume_unit"], row["area_unit"]) == ("US gal", "ft²")
+    assert (d["units"]["capacity"], d["units"]["area"]) == ("US gal", "ft²")
 
 
 def test_horizontal_table_and_csv(tmp_path, capsys):
@@ -104,14 +111,15 @@ def test_horizontal_table_and_csv(tmp_path, capsys):
     code, out, err = run(["levels", path, "--orientation", "horizontal", "--count", "4",
                           "--volume-unit", "L", "--csv", str(out_csv), "--json"], capsys)
     assert code == 0, err
-    rows = json.loads(out)
+    rows = json.loads(out)["levels"]
     for r in rows:
         # CRC: horizontal cylinder, L × circular segment (mm³ -> L: 1e-6)
         assert r["volume"] == pytest.approx(2000 * segment(500, r["level"]) * 1e-6, rel=1e-13,
                                             abs=1e-12)
     with open(out_csv, newline="", encoding="utf-8") as f:
         table = list(csv.reader(f))
-    assert table[0] == ["level (mm)", "volume (L)", "percent of capacity", "wetted area (mm^2)"]
+    assert table[0] == ["level (mm)", "volume (L)", "full (%)", "wetted area (m²)",
+                        "error estimate (L)"]
     assert [float(x) for x in table[3][:2]] == [rows[2]["level"], rows[2]["volume"]]
 
 
@@ -121,7 +129,7 @@ def test_screen_table_shows_the_caution_and_the_datum(tmp_path, capsys):
                           "--volume-unit", "L"], capsys)
     assert code == 0, err
     assert "custody transfer" in out and "lowest inside point" in out
-    assert "capacity 1570.796327 L" in out
+    assert "capacity" in out and "1570.8" in out and "L" in out
 
 
 def test_inverse_by_volume_and_percent(tmp_path, capsys):
@@ -130,13 +138,13 @@ def test_inverse_by_volume_and_percent(tmp_path, capsys):
     code, out, err = run(["levels", path, "--orientation", "horizontal", "--volume-unit", "L",
                           "--volume", f"{cap / 2!r},100", "--json"], capsys)
     assert code == 0, err
-    rows = json.loads(out)
+    rows = json.loads(out)["levels"]
     assert rows[0]["volume_asked"] == pytest.approx(cap / 2)
     assert rows[0]["level"] == pytest.approx(500.0, rel=1e-12)
     assert 2000 * segment(500, rows[1]["level"]) * 1e-6 == pytest.approx(100.0, rel=1e-11)
     code, out, err = run(["levels", path, "--orientation", "horizontal", "--percent", "50",
                           "--percent", "0,100", "--json"], capsys)
-    rows = json.loads(out)
+    rows = json.loads(out)["levels"]
     assert [r["percent_asked"] for r in rows] == [50.0, 0.0, 100.0]
     assert [r["level"] for r in rows] == pytest.approx([500.0, 0.0, 1000.0], rel=1e-12)
 
@@ -147,10 +155,11 @@ def test_every_vessel_example(path, orientation, capsys):
     code, out, err = run(["levels", str(path), "--orientation", orientation, "--count", "20",
                           "--json"], capsys)
     assert code == 0, err
-    rows = json.loads(out)
+    d = json.loads(out)
+    rows = d["levels"]
     volumes = [r["volume"] for r in rows]
     assert all(b > a for a, b in zip(volumes, volumes[1:]))
-    assert rows[-1]["volume"] == pytest.approx(rows[-1]["capacity"], rel=1e-12)
+    assert rows[-1]["volume"] == pytest.approx(d["space"]["capacity"], rel=1e-12)
 
 
 def test_console_script_entry_point(tmp_path):
@@ -158,29 +167,30 @@ def test_console_script_entry_point(tmp_path):
     res = subprocess.run([sys.executable, "-m", "revolve", "levels", path, "--step", "12",
                           "--json"], capture_output=True, text=True, cwd=ROOT, timeout=120)
     assert res.returncode == 0, res.stderr
-    rows = json.loads(res.stdout)
-    assert [r["level"] for r in rows] == [0, 12, 24]
+    rows = json.loads(res.stdout)["levels"]
+    assert [r["level"] for r in rows] == pytest.approx([0, 12, 24], rel=1e-15)
 
 
 # -- orientation: carried by the file, the option wins, never guessed -----------------------
 
 def _vessel_then_levels(tmp_path, capsys, orientation, head, levels_args):
-    """revolve vessel ... -o t.toml, then revolve levels t.toml (no --orientation): JSON rows."""
+    """revolve vessel ... -o t.toml, then revolve levels t.toml (no --orientation): the JSON."""
     tank = tmp_path / "t.toml"
     code, out, err = run(["vessel", "--diameter", "2000", "--length", "5000", "--head", head,
                           "--orientation", orientation, "-o", str(tank), "--json"], capsys)
     assert code == 0, err
     assert f'orientation = "{orientation}"' in tank.read_text(encoding="utf-8")
-    code, out, err = run(["levels", str(tank), *levels_args, "--json"], capsys)
+    code, out, err = run(["levels", str(tank), *levels_args, "--volume-unit", "mm^3", "--json"],
+                         capsys)
     assert code == 0, err
     return json.loads(out)
 
 
 def test_horizontal_vessel_round_trip_uses_the_files_orientation(tmp_path, capsys):
     # The input family: a vessel written lying down, read back with no --orientation.
-    rows = _vessel_then_levels(tmp_path, capsys, "horizontal", "flat", ["--count", "4"])
-    assert {r["orientation"] for r in rows} == {"horizontal"}
-    assert {r["orientation_from"] for r in rows} == {"file"}
+    d = _vessel_then_levels(tmp_path, capsys, "horizontal", "flat", ["--count", "4"])
+    rows = d["levels"]
+    assert (d["orientation"], d["orientation_from"]) == ("horizontal", "file")
     # Full level is the diameter (2000 mm), not the length (5000 mm).
     assert rows[-1]["level"] == pytest.approx(2000.0, rel=1e-15)
     assert [r["level"] for r in rows] == pytest.approx([0, 500, 1000, 1500, 2000], rel=1e-15)
@@ -191,19 +201,20 @@ def test_horizontal_vessel_round_trip_uses_the_files_orientation(tmp_path, capsy
 
 
 def test_horizontal_vessel_with_ellipsoidal_heads_round_trip(tmp_path, capsys):
-    rows = _vessel_then_levels(tmp_path, capsys, "horizontal", "ellipsoidal", ["--at", "700"])
-    (row,) = rows
+    d = _vessel_then_levels(tmp_path, capsys, "horizontal", "ellipsoidal", ["--at", "700"])
+    (row,) = d["levels"]
     R, h = 1000.0, 700.0
     # CRC (from memory): L · circular segment; both 2:1 heads together π h² (3R − h)/6
     # (a sphere cap of the same depth halved along the axis; see CHECKS.md)
     expected = 5000 * segment(R, h) + math.pi * h * h * (3 * R - h) / 6
-    assert row["orientation"] == "horizontal"
+    assert d["orientation"] == "horizontal"
     assert row["volume"] == pytest.approx(expected, rel=1e-9)
 
 
 def test_vertical_vessel_round_trip_uses_the_files_orientation(tmp_path, capsys):
-    rows = _vessel_then_levels(tmp_path, capsys, "vertical", "flat", ["--count", "2"])
-    assert {r["orientation"] for r in rows} == {"vertical"}
+    d = _vessel_then_levels(tmp_path, capsys, "vertical", "flat", ["--count", "2"])
+    rows = d["levels"]
+    assert d["orientation"] == "vertical"
     # CRC (from memory): cylinder π r² h; full level is the length
     assert rows[-1]["level"] == pytest.approx(5000.0, rel=1e-15)
     for r in rows:
@@ -215,12 +226,12 @@ def test_option_overrides_the_file_and_the_table_says_so(tmp_path, capsys):
     code, out, err = run(["levels", path, "--orientation", "vertical", "--count", "1", "--json"],
                          capsys)
     assert code == 0, err
-    rows = json.loads(out)
-    assert rows[-1]["orientation"] == "vertical" and rows[-1]["orientation_from"] == "--orientation"
-    assert rows[-1]["level"] == pytest.approx(2000.0)   # along the axis: the length
+    d = json.loads(out)
+    assert d["orientation"] == "vertical" and d["orientation_from"] == "asked"
+    assert d["levels"][-1]["level"] == pytest.approx(2000.0)   # along the axis: the length
     code, out, err = run(["levels", path, "--orientation", "vertical", "--count", "1"], capsys)
     assert code == 0, err
-    assert "vertical (from --orientation; the file says horizontal)" in out
+    assert "(as asked; the file says horizontal)" in out
 
 
 def test_every_vessel_example_says_its_orientation(capsys):
@@ -229,9 +240,9 @@ def test_every_vessel_example_says_its_orientation(capsys):
     for path in EXAMPLES:
         code, out, err = run(["levels", str(path), "--count", "1", "--json"], capsys)
         assert code == 0, err
-        rows = json.loads(out)
-        assert rows[0]["orientation_from"] == "file"
-        says[path.name] = rows[0]["orientation"]
+        d = json.loads(out)
+        assert d["orientation_from"] == "file"
+        says[path.name] = d["orientation"]
     assert says["vessel-diesel-day-tank.toml"] == "horizontal"
     assert says["vessel-rainwater-tank.toml"] == says["vessel-brew-kettle.toml"] == "vertical"
 
@@ -287,13 +298,18 @@ segments = [ { line_to = [10, 0] }, { line_to = [10, 5] }, { line_to = [0, 5] },
 
 @pytest.mark.parametrize("text,args,expected", [
     (DRUM_IN, ["--at", "30"], "--at: level 30 in is above the full level 24 in"),
-    (DRUM_IN, ["--at", "x"], "--at: 'x' is not a number"),
+    (DRUM_IN, ["--at", "x"], "--at: 'x' is not a length"),
+    (DRUM_IN, ["--at", "5 kg"], "--at: 'kg' is a mass unit"),
+    (DRUM_IN, ["--at", "1,,2"], "--at: item 2 is empty"),
+    (DRUM_IN, ["--step", "1/0 in"], "--step: '1/0 in': a fraction cannot have 0"),
+    (DRUM_IN, ["--volume", "3 m"], "--volume: 'm' is a length unit"),
+    (DRUM_IN, ["--area-unit", "mm"], "--area-unit: 'mm' is a length unit"),
     (DRUM_IN, ["--step", "0"], "--step: the step must be a positive number"),
     (DRUM_IN, ["--step", "1e-9"], "--step: a step of 1e-09 in gives"),
     (DRUM_IN, ["--count", "0"], "--count: the count must be 1 or more"),
     (DRUM_IN, ["--step", "2", "--count", "3"], "give one of --step, --count"),
-    (DRUM_IN, ["--volume", "1e9"], "--volume: volume 1e+09 in³ is more than the capacity"),
-    (DRUM_IN, ["--percent", "101"], "--percent: 101 % is outside 0 to 100 %"),
+    (DRUM_IN, ["--volume", "1e9"], "--volume: volume 1e+09 US gal is more than the capacity"),
+    (DRUM_IN, ["--percent", "101"], "--percent: '101' is not a percentage from 0 to 100"),
     (DRUM_IN, ["--volume-unit", "kg"], "--volume-unit: 'kg' is a mass unit"),
     (DRUM_IN, ["--level-unit", "L"], "--level-unit: 'L' is a volume unit"),
     (DRUM_IN, ["--orientation", "sideways"], "--orientation: give vertical or horizontal"),
@@ -330,3 +346,115 @@ def test_an_unwritable_csv_is_refused_naming_the_option(tmp_path, capsys):
     assert err.count("\n") == 1 and err.startswith("revolve: error: --csv: ")
     assert str(target) in err
     assert not target.exists()
+
+
+# -- levels with units and fractions (issue 12) ------------------------------------------------
+
+def test_step_and_levels_with_units_and_fractions(tmp_path, capsys):
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    code, out, err = run(["levels", path, "--step", "1/8 in", "--level-unit", "in", "--json"],
+                         capsys)
+    assert code == 0, err
+    rows = json.loads(out)["levels"]
+    # 24 in / (1/8 in) = 192 intervals, 193 rows; CRC: cylinder π r² h; 1 US gal = 231 in³
+    assert len(rows) == 193 and rows[1]["level"] == 0.125
+    assert rows[1]["volume"] == pytest.approx(math.pi * 100 * 0.125 / 231, rel=1e-13)
+    code, out, err = run(["levels", path, "--at", "254 mm,1 ft", "--at", "3 1/2 in",
+                          "--json"], capsys)
+    assert code == 0, err
+    rows = json.loads(out)["levels"]
+    # 1 in = 25.4 mm exactly (1959 agreement)
+    assert [r["level"] for r in rows] == pytest.approx([10.0, 12.0, 3.5], rel=1e-15)
+    code, out, err = run(["levels", path, "--volume", "1 US_gallon,2", "--json"], capsys)
+    rows = json.loads(out)["levels"]
+    assert [r["level"] for r in rows] == pytest.approx([231 / (math.pi * 100),
+                                                       462 / (math.pi * 100)], rel=1e-12)
+
+
+def test_the_table_reads_cleanly(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    code, out, err = run(["levels", path, "--orientation", "horizontal", "--count", "2"], capsys)
+    assert code == 0, err
+    assert "100 %" in out and "100.0000" not in out and "m^" not in out
+    assert "mm³" not in out and "1570.8" in out
+
+
+# -- the one overwrite rule: --csv refuses an existing file unless --force --------------------
+
+def test_existing_csv_is_refused_without_force_and_replaced_with_it(tmp_path, capsys):
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    target = tmp_path / "t.csv"
+    target.write_text("previous\n", encoding="utf-8")
+    args = ["levels", path, "--orientation", "horizontal", "--count", "3", "--csv", str(target)]
+    code, out, err = run(args, capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --csv: ") and "--force" in err
+    assert target.read_text(encoding="utf-8") == "previous\n"
+    code, out, err = run(args + ["--force"], capsys)
+    assert code == 0, err
+    assert target.read_text(encoding="utf-8").startswith("level (mm),volume (L)")
+
+
+# -- the library: revolve.level_table(...).to_dict() is the command's --json -------------------
+
+@pytest.mark.parametrize("args,kwargs", [
+    (["--count", "7"], dict(count=7)),
+    (["--step", "1/8 in", "--level-unit", "in", "--area-unit", "ft^2"],
+     dict(step="1/8 in", level_unit="in", area_unit="ft^2")),
+    (["--at", "100 mm,0.3 m"], dict(at="100 mm,0.3 m")),
+    (["--volume", "10 L,100", "--volume-unit", "US_gallon"],
+     dict(volumes=["10 L", 100], volume_unit="US_gallon")),
+    (["--percent", "5,50,95", "--orientation", "horizontal"],
+     dict(percent=[5, 50, 95], orientation="horizontal")),
+])
+@pytest.mark.parametrize("path", EXAMPLES, ids=[p.name for p in EXAMPLES])
+def test_library_to_dict_equals_the_json_for_every_vessel_example(path, args, kwargs, capsys):
+    import revolve
+
+    code, out, err = run(["levels", str(path), *args, "--json"], capsys)
+    assert code == 0, err
+    library = revolve.level_table(str(path), **kwargs).to_dict()
+    assert json.loads(json.dumps(library)) == json.loads(out)
+
+
+# -- generated options (hypothesis): a table that checks out, or one line naming the option ----
+
+from hypothesis import example, given, settings  # noqa: E402
+from hypothesis import strategies as st  # noqa: E402
+
+_AMOUNTS = st.one_of(st.integers(0, 40).map(str), st.sampled_from(["1/8", "3 1/2", "0.5", "1/0",
+                                                                   "-2", "2.5e1", "", "x"]))
+_UNITS = st.sampled_from(["", " in", " mm", " ft", " cm", " kg", " L", "in", " furlong"])
+
+
+@settings(max_examples=40, deadline=None)
+@given(option=st.sampled_from(["--step", "--at"]),
+       items=st.lists(st.tuples(_AMOUNTS, _UNITS), min_size=1, max_size=3))
+@example(option="--step", items=[("1/8", " in")])
+@example(option="--at", items=[("3 1/2", " in"), ("254", " mm")])
+@example(option="--at", items=[("1/0", " in")])
+def test_generated_levels_options(tmp_path_factory, option, items):
+    import contextlib
+    import io
+
+    tmp = tmp_path_factory.mktemp("gen")
+    path = write(tmp, "drum.toml", DRUM_IN)
+    out_csv = tmp / "t.csv"
+    value = ",".join(a + u for a, u in items)
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        with pytest.raises(SystemExit) as stop:
+            main(["levels", path, option, value, "--level-unit", "in", "--volume-unit", "in^3",
+                  "--csv", str(out_csv), "--json"])
+    if stop.value.code == 2:
+        (line,) = err.getvalue().strip().splitlines()
+        assert line.startswith(f"revolve: error: {option}: ") and "Traceback" not in line
+        assert out.getvalue() == "" and not out_csv.exists()
+        return
+    assert stop.value.code in (0, None), err.getvalue()
+    d = json.loads(out.getvalue())
+    for r in d["levels"]:
+        # CRC: cylinder π r² h (r = 10 in), levels and volumes in in and in³
+        assert 0 <= r["level"] <= 24 * (1 + 1e-15)
+        assert r["volume"] == pytest.approx(math.pi * 100 * r["level"], rel=1e-13, abs=1e-9)
+    assert out_csv.exists()

@@ -145,12 +145,12 @@ def test_copies_share_one_compilation():
 def test_vessel_with_two_ellipsoidal_heads_compiles_its_ellipse_once():
     from revolve.geometry.measure import measure
     from revolve.geometry.profile import Revolution
-    from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile, summarise
+    from revolve.jobs.vessel import design_vessel, parse_head, sketch_profile, summarise
 
     D, L = 1234.0, 2345.0   # sizes no other test uses; the count starts from an empty cache
     compiled_curve.cache_clear()
     spec = parse_head("ellipsoidal", D)
-    design = build_vessel(D, L, spec, spec)
+    design = design_vessel(D, L, spec, spec)
     summary = summarise(design)
     profile, axis = sketch_profile(design, "vertical", "inside")
     drawn = measure(Revolution(profile, axis), symbolic=False)
@@ -165,11 +165,11 @@ def test_vessel_with_two_ellipsoidal_heads_compiles_its_ellipse_once():
 def test_head_two_keeps_its_exact_expressions():
     # Head 2 is head 1's base ellipse reparametrised by τ = π/2 − t: its mapped expressions
     # must be the exact ellipse z = L + a_u sin t, r = a_r cos t (no rounded π/2 in them).
-    from revolve.jobs.vessel import build_vessel, parse_head
+    from revolve.jobs.vessel import design_vessel, parse_head
 
     D, L = 1000.0, 2000.0
     spec = parse_head("ellipsoidal", D)
-    design = build_vessel(D, L, spec, spec)
+    design = design_vessel(D, L, spec, spec)
     heads = [s for s in design.inside.segments if isinstance(s, Curve)]
     assert len(heads) == 2
     head2 = next(s for s in heads if s.face == "head 2")

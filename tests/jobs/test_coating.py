@@ -540,9 +540,9 @@ def test_chosen_is_frozen():
 
 
 def _vessel_surfaces(kind, D, L, t, which, space=False):
-    from revolve.jobs.vessel import build_vessel, parse_head, sketch_profile
+    from revolve.jobs.vessel import design_vessel, parse_head, sketch_profile
 
-    design = build_vessel(D, L, parse_head(kind, D), parse_head(kind, D), thickness=t)
+    design = design_vessel(D, L, parse_head(kind, D), parse_head(kind, D), thickness=t)
     profile, axis = sketch_profile(design, "vertical", which)
     return surfaces(run(profile, axis=axis), space=space)
 

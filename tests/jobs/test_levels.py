@@ -25,7 +25,7 @@ from revolve.formats import load_profile
 from revolve.geometry.profile import Axis, Chain, Loop, Profile
 from revolve.geometry.segments import Arc, Curve, Line, arc_from_centre, curve_from_expressions
 from revolve.jobs.levels import (MAX_ROWS, check_levels, level_for_percent, level_for_volume,
-                                 level_table, levels_by_count, levels_by_step, liquid_space)
+                                 table_at_levels, levels_by_count, levels_by_step, liquid_space)
 
 ROOT = Path(__file__).resolve().parents[2]
 T = sympy.Symbol("t", real=True)
@@ -87,12 +87,12 @@ def test_vertical_hemispherical_bottom_is_a_spherical_cap():
     R = 1.0
     space = liquid_space(hemispherical_bottom_tank(R), Axis.y())
     h = np.array([0.0, 0.1, 0.5, 1.0])
-    t = level_table(space, h)
+    t = table_at_levels(space, h)
     # CRC (from memory): spherical cap V = π h² (3r − h)/3, curved area 2 π r h
     assert np.allclose(t.volume, math.pi * h * h * (3 * R - h) / 3, rtol=1e-13, atol=1e-15)
     assert np.allclose(t.wetted_area, 2 * math.pi * R * h, rtol=1e-13, atol=1e-15)
     # above the bottom, the shell adds π R² per unit of level (CRC: cylinder)
-    t2 = level_table(space, [1.5])
+    t2 = table_at_levels(space, [1.5])
     assert t2.volume[0] == pytest.approx(2 * math.pi / 3 + math.pi * 0.5, rel=1e-13)
 
 
@@ -103,17 +103,17 @@ def test_vertical_ellipsoidal_bottom():
     R, a = 0.6, 0.3
     space = liquid_space(ellipsoidal_bottom_tank(R, a), Axis.y())
     for h in (0.05, 0.15, 0.3):
-        v = level_table(space, [h]).volume[0]
+        v = table_at_levels(space, [h]).volume[0]
         assert v == pytest.approx(math.pi * R * R * h * h * (3 * a - h) / (3 * a * a), rel=1e-12)
     # the 2:1 head (a = R/2) below its tangent line: π D³/24 (CRC spheroid; 2:1 common practice)
-    assert level_table(space, [a]).volume[0] == pytest.approx(math.pi * (2 * R) ** 3 / 24,
+    assert table_at_levels(space, [a]).volume[0] == pytest.approx(math.pi * (2 * R) ** 3 / 24,
                                                               rel=1e-12)
 
 
 def test_vertical_flat_bottom_cone_roof_steps():
     # Cylinder r = 1 from z = 0 to 1, then a cone to a point at z = 2 (CRC: cylinder, frustum).
     space = liquid_space(upright([(0, 0), (1, 0), (1, 1), (0, 2)]), Axis.y())
-    t = level_table(space, [0.5, 1.0, 1.5, 2.0])
+    t = table_at_levels(space, [0.5, 1.0, 1.5, 2.0])
     r = 0.5
     want = [math.pi * 0.5, math.pi, math.pi + math.pi * 0.5 * (1 + r + r * r) / 3,
             math.pi + math.pi / 3]
@@ -125,7 +125,7 @@ def test_horizontal_cylinder_rows_and_percent():
     R, L = 1.0, 3.0
     space = liquid_space(Profile(loops=(Loop.from_points([(0, 0), (L, 0), (L, R), (0, R)]),)),
                          Axis.x(), orientation="horizontal")
-    t = level_table(space, levels_by_count(space, 4))
+    t = table_at_levels(space, levels_by_count(space, 4))
     # CRC (from memory): horizontal cylinder V = L (r² acos((r−h)/r) − (r−h) √(2rh − h²))
     want = [L * (R * R * math.acos((R - h) / R) - (R - h) * math.sqrt(2 * R * h - h * h))
             for h in t.level]
@@ -150,7 +150,7 @@ def test_flat_bottom_is_wetted_at_its_own_level_upright(h):
     # Upright cylinder R = 1: CRC (from memory) V = π R² h, wetted π R² + 2 π R h.
     R = 1.0
     space = liquid_space(upright([(0, 0), (R, 0), (R, 2), (0, 2)]), Axis.y(), orientation="vertical")
-    t = level_table(space, [h])
+    t = table_at_levels(space, [h])
     assert t.volume[0] == pytest.approx(math.pi * R * R * h, rel=1e-14, abs=0.0)
     assert t.wetted_area[0] == pytest.approx(math.pi * R * R + 2 * math.pi * R * h, rel=1e-14,
                                              abs=0.0)
@@ -168,7 +168,7 @@ def test_horizontal_bottom_line_has_no_area_at_level_0(h):
     R, L = 1.0, 2.0
     space = liquid_space(upright([(0, 0), (0, R), (L, R), (L, 0)]), Axis.x(),
                          orientation="horizontal")
-    t = level_table(space, [h])
+    t = table_at_levels(space, [h])
     hh = mpmath.mpf(h)
     segment = circular_segment(R, hh)
     wetted = 2 * R * mpmath.acos((R - hh) / R) * L + 2 * segment
@@ -183,7 +183,7 @@ def test_round_bottom_starts_from_nothing():
     # A hemispherical bottom touches the level-0 plane at one point: wetted area 0 there, and
     # the cap's 2 π R h just above (CRC, from memory), in the profile's own frame.
     space = liquid_space(hemispherical_bottom_tank(1.0), Axis.y(), orientation="vertical")
-    t = level_table(space, [0.0, 1e-9])
+    t = table_at_levels(space, [0.0, 1e-9])
     h = (space.bottom + 1e-9) - space.bottom      # the height the float level really has
     assert t.wetted_area[0] == 0.0
     assert t.wetted_area[1] == pytest.approx(2 * math.pi * h, rel=1e-12, abs=0.0)
@@ -258,7 +258,7 @@ def test_trimesh_reference_converges(orientation, name):
     doc = load_profile(str(ROOT / "profiles" / name))
     space = liquid_space(doc.profile, doc.axis, orientation=orientation)
     levels = np.array([0.17, 0.5, 0.83]) * space.height
-    ours = level_table(space, levels)
+    ours = table_at_levels(space, levels)
     errors = []
     for n in (12, 24, 48):
         meshes = _meshes(space, n)
@@ -276,7 +276,7 @@ def test_inverse_of_the_examples_agrees_with_the_forward_table():
         doc = load_profile(str(path))
         for orientation in ("vertical", "horizontal"):
             space = liquid_space(doc.profile, doc.axis, orientation=orientation)
-            forward = level_table(space, levels_by_step(space, space.height / 7))
+            forward = table_at_levels(space, levels_by_step(space, space.height / 7))
             back = level_for_volume(space, forward.volume)
             assert np.max(np.abs(back.volume - forward.volume)) <= 1e-12 * space.capacity
             interior = (forward.level > 0) & (forward.level < space.height)
@@ -297,7 +297,7 @@ def test_properties_monotonic_and_round_trip(R, H, orientation, fractions):
     segs.append(Line((R, top), (0.0, top + R / 2)))
     space = liquid_space(Profile(chains=(Chain(tuple(segs)),)), Axis.y(), orientation=orientation)
     levels = np.sort(np.array(fractions)) * space.height
-    t = level_table(space, levels)
+    t = table_at_levels(space, levels)
     assert np.all(np.diff(t.volume) >= -1e-9 * space.capacity)
     inverse = level_for_volume(space, t.volume)
     assert np.max(np.abs(inverse.volume - t.volume)) <= 1e-11 * space.capacity
@@ -329,3 +329,53 @@ def test_choose_orientation_refuses_to_guess(asked, written):
     with pytest.raises(RevolveError) as err:
         choose_orientation(asked, written, option="--orientation")
     assert str(err.value).startswith("--orientation: ") and "\n" not in str(err.value)
+
+
+# -- the library's job: revolve.level_table (issue 11) ---------------------------------------
+
+def _drum():
+    # An upright drum, radius 10 in and 24 in high, drawn as the inside wall (a chain).
+    return Profile(chains=(Chain.from_points([(0, 0), (10, 0), (10, 24), (0, 24)]),), unit="in",
+                   name="drum")
+
+
+def test_level_table_takes_the_options_strings_and_bare_numbers_in_the_level_unit():
+    import revolve
+
+    # CRC (from memory): cylinder π r² h; 1 US gal = 231 in³ (US customary definition)
+    by_text = revolve.level_table(_drum(), orientation="vertical", axis="y",
+                                  at="3 1/2 in,254 mm,1 ft")
+    by_numbers = revolve.level_table(_drum(), orientation="vertical", axis="y", at=[3.5, 10, 12])
+    assert by_text.to_dict()["levels"] == by_numbers.to_dict()["levels"]
+    assert by_text.units.unit("capacity") == "US gal" and by_text.units.unit("area") == "ft²"
+    for row in by_text.rows:
+        assert row["volume"] == pytest.approx(math.pi * 100 * row["level"] / 231, rel=1e-13)
+
+
+def test_level_table_inverse_by_volume_with_units():
+    import revolve
+
+    r = revolve.level_table(_drum(), orientation="vertical", axis="y",
+                            volumes=["231 in^3", 2], volume_unit="US_gallon")
+    # 231 in³ = 1 US gal fills π · 10² · h = 231 in³
+    assert [row["level"] for row in r.rows] == pytest.approx([231 / (100 * math.pi),
+                                                              462 / (100 * math.pi)], rel=1e-12)
+    assert [row["volume_asked"] for row in r.rows] == pytest.approx([1.0, 2.0], rel=1e-14)
+
+
+@pytest.mark.parametrize("kwargs,expected", [
+    (dict(step="1/0 in"), "step: '1/0 in': a fraction cannot have 0 below the line"),
+    (dict(at="30 in"), "at: level 30 in is above the full level 24 in"),
+    (dict(volumes="2 m"), "volumes: 'm' is a length unit"),
+    (dict(percent=[120]), "percent: 120 % is outside 0 to 100 %"),
+    (dict(count=0), "count: the count must be 1 or more"),
+    (dict(step=1, at=2), "at: give one of step, count, at, volumes and percent, not step and at"),
+    (dict(orientation="sideways"), "orientation: give vertical or horizontal"),
+])
+def test_level_table_errors_name_the_setting(kwargs, expected):
+    import revolve
+
+    kwargs.setdefault("orientation", "vertical")
+    with pytest.raises(revolve.RevolveError) as err:
+        revolve.level_table(_drum(), axis="y", **kwargs)
+    assert str(err.value).startswith(expected) and "\n" not in str(err.value)

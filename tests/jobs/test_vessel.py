@@ -21,8 +21,8 @@ from revolve.errors import ProfileError, RevolveError
 from revolve.formats import load_profile
 from revolve.formats.writer import profile_text
 from revolve.geometry.segments import Arc, Curve
-from revolve.jobs.levels import level_table, liquid_space
-from revolve.jobs.vessel import (HeadSpec, build_vessel, describe, parse_head, sketch_profile,
+from revolve.jobs.levels import table_at_levels, liquid_space
+from revolve.jobs.vessel import (HeadSpec, design_vessel, describe, parse_head, sketch_profile,
                                  summarise)
 
 ROOT = Path(__file__).resolve().parents[2]
@@ -31,7 +31,7 @@ D = 1000.0
 
 def vessel(head, length=2000.0, **kw):
     spec = parse_head(head, kw.get("diameter", D))
-    return build_vessel(kw.pop("diameter", D), length, spec, spec, **kw)
+    return design_vessel(kw.pop("diameter", D), length, spec, spec, **kw)
 
 
 # -- head volumes and depths -----------------------------------------------------------
@@ -92,7 +92,7 @@ def _torispherical_reference(Dv, crown, knuckle):
 def test_torispherical_heads_against_sympy(head, crown, knuckle):
     spec = parse_head(head, D)
     assert (spec.crown, spec.knuckle) == pytest.approx((crown * D, knuckle * D))
-    s = summarise(build_vessel(D, 1000.0, spec, spec))
+    s = summarise(design_vessel(D, 1000.0, spec, spec))
     depth, volume = _torispherical_reference(D, crown * D, knuckle * D)
     assert s.heads[0].depth == pytest.approx(depth, rel=1e-13)
     assert s.heads[0].volume == pytest.approx(volume, rel=1e-12)   # sympy (exact integral)
@@ -203,13 +203,13 @@ def test_flat_ended_drum_centre_of_mass_by_hand():
     # (inside dimensions): centre of mass by parts (common sense: symmetric) and, for a
     # drum with a flat bottom but a hemispherical top, moved towards the top.
     R, L, t = 500.0, 1200.0, 8.0
-    s = summarise(build_vessel(2 * R, L, HeadSpec("flat"), HeadSpec("flat"), thickness=t))
+    s = summarise(design_vessel(2 * R, L, HeadSpec("flat"), HeadSpec("flat"), thickness=t))
     plate = math.pi * (R + t) ** 2 * t
     shell = math.pi * ((R + t) ** 2 - R ** 2) * L
     assert s.metal_volume == pytest.approx(2 * plate + shell, rel=1e-13)   # CRC: cylinders
     assert s.centre_of_mass_empty == pytest.approx(L / 2, rel=1e-13)
     assert s.outside_length == pytest.approx(L + 2 * t)
-    s2 = summarise(build_vessel(2 * R, L, HeadSpec("flat"), HeadSpec("hemispherical"),
+    s2 = summarise(design_vessel(2 * R, L, HeadSpec("flat"), HeadSpec("hemispherical"),
                                 thickness=t), metal_density=7850.0, liquid_density=1000.0)
     # the liquid: a cylinder (centre L/2) and a half ball (centre 3R/8 above its base; Beer &
     # Johnston, table of centroids, from memory)
@@ -231,8 +231,8 @@ def test_outside_dimensions_are_the_inside_ones_offset(head):
                       crown=None if outside.crown is None else outside.crown - t,
                       knuckle=None if outside.knuckle is None else max(outside.knuckle - t, 0.0),
                       angle=outside.angle)
-    a = summarise(build_vessel(D, 1500.0, outside, outside, thickness=t, dimensions="outside"))
-    b = summarise(build_vessel(D - 2 * t, 1500.0, inside, inside))
+    a = summarise(design_vessel(D, 1500.0, outside, outside, thickness=t, dimensions="outside"))
+    b = summarise(design_vessel(D - 2 * t, 1500.0, inside, inside))
     assert a.capacity == pytest.approx(b.capacity, rel=1e-12)
     assert a.inside_area == pytest.approx(b.inside_area, rel=1e-12)
 
@@ -273,7 +273,7 @@ def test_written_profile_measures_the_same(orientation, tmp_path):
     from revolve.geometry.measure import measure
     from revolve.geometry.profile import Revolution
 
-    v = build_vessel(D, 2000.0, parse_head("ellipsoidal", D), parse_head("torispherical-10", D),
+    v = design_vessel(D, 2000.0, parse_head("ellipsoidal", D), parse_head("torispherical-10", D),
                      thickness=6.0)
     s = summarise(v)
     for which, want in (("inside", s.capacity), ("wall", s.metal_volume)):
@@ -286,7 +286,7 @@ def test_written_profile_measures_the_same(orientation, tmp_path):
     if orientation == "vertical":   # the bottom head is at the bottom: level 0 there
         inside = load_profile(str(tmp_path / "inside.toml"))
         space = liquid_space(inside.profile, inside.axis)
-        head1 = level_table(space, [s.heads[0].depth]).volume[0]
+        head1 = table_at_levels(space, [s.heads[0].depth]).volume[0]
         assert head1 == pytest.approx(math.pi * D ** 3 / 24, rel=1e-12)
 
 
@@ -302,7 +302,7 @@ def test_examples_are_what_the_builder_writes(name):
     h1, h2, Dv, L, orientation = EXAMPLES[name]
     path = ROOT / "profiles" / name
     doc = load_profile(str(path))
-    v = build_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv))
+    v = design_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv))
     prof, axis = sketch_profile(v, orientation, name=doc.name)
     assert profile_text(prof, axis=axis, angle=360, section="space",
                         orientation=orientation) == path.read_text(encoding="utf-8")
@@ -334,7 +334,7 @@ def test_any_vessel_adds_up(Dv, length_ratio, h1, h2, t_ratio, dimensions):
     # knuckle) reaches into the shell, which must then be long enough for it
     assume(not (h1 == h2 == "flat" and L <= 2 * (t or 0) + 1e-6 * Dv))
     try:
-        v = build_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv), thickness=t,
+        v = design_vessel(Dv, L, parse_head(h1, Dv), parse_head(h2, Dv), thickness=t,
                          dimensions=dimensions)
     except ProfileError as e:
         assert "overlap" in str(e) and dimensions == "outside" and L < 2 * t
@@ -359,7 +359,7 @@ def test_vertical_sketch_is_the_mirror_of_the_frame_by_the_segment_contract():
     # turn (common practice, no source); curves keep their base expressions (no new compile).
     import numpy as np
 
-    v = build_vessel(D, 1500.0, parse_head("ellipsoidal", D), parse_head("torispherical", D),
+    v = design_vessel(D, 1500.0, parse_head("ellipsoidal", D), parse_head("torispherical", D),
                      thickness=8.0)
     for which in ("inside", "wall"):
         frame = (v.inside if which == "inside" else v.wall).segments
@@ -373,3 +373,40 @@ def test_vertical_sketch_is_the_mirror_of_the_frame_by_the_segment_contract():
                 assert b.centre == (a.centre[1], a.centre[0])
             if isinstance(a, Curve):
                 assert b.base_x is a.base_x and b.base_y is a.base_y
+
+
+# -- the library's job: revolve.build_vessel (issue 11) --------------------------------------
+
+def test_build_vessel_takes_lengths_with_units_and_densities_with_units():
+    import revolve
+
+    r = revolve.build_vessel("4 ft", "6 ft", head="hemispherical", units="in",
+                             thickness="1/4 in", density="0.284 lb/in^3", liquid_density="1000")
+    v = r.to_dict()["vessel"]
+    R, L, t = 24.0, 72.0, 0.25
+    # CRC (from memory): cylinder π R² L plus a sphere 4/3 π R³; hollow cylinder and spherical
+    # shell for the metal; 1 US gal = 231 in³, 1 lb = 0.45359237 kg, 1 in = 0.0254 m (exact)
+    assert r.units.unit("capacity") == "US gal" and r.units.unit("mass") == "lb"
+    assert v["capacity"] == pytest.approx((math.pi * R * R * L + 4 / 3 * math.pi * R ** 3) / 231,
+                                          rel=1e-13)
+    metal_in3 = math.pi * ((R + t) ** 2 - R ** 2) * L + 4 / 3 * math.pi * ((R + t) ** 3 - R ** 3)
+    assert v["metal_mass"] == pytest.approx(0.284 * metal_in3, rel=1e-9)
+    liquid_m3 = (math.pi * R * R * L + 4 / 3 * math.pi * R ** 3) * 0.0254 ** 3
+    assert v["liquid_mass"] == pytest.approx(1000 * liquid_m3 / 0.45359237, rel=1e-12)
+
+
+@pytest.mark.parametrize("kwargs,expected", [
+    (dict(diameter="big"), "diameter: 'big' is not a length"),
+    (dict(head=None), "head: give the heads"),
+    (dict(head="torispherical:crown=400"), "head: head 1: the crown radius 400"),
+    (dict(volume_unit="mm"), "volume_unit: 'mm' is a length unit"),
+    (dict(density="7850"), "density: the metal's mass needs a wall thickness"),
+])
+def test_build_vessel_errors_name_the_setting(kwargs, expected):
+    import revolve
+
+    settings = dict(diameter=1000, length=1500, head="flat")
+    settings.update(kwargs)
+    with pytest.raises(revolve.RevolveError) as err:
+        revolve.build_vessel(**settings)
+    assert str(err.value).startswith(expected) and "\n" not in str(err.value)
