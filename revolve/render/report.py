@@ -128,6 +128,13 @@ def svg_of(figure) -> str:
     text = re.sub(r"<!--.*?-->", "", text, flags=re.S)
     text = re.sub(r"<metadata>.*?</metadata>", "", text, flags=re.S)
     text = re.sub(r'\s+xmlns(?::\w+)?="[^"]*"', "", text)
+    # matplotlib's style element ("*{stroke-linejoin: round; ...}") would style the whole page:
+    # its (inherited) properties go on the picture's root instead
+    rules = re.findall(r"<style[^>]*>\s*\*\s*\{([^}]*)\}\s*</style>", text)
+    text = re.sub(r"<style[^>]*>.*?</style>", "", text, flags=re.S)
+    if rules:
+        style = escape(" ".join(rule.strip() for rule in rules), quote=True)
+        text = re.sub(r"<svg\b", f'<svg style="{style}"', text, count=1)
     text = re.sub(r'(<svg\b[^>]*?)\s+width="[^"]*"', r"\1", text, count=1)
     text = re.sub(r'(<svg\b[^>]*?)\s+height="[^"]*"', r"\1", text, count=1)
     text = re.sub(r"\n\s*\n", "\n", text)
