@@ -88,8 +88,10 @@ section.part.first { break-before: auto; page-break-before: auto; }
 """
 
 _SVG_START = re.compile(r"<svg\b", re.I)
-_UNSAFE_SVG = re.compile(r"<\s*(script|foreignObject|iframe|object|embed|image|style)\b|"
+_UNSAFE_SVG = re.compile(r"<\s*(script|foreignObject|iframe|object|embed|style|a)\b|"
                          r"\son\w+\s*=|javascript:|@import|url\(\s*['\"]?(?!#)", re.I)
+#: A raster embedded in the picture itself (matplotlib's images with svg.image_inline).
+_EMBEDDED_IMAGE = re.compile(r"data:image/(png|jpeg);base64,[A-Za-z0-9+/=\s]*$")
 _HREF = re.compile(r"""\b(?:xlink:)?href\s*=\s*["']([^"']*)["']""", re.I)
 
 
@@ -151,7 +153,7 @@ def _scoped_svg(svg: str, prefix: str) -> str:
         raise ValueError(f"a picture may not hold {bad.group(0).strip()!r}: pictures are inline "
                          "SVG without scripts or outside references")
     for ref in _HREF.findall(text):
-        if not ref.startswith("#"):
+        if not (ref.startswith("#") or _EMBEDDED_IMAGE.match(ref)):
             raise ValueError(f"a picture may refer only to its own parts, not to {ref!r}")
     text = re.sub(r'\bid="([^"]+)"', lambda m: f'id="{prefix}{m.group(1)}"', text)
     text = re.sub(r'((?:xlink:)?href=")#([^"]+)"', lambda m: f'{m.group(1)}#{prefix}{m.group(2)}"',

@@ -12,7 +12,6 @@ terminal formats it, with nothing outside the file referenced and user text esca
 
 from __future__ import annotations
 
-import os
 import re
 import shutil
 import subprocess
@@ -202,6 +201,13 @@ def test_bad_pictures_and_arguments_are_refused():
                 '<p>not a picture</p>', '<svg style="background:url(http://x/)"></svg>'):
         with pytest.raises(ValueError):
             report_html(r, title="t", pictures=[("x", svg)])
+    # a raster inside the picture (an image drawn by matplotlib) is embedded, and accepted
+    from matplotlib.figure import Figure
+    fig = Figure(figsize=(2, 2))
+    fig.add_subplot().imshow(np.arange(16.0).reshape(4, 4))
+    page = report_html(r, title="t", pictures=[("raster", svg_of(fig))])
+    images = [v for tag, name, v in _parse(page).attrs if tag == "image" and name.endswith("href")]
+    assert len(images) == 1 and images[0].startswith("data:image/png;base64,")
     with pytest.raises(ValueError, match="one list per result"):
         report_html([r, r], title="t", pictures=[[]])
     with pytest.raises(ValueError, match="at least one result"):
