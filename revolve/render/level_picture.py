@@ -152,14 +152,13 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         for ax in (side, chart):
             if ax is not None:
                 ax.axhline(level, color=MARK_COLOUR, lw=0.8, ls=(0, (2, 2)))
-    mark_texts = []
-    host = side if side is not None else chart
-    for level, label in marks:
-        mark_texts.append(host.annotate(
-            textwrap.shorten(str(label), 28), xy=(0.0, level), xycoords=("axes fraction", "data"),
-            xytext=(2, 1.5), textcoords="offset points", ha="left", va="bottom", fontsize=7.5,
-            color=MARK_COLOUR, annotation_clip=False,
-            bbox=dict(boxstyle="square,pad=0.1", fc="white", ec="none", alpha=0.85)))
+    # Mark labels, outside the chart on the right (the lines cross both panels), name their level
+    # too: marks closer than a label's height are stacked and still told apart.
+    mark_texts = [chart.annotate(
+        f"{textwrap.shorten(str(label), 28)}, {_number(level)} {level_unit}", xy=(1.0, level),
+        xycoords=("axes fraction", "data"), xytext=(4, 0), textcoords="offset points",
+        ha="left", va="center", fontsize=7.5, color=MARK_COLOUR, annotation_clip=False)
+        for level, label in marks]
 
     chart.legend(handles=handles, loc="lower right", fontsize=8, framealpha=0.9)
     if title:
@@ -216,7 +215,7 @@ def _ticks_not_drawn(fig) -> set:
 
 
 def _separate(fig, texts) -> None:
-    """Move mark labels that touch one another (or a tick label) to the other side of their line."""
+    """Stack mark labels that would touch one another upwards, in the order of their levels."""
     if len(texts) < 2:
         return
     from matplotlib.backends.backend_agg import FigureCanvasAgg
@@ -224,14 +223,16 @@ def _separate(fig, texts) -> None:
     FigureCanvasAgg(fig)
     fig.canvas.draw()
     renderer = fig.canvas.get_renderer()
+    points_per_pixel = 72.0 / fig.dpi
     placed = []
     for t in sorted(texts, key=lambda t: t.xy[1]):
         box = t.get_window_extent(renderer)
-        if any(box.overlaps(b) for b in placed):
-            t.set_va("top")
-            t.set_position((2, -1.5))
+        for _ in range(len(texts)):
+            below = [b for b in placed if box.overlaps(b)]
+            if not below:
+                break
+            lift = (max(b.y1 for b in below) - box.y0 + 1.5) * points_per_pixel
+            x, y = t.get_position()
+            t.set_position((x, y + lift))
             box = t.get_window_extent(renderer)
-            if any(box.overlaps(b) for b in placed):
-                t.set_visible(False)        # too close to tell apart: the line alone stays
-                continue
         placed.append(box)
