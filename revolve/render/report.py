@@ -69,7 +69,7 @@ thead { display: table-header-group; }
 tfoot { display: table-footer-group; }
 tr, th, td { break-inside: avoid; page-break-inside: avoid; }
 figure { margin: 0.5em 0 1em; break-inside: avoid; page-break-inside: avoid; }
-figure svg { display: block; width: 100%; height: auto; }
+figure svg { display: block; width: 100%; height: auto; max-height: 125mm; }
 figcaption { font-size: 9pt; color: #333; }
 p.note { margin: 0.3em 0; }
 div.caution { border: 1.5px solid #b58900; background: #fdf6e3; padding: 0.4em 0.7em;
