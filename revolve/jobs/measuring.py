@@ -19,9 +19,6 @@ both call the functions here, so the library's ``to_dict()`` and the command's
   for the renderer, the ``measure --json`` object from :meth:`~MeasureResult.to_dict`);
 * :func:`measure`: the library's entry point.
 
-(:class:`OutputUnits` and :func:`output_units` are the old unit factors,
-still read by ``vessel`` and ``levels`` until they are on the shared core.)
-
 Examples
 --------
 >>> from revolve.geometry.profile import Loop, Profile
@@ -217,74 +214,6 @@ def load_with_unit(path: str, unit: Optional[str] = None, *, exact: bool = False
         except UnitError as e:
             raise e.located(option=option)
     return load_profile(path, unit=unit, exact=exact)
-
-
-@dataclass(frozen=True)
-class OutputUnits:
-    """Units for output and the factors from the profile's length unit (or SI for mass).
-
-    The old form, read by ``vessel`` and ``levels`` until they use
-    :class:`revolve.jobs.results.OutputUnits`; measuring uses :func:`part_units`.
-    """
-
-    length: str
-    area: str
-    volume: str
-    mass: str
-    length_factor: float
-    area_factor: float
-    volume_factor: float
-    mass_factor: float  # from kg
-    si_length: float  # profile unit -> metre
-
-    def inertia_unit(self) -> str:
-        return f"{self.mass}·{self.length}²"
-
-
-def output_units(profile_unit: str, length: Optional[str] = None, area: Optional[str] = None,
-                 volume: Optional[str] = None, mass: Optional[str] = None) -> OutputUnits:
-    """Work out output units: each defaults to the profile's unit (squared, cubed) and kg.
-
-    A unit that is refused names its option:
-
-    >>> u = output_units("mm", volume="L")
-    >>> u.area, u.volume, round(u.volume_factor, 15)
-    ('mm²', 'L', 1e-06)
-    >>> output_units("mm", volume="gallon")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.UnitError: --volume-unit: 'gallon' is ambiguous: write 'US_gallon' (231 in³) or 'imperial_gallon' (4.54609 L)
-    >>> output_units("mm", length="kg")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.UnitError: --length-unit: 'kg' is a mass unit, not a length unit
-    """
-    from revolve import units
-
-    def factor(text: str, kind: str, option: Optional[str]) -> float:
-        try:
-            return units.factor(text, kind)
-        except UnitError as e:
-            raise e.located(option=option)
-
-    si = units.factor(profile_unit, "length")
-    lu = length if length is not None else profile_unit
-    au = area if area is not None else f"{lu}²"
-    vu = volume if volume is not None else f"{lu}³"
-    mu = mass if mass is not None else "kg"
-    lf = si / factor(lu, "length", "--length-unit" if length is not None else None)
-    af = si ** 2 / factor(_pow_unit(au, lu, 2), "area", "--area-unit" if area is not None else None)
-    vf = si ** 3 / factor(_pow_unit(vu, lu, 3), "volume",
-                          "--volume-unit" if volume is not None else None)
-    mf = 1.0 / factor(mu, "mass", "--mass-unit" if mass is not None else None)
-    return OutputUnits(lu, au, vu, mu, lf, af, vf, mf, si)
-
-
-def _pow_unit(text: str, length: str, power: int) -> str:
-    sup = {2: "²", 3: "³"}[power]
-    if text == f"{length}{sup}":
-        return f"{length}^{power}"
-    return text
 
 
 def file_density(doc):

@@ -2,7 +2,7 @@
 
 Options here; the work is :func:`revolve.jobs.coating.run` (the library's
 :func:`revolve.estimate_coating`), the output :mod:`revolve.render.output`.
-Profiles are files or folders (:func:`revolve.cli.common.profile_paths`: a
+Profiles are files or folders (:func:`revolve.formats.paths.profile_paths`: a
 coating-system TOML inside a folder is not a profile and is left out).
 
 Units by the coating trade: areas m² (ft² when every drawing is in inches or
@@ -31,7 +31,7 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
     """Estimate, write the CSV, print; return the exit code (1: a cross-check disagrees)."""
     import sys
 
-    from revolve.cli.common import profile_paths
+    from revolve.formats.paths import profile_paths
     from revolve.formats.files import check_target
     from revolve.jobs import coating
     from revolve.render import output

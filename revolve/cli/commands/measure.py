@@ -43,6 +43,7 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     (the other rows are still given).
     """
     from revolve.cli import common
+    from revolve.formats.paths import profile_paths
     from revolve.jobs import batch
     from revolve.jobs.measuring import (material_or_density, measure_result, parse_axis,
                                         part_units)
@@ -54,7 +55,7 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     if not 0 < tolerance:
         raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
     single = len(items) == 1 and not os.path.isdir(items[0])
-    paths, left_out = ([items[0]], []) if single else common.profile_paths(items, skip=csv_path)
+    paths, left_out = ([items[0]], []) if single else profile_paths(items, skip=csv_path)
     if exact and not single:
         raise RevolveError("give one file with --exact; closed forms are worked out one part "
                            "at a time", option="--exact")

@@ -72,7 +72,7 @@ def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bo
     Exit codes: 0 done, 1 a cross-check disagrees, 2 a file or option refused
     (a refused file keeps its row in a batch; the other parts are quoted).
     """
-    from revolve.cli.common import profile_paths
+    from revolve.formats.paths import profile_paths
     from revolve.cli.rows import progress_bar
     from revolve.formats.files import check_target
     from revolve.jobs import turning_quote as tq
