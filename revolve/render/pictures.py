@@ -42,7 +42,7 @@ import numpy as np
 from revolve.errors import FormatError, RevolveError
 from revolve.render.drawing import (AXIS_COLOUR, AXIS_DASHES, CUT_FACE_COLOUR, SECTION_FILL,
                                     SECTION_HATCH, draw_section, face_styles, sketch_paths)
-from revolve.render.numbers import number as _number
+from revolve.render.numbers import group_digits, number as _number
 
 #: Picture formats by file name ending.
 FORMATS = {".png": "png", ".svg": "svg"}
@@ -498,6 +498,78 @@ def _opening_turn(revolution, turn: np.ndarray, axis_dir: np.ndarray, view: np.n
     return math.atan2(float(np.cross(gap, target) @ axis_dir), float(gap @ target))
 
 
+def view_frame(elevation: float, azimuth: float):
+    """Unit vectors (towards the viewer, right, up) of an orthographic view, in degrees.
+
+    The same convention as matplotlib's ``view_init``: z is up, ``azimuth`` turns
+    about z from +x, ``elevation`` raises the eye above the xy plane.
+
+    >>> [v.round(12).tolist() for v in view_frame(0.0, 0.0)]
+    [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]]
+    >>> view_frame(90.0, 0.0)[0].round(12).tolist()   # looking straight down
+    [0.0, 0.0, 1.0]
+    """
+    e, a = math.radians(elevation), math.radians(azimuth)
+    view = np.array([math.cos(e) * math.cos(a), math.cos(e) * math.sin(a), math.sin(e)])
+    right = np.array([-math.sin(a), math.cos(a), 0.0])
+    up = np.cross(view, right)
+    return view, right, up
+
+
+def split_long_triangles(corners: np.ndarray, longest: float, most: int = 400_000):
+    """Triangles (n, 3, 3) cut in two across their longest edge until no edge exceeds ``longest``.
+
+    A painter's order by one depth per triangle is only right when the
+    triangles are small beside the part: a strip of a bore as long as the part
+    has the depth of its middle. Each cut keeps the triangle's orientation. At
+    most ``most`` triangles come back (the rest stay longer). Returns the
+    triangles and, for each, the index of the triangle it came from.
+
+    >>> t = np.array([[[0.0, 0, 0], [4, 0, 0], [0, 1, 0]]])
+    >>> parts, source = split_long_triangles(t, 1.5)
+    >>> len(parts), source.tolist() == [0] * len(parts)
+    (8, True)
+    >>> float(np.linalg.norm(parts[:, [1, 2, 0]] - parts, axis=2).max()) <= 1.5
+    True
+    >>> len(split_long_triangles(t[:0], 1.0)[0])   # none
+    0
+    """
+    source = np.arange(len(corners))
+    for _ in range(60):
+        edges = np.linalg.norm(corners[:, [1, 2, 0]] - corners, axis=2)  # edge k: corner k to k+1
+        first = np.argmax(edges, axis=1)
+        cut = edges[np.arange(len(corners)), first] > longest
+        count = int(np.count_nonzero(cut))
+        if count == 0 or len(corners) + count > most:
+            break
+        t = corners[cut]
+        k = first[cut]
+        rows = np.arange(len(t))
+        a, b, c = t[rows, k], t[rows, (k + 1) % 3], t[rows, (k + 2) % 3]
+        m = (a + b) / 2
+        corners = np.concatenate([corners[~cut], np.stack([a, m, c], axis=1),
+                                  np.stack([m, b, c], axis=1)])
+        source = np.concatenate([source[~cut], source[cut], source[cut]])
+    return corners, source
+
+
+def painter_order(corners: np.ndarray, view: np.ndarray) -> np.ndarray:
+    """Indices of triangles (n, 3, 3) from the farthest to the nearest along ``view`` (towards the eye).
+
+    Drawn in this order, nearer triangles cover farther ones (the painter's
+    rule); ties keep their order.
+
+    >>> near = [[0.0, 0, 5], [1, 0, 5], [0, 1, 5]]
+    >>> far = [[0.0, 0, -5], [1, 0, -5], [0, 1, -5]]
+    >>> painter_order(np.array([near, far]), np.array([0.0, 0, 1])).tolist()
+    [1, 0]
+    >>> painter_order(np.zeros((0, 3, 3)), np.array([0.0, 0, 1])).tolist()
+    []
+    """
+    depth = corners.mean(axis=1) @ np.asarray(view, float)
+    return np.argsort(depth, kind="stable")
+
+
 def solid_picture(revolution, measurement, path: str, *, units, title: Optional[str] = None,
                   density_label: Optional[str] = None, width: int = 1200, height: int = 800,
                   dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
@@ -521,9 +593,9 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     >>> data.lstrip().startswith(b"<?xml"), mesh.closed
     (True, True)
     """
-    from matplotlib.patches import Patch
-    from mpl_toolkits.mplot3d.art3d import Line3DCollection, Poly3DCollection
+    from matplotlib.collections import LineCollection, PolyCollection
     from matplotlib.colors import to_rgb
+    from matplotlib.patches import Patch
 
     from revolve.geometry.mesh import CUT_FACE_END, CUT_FACE_START
 
@@ -534,8 +606,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     turn = np.array([[1.0, 0.0, 0.0], [0.0, 0.0, -1.0], [0.0, 1.0, 0.0]])
     vertices = mesh.vertices @ turn.T
     normals = mesh.normals() @ turn.T
-    e, a = math.radians(elevation), math.radians(azimuth)
-    view = np.array([math.cos(e) * math.cos(a), math.cos(e) * math.sin(a), math.sin(e)])
+    view, right, up = view_frame(elevation, azimuth)
     ux, uy = revolution.axis.unit_direction()
     d3 = turn @ np.array([ux, uy, 0.0])
     p3 = turn @ np.array([float(revolution.axis.point[0]), float(revolution.axis.point[1]), 0.0])
@@ -545,9 +616,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
         vertices = p3 + _rotate(vertices - p3, d3, alpha)
         normals = _rotate(normals, d3, alpha)
     corners = vertices[mesh.triangles]
-    right = np.cross(np.array([0.0, 0.0, 1.0]), view)
-    right /= np.linalg.norm(right) or 1.0
-    light = view + 0.6 * np.array([0.0, 0.0, 1.0]) - 0.35 * right
+    light = view + 0.6 * up - 0.35 * right
     light /= np.linalg.norm(light)
     lambert = normals @ light
     if not mesh.closed:  # open surfaces are seen from both sides
@@ -559,45 +628,51 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     base = np.array([to_rgb(styles[n][0]) if n in styles else to_rgb(CUT_FACE_COLOUR) for n in names])
     base = base if len(base) else np.zeros((0, 3))
     rgb = np.clip(base[mesh.face_of] * shade[:, None], 0.0, 1.0) if len(mesh.face_of) else np.zeros((0, 3))
-    # A closed surface never shows the back of a triangle: leaving those out also spares
-    # matplotlib's painter's sort (one depth per triangle) most of its mistakes.
+    # A closed surface never shows the back of a triangle (back faces culled); the rest are
+    # cut small beside the part and drawn far to near, all in one collection.
     front = (normals @ view > 0) if mesh.closed else np.ones(len(corners), dtype=bool)
     corners, rgb = corners[front], rgb[front]
+    lo, hi = vertices.min(axis=0), vertices.max(axis=0)
+    biggest = float((hi - lo).max()) or 1.0
+    corners, source = split_long_triangles(corners, biggest / 30.0)
+    order = painter_order(corners, view)
+    corners, rgb = corners[order], rgb[source[order]]
+    flat = np.stack([corners @ right, corners @ up], axis=-1)
 
     fig = _figure(width, height, dpi)
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
-    extra = [f"drawn from a mesh of {len(mesh.triangles):,} triangles "
-             f"(chord tolerance {mesh.tolerance * u.length_factor:.3g} {u.length})"]
+    extra = [f"drawn from a mesh of {group_digits(str(len(mesh.triangles)))} triangles "
+             f"(chord tolerance {fmt(mesh.tolerance * u.length_factor, 3)} {u.length})"]
     caption = _caption_lines(m, u, revolution, density_label, extra)
     wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
     caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
     caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
     top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
-    ax = fig.add_axes([0.0, caption_height, 0.78, top - caption_height], projection="3d")
-    ax.set_proj_type("ortho")
-    ax.computed_zorder = False  # the centre line is drawn over the part, as on a drawing
-    ax.view_init(elev=elevation, azim=azimuth)
+    ax = fig.add_axes([0.03, caption_height + 0.02, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
-    poly = Poly3DCollection(corners, facecolors=rgb, edgecolors=rgb, linewidths=0.6, zorder=1)
-    ax.add_collection3d(poly)
+    ax.add_collection(PolyCollection(flat, facecolors=rgb, edgecolors=rgb, linewidths=0.5,
+                                     antialiaseds=False, zorder=1))
 
-    lo, hi = vertices.min(axis=0), vertices.max(axis=0)
-    span = hi - lo
-    biggest = float(span.max()) or 1.0
-    # The axis of revolution, a centre line a little longer than the part.
+    # The axis of revolution, a centre line a little longer than the part, over the part
+    # as on a drawing.
     t = (vertices - p3) @ d3
     ends = p3 + np.outer([t.min() - 0.12 * biggest, t.max() + 0.12 * biggest], d3)
-    ax.add_collection3d(Line3DCollection([ends], colors=AXIS_COLOUR, linewidths=1.0,
-                                         linestyles=[AXIS_DASHES], zorder=3))
-    lo = np.minimum(lo, ends.min(axis=0))
-    hi = np.maximum(hi, ends.max(axis=0))
-    span = np.maximum(hi - lo, 0.02 * biggest)
-    middle = (lo + hi) / 2
-    ax.set_xlim(middle[0] - span[0] / 2, middle[0] + span[0] / 2)
-    ax.set_ylim(middle[1] - span[1] / 2, middle[1] + span[1] / 2)
-    ax.set_zlim(middle[2] - span[2] / 2, middle[2] + span[2] / 2)
-    ax.set_box_aspect(tuple(span), zoom=1.25)
+    ends2 = np.stack([ends @ right, ends @ up], axis=-1)
+    ax.add_collection(LineCollection([ends2], colors=AXIS_COLOUR, linewidths=1.0,
+                                     linestyles=[AXIS_DASHES], zorder=3))
+    shown = np.vstack([flat.reshape(-1, 2), ends2]) if len(flat) else ends2
+    v_lo, v_hi = shown.min(axis=0), shown.max(axis=0)
+    pad = 0.04 * float((v_hi - v_lo).max() or 1.0)
+    v_lo, v_hi = v_lo - pad, v_hi + pad
+    box = ax.get_position()
+    shape = box.width * width / (box.height * height)
+    vw, vh = v_hi - v_lo
+    vw, vh = max(vw, vh * shape), max(vh, vw / shape)
+    mid = (v_lo + v_hi) / 2
+    ax.set_xlim(mid[0] - vw / 2, mid[0] + vw / 2)
+    ax.set_ylim(mid[1] - vh / 2, mid[1] + vh / 2)
+    ax.set_aspect("equal", adjustable="box")
 
     used = {names[k] for k in np.unique(mesh.face_of)}
     handles = [Patch(facecolor=styles[n][0]) for n in styles if n in used]
