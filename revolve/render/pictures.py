@@ -143,26 +143,40 @@ def _axis_text(axis) -> str:
             f"along ({fmt(d[0], 4)}, {fmt(d[1], 4)})")
 
 
-def _dimension(ax, a, b, offset_dir, gap, text, colour="#333333", fontsize=9):
-    """A dimension line between points a and b, moved by ``gap`` along ``offset_dir``.
+def _dimension(ax, feature_a, feature_b, line_a, line_b, text, arrows, gap, colour="#333333",
+               fontsize=9):
+    """A dimension line from ``line_a`` to ``line_b`` with extension lines from the features.
 
-    Returns sample points of the ink it put down (for placing labels clear of it).
+    ``feature_b`` may be None (a diameter drawn from the axis: one extension
+    line, one arrowhead at ``line_b``). The text sits on the line's middle,
+    turned along it and kept upright. Returns sample points of the ink it put
+    down (for placing labels clear of it).
     """
-    a, b, o = np.asarray(a, float), np.asarray(b, float), np.asarray(offset_dir, float)
-    pa, pb = a + o * gap, b + o * gap
+    la, lb = np.asarray(line_a, float), np.asarray(line_b, float)
     ink = []
-    for p, q in ((a, pa), (b, pb)):  # extension lines, starting a little off the part
-        e0, e1 = p + o * gap * 0.15, q + o * gap * 0.25
+    for f, q in ((feature_a, la), (feature_b, lb)):
+        if f is None:
+            continue
+        f = np.asarray(f, float)
+        if arrows == "-|>":   # a diameter: the extension line ends at the line's far end
+            q = lb
+        d = q - f
+        n = np.linalg.norm(d)
+        if n <= 1e-12 * (gap or 1.0):
+            continue
+        e0, e1 = f + d / n * min(0.15 * gap, 0.3 * n), q + d / n * 0.25 * gap
         ax.plot([e0[0], e1[0]], [e0[1], e1[1]], color=colour, lw=0.6, zorder=4)
-        ink.append(np.linspace(e0, e1, 12))
-    ax.annotate("", xy=pb, xytext=pa, zorder=4,
-                arrowprops=dict(arrowstyle="<|-|>", color=colour, lw=0.8, shrinkA=0, shrinkB=0,
+        ink.append(np.linspace(e0, e1, 24))
+    ax.annotate("", xy=lb, xytext=la, zorder=4,
+                arrowprops=dict(arrowstyle=arrows, color=colour, lw=0.8, shrinkA=0, shrinkB=0,
                                 mutation_scale=9))
-    ink.append(np.linspace(pa, pb, 60))
-    mid = (pa + pb) / 2
-    vertical = abs(b[1] - a[1]) > abs(b[0] - a[0])
-    ax.text(mid[0], mid[1], text, rotation=90 if vertical else 0, ha="center", va="center",
-            fontsize=fontsize, color=colour, zorder=5,
+    ink.append(np.linspace(la, lb, 60))
+    mid = (la + lb) / 2
+    angle = math.degrees(math.atan2(lb[1] - la[1], lb[0] - la[0]))
+    if angle > 90.5 or angle <= -89.5:
+        angle -= 180.0 * np.sign(angle) if angle != 0 else 0.0
+    ax.text(mid[0], mid[1], text, rotation=angle, rotation_mode="anchor", ha="center",
+            va="center", fontsize=fontsize, color=colour, zorder=5,
             bbox=dict(boxstyle="round,pad=0.2", fc="white", ec="none"))
     return np.vstack(ink)
 
@@ -305,36 +319,51 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
 
-    verts, styles = draw_section(ax, profile, prep, flat)
+    verts, styles = draw_section(ax, profile, prep, flat, axis)
+
+    # The part in the axis frame: z along the axis, r from it.
+    z_all, r_all = (allpts - origin) @ along, (allpts - origin) @ towards
+    z0, z1, r0, r1 = float(z_all.min()), float(z_all.max()), float(r_all.min()), float(r_all.max())
+    at = lambda z, r: origin + z * along + r * towards  # noqa: E731
+    near = 1e-9 * size
+    gap = 0.09 * max(z1 - z0, r1 - (0.0 if show_axis else r0), 1e-12 * size)
+    # Dimensions as a machinist reads them: the length along the axis; diameters (Ø) across it
+    # when the axis is in the picture, else the radial extent (the diameters go in the caption).
+    dims = []   # (feature a, feature b, line a, line b, text, arrows)
+    if z1 - z0 > 1e-12 * size:
+        fa = allpts[np.argmax(np.where(np.abs(z_all - z0) <= near * 10, r_all, -np.inf))]
+        fb = allpts[np.argmax(np.where(np.abs(z_all - z1) <= near * 10, r_all, -np.inf))]
+        dims.append((fa, fb, at(z0, r1 + gap), at(z1, r1 + gap),
+                     f"{fmt((z1 - z0) * L, 5)} {u.length}", "<|-|>"))
+    solid_bore = r0 > 1e-6 * size
+    if show_axis:
+        if r1 > 1e-12 * size:
+            f = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
+            dims.append((f, None, at(z1 + gap, 0.0), at(z1 + gap, r1),
+                         f"Ø{fmt(2 * r1 * L, 5)} {u.length}", "-|>"))
+        if solid_bore:
+            f = allpts[np.argmin(np.where(np.abs(r_all - r0) <= near * 10, z_all, np.inf))]
+            dims.append((f, None, at(z0 - gap, 0.0), at(z0 - gap, r0),
+                         f"Ø{fmt(2 * r0 * L, 5)} {u.length}", "-|>"))
+    elif r1 - r0 > 1e-12 * size:
+        fa = allpts[np.argmax(np.where(np.abs(r_all - r0) <= near * 10, z_all, -np.inf))]
+        fb = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
+        dims.append((fa, fb, at(z1 + gap, r0), at(z1 + gap, r1),
+                     f"{fmt((r1 - r0) * L, 5)} {u.length}", "<|-|>"))
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
-    view_lo, view_hi = lo.copy(), hi.copy()
+    view_pts = [allpts] + [np.array([d[2], d[3]]) for d in dims]
     if show_axis:
-        corners = np.array([[lo[0], lo[1]], [lo[0], hi[1]], [hi[0], lo[1]], [hi[0], hi[1]]])
-        feet = origin + ((corners - origin) @ along)[:, None] * along
-        view_lo = np.minimum(view_lo, feet.min(axis=0))
-        view_hi = np.maximum(view_hi, feet.max(axis=0))
+        view_pts.append(np.array([at(z0 - 1.4 * gap, 0.0), at(z1 + 1.4 * gap, 0.0)]))
     else:
         reach = float(np.max(np.abs((allpts - centre) @ towards)))
         arrow_start = centre - towards * (reach + 0.12 * size)
         arrow_end = arrow_start - towards * 0.15 * size
-        view_lo = np.minimum(view_lo, np.minimum(arrow_start, arrow_end) - 0.1 * size)
-        view_hi = np.maximum(view_hi, np.maximum(arrow_start, arrow_end) + 0.1 * size)
+        view_pts.append(np.array([arrow_start, arrow_end]))
+    every = np.vstack(view_pts)
+    view_lo, view_hi = every.min(axis=0), every.max(axis=0)
     span = float(np.max(view_hi - view_lo)) or size
-    gap = 0.07 * span
-    up = 1.0 if towards[1] >= -1e-12 else -1.0      # dimensions go on the side away from the axis
-    right = 1.0 if towards[0] >= -1e-12 else -1.0
-    y_dim = hi[1] if up > 0 else lo[1]
-    x_dim = hi[0] if right > 0 else lo[0]
-    view_lo, view_hi = view_lo - 0.06 * span, view_hi + 0.06 * span
-    if up > 0:
-        view_hi[1] = max(view_hi[1], y_dim + 1.6 * gap)
-    else:
-        view_lo[1] = min(view_lo[1], y_dim - 1.6 * gap)
-    if right > 0:
-        view_hi[0] = max(view_hi[0], x_dim + 1.6 * gap)
-    else:
-        view_lo[0] = min(view_lo[0], x_dim - 1.6 * gap)
+    view_lo, view_hi = view_lo - 0.07 * span, view_hi + 0.07 * span
     # Widen the view to the axes' own shape so that equal scales need no other change.
     box_w = ax.get_position().width * width
     box_h = ax.get_position().height * height
@@ -351,12 +380,8 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
 
     ink = [_resample(np.vstack([p[:-1] for p in pieces] + [pieces[-1][-1:]]), span / 400.0)
            for pieces in flat]
-    if hi[0] - lo[0] > 1e-12 * size:
-        ink.append(_dimension(ax, (lo[0], y_dim), (hi[0], y_dim), (0, up), gap,
-                              f"{fmt((hi[0] - lo[0]) * L, 5)} {u.length}", fontsize=fs * 0.95))
-    if hi[1] - lo[1] > 1e-12 * size:
-        ink.append(_dimension(ax, (x_dim, lo[1]), (x_dim, hi[1]), (right, 0), gap,
-                              f"{fmt((hi[1] - lo[1]) * L, 5)} {u.length}", fontsize=fs * 0.95))
+    for fa, fb, la, lb, text, arrows in dims:
+        ink.append(_dimension(ax, fa, fb, la, lb, text, arrows, gap, fontsize=fs * 0.95))
 
     # The axis: a centre line across the view, its direction arrowed and named.
     if show_axis:
