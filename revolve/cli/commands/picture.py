@@ -45,7 +45,16 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     part = measure_document(doc, axis=parse_axis(axis) if isinstance(axis, str) else axis,
                             angle=angle, density=dens, density_label=label)
     rev, m = part.revolution, part.measurement
-    u = part_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
+    if getattr(doc, "section", "material") == "space":
+        # A vessel's liquid space: the vessel trade's units (litres, m²), as level tables show.
+        from revolve.jobs.results import trade_units
+
+        given = {"length": length_unit, "area": area_unit, "volume": volume_unit, "mass": mass_unit}
+        u = trade_units("vessel", doc.profile.unit,
+                        {role: unit for role, unit in given.items() if unit is not None},
+                        options={role: f"--{role}-unit" for role in given})
+    else:
+        u = part_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
     title = doc.name or os.path.basename(doc.file or "profile")
 
     from revolve.render import output as render, pictures
