@@ -34,7 +34,6 @@ from __future__ import annotations
 
 import math
 import os
-import textwrap
 from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
@@ -106,6 +105,60 @@ def figure_bytes(fig, path: str) -> bytes:
 
 
 # -- the profile --------------------------------------------------------------------
+
+def _wrapped(fig, text: str, room: float, **font) -> List[str]:
+    """``text`` cut at spaces into lines no wider than ``room`` pixels as ``font`` draws them.
+
+    A word wider than the room stays on its own line.
+
+    >>> fig = _figure(400, 300, 100)
+    >>> _wrapped(fig, "one two three four five six seven eight nine ten", 120, fontsize=10)
+    ['one two three four', 'five six seven', 'eight nine ten']
+    >>> _wrapped(fig, "", 100, fontsize=10)
+    ['']
+    """
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    if fig.canvas is None or not isinstance(fig.canvas, FigureCanvasAgg):
+        FigureCanvasAgg(fig)
+    renderer = fig.canvas.get_renderer()
+    probe = fig.text(0, 0, "", **font)
+    lines: List[str] = []
+    for paragraph in text.split("\n"):
+        line = ""
+        for word in paragraph.split(" "):
+            trial = f"{line} {word}" if line else word
+            probe.set_text(trial)
+            if line and probe.get_window_extent(renderer).width > room:
+                lines.append(line)
+                line = word
+            else:
+                line = trial
+        lines.append(line)
+    probe.remove()
+    return lines
+
+
+def _frame(fig, title: Optional[str], caption: Sequence[str], fs: float) -> Tuple[float, float]:
+    """Write the title (top) and the caption (bottom), each wrapped to the picture's width.
+
+    Returns the caption's top and the title's bottom as fractions of the
+    figure's height: the drawing goes between them.
+    """
+    width, height = fig.get_size_inches() * fig.dpi
+    room = width * 0.94
+    px = fig.dpi / 72.0
+    lines = [w for line in caption for w in _wrapped(fig, line, room, fontsize=fs)]
+    fig.text(0.03, 0.02, "\n".join(lines), fontsize=fs, va="bottom", ha="left",
+             linespacing=1.45, color="#222222")
+    caption_top = 0.02 + (len(lines) * fs * 1.45 + 0.6 * fs) * px / height
+    if not title:
+        return caption_top, 0.97
+    heading = _wrapped(fig, title, room, fontsize=fs * 1.35, fontweight="bold")
+    fig.text(0.03, 1.0 - 0.9 * fs * px / height, "\n".join(heading), fontsize=fs * 1.35,
+             fontweight="bold", va="top", ha="left", linespacing=1.2)
+    return caption_top, 1.0 - (0.9 + len(heading) * 1.35 * 1.2 * 1.2 + 0.3) * fs * px / height
+
 
 def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequence[str] = ()) -> List[str]:
     f = fmt
@@ -206,6 +259,10 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
     ink = to_px(ink_data) if len(ink_data) else np.zeros((0, 2))
     bounds = ax.get_window_extent(renderer)
     taken: List[Tuple[float, float, float, float]] = []
+    for drawn in ax.texts:   # dimensions and the axis's name are obstacles too
+        if drawn.get_text().strip():
+            e = drawn.get_window_extent(renderer)
+            taken.append((e.x0 - 3, e.y0 - 3, e.x1 + 3, e.y1 + 3))
     px_per_pt = dpi / 72.0
     marks_px = [to_px(np.asarray(p, float)[None])[0] for _, p in marks]
     angles = np.radians([45, 135, -45, -135, 90, -90, 0, 180, 22, 158, -22, -158, 68, 112, -68, -112])
@@ -225,7 +282,7 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
                 score = 0.0
                 out = max(0.0, bounds.x0 - x0) + max(0.0, x1 - bounds.x1) + \
                     max(0.0, bounds.y0 - y0) + max(0.0, y1 - bounds.y1)
-                score += 50.0 * out
+                score += 50.0 * out + (3000.0 if out > 0 else 0.0)
                 if len(ink):
                     inside = (ink[:, 0] > x0) & (ink[:, 0] < x1) & (ink[:, 1] > y0) & (ink[:, 1] < y1)
                     score += 4.0 * float(np.count_nonzero(inside))
@@ -235,7 +292,7 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
                 for (tx0, ty0, tx1, ty1) in taken:
                     ox = max(0.0, min(x1, tx1) - max(x0, tx0))
                     oy = max(0.0, min(y1, ty1) - max(y0, ty0))
-                    score += 5.0 * ox * oy / px_per_pt
+                    score += 5.0 * ox * oy / px_per_pt + (2000.0 if ox * oy > 0 else 0.0)
                 score += 0.6 * radius + 0.5 * k  # near and in the usual places first
                 if best_score is None or score < best_score:
                     best_score, best = score, (dx, dy, (x0, y0, x1, y1))
@@ -284,13 +341,31 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     >>> matplotlib.image.imread(out).shape[:2]
     (300, 400)
     """
+    picture_format(path)
+    return figure_bytes(profile_figure(revolution, measurement, units=units, title=title,
+                                       density_label=density_label, width=width, height=height,
+                                       dpi=dpi), path)
+
+
+def profile_figure(revolution, measurement, *, units, title: Optional[str] = None,
+                   density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                   dpi: int = 100):
+    """The matplotlib ``Figure`` of :func:`profile_picture` (drawn on the Agg canvas).
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> fig = profile_figure(rev, measure(rev), units=part_units("mm"))
+    >>> sorted(t.get_text() for t in fig.axes[0].texts if t.get_text().startswith("Ø"))
+    ['Ø2 mm', 'Ø6 mm']
+    """
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.lines import Line2D
     from matplotlib.patches import Patch
 
     from revolve.geometry.checks import prepare
 
-    picture_format(path)
     m, u = measurement, _Shown(units, revolution.profile.unit)
     profile, axis = revolution.profile, revolution.axis
     prep = prepare(profile, axis)
@@ -312,14 +387,22 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     caption = _caption_lines(m, u, revolution, density_label)
-    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
-    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
-    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
-    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
+    caption_height, top = _frame(fig, title, caption, fs)
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
 
     verts, styles = draw_section(ax, profile, prep, flat, axis)
+
+    # Legend of faces, outside the drawing on the right.
+    handles = [Line2D([], [], color=c, linestyle=s, lw=2.4) for c, s in styles.values()]
+    chain_only = _chain_faces(profile) - _loop_faces(profile)
+    labels = [f"{n} (surface only)" if n in chain_only else n for n in styles]
+    if verts:
+        handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
+        labels.append("section")
+    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=AXIS_DASHES))
+    labels.append("axis of revolution")
+    _legend_beside(fig, ax, handles, labels, top, fs, handlelength=2.6)
 
     # The part in the axis frame: z along the axis, r from it.
     z_all, r_all = (allpts - origin) @ along, (allpts - origin) @ towards
@@ -433,24 +516,21 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
                       "from the axis", p))
     _place_labels(fig, ax, marks, np.vstack(ink), fs, dpi)
 
-    # Legend of faces, outside the drawing on the right.
-    handles = [Line2D([], [], color=c, linestyle=s, lw=2.4) for c, s in styles.values()]
-    chain_only = _chain_faces(profile) - _loop_faces(profile)
-    labels = [f"{n} (surface only)" if n in chain_only else n for n in styles]
-    if verts:
-        handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
-        labels.append("section")
-    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=AXIS_DASHES))
-    labels.append("axis of revolution")
-    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01), frameon=False,
-               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
-               ncols=1 if len(labels) <= 24 else 2, handlelength=2.6)
-    if title:
-        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
-                 fontweight="bold", va="top", ha="left")
-    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
-             linespacing=1.45, color="#222222")
-    return figure_bytes(fig, path)
+    return fig
+
+
+def _legend_beside(fig, ax, handles, labels, top: float, fs: float, **options):
+    """The faces' legend at the top right, inside the picture; the drawing ``ax`` ends left of it."""
+    legend = fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01),
+                        frameon=False, fontsize=fs * 0.95, title="faces", title_fontsize=fs,
+                        alignment="left", ncols=1 if len(labels) <= 24 else 2, **options)
+    width = fig.get_size_inches()[0] * fig.dpi
+    box = legend.get_window_extent(fig.canvas.get_renderer())
+    left = min(0.77, max(0.45, (0.985 * width - box.width) / width))
+    legend.set_bbox_to_anchor((left, top - 0.01), transform=fig.transFigure)
+    pos = ax.get_position()
+    ax.set_position([pos.x0, pos.y0, left - 0.02 - pos.x0, pos.height])
+    return legend
 
 
 def _chain_faces(profile) -> set:
@@ -618,13 +698,33 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     >>> data.lstrip().startswith(b"<?xml"), mesh.closed
     (True, True)
     """
+    picture_format(path)
+    fig, mesh = solid_figure(revolution, measurement, units=units, title=title,
+                             density_label=density_label, width=width, height=height, dpi=dpi,
+                             tolerance=tolerance, elevation=elevation, azimuth=azimuth)
+    return figure_bytes(fig, path), mesh
+
+
+def solid_figure(revolution, measurement, *, units, title: Optional[str] = None,
+                 density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                 dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
+                 azimuth: float = -58.0):
+    """The matplotlib ``Figure`` of :func:`solid_picture` and the mesh drawn.
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> fig, mesh = solid_figure(rev, measure(rev), units=part_units("mm"), width=400, height=300)
+    >>> len(fig.axes[0].collections)   # the triangles (one collection) and the centre line
+    2
+    """
     from matplotlib.collections import LineCollection, PolyCollection
     from matplotlib.colors import to_rgb
     from matplotlib.patches import Patch
 
     from revolve.geometry.mesh import CUT_FACE_END, CUT_FACE_START
 
-    picture_format(path)
     mesh = picture_mesh(revolution, tolerance)
     m, u = measurement, _Shown(units, revolution.profile.unit)
     # Sketch (x, y, z) -> picture (x, -z, y): the sketch plane stands facing the viewer.
@@ -670,14 +770,19 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     extra = [f"drawn from a mesh of {group_digits(str(len(mesh.triangles)))} triangles "
              f"(chord tolerance {fmt(mesh.tolerance * u.length_factor, 3)} {u.length})"]
     caption = _caption_lines(m, u, revolution, density_label, extra)
-    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
-    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
-    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
-    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
+    caption_height, top = _frame(fig, title, caption, fs)
     ax = fig.add_axes([0.03, caption_height + 0.02, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
     ax.add_collection(PolyCollection(flat, facecolors=rgb, edgecolors=rgb, linewidths=0.5,
                                      antialiaseds=False, zorder=1))
+
+    used = {names[k] for k in np.unique(mesh.face_of)}
+    handles = [Patch(facecolor=styles[n][0]) for n in styles if n in used]
+    labels = [n for n in styles if n in used]
+    if any(n in (CUT_FACE_START, CUT_FACE_END) for n in names):
+        handles.append(Patch(facecolor=CUT_FACE_COLOUR))
+        labels.append("cut faces")
+    _legend_beside(fig, ax, handles, labels, top, fs)
 
     # The axis of revolution, a centre line a little longer than the part, over the part
     # as on a drawing.
@@ -699,18 +804,4 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     ax.set_ylim(mid[1] - vh / 2, mid[1] + vh / 2)
     ax.set_aspect("equal", adjustable="box")
 
-    used = {names[k] for k in np.unique(mesh.face_of)}
-    handles = [Patch(facecolor=styles[n][0]) for n in styles if n in used]
-    labels = [n for n in styles if n in used]
-    if any(n in (CUT_FACE_START, CUT_FACE_END) for n in names):
-        handles.append(Patch(facecolor=CUT_FACE_COLOUR))
-        labels.append("cut faces")
-    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.78, top - 0.01), frameon=False,
-               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
-               ncols=1 if len(labels) <= 24 else 2)
-    if title:
-        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
-                 fontweight="bold", va="top", ha="left")
-    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
-             linespacing=1.45, color="#222222")
-    return figure_bytes(fig, path), mesh
+    return fig, mesh

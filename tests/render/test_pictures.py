@@ -20,6 +20,7 @@ import matplotlib.image
 import numpy as np
 import pytest
 from matplotlib import colormaps
+from matplotlib.text import Text
 
 import revolve
 from revolve.render import pictures
@@ -112,3 +113,91 @@ def test_bundled_solids_draw(name, angle):
     result = revolve.measure(str(ROOT / "profiles" / name), angle=angle)
     img = _solid_png(result)
     assert img.shape[:2] == (600, 900)
+
+
+# -- labels: none overlaps another, none leaves the canvas -------------------------------
+
+PROFILES = sorted((ROOT / "profiles").glob("*.toml")) + sorted((ROOT / "profiles").glob("*.txt"))
+
+
+def _text_boxes(fig):
+    """Every non-empty text artist's box in pixels, after drawing (matplotlib's own layout)."""
+    fig.canvas.draw()
+    renderer = fig.canvas.get_renderer()
+    texts = list(fig.texts)
+    for ax in fig.axes:
+        texts += list(ax.texts)
+    for legend in fig.legends:
+        texts += list(legend.get_texts()) + [legend.get_title()]
+    boxes = []
+    for t in texts:
+        if t.get_visible() and t.get_text().strip():
+            # The text's own box (an annotation's would include its leader line).
+            e = Text.get_window_extent(t, renderer)
+            boxes.append((t.get_text(), e.x0, e.y0, e.x1, e.y1))
+    return boxes
+
+
+def _assert_clear(fig):
+    width, height = fig.get_size_inches() * fig.dpi
+    boxes = _text_boxes(fig)
+    assert boxes
+    for text, x0, y0, x1, y1 in boxes:
+        assert x0 >= 0 and y0 >= 0 and x1 <= width + 0.5 and y1 <= height + 0.5, (text, x0, y0, x1, y1)
+    for i, a in enumerate(boxes):
+        for b in boxes[i + 1:]:
+            overlap = min(a[3], b[3]) - max(a[1], b[1]) > 0 and min(a[4], b[4]) - max(a[2], b[2]) > 0
+            assert not overlap, (a, b)
+
+
+def _measure(path):
+    return revolve.measure(str(path), units="mm" if path.suffix == ".txt" else None)
+
+
+@pytest.mark.parametrize("size", [(1200, 800, 100), (500, 360, 100), (1600, 1000, 150)])
+@pytest.mark.parametrize("path", PROFILES, ids=lambda p: p.name)
+def test_profile_labels_do_not_overlap_or_leave_the_picture(path, size):
+    result = _measure(path)
+    w, h, dpi = size
+    fig = pictures.profile_figure(result.revolution, result.measurement, units=result.units,
+                                  title=result.document.name if hasattr(result, "document") else path.stem,
+                                  density_label=None, width=w, height=h, dpi=dpi)
+    _assert_clear(fig)
+
+
+@pytest.mark.parametrize("path", PROFILES[:4], ids=lambda p: p.name)
+def test_solid_labels_do_not_overlap_or_leave_the_picture(path):
+    result = _measure(path)
+    fig, _ = pictures.solid_figure(result.revolution, result.measurement, units=result.units,
+                                   title="A title long enough to need more than one line in a "
+                                         "narrow picture of a revolved part", width=500, height=360)
+    _assert_clear(fig)
+
+
+def test_a_long_title_is_wrapped_inside_the_picture(tmp_path):
+    result = _measured(tmp_path, TUBE)
+    title = "A very long title " * 8
+    fig = pictures.profile_figure(result.revolution, result.measurement, units=result.units,
+                                  title=title, width=600, height=400)
+    _assert_clear(fig)
+    heading = [t for t in fig.texts if t.get_text().startswith("A very")][0]
+    assert heading.get_text().count("\n") >= 1
+
+
+def test_diameters_are_dimensioned_across_the_axis(tmp_path):
+    # Tube of bore radius 10 mm and outside radius 16 mm, 120 mm long (the file above):
+    # a diameter is twice the radius (Ø, common practice in machine drawing, no source).
+    result = _measured(tmp_path, TUBE)
+    fig = pictures.profile_figure(result.revolution, result.measurement, units=result.units)
+    texts = {t.get_text() for t in fig.axes[0].texts}
+    assert {"Ø32 mm", "Ø20 mm", "120 mm"} <= texts
+    assert not any(t == "6 mm" for t in texts)       # no radial extent where a diameter is read
+
+
+def test_a_face_on_the_axis_is_not_in_the_legend():
+    result = revolve.measure(str(ROOT / "profiles" / "vessel-rainwater-tank.toml"))
+    fig = pictures.profile_figure(result.revolution, result.measurement, units=result.units)
+    legend = [t.get_text() for t in fig.legends[0].get_texts()]
+    # "other" is the closing line along the axis: it sweeps no surface (zero area by Pappus).
+    assert result.measurement.surface_by_face.get("other", 0.0) == 0.0
+    assert "other" not in legend and "shell" in legend
