@@ -88,11 +88,16 @@ def test_every_example_profile_picture(path, tmp_path, capsys):
     assert "wrote" in out
     img = matplotlib.image.imread(str(png))
     assert img.shape[:2] == (800, 1200)                  # default 1200 × 800 px
-    # Face k is drawn in tab10's colour k (matplotlib's default cycle): every face shows.
+    # Face k is drawn in tab10's colour k (matplotlib's default cycle): every face that sweeps
+    # a surface shows (a face lying on the axis sweeps none: Pappus, zero mean radius).
+    import revolve
     from revolve.formats import load_profile
     faces = load_profile(str(path)).profile.faces()
+    swept = revolve.measure(str(path), units="mm" if path.suffix == ".txt" else None) \
+        .measurement.surface_by_face
     tab10 = colormaps["tab10"].colors
-    assert all(colours_present(png, tab10[:min(len(faces), 10)]))
+    expected = [tab10[k] for k, face in enumerate(faces[:10]) if swept.get(face, 0.0) > 0.0]
+    assert expected and all(colours_present(png, expected))
 
 
 @pytest.mark.parametrize("path", PROFILES[:3], ids=lambda p: p.name)
