@@ -45,16 +45,7 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     part = measure_document(doc, axis=parse_axis(axis) if isinstance(axis, str) else axis,
                             angle=angle, density=dens, density_label=label)
     rev, m = part.revolution, part.measurement
-    if getattr(doc, "section", "material") == "space":
-        # A vessel's liquid space: the vessel trade's units (litres, m²), as level tables show.
-        from revolve.jobs.results import trade_units
-
-        given = {"length": length_unit, "area": area_unit, "volume": volume_unit, "mass": mass_unit}
-        u = trade_units("vessel", doc.profile.unit,
-                        {role: unit for role, unit in given.items() if unit is not None},
-                        options={role: f"--{role}-unit" for role in given})
-    else:
-        u = part_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
+    u = picture_units(doc, length_unit, area_unit, volume_unit, mass_unit)
     title = doc.name or os.path.basename(doc.file or "profile")
 
     from revolve.render import output as render, pictures
@@ -86,6 +77,33 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     render.show(Result("picture", u, {"profile": doc.file, "output": output}, (),
                        (f"wrote {output} ({detail}, {size_text})",), cautions))
     return 0
+
+
+def picture_units(doc, length: Optional[str] = None, area: Optional[str] = None,
+                  volume: Optional[str] = None, mass: Optional[str] = None):
+    """The units a picture shows: a part's (its drawing's unit), or for a vessel's liquid space
+    (``section = "space"``) the vessel trade's (litres, m²), as level tables show; the user's
+    options over either.
+
+    >>> from types import SimpleNamespace
+    >>> from revolve.geometry.profile import Profile
+    >>> tank = SimpleNamespace(profile=Profile(unit="mm"), section="space")
+    >>> picture_units(tank).unit("volume"), picture_units(tank, volume="m3").unit("volume")
+    ('L', 'm³')
+    >>> part = SimpleNamespace(profile=Profile(unit="mm"), section="material")
+    >>> picture_units(part).unit("volume")
+    'mm³'
+    """
+    from revolve.jobs.measuring import part_units
+
+    if getattr(doc, "section", "material") != "space":
+        return part_units(doc.profile.unit, length, area, volume, mass)
+    from revolve.jobs.results import trade_units
+
+    given = {"length": length, "area": area, "volume": volume, "mass": mass}
+    return trade_units("vessel", doc.profile.unit,
+                       {role: unit for role, unit in given.items() if unit is not None},
+                       options={role: f"--{role}-unit" for role in given})
 
 
 def register(app: typer.Typer) -> None:
