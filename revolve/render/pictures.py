@@ -4,11 +4,18 @@
 section filled and hatched, every face in its own colour with a legend, the
 axis as a centre line (long dash, short dash), the section centroid and the
 boundary centroid marked and labelled with their distances from the axis,
-the bounding box dimensioned, and the key results in a caption.
+the length along the axis and the diameters (Ø) across it dimensioned as a
+machinist reads them, and the key results in a caption. Titles and captions are
+wrapped by their measured width, the legend kept inside the picture, and the
+centroid labels placed clear of every other text.
 
 :func:`solid_picture` draws the revolved solid in 3-D (shaded triangles of
 :func:`revolve.geometry.mesh.revolve_mesh`, faces in the same colours); a
-partial revolution is shown open, its cut faces in the section's grey.
+partial revolution is shown open, its cut faces in the section's grey. It
+projects the triangles itself (orthographic), leaves out back faces of a closed
+solid, cuts long triangles small (:func:`split_long_triangles`) and paints them
+far to near in one collection (:func:`painter_order`), so a bore or groove never
+shows through the surface in front of it.
 
 matplotlib is imported inside the functions (never at start-up) and only its
 object interface is used (``Figure`` with the Agg canvas), so no global

@@ -2,7 +2,7 @@
 
 The file name's ending chooses the format (``.png`` or ``.svg``). The
 profile picture shows the section, the axis, both centroids, the faces in
-colour, the bounding-box dimensions and the key results; the 3-D picture
+colour, the length along the axis and the diameters (Ø) across it, and the key results; the 3-D picture
 shows the solid shaded, a partial revolution open (drawn by
 :mod:`revolve.render.pictures`). Nothing is written when the input is
 refused, and an existing file is replaced only with ``--force``.
