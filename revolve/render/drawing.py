@@ -60,12 +60,15 @@ def _loop_polygon(pieces: List[np.ndarray]) -> np.ndarray:
     return np.vstack([p[:-1] for p in pieces])
 
 
-def draw_section(ax, profile, prep, flat):
+def draw_section(ax, profile, prep, flat, axis=None):
     """Draw the section (filled, hatched) and every face in its colour on ``ax``.
 
     ``prep`` is the profile's :func:`~revolve.geometry.checks.prepare` and
-    ``flat`` its :func:`sketch_paths`. Returns the section's outline vertices
-    (empty for chains only) and the face styles, for a legend.
+    ``flat`` its :func:`sketch_paths`. With the ``axis`` given, a face lying
+    on the axis (it sweeps no surface, such as the closing line of a vessel's
+    liquid space) is drawn as a thin grey edge and left out of the styles.
+    Returns the section's outline vertices (empty for chains only) and the
+    face styles, for a legend; each face's line is labelled with its name.
 
     >>> from matplotlib.figure import Figure
     >>> from revolve.geometry.checks import prepare
@@ -102,16 +105,43 @@ def draw_section(ax, profile, prep, flat):
     styles = face_styles(profile.faces())
     strokes: Dict[Tuple[str, bool], List[np.ndarray]] = {}
     gap_row = np.full((1, 2), np.nan)
+    on_axis = _on_axis_test(axis, prep.size)
     for path_pieces, p in zip(flat, profile.paths):
         for pts, seg in zip(path_pieces, p.segments):
-            strokes.setdefault((seg.face or UNNAMED_FACE, p.closed), []).extend([pts, gap_row])
+            face = seg.face or UNNAMED_FACE
+            key = (None if on_axis(pts) else face, p.closed)
+            strokes.setdefault(key, []).extend([pts, gap_row])
+    drawn = set()
     for (face, closed), parts in strokes.items():
-        colour, style = styles[face]
         line = np.vstack(parts[:-1])
+        if face is None:   # on the axis: an edge of the section, no surface
+            ax.plot(line[:, 0], line[:, 1], color=SECTION_HATCH, lw=1.0, zorder=2.5,
+                    label="_on the axis")
+            continue
+        colour, style = styles[face]
+        drawn.add(face)
         ax.plot(line[:, 0], line[:, 1], color=colour, linestyle=style, lw=2.2 if closed else 3.0,
-                solid_capstyle="round", solid_joinstyle="round", zorder=3)
+                solid_capstyle="round", solid_joinstyle="round", zorder=3, label=face)
 
-    return verts, styles
+    return verts, {name: s for name, s in styles.items() if name in drawn}
+
+
+def _on_axis_test(axis, size: float):
+    """A test of flattened points: do they all lie on ``axis`` (within 1e-9 of the size)?
+
+    >>> from revolve.geometry.profile import Axis
+    >>> test = _on_axis_test(Axis.x(), 1.0)
+    >>> test(np.array([[0.0, 0.0], [2.0, 0.0]])), test(np.array([[0.0, 0.0], [2.0, 1.0]]))
+    (True, False)
+    >>> _on_axis_test(None, 1.0)(np.zeros((2, 2)))
+    False
+    """
+    if axis is None:
+        return lambda pts: False
+    ux, uy = axis.unit_direction()
+    normal = np.array([-uy, ux])
+    origin = np.array([float(axis.point[0]), float(axis.point[1])])
+    return lambda pts: bool(np.all(np.abs((pts - origin) @ normal) <= 1e-9 * size))
 
 
 def draw(profile_or_result, ax=None, *, axis=None, angle=None, units=None):
@@ -165,11 +195,7 @@ def draw(profile_or_result, ax=None, *, axis=None, angle=None, units=None):
     profile, line = revolution.profile, revolution.axis
     prep = prepare(profile, line)
     flat = sketch_paths(profile, prep.size)
-    before = len(ax.lines)
-    draw_section(ax, profile, prep, flat)
-    faces = iter(key for key in _face_keys(profile))
-    for drawn in ax.lines[before:]:
-        drawn.set_label(next(faces))
+    draw_section(ax, profile, prep, flat, line)
     points = np.vstack([q for pieces in flat for q in pieces])
     lo, hi = points.min(axis=0), points.max(axis=0)
     along = np.array(line.unit_direction())
@@ -184,13 +210,3 @@ def draw(profile_or_result, ax=None, *, axis=None, angle=None, units=None):
     ax.autoscale_view()
     return ax
 
-
-def _face_keys(profile):
-    """The face names in the order :func:`draw_section` draws their lines."""
-    from revolve.geometry.profile import UNNAMED_FACE
-
-    seen = {}
-    for p in profile.paths:
-        for seg in p.segments:
-            seen.setdefault((seg.face or UNNAMED_FACE, p.closed), None)
-    return [face for face, _ in seen]

@@ -4,11 +4,18 @@
 section filled and hatched, every face in its own colour with a legend, the
 axis as a centre line (long dash, short dash), the section centroid and the
 boundary centroid marked and labelled with their distances from the axis,
-the bounding box dimensioned, and the key results in a caption.
+the length along the axis and the diameters (Ø) across it dimensioned as a
+machinist reads them, and the key results in a caption. Titles and captions are
+wrapped by their measured width, the legend kept inside the picture, and the
+centroid labels placed clear of every other text.
 
 :func:`solid_picture` draws the revolved solid in 3-D (shaded triangles of
 :func:`revolve.geometry.mesh.revolve_mesh`, faces in the same colours); a
-partial revolution is shown open, its cut faces in the section's grey.
+partial revolution is shown open, its cut faces in the section's grey. It
+projects the triangles itself (orthographic), leaves out back faces of a closed
+solid, cuts long triangles small (:func:`split_long_triangles`) and paints them
+far to near in one collection (:func:`painter_order`), so a bore or groove never
+shows through the surface in front of it.
 
 matplotlib is imported inside the functions (never at start-up) and only its
 object interface is used (``Figure`` with the Agg canvas), so no global
@@ -34,7 +41,6 @@ from __future__ import annotations
 
 import math
 import os
-import textwrap
 from typing import List, Optional, Sequence, Tuple
 
 import numpy as np
@@ -42,7 +48,7 @@ import numpy as np
 from revolve.errors import FormatError, RevolveError
 from revolve.render.drawing import (AXIS_COLOUR, AXIS_DASHES, CUT_FACE_COLOUR, SECTION_FILL,
                                     SECTION_HATCH, draw_section, face_styles, sketch_paths)
-from revolve.render.numbers import number as _number
+from revolve.render.numbers import group_digits, number as _number
 
 #: Picture formats by file name ending.
 FORMATS = {".png": "png", ".svg": "svg"}
@@ -107,6 +113,63 @@ def figure_bytes(fig, path: str) -> bytes:
 
 # -- the profile --------------------------------------------------------------------
 
+def _wrapped(fig, text: str, room: float, **font) -> List[str]:
+    """``text`` cut at spaces into lines no wider than ``room`` pixels as ``font`` draws them.
+
+    A word wider than the room stays on its own line.
+
+    >>> fig = _figure(400, 300, 100)
+    >>> lines = _wrapped(fig, "one two three four five six seven eight nine ten", 120, fontsize=10)
+    >>> len(lines) > 1, " ".join(lines)
+    (True, 'one two three four five six seven eight nine ten')
+    >>> _wrapped(fig, "unbreakable", 5, fontsize=10)
+    ['unbreakable']
+    >>> _wrapped(fig, "", 100, fontsize=10)
+    ['']
+    """
+    from matplotlib.backends.backend_agg import FigureCanvasAgg
+
+    if fig.canvas is None or not isinstance(fig.canvas, FigureCanvasAgg):
+        FigureCanvasAgg(fig)
+    renderer = fig.canvas.get_renderer()
+    probe = fig.text(0, 0, "", **font)
+    lines: List[str] = []
+    for paragraph in text.split("\n"):
+        line = ""
+        for word in paragraph.split(" "):
+            trial = f"{line} {word}" if line else word
+            probe.set_text(trial)
+            if line and probe.get_window_extent(renderer).width > room:
+                lines.append(line)
+                line = word
+            else:
+                line = trial
+        lines.append(line)
+    probe.remove()
+    return lines
+
+
+def _frame(fig, title: Optional[str], caption: Sequence[str], fs: float) -> Tuple[float, float]:
+    """Write the title (top) and the caption (bottom), each wrapped to the picture's width.
+
+    Returns the caption's top and the title's bottom as fractions of the
+    figure's height: the drawing goes between them.
+    """
+    width, height = fig.get_size_inches() * fig.dpi
+    room = width * 0.94
+    px = fig.dpi / 72.0
+    lines = [w for line in caption for w in _wrapped(fig, line, room, fontsize=fs)]
+    fig.text(0.03, 0.02, "\n".join(lines), fontsize=fs, va="bottom", ha="left",
+             linespacing=1.45, color="#222222")
+    caption_top = 0.02 + (len(lines) * fs * 1.45 + 0.6 * fs) * px / height
+    if not title:
+        return caption_top, 0.97
+    heading = _wrapped(fig, title, room, fontsize=fs * 1.35, fontweight="bold")
+    fig.text(0.03, 1.0 - 0.9 * fs * px / height, "\n".join(heading), fontsize=fs * 1.35,
+             fontweight="bold", va="top", ha="left", linespacing=1.2)
+    return caption_top, 1.0 - (0.9 + len(heading) * 1.35 * 1.2 * 1.2 + 0.3) * fs * px / height
+
+
 def _caption_lines(m, u, revolution, density_label: Optional[str], extra: Sequence[str] = ()) -> List[str]:
     f = fmt
     first = [f"revolved {float(revolution.angle_degrees):g}° about {_axis_text(revolution.axis)}"]
@@ -143,26 +206,40 @@ def _axis_text(axis) -> str:
             f"along ({fmt(d[0], 4)}, {fmt(d[1], 4)})")
 
 
-def _dimension(ax, a, b, offset_dir, gap, text, colour="#333333", fontsize=9):
-    """A dimension line between points a and b, moved by ``gap`` along ``offset_dir``.
+def _dimension(ax, feature_a, feature_b, line_a, line_b, text, arrows, gap, colour="#333333",
+               fontsize=9):
+    """A dimension line from ``line_a`` to ``line_b`` with extension lines from the features.
 
-    Returns sample points of the ink it put down (for placing labels clear of it).
+    ``feature_b`` may be None (a diameter drawn from the axis: one extension
+    line, one arrowhead at ``line_b``). The text sits on the line's middle,
+    turned along it and kept upright. Returns sample points of the ink it put
+    down (for placing labels clear of it).
     """
-    a, b, o = np.asarray(a, float), np.asarray(b, float), np.asarray(offset_dir, float)
-    pa, pb = a + o * gap, b + o * gap
+    la, lb = np.asarray(line_a, float), np.asarray(line_b, float)
     ink = []
-    for p, q in ((a, pa), (b, pb)):  # extension lines, starting a little off the part
-        e0, e1 = p + o * gap * 0.15, q + o * gap * 0.25
+    for f, q in ((feature_a, la), (feature_b, lb)):
+        if f is None:
+            continue
+        f = np.asarray(f, float)
+        if arrows == "-|>":   # a diameter: the extension line ends at the line's far end
+            q = lb
+        d = q - f
+        n = np.linalg.norm(d)
+        if n <= 1e-12 * (gap or 1.0):
+            continue
+        e0, e1 = f + d / n * min(0.15 * gap, 0.3 * n), q + d / n * 0.25 * gap
         ax.plot([e0[0], e1[0]], [e0[1], e1[1]], color=colour, lw=0.6, zorder=4)
-        ink.append(np.linspace(e0, e1, 12))
-    ax.annotate("", xy=pb, xytext=pa, zorder=4,
-                arrowprops=dict(arrowstyle="<|-|>", color=colour, lw=0.8, shrinkA=0, shrinkB=0,
+        ink.append(np.linspace(e0, e1, 24))
+    ax.annotate("", xy=lb, xytext=la, zorder=4,
+                arrowprops=dict(arrowstyle=arrows, color=colour, lw=0.8, shrinkA=0, shrinkB=0,
                                 mutation_scale=9))
-    ink.append(np.linspace(pa, pb, 60))
-    mid = (pa + pb) / 2
-    vertical = abs(b[1] - a[1]) > abs(b[0] - a[0])
-    ax.text(mid[0], mid[1], text, rotation=90 if vertical else 0, ha="center", va="center",
-            fontsize=fontsize, color=colour, zorder=5,
+    ink.append(np.linspace(la, lb, 60))
+    mid = (la + lb) / 2
+    angle = math.degrees(math.atan2(lb[1] - la[1], lb[0] - la[0]))
+    if angle > 90.5 or angle <= -89.5:
+        angle -= 180.0 * np.sign(angle) if angle != 0 else 0.0
+    ax.text(mid[0], mid[1], text, rotation=angle, rotation_mode="anchor", ha="center",
+            va="center", fontsize=fontsize, color=colour, zorder=5,
             bbox=dict(boxstyle="round,pad=0.2", fc="white", ec="none"))
     return np.vstack(ink)
 
@@ -192,6 +269,10 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
     ink = to_px(ink_data) if len(ink_data) else np.zeros((0, 2))
     bounds = ax.get_window_extent(renderer)
     taken: List[Tuple[float, float, float, float]] = []
+    for drawn in ax.texts:   # dimensions and the axis's name are obstacles too
+        if drawn.get_text().strip():
+            e = drawn.get_window_extent(renderer)
+            taken.append((e.x0 - 3, e.y0 - 3, e.x1 + 3, e.y1 + 3))
     px_per_pt = dpi / 72.0
     marks_px = [to_px(np.asarray(p, float)[None])[0] for _, p in marks]
     angles = np.radians([45, 135, -45, -135, 90, -90, 0, 180, 22, 158, -22, -158, 68, 112, -68, -112])
@@ -211,7 +292,7 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
                 score = 0.0
                 out = max(0.0, bounds.x0 - x0) + max(0.0, x1 - bounds.x1) + \
                     max(0.0, bounds.y0 - y0) + max(0.0, y1 - bounds.y1)
-                score += 50.0 * out
+                score += 50.0 * out + (3000.0 if out > 0 else 0.0)
                 if len(ink):
                     inside = (ink[:, 0] > x0) & (ink[:, 0] < x1) & (ink[:, 1] > y0) & (ink[:, 1] < y1)
                     score += 4.0 * float(np.count_nonzero(inside))
@@ -221,7 +302,7 @@ def _place_labels(fig, ax, marks, ink_data: np.ndarray, fontsize: float, dpi: in
                 for (tx0, ty0, tx1, ty1) in taken:
                     ox = max(0.0, min(x1, tx1) - max(x0, tx0))
                     oy = max(0.0, min(y1, ty1) - max(y0, ty0))
-                    score += 5.0 * ox * oy / px_per_pt
+                    score += 5.0 * ox * oy / px_per_pt + (2000.0 if ox * oy > 0 else 0.0)
                 score += 0.6 * radius + 0.5 * k  # near and in the usual places first
                 if best_score is None or score < best_score:
                     best_score, best = score, (dx, dy, (x0, y0, x1, y1))
@@ -270,13 +351,31 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     >>> matplotlib.image.imread(out).shape[:2]
     (300, 400)
     """
+    picture_format(path)
+    return figure_bytes(profile_figure(revolution, measurement, units=units, title=title,
+                                       density_label=density_label, width=width, height=height,
+                                       dpi=dpi), path)
+
+
+def profile_figure(revolution, measurement, *, units, title: Optional[str] = None,
+                   density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                   dpi: int = 100):
+    """The matplotlib ``Figure`` of :func:`profile_picture` (drawn on the Agg canvas).
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> fig = profile_figure(rev, measure(rev), units=part_units("mm"))
+    >>> sorted(t.get_text() for t in fig.axes[0].texts if t.get_text().startswith("Ø"))
+    ['Ø2 mm', 'Ø6 mm']
+    """
     from matplotlib.backends.backend_agg import FigureCanvasAgg
     from matplotlib.lines import Line2D
     from matplotlib.patches import Patch
 
     from revolve.geometry.checks import prepare
 
-    picture_format(path)
     m, u = measurement, _Shown(units, revolution.profile.unit)
     profile, axis = revolution.profile, revolution.axis
     prep = prepare(profile, axis)
@@ -298,43 +397,66 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     caption = _caption_lines(m, u, revolution, density_label)
-    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
-    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
-    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
-    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
+    caption_height, top = _frame(fig, title, caption, fs)
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
 
-    verts, styles = draw_section(ax, profile, prep, flat)
+    verts, styles = draw_section(ax, profile, prep, flat, axis)
+
+    # Legend of faces, outside the drawing on the right.
+    handles = [Line2D([], [], color=c, linestyle=s, lw=2.4) for c, s in styles.values()]
+    chain_only = _chain_faces(profile) - _loop_faces(profile)
+    labels = [f"{n} (surface only)" if n in chain_only else n for n in styles]
+    if verts:
+        handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
+        labels.append("section")
+    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=AXIS_DASHES))
+    labels.append("axis of revolution")
+    _legend_beside(fig, ax, handles, labels, top, fs, handlelength=2.6)
+
+    # The part in the axis frame: z along the axis, r from it.
+    z_all, r_all = (allpts - origin) @ along, (allpts - origin) @ towards
+    z0, z1, r0, r1 = float(z_all.min()), float(z_all.max()), float(r_all.min()), float(r_all.max())
+    at = lambda z, r: origin + z * along + r * towards  # noqa: E731
+    near = 1e-9 * size
+    gap = 0.09 * max(z1 - z0, r1 - (0.0 if show_axis else r0), 1e-12 * size)
+    # Dimensions as a machinist reads them: the length along the axis; diameters (Ø) across it
+    # when the axis is in the picture, else the radial extent (the diameters go in the caption).
+    dims = []   # (feature a, feature b, line a, line b, text, arrows)
+    if z1 - z0 > 1e-12 * size:
+        fa = allpts[np.argmax(np.where(np.abs(z_all - z0) <= near * 10, r_all, -np.inf))]
+        fb = allpts[np.argmax(np.where(np.abs(z_all - z1) <= near * 10, r_all, -np.inf))]
+        dims.append((fa, fb, at(z0, r1 + gap), at(z1, r1 + gap),
+                     f"{fmt((z1 - z0) * L, 5)} {u.length}", "<|-|>"))
+    solid_bore = r0 > 1e-6 * size
+    if show_axis:
+        if r1 > 1e-12 * size:
+            f = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
+            dims.append((f, None, at(z1 + gap, 0.0), at(z1 + gap, r1),
+                         f"Ø{fmt(2 * r1 * L, 5)} {u.length}", "-|>"))
+        if solid_bore:
+            f = allpts[np.argmin(np.where(np.abs(r_all - r0) <= near * 10, z_all, np.inf))]
+            dims.append((f, None, at(z0 - gap, 0.0), at(z0 - gap, r0),
+                         f"Ø{fmt(2 * r0 * L, 5)} {u.length}", "-|>"))
+    elif r1 - r0 > 1e-12 * size:
+        fa = allpts[np.argmax(np.where(np.abs(r_all - r0) <= near * 10, z_all, -np.inf))]
+        fb = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
+        dims.append((fa, fb, at(z1 + gap, r0), at(z1 + gap, r1),
+                     f"{fmt((r1 - r0) * L, 5)} {u.length}", "<|-|>"))
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
-    view_lo, view_hi = lo.copy(), hi.copy()
+    view_pts = [allpts] + [np.array([d[2], d[3]]) for d in dims]
     if show_axis:
-        corners = np.array([[lo[0], lo[1]], [lo[0], hi[1]], [hi[0], lo[1]], [hi[0], hi[1]]])
-        feet = origin + ((corners - origin) @ along)[:, None] * along
-        view_lo = np.minimum(view_lo, feet.min(axis=0))
-        view_hi = np.maximum(view_hi, feet.max(axis=0))
+        view_pts.append(np.array([at(z0 - 1.4 * gap, 0.0), at(z1 + 1.4 * gap, 0.0)]))
     else:
         reach = float(np.max(np.abs((allpts - centre) @ towards)))
         arrow_start = centre - towards * (reach + 0.12 * size)
         arrow_end = arrow_start - towards * 0.15 * size
-        view_lo = np.minimum(view_lo, np.minimum(arrow_start, arrow_end) - 0.1 * size)
-        view_hi = np.maximum(view_hi, np.maximum(arrow_start, arrow_end) + 0.1 * size)
+        view_pts.append(np.array([arrow_start, arrow_end]))
+    every = np.vstack(view_pts)
+    view_lo, view_hi = every.min(axis=0), every.max(axis=0)
     span = float(np.max(view_hi - view_lo)) or size
-    gap = 0.07 * span
-    up = 1.0 if towards[1] >= -1e-12 else -1.0      # dimensions go on the side away from the axis
-    right = 1.0 if towards[0] >= -1e-12 else -1.0
-    y_dim = hi[1] if up > 0 else lo[1]
-    x_dim = hi[0] if right > 0 else lo[0]
-    view_lo, view_hi = view_lo - 0.06 * span, view_hi + 0.06 * span
-    if up > 0:
-        view_hi[1] = max(view_hi[1], y_dim + 1.6 * gap)
-    else:
-        view_lo[1] = min(view_lo[1], y_dim - 1.6 * gap)
-    if right > 0:
-        view_hi[0] = max(view_hi[0], x_dim + 1.6 * gap)
-    else:
-        view_lo[0] = min(view_lo[0], x_dim - 1.6 * gap)
+    view_lo, view_hi = view_lo - 0.07 * span, view_hi + 0.07 * span
     # Widen the view to the axes' own shape so that equal scales need no other change.
     box_w = ax.get_position().width * width
     box_h = ax.get_position().height * height
@@ -351,12 +473,8 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
 
     ink = [_resample(np.vstack([p[:-1] for p in pieces] + [pieces[-1][-1:]]), span / 400.0)
            for pieces in flat]
-    if hi[0] - lo[0] > 1e-12 * size:
-        ink.append(_dimension(ax, (lo[0], y_dim), (hi[0], y_dim), (0, up), gap,
-                              f"{fmt((hi[0] - lo[0]) * L, 5)} {u.length}", fontsize=fs * 0.95))
-    if hi[1] - lo[1] > 1e-12 * size:
-        ink.append(_dimension(ax, (x_dim, lo[1]), (x_dim, hi[1]), (right, 0), gap,
-                              f"{fmt((hi[1] - lo[1]) * L, 5)} {u.length}", fontsize=fs * 0.95))
+    for fa, fb, la, lb, text, arrows in dims:
+        ink.append(_dimension(ax, fa, fb, la, lb, text, arrows, gap, fontsize=fs * 0.95))
 
     # The axis: a centre line across the view, its direction arrowed and named.
     if show_axis:
@@ -408,24 +526,21 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
                       "from the axis", p))
     _place_labels(fig, ax, marks, np.vstack(ink), fs, dpi)
 
-    # Legend of faces, outside the drawing on the right.
-    handles = [Line2D([], [], color=c, linestyle=s, lw=2.4) for c, s in styles.values()]
-    chain_only = _chain_faces(profile) - _loop_faces(profile)
-    labels = [f"{n} (surface only)" if n in chain_only else n for n in styles]
-    if verts:
-        handles.append(Patch(facecolor=SECTION_FILL, edgecolor=SECTION_HATCH, hatch="////"))
-        labels.append("section")
-    handles.append(Line2D([], [], color=AXIS_COLOUR, lw=1.0, linestyle=AXIS_DASHES))
-    labels.append("axis of revolution")
-    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01), frameon=False,
-               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
-               ncols=1 if len(labels) <= 24 else 2, handlelength=2.6)
-    if title:
-        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
-                 fontweight="bold", va="top", ha="left")
-    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
-             linespacing=1.45, color="#222222")
-    return figure_bytes(fig, path)
+    return fig
+
+
+def _legend_beside(fig, ax, handles, labels, top: float, fs: float, **options):
+    """The faces' legend at the top right, inside the picture; the drawing ``ax`` ends left of it."""
+    legend = fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.77, top - 0.01),
+                        frameon=False, fontsize=fs * 0.95, title="faces", title_fontsize=fs,
+                        alignment="left", ncols=1 if len(labels) <= 24 else 2, **options)
+    width = fig.get_size_inches()[0] * fig.dpi
+    box = legend.get_window_extent(fig.canvas.get_renderer())
+    left = min(0.77, max(0.45, (0.985 * width - box.width) / width))
+    legend.set_bbox_to_anchor((left, top - 0.01), transform=fig.transFigure)
+    pos = ax.get_position()
+    ax.set_position([pos.x0, pos.y0, left - 0.02 - pos.x0, pos.height])
+    return legend
 
 
 def _chain_faces(profile) -> set:
@@ -498,6 +613,78 @@ def _opening_turn(revolution, turn: np.ndarray, axis_dir: np.ndarray, view: np.n
     return math.atan2(float(np.cross(gap, target) @ axis_dir), float(gap @ target))
 
 
+def view_frame(elevation: float, azimuth: float):
+    """Unit vectors (towards the viewer, right, up) of an orthographic view, in degrees.
+
+    The same convention as matplotlib's ``view_init``: z is up, ``azimuth`` turns
+    about z from +x, ``elevation`` raises the eye above the xy plane.
+
+    >>> [(v.round(12) + 0.0).tolist() for v in view_frame(0.0, 0.0)]
+    [[1.0, 0.0, 0.0], [0.0, 1.0, 0.0], [0.0, 0.0, 1.0]]
+    >>> (view_frame(90.0, 0.0)[0].round(12) + 0.0).tolist()   # looking straight down
+    [0.0, 0.0, 1.0]
+    """
+    e, a = math.radians(elevation), math.radians(azimuth)
+    view = np.array([math.cos(e) * math.cos(a), math.cos(e) * math.sin(a), math.sin(e)])
+    right = np.array([-math.sin(a), math.cos(a), 0.0])
+    up = np.cross(view, right)
+    return view, right, up
+
+
+def split_long_triangles(corners: np.ndarray, longest: float, most: int = 400_000):
+    """Triangles (n, 3, 3) cut in two across their longest edge until no edge exceeds ``longest``.
+
+    A painter's order by one depth per triangle is only right when the
+    triangles are small beside the part: a strip of a bore as long as the part
+    has the depth of its middle. Each cut keeps the triangle's orientation. At
+    most ``most`` triangles come back (the rest stay longer). Returns the
+    triangles and, for each, the index of the triangle it came from.
+
+    >>> t = np.array([[[0.0, 0, 0], [4, 0, 0], [0, 1, 0]]])
+    >>> parts, source = split_long_triangles(t, 1.5)
+    >>> len(parts) > 1, source.tolist() == [0] * len(parts)
+    (True, True)
+    >>> float(np.linalg.norm(parts[:, [1, 2, 0]] - parts, axis=2).max()) <= 1.5
+    True
+    >>> len(split_long_triangles(t[:0], 1.0)[0])   # none
+    0
+    """
+    source = np.arange(len(corners))
+    for _ in range(60):
+        edges = np.linalg.norm(corners[:, [1, 2, 0]] - corners, axis=2)  # edge k: corner k to k+1
+        first = np.argmax(edges, axis=1)
+        cut = edges[np.arange(len(corners)), first] > longest
+        count = int(np.count_nonzero(cut))
+        if count == 0 or len(corners) + count > most:
+            break
+        t = corners[cut]
+        k = first[cut]
+        rows = np.arange(len(t))
+        a, b, c = t[rows, k], t[rows, (k + 1) % 3], t[rows, (k + 2) % 3]
+        m = (a + b) / 2
+        corners = np.concatenate([corners[~cut], np.stack([a, m, c], axis=1),
+                                  np.stack([m, b, c], axis=1)])
+        source = np.concatenate([source[~cut], source[cut], source[cut]])
+    return corners, source
+
+
+def painter_order(corners: np.ndarray, view: np.ndarray) -> np.ndarray:
+    """Indices of triangles (n, 3, 3) from the farthest to the nearest along ``view`` (towards the eye).
+
+    Drawn in this order, nearer triangles cover farther ones (the painter's
+    rule); ties keep their order.
+
+    >>> near = [[0.0, 0, 5], [1, 0, 5], [0, 1, 5]]
+    >>> far = [[0.0, 0, -5], [1, 0, -5], [0, 1, -5]]
+    >>> painter_order(np.array([near, far]), np.array([0.0, 0, 1])).tolist()
+    [1, 0]
+    >>> painter_order(np.zeros((0, 3, 3)), np.array([0.0, 0, 1])).tolist()
+    []
+    """
+    depth = corners.mean(axis=1) @ np.asarray(view, float)
+    return np.argsort(depth, kind="stable")
+
+
 def solid_picture(revolution, measurement, path: str, *, units, title: Optional[str] = None,
                   density_label: Optional[str] = None, width: int = 1200, height: int = 800,
                   dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
@@ -521,21 +708,40 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     >>> data.lstrip().startswith(b"<?xml"), mesh.closed
     (True, True)
     """
-    from matplotlib.patches import Patch
-    from mpl_toolkits.mplot3d.art3d import Line3DCollection, Poly3DCollection
+    picture_format(path)
+    fig, mesh = solid_figure(revolution, measurement, units=units, title=title,
+                             density_label=density_label, width=width, height=height, dpi=dpi,
+                             tolerance=tolerance, elevation=elevation, azimuth=azimuth)
+    return figure_bytes(fig, path), mesh
+
+
+def solid_figure(revolution, measurement, *, units, title: Optional[str] = None,
+                 density_label: Optional[str] = None, width: int = 1200, height: int = 800,
+                 dpi: int = 100, tolerance: Optional[float] = None, elevation: float = 22.0,
+                 azimuth: float = -58.0):
+    """The matplotlib ``Figure`` of :func:`solid_picture` and the mesh drawn.
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> fig, mesh = solid_figure(rev, measure(rev), units=part_units("mm"), width=400, height=300)
+    >>> len(fig.axes[0].collections)   # the triangles (one collection) and the centre line
+    2
+    """
+    from matplotlib.collections import LineCollection, PolyCollection
     from matplotlib.colors import to_rgb
+    from matplotlib.patches import Patch
 
     from revolve.geometry.mesh import CUT_FACE_END, CUT_FACE_START
 
-    picture_format(path)
     mesh = picture_mesh(revolution, tolerance)
     m, u = measurement, _Shown(units, revolution.profile.unit)
     # Sketch (x, y, z) -> picture (x, -z, y): the sketch plane stands facing the viewer.
     turn = np.array([[1.0, 0.0, 0.0], [0.0, 0.0, -1.0], [0.0, 1.0, 0.0]])
     vertices = mesh.vertices @ turn.T
     normals = mesh.normals() @ turn.T
-    e, a = math.radians(elevation), math.radians(azimuth)
-    view = np.array([math.cos(e) * math.cos(a), math.cos(e) * math.sin(a), math.sin(e)])
+    view, right, up = view_frame(elevation, azimuth)
     ux, uy = revolution.axis.unit_direction()
     d3 = turn @ np.array([ux, uy, 0.0])
     p3 = turn @ np.array([float(revolution.axis.point[0]), float(revolution.axis.point[1]), 0.0])
@@ -545,9 +751,7 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
         vertices = p3 + _rotate(vertices - p3, d3, alpha)
         normals = _rotate(normals, d3, alpha)
     corners = vertices[mesh.triangles]
-    right = np.cross(np.array([0.0, 0.0, 1.0]), view)
-    right /= np.linalg.norm(right) or 1.0
-    light = view + 0.6 * np.array([0.0, 0.0, 1.0]) - 0.35 * right
+    light = view + 0.6 * up - 0.35 * right
     light /= np.linalg.norm(light)
     lambert = normals @ light
     if not mesh.closed:  # open surfaces are seen from both sides
@@ -559,45 +763,28 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     base = np.array([to_rgb(styles[n][0]) if n in styles else to_rgb(CUT_FACE_COLOUR) for n in names])
     base = base if len(base) else np.zeros((0, 3))
     rgb = np.clip(base[mesh.face_of] * shade[:, None], 0.0, 1.0) if len(mesh.face_of) else np.zeros((0, 3))
-    # A closed surface never shows the back of a triangle: leaving those out also spares
-    # matplotlib's painter's sort (one depth per triangle) most of its mistakes.
+    # A closed surface never shows the back of a triangle (back faces culled); the rest are
+    # cut small beside the part and drawn far to near, all in one collection.
     front = (normals @ view > 0) if mesh.closed else np.ones(len(corners), dtype=bool)
     corners, rgb = corners[front], rgb[front]
+    lo, hi = vertices.min(axis=0), vertices.max(axis=0)
+    biggest = float((hi - lo).max()) or 1.0
+    corners, source = split_long_triangles(corners, biggest / 30.0)
+    order = painter_order(corners, view)
+    corners, rgb = corners[order], rgb[source[order]]
+    flat = np.stack([corners @ right, corners @ up], axis=-1)
 
     fig = _figure(width, height, dpi)
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
-    extra = [f"drawn from a mesh of {len(mesh.triangles):,} triangles "
-             f"(chord tolerance {mesh.tolerance * u.length_factor:.3g} {u.length})"]
+    extra = [f"drawn from a mesh of {group_digits(str(len(mesh.triangles)))} triangles "
+             f"(chord tolerance {fmt(mesh.tolerance * u.length_factor, 3)} {u.length})"]
     caption = _caption_lines(m, u, revolution, density_label, extra)
-    wrap = max(40, int(width / (fs * dpi / 72.0 * 0.55)))
-    caption = [w for line in caption for w in textwrap.wrap(line, wrap)]
-    caption_height = (len(caption) * fs * 1.45 + fs) / 72.0 * dpi / height
-    top = 1.0 - (2.6 * fs / 72.0 * dpi / height if title else 0.03)
-    ax = fig.add_axes([0.0, caption_height, 0.78, top - caption_height], projection="3d")
-    ax.set_proj_type("ortho")
-    ax.computed_zorder = False  # the centre line is drawn over the part, as on a drawing
-    ax.view_init(elev=elevation, azim=azimuth)
+    caption_height, top = _frame(fig, title, caption, fs)
+    ax = fig.add_axes([0.03, caption_height + 0.02, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
-    poly = Poly3DCollection(corners, facecolors=rgb, edgecolors=rgb, linewidths=0.6, zorder=1)
-    ax.add_collection3d(poly)
-
-    lo, hi = vertices.min(axis=0), vertices.max(axis=0)
-    span = hi - lo
-    biggest = float(span.max()) or 1.0
-    # The axis of revolution, a centre line a little longer than the part.
-    t = (vertices - p3) @ d3
-    ends = p3 + np.outer([t.min() - 0.12 * biggest, t.max() + 0.12 * biggest], d3)
-    ax.add_collection3d(Line3DCollection([ends], colors=AXIS_COLOUR, linewidths=1.0,
-                                         linestyles=[AXIS_DASHES], zorder=3))
-    lo = np.minimum(lo, ends.min(axis=0))
-    hi = np.maximum(hi, ends.max(axis=0))
-    span = np.maximum(hi - lo, 0.02 * biggest)
-    middle = (lo + hi) / 2
-    ax.set_xlim(middle[0] - span[0] / 2, middle[0] + span[0] / 2)
-    ax.set_ylim(middle[1] - span[1] / 2, middle[1] + span[1] / 2)
-    ax.set_zlim(middle[2] - span[2] / 2, middle[2] + span[2] / 2)
-    ax.set_box_aspect(tuple(span), zoom=1.25)
+    ax.add_collection(PolyCollection(flat, facecolors=rgb, edgecolors=rgb, linewidths=0.5,
+                                     antialiaseds=False, zorder=1))
 
     used = {names[k] for k in np.unique(mesh.face_of)}
     handles = [Patch(facecolor=styles[n][0]) for n in styles if n in used]
@@ -605,12 +792,26 @@ def solid_picture(revolution, measurement, path: str, *, units, title: Optional[
     if any(n in (CUT_FACE_START, CUT_FACE_END) for n in names):
         handles.append(Patch(facecolor=CUT_FACE_COLOUR))
         labels.append("cut faces")
-    fig.legend(handles, labels, loc="upper left", bbox_to_anchor=(0.78, top - 0.01), frameon=False,
-               fontsize=fs * 0.95, title="faces", title_fontsize=fs, alignment="left",
-               ncols=1 if len(labels) <= 24 else 2)
-    if title:
-        fig.text(0.03, 1.0 - 0.9 * fs / 72.0 * dpi / height, title, fontsize=fs * 1.35,
-                 fontweight="bold", va="top", ha="left")
-    fig.text(0.03, 0.02, "\n".join(caption), fontsize=fs, va="bottom", ha="left",
-             linespacing=1.45, color="#222222")
-    return figure_bytes(fig, path), mesh
+    _legend_beside(fig, ax, handles, labels, top, fs)
+
+    # The axis of revolution, a centre line a little longer than the part, over the part
+    # as on a drawing.
+    t = (vertices - p3) @ d3
+    ends = p3 + np.outer([t.min() - 0.12 * biggest, t.max() + 0.12 * biggest], d3)
+    ends2 = np.stack([ends @ right, ends @ up], axis=-1)
+    ax.add_collection(LineCollection([ends2], colors=AXIS_COLOUR, linewidths=1.0,
+                                     linestyles=[AXIS_DASHES], zorder=3))
+    shown = np.vstack([flat.reshape(-1, 2), ends2]) if len(flat) else ends2
+    v_lo, v_hi = shown.min(axis=0), shown.max(axis=0)
+    pad = 0.04 * float((v_hi - v_lo).max() or 1.0)
+    v_lo, v_hi = v_lo - pad, v_hi + pad
+    box = ax.get_position()
+    shape = box.width * width / (box.height * height)
+    vw, vh = v_hi - v_lo
+    vw, vh = max(vw, vh * shape), max(vh, vw / shape)
+    mid = (v_lo + v_hi) / 2
+    ax.set_xlim(mid[0] - vw / 2, mid[0] + vw / 2)
+    ax.set_ylim(mid[1] - vh / 2, mid[1] + vh / 2)
+    ax.set_aspect("equal", adjustable="box")
+
+    return fig, mesh

@@ -88,11 +88,16 @@ def test_every_example_profile_picture(path, tmp_path, capsys):
     assert "wrote" in out
     img = matplotlib.image.imread(str(png))
     assert img.shape[:2] == (800, 1200)                  # default 1200 × 800 px
-    # Face k is drawn in tab10's colour k (matplotlib's default cycle): every face shows.
+    # Face k is drawn in tab10's colour k (matplotlib's default cycle): every face that sweeps
+    # a surface shows (a face lying on the axis sweeps none: Pappus, zero mean radius).
+    import revolve
     from revolve.formats import load_profile
     faces = load_profile(str(path)).profile.faces()
+    swept = revolve.measure(str(path), units="mm" if path.suffix == ".txt" else None) \
+        .measurement.surface_by_face
     tab10 = colormaps["tab10"].colors
-    assert all(colours_present(png, tab10[:min(len(faces), 10)]))
+    expected = [tab10[k] for k, face in enumerate(faces[:10]) if swept.get(face, 0.0) > 0.0]
+    assert expected and all(colours_present(png, expected))
 
 
 @pytest.mark.parametrize("path", PROFILES[:3], ids=lambda p: p.name)
@@ -272,3 +277,25 @@ def test_a_polyline_is_drawn_through_its_own_vertices(tmp_path):
         assert colours_present(tmp_path / f"polyline-{kind}.png", tab10[:1]) == [True]
         differ = np.any(np.abs(a - b) > 0.02, axis=-1).mean()
         assert differ < 0.005, f"{kind}: {differ:.2%} of the pixels differ"
+
+
+def test_a_liquid_space_is_shown_in_the_vessel_trade_units():
+    # Capacities in litres for a vessel (issue 12 trade defaults; 1 L = 10⁶ mm³, SI by
+    # definition), a turned part in its drawing's unit.
+    from revolve.cli.commands.picture import picture_units
+    from revolve.formats import load_profile
+
+    tank = load_profile(str(ROOT / "profiles" / "vessel-rainwater-tank.toml"))
+    part = load_profile(str(ROOT / "profiles" / "flanged-bushing.toml"))
+    assert tank.section == "space" and picture_units(tank).unit("volume") == "L"
+    assert picture_units(tank).show(1.0, "volume") == pytest.approx(1000.0)   # 1 m³ = 1000 L
+    assert picture_units(part).unit("volume") == "mm³"
+    assert picture_units(tank, volume="m^3").unit("volume") == "m³"          # superscript
+
+
+def test_bad_volume_unit_for_a_liquid_space_names_the_option(tmp_path, capsys):
+    png = tmp_path / "t.png"
+    code, out, err = run(["picture", ROOT / "profiles" / "vessel-rainwater-tank.toml", "-o", png,
+                          "--volume-unit", "gallon"], capsys)
+    assert code == 2 and "--volume-unit" in err and len(err.strip().splitlines()) == 1
+    assert not png.exists()

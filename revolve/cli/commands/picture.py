@@ -2,7 +2,7 @@
 
 The file name's ending chooses the format (``.png`` or ``.svg``). The
 profile picture shows the section, the axis, both centroids, the faces in
-colour, the bounding-box dimensions and the key results; the 3-D picture
+colour, the length along the axis and the diameters (Ø) across it, and the key results; the 3-D picture
 shows the solid shaded, a partial revolution open (drawn by
 :mod:`revolve.render.pictures`). Nothing is written when the input is
 refused, and an existing file is replaced only with ``--force``.
@@ -45,7 +45,7 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     part = measure_document(doc, axis=parse_axis(axis) if isinstance(axis, str) else axis,
                             angle=angle, density=dens, density_label=label)
     rev, m = part.revolution, part.measurement
-    u = part_units(doc.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
+    u = picture_units(doc, length_unit, area_unit, volume_unit, mass_unit)
     title = doc.name or os.path.basename(doc.file or "profile")
 
     from revolve.render import output as render, pictures
@@ -77,6 +77,33 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     render.show(Result("picture", u, {"profile": doc.file, "output": output}, (),
                        (f"wrote {output} ({detail}, {size_text})",), cautions))
     return 0
+
+
+def picture_units(doc, length: Optional[str] = None, area: Optional[str] = None,
+                  volume: Optional[str] = None, mass: Optional[str] = None):
+    """The units a picture shows: a part's (its drawing's unit), or for a vessel's liquid space
+    (``section = "space"``) the vessel trade's (litres, m²), as level tables show; the user's
+    options over either.
+
+    >>> from types import SimpleNamespace
+    >>> from revolve.geometry.profile import Profile
+    >>> tank = SimpleNamespace(profile=Profile(unit="mm"), section="space")
+    >>> picture_units(tank).unit("volume"), picture_units(tank, volume="m3").unit("volume")
+    ('L', 'm³')
+    >>> part = SimpleNamespace(profile=Profile(unit="mm"), section="material")
+    >>> picture_units(part).unit("volume")
+    'mm³'
+    """
+    from revolve.jobs.measuring import part_units
+
+    if getattr(doc, "section", "material") != "space":
+        return part_units(doc.profile.unit, length, area, volume, mass)
+    from revolve.jobs.results import trade_units
+
+    given = {"length": length, "area": area, "volume": volume, "mass": mass}
+    return trade_units("vessel", doc.profile.unit,
+                       {role: unit for role, unit in given.items() if unit is not None},
+                       options={role: f"--{role}-unit" for role in given})
 
 
 def register(app: typer.Typer) -> None:
