@@ -149,7 +149,9 @@ def _rich_table(t: Table, r: Result):
     from rich.markup import escape
     from rich.table import Table as RichTable
 
-    rt = RichTable(title=escape(t.title), title_justify="left", show_edge=False, pad_edge=False)
+    # The title is printed above the table by renderables() (a table's own title would wrap
+    # to the table's width: a long part name over a narrow table of figures).
+    rt = RichTable(show_edge=False, pad_edge=False)
     shown = t.json(r.units)
     if t.figures:
         rt.add_column("quantity")
@@ -179,7 +181,11 @@ def renderables(r: Result) -> List[Any]:
     from rich.panel import Panel
     from rich.text import Text
 
-    out: List[Any] = [_rich_table(t, r) for t in r.tables]
+    out: List[Any] = []
+    for n, t in enumerate(r.tables):
+        if t.title:
+            out.append(Text(("\n" if n else "") + t.title, style="italic"))
+        out.append(_rich_table(t, r))
     for note in r.notes:
         out.append(Text(note))          # plain text: brackets in names stay as written
     if r.cautions:

@@ -22,7 +22,7 @@ from revolve.geometry.checks import prepare
 from revolve.geometry.profile import Axis, Loop, Profile
 from revolve.geometry.tilted import (tilted_crosscheck, tilted_level_for_volume, tilted_levels,
                                      tilted_pieces, tilted_range)
-from revolve.jobs.levels import level_table, liquid_space
+from revolve.jobs.levels import liquid_space, table_at_levels as level_table
 
 ROOT = Path(__file__).resolve().parents[2]
 VESSELS = ("vessel-brew-kettle.toml", "vessel-diesel-day-tank.toml", "vessel-rainwater-tank.toml")
