@@ -33,8 +33,9 @@ least left over (then the fewest tins):
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
-from typing import Dict, Iterable, Mapping, Optional, Sequence, Tuple
+import re
+from dataclasses import dataclass, field
+from typing import Any, Dict, Iterable, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import RevolveError
 
@@ -88,6 +89,8 @@ class Pack:
 
     size: float
     price: Optional[float] = None
+    #: How the user wrote the size (``"1 US gal"``), for order lines; None: litres.
+    label: Optional[str] = field(default=None, compare=False, repr=False)
 
     def __post_init__(self):
         object.__setattr__(self, "size", _number(self.size, "pack size", zero=False))
@@ -125,8 +128,8 @@ class PackChoice:
 
     def text(self) -> str:
         """The packs as an order line, largest first ("nothing" when none)."""
-        parts = [f"{n} × {p.size:g} L" for p, n in sorted(self.counts, key=lambda c: -c[0].size)
-                 if n]
+        parts = [f"{n} × {p.label or f'{p.size:g} L'}"
+                 for p, n in sorted(self.counts, key=lambda c: -c[0].size) if n]
         return " + ".join(parts) or "nothing"
 
 
@@ -770,3 +773,168 @@ def labour(coat_area: float, rate: float, labour_rate: Optional[float] = None) -
     hours = area / r
     cost = None if labour_rate is None else hours * _number(labour_rate, "labour rate")
     return Labour(hours, cost, "hours = area × coats / rate per m² per coat")
+
+
+# --------------------------------------------------------------------------- what people type
+
+_NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,3})?"
+
+
+def parse_volume_litres(text: str, option: Optional[str] = None) -> float:
+    """A volume with its unit (``"20 L"``, ``"1 US_gal"``, ``"500 mL"``), in litres.
+
+    A bare number is refused: the unit is never guessed.
+
+    >>> parse_volume_litres("500 mL"), round(parse_volume_litres("1 US_gal"), 9)
+    (0.5, 3.785411784)
+    >>> parse_volume_litres("20", option="--minimum-mix")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --minimum-mix: '20' has no unit; write it like '20 L'
+    """
+    from revolve import units
+
+    try:
+        return units.parse_quantity(str(text), "volume") * 1000.0
+    except RevolveError as e:
+        raise e.located(option=option) if option else e
+
+
+def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
+    """Pack sizes as a shop lists them: ``"20 L, 5 L, 1 L"``, each with an optional
+    price after ``@``: ``"20 L @ 120, 5 L @ 40 EUR"``.
+
+    A list of :class:`Pack` (or of litres) passes through.
+
+    >>> parse_packs("20 L @ 120, 5 L @ 40 EUR, 500 mL")
+    (Pack(size=20.0, price=120.0), Pack(size=5.0, price=40.0), Pack(size=0.5, price=None))
+    >>> parse_packs("5 L @ 40 EUR, 1 L @ 10 USD")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: pack prices: the prices name different currencies (EUR, USD); give one currency
+    >>> parse_packs("5 L, 5 L", option="--packs")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --packs: the pack size 5 L is listed twice
+    """
+    from revolve.inputs import parse_list, parse_money
+
+    if isinstance(text, (list, tuple)) and all(isinstance(p, Pack) for p in text):
+        return tuple(text)
+    if isinstance(text, (list, tuple)):
+        return tuple(Pack(float(v)) for v in text)
+    currencies = set()
+
+    def one(item: str) -> Pack:
+        size_text, _, price_text = item.partition("@")
+        litres = parse_volume_litres(size_text.strip())
+        price = None
+        if price_text.strip():
+            money = parse_money(price_text.strip())
+            price = money.amount
+            if money.currency:
+                currencies.add(money.currency)
+        label = re.sub(r"\s+", " ", size_text.strip())
+        return Pack(litres, price, label=label)
+
+    try:
+        found = tuple(parse_list(str(text), one, "pack size"))
+        if len(currencies) > 1:
+            raise RevolveError(f"the prices name different currencies "
+                               f"({', '.join(sorted(currencies))}); give one currency",
+                               place="pack prices")
+        sizes = [round(p.size, 9) for p in found]
+        for p in found:
+            if sizes.count(round(p.size, 9)) > 1:
+                raise RevolveError(f"the pack size {p.label or p.size} is listed twice")
+    except RevolveError as e:
+        raise e.located(option=option) if option else e
+    return found
+
+
+def pack_currency(text: Any) -> Optional[str]:
+    """The currency code written with the pack prices, if any.
+
+    >>> pack_currency("5 L @ 40 EUR, 1 L @ 12"), pack_currency("5 L")
+    ('EUR', None)
+    """
+    found = re.findall(r"@\s*(?:([A-Za-z]{3})\s*)?[\d.]+\s*([A-Za-z]{3})?", str(text)) \
+        if isinstance(text, str) else []
+    codes = {(a or b).upper() for a, b in found if a or b}
+    return codes.pop() if len(codes) == 1 else None
+
+
+def parse_ratio(text: Any, option: Optional[str] = None) -> Tuple[float, float]:
+    """A mixing ratio by volume, base to hardener: ``"4:1"`` (or a pair of numbers).
+
+    >>> parse_ratio("4:1"), parse_ratio("3 : 1.5"), parse_ratio([2, 1])
+    ((4.0, 1.0), (3.0, 1.5), (2.0, 1.0))
+    >>> parse_ratio("4", option="--mix-ratio")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --mix-ratio: '4' is not a mixing ratio; write base to hardener by volume, such as '4:1'
+    """
+    from revolve.errors import quoted
+
+    if isinstance(text, (list, tuple)) and len(text) == 2:
+        values = text
+    else:
+        m = re.fullmatch(rf"\s*({_NUMBER})\s*:\s*({_NUMBER})\s*", str(text)) \
+            if len(str(text)) <= 60 else None
+        if m is None:
+            raise RevolveError(f"{quoted(str(text))} is not a mixing ratio; write base to "
+                               "hardener by volume, such as '4:1'", option=option)
+        values = (float(m.group(1)), float(m.group(2)))
+    out = []
+    for v in values:
+        try:
+            out.append(_number(v, "mixing ratio", zero=False))
+        except RevolveError:
+            raise RevolveError(f"both parts of the mixing ratio must be above 0, got {text!r}",
+                               option=option) from None
+    return out[0], out[1]
+
+
+def parse_rate(text: Any, top: str, bottom: str, option: Optional[str] = None, *,
+               example: str = "", invert: bool = False) -> float:
+    """A rate ``"<number> <unit of top>/<unit of bottom>"`` in SI (``"25 kg/m^2"``).
+
+    ``top`` and ``bottom`` are unit kinds of :mod:`revolve.units`; with
+    ``invert`` the rate may also be written the other way up (``"5 min/m^2"``
+    for an application rate in m²/h) and is turned over. A bare number is
+    refused.
+
+    >>> parse_rate("25 kg/m^2", "mass", "area"), round(parse_rate("5 lb/ft^2", "mass", "area"), 6)
+    (25.0, 24.412138)
+    >>> parse_rate("12 m^2/h", "area", "time") * 3600, parse_rate("5 min/m^2", "area", "time", invert=True) * 3600
+    (12.0, 12.0)
+    >>> parse_rate("25", "mass", "area", "--abrasive", example="25 kg/m^2")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --abrasive: '25' needs its unit, such as '25 kg/m^2'
+    """
+    from revolve import units
+    from revolve.errors import quoted
+
+    raw = str(text).strip()
+    m = re.fullmatch(rf"({_NUMBER})\s*([^/]+?)\s*/\s*(.+)", raw) if len(raw) <= 80 else None
+    if m is None:
+        raise RevolveError(f"{quoted(raw)} needs its unit, such as '{example}'", option=option)
+    number = float(m.group(1))
+    num, den = m.group(2), m.group(3)
+    try:
+        try:
+            value = number * units.factor(num, top) / units.factor(den, bottom)
+        except RevolveError:
+            if not invert:
+                raise
+            per = number * units.factor(num, bottom) / units.factor(den, top)
+            if per <= 0:
+                raise RevolveError(f"{quoted(raw)} must be above 0")
+            value = 1.0 / per
+    except RevolveError as e:
+        raise RevolveError(f"{quoted(raw)}: {e.message}; "
+                           f"write it like '{example}'", option=option) from None
+    if not (math.isfinite(value) and value > 0):
+        raise RevolveError(f"{quoted(raw)} must be a finite rate above 0", option=option)
+    return value
