@@ -1850,6 +1850,9 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             if coat.price_per_litre is not None:
                 row["cost"] = litres * coat.price_per_litre
             rows.append(row)
+        if any(r["area"] > e.area for r, (_, e) in zip(rows, ests) if e.area > 0):
+            notes.append("the stripe coat's area is more than the area it edges: the band is "
+                         "wide for these parts (bands overlap); check the band width")
         tables.append(Table("stripe", "Stripe coat on edges (one coat, in the first coat's "
                                       "paint; shown apart)", (
             Field("group", "group", style="text"), Field("coat", "paint of", style="text"),
@@ -1890,8 +1893,12 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
                 products[product.name] = (product, seen[1] + need, seen[2] + mixed,
                                           seen[3] + [label])
     if products:
-        rows = []
+        rows, rules = [], []
         for product, need, mixed, labels in products.values():
+            if need == 0:
+                continue
+            if len(labels) > 1:
+                notes.append(f"{product.name} is bought once for: {'; '.join(labels)}")
             every = product.packs + product.hardener_packs + product.thinner_packs
             rule = pack_rule or ("cheapest" if all(p.price is not None for p in every)
                                  else "fewest")
@@ -1901,7 +1908,8 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
                 raise e.located(option=names["pack_rule"] if pack_rule else names["packs"])
             notes.extend(n for n in bought.notes if "minimum mix" not in n)
             litres = bought.base.litres + (bought.hardener.litres if bought.hardener else 0.0)
-            row = {"product": product.name, "coats": ", ".join(labels), "rule": rule,
+            rules.append(f"{product.name} by {rule}")
+            row = {"product": product.name, "coats": ", ".join(labels),
                    "needed": need / 1000, "mixed": mixed / 1000,
                    "base": bought.base.text(), "bought": litres / 1000,
                    "left_over": (litres - mixed) / 1000}
@@ -1921,14 +1929,15 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
                 cautions.append(buying.CAUTIONS[4])
         tables.append(Table("packs", "What is bought, by product (packs rounded up)", (
             Field("product", "product", style="text"), Field("coats", "for", style="text"),
-            Field("rule", "packs chosen by", style="text"),
             Field("needed", "needed", "paint"), Field("mixed", "mixed", "paint"),
             Field("ratio", "ratio", style="text"), Field("base", "packs", style="text"),
-            Field("hardener", "hardener packs", style="text"),
-            Field("bought", "bought", "paint"), Field("left_over", "left over", "paint"),
-            Field("thinner", "thinner", "paint"), Field("thinner_packs", "thinner packs",
+            Field("hardener", "hardener", style="text"),
+            Field("bought", "bought", "paint"), Field("left_over", "left", "paint"),
+            Field("thinner", "thinner", "paint"), Field("thinner_packs", "in packs",
                                                         style="text"),
             Field("cost", "cost", style="money")), tuple(rows)))
+        notes.append("packs chosen: " + "; ".join(rules) + " (cheapest: least money; fewest: "
+                     "fewest packs; least left over: least surplus)")
         notes.append("packs: each product's litres (with its stripe coat, each coat at least the "
                      "minimum mix) rounded up to whole packs; a two-pack product is split base : "
                      "hardener by volume and each part rounded up; thinner is a percentage of "
@@ -1960,7 +1969,7 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             Field("coated", "area coated", "area"),
             Field("masked", "masked but prepared", "area"),
             Field("area", "area to prepare", "area"),
-            Field("rate", "abrasive rate", "mass/area"),
+            Field("rate", "abrasive rate", "mass/coverage"),
             Field("abrasive", "abrasive", "mass")), (row,), figures=True))
         if prepare and masked == 0:
             notes.append(f"{names['prepare']}: none of the faces named is masked on these parts; "
@@ -1982,7 +1991,7 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             row.update(labour_rate=float(money) / 3600, cost=hours.cost)
         tables.append(Table("labour", "Labour (application)", (
             Field("coat_area", "area × coats", "area"),
-            Field("rate", "application rate, per coat", "area/time"),
+            Field("rate", "application rate, per coat", "coverage/time"),
             Field("time", "time", "time"),
             Field("labour_rate", "labour rate", "money/time", style="money"),
             Field("cost", "cost", style="money")), (row,), figures=True))
