@@ -1021,16 +1021,17 @@ def _file_product(table: Mapping[str, Any], name: str, places: Mapping[str, Tupl
     if ratio is not None and len(ratio) != 2:
         raise fail("mix_ratio", f"mix_ratio is two numbers, base and hardener by volume, such "
                                 f"as [4, 1]; got {table['mix_ratio']!r}")
+    base = pack_list("packs_litres", "pack_prices")
+    hardener = pack_list("hardener_packs_litres", "hardener_pack_prices")
+    thinner = pack_list("thinner_packs_litres", "thinner_pack_prices")
+    least, percent, limit = (one("minimum_mix_litres"), one("thinner_percent"),
+                             one("thinner_limit_percent"))
     try:
-        return packs.Product(product_name.strip(), pack_list("packs_litres", "pack_prices"),
+        return packs.Product(product_name.strip(), base,
                              mix_ratio=None if ratio is None else tuple(ratio),
-                             hardener_packs=pack_list("hardener_packs_litres",
-                                                      "hardener_pack_prices"),
-                             minimum_mix=one("minimum_mix_litres") or 0.0,
-                             thinner_percent=one("thinner_percent") or 0.0,
-                             thinner_limit=one("thinner_limit_percent"),
-                             thinner_packs=pack_list("thinner_packs_litres",
-                                                     "thinner_pack_prices"))
+                             hardener_packs=hardener, minimum_mix=least or 0.0,
+                             thinner_percent=percent or 0.0, thinner_limit=limit,
+                             thinner_packs=thinner)
     except RevolveError as e:
         key = "mix_ratio" if "ratio" in e.message or "hardener" in e.message else \
             "thinner_percent" if "thinn" in e.message else "packs_litres"
@@ -1422,6 +1423,22 @@ def _percent(value: Any, option: str) -> Any:
         raise e.located(option=option)
 
 
+def _percent_in_range(value: Any, option: str) -> float:
+    """A percentage from 0 to 100 (a number, or text with or without %).
+
+    >>> _percent_in_range("5 %", "thinner"), _percent_in_range(12, "thinner")
+    (5.0, 12.0)
+    >>> _percent_in_range(150, "thinner")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: thinner: give a percentage from 0 to 100, got 150
+    """
+    v = _percent(value, option)
+    if isinstance(v, bool) or not isinstance(v, (int, float)) or not 0 <= v <= 100:
+        raise CoatingError(f"give a percentage from 0 to 100, got {value!r}", option=option)
+    return float(v)
+
+
 def _money(value: Any, option: str) -> Tuple[Any, Optional[str]]:
     """An amount and its currency code (None) from a number, text such as "21.50 EUR" or a Money."""
     from revolve.inputs import Money, parse_money
@@ -1712,6 +1729,26 @@ def _tables(parts: Sequence[CoatedPart], ests, heading: str, tolerance: float, b
             Field("packs_cost", "packs bought", style="money"),
             Field("labour_cost", "labour", style="money")), (total,), figures=True),
     )
+
+
+def _as_text(value: Any) -> Any:
+    """An input for the JSON ``inputs``: numbers and lists as they are, typed values as text.
+
+    >>> from revolve.inputs import Length, Money
+    >>> _as_text(Length(50.0, "mm")), _as_text(Money(45.0, "EUR")), _as_text(12.5)
+    ('50 mm', '45 EUR', 12.5)
+    """
+    from revolve.inputs import Length, Money
+
+    if isinstance(value, Length):
+        return f"{value.value:g}" + (f" {value.unit}" if value.unit else "")
+    if isinstance(value, Money):
+        return f"{value.amount:g}" + (f" {value.currency}" if value.currency else "")
+    if isinstance(value, (list, tuple)):
+        return [_as_text(v) for v in value]
+    if isinstance(value, (bool, int, float)):
+        return value
+    return str(value)
 
 
 def _axis_text(axis: Any) -> Optional[str]:
@@ -2049,6 +2086,24 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
         raise CoatingError(f"give the dry film thickness with its unit, such as '3 mil' or "
                            f"'75 um', got {str(dft)!r} (or choose the film unit with "
                            f"{names['film_unit']})", option=names["dft"])
+    # typed values read once, as the command line's option types read them (same JSON inputs)
+    from revolve.inputs import parse_length, parse_money
+
+    for key, parse in (("labour_rate", parse_money), ("stripe_band", parse_length)):
+        value = locals()[key]
+        if isinstance(value, str):
+            try:
+                value = parse(value)
+            except RevolveError as e:
+                raise e.located(option=names[key])
+            if key == "labour_rate":
+                labour_rate = value
+            else:
+                stripe_band = value
+    thinner, thinner_limit, stripe_percent = (
+        None if v is None else _percent_in_range(v, names[k]) for k, v in
+        (("thinner", thinner), ("thinner_limit", thinner_limit),
+         ("stripe_percent", stripe_percent)))
     bought_as = dict(packs=packs, mix_ratio=mix_ratio, hardener_packs=hardener_packs,
                      minimum_mix=minimum_mix, thinner=thinner, thinner_limit=thinner_limit,
                      thinner_packs=thinner_packs)
@@ -2078,7 +2133,8 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     group_areas: Dict[Optional[str], List[PartArea]] = {g: [] for g, _, _ in plans}
     for i, p in enumerate(parts):
         chosen = select(p.found, include, masked, sides, cut_faces)
-        parts[i] = p = _assign_groups(dataclasses.replace(p, chosen=chosen), plans, p.file)
+        parts[i] = p = _assign_groups(dataclasses.replace(p, chosen=chosen), plans,
+                                       found_system.file)
         chosen = p.chosen
         for g in group_areas:
             mine = [ch for ch in chosen if ch.group == g]
@@ -2148,8 +2204,7 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
                     "abrasive": abrasive, "stripe_band": stripe_band,
                     "stripe_percent": stripe_percent, "application_rate": application_rate,
                     "labour_rate": labour_rate, **bought_as}
-    inputs.update({k: v if isinstance(v, (list, int, float, type(None))) else str(v)
-                   for k, v in extra_inputs.items() if v is not None and v != []})
+    inputs.update({k: _as_text(v) for k, v in extra_inputs.items() if v is not None and v != []})
     bad = tuple((p.file or p.name, p.measurement.crosscheck.surface_difference) for p in parts
                 if not p.measurement.crosscheck.surface_difference <= tolerance)
     return CoatingResult("coat", u, inputs, _tables(parts, ests, heading, tolerance, buying),
@@ -2164,7 +2219,12 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
                      axis: Any = None, angle: Optional[float] = None,
                      units: Optional[str] = None, area_unit: Optional[str] = None,
                      paint_unit: Optional[str] = None, film_unit: Optional[str] = None,
-                     us: bool = False, tolerance: float = DEFAULT_TOLERANCE) -> CoatingResult:
+                     us: bool = False, tolerance: float = DEFAULT_TOLERANCE, packs: Any = None,
+                     mix_ratio: Any = None, hardener_packs: Any = None, minimum_mix: Any = None,
+                     thinner: Any = None, thinner_limit: Any = None, thinner_packs: Any = None,
+                     pack_rule: Optional[str] = None, prepare: Any = None, abrasive: Any = None,
+                     stripe_band: Any = None, stripe_percent: Any = None,
+                     application_rate: Any = None, labour_rate: Any = None) -> CoatingResult:
     """A coating estimate for a batch of parts: areas by face, and each coat's paint and cost.
 
     The same job as ``revolve coat``; ``result.to_dict()`` is exactly the
@@ -2207,6 +2267,27 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
         cm² (in²); paint below 0.01 L (US gal) for every coat is in mL.
     tolerance : float
         Relative tolerance of the surface cross-check.
+    packs, hardener_packs, thinner_packs : str, optional
+        What the one coat is sold in: sizes with their unit, each with an
+        optional price after ``@`` (``"20 L @ 120 EUR, 5 L @ 40"``). A
+        system file gives ``packs_litres`` (and the rest) per coat.
+    mix_ratio : str, optional
+        Two-pack: base to hardener by volume, ``"4:1"`` (with ``hardener_packs``).
+    minimum_mix : str, optional
+        Least mixed at a time, ``"2 L"``.
+    thinner, thinner_limit : float or str, optional
+        Thinner, % by volume of the mixed product; the data sheet's most.
+    pack_rule : {"cheapest", "fewest", "least left over"}, optional
+        Default: cheapest when every pack has a price, else fewest.
+    prepare : str or list of str, optional
+        Masked faces or groups that are prepared all the same.
+    abrasive : str, optional
+        Abrasive per area prepared, ``"25 kg/m^2"``.
+    stripe_band, stripe_percent : str, optional
+        Stripe coat on the profile's edges: a band width (``"50 mm"``), or a
+        percentage of the coated area.
+    application_rate, labour_rate : str, optional
+        Area applied per hour per coat (``"12 m^2/h"``); money per hour.
 
     Returns
     -------
@@ -2246,4 +2327,9 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
                coat_name=coat_name, currency=currency, quantity=quantity, faces=faces,
                mask=mask, sides=sides, cut_faces=cut_faces, axis=axis, angle=angle, units=units,
                area_unit=area_unit, paint_unit=paint_unit, film_unit=film_unit, us=us,
-               tolerance=tolerance)
+               tolerance=tolerance, packs=packs, mix_ratio=mix_ratio,
+               hardener_packs=hardener_packs, minimum_mix=minimum_mix, thinner=thinner,
+               thinner_limit=thinner_limit, thinner_packs=thinner_packs, pack_rule=pack_rule,
+               prepare=prepare, abrasive=abrasive, stripe_band=stripe_band,
+               stripe_percent=stripe_percent, application_rate=application_rate,
+               labour_rate=labour_rate)
