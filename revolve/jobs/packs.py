@@ -34,6 +34,7 @@ from __future__ import annotations
 
 import math
 import re
+from fractions import Fraction
 from dataclasses import dataclass, field
 from typing import Any, Dict, Iterable, Mapping, Optional, Sequence, Tuple
 
@@ -133,19 +134,31 @@ class PackChoice:
         return " + ".join(parts) or "nothing"
 
 
-def _steps(packs: Sequence[Pack]) -> Tuple[int, Tuple[int, ...]]:
-    """A common step (in millilitres) and each pack's size in steps."""
-    ml = []
-    for p in packs:
-        v = p.size * 1000.0
-        if abs(v - round(v)) > 1e-6 * max(1.0, v):
-            raise RevolveError(f"pack sizes are taken to the millilitre; {p.size!r} L is finer",
-                               place="pack size")
-        ml.append(int(round(v)))
-    step = 0
-    for v in ml:
-        step = math.gcd(step, v)
-    return step, tuple(v // step for v in ml)
+def _steps(packs: Sequence[Pack]) -> Tuple[Fraction, Tuple[int, ...]]:
+    """A common step (litres, exact) and each pack's size in steps.
+
+    Sizes are read as exact decimals of a litre (to the nanolitre), so packs in
+    US gallons and quarts (231 in³ and a quarter of it) share a step as
+    packs in litres and millilitres do.
+
+    >>> _steps((Pack(5.0), Pack(0.25)))
+    (Fraction(1, 4), (20, 1))
+    >>> step, units = _steps((Pack(3.785411784), Pack(0.946352946)))
+    >>> units
+    (4, 1)
+    """
+    exact = [Fraction(repr(round(p.size, 9))) for p in packs]      # to the nanolitre
+    for p, f in zip(packs, exact):
+        if f <= 0:
+            raise RevolveError(f"{p.size!r} L is below a nanolitre", place="pack size")
+    common = 1
+    for f in exact:
+        common = common * f.denominator // math.gcd(common, f.denominator)
+    whole = [int(f * common) for f in exact]
+    g = 0
+    for v in whole:
+        g = math.gcd(g, v)
+    return Fraction(g, common), tuple(v // g for v in whole)
 
 
 def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -> PackChoice:
@@ -160,8 +173,8 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     * ``"least left over"``: the least surplus; among equal surplus the
       fewest packs, then the least money.
 
-    The search is exact (a knapsack over the packs' common step in
-    millilitres). For large orders the bulk goes in the best pack (the
+    The search is exact (a knapsack over the packs' common step, an exact
+    fraction of a litre). For large orders the bulk goes in the best pack (the
     cheapest per litre, or the largest) and the rest is searched: any other
     pack used as many times as the best pack's size in steps could be swapped
     for the best pack at no loss, so that bounds the rest. The work is bounded
@@ -212,7 +225,7 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     if need == 0:
         return PackChoice(0.0, tuple((p, 0) for p in packs), rule)
     step, units = _steps(packs)
-    need_units = math.ceil(need * 1000.0 / step * (1 - _SLACK))
+    need_units = math.ceil(need / float(step) * (1 - _SLACK))
     price = [p.price if p.price is not None else 0.0 for p in packs]
     if rule == "cheapest":
         best = min(range(len(packs)), key=lambda i: (price[i] / units[i], -units[i]))
@@ -224,8 +237,8 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     remaining = need_units - forced * u_best
     top = remaining + max(units)
     if top > MAX_STEPS:
-        raise RevolveError(f"the pack sizes share only a {step} mL step, too fine to search; "
-                           f"round the pack sizes", place="pack sizes")
+        raise RevolveError(f"the pack sizes share only a {float(step) * 1000:.6g} mL step, too "
+                           f"fine to search; round the pack sizes", place="pack sizes")
 
     def key(cost: float, count: int, volume: int):
         c = round(cost, 9)
@@ -834,8 +847,7 @@ def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
             price = money.amount
             if money.currency:
                 currencies.add(money.currency)
-        label = re.sub(r"\s+", " ", size_text.strip())
-        return Pack(litres, price, label=label)
+        return Pack(litres, price, label=_volume_label(size_text))
 
     try:
         found = tuple(parse_list(str(text), one, "pack size"))
@@ -850,6 +862,23 @@ def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
     except RevolveError as e:
         raise e.located(option=option) if option else e
     return found
+
+
+def _volume_label(text: str) -> str:
+    """A pack size as an order line shows it: the number as written, the unit's display name.
+
+    >>> _volume_label(" 1  US_gal"), _volume_label("500 ml"), _volume_label("20L")
+    ('1 US gal', '500 mL', '20 L')
+    """
+    from revolve import units
+
+    m = re.fullmatch(rf"\s*({_NUMBER})\s*(.+?)\s*", text)
+    if m is None:
+        return re.sub(r"\s+", " ", text.strip())
+    try:
+        return f"{m.group(1)} {units.canonical(m.group(2), 'volume')}"
+    except RevolveError:
+        return f"{m.group(1)} {m.group(2)}"
 
 
 def pack_currency(text: Any) -> Optional[str]:
