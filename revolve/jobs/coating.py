@@ -91,6 +91,26 @@ every key not listed here is refused with its file and line)::
 
 Numbers are plain TOML integers or decimals (no units, no expressions).
 
+What a coat is bought as (all optional; :mod:`revolve.jobs.packs` does the
+arithmetic, common practice, no source)::
+
+    product = "two-pack epoxy"     # coats naming one product are bought together
+    packs_litres = [16, 4]         # pack sizes in litres (the base of a two-pack product)
+    pack_prices = [310, 86]        # one price per pack size
+    mix_ratio = [4, 1]             # two-pack: base : hardener by volume
+    hardener_packs_litres = [4, 1] # and hardener_pack_prices
+    minimum_mix_litres = 1         # least mixed at a time, per coat
+    thinner_percent = 5            # by volume of the mixed product
+    thinner_limit_percent = 10     # the data sheet's most (more is refused)
+    thinner_packs_litres = [5, 1]  # and thinner_pack_prices
+
+A system per face group replaces the ``[[coat]]`` tables with ``[[group]]``
+tables, each with its ``name``, its ``faces`` (face names or the groups
+``inside``, ``outside``, ``ends``, ``all``) and its own ``[[group.coat]]``
+tables; a surface counted must fall in at most one group, and one in no
+group is not coated (the estimate says so). The groups sum to the whole
+(``examples/coating-tank-groups.toml``).
+
 Examples
 --------
 >>> c = make_coat("primer", dft_um=75, volume_solids=60, loss=25, price_per_litre=20)
@@ -1946,7 +1966,7 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             notes.extend(n for n in bought.notes if "minimum mix" not in n)
             litres = bought.base.litres + (bought.hardener.litres if bought.hardener else 0.0)
             rules.append(f"{product.name} by {rule}")
-            row = {"product": product.name, "coats": ", ".join(labels),
+            row = {"product": product.name, "coats": "; ".join(labels),
                    "needed": need / 1000, "mixed": mixed / 1000,
                    "base": bought.base.text(), "bought": litres / 1000,
                    "left_over": (litres - mixed) / 1000}
