@@ -2006,9 +2006,8 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
     if prepare or abrasive is not None:
         rate = None
         if abrasive is not None:
-            rate = abrasive if isinstance(abrasive, (int, float)) and not isinstance(abrasive, bool) \
-                else buying.parse_rate(abrasive, "mass", "area", names["abrasive"],
-                                       example="25 kg/m^2")
+            rate = buying.parse_rate(abrasive, "mass", "area", names["abrasive"],
+                                     example="25 kg/m^2")
         coated = math.fsum(e.area for _, e in ests)
         masked = 0.0
         if prepare:

@@ -817,7 +817,7 @@ def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
     """Pack sizes as a shop lists them: ``"20 L, 5 L, 1 L"``, each with an optional
     price after ``@``: ``"20 L @ 120, 5 L @ 40 EUR"``.
 
-    A list of :class:`Pack` (or of litres) passes through.
+    A list of :class:`Pack` passes through; a list of texts is read as one.
 
     >>> parse_packs("20 L @ 120, 5 L @ 40 EUR, 500 mL")
     (Pack(size=20.0, price=120.0), Pack(size=5.0, price=40.0), Pack(size=0.5, price=None))
@@ -832,10 +832,10 @@ def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
     """
     from revolve.inputs import parse_list, parse_money
 
-    if isinstance(text, (list, tuple)) and all(isinstance(p, Pack) for p in text):
+    if isinstance(text, (list, tuple)) and text and all(isinstance(p, Pack) for p in text):
         return tuple(text)
-    if isinstance(text, (list, tuple)):
-        return tuple(Pack(float(v)) for v in text)
+    if isinstance(text, (list, tuple)):         # ["20 L @ 120", "5 L"]: each with its unit
+        text = ", ".join(str(v) for v in text)
     currencies = set()
 
     def one(item: str) -> Pack:

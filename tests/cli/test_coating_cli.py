@@ -914,3 +914,22 @@ def test_generated_tubes_groups_sum_to_the_whole(r, wall, length, inside_rate, o
     inner, outer = 2 * PI * r * length, 2 * PI * R * length + 2 * PI * (R * R - r * r)
     assert rel(d["total"]["area"], inner + outer) < 1e-11
     assert rel(d["total"]["paint"], inner / inside_rate + 2 * outer / outside_rate) < 1e-11
+
+
+def test_library_refuses_bare_numbers_for_rates_packs_and_bands(tmp_path):
+    # units are never guessed: the library takes the options' strings, each with its unit
+    import revolve
+    from revolve.errors import RevolveError
+
+    pipe = write(tmp_path, "pipe.toml", PIPE)
+    one = dict(dft="100 um", volume_solids=50, loss=20)
+    for kwargs, place in (({"abrasive": 25}, "abrasive"), ({"packs": [5, 1]}, "packs"),
+                          ({"stripe_band": 50}, "stripe_band"),
+                          ({"application_rate": 12}, "application_rate"),
+                          ({"packs": "5 L", "minimum_mix": 2}, "minimum_mix"),
+                          ({"thinner": 150, "packs": "5 L"}, "thinner")):
+        with pytest.raises(RevolveError, match=rf"^{place}: "):
+            revolve.estimate_coating(pipe, **one, **kwargs)
+    r = revolve.estimate_coating(pipe, **one, packs=["5 L @ 30", "1 L @ 8"], faces="outside")
+    # 6.283185 m² at 4 m²/L = 1.570796 L: cheapest 2 × 1 L = 16 (one 5 L is 30) — by hand
+    assert r.to_dict()["packs"][0]["base"] == "2 × 1 L" and r.to_dict()["packs"][0]["cost"] == 16

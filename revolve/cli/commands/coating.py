@@ -13,7 +13,11 @@ every coat is in mL. ``--area-unit``, ``--volume-unit`` and ``--film-unit``
 choose others. JSON (``--json``): one object with ``inputs`` and ``units``
 once, the tables ``surfaces``, ``parts``, ``coats``, ``paint`` (each coat for
 the batch), ``quantities`` (part × coat; what ``--csv`` writes) and
-``total``, then ``notes`` and ``cautions``. Existing files are replaced only
+``total``, then ``notes`` and ``cautions``; with the options of what is
+bought and done (``--packs``…, ``--stripe-band``/``--stripe-percent``,
+``--prepare``/``--abrasive``, ``--application-rate``/``--labour-rate``) or a
+system file with packs, also ``packs``, ``stripe``, ``preparation`` and
+``labour`` (:mod:`revolve.jobs.packs`). Existing files are replaced only
 with ``--force``.
 """
 
@@ -96,7 +100,10 @@ def register(app: typer.Typer) -> None:
         system: Optional[str] = typer.Option(
             None, "--system", help="Coating-system file (TOML) with one \\[\\[coat]] table per coat: "
                                    "name, dft_um or dft_mils, volume_solids, loss, "
-                                   "price_per_litre or price_per_us_gallon."),
+                                   "price_per_litre or price_per_us_gallon, and what it is "
+                                   "bought as (packs_litres, pack_prices, mix_ratio, …); or "
+                                   "\\[\\[group]] tables (name, faces, \\[\\[group.coat]]) for a "
+                                   "system per face group."),
         coat_name: Optional[str] = typer.Option(None, "--coat-name", help="Name of the one coat."),
         dft: Optional[str] = typer.Option(None, "--dft", help="Dry film thickness of one coat "
                                                               "with its unit, e.g. '75 um' or "
