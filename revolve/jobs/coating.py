@@ -1942,7 +1942,7 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             if seen is not None and seen[0] != product:
                 raise CoatingError(f"the product {product.name!r} is given twice with different "
                                    "packs, ratio or thinner; give it once the same way",
-                                   place="coating system")
+                                   file=est.system.file, place="coating system")
             label = f"{g}: {q.coat.name}" if g else q.coat.name
             if seen is None:
                 products[product.name] = (product, need, mixed, [label])

@@ -694,6 +694,12 @@ def test_stripe_coat_edges_of_the_drawing(tmp_path, capsys):
                           "--stripe-percent", "10", "--json"], capsys)
     stripe, = json.loads(out)["stripe"]
     assert stripe["percent"] == 10 and rel(stripe["area"], 0.1 * (BORE + OUTSIDE + ENDS)) < 1e-12
+    # a sheet's two free ends, both at r = 1 m: 2 × 2π m of edge (circumference, geometry)
+    code, out, err = run(["coat", write(tmp_path, "sheet.toml", SHEET), *ONE_COAT,
+                          "--stripe-band", "100 mm", "--json"], capsys)
+    stripe, = json.loads(out)["stripe"]
+    assert stripe["edges"] == 2 and rel(stripe["edge_length"], 4 * PI) < 1e-12
+    assert rel(stripe["area"], 0.4 * PI) < 1e-12
 
 
 GROUPS = """
@@ -878,6 +884,9 @@ def test_packs_with_a_system_file_are_refused(tmp_path, capsys):
      'belongs under a [[group.coat]] header'),
     ('[[coat]]\ndft_um = 60\nvolume_solids = 50\nloss = 5\n[[group]]\nfaces = ["bore"]\n',
      'not both'),
+    ('[[coat]]\nproduct = "p"\ndft_um = 60\nvolume_solids = 50\nloss = 5\npacks_litres = [5]\n'
+     '[[coat]]\nproduct = "p"\ndft_um = 60\nvolume_solids = 50\nloss = 5\npacks_litres = [4]\n',
+     "the product 'p' is given twice"),
 ])
 def test_bad_buying_keys_in_the_system_file_exit_2(tmp_path, capsys, text, fragment):
     system = write(tmp_path, "system.toml", text)
@@ -914,6 +923,21 @@ def test_generated_tubes_groups_sum_to_the_whole(r, wall, length, inside_rate, o
     inner, outer = 2 * PI * r * length, 2 * PI * R * length + 2 * PI * (R * R - r * r)
     assert rel(d["total"]["area"], inner + outer) < 1e-11
     assert rel(d["total"]["paint"], inner / inside_rate + 2 * outer / outside_rate) < 1e-11
+    # one coat in 5 L and 1 L packs, fewest packs (ties: least left over): ⌊L / 5⌋ fives,
+    # then for a rest up to 1 L one 1 L pack, above 1 L one more five (one pack beats two
+    # or more ones) — worked by hand from the rule as stated
+    one = revolve.estimate_coating(tube, dft="100 um", volume_solids=50, loss=0, packs="5 L, 1 L",
+                                   paint_unit="L").to_dict()
+    litres = one["total"]["paint"]
+    fives, rest = divmod(litres, 5.0)
+    if rest > 1 + 1e-9:
+        fives, ones = fives + 1, 0
+    else:
+        ones = 1 if rest > 1e-9 else 0
+    want = " + ".join(t for t in (f"{int(fives)} × 5 L" if fives else "",
+                                  f"{ones} × 1 L" if ones else "") if t)
+    assert one["packs"][0]["base"] == want
+    assert 0 <= one["packs"][0]["left_over"] < 4 + 1e-9
 
 
 def test_library_refuses_bare_numbers_for_rates_packs_and_bands(tmp_path):
