@@ -1843,6 +1843,7 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
                    stripe_percent, application_rate, labour_rate, notes, cautions):
     """What is bought and done: stripe coat, packs, preparation, labour (tables in SI)."""
     from revolve import units as registry
+    from revolve.geometry.profile import UNNAMED_FACE
     from revolve.jobs import packs as buying
     from revolve.jobs.results import Field, Table
 
@@ -1871,12 +1872,22 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             if stripe_percent is not None else None
         taken = set()
         rows = []
+        shared = sorted({ch.surface.face for p in parts for ch in p.chosen if ch.included
+                         and any(o.included and o.group != ch.group and
+                                 o.surface.face == ch.surface.face for o in p.chosen)})
+        if shared and band is not None:
+            notes.append("stripe coat: faces in more than one face group ("
+                         + ", ".join(repr(f) for f in shared) + "): their edges are counted "
+                         "once, in the first group that has them (name the faces in the profile "
+                         "to tell them apart)")
         for g, est in ests:
             edge_length, count = 0.0, 0
             for p in parts:
                 group_faces = {ch.surface.face for ch in p.chosen if ch.included and ch.group == g}
                 if not group_faces or band is None:
                     continue
+                if UNNAMED_FACE in group_faces:          # segments without a face name
+                    group_faces.add(None)
                 prep = p.measurement.prepared
                 if prep is None:
                     from revolve.geometry.checks import prepare as check

@@ -694,6 +694,14 @@ def test_stripe_coat_edges_of_the_drawing(tmp_path, capsys):
                           "--stripe-percent", "10", "--json"], capsys)
     stripe, = json.loads(out)["stripe"]
     assert stripe["percent"] == 10 and rel(stripe["area"], 0.1 * (BORE + OUTSIDE + ENDS)) < 1e-12
+    # faces not named in the profile: the same four corners, 3.6π m (circumference, geometry)
+    unnamed = "\n".join(line.split(", face")[0] + (" }," if "face" in line else "")
+                         if "face" in line else line for line in PIPE.splitlines())
+    assert "face" not in unnamed
+    code, out, err = run(["coat", write(tmp_path, "plain.toml", unnamed), *ONE_COAT,
+                          "--stripe-band", "50 mm", "--json"], capsys)
+    stripe, = json.loads(out)["stripe"]
+    assert code == 0 and stripe["edges"] == 4 and rel(stripe["edge_length"], 3.6 * PI) < 1e-12
     # a sheet's two free ends, both at r = 1 m: 2 × 2π m of edge (circumference, geometry)
     code, out, err = run(["coat", write(tmp_path, "sheet.toml", SHEET), *ONE_COAT,
                           "--stripe-band", "100 mm", "--json"], capsys)
