@@ -2119,17 +2119,14 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
     # typed values read once, as the command line's option types read them (same JSON inputs)
     from revolve.inputs import parse_length, parse_money
 
-    for key, parse in (("labour_rate", parse_money), ("stripe_band", parse_length)):
-        value = locals()[key]
-        if isinstance(value, str):
-            try:
-                value = parse(value)
-            except RevolveError as e:
-                raise e.located(option=names[key])
-            if key == "labour_rate":
-                labour_rate = value
-            else:
-                stripe_band = value
+    def typed(parse, value: Any, key: str) -> Any:
+        try:
+            return parse(value) if isinstance(value, str) else value
+        except RevolveError as e:
+            raise e.located(option=names[key])
+
+    labour_rate = typed(parse_money, labour_rate, "labour_rate")
+    stripe_band = typed(parse_length, stripe_band, "stripe_band")
     thinner, thinner_limit, stripe_percent = (
         None if v is None else _percent_in_range(v, names[k]) for k, v in
         (("thinner", thinner), ("thinner_limit", thinner_limit),
