@@ -1784,7 +1784,8 @@ def _option_product(names: Mapping[str, str], name: str, *, packs: Any, mix_rati
     from revolve.jobs import packs as buying
 
     given = {"mix_ratio": mix_ratio, "hardener_packs": hardener_packs,
-             "minimum_mix": minimum_mix, "thinner_packs": thinner_packs}
+             "minimum_mix": minimum_mix, "thinner": thinner, "thinner_limit": thinner_limit,
+             "thinner_packs": thinner_packs}
     if packs is None:
         extra = [names[k] for k, v in given.items() if v is not None]
         if extra:
@@ -1960,6 +1961,9 @@ def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_b
             else:
                 products[product.name] = (product, seen[1] + need, seen[2] + mixed,
                                           seen[3] + [label])
+    if pack_rule is not None and not products:
+        raise CoatingError(f"{names['pack_rule']} needs packs: give {names['packs']}, or "
+                           "packs_litres in the coating-system file", option=names["pack_rule"])
     if products:
         rows, rules = [], []
         for product, need, mixed, labels in products.values():

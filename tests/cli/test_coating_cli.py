@@ -841,6 +841,8 @@ def test_the_example_system_with_groups_packs_and_two_pack(tmp_path, capsys):
     (["--packs", "5 L", "--minimum-mix", "2"], ["--minimum-mix", "no unit"]),
     (["--packs", "5 L", "--thinner", "15", "--thinner-limit", "10"], ["--thinner", "limit"]),
     (["--thinner", "150"], ["--thinner", "0 to 100"]),
+    (["--thinner", "5"], ["--thinner", "needs --packs"]),
+    (["--pack-rule", "fewest"], ["--pack-rule", "needs packs"]),
     (["--packs", "5 L", "--pack-rule", "cheapest"], ["--pack-rule", "price"]),
     (["--packs", "5 L", "--pack-rule", "best"], ["--pack-rule", "fewest"]),
     (["--abrasive", "25"], ["--abrasive", "25 kg/m^2"]),
