@@ -91,6 +91,26 @@ every key not listed here is refused with its file and line)::
 
 Numbers are plain TOML integers or decimals (no units, no expressions).
 
+What a coat is bought as (all optional; :mod:`revolve.jobs.packs` does the
+arithmetic, common practice, no source)::
+
+    product = "two-pack epoxy"     # coats naming one product are bought together
+    packs_litres = [16, 4]         # pack sizes in litres (the base of a two-pack product)
+    pack_prices = [310, 86]        # one price per pack size
+    mix_ratio = [4, 1]             # two-pack: base : hardener by volume
+    hardener_packs_litres = [4, 1] # and hardener_pack_prices
+    minimum_mix_litres = 1         # least mixed at a time, per coat
+    thinner_percent = 5            # by volume of the mixed product
+    thinner_limit_percent = 10     # the data sheet's most (more is refused)
+    thinner_packs_litres = [5, 1]  # and thinner_pack_prices
+
+A system per face group replaces the ``[[coat]]`` tables with ``[[group]]``
+tables, each with its ``name``, its ``faces`` (face names or the groups
+``inside``, ``outside``, ``ends``, ``all``) and its own ``[[group.coat]]``
+tables; a surface counted must fall in at most one group, and one in no
+group is not coated (the estimate says so). The groups sum to the whole
+(``examples/coating-tank-groups.toml``).
+
 Examples
 --------
 >>> c = make_coat("primer", dft_um=75, volume_solids=60, loss=25, price_per_litre=20)
@@ -176,6 +196,8 @@ class Chosen:
     surface: Surface
     included: bool
     reason: Optional[str] = None
+    #: The face group whose system coats it (files with ``[[group]]`` tables), else None.
+    group: Optional[str] = None
 
 
 #: A piece counts as an end when its axial extent is at most this fraction of its chord
@@ -620,6 +642,9 @@ class Coat:
     dft_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
     #: The price per litre exactly as the user's number and unit give it (None: not known).
     price_exact: Optional[Fraction] = field(default=None, compare=False, repr=False)
+    #: What the coat is bought as (:class:`revolve.jobs.packs.Product`): packs, two-pack
+    #: mixing ratio, minimum mix, thinner; None when no packs are given.
+    product: Any = field(default=None, compare=False, repr=False)
 
     def price_in(self, volume_unit: str) -> Optional[float]:
         """The price per ``volume_unit``, converted exactly from what the user wrote; or None.
@@ -846,6 +871,25 @@ class CoatingSystem:
     name: Optional[str] = None
     currency: Optional[str] = None
     file: Optional[str] = None
+    #: A system per face group (``[[group]]`` tables): then ``coats`` is empty.
+    groups: Tuple["FaceGroup", ...] = ()
+
+    def plans(self) -> Tuple[Tuple[Optional[str], Tuple[str, ...], "CoatingSystem"], ...]:
+        """(group name or None, its faces, its coats as a system) for each group, or the whole.
+
+        >>> one = CoatingSystem((make_coat(dft_um=50, volume_solids=50, loss=0),))
+        >>> [(g, f, len(s.coats)) for g, f, s in one.plans()]
+        [(None, (), 1)]
+        """
+        if not self.groups:
+            return ((None, (), self),)
+        return tuple((g.name, g.faces, CoatingSystem(g.coats, g.name, self.currency, self.file))
+                     for g in self.groups)
+
+    @property
+    def all_coats(self) -> Tuple[Coat, ...]:
+        """Every coat of every group (the coats of a system without groups)."""
+        return self.coats + tuple(c for g in self.groups for c in g.coats)
 
     @property
     def dft_um(self) -> float:
@@ -865,11 +909,26 @@ class CoatingSystem:
         return film_in(self.dft_um, total, unit)
 
 
+@dataclass(frozen=True)
+class FaceGroup:
+    """A face group of a coating-system file: its name, faces (names or group words), coats."""
+
+    name: str
+    faces: Tuple[str, ...]
+    coats: Tuple[Coat, ...]
+
+
 #: Keys of the coating-system file.
-SYSTEM_KEYS = ("name", "currency", "coat")
+SYSTEM_KEYS = ("name", "currency", "coat", "group")
+#: Keys of one ``[[group]]`` table (a system for some faces).
+GROUP_KEYS = ("name", "faces", "coat")
+#: What a coat is bought as: keys of a ``[[coat]]`` table for :class:`packs.Product`.
+PRODUCT_KEYS = ("product", "packs_litres", "pack_prices", "mix_ratio", "hardener_packs_litres",
+                "hardener_pack_prices", "minimum_mix_litres", "thinner_percent",
+                "thinner_limit_percent", "thinner_packs_litres", "thinner_pack_prices")
 #: Keys of one ``[[coat]]`` table.
 COAT_KEYS = ("name", "dft_um", "dft_mils", "volume_solids", "loss", "price_per_litre",
-             "price_per_us_gallon")
+             "price_per_us_gallon") + PRODUCT_KEYS
 
 _HEADER = re.compile(r"\s*(\[\[?)\s*([A-Za-z0-9_.\"' -]+?)\s*\]\]?\s*(?:#.*)?$")
 _KEY = re.compile(r"\s*([A-Za-z0-9_-]+|\"[^\"]*\"|'[^']*')\s*[.=]")
@@ -883,10 +942,13 @@ def key_lines(text: str) -> Dict[str, int]:
 
     >>> key_lines('name = "x"\\n[[coat]]\\ndft_um = 5\\n\\n[[coat]]\\n# c\\nloss = 3\\n')
     {'name': 1, 'coat 1': 2, 'coat 1.dft_um': 3, 'coat 2': 5, 'coat 2.loss': 7}
+    >>> key_lines('[[group]]\\nfaces = ["inside"]\\n[[group.coat]]\\nloss = 3\\n')
+    {'group 1': 1, 'group 1.faces': 2, 'group 1, coat 1': 3, 'group 1, coat 1.loss': 4}
     """
     found: Dict[str, int] = {}
     table = ""
     count = 0
+    groups = 0
     in_string = None
     for number, line in enumerate(text.splitlines(), 1):
         if in_string:
@@ -902,6 +964,13 @@ def key_lines(text: str) -> Dict[str, int]:
             if m.group(1) == "[[" and name == "coat":
                 count += 1
                 table = f"coat {count}"
+            elif m.group(1) == "[[" and name == "group":
+                groups += 1
+                count = 0
+                table = f"group {groups}"
+            elif m.group(1) == "[[" and name == "group.coat" and groups:
+                count += 1
+                table = f"group {groups}, coat {count}"
             else:
                 table = name
             found.setdefault(table, number)
@@ -911,6 +980,82 @@ def key_lines(text: str) -> Dict[str, int]:
             key = m.group(1).strip("\"'")
             found.setdefault(f"{table}.{key}" if table else key, number)
     return found
+
+
+def _file_product(table: Mapping[str, Any], name: str, places: Mapping[str, Tuple],
+                  label: str) -> Any:
+    """The :class:`packs.Product` of a ``[[coat]]`` table, or None without ``packs_litres``."""
+    from revolve.jobs import packs
+
+    given = [k for k in PRODUCT_KEYS if k in table]
+    if not given:
+        return None
+
+    def fail(key: str, message: str) -> FormatError:
+        file, line, place = places.get(key, (None, None, label))
+        return FormatError(message, file=file, line=line, place=place)
+
+    if "packs_litres" not in table:
+        raise fail(given[0], f"{given[0]} needs packs_litres: the sizes the product is sold in")
+
+    def numbers(key: str, *, positive: bool) -> Optional[List[float]]:
+        raw = table.get(key)
+        if raw is None:
+            return None
+        items = raw if isinstance(raw, list) else [raw]
+        ok = items and all(not isinstance(v, bool) and isinstance(v, (int, float))
+                           and math.isfinite(v) and (v > 0 if positive else v >= 0)
+                           for v in items)
+        if not ok:
+            raise fail(key, f"{key} must be a list of plain numbers "
+                            f"{'above 0' if positive else 'of 0 or more'}, got {raw!r}")
+        return [float(v) for v in items]
+
+    def pack_list(sizes_key: str, prices_key: str) -> Tuple:
+        sizes = numbers(sizes_key, positive=True)
+        if sizes is None:
+            if prices_key in table:
+                raise fail(prices_key, f"{prices_key} needs {sizes_key}")
+            return ()
+        prices = numbers(prices_key, positive=False)
+        if prices is not None and len(prices) != len(sizes):
+            raise fail(prices_key, f"give one price for each pack size ({len(sizes)} sizes, "
+                                   f"{len(prices)} prices)")
+        return tuple(packs.Pack(v, None if prices is None else prices[i])
+                     for i, v in enumerate(sizes))
+
+    def one(key: str) -> Optional[float]:
+        v = table.get(key)
+        if v is None:
+            return None
+        if isinstance(v, bool) or not isinstance(v, (int, float)) or not math.isfinite(v) \
+                or v < 0 or (key.endswith("percent") and v > 100):
+            raise fail(key, f"{key} must be a plain number of 0 or more"
+                            f"{' and at most 100' if key.endswith('percent') else ''}, got {v!r}")
+        return float(v)
+
+    product_name = table.get("product", name)
+    if not isinstance(product_name, str) or not product_name.strip():
+        raise fail("product", f"product must be a non-empty text in quotes, got {product_name!r}")
+    ratio = numbers("mix_ratio", positive=True)
+    if ratio is not None and len(ratio) != 2:
+        raise fail("mix_ratio", f"mix_ratio is two numbers, base and hardener by volume, such "
+                                f"as [4, 1]; got {table['mix_ratio']!r}")
+    base = pack_list("packs_litres", "pack_prices")
+    hardener = pack_list("hardener_packs_litres", "hardener_pack_prices")
+    thinner = pack_list("thinner_packs_litres", "thinner_pack_prices")
+    least, percent, limit = (one("minimum_mix_litres"), one("thinner_percent"),
+                             one("thinner_limit_percent"))
+    try:
+        return packs.Product(product_name.strip(), base,
+                             mix_ratio=None if ratio is None else tuple(ratio),
+                             hardener_packs=hardener, minimum_mix=least or 0.0,
+                             thinner_percent=percent or 0.0, thinner_limit=limit,
+                             thinner_packs=thinner)
+    except RevolveError as e:
+        key = "mix_ratio" if "ratio" in e.message or "hardener" in e.message else \
+            "thinner_percent" if "thinn" in e.message else "packs_litres"
+        raise fail(key, e.message) from None
 
 
 def _suggest_key(key: str, options: Sequence[str]) -> str:
@@ -984,31 +1129,80 @@ def parse_coating_system(text: str, file: Optional[str] = None) -> CoatingSystem
         if v is not None and (not isinstance(v, str) or not v.strip()):
             raise fail(f"{key} must be a non-empty text in quotes, got {v!r}", key, key)
         texts[key] = v.strip() if v else None
-    raw = data.get("coat")
-    if raw is None or raw == []:
+    def read_coats(raw: Any, prefix: str, header: str) -> Tuple[Coat, ...]:
+        if raw is None or raw == []:
+            raise fail(f"no {header}; a coating system needs at least one coat",
+                       prefix.rstrip(", ") or "coat", prefix.rstrip(", ") or None)
+        if isinstance(raw, dict):
+            raise fail(f"write {header} with two brackets, one header for each coat",
+                       f"{prefix}coat 1" if prefix else "coat", "coat")
+        if not isinstance(raw, list):
+            raise fail(f"coat must be given as {header} tables, got {raw!r}", "coat", "coat")
+        coats = []
+        for i, table in enumerate(raw, 1):
+            label = f"{prefix}coat {i}"
+            if not isinstance(table, dict):
+                raise fail(f"{label} must be a table, got {table!r}", label, label)
+            for key in table:
+                if key not in COAT_KEYS:
+                    raise fail(f'unknown key "{key}"{_suggest_key(key, COAT_KEYS)}',
+                               f"{label}.{key}", label)
+            places = {k: where(f"{label}.{k}", f"{label}, {k}") for k in COAT_KEYS}
+            places["dft"] = where(label, label)
+            coat = make_coat(table.get("name"), dft_um=table.get("dft_um"),
+                             dft_mils=table.get("dft_mils"),
+                             volume_solids=table.get("volume_solids"), loss=table.get("loss"),
+                             price_per_litre=table.get("price_per_litre"),
+                             price_per_us_gallon=table.get("price_per_us_gallon"),
+                             where=places, number=i)
+            product = _file_product(table, coat.name, places, label)
+            coats.append(dataclasses.replace(coat, product=product) if product else coat)
+        return tuple(coats)
+
+    if "group" in data:
+        if "coat" in data:
+            raise fail("give [[coat]] tables or [[group]] tables (a system per face group), "
+                       "not both", "group", "group")
+        raw_groups = data["group"]
+        if not isinstance(raw_groups, list) or not raw_groups:
+            raise fail("write [[group]] with two brackets, one header for each face group",
+                       "group 1", "group")
+        groups, seen = [], set()
+        for g, table in enumerate(raw_groups, 1):
+            label = f"group {g}"
+            if not isinstance(table, dict):
+                raise fail(f"{label} must be a table, got {table!r}", label, label)
+            for key in table:
+                if key not in GROUP_KEYS:
+                    hint = _suggest_key(key, GROUP_KEYS)
+                    if key in COAT_KEYS:
+                        hint = "; it belongs under a [[group.coat]] header"
+                    raise fail(f'unknown key "{key}"{hint}', f"{label}.{key}", label)
+            gname = table.get("name", label)
+            if not isinstance(gname, str) or not gname.strip():
+                raise fail(f"name must be a non-empty text in quotes, got {gname!r}",
+                           f"{label}.name", f"{label}, name")
+            gname = gname.strip()
+            if gname in seen:
+                raise fail(f"the group name {gname!r} is used twice", f"{label}.name",
+                           f"{label}, name")
+            seen.add(gname)
+            faces = table.get("faces")
+            if isinstance(faces, str):
+                faces = [faces]
+            if not isinstance(faces, list) or not faces or \
+                    not all(isinstance(f, str) and f.strip() for f in faces):
+                raise fail('faces must be a list of face names or groups in quotes, such as '
+                           '["inside"]', f"{label}.faces" if "faces" in table else label,
+                           f"{label}, faces")
+            groups.append(FaceGroup(gname, tuple(f.strip() for f in faces),
+                                    read_coats(table.get("coat"), f"{label}, ",
+                                               "[[group.coat]]")))
+        return CoatingSystem((), texts["name"], texts["currency"], file, tuple(groups))
+    if data.get("coat") in (None, []):
         raise FormatError("the file has no [[coat]]; a coating system needs at least one coat",
                           file=file)
-    if isinstance(raw, dict):
-        raise fail("write [[coat]] with two brackets, one header for each coat", "coat", "coat")
-    if not isinstance(raw, list):
-        raise fail(f"coat must be given as [[coat]] tables, got {raw!r}", "coat", "coat")
-    coats = []
-    for i, table in enumerate(raw, 1):
-        label = f"coat {i}"
-        if not isinstance(table, dict):
-            raise fail(f"{label} must be a table, got {table!r}", label, label)
-        for key in table:
-            if key not in COAT_KEYS:
-                raise fail(f'unknown key "{key}"{_suggest_key(key, COAT_KEYS)}',
-                           f"{label}.{key}", label)
-        places = {k: where(f"{label}.{k}", f"{label}, {k}") for k in COAT_KEYS}
-        places["dft"] = where(label, label)
-        coats.append(make_coat(table.get("name"), dft_um=table.get("dft_um"),
-                               dft_mils=table.get("dft_mils"),
-                               volume_solids=table.get("volume_solids"), loss=table.get("loss"),
-                               price_per_litre=table.get("price_per_litre"),
-                               price_per_us_gallon=table.get("price_per_us_gallon"),
-                               where=places, number=i))
+    coats = read_coats(data.get("coat"), "", "[[coat]]")
     return CoatingSystem(tuple(coats), texts["name"], texts["currency"], file)
 
 
@@ -1143,7 +1337,13 @@ CLI_NAMES = {"dft": "--dft", "volume_solids": "--volume-solids", "loss": "--loss
              "coat_name": "--coat-name", "currency": "--currency", "system": "--system",
              "quantity": "--quantity", "faces": "--faces", "mask": "--mask", "sides": "--sides",
              "area_unit": "--area-unit", "paint_unit": "--volume-unit", "film_unit": "--film-unit",
-             "axis": "--axis", "angle": "--angle", "units": "--units", "tolerance": "--tolerance"}
+             "axis": "--axis", "angle": "--angle", "units": "--units", "tolerance": "--tolerance",
+             "packs": "--packs", "mix_ratio": "--mix-ratio", "hardener_packs": "--hardener-packs",
+             "minimum_mix": "--minimum-mix", "thinner": "--thinner",
+             "thinner_limit": "--thinner-limit", "thinner_packs": "--thinner-packs",
+             "pack_rule": "--pack-rule", "prepare": "--prepare", "abrasive": "--abrasive",
+             "stripe_band": "--stripe-band", "stripe_percent": "--stripe-percent",
+             "application_rate": "--application-rate", "labour_rate": "--labour-rate"}
 #: ... and in the library (the parameters of :func:`estimate_coating`).
 LIBRARY_NAMES = {key: key for key in CLI_NAMES}
 
@@ -1243,6 +1443,22 @@ def _percent(value: Any, option: str) -> Any:
         raise e.located(option=option)
 
 
+def _percent_in_range(value: Any, option: str) -> float:
+    """A percentage from 0 to 100 (a number, or text with or without %).
+
+    >>> _percent_in_range("5 %", "thinner"), _percent_in_range(12, "thinner")
+    (5.0, 12.0)
+    >>> _percent_in_range(150, "thinner")
+    Traceback (most recent call last):
+    ...
+    revolve.jobs.coating.CoatingError: thinner: give a percentage from 0 to 100, got 150
+    """
+    v = _percent(value, option)
+    if isinstance(v, bool) or not isinstance(v, (int, float)) or not 0 <= v <= 100:
+        raise CoatingError(f"give a percentage from 0 to 100, got {value!r}", option=option)
+    return float(v)
+
+
 def _money(value: Any, option: str) -> Tuple[Any, Optional[str]]:
     """An amount and its currency code (None) from a number, text such as "21.50 EUR" or a Money."""
     from revolve.inputs import Money, parse_money
@@ -1260,22 +1476,33 @@ def _money(value: Any, option: str) -> Tuple[Any, Optional[str]]:
 
 
 def _system(system: Any, names: Mapping[str, str], *, coat_name, dft, volume_solids, loss,
-            price_per_litre, price_per_gallon, currency, film_unit: str) -> CoatingSystem:
+            price_per_litre, price_per_gallon, currency, film_unit: str,
+            bought_as: Optional[Mapping[str, Any]] = None,
+            labour_rate: Any = None) -> CoatingSystem:
     """The coating system: a file (or a CoatingSystem), or one coat from the single-coat inputs."""
     from dataclasses import replace
 
     litre, litre_code = _money(price_per_litre, names["price_per_litre"])
     gallon, gallon_code = _money(price_per_gallon, names["price_per_gallon"])
+    from revolve.jobs.packs import pack_currency
+
+    bought_as = dict(bought_as or {})
     codes = {names[k]: c for k, c in (("currency", currency and currency.strip().upper()),
                                       ("price_per_litre", litre_code),
-                                      ("price_per_gallon", gallon_code)) if c}
+                                      ("price_per_gallon", gallon_code),
+                                      ("labour_rate", _money(labour_rate,
+                                                             names["labour_rate"])[1]),
+                                      *((k, pack_currency(bought_as.get(k)))
+                                        for k in ("packs", "hardener_packs", "thinner_packs")))
+             if c}
     if len(set(codes.values())) > 1:
         raise CoatingError("the prices and the currency name different currencies ("
                            + ", ".join(f"{k} {v}" for k, v in codes.items())
                            + "); give one currency", option=next(iter(codes)))
     code = next(iter(codes.values()), None)
     single = {"dft": dft, "volume_solids": volume_solids, "loss": loss, "coat_name": coat_name,
-              "price_per_litre": price_per_litre, "price_per_gallon": price_per_gallon}
+              "price_per_litre": price_per_litre, "price_per_gallon": price_per_gallon,
+              **bought_as}
     given = [names[k] for k, v in single.items() if v is not None]
     if system is not None:
         if given:
@@ -1287,6 +1514,10 @@ def _system(system: Any, names: Mapping[str, str], *, coat_name, dft, volume_sol
             from revolve.formats.files import read_text
 
             found = parse_coating_system(read_text(os.fspath(system)), file=os.fspath(system))
+        if code and found.currency and code != found.currency.strip().upper():
+            raise CoatingError(f"the system file's currency is {found.currency} and "
+                               f"{next(iter(codes))} names {code}; give one currency",
+                               option=next(iter(codes)))
         return replace(found, currency=code) if code else found
     if dft is None and volume_solids is None and loss is None:
         raise CoatingError(f"no coating given: give a coating-system file ({names['system']}), or "
@@ -1307,6 +1538,9 @@ def _system(system: Any, names: Mapping[str, str], *, coat_name, dft, volume_sol
                                                                names["volume_solids"]),
                      loss=_percent(loss, names["loss"]), price_per_litre=litre,
                      price_per_us_gallon=gallon, where=where)
+    product = _option_product(names, coat.name, **bought_as) if bought_as else None
+    if product is not None:
+        coat = dataclasses.replace(coat, product=product)
     return CoatingSystem((coat,), None, code, None)
 
 
@@ -1359,7 +1593,7 @@ def _measure(doc, axis, angle, quantity: int, number: int) -> CoatedPart:
                       units.factor(doc.profile.unit, "length") ** 2)
 
 
-def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, est, currency):
+def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, ests, currency):
     """Trade units (:func:`trade_units` "coating"), the user's choices, then the small-part rule."""
     from revolve.jobs.results import trade_units
 
@@ -1369,23 +1603,33 @@ def _output_units(imperial: bool, area_unit, paint_unit, film_unit, names, est, 
                "paint": names["paint_unit"], "capacity": names["paint_unit"],
                "film": names["film_unit"]}
     u = trade_units("coating", "in" if imperial else "m", chosen, options=options,
-                    currency=currency)
+                    currency=currency).with_units({"time": "h"})
     small = {}
-    if area_unit is None and max(p.part.area_each for p in est.parts) < SMALL * u.read(1, "area"):
+    each = [math.fsum(e.parts[i].part.area_each for _, e in ests)
+            for i in range(len(ests[0][1].parts))]
+    if area_unit is None and max(each) < SMALL * u.read(1, "area"):
         small["area"] = SMALL_AREA[1 if imperial else 0]
-    litres = max(q.litres for q in est.coats)
+    litres = max(q.litres for _, e in ests for q in e.coats)
     if paint_unit is None and litres / 1000 < SMALL * u.read(1, "paint"):
         small["paint"] = "mL"
     return (u.with_units(small) if small else u), small
 
 
-def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance: float):
-    """The estimate's tables, values in SI (m, m², m³, m²/m³; money as it is)."""
+def _film(c: Coat):
+    return c.dft_exact / 1_000_000 if c.dft_exact is not None else c.dft_um * 1e-6
+
+
+def _tables(parts: Sequence[CoatedPart], ests, heading: str, tolerance: float, buying=()):
+    """The estimate's tables, values in SI (m, m², m³, m²/m³; money as it is).
+
+    ``ests`` holds (group or None, :class:`Estimate`) pairs; ``buying`` the
+    tables of what is bought and done (packs, stripe coat, preparation, labour).
+    """
     from revolve.jobs.results import Field, Table
 
-    system = est.system
+    grouped = ests[0][0] is not None
     surfaces_rows, parts_rows, lines = [], [], []
-    for p, pe in zip(parts, est.parts):
+    for i, p in enumerate(parts):
         for ch in p.chosen:
             s = ch.surface
             row = {"part": p.name, "face": s.face, "facing": s.facing, "area": s.area * p.si,
@@ -1393,56 +1637,85 @@ def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance:
                    "counted": ch.included}
             if s.side:
                 row["side"] = s.side
+            if ch.group:
+                row["group"] = ch.group
             if ch.reason:
                 row["reason"] = ch.reason
             surfaces_rows.append(row)
         c = p.measurement.crosscheck
+        pes = [(g, e.parts[i]) for g, e in ests]
+        costs = [pe.cost for _, pe in pes if pe.cost is not None]
         row = {"part": p.name, "quantity": p.quantity,
-               "area_each": pe.part.area_each, "area": pe.part.area_total,
-               "paint": pe.litres / 1000, "surface_check": c.surface_difference}
-        if pe.cost is not None:
-            row["cost"] = pe.cost
+               "area_each": math.fsum(pe.part.area_each for _, pe in pes),
+               "area": math.fsum(pe.part.area_total for _, pe in pes),
+               "paint": math.fsum(pe.litres for _, pe in pes) / 1000,
+               "surface_check": c.surface_difference}
+        if costs:
+            row["cost"] = math.fsum(costs)
         parts_rows.append(row)
-        for q in pe.coats:
-            line = {"part": p.name, "coat": q.coat.name, "area": q.area, "paint": q.litres / 1000,
+        for g, pe in pes:
+            for q in pe.coats:
+                line = {"part": p.name, "coat": q.coat.name, "area": q.area,
+                        "paint": q.litres / 1000, "paint_theoretical": q.litres_theoretical / 1000}
+                if g:
+                    line["group"] = g
+                if q.cost is not None:
+                    line["cost"] = q.cost
+                lines.append(line)
+    coats_rows, paint_rows = [], []
+    for g, est in ests:
+        for q in est.coats:
+            c = q.coat
+            film = _film(c)
+            wet = film * 100 / _exact(c.volume_solids) if c.dft_exact is not None \
+                else c.wet_film_um * 1e-6
+            row = {"coat": c.name, "dft": film, "volume_solids": c.volume_solids,
+                   "wet_film": wet, "loss": c.loss,
+                   "spreading_rate_theoretical": c.spreading_rate_theoretical * 1000,
+                   "spreading_rate_practical": c.spreading_rate_practical * 1000}
+            if c.price_per_litre is not None:
+                row["price"] = c.price_exact * 1000 if c.price_exact is not None \
+                    else c.price_per_litre * 1000
+            row2 = {"coat": c.name, "area": q.area, "paint": q.litres / 1000,
                     "paint_theoretical": q.litres_theoretical / 1000}
             if q.cost is not None:
-                line["cost"] = q.cost
-            lines.append(line)
-    coats_rows, paint_rows = [], []
-    for q in est.coats:
-        c = q.coat
-        film = c.dft_exact / 1_000_000 if c.dft_exact is not None else c.dft_um * 1e-6
-        wet = film * 100 / _exact(c.volume_solids) if c.dft_exact is not None \
-            else c.wet_film_um * 1e-6
-        row = {"coat": c.name, "dft": film, "volume_solids": c.volume_solids, "wet_film": wet,
-               "loss": c.loss, "spreading_rate_theoretical": c.spreading_rate_theoretical * 1000,
-               "spreading_rate_practical": c.spreading_rate_practical * 1000}
-        if c.price_per_litre is not None:
-            row["price"] = c.price_exact * 1000 if c.price_exact is not None \
-                else c.price_per_litre * 1000
-        coats_rows.append(row)
-        row = {"coat": c.name, "area": q.area, "paint": q.litres / 1000,
-               "paint_theoretical": q.litres_theoretical / 1000}
-        if q.cost is not None:
-            row["cost"] = q.cost
-        paint_rows.append(row)
-    films = [c.dft_exact for c in system.coats]
-    total = {"quantity": est.quantity, "area": est.area,
-             "dft": sum(films, Fraction(0)) / 1_000_000 if all(f is not None for f in films)
-             else system.dft_um * 1e-6,
-             "paint": est.litres / 1000,
-             "paint_theoretical": float(math.fsum(q.litres_theoretical for q in est.coats)) / 1000}
-    if est.cost is not None:
-        total["cost"] = est.cost
-        total["cost_complete"] = est.cost_complete
+                row2["cost"] = q.cost
+            if g:
+                row = {"group": g, **row}
+                row2 = {"group": g, **row2}
+            coats_rows.append(row)
+            paint_rows.append(row2)
+    costs = [e.cost for _, e in ests if e.cost is not None]
+    total = {"quantity": ests[0][1].quantity,
+             "area": math.fsum(e.area for _, e in ests),
+             "paint": math.fsum(e.litres for _, e in ests) / 1000,
+             "paint_theoretical": math.fsum(q.litres_theoretical for _, e in ests
+                                            for q in e.coats) / 1000}
+    if not grouped:
+        films = [c.dft_exact for c in ests[0][1].system.coats]
+        total["dft"] = sum(films, Fraction(0)) / 1_000_000 if all(f is not None for f in films) \
+            else ests[0][1].system.dft_um * 1e-6
+    if costs:
+        total["cost"] = math.fsum(costs)
+        total["cost_complete"] = all(e.cost_complete for _, e in ests)
+    for t in buying:
+        if t.key == "stripe":
+            total["stripe_paint"] = math.fsum(r["paint"] for r in t.rows)
+        if t.key == "packs" and any("cost" in r for r in t.rows):
+            total["packs_cost"] = math.fsum(r.get("cost", 0.0) for r in t.rows)
+        if t.key == "labour" and t.rows and "cost" in t.rows[0]:
+            total["labour_cost"] = t.rows[0]["cost"]
     money = Field("cost", "cost", style="money")
-    name = system.name or "one coat, from the options"
+    group_field = Field("group", "group", style="text")
+    system = ests[0][1].system
+    name = (system.name if not grouped else None) or \
+        ("a system per face group" if grouped else "one coat, from the options")
+    file = system.file
     return (
         Table("surfaces", f"{heading}: surfaces to coat", (
             Field("part", "part", style="text"), Field("face", "face", style="text"),
             Field("facing", "facing", style="text"), Field("side", "side", style="text"),
-            Field("area", "each", "area"), Field("area_batch", "batch", "area"),
+            Field("area", "each", "area"), Field("area_batch", "batch", "area"), group_field,
             Field("counted", "counted", style="text"), Field("reason", "why not", style="text")),
             tuple(surfaces_rows)),
         Table("parts", "Parts", (
@@ -1450,33 +1723,352 @@ def _tables(parts: Sequence[CoatedPart], est: Estimate, heading: str, tolerance:
             Field("area_each", "each", "area"), Field("area", "batch", "area"),
             Field("paint", "paint", "paint"), money,
             Field("surface_check", "surface check", digits=2)), tuple(parts_rows)),
-        Table("coats", f"Coats: {name}" + (f" ({system.file})" if system.file else ""), (
-            Field("coat", "coat", style="text"), Field("dft", "DFT", "film"),
+        Table("coats", f"Coats: {name}" + (f" ({file})" if file else ""), (
+            group_field, Field("coat", "coat", style="text"), Field("dft", "DFT", "film"),
             Field("volume_solids", "VS", style="percent"), Field("wet_film", "WFT", "film"),
             Field("loss", "loss", style="percent"),
             Field("spreading_rate_theoretical", "rate", "coverage/capacity"),
             Field("spreading_rate_practical", "practical", "coverage/capacity"),
             Field("price", "price", "money/capacity", style="money")), tuple(coats_rows)),
         Table("paint", "Paint by coat, for the whole batch", (
-            Field("coat", "coat", style="text"), Field("area", "area", "area"),
+            group_field, Field("coat", "coat", style="text"), Field("area", "area", "area"),
             Field("paint", "to buy", "paint"), Field("paint_theoretical", "as film", "paint"),
             money), tuple(paint_rows)),
         Table("quantities", "Paint by part and coat", (
-            Field("part", "part", style="text"), Field("coat", "coat", style="text"),
+            Field("part", "part", style="text"), group_field, Field("coat", "coat", style="text"),
             Field("area", "area", "area"), Field("paint", "to buy", "paint"),
             Field("paint_theoretical", "as film", "paint"), money), tuple(lines)),
+        *buying,
         Table("total", "Total", (
-            Field("quantity", "parts", style="count"), Field("area", "area, each coat", "area"),
+            Field("quantity", "parts", style="count"),
+            Field("area", "area coated" if grouped else "area, each coat", "area"),
             Field("dft", "dry film, all coats", "film"), Field("paint", "paint to buy", "paint"),
-            Field("paint_theoretical", "paint left as film", "paint"), money,
-            Field("cost_complete", "every coat priced", style="text")), (total,), figures=True),
+            Field("paint_theoretical", "paint left as film", "paint"),
+            Field("stripe_paint", "stripe coat paint (apart)", "paint"), money,
+            Field("cost_complete", "every coat priced", style="text"),
+            Field("packs_cost", "packs bought", style="money"),
+            Field("labour_cost", "labour", style="money")), (total,), figures=True),
     )
+
+
+def _as_text(value: Any) -> Any:
+    """An input for the JSON ``inputs``: numbers and lists as they are, typed values as text.
+
+    >>> from revolve.inputs import Length, Money
+    >>> _as_text(Length(50.0, "mm")), _as_text(Money(45.0, "EUR")), _as_text(12.5)
+    ('50 mm', '45 EUR', 12.5)
+    """
+    from revolve.inputs import Length, Money
+
+    if isinstance(value, Length):
+        return f"{value.value:g}" + (f" {value.unit}" if value.unit else "")
+    if isinstance(value, Money):
+        return f"{value.amount:g}" + (f" {value.currency}" if value.currency else "")
+    if isinstance(value, (list, tuple)):
+        return [_as_text(v) for v in value]
+    if isinstance(value, (bool, int, float)):
+        return value
+    return str(value)
 
 
 def _axis_text(axis: Any) -> Optional[str]:
     if axis is None or isinstance(axis, str):
         return axis
     return ",".join(f"{v:g}" for v in (*axis.point, *axis.direction))
+
+
+def _option_product(names: Mapping[str, str], name: str, *, packs: Any, mix_ratio: Any,
+                    hardener_packs: Any, minimum_mix: Any, thinner: Any, thinner_limit: Any,
+                    thinner_packs: Any) -> Any:
+    """The one coat's :class:`packs.Product` from the options, or None without ``packs``."""
+    from revolve.jobs import packs as buying
+
+    given = {"mix_ratio": mix_ratio, "hardener_packs": hardener_packs,
+             "minimum_mix": minimum_mix, "thinner": thinner, "thinner_limit": thinner_limit,
+             "thinner_packs": thinner_packs}
+    if packs is None:
+        extra = [names[k] for k, v in given.items() if v is not None]
+        if extra:
+            raise CoatingError(f"{extra[0]} needs {names['packs']}: the pack sizes the coat is "
+                               "sold in, such as '20 L, 5 L, 1 L'", option=extra[0])
+        return None
+    base = buying.parse_packs(packs, names["packs"])
+    hardener = buying.parse_packs(hardener_packs, names["hardener_packs"]) \
+        if hardener_packs is not None else ()
+    ratio = buying.parse_ratio(mix_ratio, names["mix_ratio"]) if mix_ratio is not None else None
+    if ratio is not None and not hardener:
+        raise CoatingError(f"a two-pack product needs its hardener packs; give "
+                           f"{names['hardener_packs']}", option=names["mix_ratio"])
+    if hardener and ratio is None:
+        raise CoatingError(f"hardener packs need the mixing ratio; give {names['mix_ratio']} "
+                           "(base to hardener by volume, such as '4:1')",
+                           option=names["hardener_packs"])
+    least = 0.0 if minimum_mix is None else \
+        buying.parse_volume_litres(minimum_mix, names["minimum_mix"])
+    if least < 0:
+        raise CoatingError("the minimum mix must be 0 or more", option=names["minimum_mix"])
+    percent = _percent(thinner, names["thinner"]) if thinner is not None else 0.0
+    limit = _percent(thinner_limit, names["thinner_limit"]) if thinner_limit is not None else None
+    if limit is not None and percent > limit:
+        raise CoatingError(f"thinning {percent:g} % is above the data sheet's limit of {limit:g} "
+                           "%; follow the data sheet", option=names["thinner"])
+    return buying.Product(name, base, mix_ratio=ratio, hardener_packs=hardener,
+                          minimum_mix=least, thinner_percent=percent, thinner_limit=limit,
+                          thinner_packs=buying.parse_packs(thinner_packs, names["thinner_packs"])
+                          if thinner_packs is not None else ())
+
+
+def _assign_groups(p: CoatedPart, plans, file: Optional[str]) -> CoatedPart:
+    """Each counted surface of a part into the one face group that names it (or none)."""
+    if plans[0][0] is None:
+        return p
+    faces = face_names(p.found)
+    out = []
+    for ch in p.chosen:
+        if not ch.included:
+            out.append(ch)
+            continue
+        owners = [g for g, names, _ in plans if any(_matches(ch.surface, n, faces) for n in names)]
+        if len(owners) > 1:
+            raise CoatingError(f"the surface {ch.surface.label!r} ({ch.surface.facing}) is in two "
+                               f"face groups, {owners[0]!r} and {owners[1]!r}; give each face to "
+                               "one group", file=file, place="coating system")
+        if owners:
+            out.append(dataclasses.replace(ch, group=owners[0]))
+        else:
+            out.append(Chosen(ch.surface, False, "in no face group"))
+    return dataclasses.replace(p, chosen=tuple(out))
+
+
+def _buying_tables(parts, ests, names, *, pack_rule, prepare, abrasive, stripe_band,
+                   stripe_percent, application_rate, labour_rate, notes, cautions):
+    """What is bought and done: stripe coat, packs, preparation, labour (tables in SI)."""
+    from revolve import units as registry
+    from revolve.geometry.profile import UNNAMED_FACE
+    from revolve.jobs import packs as buying
+    from revolve.jobs.results import Field, Table
+
+    tables = []
+    # -- stripe coat: one coat on the edges, in each group's first coat, shown apart
+    stripe_litres: Dict[Tuple[Optional[str], int], float] = {}
+    if stripe_band is not None and stripe_percent is not None:
+        raise CoatingError(f"give the stripe coat as a band width ({names['stripe_band']}) or "
+                           f"as a percentage ({names['stripe_percent']}), not both",
+                           option=names["stripe_band"])
+    if stripe_band is not None or stripe_percent is not None:
+        band = None
+        if stripe_band is not None:
+            from revolve.inputs import Length, parse_length
+
+            try:
+                length = stripe_band if isinstance(stripe_band, Length) else \
+                    parse_length(str(stripe_band))
+                band = length.metres()
+            except RevolveError as e:
+                raise e.located(option=names["stripe_band"])
+            if not band > 0:
+                raise CoatingError(f"the band width must be above 0, got {stripe_band!r}",
+                                   option=names["stripe_band"])
+        pct = _percent(stripe_percent, names["stripe_percent"]) \
+            if stripe_percent is not None else None
+        taken = set()
+        rows = []
+        shared = sorted({ch.surface.face for p in parts for ch in p.chosen if ch.included
+                         and any(o.included and o.group != ch.group and
+                                 o.surface.face == ch.surface.face for o in p.chosen)})
+        if shared and band is not None:
+            notes.append("stripe coat: faces in more than one face group ("
+                         + ", ".join(repr(f) for f in shared) + "): their edges are counted "
+                         "once, in the first group that has them (name the faces in the profile "
+                         "to tell them apart)")
+        for g, est in ests:
+            edge_length, count = 0.0, 0
+            for p in parts:
+                group_faces = {ch.surface.face for ch in p.chosen if ch.included and ch.group == g}
+                if not group_faces or band is None:
+                    continue
+                if UNNAMED_FACE in group_faces:          # segments without a face name
+                    group_faces.add(None)
+                prep = p.measurement.prepared
+                if prep is None:
+                    from revolve.geometry.checks import prepare as check
+
+                    rev = p.measurement.revolution
+                    prep = check(rev.profile, rev.axis)
+                for e in buying.profile_edges(prep, registry.factor(p.unit, "length"),
+                                              p.measurement.revolution.angle_radians,
+                                              faces=group_faces):
+                    key = (p.name, round(e.z, 12), round(e.radius, 12))
+                    if key not in taken:
+                        taken.add(key)
+                        edge_length += e.length * p.quantity
+                        count += p.quantity
+            area = est.area
+            s = buying.stripe_coat(edge_length, band) if band is not None else \
+                buying.stripe_coat(coated_area=area, percent=pct)
+            coat = est.system.coats[0]
+            litres = coat.litres_for(s.area)
+            stripe_litres[(g, 0)] = litres
+            row = {"coat": coat.name, "area": s.area, "paint": litres / 1000}
+            if g:
+                row = {"group": g, **row}
+            if band is not None:
+                row.update(edges=count, edge_length=edge_length, band=band)
+            else:
+                row["percent"] = pct
+            if coat.price_per_litre is not None:
+                row["cost"] = litres * coat.price_per_litre
+            rows.append(row)
+        if any(r["area"] > e.area for r, (_, e) in zip(rows, ests) if e.area > 0):
+            notes.append("the stripe coat's area is more than the area it edges: the band is "
+                         "wide for these parts (bands overlap); check the band width")
+        tables.append(Table("stripe", "Stripe coat on edges (one coat, in the first coat's "
+                                      "paint; shown apart)", (
+            Field("group", "group", style="text"), Field("coat", "paint of", style="text"),
+            Field("edges", "edges", style="count"), Field("edge_length", "edge length", "length"),
+            Field("band", "band", "length"), Field("percent", "of the area", style="percent"),
+            Field("area", "area", "area"), Field("paint", "to buy", "paint"),
+            Field("cost", "cost", style="money")), tuple(rows)))
+        notes.append("stripe coat: edges are the profile's corners (turning by more than 30°) and "
+                     "the free ends of sheets, each swept round the axis; area = edge length × "
+                     "band width (or a percentage of the coated area); its paint is bought with "
+                     "the first coat (common practice, no source)")
+    # -- packs: litres of each product (coats sharing a product bought together)
+    if pack_rule is not None:
+        pack_rule = str(pack_rule).strip().lower().replace("-", " ")
+        if pack_rule not in buying.RULES:
+            raise CoatingError(f"give {', '.join(buying.RULES)}; got {pack_rule!r}",
+                               option=names["pack_rule"])
+    products: Dict[str, Any] = {}
+    for g, est in ests:
+        for k, q in enumerate(est.coats):
+            product = q.coat.product
+            if product is None:
+                continue
+            need = q.litres + stripe_litres.get((g, k), 0.0)
+            mixed = max(need, product.minimum_mix) if need > 0 else 0.0
+            if 0 < need < product.minimum_mix:
+                notes.append(f"{product.name}: {need:.3g} L needed for {q.coat.name} is below "
+                             f"the minimum mix; {product.minimum_mix:g} L is mixed")
+            seen = products.get(product.name)
+            if seen is not None and seen[0] != product:
+                raise CoatingError(f"the product {product.name!r} is given twice with different "
+                                   "packs, ratio or thinner; give it once the same way",
+                                   file=est.system.file, place="coating system")
+            label = f"{g}: {q.coat.name}" if g else q.coat.name
+            if seen is None:
+                products[product.name] = (product, need, mixed, [label])
+            else:
+                products[product.name] = (product, seen[1] + need, seen[2] + mixed,
+                                          seen[3] + [label])
+    if pack_rule is not None and not products:
+        raise CoatingError(f"{names['pack_rule']} needs packs: give {names['packs']}, or "
+                           "packs_litres in the coating-system file", option=names["pack_rule"])
+    if products:
+        rows, rules = [], []
+        for product, need, mixed, labels in products.values():
+            if need == 0:
+                continue
+            if len(labels) > 1:
+                notes.append(f"{product.name} is bought once for: {'; '.join(labels)}")
+            every = product.packs + product.hardener_packs + product.thinner_packs
+            rule = pack_rule or ("cheapest" if all(p.price is not None for p in every)
+                                 else "fewest")
+            try:
+                bought = buying.buy(product, mixed, rule)
+            except RevolveError as e:
+                raise e.located(option=names["pack_rule"] if pack_rule else names["packs"])
+            notes.extend(n for n in bought.notes if "minimum mix" not in n)
+            litres = bought.base.litres + (bought.hardener.litres if bought.hardener else 0.0)
+            rules.append(f"{product.name} by {rule}")
+            row = {"product": product.name, "coats": "; ".join(labels),
+                   "needed": need / 1000, "mixed": mixed / 1000,
+                   "base": bought.base.text(), "bought": litres / 1000,
+                   "left_over": (litres - mixed) / 1000}
+            if bought.hardener is not None:
+                row["ratio"] = ":".join(f"{v:g}" for v in product.mix_ratio)
+                row["hardener"] = bought.hardener.text()
+            if bought.thinner_litres > 0:
+                row["thinner"] = bought.thinner_litres / 1000
+                if bought.thinner is not None:
+                    row["thinner_packs"] = bought.thinner.text()
+            if bought.cost is not None and any(p.price is not None for p in every):
+                row["cost"] = bought.cost
+            rows.append(row)
+            if product.two_pack:
+                cautions.append(buying.CAUTIONS[3])
+            if product.thinner_percent > 0:
+                cautions.append(buying.CAUTIONS[4])
+        tables.append(Table("packs", "What is bought, by product (packs rounded up)", (
+            Field("product", "product", style="text"), Field("coats", "for", style="text"),
+            Field("needed", "needed", "paint"), Field("mixed", "mixed", "paint"),
+            Field("ratio", "ratio", style="text"), Field("base", "packs", style="text"),
+            Field("hardener", "hardener", style="text"),
+            Field("bought", "bought", "paint"), Field("left_over", "left", "paint"),
+            Field("thinner", "thinner", "paint"), Field("thinner_packs", "in packs",
+                                                        style="text"),
+            Field("cost", "cost", style="money")), tuple(rows)))
+        notes.append("packs chosen: " + "; ".join(rules) + " (cheapest: least money; fewest: "
+                     "fewest packs; least left over: least surplus)")
+        notes.append("packs: each product's litres (with its stripe coat, each coat at least the "
+                     "minimum mix) rounded up to whole packs; a two-pack product is split base : "
+                     "hardener by volume and each part rounded up; thinner is a percentage of "
+                     "the mixed volume (common practice, no source)")
+        missing = [q.coat.name for _, e in ests for q in e.coats if q.coat.product is None]
+        if missing:
+            notes.append(f"no packs given for: {', '.join(missing)} (litres only)")
+    # -- preparation and abrasive
+    if prepare or abrasive is not None:
+        rate = None
+        if abrasive is not None:
+            rate = buying.parse_rate(abrasive, "mass", "area", names["abrasive"],
+                                     example="25 kg/m^2")
+        coated = math.fsum(e.area for _, e in ests)
+        masked = 0.0
+        if prepare:
+            for p in parts:
+                faces = face_names(p.found)
+                for ch in p.chosen:
+                    if not ch.included and ch.surface.kind != "cut" and \
+                            any(_matches(ch.surface, n, faces) for n in prepare):
+                        masked += ch.surface.area * p.si * p.quantity
+        prep = buying.preparation(coated, masked, rate)
+        row = {"coated": coated, "masked": masked, "area": prep.area}
+        if rate is not None:
+            row.update(rate=rate, abrasive=prep.abrasive)
+        tables.append(Table("preparation", "Surface preparation (blast or other)", (
+            Field("coated", "area coated", "area"),
+            Field("masked", "masked but prepared", "area"),
+            Field("area", "area to prepare", "area"),
+            Field("rate", "abrasive rate", "mass/coverage"),
+            Field("abrasive", "abrasive", "mass")), (row,), figures=True))
+        if prepare and masked == 0:
+            notes.append(f"{names['prepare']}: none of the faces named is masked on these parts; "
+                         "only the coated area is prepared")
+    # -- labour
+    if labour_rate is not None and application_rate is None:
+        raise CoatingError(f"{names['labour_rate']} needs {names['application_rate']}: the area "
+                           "one person applies per hour, per coat", option=names["labour_rate"])
+    if application_rate is not None:
+        rate = buying.parse_rate(application_rate, "area", "time", names["application_rate"],
+                                 example="12 m^2/h", invert=True)
+        coat_area = math.fsum(e.area * len(e.system.coats) for _, e in ests)
+        stripe_area = math.fsum(r["area"] for t in tables if t.key == "stripe" for r in t.rows)
+        money, code = _money(labour_rate, names["labour_rate"])
+        hours = buying.labour(coat_area + stripe_area, rate * 3600,
+                              None if money is None else float(money))
+        row = {"coat_area": coat_area + stripe_area, "rate": rate, "time": hours.hours * 3600}
+        if money is not None:
+            row.update(labour_rate=float(money) / 3600, cost=hours.cost)
+        tables.append(Table("labour", "Labour (application)", (
+            Field("coat_area", "area × coats", "area"),
+            Field("rate", "application rate, per coat", "coverage/time"),
+            Field("time", "time", "time"),
+            Field("labour_rate", "labour rate", "money/time", style="money"),
+            Field("cost", "cost", style="money")), (row,), figures=True))
+        notes.append("labour: time = area × coats (and the stripe coat once) ÷ the application "
+                     "rate per coat; cost = time × labour rate (common practice, no source)")
+    return tuple(tables)
 
 
 def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: Any = None,
@@ -1486,8 +2078,12 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
         axis: Any = None, angle: Optional[float] = None, units: Optional[str] = None,
         area_unit: Optional[str] = None, paint_unit: Optional[str] = None,
         film_unit: Optional[str] = None, us: bool = False,
-        tolerance: float = DEFAULT_TOLERANCE, names: Mapping[str, str] = LIBRARY_NAMES,
-        left_out: Sequence[str] = ()) -> CoatingResult:
+        tolerance: float = DEFAULT_TOLERANCE, packs: Any = None, mix_ratio: Any = None,
+        hardener_packs: Any = None, minimum_mix: Any = None, thinner: Any = None,
+        thinner_limit: Any = None, thinner_packs: Any = None, pack_rule: Optional[str] = None,
+        prepare: Any = None, abrasive: Any = None, stripe_band: Any = None,
+        stripe_percent: Any = None, application_rate: Any = None, labour_rate: Any = None,
+        names: Mapping[str, str] = LIBRARY_NAMES, left_out: Sequence[str] = ()) -> CoatingResult:
     """The coating estimate, for the command line and the library (see :func:`estimate_coating`).
 
     ``names`` says how errors name each input (:data:`CLI_NAMES` on the
@@ -1524,27 +2120,64 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
         raise CoatingError(f"give the dry film thickness with its unit, such as '3 mil' or "
                            f"'75 um', got {str(dft)!r} (or choose the film unit with "
                            f"{names['film_unit']})", option=names["dft"])
+    # typed values read once, as the command line's option types read them (same JSON inputs)
+    from revolve.inputs import parse_length, parse_money
+
+    def typed(parse, value: Any, key: str) -> Any:
+        try:
+            return parse(value) if isinstance(value, str) else value
+        except RevolveError as e:
+            raise e.located(option=names[key])
+
+    labour_rate = typed(parse_money, labour_rate, "labour_rate")
+    stripe_band = typed(parse_length, stripe_band, "stripe_band")
+    thinner, thinner_limit, stripe_percent = (
+        None if v is None else _percent_in_range(v, names[k]) for k, v in
+        (("thinner", thinner), ("thinner_limit", thinner_limit),
+         ("stripe_percent", stripe_percent)))
+    bought_as = dict(packs=packs, mix_ratio=mix_ratio, hardener_packs=hardener_packs,
+                     minimum_mix=minimum_mix, thinner=thinner, thinner_limit=thinner_limit,
+                     thinner_packs=thinner_packs)
     found_system = _system(system, names, coat_name=coat_name, dft=dft,
                            volume_solids=volume_solids, loss=loss,
                            price_per_litre=price_per_litre, price_per_gallon=price_per_gallon,
-                           currency=currency, film_unit=film_text)
+                           currency=currency, film_unit=film_text, bought_as=bought_as,
+                           labour_rate=labour_rate)
     counts = _quantities(quantity, len(docs), names["quantity"])
     parts = [_measure(d, axis, angle, q, i) for i, (d, q) in enumerate(zip(docs, counts), 1)]
     include = split_names([faces] if isinstance(faces, str) else faces)
     masked = split_names([mask] if isinstance(mask, str) else mask)
+    prepared = split_names([prepare] if isinstance(prepare, str) else prepare)
     known = [name for p in parts for name in face_names(p.found)]
     single = parts[0].file if len(parts) == 1 else None
     check_names(include, known, names["faces"], single)
     check_names(masked, known, names["mask"], single)
+    check_names(prepared, known, names["prepare"], single)
+    plans = found_system.plans()
+    for g, group_faces, _ in plans:
+        if g is not None:
+            check_names(group_faces, known, f"group {g!r}, faces", found_system.file)
     notes: List[str] = []
     if left_out:
         notes.append("left out of the folders (not profiles): " + ", ".join(left_out))
     areas = []
+    group_areas: Dict[Optional[str], List[PartArea]] = {g: [] for g, _, _ in plans}
     for i, p in enumerate(parts):
         chosen = select(p.found, include, masked, sides, cut_faces)
-        parts[i] = p = dataclasses.replace(p, chosen=chosen)
+        parts[i] = p = _assign_groups(dataclasses.replace(p, chosen=chosen), plans,
+                                       found_system.file)
+        chosen = p.chosen
+        for g in group_areas:
+            mine = [ch for ch in chosen if ch.group == g]
+            group_areas[g].append(PartArea(p.name, coated_area(mine) * p.si, p.quantity,
+                                           tuple((k, v * p.si)
+                                                 for k, v in area_by_face(mine).items())))
         by_face = tuple((k, v * p.si) for k, v in area_by_face(chosen).items())
         areas.append(PartArea(p.name, coated_area(chosen) * p.si, p.quantity, by_face))
+        if any(ch.reason == "in no face group" for ch in chosen):
+            left = sorted({ch.surface.label for ch in chosen if ch.reason == "in no face group"})
+            notes.append(f"{p.name}: in no face group of the system, so not coated: "
+                         + ", ".join(left))
         if any(ch.surface.kind == "chain" for ch in chosen):
             counted = {"both": "both sides counted", "outer": "one side counted (outer)",
                        "inner": "one side counted (inner)"}[sides]
@@ -1562,11 +2195,19 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
         raise CoatingError("nothing to coat: the faces chosen have no area on any part; check "
                            f"{names['faces']}, {names['mask']} and {names['sides']}", file=single,
                            option=names["faces"] if include else names["mask"])
-    est = estimate(found_system, areas)
-    if not est.cost_complete and est.cost is not None:
-        missing = ", ".join(c.name for c in found_system.coats if c.price_per_litre is None)
+    ests = [(g, estimate(sub, group_areas[g])) for g, _, sub in plans]
+    for g, est in ests:
+        if g is not None and est.area == 0:
+            notes.append(f"the face group {g!r} has no area on these parts")
+    if any(e.cost is not None for _, e in ests) and not all(e.cost_complete for _, e in ests):
+        missing = ", ".join(c.name for c in found_system.all_coats if c.price_per_litre is None)
         notes.append(f"the cost leaves out the coats without a price: {missing}")
-    u, small = _output_units(imperial, area_unit, paint_unit, film_unit, names, est,
+    cautions: List[str] = ["coating"]
+    buying = _buying_tables(parts, ests, names, pack_rule=pack_rule, prepare=prepared,
+                            abrasive=abrasive, stripe_band=stripe_band,
+                            stripe_percent=stripe_percent, application_rate=application_rate,
+                            labour_rate=labour_rate, notes=notes, cautions=cautions)
+    u, small = _output_units(imperial, area_unit, paint_unit, film_unit, names, ests,
                              found_system.currency)
     if "area" in small:
         notes.append(f"every part's coated area is below {SMALL:g} "
@@ -1576,7 +2217,7 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
         notes.append(f"every coat needs below {SMALL:g} {'US gal' if imperial else 'L'}: paint "
                      f"is in mL ({CLI_NAMES['paint_unit']} to choose)")
     notes.append(FORMULAS)
-    n, kinds = est.quantity, len(parts)
+    n, kinds = ests[0][1].quantity, len(parts)
     heading = (f"Coating estimate, {n} part{'s' if n != 1 else ''}"
                + (f" of {kinds} kinds" if kinds > 1 else "")
                + f" (faces: {', '.join(include) or ALL}"
@@ -1585,12 +2226,20 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
               "faces": list(include) or [ALL], "mask": list(masked), "sides": sides,
               "cut_faces": bool(cut_faces), "axis": _axis_text(axis), "angle": angle,
               "system": {"name": found_system.name, "file": found_system.file,
-                         "currency": found_system.currency, "coats": len(found_system.coats)},
+                         "currency": found_system.currency,
+                         "coats": len(found_system.all_coats)},
               "tolerance": tolerance}
+    if found_system.groups:
+        inputs["system"]["groups"] = {g.name: list(g.faces) for g in found_system.groups}
+    extra_inputs = {"pack_rule": pack_rule, "prepare": list(prepared) or None,
+                    "abrasive": abrasive, "stripe_band": stripe_band,
+                    "stripe_percent": stripe_percent, "application_rate": application_rate,
+                    "labour_rate": labour_rate, **bought_as}
+    inputs.update({k: _as_text(v) for k, v in extra_inputs.items() if v is not None and v != []})
     bad = tuple((p.file or p.name, p.measurement.crosscheck.surface_difference) for p in parts
                 if not p.measurement.crosscheck.surface_difference <= tolerance)
-    return CoatingResult("coat", u, inputs, _tables(parts, est, heading, tolerance),
-                         tuple(notes), ("coating",), disagreements=bad)
+    return CoatingResult("coat", u, inputs, _tables(parts, ests, heading, tolerance, buying),
+                         tuple(notes), tuple(dict.fromkeys(cautions)), disagreements=bad)
 
 
 def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = None,
@@ -1601,7 +2250,12 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
                      axis: Any = None, angle: Optional[float] = None,
                      units: Optional[str] = None, area_unit: Optional[str] = None,
                      paint_unit: Optional[str] = None, film_unit: Optional[str] = None,
-                     us: bool = False, tolerance: float = DEFAULT_TOLERANCE) -> CoatingResult:
+                     us: bool = False, tolerance: float = DEFAULT_TOLERANCE, packs: Any = None,
+                     mix_ratio: Any = None, hardener_packs: Any = None, minimum_mix: Any = None,
+                     thinner: Any = None, thinner_limit: Any = None, thinner_packs: Any = None,
+                     pack_rule: Optional[str] = None, prepare: Any = None, abrasive: Any = None,
+                     stripe_band: Any = None, stripe_percent: Any = None,
+                     application_rate: Any = None, labour_rate: Any = None) -> CoatingResult:
     """A coating estimate for a batch of parts: areas by face, and each coat's paint and cost.
 
     The same job as ``revolve coat``; ``result.to_dict()`` is exactly the
@@ -1644,6 +2298,27 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
         cm² (in²); paint below 0.01 L (US gal) for every coat is in mL.
     tolerance : float
         Relative tolerance of the surface cross-check.
+    packs, hardener_packs, thinner_packs : str, optional
+        What the one coat is sold in: sizes with their unit, each with an
+        optional price after ``@`` (``"20 L @ 120 EUR, 5 L @ 40"``). A
+        system file gives ``packs_litres`` (and the rest) per coat.
+    mix_ratio : str, optional
+        Two-pack: base to hardener by volume, ``"4:1"`` (with ``hardener_packs``).
+    minimum_mix : str, optional
+        Least mixed at a time, ``"2 L"``.
+    thinner, thinner_limit : float or str, optional
+        Thinner, % by volume of the mixed product; the data sheet's most.
+    pack_rule : {"cheapest", "fewest", "least left over"}, optional
+        Default: cheapest when every pack has a price, else fewest.
+    prepare : str or list of str, optional
+        Masked faces or groups that are prepared all the same.
+    abrasive : str, optional
+        Abrasive per area prepared, ``"25 kg/m^2"``.
+    stripe_band, stripe_percent : str, optional
+        Stripe coat on the profile's edges: a band width (``"50 mm"``), or a
+        percentage of the coated area.
+    application_rate, labour_rate : str, optional
+        Area applied per hour per coat (``"12 m^2/h"``); money per hour.
 
     Returns
     -------
@@ -1683,4 +2358,9 @@ def estimate_coating(profiles_or_paths: Any, *, system: Any = None, dft: Any = N
                coat_name=coat_name, currency=currency, quantity=quantity, faces=faces,
                mask=mask, sides=sides, cut_faces=cut_faces, axis=axis, angle=angle, units=units,
                area_unit=area_unit, paint_unit=paint_unit, film_unit=film_unit, us=us,
-               tolerance=tolerance)
+               tolerance=tolerance, packs=packs, mix_ratio=mix_ratio,
+               hardener_packs=hardener_packs, minimum_mix=minimum_mix, thinner=thinner,
+               thinner_limit=thinner_limit, thinner_packs=thinner_packs, pack_rule=pack_rule,
+               prepare=prepare, abrasive=abrasive, stripe_band=stripe_band,
+               stripe_percent=stripe_percent, application_rate=application_rate,
+               labour_rate=labour_rate)

@@ -33,8 +33,10 @@ least left over (then the fewest tins):
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
-from typing import Dict, Iterable, Mapping, Optional, Sequence, Tuple
+import re
+from fractions import Fraction
+from dataclasses import dataclass, field
+from typing import Any, Dict, Iterable, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import RevolveError
 
@@ -88,6 +90,8 @@ class Pack:
 
     size: float
     price: Optional[float] = None
+    #: How the user wrote the size (``"1 US gal"``), for order lines; None: litres.
+    label: Optional[str] = field(default=None, compare=False, repr=False)
 
     def __post_init__(self):
         object.__setattr__(self, "size", _number(self.size, "pack size", zero=False))
@@ -125,24 +129,36 @@ class PackChoice:
 
     def text(self) -> str:
         """The packs as an order line, largest first ("nothing" when none)."""
-        parts = [f"{n} × {p.size:g} L" for p, n in sorted(self.counts, key=lambda c: -c[0].size)
-                 if n]
+        parts = [f"{n} × {p.label or f'{p.size:g} L'}"
+                 for p, n in sorted(self.counts, key=lambda c: -c[0].size) if n]
         return " + ".join(parts) or "nothing"
 
 
-def _steps(packs: Sequence[Pack]) -> Tuple[int, Tuple[int, ...]]:
-    """A common step (in millilitres) and each pack's size in steps."""
-    ml = []
-    for p in packs:
-        v = p.size * 1000.0
-        if abs(v - round(v)) > 1e-6 * max(1.0, v):
-            raise RevolveError(f"pack sizes are taken to the millilitre; {p.size!r} L is finer",
-                               place="pack size")
-        ml.append(int(round(v)))
-    step = 0
-    for v in ml:
-        step = math.gcd(step, v)
-    return step, tuple(v // step for v in ml)
+def _steps(packs: Sequence[Pack]) -> Tuple[Fraction, Tuple[int, ...]]:
+    """A common step (litres, exact) and each pack's size in steps.
+
+    Sizes are read as exact decimals of a litre (to the nanolitre), so packs in
+    US gallons and quarts (231 in³ and a quarter of it) share a step as
+    packs in litres and millilitres do.
+
+    >>> _steps((Pack(5.0), Pack(0.25)))
+    (Fraction(1, 4), (20, 1))
+    >>> step, units = _steps((Pack(3.785411784), Pack(0.946352946)))
+    >>> units
+    (4, 1)
+    """
+    exact = [Fraction(repr(round(p.size, 9))) for p in packs]      # to the nanolitre
+    for p, f in zip(packs, exact):
+        if f <= 0:
+            raise RevolveError(f"{p.size!r} L is below a nanolitre", place="pack size")
+    common = 1
+    for f in exact:
+        common = common * f.denominator // math.gcd(common, f.denominator)
+    whole = [int(f * common) for f in exact]
+    g = 0
+    for v in whole:
+        g = math.gcd(g, v)
+    return Fraction(g, common), tuple(v // g for v in whole)
 
 
 def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -> PackChoice:
@@ -157,8 +173,8 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     * ``"least left over"``: the least surplus; among equal surplus the
       fewest packs, then the least money.
 
-    The search is exact (a knapsack over the packs' common step in
-    millilitres). For large orders the bulk goes in the best pack (the
+    The search is exact (a knapsack over the packs' common step, an exact
+    fraction of a litre). For large orders the bulk goes in the best pack (the
     cheapest per litre, or the largest) and the rest is searched: any other
     pack used as many times as the best pack's size in steps could be swapped
     for the best pack at no loss, so that bounds the rest. The work is bounded
@@ -209,7 +225,7 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     if need == 0:
         return PackChoice(0.0, tuple((p, 0) for p in packs), rule)
     step, units = _steps(packs)
-    need_units = math.ceil(need * 1000.0 / step * (1 - _SLACK))
+    need_units = math.ceil(need / float(step) * (1 - _SLACK))
     price = [p.price if p.price is not None else 0.0 for p in packs]
     if rule == "cheapest":
         best = min(range(len(packs)), key=lambda i: (price[i] / units[i], -units[i]))
@@ -221,8 +237,8 @@ def choose_packs(litres: float, packs: Sequence[Pack], rule: str = "cheapest") -
     remaining = need_units - forced * u_best
     top = remaining + max(units)
     if top > MAX_STEPS:
-        raise RevolveError(f"the pack sizes share only a {step} mL step, too fine to search; "
-                           f"round the pack sizes", place="pack sizes")
+        raise RevolveError(f"the pack sizes share only a {float(step) * 1000:.6g} mL step, too "
+                           f"fine to search; round the pack sizes", place="pack sizes")
 
     def key(cost: float, count: int, volume: int):
         c = round(cost, 9)
@@ -770,3 +786,184 @@ def labour(coat_area: float, rate: float, labour_rate: Optional[float] = None) -
     hours = area / r
     cost = None if labour_rate is None else hours * _number(labour_rate, "labour rate")
     return Labour(hours, cost, "hours = area × coats / rate per m² per coat")
+
+
+# --------------------------------------------------------------------------- what people type
+
+_NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d{1,3})?"
+
+
+def parse_volume_litres(text: str, option: Optional[str] = None) -> float:
+    """A volume with its unit (``"20 L"``, ``"1 US_gal"``, ``"500 mL"``), in litres.
+
+    A bare number is refused: the unit is never guessed.
+
+    >>> parse_volume_litres("500 mL"), round(parse_volume_litres("1 US_gal"), 9)
+    (0.5, 3.785411784)
+    >>> parse_volume_litres("20", option="--minimum-mix")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --minimum-mix: '20' has no unit; write it like '20 L'
+    """
+    from revolve import units
+
+    try:
+        return units.parse_quantity(str(text), "volume") * 1000.0
+    except RevolveError as e:
+        raise e.located(option=option) if option else e
+
+
+def parse_packs(text: Any, option: Optional[str] = None) -> Tuple[Pack, ...]:
+    """Pack sizes as a shop lists them: ``"20 L, 5 L, 1 L"``, each with an optional
+    price after ``@``: ``"20 L @ 120, 5 L @ 40 EUR"``.
+
+    A list of :class:`Pack` passes through; a list of texts is read as one.
+
+    >>> parse_packs("20 L @ 120, 5 L @ 40 EUR, 500 mL")
+    (Pack(size=20.0, price=120.0), Pack(size=5.0, price=40.0), Pack(size=0.5, price=None))
+    >>> parse_packs("5 L @ 40 EUR, 1 L @ 10 USD")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: pack prices: the prices name different currencies (EUR, USD); give one currency
+    >>> parse_packs("5 L, 5 L", option="--packs")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --packs: the pack size 5 L is listed twice
+    """
+    from revolve.inputs import parse_list, parse_money
+
+    if isinstance(text, (list, tuple)) and text and all(isinstance(p, Pack) for p in text):
+        return tuple(text)
+    if isinstance(text, (list, tuple)):         # ["20 L @ 120", "5 L"]: each with its unit
+        text = ", ".join(str(v) for v in text)
+    currencies = set()
+
+    def one(item: str) -> Pack:
+        size_text, _, price_text = item.partition("@")
+        litres = parse_volume_litres(size_text.strip())
+        price = None
+        if price_text.strip():
+            money = parse_money(price_text.strip())
+            price = money.amount
+            if money.currency:
+                currencies.add(money.currency)
+        return Pack(litres, price, label=_volume_label(size_text))
+
+    try:
+        found = tuple(parse_list(str(text), one, "pack size"))
+        if len(currencies) > 1:
+            raise RevolveError(f"the prices name different currencies "
+                               f"({', '.join(sorted(currencies))}); give one currency",
+                               place="pack prices")
+        sizes = [round(p.size, 9) for p in found]
+        for p in found:
+            if sizes.count(round(p.size, 9)) > 1:
+                raise RevolveError(f"the pack size {p.label or p.size} is listed twice")
+    except RevolveError as e:
+        raise e.located(option=option) if option else e
+    return found
+
+
+def _volume_label(text: str) -> str:
+    """A pack size as an order line shows it: the number as written, the unit's display name.
+
+    >>> _volume_label(" 1  US_gal"), _volume_label("500 ml"), _volume_label("20L")
+    ('1 US gal', '500 mL', '20 L')
+    """
+    from revolve import units
+
+    m = re.fullmatch(rf"\s*({_NUMBER})\s*(.+?)\s*", text)
+    if m is None:
+        return re.sub(r"\s+", " ", text.strip())
+    try:
+        return f"{m.group(1)} {units.canonical(m.group(2), 'volume')}"
+    except RevolveError:
+        return f"{m.group(1)} {m.group(2)}"
+
+
+def pack_currency(text: Any) -> Optional[str]:
+    """The currency code written with the pack prices, if any.
+
+    >>> pack_currency("5 L @ 40 EUR, 1 L @ 12"), pack_currency("5 L")
+    ('EUR', None)
+    """
+    found = re.findall(r"@\s*(?:([A-Za-z]{3})\s*)?[\d.]+\s*([A-Za-z]{3})?", str(text)) \
+        if isinstance(text, str) else []
+    codes = {(a or b).upper() for a, b in found if a or b}
+    return codes.pop() if len(codes) == 1 else None
+
+
+def parse_ratio(text: Any, option: Optional[str] = None) -> Tuple[float, float]:
+    """A mixing ratio by volume, base to hardener: ``"4:1"`` (or a pair of numbers).
+
+    >>> parse_ratio("4:1"), parse_ratio("3 : 1.5"), parse_ratio([2, 1])
+    ((4.0, 1.0), (3.0, 1.5), (2.0, 1.0))
+    >>> parse_ratio("4", option="--mix-ratio")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --mix-ratio: '4' is not a mixing ratio; write base to hardener by volume, such as '4:1'
+    """
+    from revolve.errors import quoted
+
+    if isinstance(text, (list, tuple)) and len(text) == 2:
+        values = text
+    else:
+        m = re.fullmatch(rf"\s*({_NUMBER})\s*:\s*({_NUMBER})\s*", str(text)) \
+            if len(str(text)) <= 60 else None
+        if m is None:
+            raise RevolveError(f"{quoted(str(text))} is not a mixing ratio; write base to "
+                               "hardener by volume, such as '4:1'", option=option)
+        values = (float(m.group(1)), float(m.group(2)))
+    out = []
+    for v in values:
+        try:
+            out.append(_number(v, "mixing ratio", zero=False))
+        except RevolveError:
+            raise RevolveError(f"both parts of the mixing ratio must be above 0, got {text!r}",
+                               option=option) from None
+    return out[0], out[1]
+
+
+def parse_rate(text: Any, top: str, bottom: str, option: Optional[str] = None, *,
+               example: str = "", invert: bool = False) -> float:
+    """A rate ``"<number> <unit of top>/<unit of bottom>"`` in SI (``"25 kg/m^2"``).
+
+    ``top`` and ``bottom`` are unit kinds of :mod:`revolve.units`; with
+    ``invert`` the rate may also be written the other way up (``"5 min/m^2"``
+    for an application rate in m²/h) and is turned over. A bare number is
+    refused.
+
+    >>> parse_rate("25 kg/m^2", "mass", "area"), round(parse_rate("5 lb/ft^2", "mass", "area"), 6)
+    (25.0, 24.412138)
+    >>> parse_rate("12 m^2/h", "area", "time") * 3600, parse_rate("5 min/m^2", "area", "time", invert=True) * 3600
+    (12.0, 12.0)
+    >>> parse_rate("25", "mass", "area", "--abrasive", example="25 kg/m^2")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --abrasive: '25' needs its unit, such as '25 kg/m^2'
+    """
+    from revolve import units
+    from revolve.errors import quoted
+
+    raw = str(text).strip()
+    m = re.fullmatch(rf"({_NUMBER})\s*([^/]+?)\s*/\s*(.+)", raw) if len(raw) <= 80 else None
+    if m is None:
+        raise RevolveError(f"{quoted(raw)} needs its unit, such as '{example}'", option=option)
+    number = float(m.group(1))
+    num, den = m.group(2), m.group(3)
+    try:
+        try:
+            value = number * units.factor(num, top) / units.factor(den, bottom)
+        except RevolveError:
+            if not invert:
+                raise
+            per = number * units.factor(num, bottom) / units.factor(den, top)
+            if per <= 0:
+                raise RevolveError(f"{quoted(raw)} must be above 0")
+            value = 1.0 / per
+    except RevolveError as e:
+        raise RevolveError(f"{quoted(raw)}: {e.message}; "
+                           f"write it like '{example}'", option=option) from None
+    if not (math.isfinite(value) and value > 0):
+        raise RevolveError(f"{quoted(raw)} must be a finite rate above 0", option=option)
+    return value

@@ -868,3 +868,31 @@ def test_surfaces_use_the_measurements_prepared_profile(monkeypatch):
     monkeypatch.setattr(checks, "prepare", refuse)
     # a tube: bore 2π·1·10, outside 2π·2·10, two annuli π(2² − 1²) — CRC (from memory)
     assert rel(sum(s.area for s in surfaces(m)), math.pi * (20 + 40 + 6)) < 1e-13
+
+
+def test_example_system_per_face_group_with_packs():
+    # the file's own numbers read back (a reading test; the arithmetic is checked by hand in
+    # tests/jobs/test_packs.py and tests/cli/test_coating_cli.py)
+    path = ROOT / "examples" / "coating-tank-groups.toml"
+    s = parse_coating_system(path.read_text(encoding="utf-8"), file=str(path))
+    assert s.coats == () and [g.name for g in s.groups] == ["lining", "outside paint"]
+    assert [g.faces for g in s.groups] == [("inside",), ("outside", "ends")]
+    lining = s.groups[0].coats[0].product
+    assert lining.name == "two-pack epoxy lining" and lining.mix_ratio == (4.0, 1.0)
+    assert [(p.size, p.price) for p in lining.packs] == [(16.0, 310.0), (4.0, 86.0)]
+    assert [(p.size, p.price) for p in lining.hardener_packs] == [(4.0, 95.0), (1.0, 27.0)]
+    assert (lining.minimum_mix, lining.thinner_percent, lining.thinner_limit) == (1.0, 5.0, 10.0)
+    assert s.groups[0].coats[1].product == lining
+    assert s.groups[1].coats[1].product is None and len(s.all_coats) == 4
+    plans = s.plans()
+    assert [(g, f, len(sub.coats)) for g, f, sub in plans] == [
+        ("lining", ("inside",), 2), ("outside paint", ("outside", "ends"), 2)]
+
+
+def test_group_file_lines_name_the_group_and_coat():
+    text = ('name = "x"\n[[group]]\nname = "in"\nfaces = ["inside"]\n[[group.coat]]\n'
+            'dft_um = 60\nvolume_solids = 50\nloss = 5\n[[group.coat]]\ndft_um = 60\n'
+            'volume_solids = 0\nloss = 5\n')
+    with pytest.raises(CoatingError) as err:
+        parse_coating_system(text, file="s.toml")
+    assert str(err.value).startswith("s.toml:11: group 1, coat 2, volume_solids: ")

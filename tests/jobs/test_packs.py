@@ -264,7 +264,7 @@ def test_labour_by_hand():
     (lambda: Pack(1.0, math.inf), "pack price: must be a non-negative number"),
     (lambda: choose_packs(3, (Pack(1.0),), "nearest"), "pack rule: unknown rule 'nearest'"),
     (lambda: choose_packs(3, ()), "pack sizes: the product has no pack sizes"),
-    (lambda: choose_packs(3, (Pack(0.0005),), "fewest"), "pack size: pack sizes are taken"),
+    (lambda: choose_packs(3, (Pack(1.0), Pack(1.0000001)), "fewest"), "pack sizes: the pack sizes share only a 0.0001 mL step"),
     (lambda: choose_packs(500, (Pack(0.001), Pack(199.999)), "fewest"),
      "pack sizes: the pack sizes share only a 1 mL step"),
     (lambda: choose_packs(-2, (Pack(1.0),), "fewest"), "litres needed: must be a non-negative"),
@@ -294,3 +294,15 @@ def test_cautions_cover_the_coating_rules():
     text = " ".join(packs.CAUTIONS)
     for word in ("data sheet", "Ventilate", "confined-space", "pot life", "thinning limit"):
         assert word in text
+
+
+def test_us_gallon_and_quart_packs_by_hand():
+    # 1 US gal = 231 in³ = 3.785411784 L, 1 qt = a quarter of it (exact definitions);
+    # 5 L needs 1 gal + 2 qt (1.5 gal = 5.678 L; 1 gal + 1 qt = 4.73 L is short) — by hand
+    gal, qt = Pack(3.785411784, 80.0), Pack(0.946352946, 24.0)
+    c = choose_packs(5.0, (gal, qt), "least left over")
+    assert dict((p.size, n) for p, n in c.counts) == {3.785411784: 1, 0.946352946: 2}
+    assert abs(c.litres - 1.5 * 3.785411784) < 1e-12
+    # cheapest: 2 gal = 160 beats 1 gal + 2 qt = 128? no: 128 is less, so 1 gal + 2 qt
+    assert choose_packs(5.0, (gal, qt), "cheapest").cost == 128.0
+    assert [p.label for p in packs.parse_packs("1 US_gal @ 80, 1 qt @ 24")] == ["1 US gal", "1 qt"]

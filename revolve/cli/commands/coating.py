@@ -13,7 +13,11 @@ every coat is in mL. ``--area-unit``, ``--volume-unit`` and ``--film-unit``
 choose others. JSON (``--json``): one object with ``inputs`` and ``units``
 once, the tables ``surfaces``, ``parts``, ``coats``, ``paint`` (each coat for
 the batch), ``quantities`` (part × coat; what ``--csv`` writes) and
-``total``, then ``notes`` and ``cautions``. Existing files are replaced only
+``total``, then ``notes`` and ``cautions``; with the options of what is
+bought and done (``--packs``…, ``--stripe-band``/``--stripe-percent``,
+``--prepare``/``--abrasive``, ``--application-rate``/``--labour-rate``) or a
+system file with packs, also ``packs``, ``stripe``, ``preparation`` and
+``labour`` (:mod:`revolve.jobs.packs`). Existing files are replaced only
 with ``--force``.
 """
 
@@ -55,13 +59,17 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
 
 
 def _for_screen(result):
-    """One part: its name once (in the parts table), no table by part and coat."""
+    """One part: its name once (in the parts table), no table by part and coat. The packs
+    table leaves out which coats each product is for (a note says so) to fit the screen."""
     from dataclasses import replace
 
-    if len(result.table("parts").rows) > 1:
-        return result
-    tables = tuple(replace(t, fields=tuple(f for f in t.fields if f.key != "part"))
-                   if t.key == "surfaces" else t for t in result.tables if t.key != "quantities")
+    def narrow(t, key):
+        return replace(t, fields=tuple(f for f in t.fields if f.key != key))
+
+    tables = tuple(narrow(t, "coats") if t.key == "packs" else t for t in result.tables)
+    if len(result.table("parts").rows) == 1:
+        tables = tuple(narrow(t, "part") if t.key == "surfaces" else t for t in tables
+                       if t.key != "quantities")
     return replace(result, tables=tables)
 
 
@@ -92,7 +100,10 @@ def register(app: typer.Typer) -> None:
         system: Optional[str] = typer.Option(
             None, "--system", help="Coating-system file (TOML) with one \\[\\[coat]] table per coat: "
                                    "name, dft_um or dft_mils, volume_solids, loss, "
-                                   "price_per_litre or price_per_us_gallon."),
+                                   "price_per_litre or price_per_us_gallon, and what it is "
+                                   "bought as (packs_litres, pack_prices, mix_ratio, …); or "
+                                   "\\[\\[group]] tables (name, faces, \\[\\[group.coat]]) for a "
+                                   "system per face group."),
         coat_name: Optional[str] = typer.Option(None, "--coat-name", help="Name of the one coat."),
         dft: Optional[str] = typer.Option(None, "--dft", help="Dry film thickness of one coat "
                                                               "with its unit, e.g. '75 um' or "
@@ -130,6 +141,48 @@ def register(app: typer.Typer) -> None:
                                                                    "and coat to this CSV file."),
         force: bool = options.force_option(),
         tolerance: float = options.tolerance_option(1e-9),
+        packs: Optional[str] = typer.Option(
+            None, "--packs", metavar="SIZES", help="Pack sizes the one coat is sold in, each with "
+            "its unit and optionally its price after @: '20 L @ 120 EUR, 5 L @ 40, 1 L @ 12'. "
+            "(A system file gives packs_litres per coat.)"),
+        mix_ratio: Optional[str] = typer.Option(
+            None, "--mix-ratio", metavar="BASE:HARDENER", help="Two-pack product: mixing ratio "
+            "by volume, e.g. '4:1' (with --hardener-packs)."),
+        hardener_packs: Optional[str] = typer.Option(
+            None, "--hardener-packs", metavar="SIZES", help="Hardener pack sizes, as --packs."),
+        minimum_mix: Optional[str] = typer.Option(
+            None, "--minimum-mix", metavar="VOLUME", help="Least mixed at a time, with its "
+            "unit, e.g. '2 L'."),
+        thinner: Optional[Any] = typer.Option(
+            None, "--thinner", click_type=options.PERCENT, metavar="PERCENT",
+            help="Thinner, % by volume of the mixed product."),
+        thinner_limit: Optional[Any] = typer.Option(
+            None, "--thinner-limit", click_type=options.PERCENT, metavar="PERCENT",
+            help="The data sheet's most thinner, %; more is refused."),
+        thinner_packs: Optional[str] = typer.Option(
+            None, "--thinner-packs", metavar="SIZES", help="Thinner pack sizes, as --packs."),
+        pack_rule: Optional[str] = typer.Option(
+            None, "--pack-rule", metavar="RULE", help="How packs are chosen: cheapest, fewest or "
+            "'least left over'. Default: cheapest when every pack has a price, else fewest."),
+        prepare: Optional[List[str]] = typer.Option(
+            None, "--prepare", help="Masked faces or groups that are prepared (blasted) all the "
+                                    "same, as for --mask; adds the preparation table."),
+        abrasive: Optional[str] = typer.Option(
+            None, "--abrasive", metavar="RATE", help="Abrasive used per area prepared, with its "
+            "units, e.g. '25 kg/m^2' or '5 lb/ft^2'."),
+        stripe_band: Optional[Any] = typer.Option(
+            None, "--stripe-band", click_type=options.LENGTH, metavar="LENGTH",
+            help="Stripe coat on edges: band width with its unit, e.g. '50 mm'; edges are the "
+                 "profile's corners swept round the axis."),
+        stripe_percent: Optional[Any] = typer.Option(
+            None, "--stripe-percent", click_type=options.PERCENT, metavar="PERCENT",
+            help="Stripe coat as a percentage of the coated area instead."),
+        application_rate: Optional[str] = typer.Option(
+            None, "--application-rate", metavar="RATE", help="Area applied per hour for one "
+            "coat, e.g. '12 m^2/h' (or time per area, '5 min/m^2')."),
+        labour_rate: Optional[Any] = typer.Option(
+            None, "--labour-rate", click_type=options.MONEY, metavar="MONEY",
+            help="Labour cost per hour, e.g. '45 EUR' (with --application-rate)."),
     ) -> None:
         """Coating estimate: areas to coat by face, and paint per coat for a batch of parts.
 
@@ -150,6 +203,12 @@ def register(app: typer.Typer) -> None:
                         volume_solids=volume_solids, loss=loss, price_per_litre=price_per_litre,
                         price_per_gallon=price_per_gallon, currency=currency,
                         area_unit=area_unit, paint_unit=paint_unit, film_unit=film_unit, us=us,
-                        axis=axis, angle=angle, units=units, tolerance=tolerance)
+                        axis=axis, angle=angle, units=units, tolerance=tolerance, packs=packs,
+                        mix_ratio=mix_ratio, hardener_packs=hardener_packs,
+                        minimum_mix=minimum_mix, thinner=thinner, thinner_limit=thinner_limit,
+                        thinner_packs=thinner_packs, pack_rule=pack_rule, prepare=prepare,
+                        abrasive=abrasive, stripe_band=stripe_band,
+                        stripe_percent=stripe_percent, application_rate=application_rate,
+                        labour_rate=labour_rate)
         if code:
             raise typer.Exit(code)
