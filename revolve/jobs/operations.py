@@ -263,6 +263,36 @@ def operation_data_for(group: str) -> Dict[str, OperationData]:
     return out
 
 
+def _step(value: float, step: float) -> float:
+    return float(f"{max(step, round(value / step) * step):.12g}")
+
+
+def as_shop_writes(data: Mapping[str, OperationData], system: str) -> Dict[str, OperationData]:
+    """The cutting data as a shop of ``system`` writes it: inch shops in round sfm and in/rev.
+
+    The table is metric; an inch shop's figures are its rows rounded to the
+    steps such shops use (sfm to 5 below 200 and to 25 above, in/rev to
+    0.0005, depth of cut to 0.005 in; common practice, no source), so a
+    quote shows 650 sfm, not 656.2. Metric data are returned as they are.
+
+    Examples
+    --------
+    >>> d = as_shop_writes(operation_data_for("steel"), "inch")
+    >>> d["rough turn"].trade_units("inch"), d["drill"].trade_units("inch")
+    ((650.0, 0.012, 0.12), (80.0, 0.006, None))
+    >>> as_shop_writes({}, "inch")
+    {}
+    """
+    if system != "inch":
+        return dict(data)
+    out = {}
+    for op, d in data.items():
+        vc, f, ap = d.trade_units("inch")
+        out[op] = OperationData.from_inch(_step(vc, 5.0 if vc < 200 else 25.0), _step(f, 0.0005),
+                                          None if ap is None else _step(ap, 0.005))
+    return out
+
+
 def data_source(group: str) -> str:
     """Where a group's cutting data comes from.
 
@@ -588,7 +618,8 @@ def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationD
 def plan_operations(features: Features, stock_diameter: float,
                     data: Mapping[str, OperationData], rules: Optional[Rules] = None,
                     speed_limit: Optional[float] = None,
-                    overhang: Optional[float] = None, facing_allowance: float = 0.0) -> Plan:
+                    overhang: Optional[float] = None, facing_allowance: float = 0.0,
+                    stock_bore: float = 0.0) -> Plan:
     """Lay out and time the operations of one part, in the usual order.
 
     Order: face the bar end, rough turn each outer step (from the stock
@@ -616,6 +647,9 @@ def plan_operations(features: Features, stock_diameter: float,
     facing_allowance : float
         Stock faced off the bar end, m: ceil(allowance / ap) facing passes,
         at least one.
+    stock_bore : float
+        The stock's own bore, m (a tube): no centre drill nor drill, the bore
+        is bored from it; facing and parting stop at it.
 
     Returns
     -------
@@ -638,6 +672,14 @@ def plan_operations(features: Features, stock_diameter: float,
     >>> plan = plan_operations(Features((OuterStep(0.01, 0.15),)), 0.012, data)
     >>> plan.warnings[0]
     'length over diameter 15 (150 mm over 10 mm) is above 10: support the part with a steady rest (rule of thumb, common practice, no source)'
+
+    From a ⌀40 × 24 mm tube to a ⌀36 part with a ⌀28 bore: no drilling, the bore
+    is bored from the tube's ⌀24:
+
+    >>> tube = plan_operations(Features((OuterStep(0.036, 0.02),), 0.028, 0.02), 0.04, data,
+    ...                        stock_bore=0.024)
+    >>> [op.name for op in tube.operations]
+    ['face', 'rough turn', 'finish turn', 'bore', 'part off']
     >>> plan_operations(Features((OuterStep(0.03, 0.01),)), 0.02, data)
     Traceback (most recent call last):
     ...
@@ -648,6 +690,11 @@ def plan_operations(features: Features, stock_diameter: float,
     if missing:
         raise RevolveError(f"no cutting data for {', '.join(missing)}", place="cutting data")
     stock = _positive(stock_diameter, "stock diameter")
+    stock_bore = _positive(stock_bore, "stock bore", zero=True)
+    if stock_bore > 0 and (features.bore_diameter < stock_bore * (1 - _SLACK)
+                           or not features.through_bore):
+        raise RevolveError(f"the stock's bore ⌀{_mm(stock_bore)} is larger than the part's bore "
+                           f"or the part has no through bore", place="stock bore")
     if speed_limit is not None:
         speed_limit = _positive(speed_limit, "speed limit")
     largest = max(s.diameter for s in features.outer_steps)
@@ -669,10 +716,12 @@ def plan_operations(features: Features, stock_diameter: float,
     n = spindle_speed(face.cutting_speed, stock, limit)
     facings = max(1, equal_passes(_positive(facing_allowance, "facing allowance", zero=True),
                                   face.depth_of_cut, "face"))
-    ops.append(Operation("face", facings * radial_pass_time(stock / 2, 0.0, face.cutting_speed,
-                                                            face.feed, limit), facings, n,
+    ops.append(Operation("face", facings * radial_pass_time(stock / 2, stock_bore / 2,
+                                                            face.cutting_speed, face.feed, limit),
+                         facings, n,
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(stock)} to the centre", face))
+                         f"⌀{_mm(stock)} to " + (f"⌀{_mm(stock_bore)}" if stock_bore
+                                                 else "the centre"), face))
 
     # rough and finish turn each step
     finish = data["finish turn"]
@@ -695,7 +744,10 @@ def plan_operations(features: Features, stock_diameter: float,
 
     # centre drill, drill, bore
     bore_d, depth = features.bore_diameter, features.bore_depth
-    if bore_d > 0:
+    if bore_d > 0 and stock_bore > 0:
+        if stock_bore < bore_d * (1 - _SLACK):
+            ops.append(_turn("bore", stock_bore, bore_d, depth, data["bore"], limit, "bore"))
+    elif bore_d > 0:
         cd = data["centre drill"]
         n = spindle_speed(cd.cutting_speed, rules.centre_drill_diameter, limit)
         ops.append(Operation("centre drill", pass_time(rules.centre_drill_depth, cd.feed, n), 1,
