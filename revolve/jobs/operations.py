@@ -591,12 +591,17 @@ class Plan:
         return math.fsum(op.time for op in self.operations)
 
 
-def _mm(v: float) -> str:
-    return f"{v * 1000:.4g} mm"
+def _mm(v: float, unit: str = "mm") -> str:
+    """A length in metres as text in ``unit`` (mm or in), four figures."""
+    if unit == "mm":
+        return f"{v * 1000:.4g} mm"
+    from revolve.units import factor
+
+    return f"{v / factor(unit, 'length'):.4g} {unit}"
 
 
 def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationData,
-          limit: Optional[float], what: str) -> Optional[Operation]:
+          limit: Optional[float], what: str, unit: str = "mm") -> Optional[Operation]:
     """Passes along the axis from diameter ``from_d`` down to ``to_d`` (or up, boring)."""
     stock = abs(from_d - to_d) / 2.0
     count = equal_passes(stock, data.depth_of_cut, name)
@@ -612,14 +617,14 @@ def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationD
     return Operation(name, total, count, first,
                      "t = Σ L / (f n), n = vc / (π D) per pass (capped at the speed limit), "
                      "passes = ceil(stock / ap)",
-                     f"{what}: {count} × {_mm(stock / count)} over {_mm(length)}", data)
+                     f"{what}: {count} × {_mm(stock / count, unit)} over {_mm(length, unit)}", data)
 
 
 def plan_operations(features: Features, stock_diameter: float,
                     data: Mapping[str, OperationData], rules: Optional[Rules] = None,
                     speed_limit: Optional[float] = None,
                     overhang: Optional[float] = None, facing_allowance: float = 0.0,
-                    stock_bore: float = 0.0) -> Plan:
+                    stock_bore: float = 0.0, unit: str = "mm") -> Plan:
     """Lay out and time the operations of one part, in the usual order.
 
     Order: face the bar end, rough turn each outer step (from the stock
@@ -650,6 +655,8 @@ def plan_operations(features: Features, stock_diameter: float,
     stock_bore : float
         The stock's own bore, m (a tube): no centre drill nor drill, the bore
         is bored from it; facing and parting stop at it.
+    unit : str
+        The length unit of the details and warnings (mm or in).
 
     Returns
     -------
@@ -693,13 +700,13 @@ def plan_operations(features: Features, stock_diameter: float,
     stock_bore = _positive(stock_bore, "stock bore", zero=True)
     if stock_bore > 0 and (features.bore_diameter < stock_bore * (1 - _SLACK)
                            or not features.through_bore):
-        raise RevolveError(f"the stock's bore ⌀{_mm(stock_bore)} is larger than the part's bore "
+        raise RevolveError(f"the stock's bore ⌀{_mm(stock_bore, unit)} is larger than the part's bore "
                            f"or the part has no through bore", place="stock bore")
     if speed_limit is not None:
         speed_limit = _positive(speed_limit, "speed limit")
     largest = max(s.diameter for s in features.outer_steps)
     if stock < largest * (1 - _SLACK):
-        raise RevolveError(f"the stock ({_mm(stock)}) is smaller than the part ({_mm(largest)})",
+        raise RevolveError(f"the stock ({_mm(stock, unit)}) is smaller than the part ({_mm(largest, unit)})",
                            place="stock diameter")
     ops, deep = [], []
     limit = speed_limit
@@ -708,8 +715,8 @@ def plan_operations(features: Features, stock_diameter: float,
                            ("groove diameter", features.grooves.diameter
                             if features.grooves is not None else 0.0)):
         if diameter > stock * (1 + _SLACK):
-            raise RevolveError(f"the {what.split()[0]} at ⌀{_mm(diameter)} is outside the stock "
-                               f"(⌀{_mm(stock)})", place=what)
+            raise RevolveError(f"the {what.split()[0]} at ⌀{_mm(diameter, unit)} is outside the stock "
+                               f"(⌀{_mm(stock, unit)})", place=what)
 
     # face the bar end
     face = data["face"]
@@ -720,7 +727,7 @@ def plan_operations(features: Features, stock_diameter: float,
                                                             face.cutting_speed, face.feed, limit),
                          facings, n,
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(stock)} to " + (f"⌀{_mm(stock_bore)}" if stock_bore
+                         f"⌀{_mm(stock, unit)} to " + (f"⌀{_mm(stock_bore, unit)}" if stock_bore
                                                  else "the centre"), face))
 
     # rough and finish turn each step
@@ -729,10 +736,10 @@ def plan_operations(features: Features, stock_diameter: float,
     for k, s in enumerate(features.outer_steps, 1):
         roughed = min(stock, s.diameter + 2.0 * finish.depth_of_cut)
         op = _turn("rough turn", stock, roughed, s.length, data["rough turn"], limit,
-                   f"step {k}")
+                   f"step {k}", unit)
         if op:
             rough_ops.append(op)
-        op = _turn("finish turn", roughed, s.diameter, s.length, finish, limit, f"step {k}")
+        op = _turn("finish turn", roughed, s.diameter, s.length, finish, limit, f"step {k}", unit)
         if op:
             finish_ops.append(op)
     for group in (rough_ops, finish_ops):
@@ -746,22 +753,22 @@ def plan_operations(features: Features, stock_diameter: float,
     bore_d, depth = features.bore_diameter, features.bore_depth
     if bore_d > 0 and stock_bore > 0:
         if stock_bore < bore_d * (1 - _SLACK):
-            ops.append(_turn("bore", stock_bore, bore_d, depth, data["bore"], limit, "bore"))
+            ops.append(_turn("bore", stock_bore, bore_d, depth, data["bore"], limit, "bore", unit))
     elif bore_d > 0:
         cd = data["centre drill"]
         n = spindle_speed(cd.cutting_speed, rules.centre_drill_diameter, limit)
         ops.append(Operation("centre drill", pass_time(rules.centre_drill_depth, cd.feed, n), 1,
                              n, "t = depth / (f n), n = vc / (π D)",
-                             f"⌀{_mm(rules.centre_drill_diameter)} × "
-                             f"{_mm(rules.centre_drill_depth)}", cd))
+                             f"⌀{_mm(rules.centre_drill_diameter, unit)} × "
+                             f"{_mm(rules.centre_drill_depth, unit)}", cd))
         if bore_d < rules.min_boring_bar_diameter:
             drill_d, why = bore_d, "drilled to size: below the smallest boring bar " \
-                f"⌀{_mm(rules.min_boring_bar_diameter)} (common practice)"
+                f"⌀{_mm(rules.min_boring_bar_diameter, unit)} (common practice)"
         else:
             drill_d = min(rules.largest_drill, bore_d - rules.bore_stock)
-            why = (f"the largest drill ⌀{_mm(rules.largest_drill)}, then bored"
+            why = (f"the largest drill ⌀{_mm(rules.largest_drill, unit)}, then bored"
                    if drill_d == rules.largest_drill
-                   else f"{_mm(rules.bore_stock)} under size, then bored") + " (common practice)"
+                   else f"{_mm(rules.bore_stock, unit)} under size, then bored") + " (common practice)"
         drill = data["drill"]
         n = spindle_speed(drill.cutting_speed, drill_d, limit)
         point = drill_point_length(drill_d, rules.drill_point_angle)
@@ -769,14 +776,14 @@ def plan_operations(features: Features, stock_diameter: float,
                                                  rules.drill_point_angle), 1, n,
                              "t = (depth + point length) / (f n), point = (d/2) / tan(angle/2), "
                              "n = vc / (π d)",
-                             f"⌀{_mm(drill_d)} × {_mm(depth)} + point {_mm(point)}; {why}",
+                             f"⌀{_mm(drill_d, unit)} × {_mm(depth, unit)} + point {_mm(point, unit)}; {why}",
                              drill))
         if depth > rules.deep_hole_ratio * drill_d:
-            deep.append(f"drill: a hole {depth / drill_d:.3g} diameters deep (⌀{_mm(drill_d)} × "
-                        f"{_mm(depth)}) is above {rules.deep_hole_ratio:g}: peck drill or use a "
+            deep.append(f"drill: a hole {depth / drill_d:.3g} diameters deep (⌀{_mm(drill_d, unit)} × "
+                        f"{_mm(depth, unit)}) is above {rules.deep_hole_ratio:g}: peck drill or use a "
                         f"deep-hole drill (rule of thumb, common practice, no source)")
         if drill_d < bore_d * (1 - _SLACK):
-            op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore")
+            op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore", unit)
             ops.append(op)
 
     # grooves
@@ -790,9 +797,9 @@ def plan_operations(features: Features, stock_diameter: float,
                              spindle_speed(gd.cutting_speed, g.diameter, limit),
                              "t = count × plunges × π (R² − r²) / (vc f), plunges = "
                              "ceil(width / tool width)",
-                             f"{g.count} × {_mm(g.width)} wide, {_mm(g.depth)} deep at "
-                             f"⌀{_mm(g.diameter)}; {plunges} plunge(s) of a "
-                             f"{_mm(rules.groove_tool_width)} tool", gd))
+                             f"{g.count} × {_mm(g.width, unit)} wide, {_mm(g.depth, unit)} deep at "
+                             f"⌀{_mm(g.diameter, unit)}; {plunges} plunge(s) of a "
+                             f"{_mm(rules.groove_tool_width, unit)} tool", gd))
 
     # part off
     po = data["part off"]
@@ -802,14 +809,16 @@ def plan_operations(features: Features, stock_diameter: float,
                                                       limit), 1,
                          spindle_speed(po.cutting_speed, at, limit),
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(at)} to " + (f"⌀{_mm(bore_d)}" if inner else "the centre"),
+                         f"⌀{_mm(at, unit)} to " + (f"⌀{_mm(bore_d, unit)}" if inner else "the centre"),
                          po))
 
-    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang) + tuple(deep), stock)
+    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang, unit) + tuple(deep),
+                stock)
 
 
 def warnings(features: Features, stock_diameter: float, data: Mapping[str, OperationData],
-             rules: Optional[Rules] = None, overhang: Optional[float] = None) -> Tuple[str, ...]:
+             rules: Optional[Rules] = None, overhang: Optional[float] = None,
+             unit: str = "mm") -> Tuple[str, ...]:
     """Slender-part and implausible cutting-data warnings (rules of thumb, common practice).
 
     Slenderness is the unsupported length (``overhang``, default the part's
@@ -836,7 +845,7 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     thinnest = min(s.diameter for s in features.outer_steps)
     ratio = length / thinnest
     tag = "(rule of thumb, common practice, no source)"
-    text = f"length over diameter {ratio:.3g} ({_mm(length)} over {_mm(thinnest)})"
+    text = f"length over diameter {ratio:.3g} ({_mm(length, unit)} over {_mm(thinnest, unit)})"
     if ratio > rules.steady_rest_ratio:
         out.append(f"{text} is above {rules.steady_rest_ratio:g}: support the part with a steady "
                    f"rest {tag}")
@@ -846,16 +855,16 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     for op in WITH_DEPTH:
         d = data[op]
         if d.depth_of_cut > rules.depth_per_diameter * stock_diameter:
-            out.append(f"{op}: the depth of cut {_mm(d.depth_of_cut)} is more than "
-                       f"{rules.depth_per_diameter:g} × the stock diameter {_mm(stock_diameter)}: "
+            out.append(f"{op}: the depth of cut {_mm(d.depth_of_cut, unit)} is more than "
+                       f"{rules.depth_per_diameter:g} × the stock diameter {_mm(stock_diameter, unit)}: "
                        f"implausible {tag}")
         if d.feed > rules.feed_per_diameter * stock_diameter:
-            out.append(f"{op}: the feed {_mm(d.feed)}/rev is more than "
-                       f"{rules.feed_per_diameter:g} × the stock diameter {_mm(stock_diameter)}: "
+            out.append(f"{op}: the feed {_mm(d.feed, unit)}/rev is more than "
+                       f"{rules.feed_per_diameter:g} × the stock diameter {_mm(stock_diameter, unit)}: "
                        f"implausible {tag}")
         if d.feed > d.depth_of_cut:
-            out.append(f"{op}: the feed {_mm(d.feed)}/rev is more than the depth of cut "
-                       f"{_mm(d.depth_of_cut)}: implausible {tag}")
+            out.append(f"{op}: the feed {_mm(d.feed, unit)}/rev is more than the depth of cut "
+                       f"{_mm(d.depth_of_cut, unit)}: implausible {tag}")
     return tuple(out)
 
 
