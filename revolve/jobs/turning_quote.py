@@ -1358,7 +1358,10 @@ def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: 
         (minutes), ``handling_time="30 s"``, ``whole_bars=True``,
         ``roughing="vc=220,f=0.3"``, ``finishing``, ``max_speed="3000"``
         (rev/min), ``no_finish=("bore",)``, ``currency="EUR"``, ``axis``,
-        ``units`` (of point lists), ``tolerance``.
+        ``units`` (of point lists), ``tolerance``; the operations and the
+        price: ``drilling="vc=25,f=0.15"``, ``grooves="2 x 3 x 1.5"``,
+        ``blind_bore="12 x 20"``, ``scrap="3%"``, ``overhead="15%"``,
+        ``margin="20%"``, ``stock_list="rack.csv"``, ``grade="S355"``.
 
     Returns
     -------
@@ -1376,7 +1379,21 @@ def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: 
     >>> r = quote_turning(pin, material="carbon steel", quantity=10, stock_price="2.40/kg",
     ...                   machine_rate="85/h")
     >>> r
-    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle 0.2457 min, 1.18 per part>
+    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle 0.414 min, 1.42 per part>
+    >>> [op.name for op in r.operations]
+    ['face', 'rough turn', 'finish turn', 'part off']
+
+    By hand (steel table row; common practice, no source): face π·16²/(200 000·0.25)
+    = 0.01608 min, rough turn 50/(0.3·200 000/(π·32)) = 0.08378 min, finish turn
+    A/(vc f) = (π·30·50 + 2π·15²)/(260 000·0.12) = 0.1963 min, part off
+    π·15²/(100 000·0.06) = 0.1178 min:
+
+    >>> round(r.cycle_time / 60, 4)
+    0.414
+    >>> p = quote_turning(pin, material="carbon steel", quantity=100, stock_price="2.40/kg",
+    ...                   machine_rate="85/h", setup_time="30", scrap="3%", margin="20%")
+    >>> p.to_dict()["bars"]["started"], round(p.price_per_part / p.cost_per_part, 12)
+    (103, 1.25)
     >>> round(r.volume * 1e9, 3) == round(math.pi * 15 ** 2 * 50, 3)      # π r² L, mm³
     True
     >>> round(r.to_dict()["stock"]["stock_mass"], 6)      # π/4 · 32² · 55 mm³ at 7850 kg/m³

@@ -76,7 +76,8 @@ def test_one_part_quote_table_reads_like_a_quote(capsys):
     assert err == ""
     for text in ("Stepped shaft, crowned collar", "round bar", "42 mm", "stock length per part",
                  "parts per bar", "Bars, 200 parts", "utilisation", "roughing", "finishing",
-                 "spindle speeds", "Cost, batch of 200", "EUR", "Caution"):
+                 "spindle speeds", "Cost and price, batch of 200", "EUR", "Caution",
+                 "Operations in order", "part off", "How each operation is timed"):
         assert text in out, text
     assert "Times and costs are estimates" in out
     # parts per bar floor((3000 − 100) / 85) = 34 (common practice, no source)
@@ -176,7 +177,7 @@ def test_cutting_data_override_scales_the_time(capsys):
     assert rel(f["times"]["roughing_time"], b["times"]["roughing_time"] / 2) < 1e-12
     assert rel(f["times"]["finishing_time"], b["times"]["finishing_time"] / 2) < 1e-12
     assert f["inputs"]["cutting_data_source"] == "given"
-    assert b["inputs"]["cutting_data_source"] == "typical, common practice, no source"
+    assert b["inputs"]["cutting_data_source"] == "typical, common practice, no source (from memory)"
 
 
 def test_speed_limit_is_flagged_and_used(capsys):
