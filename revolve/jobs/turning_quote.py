@@ -751,6 +751,9 @@ def _plan(q, prepared, lf: float, data, extras: QuoteExtras, job, system: str):
             raise RevolveError(e.message, option="--blind-bore") from None
     if extras.grooves is not None:
         count, width, depth = extras.grooves
+        if count * width > env.length * (1 + 1e-9):
+            raise RevolveError(f"{count} grooves of this width are "
+                               f"wider together than the part is long", option="--grooves")
         try:
             f = replace(f, grooves=ops_.Grooves(count, width, depth, env.diameter))
         except RevolveError as e:
@@ -1084,7 +1087,9 @@ def _cost_rows(pq: PartQuote, options: TurnOptions) -> Tuple[Dict[str, Any], ...
     if pr.stock_price is None:
         stock_how = "no --stock-price given"
     else:
-        shown = (f"{pr.stock_price:.6g}/{pr.basis} from {os.path.basename(ex.stock_list)}"
+        cur = options.currency_label()
+        shown = (f"{pr.stock_price:.2f}{' ' + cur if cur else ''}/{pr.basis} from "
+                 f"{os.path.basename(ex.stock_list)}"
                  if ex.stock_list else str(options.stock_price).strip())
         stock_how = f"at {shown}" + (" per stock length" if pr.basis == "m"
                                      else " × stock mass")

@@ -553,11 +553,16 @@ from hypothesis import example, given, strategies as st  # noqa: E402
 
 
 @given(st.sampled_from(["--parting-width", "--bar-length", "--blank", "--stock-price",
-                        "--machine-rate", "--max-speed", "--roughing", "-q"]),
+                        "--machine-rate", "--max-speed", "--roughing", "-q", "--grooves",
+                        "--blind-bore", "--scrap", "--overhead", "--margin", "--drilling"]),
        st.text(alphabet="0123456789 ./-x,=EURkgminvcfap'\"", min_size=1, max_size=12))
 @example("--parting-width", "1/0 in")
 @example("-q", "0,1")
 @example("--roughing", "vc=1e999")
+@example("--grooves", "0 x 3 x 1")
+@example("--grooves", "9999 x 1e-9 x 1")
+@example("--blind-bore", "0 x 5")
+@example("--margin", "99.99999")
 def test_generated_option_text_is_quoted_or_refused_in_one_line(option, text):
     import contextlib
     import io
@@ -720,6 +725,7 @@ def test_stock_list_bad_row_names_file_and_line(tmp_path, capsys):
     (["--margin", "100"], "--margin"),
     (["--grooves", "2 x 3"], "--grooves"),
     (["--grooves", "2 x 3 x 25"], "--grooves"),
+    (["--grooves", "30 x 3 x 1"], "wider together than the part"),
     (["--blind-bore", "12"], "--blind-bore"),
     (["--blind-bore", "12 x 500"], "--blind-bore"),
     (["--drilling", "vc=25,ap=1"], "--drilling"),
