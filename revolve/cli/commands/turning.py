@@ -25,8 +25,8 @@ from revolve.errors import RevolveError
 ROW_COLUMNS = {"material": "material", "part_diameter": "⌀", "part_length": "length",
                "stock_label": "stock", "stock_length": "stock length", "part_mass": "part",
                "stock_mass": "stock", "utilisation_percent": "used", "quantity": "qty",
-               "bars_needed": "bars", "cycle_time": "cycle", "cost_per_part": "per part",
-               "batch_cost": "batch"}
+               "bars_needed": "bars", "cycle_time": "cycle", "cost_per_part": "cost",
+               "price_per_part": "price", "batch_cost": "batch cost"}
 
 
 def _rows_text(result, one_qty: bool) -> str:
