@@ -219,8 +219,17 @@ def _table() -> Dict[str, Any]:
     return _toml().loads(text)
 
 
-def load_rules() -> Rules:
-    """The planning rules of ``revolve/data/operations.toml``, in SI, with their sources."""
+def load_rules(system: str = "metric") -> Rules:
+    """The planning rules of ``revolve/data/operations.toml``, in SI, with their sources.
+
+    An inch shop (``system="inch"``) takes a size rule's ``inch`` value (in
+    inches: a 1/16 in bore stock, not 0.0787 in) where the row has one.
+
+    Examples
+    --------
+    >>> load_rules("inch").bore_stock == 0.0625 * 0.0254, load_rules().bore_stock
+    (True, 0.002)
+    """
     rules = _table().get("rules", {})
     values, sources = {}, {}
     for key in _RULE_KEYS:
@@ -229,7 +238,12 @@ def load_rules() -> Rules:
                 or not isinstance(row.get("source"), str) or not row["source"].strip():
             raise FormatError("needs a value, a unit (mm, degree or 1) and a source",
                               file=_DATA_FILE, place=f"rules.{key}")
-        values[key] = _positive(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
+        if system == "inch" and "inch" in row:
+            from revolve.units import factor
+
+            values[key] = _positive(row["inch"], f"rules.{key}.inch") * factor("in", "length")
+        else:
+            values[key] = _positive(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
         sources[key] = row["source"]
     return Rules(**values, sources=sources)
 

@@ -758,7 +758,7 @@ def _plan(q, prepared, lf: float, data, extras: QuoteExtras, job, system: str):
             f = replace(f, grooves=ops_.Grooves(count, width, depth, env.diameter))
         except RevolveError as e:
             raise RevolveError(e.message, option="--grooves") from None
-    rules = ops_.load_rules()
+    rules = ops_.load_rules(system)
     plan = ops_.plan_operations(f, size.outside_diameter, data, rules, job.speed_limit,
                                 facing_allowance=job.allowances.facing,
                                 stock_bore=size.inside_diameter, unit=unit)
