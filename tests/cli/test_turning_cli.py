@@ -786,3 +786,20 @@ def test_library_equals_json_with_the_issue14_options(path, capsys):
     assert code == 0, err
     r = revolve.quote_turning(path, **opts)
     assert json.loads(json.dumps(clean_json(r.to_dict()), ensure_ascii=False)) == json.loads(out)
+
+
+def test_inch_drill_time_with_the_inch_shop_sizes(capsys):
+    code, out, err = run([SLEEVE, "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    drill = ops_rows(d)["drill"]
+    # the 1 1/8 in bore is drilled 1/16 in under size (inch rule of operations.toml, common
+    # practice): ⌀1 1/16 in through the part's length; t = (depth + point) / (f n),
+    # n = 12 sfm / (π d) rev/min with d in inches (1 ft = 12 in), point = (d/2) / tan 59°
+    dia, depth = 1.0625, d["part"]["part_length"]
+    n = 12 * drill["cutting_speed"] / (math.pi * dia)
+    assert rel(drill["spindle_speed_rpm"], n) < 1e-12
+    expect = (depth + dia / 2 / math.tan(math.radians(59))) / (drill["feed_per_rev"] * n)
+    assert rel(drill["time"], expect) < 1e-12
+    assert "⌀1.062 in × 2.5 in" in [r for r in d["operation_formulas"]
+                                   if r["operation"] == "drill"][0]["detail"]
