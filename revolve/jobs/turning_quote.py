@@ -723,7 +723,8 @@ def quote_document(doc, options: TurnOptions, quantity: int, system: str, job=No
     except RevolveError as e:
         raise e.located(file=doc.file)
     agrees = m.crosscheck is None or m.crosscheck.agrees(options.tolerance)
-    source = operations.data_source(material.group) + (
+    # the provenance note ("from memory") stays in the data file; users read the source plainly
+    source = re.sub(r"\s*\(from memory\)", "", operations.data_source(material.group)) + (
         "; rounded as inch shops write them" if system == "inch" else "")
     source = source if data == table else "given"
     name = doc.name or (os.path.splitext(os.path.basename(doc.file))[0] if doc.file else "part")

@@ -177,7 +177,7 @@ def test_cutting_data_override_scales_the_time(capsys):
     assert rel(f["times"]["roughing_time"], b["times"]["roughing_time"] / 2) < 1e-12
     assert rel(f["times"]["finishing_time"], b["times"]["finishing_time"] / 2) < 1e-12
     assert f["inputs"]["cutting_data_source"] == "given"
-    assert b["inputs"]["cutting_data_source"] == "typical, common practice, no source (from memory)"
+    assert b["inputs"]["cutting_data_source"] == "typical, common practice, no source"
 
 
 def test_speed_limit_is_flagged_and_used(capsys):
@@ -734,6 +734,7 @@ def test_stock_list_bad_row_names_file_and_line(tmp_path, capsys):
     (["--stock-list", STOCK_LIST, "--grade", "S355"], "--grade"),
     (["--stock-list", STOCK_LIST, "--grade", "C45", "--stock-price", "2/kg"], "--stock-price"),
     (["--stock-list", "/nonexistent/rack.csv"], "/nonexistent/rack.csv"),
+    (["--stock-list", STOCK_LIST, "--grade", "C45", "--blank", "45"], "--blank"),
 ])
 def test_bad_issue14_options(tmp_path, capsys, args, must):
     _bad(tmp_path, capsys, [SHAFT, *args], must)
