@@ -19,7 +19,6 @@ from typing import Any, List, Optional
 import typer
 
 from revolve.cli import options
-from revolve.errors import RevolveError
 
 #: Columns of the plain many-parts table (keys of the job's rows) and their short headings.
 ROW_COLUMNS = {"material": "material", "part_diameter": "⌀", "part_length": "length",
