@@ -804,3 +804,23 @@ def test_inch_drill_time_with_the_inch_shop_sizes(capsys):
     assert rel(drill["time"], expect) < 1e-12
     assert "⌀1.062 in × 2.5 in" in [r for r in d["operation_formulas"]
                                    if r["operation"] == "drill"][0]["detail"]
+
+
+def test_stock_list_tube_is_bored_not_drilled(tmp_path, capsys):
+    bushing = ROOT / "profiles" / "flanged-bushing.toml"
+    out_csv = tmp_path / "q.csv"
+    code, out, err = run([bushing, "--json", "-q", "30", "--stock", "tube", "--stock-list",
+                          STOCK_LIST, "--grade", "C45", "--csv", out_csv], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    s = d["stock"]
+    # ⌀56 part + 2 mm needs ⌀58; the ⌀20 bore less 2 mm allows a stock bore up to 18 mm:
+    # the 60 x 16 mm tube of the list
+    assert s["stock_label"] == "60 x 16 mm C45" and s["stock_kind"] == "tube"
+    names = [r["operation"] for r in d["operations"]]
+    assert "drill" not in names and "centre drill" not in names and "bore" in names
+    # 2.90 EUR per kg × stock mass × 30 parts
+    assert rel(cost_rows(d)["stock"]["batch"], 30 * 2.90 * s["stock_mass"]) < 1e-12
+    with open(out_csv, newline="", encoding="utf-8") as handle:
+        row = next(csv.DictReader(handle))
+    assert row["started"] == "30" and float(row["price_per_part (EUR)"]) > 0
