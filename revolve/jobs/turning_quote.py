@@ -12,6 +12,16 @@ unit or fractions (``"1/8 in"``; a bare number is in the bar list's unit, mm
 or in), prices ``"2.40/kg"``, ``"12 EUR/m"``, rates ``"85/h"``, times
 ``"45"`` (minutes) or ``"30 s"``, cutting data ``"vc=220,f=0.25"``.
 
+The times are those of the operations in order
+(:mod:`revolve.jobs.operations`): the envelope's features (largest diameter,
+through bore) with the grooves and blind bore given, the profile below the
+largest diameter roughed at one removal rate Q, finishing A / (vc f) over
+the finished faces; the single removal-rate times stay in the ``times``
+table as checks. Cost and price come from
+:func:`revolve.jobs.operations.price_batch` (set-up, scrap, overhead,
+margin); a shop's stock list (:mod:`revolve.formats.stock_list`) replaces
+the built-in sizes and prices.
+
 Units follow the ``turning`` trade (:func:`revolve.jobs.results.trade_units`):
 mm, cm², cm³, kg and minutes for metric work, in, in², in³, lb for an inch
 bar list; cutting speeds in m/min (ft/min), feeds and depths in mm (in) per
@@ -1118,7 +1128,8 @@ def _cost_rows(pq: PartQuote, options: TurnOptions) -> Tuple[Dict[str, Any], ...
 
 @dataclass(frozen=True, repr=False)
 class TurningResult(Result):
-    """A turned part's quote: tables part, faces, stock, removed, bars, cutting, times, cost.
+    """A turned part's quote: tables part, faces, stock, removed, bars, allowances, cutting,
+    operations, operation_formulas, times, cost (with overhead and price).
 
     The properties give the main figures in SI (m, m³, kg, s) and money.
     """
