@@ -219,8 +219,17 @@ def _table() -> Dict[str, Any]:
     return _toml().loads(text)
 
 
-def load_rules() -> Rules:
-    """The planning rules of ``revolve/data/operations.toml``, in SI, with their sources."""
+def load_rules(system: str = "metric") -> Rules:
+    """The planning rules of ``revolve/data/operations.toml``, in SI, with their sources.
+
+    An inch shop (``system="inch"``) takes a size rule's ``inch`` value (in
+    inches: a 1/16 in bore stock, not 0.0787 in) where the row has one.
+
+    Examples
+    --------
+    >>> load_rules("inch").bore_stock == 0.0625 * 0.0254, load_rules().bore_stock
+    (True, 0.002)
+    """
     rules = _table().get("rules", {})
     values, sources = {}, {}
     for key in _RULE_KEYS:
@@ -229,7 +238,12 @@ def load_rules() -> Rules:
                 or not isinstance(row.get("source"), str) or not row["source"].strip():
             raise FormatError("needs a value, a unit (mm, degree or 1) and a source",
                               file=_DATA_FILE, place=f"rules.{key}")
-        values[key] = _positive(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
+        if system == "inch" and "inch" in row:
+            from revolve.units import factor
+
+            values[key] = _positive(row["inch"], f"rules.{key}.inch") * factor("in", "length")
+        else:
+            values[key] = _positive(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
         sources[key] = row["source"]
     return Rules(**values, sources=sources)
 
@@ -260,6 +274,36 @@ def operation_data_for(group: str) -> Dict[str, OperationData]:
             raise FormatError(f"needs vc and f{' and ap' if op in WITH_DEPTH else ''}",
                               file=_DATA_FILE, place=f"{group}.{op}")
         out[op] = OperationData.from_metric(row.get("vc"), row.get("f"), row.get("ap"))
+    return out
+
+
+def _step(value: float, step: float) -> float:
+    return float(f"{max(step, round(value / step) * step):.12g}")
+
+
+def as_shop_writes(data: Mapping[str, OperationData], system: str) -> Dict[str, OperationData]:
+    """The cutting data as a shop of ``system`` writes it: inch shops in round sfm and in/rev.
+
+    The table is metric; an inch shop's figures are its rows rounded to the
+    steps such shops use (sfm to 5 below 200 and to 25 above, in/rev to
+    0.0005, depth of cut to 0.005 in; common practice, no source), so a
+    quote shows 650 sfm, not 656.2. Metric data are returned as they are.
+
+    Examples
+    --------
+    >>> d = as_shop_writes(operation_data_for("steel"), "inch")
+    >>> d["rough turn"].trade_units("inch"), d["drill"].trade_units("inch")
+    ((650.0, 0.012, 0.12), (80.0, 0.006, None))
+    >>> as_shop_writes({}, "inch")
+    {}
+    """
+    if system != "inch":
+        return dict(data)
+    out = {}
+    for op, d in data.items():
+        vc, f, ap = d.trade_units("inch")
+        out[op] = OperationData.from_inch(_step(vc, 5.0 if vc < 200 else 25.0), _step(f, 0.0005),
+                                          None if ap is None else _step(ap, 0.005))
     return out
 
 
@@ -561,12 +605,17 @@ class Plan:
         return math.fsum(op.time for op in self.operations)
 
 
-def _mm(v: float) -> str:
-    return f"{v * 1000:.4g} mm"
+def _mm(v: float, unit: str = "mm") -> str:
+    """A length in metres as text in ``unit`` (mm or in), four figures."""
+    if unit == "mm":
+        return f"{v * 1000:.4g} mm"
+    from revolve.units import factor
+
+    return f"{v / factor(unit, 'length'):.4g} {unit}"
 
 
 def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationData,
-          limit: Optional[float], what: str) -> Optional[Operation]:
+          limit: Optional[float], what: str, unit: str = "mm") -> Optional[Operation]:
     """Passes along the axis from diameter ``from_d`` down to ``to_d`` (or up, boring)."""
     stock = abs(from_d - to_d) / 2.0
     count = equal_passes(stock, data.depth_of_cut, name)
@@ -582,13 +631,14 @@ def _turn(name: str, from_d: float, to_d: float, length: float, data: OperationD
     return Operation(name, total, count, first,
                      "t = Σ L / (f n), n = vc / (π D) per pass (capped at the speed limit), "
                      "passes = ceil(stock / ap)",
-                     f"{what}: {count} × {_mm(stock / count)} over {_mm(length)}", data)
+                     f"{what}: {count} × {_mm(stock / count, unit)} over {_mm(length, unit)}", data)
 
 
 def plan_operations(features: Features, stock_diameter: float,
                     data: Mapping[str, OperationData], rules: Optional[Rules] = None,
                     speed_limit: Optional[float] = None,
-                    overhang: Optional[float] = None, facing_allowance: float = 0.0) -> Plan:
+                    overhang: Optional[float] = None, facing_allowance: float = 0.0,
+                    stock_bore: float = 0.0, unit: str = "mm") -> Plan:
     """Lay out and time the operations of one part, in the usual order.
 
     Order: face the bar end, rough turn each outer step (from the stock
@@ -616,6 +666,11 @@ def plan_operations(features: Features, stock_diameter: float,
     facing_allowance : float
         Stock faced off the bar end, m: ceil(allowance / ap) facing passes,
         at least one.
+    stock_bore : float
+        The stock's own bore, m (a tube): no centre drill nor drill, the bore
+        is bored from it; facing and parting stop at it.
+    unit : str
+        The length unit of the details and warnings (mm or in).
 
     Returns
     -------
@@ -638,6 +693,14 @@ def plan_operations(features: Features, stock_diameter: float,
     >>> plan = plan_operations(Features((OuterStep(0.01, 0.15),)), 0.012, data)
     >>> plan.warnings[0]
     'length over diameter 15 (150 mm over 10 mm) is above 10: support the part with a steady rest (rule of thumb, common practice, no source)'
+
+    From a ⌀40 × 24 mm tube to a ⌀36 part with a ⌀28 bore: no drilling, the bore
+    is bored from the tube's ⌀24:
+
+    >>> tube = plan_operations(Features((OuterStep(0.036, 0.02),), 0.028, 0.02), 0.04, data,
+    ...                        stock_bore=0.024)
+    >>> [op.name for op in tube.operations]
+    ['face', 'rough turn', 'finish turn', 'bore', 'part off']
     >>> plan_operations(Features((OuterStep(0.03, 0.01),)), 0.02, data)
     Traceback (most recent call last):
     ...
@@ -648,11 +711,16 @@ def plan_operations(features: Features, stock_diameter: float,
     if missing:
         raise RevolveError(f"no cutting data for {', '.join(missing)}", place="cutting data")
     stock = _positive(stock_diameter, "stock diameter")
+    stock_bore = _positive(stock_bore, "stock bore", zero=True)
+    if stock_bore > 0 and (features.bore_diameter < stock_bore * (1 - _SLACK)
+                           or not features.through_bore):
+        raise RevolveError(f"the stock's bore ⌀{_mm(stock_bore, unit)} is larger than the part's bore "
+                           f"or the part has no through bore", place="stock bore")
     if speed_limit is not None:
         speed_limit = _positive(speed_limit, "speed limit")
     largest = max(s.diameter for s in features.outer_steps)
     if stock < largest * (1 - _SLACK):
-        raise RevolveError(f"the stock ({_mm(stock)}) is smaller than the part ({_mm(largest)})",
+        raise RevolveError(f"the stock ({_mm(stock, unit)}) is smaller than the part ({_mm(largest, unit)})",
                            place="stock diameter")
     ops, deep = [], []
     limit = speed_limit
@@ -661,18 +729,20 @@ def plan_operations(features: Features, stock_diameter: float,
                            ("groove diameter", features.grooves.diameter
                             if features.grooves is not None else 0.0)):
         if diameter > stock * (1 + _SLACK):
-            raise RevolveError(f"the {what.split()[0]} at ⌀{_mm(diameter)} is outside the stock "
-                               f"(⌀{_mm(stock)})", place=what)
+            raise RevolveError(f"the {what.split()[0]} at ⌀{_mm(diameter, unit)} is outside the stock "
+                               f"(⌀{_mm(stock, unit)})", place=what)
 
     # face the bar end
     face = data["face"]
     n = spindle_speed(face.cutting_speed, stock, limit)
     facings = max(1, equal_passes(_positive(facing_allowance, "facing allowance", zero=True),
                                   face.depth_of_cut, "face"))
-    ops.append(Operation("face", facings * radial_pass_time(stock / 2, 0.0, face.cutting_speed,
-                                                            face.feed, limit), facings, n,
+    ops.append(Operation("face", facings * radial_pass_time(stock / 2, stock_bore / 2,
+                                                            face.cutting_speed, face.feed, limit),
+                         facings, n,
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(stock)} to the centre", face))
+                         f"⌀{_mm(stock, unit)} to " + (f"⌀{_mm(stock_bore, unit)}" if stock_bore
+                                                 else "the centre"), face))
 
     # rough and finish turn each step
     finish = data["finish turn"]
@@ -680,10 +750,10 @@ def plan_operations(features: Features, stock_diameter: float,
     for k, s in enumerate(features.outer_steps, 1):
         roughed = min(stock, s.diameter + 2.0 * finish.depth_of_cut)
         op = _turn("rough turn", stock, roughed, s.length, data["rough turn"], limit,
-                   f"step {k}")
+                   f"step {k}", unit)
         if op:
             rough_ops.append(op)
-        op = _turn("finish turn", roughed, s.diameter, s.length, finish, limit, f"step {k}")
+        op = _turn("finish turn", roughed, s.diameter, s.length, finish, limit, f"step {k}", unit)
         if op:
             finish_ops.append(op)
     for group in (rough_ops, finish_ops):
@@ -695,21 +765,24 @@ def plan_operations(features: Features, stock_diameter: float,
 
     # centre drill, drill, bore
     bore_d, depth = features.bore_diameter, features.bore_depth
-    if bore_d > 0:
+    if bore_d > 0 and stock_bore > 0:
+        if stock_bore < bore_d * (1 - _SLACK):
+            ops.append(_turn("bore", stock_bore, bore_d, depth, data["bore"], limit, "bore", unit))
+    elif bore_d > 0:
         cd = data["centre drill"]
         n = spindle_speed(cd.cutting_speed, rules.centre_drill_diameter, limit)
         ops.append(Operation("centre drill", pass_time(rules.centre_drill_depth, cd.feed, n), 1,
                              n, "t = depth / (f n), n = vc / (π D)",
-                             f"⌀{_mm(rules.centre_drill_diameter)} × "
-                             f"{_mm(rules.centre_drill_depth)}", cd))
+                             f"⌀{_mm(rules.centre_drill_diameter, unit)} × "
+                             f"{_mm(rules.centre_drill_depth, unit)}", cd))
         if bore_d < rules.min_boring_bar_diameter:
             drill_d, why = bore_d, "drilled to size: below the smallest boring bar " \
-                f"⌀{_mm(rules.min_boring_bar_diameter)} (common practice)"
+                f"⌀{_mm(rules.min_boring_bar_diameter, unit)} (common practice)"
         else:
             drill_d = min(rules.largest_drill, bore_d - rules.bore_stock)
-            why = (f"the largest drill ⌀{_mm(rules.largest_drill)}, then bored"
+            why = (f"the largest drill ⌀{_mm(rules.largest_drill, unit)}, then bored"
                    if drill_d == rules.largest_drill
-                   else f"{_mm(rules.bore_stock)} under size, then bored") + " (common practice)"
+                   else f"{_mm(rules.bore_stock, unit)} under size, then bored") + " (common practice)"
         drill = data["drill"]
         n = spindle_speed(drill.cutting_speed, drill_d, limit)
         point = drill_point_length(drill_d, rules.drill_point_angle)
@@ -717,14 +790,14 @@ def plan_operations(features: Features, stock_diameter: float,
                                                  rules.drill_point_angle), 1, n,
                              "t = (depth + point length) / (f n), point = (d/2) / tan(angle/2), "
                              "n = vc / (π d)",
-                             f"⌀{_mm(drill_d)} × {_mm(depth)} + point {_mm(point)}; {why}",
+                             f"⌀{_mm(drill_d, unit)} × {_mm(depth, unit)} + point {_mm(point, unit)}; {why}",
                              drill))
         if depth > rules.deep_hole_ratio * drill_d:
-            deep.append(f"drill: a hole {depth / drill_d:.3g} diameters deep (⌀{_mm(drill_d)} × "
-                        f"{_mm(depth)}) is above {rules.deep_hole_ratio:g}: peck drill or use a "
+            deep.append(f"drill: a hole {depth / drill_d:.3g} diameters deep (⌀{_mm(drill_d, unit)} × "
+                        f"{_mm(depth, unit)}) is above {rules.deep_hole_ratio:g}: peck drill or use a "
                         f"deep-hole drill (rule of thumb, common practice, no source)")
         if drill_d < bore_d * (1 - _SLACK):
-            op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore")
+            op = _turn("bore", drill_d, bore_d, depth, data["bore"], limit, "bore", unit)
             ops.append(op)
 
     # grooves
@@ -738,9 +811,9 @@ def plan_operations(features: Features, stock_diameter: float,
                              spindle_speed(gd.cutting_speed, g.diameter, limit),
                              "t = count × plunges × π (R² − r²) / (vc f), plunges = "
                              "ceil(width / tool width)",
-                             f"{g.count} × {_mm(g.width)} wide, {_mm(g.depth)} deep at "
-                             f"⌀{_mm(g.diameter)}; {plunges} plunge(s) of a "
-                             f"{_mm(rules.groove_tool_width)} tool", gd))
+                             f"{g.count} × {_mm(g.width, unit)} wide, {_mm(g.depth, unit)} deep at "
+                             f"⌀{_mm(g.diameter, unit)}; {plunges} plunge(s) of a "
+                             f"{_mm(rules.groove_tool_width, unit)} tool", gd))
 
     # part off
     po = data["part off"]
@@ -750,14 +823,16 @@ def plan_operations(features: Features, stock_diameter: float,
                                                       limit), 1,
                          spindle_speed(po.cutting_speed, at, limit),
                          "t = π (R² − r²) / (vc f) at constant vc; Δr / (f n max) where capped",
-                         f"⌀{_mm(at)} to " + (f"⌀{_mm(bore_d)}" if inner else "the centre"),
+                         f"⌀{_mm(at, unit)} to " + (f"⌀{_mm(bore_d, unit)}" if inner else "the centre"),
                          po))
 
-    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang) + tuple(deep), stock)
+    return Plan(tuple(ops), warnings(features, stock, data, rules, overhang, unit) + tuple(deep),
+                stock)
 
 
 def warnings(features: Features, stock_diameter: float, data: Mapping[str, OperationData],
-             rules: Optional[Rules] = None, overhang: Optional[float] = None) -> Tuple[str, ...]:
+             rules: Optional[Rules] = None, overhang: Optional[float] = None,
+             unit: str = "mm") -> Tuple[str, ...]:
     """Slender-part and implausible cutting-data warnings (rules of thumb, common practice).
 
     Slenderness is the unsupported length (``overhang``, default the part's
@@ -784,7 +859,7 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     thinnest = min(s.diameter for s in features.outer_steps)
     ratio = length / thinnest
     tag = "(rule of thumb, common practice, no source)"
-    text = f"length over diameter {ratio:.3g} ({_mm(length)} over {_mm(thinnest)})"
+    text = f"length over diameter {ratio:.3g} ({_mm(length, unit)} over {_mm(thinnest, unit)})"
     if ratio > rules.steady_rest_ratio:
         out.append(f"{text} is above {rules.steady_rest_ratio:g}: support the part with a steady "
                    f"rest {tag}")
@@ -794,16 +869,16 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     for op in WITH_DEPTH:
         d = data[op]
         if d.depth_of_cut > rules.depth_per_diameter * stock_diameter:
-            out.append(f"{op}: the depth of cut {_mm(d.depth_of_cut)} is more than "
-                       f"{rules.depth_per_diameter:g} × the stock diameter {_mm(stock_diameter)}: "
+            out.append(f"{op}: the depth of cut {_mm(d.depth_of_cut, unit)} is more than "
+                       f"{rules.depth_per_diameter:g} × the stock diameter {_mm(stock_diameter, unit)}: "
                        f"implausible {tag}")
         if d.feed > rules.feed_per_diameter * stock_diameter:
-            out.append(f"{op}: the feed {_mm(d.feed)}/rev is more than "
-                       f"{rules.feed_per_diameter:g} × the stock diameter {_mm(stock_diameter)}: "
+            out.append(f"{op}: the feed {_mm(d.feed, unit)}/rev is more than "
+                       f"{rules.feed_per_diameter:g} × the stock diameter {_mm(stock_diameter, unit)}: "
                        f"implausible {tag}")
         if d.feed > d.depth_of_cut:
-            out.append(f"{op}: the feed {_mm(d.feed)}/rev is more than the depth of cut "
-                       f"{_mm(d.depth_of_cut)}: implausible {tag}")
+            out.append(f"{op}: the feed {_mm(d.feed, unit)}/rev is more than the depth of cut "
+                       f"{_mm(d.depth_of_cut, unit)}: implausible {tag}")
     return tuple(out)
 
 

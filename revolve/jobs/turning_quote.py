@@ -12,6 +12,16 @@ unit or fractions (``"1/8 in"``; a bare number is in the bar list's unit, mm
 or in), prices ``"2.40/kg"``, ``"12 EUR/m"``, rates ``"85/h"``, times
 ``"45"`` (minutes) or ``"30 s"``, cutting data ``"vc=220,f=0.25"``.
 
+The times are those of the operations in order
+(:mod:`revolve.jobs.operations`): the envelope's features (largest diameter,
+through bore) with the grooves and blind bore given, the profile below the
+largest diameter roughed at one removal rate Q, finishing A / (vc f) over
+the finished faces; the single removal-rate times stay in the ``times``
+table as checks. Cost and price come from
+:func:`revolve.jobs.operations.price_batch` (set-up, scrap, overhead,
+margin); a shop's stock list (:mod:`revolve.formats.stock_list`) replaces
+the built-in sizes and prices.
+
 Units follow the ``turning`` trade (:func:`revolve.jobs.results.trade_units`):
 mm, cm², cm³, kg and minutes for metric work, in, in², in³, lb for an inch
 bar list; cutting speeds in m/min (ft/min), feeds and depths in mm (in) per
@@ -314,6 +324,98 @@ def read_cutting(text: Optional[str], base, system: str, option: str):
         raise RevolveError(e.message, option=option) from None
 
 
+def read_percent(value: Any, option: str, below_100: bool = False) -> float:
+    """A percentage (``"3%"``, ``"3"`` or a number) from 0 to 100; 0 when not given.
+
+    >>> read_percent("3 %", "--scrap"), read_percent(12.5, "--overhead"), read_percent(None, "x")
+    (3.0, 12.5, 0.0)
+    >>> read_percent("100", "--margin", below_100=True)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --margin: must be below 100 % (a share of the price), got '100'
+    """
+    from revolve.inputs import parse_percent
+
+    if value is None:
+        return 0.0
+    try:
+        v = parse_percent(value) if isinstance(value, str) else parse_percent(f"{float(value)!r}")
+    except (RevolveError, TypeError, ValueError) as e:
+        raise RevolveError(getattr(e, "message", f"{value!r} is not a percentage"),
+                           option=option) from None
+    if below_100 and v >= 100:
+        raise RevolveError(f"must be below 100 % (a share of the price), got "
+                           f"{quoted(str(value).strip())}", option=option)
+    return v
+
+
+def read_grooves(text: Optional[str], unit: str) -> Optional[Tuple[int, float, float]]:
+    """``--grooves "N x WIDTH x DEPTH"`` -> (count, width m, radial depth m), or None.
+
+    Bare lengths are in ``unit``; a unit after the depth holds for the width too.
+
+    >>> read_grooves("2 x 3 x 1.5", "mm"), read_grooves("1 x 1/8 x 1/16 in", "mm")
+    ((2, 0.003, 0.0015), (1, 0.003175, 0.0015875))
+    >>> read_grooves("2 x 3", "mm")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --grooves: write the count, width and depth, e.g. '2 x 3 x 1.5' (mm); got '2 x 3'
+    """
+    if text is None:
+        return None
+    parts = [p.strip() for p in re.split(r"[x×X*]", str(text)[:200])]
+    if len(parts) != 3 or not parts[0].isdigit() or len(parts[0]) > 4 or not all(parts):
+        raise RevolveError(f"write the count, width and depth, e.g. '2 x 3 x 1.5' ({unit}); got "
+                           f"{quoted(str(text).strip())}", option="--grooves")
+    width, depth = _pair(parts[1], parts[2], "--grooves", unit)
+    return int(parts[0]), width, depth
+
+
+def read_blind_bore(text: Optional[str], unit: str) -> Optional[Tuple[float, float]]:
+    """``--blind-bore "DIAMETER x DEPTH"`` -> (diameter m, depth m from the faced end), or None.
+
+    >>> read_blind_bore("12 x 20", "mm"), read_blind_bore(None, "mm")
+    ((0.012, 0.02), None)
+    >>> read_blind_bore("12", "mm")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --blind-bore: write the diameter and depth, e.g. '12 x 20' (mm); got '12'
+    """
+    if text is None:
+        return None
+    parts = [p.strip() for p in re.split(r"[x×X*]", str(text)[:200])]
+    if len(parts) != 2 or not all(parts):
+        raise RevolveError(f"write the diameter and depth, e.g. '12 x 20' ({unit}); got "
+                           f"{quoted(str(text).strip())}", option="--blind-bore")
+    return _pair(parts[0], parts[1], "--blind-bore", unit)
+
+
+def _pair(first: str, last: str, option: str, unit: str) -> Tuple[float, float]:
+    from revolve.inputs import parse_length
+
+    try:
+        written = parse_length(last).unit
+        if parse_length(first).unit is None and written is not None:
+            first = f"{first} {written}"
+    except RevolveError as e:
+        raise e.located(option=option)
+    return (read_length(first, option, unit, positive=True),
+            read_length(last, option, unit, positive=True))
+
+
+@dataclass(frozen=True)
+class QuoteExtras:
+    """What the operations and the price need besides the turning job (picklable)."""
+
+    grooves: Optional[Tuple[int, float, float]] = None
+    blind_bore: Optional[Tuple[float, float]] = None
+    scrap: float = 0.0
+    overhead: float = 0.0
+    margin: float = 0.0
+    stock_items: Tuple[Any, ...] = ()
+    stock_list: Optional[str] = None
+
+
 def quantities(values: Any, count: int) -> List[int]:
     """One quantity for every part, or one per part in order; default 1.
 
@@ -377,6 +479,14 @@ class TurnOptions:
     axis: Any = None
     units: Optional[str] = None
     tolerance: float = DEFAULT_TOLERANCE
+    drilling: Optional[str] = None
+    grooves: Optional[str] = None
+    blind_bore: Optional[str] = None
+    scrap: Any = None
+    overhead: Any = None
+    margin: Any = None
+    stock_list: Optional[str] = None
+    grade: Optional[str] = None
 
     def check(self) -> None:
         """Refuse, before any file is read, what does not depend on the part."""
@@ -394,6 +504,41 @@ class TurnOptions:
 
             check_units(self.units)
         self.job(self.system_for("mm"))
+        self.extras(self.system_for("mm"))
+
+    def extras(self, system: str) -> QuoteExtras:
+        """Grooves, a blind bore, scrap, overhead, margin and the shop's stock list, read."""
+        from revolve.jobs.turning_data import load_bar_list
+
+        unit = load_bar_list(system).unit
+        items: Tuple[Any, ...] = ()
+        if self.stock_list is not None:
+            from revolve.formats.stock_list import read_stock_list
+
+            if self.stock_price is not None:
+                raise RevolveError("the price comes from the stock list; leave out --stock-price "
+                                   "or --stock-list", option="--stock-price")
+            if self.blank is not None:
+                raise RevolveError("give either --blank or --stock-list, not both",
+                                   option="--blank")
+            items = read_stock_list(os.fspath(self.stock_list))
+            if not items:
+                raise RevolveError("the stock list has no rows", file=os.fspath(self.stock_list))
+            grades = sorted({i.grade for i in items}, key=str.lower)
+            if self.grade is None and len({g.lower() for g in grades}) > 1:
+                raise RevolveError(f"the stock list holds grades {', '.join(grades)}; say which "
+                                   f"with --grade", option="--grade")
+            if self.grade is not None and self.grade.lower() not in {g.lower() for g in grades}:
+                raise RevolveError(f"{quoted(self.grade)} is not on the stock list (grades: "
+                                   f"{', '.join(grades)})", option="--grade")
+        elif self.grade is not None:
+            raise RevolveError("a grade picks rows of --stock-list; give the stock list too",
+                               option="--grade")
+        return QuoteExtras(read_grooves(self.grooves, unit), read_blind_bore(self.blind_bore, unit),
+                           read_percent(self.scrap, "--scrap"),
+                           read_percent(self.overhead, "--overhead"),
+                           read_percent(self.margin, "--margin", below_100=True), items,
+                           None if self.stock_list is None else os.fspath(self.stock_list))
 
     def system_for(self, unit: str) -> str:
         if self.bar_list is None:
@@ -408,6 +553,10 @@ class TurnOptions:
         """The currency: --currency, else the one written with a price or rate."""
         found = {c for c in (read_stock_price(self.stock_price)[2], read_rate(self.machine_rate)[1])
                  if c}
+        if self.stock_list is not None:
+            from revolve.formats.stock_list import read_stock_list
+
+            found |= {i.currency for i in read_stock_list(os.fspath(self.stock_list)) if i.currency}
         given = self.currency.strip().upper() if self.currency else None
         if given is not None:
             found.add(given)
@@ -447,8 +596,11 @@ class TurnOptions:
                                 handling_time=read_time(self.handling_time, "--handling-time"),
                                 whole_bars=bool(self.whole_bars))
         placeholder = turning.CuttingData(1.0, 1.0, 1.0)
-        for text, option in ((self.roughing, "--roughing"), (self.finishing, "--finishing")):
+        for text, option in ((self.roughing, "--roughing"), (self.finishing, "--finishing"),
+                             (self.drilling, "--drilling")):
             read_cutting(text, placeholder, system, option)        # refused before any file
+        if self.drilling is not None and "ap" in re.findall(r"(\w+)\s*=", str(self.drilling)):
+            raise RevolveError("a drill has no depth of cut; give vc and f", option="--drilling")
         return turning.TurningJob(
             allowances=allowances, roughing=placeholder, finishing=placeholder,
             bars=bl.round_bars, tubes=bl.tubes, choice=self.stock, blank=blank,
@@ -464,7 +616,14 @@ class TurnOptions:
 
 @dataclass(frozen=True)
 class PartQuote:
-    """One quoted part: where it came from, its material, the quote and the cross-check."""
+    """One quoted part: where it came from, its material, the quote, its operations and price.
+
+    ``plan`` is the :class:`~revolve.jobs.operations.Plan` as quoted (the
+    operations in order, each with its time and formula; the warnings);
+    ``cycle`` = operations + handling, s; ``price`` the
+    :class:`~revolve.jobs.operations.BatchPrice` (None without a machine rate
+    nor a stock price); ``started`` the parts started (quantity + scrap).
+    """
 
     file: Optional[str]
     name: str
@@ -474,6 +633,13 @@ class PartQuote:
     quote: Any
     agrees: bool
     system: str
+    plan: Any = None
+    cycle: float = 0.0
+    quantity: int = 1
+    started: int = 1
+    price: Any = None
+    extras: QuoteExtras = QuoteExtras()
+    notes: Tuple[str, ...] = ()
 
 
 def _material_of(doc, given: Optional[str]):
@@ -500,38 +666,181 @@ def _axis_of(axis):
     return parse_axis(axis) if isinstance(axis, str) else axis
 
 
+def _stock_from_list(extras: QuoteExtras, options: TurnOptions, job, env):
+    """The smallest row of the shop's stock list covering the part, as the job's only stock."""
+    from revolve.jobs import operations, turning
+
+    a = job.allowances
+    inside = 0.0 if job.choice == "bar" else turning.largest_inside_diameter(env, a)
+    try:
+        item = operations.choose_from_stock(extras.stock_items,
+                                            turning.required_outside_diameter(env, a),
+                                            options.grade, inside)
+    except RevolveError as e:
+        raise e.located(file=extras.stock_list)
+    tube = item.shape == "tube"
+    size = turning.StockSize(item.outside_diameter, item.inside_diameter,
+                             f"{item.size_text} {item.grade}", "tube" if tube else "bar",
+                             f"{os.path.basename(extras.stock_list)} line {item.line}")
+    return replace(job, bars=() if tube else (size,), tubes=(size,) if tube else (),
+                   choice="tube" if tube else "bar",
+                   prices=replace(job.prices, stock_price=item.price, basis=item.price_basis),
+                   bar_length=job.bar_length if options.bar_length is not None
+                   else item.rack_length)
+
+
+def _cut(data, op):
+    from revolve.jobs.turning import CuttingData
+
+    return CuttingData(data[op].cutting_speed, data[op].feed, data[op].depth_of_cut)
+
+
 def quote_document(doc, options: TurnOptions, quantity: int, system: str, job=None) -> PartQuote:
-    """Quote one part read from a document: measured once, its prepared profile reused."""
-    from revolve.jobs import turning, turning_data
+    """Quote one part read from a document: measured once, its prepared profile reused.
+
+    ``job`` is ``(TurningJob, QuoteExtras)`` read once for a batch (default: read here).
+    """
+    from revolve.jobs import operations, turning, turning_data
     from revolve.jobs.measuring import measure_document
     from revolve import units
 
     material, given = _material_of(doc, options.material)
     try:
-        group = turning_data.cutting_data_for(material.group)
+        turning_data.cutting_data_for(material.group)
+        table = operations.as_shop_writes(operations.operation_data_for(material.group), system)
     except RevolveError as e:
         raise e.located(file=None if given else doc.file,
                         option="--material" if given else None,
                         place=None if given else "material")
-    job = job or options.job(system)
-    job = replace(job,
-                  roughing=read_cutting(options.roughing, group.roughing, system, "--roughing"),
-                  finishing=read_cutting(options.finishing, group.finishing, system,
-                                         "--finishing"),
-                  prices=replace(job.prices, quantity=quantity))
+    job, extras = job or (options.job(system), options.extras(system))
+    data = dict(table)
+    for op, text, option in (("rough turn", options.roughing, "--roughing"),
+                             ("finish turn", options.finishing, "--finishing"),
+                             ("drill", options.drilling, "--drilling")):
+        data[op] = read_cutting(text, table[op], system, option)
+    started = operations.quantity_started(quantity, extras.scrap)
+    job = replace(job, roughing=_cut(data, "rough turn"), finishing=_cut(data, "finish turn"),
+                  prices=replace(job.prices, quantity=started))
     part = measure_document(doc, axis=_axis_of(options.axis), density=material.density,
                             density_label=material.name)
     m = part.measurement
+    lf = units.factor(doc.profile.unit, "length")
     try:
-        q = turning.quote(m, m.prepared, material.density, job,
-                          units.factor(doc.profile.unit, "length"))
+        if extras.stock_items:
+            job = _stock_from_list(extras, options, job, turning.envelope(m.prepared, lf))
+        q = turning.quote(m, m.prepared, material.density, job, lf)
+        plan = _plan(q, m.prepared, lf, data, extras, job, system)
     except RevolveError as e:
         raise e.located(file=doc.file)
     agrees = m.crosscheck is None or m.crosscheck.agrees(options.tolerance)
-    table = job.roughing == group.roughing and job.finishing == group.finishing
+    # the provenance note ("from memory") stays in the data file; users read the source plainly
+    source = re.sub(r"\s*\(from memory\)", "", operations.data_source(material.group)) + (
+        "; rounded as inch shops write them" if system == "inch" else "")
+    source = source if data == table else "given"
     name = doc.name or (os.path.splitext(os.path.basename(doc.file))[0] if doc.file else "part")
-    return PartQuote(doc.file, name, doc.profile.unit, material,
-                     group.source if table else "given", q, agrees, system)
+    cycle = plan.cycle_time + q.times.handling
+    price, notes = _price(q, cycle, quantity, extras, job)
+    return PartQuote(doc.file, name, doc.profile.unit, material, source, q, agrees, system,
+                     plan, cycle, quantity, started, price, extras, tuple(notes))
+
+
+def _plan(q, prepared, lf: float, data, extras: QuoteExtras, job, system: str):
+    """The operations of the part: the envelope's features, the grooves and blind bore given,
+    the profile below the largest diameter roughed at Q, finishing over the finished faces."""
+    from revolve.jobs import operations as ops_
+
+    unit = "in" if system == "inch" else "mm"
+    f = ops_.features_from_profile(prepared, lf)
+    env, size = q.part.envelope, q.stock.size
+    if extras.blind_bore is not None:
+        if f.bore_diameter > 0:
+            raise RevolveError("the part already has a through bore; a blind bore is for a "
+                               "bore the profile does not show", option="--blind-bore")
+        try:
+            f = replace(f, bore_diameter=extras.blind_bore[0], bore_depth=extras.blind_bore[1])
+        except RevolveError as e:
+            raise RevolveError(e.message, option="--blind-bore") from None
+    if extras.grooves is not None:
+        count, width, depth = extras.grooves
+        if count * width > env.length * (1 + 1e-9):
+            raise RevolveError(f"{count} grooves of this width are "
+                               f"wider together than the part is long", option="--grooves")
+        try:
+            f = replace(f, grooves=ops_.Grooves(count, width, depth, env.diameter))
+        except RevolveError as e:
+            raise RevolveError(e.message, option="--grooves") from None
+    rules = ops_.load_rules(system)
+    plan = ops_.plan_operations(f, size.outside_diameter, data, rules, job.speed_limit,
+                                facing_allowance=job.allowances.facing,
+                                stock_bore=size.inside_diameter, unit=unit)
+    # what the envelope does not show: steps, tapers, arcs and hollows below the largest
+    # diameter, outside the through bore, the blind bore and the grooves
+    cylinder = math.pi / 4 * (env.diameter ** 2 - f.bore_diameter ** 2) * env.length
+    if f.bore_diameter and not f.through_bore:
+        cylinder = math.pi / 4 * (env.diameter ** 2 * env.length
+                                  - f.bore_diameter ** 2 * f.bore_depth)
+    if f.grooves is not None:
+        g = f.grooves
+        cylinder -= g.count * g.width * math.pi * (g.diameter * g.depth - g.depth ** 2)
+    left = cylinder - q.part.volume
+    out = []
+    rough = data["rough turn"]
+    fin = data["finish turn"]
+    rate = rough.cutting_speed * rough.feed * rough.depth_of_cut
+    for op in plan.operations:
+        if op.name == "finish turn":
+            continue
+        out.append(op)
+        if op.name == "rough turn" or (op.name == "face" and not any(
+                o.name == "rough turn" for o in plan.operations)):
+            if left > 1e-6 * q.part.volume:
+                out.append(ops_.Operation(
+                    "rough to the profile", left / rate, 1,
+                    ops_.spindle_speed(rough.cutting_speed, env.diameter, job.speed_limit),
+                    "t = V / Q, Q = vc · f · ap (rough turn data)",
+                    f"V = {_volume_text(left, unit)} below ⌀{ops_._mm(env.diameter, unit)}: "
+                    f"steps, tapers, arcs", rough))
+            if q.times.finishing > 0:
+                out.append(ops_.Operation(
+                    "finish turn", q.times.finishing, 1,
+                    ops_.spindle_speed(fin.cutting_speed, env.diameter, job.speed_limit),
+                    "t = A / (vc f) over the finished faces (n capped at the speed limit)",
+                    f"A = {_area_text(q.times.finished_area, unit)}: "
+                    f"{', '.join(q.times.finished_faces)}", fin))
+    return ops_.Plan(tuple(out), plan.warnings, plan.stock_diameter)
+
+
+def _volume_text(v: float, unit: str) -> str:
+    from revolve.units import factor
+
+    shown = "cm" if unit == "mm" else unit
+    return f"{v / factor(shown, 'length') ** 3:.4g} {shown}³"
+
+
+def _area_text(a: float, unit: str) -> str:
+    from revolve.units import factor
+
+    shown = "cm" if unit == "mm" else unit
+    return f"{a / factor(shown, 'length') ** 2:.4g} {shown}²"
+
+
+def _price(q, cycle: float, quantity: int, extras: QuoteExtras, job):
+    """The batch's cost and price (operations.price_batch), and its notes."""
+    from revolve.jobs import operations, turning
+
+    pr, bars, stock = job.prices, q.bars, q.stock
+    per_piece = turning.stock_price_of(pr, stock.length, stock.mass)
+    bar_price = None
+    if pr.whole_bars and bars is not None and per_piece is not None:
+        bar_mass = stock.size.section_area * bars.bar_length * (stock.mass / stock.volume)
+        bar_price = turning.stock_price_of(pr, bars.bar_length, bar_mass)
+        per_piece = None
+    p = operations.price_batch(cycle, quantity, pr.machine_rate or 0.0,
+                               setup_time=pr.setup_time, scrap_percent=extras.scrap,
+                               parts_per_bar=bars.parts_per_bar if bars is not None else None,
+                               bar_price=bar_price, material_per_part=per_piece,
+                               overhead_percent=extras.overhead, margin_percent=extras.margin)
+    return p, [n for n in p.notes if not n.startswith("no material price")]
 
 
 # -- the result --------------------------------------------------------------------------------
@@ -579,7 +888,8 @@ BAR_FIELDS = (
     _f("length_per_part", "length per part", "length"),
     _f("parts_per_bar", "parts per bar (floor((bar − remnant) / length per part))", style="count"),
     _f("quantity", "quantity", style="count"),
-    _f("bars_needed", "bars needed", style="count"),
+    _f("started", "parts started (quantity + scrap allowance)", style="count"),
+    _f("bars_needed", "bars needed (for the parts started)", style="count"),
     _f("parts_on_last_bar", "parts on the last bar", style="count"),
     _f("unused_per_bar", "unused per bar", "length"),
 )
@@ -592,12 +902,25 @@ CUTTING_FIELDS = (
     _f("spindle_speed_rpm", "n = vc / (π D), rev/min", style="count", digits=4),
     _f("over_limit", "over the limit", style="text"),
 )
+OPERATION_FIELDS = (
+    _f("operation", "operation", style="text"),
+    _f("time", "time", "time", digits=4),
+    _f("passes", "passes", style="count"),
+    _f("spindle_speed_rpm", "n, rev/min", style="count", digits=4),
+    _f("cutting_speed", "vc", "cutting_distance/time", digits=4),
+    _f("feed_per_rev", "f per rev", "length", digits=4),
+    _f("depth_of_cut", "ap", "length", digits=4),
+)
+FORMULA_FIELDS = (_f("operation", "operation", style="text"),
+                  _f("detail", "what", style="text"), _f("formula", "formula", style="text"))
 TIME_FIELDS = (
-    _f("metal_removal_rate", "metal removal rate Q = vc · ap · f", "volume/time", digits=4),
-    _f("roughing_time", "roughing (chips / Q)", "time", digits=4),
-    _f("finishing_time", "finishing (A / (vc · f))", "time", digits=4),
+    _f("operations_time", "operations (the list above)", "time", digits=4),
     _f("handling_time", "handling", "time", digits=4),
-    _f("cycle_time", "cycle (roughing + finishing + handling)", "time", digits=4),
+    _f("cycle_time", "cycle (operations + handling)", "time", digits=4),
+    _f("metal_removal_rate", "check: metal removal rate Q = vc · ap · f", "volume/time",
+       digits=4),
+    _f("roughing_time", "check: all chips at one rate (chips / Q)", "time", digits=4),
+    _f("finishing_time", "check: finishing (A / (vc · f))", "time", digits=4),
     _f("setup_time", "set-up, once per batch", "time", digits=4),
     _f("speed_limit_rpm", "machine speed limit, rev/min", style="count"),
     _f("roughing_limit_diameter", "roughing at the limit below ⌀", "diameter"),
@@ -620,13 +943,16 @@ ROW_FIELDS = tuple(replace(f, label=f.key) for f in (
     + tuple(f for f in PART_FIELDS)
     + tuple(f for f in STOCK_FIELDS if f.key not in ("stock_source",))
     + REMOVED_FIELDS
-    + tuple(f for f in BAR_FIELDS if f.key in ("parts_per_bar", "quantity", "bars_needed"))
+    + tuple(f for f in BAR_FIELDS if f.key in ("parts_per_bar", "quantity", "started",
+                                                "bars_needed"))
     + tuple(f for f in TIME_FIELDS if f.key.endswith("_time"))
     + (_f("stock_per_part", "stock per part", "money", "money"),
        _f("machine_per_part", "machine per part", "money", "money"),
        _f("setup_per_part", "set-up per part", "money", "money"),
        _f("cost_per_part", "cost per part", "money", "money"),
        _f("batch_cost", "batch cost", "money", "money"),
+       _f("price_per_part", "price per part", "money", "money"),
+       _f("batch_price", "batch price", "money", "money"),
        _f("crosscheck_agrees", "cross-check agrees", style="text"),
        _f("error", "error", style="text"))
 ))
@@ -647,7 +973,7 @@ def units_for(system: str, currency: Optional[str]) -> OutputUnits:
 def _sections(pq: PartQuote) -> Dict[str, Dict[str, Any]]:
     """The quote's figures by table, in SI (m, m², m³, kg, s, m/s; money as is)."""
     q = pq.quote
-    p, s, r, t, c, job = q.part, q.stock, q.removal, q.times, q.cost, q.job
+    p, s, r, t, job = q.part, q.stock, q.removal, q.times, q.job
     e, a = p.envelope, job.allowances
     part = {"part_diameter": e.diameter, "part_length": e.length,
             "part_volume": p.volume, "part_mass": p.mass,
@@ -674,13 +1000,18 @@ def _sections(pq: PartQuote) -> Dict[str, Dict[str, Any]]:
         b = q.bars
         bars = {"bar_length": b.bar_length, "remnant": b.remnant,
                 "length_per_part": b.length_per_part, "parts_per_bar": b.parts_per_bar,
-                "quantity": b.quantity, "bars_needed": b.bars_needed,
+                "quantity": pq.quantity, "started": pq.started, "bars_needed": b.bars_needed,
                 "parts_on_last_bar": b.parts_on_last_bar, "unused_per_bar": b.unused_per_bar}
     from revolve.jobs.turning import metal_removal_rate
 
-    times = {"metal_removal_rate": metal_removal_rate(job.roughing), "roughing_time": t.roughing,
-             "finishing_time": t.finishing, "handling_time": t.handling, "cycle_time": t.cycle,
-             "setup_time": t.setup}
+    times = {"operations_time": pq.plan.cycle_time, "handling_time": t.handling,
+             "cycle_time": pq.cycle, "metal_removal_rate": metal_removal_rate(job.roughing),
+             "roughing_time": t.roughing, "finishing_time": t.finishing, "setup_time": t.setup}
+    operations = [{"operation": op.name, "time": op.time, "passes": op.passes,
+                   "spindle_speed_rpm": op.spindle_speed * 60.0,
+                   "cutting_speed": op.data.cutting_speed, "feed_per_rev": op.data.feed,
+                   "depth_of_cut": op.data.depth_of_cut, "formula": op.formula,
+                   "detail": op.detail} for op in pq.plan.operations]
     if t.speed_limit is not None:
         times.update(speed_limit_rpm=t.speed_limit * 60.0,
                      roughing_limit_diameter=t.roughing_limit_diameter,
@@ -699,12 +1030,34 @@ def _sections(pq: PartQuote) -> Dict[str, Dict[str, Any]]:
     allowances = {"turning_on_diameter": a.turning, "bore_on_diameter": a.bore,
                   "facing_per_end": a.facing, "parting_width": a.parting_width,
                   "holding_length": a.holding_length}
-    cost = {"stock_per_part": c.stock_per_part, "machine_per_part": c.machine_per_part,
-            "setup_per_part": c.setup_per_part, "cost_per_part": c.per_part,
-            "stock_batch": c.stock_batch, "machine_batch": c.machine_batch,
-            "setup_batch": c.setup_batch, "batch_cost": c.batch}
     return {"part": part, "faces": faces, "stock": stock, "removed": removed, "bars": bars,
-            "cutting": cutting, "times": times, "allowances": allowances, "cost": cost}
+            "cutting": cutting, "operations": operations, "times": times,
+            "allowances": allowances, "cost": _costs(pq)}
+
+
+def _costs(pq: PartQuote) -> Dict[str, Optional[float]]:
+    """Batch and per-part money (per good part); None where the price or rate is missing."""
+    pr, p, q = pq.quote.job.prices, pq.price, pq.quantity
+    stock = p.material_cost if pr.stock_price is not None else None
+    rate = pr.machine_rate
+    setup = None if rate is None else rate * p.setup_time / 3600.0
+    machine = None if rate is None else p.machine_cost - setup
+    known = [v for v in (stock, machine, setup) if v is not None]
+    cost = math.fsum(known) if known else None
+    k = (1 + pq.extras.overhead / 100.0) / (1 - pq.extras.margin / 100.0)
+    out = {"stock_batch": stock, "machine_batch": machine, "setup_batch": setup,
+           "batch_cost": cost, "overhead_batch": None if cost is None
+           else cost * pq.extras.overhead / 100.0, "batch_price": None if cost is None
+           else cost * k}
+    for key in list(out):
+        out[key.replace("batch_", "").replace("_batch", "") + "_per_part"] = \
+            None if out[key] is None else out[key] / q
+    return {"stock_per_part": out["stock_per_part"], "machine_per_part": out["machine_per_part"],
+            "setup_per_part": out["setup_per_part"], "cost_per_part": out["cost_per_part"],
+            "overhead_per_part": out["overhead_per_part"], "price_per_part": out["price_per_part"],
+            "stock_batch": stock, "machine_batch": machine, "setup_batch": setup,
+            "batch_cost": cost, "overhead_batch": out["overhead_batch"],
+            "batch_price": out["batch_price"]}
 
 
 def notes_of(pq: PartQuote) -> List[str]:
@@ -732,35 +1085,51 @@ def notes_of(pq: PartQuote) -> List[str]:
     if not pq.agrees:
         out.append("the engine's two volume/surface computations disagree; do not use these "
                    "figures without finding out why")
+    out.extend(f"warning: {w}" for w in pq.plan.warnings)
+    out.extend(pq.notes)
+    if pq.extras.scrap:
+        out.append(f"scrap allowance {pq.extras.scrap:g} %: {pq.started} parts started for "
+                   f"{pq.quantity} good ones")
     return out
 
 
 def _cost_rows(pq: PartQuote, options: TurnOptions) -> Tuple[Dict[str, Any], ...]:
-    c, pr, bars = pq.quote.cost, pq.quote.job.prices, pq.quote.bars
+    c, pr, bars, ex = _costs(pq), pq.quote.job.prices, pq.quote.bars, pq.extras
     if pr.stock_price is None:
         stock_how = "no --stock-price given"
     else:
-        stock_how = f"at {str(options.stock_price).strip()}" + (
-            " per stock length" if pr.basis == "m" else " × stock mass")
+        cur = options.currency_label()
+        shown = (f"{pr.stock_price:.2f}{' ' + cur if cur else ''}/{pr.basis} from "
+                 f"{os.path.basename(ex.stock_list)}"
+                 if ex.stock_list else str(options.stock_price).strip())
+        stock_how = f"at {shown}" + (" per stock length" if pr.basis == "m"
+                                     else " × stock mass")
         if pr.whole_bars and bars is not None:
             stock_how += f", {bars.bars_needed} whole bars"
+        stock_how += f", {pq.started} parts started"
     rate_how = ("no --machine-rate given" if pr.machine_rate is None else
-                f"{pr.machine_rate:.6g} per hour × cycle")
+                f"{pr.machine_rate:.6g} per hour × cycle × {pq.started} parts started")
     missing = [o for o, v in (("--stock-price", pr.stock_price), ("--machine-rate", pr.machine_rate))
                if v is None]
-    return ({"item": "stock", "per_part": c.stock_per_part, "batch": c.stock_batch,
+    rows = [{"item": "stock", "per_part": c["stock_per_part"], "batch": c["stock_batch"],
              "how": stock_how},
-            {"item": "machine time", "per_part": c.machine_per_part, "batch": c.machine_batch,
-             "how": rate_how},
-            {"item": "set-up", "per_part": c.setup_per_part, "batch": c.setup_batch,
+            {"item": "machine time", "per_part": c["machine_per_part"],
+             "batch": c["machine_batch"], "how": rate_how},
+            {"item": "set-up", "per_part": c["setup_per_part"], "batch": c["setup_batch"],
              "how": "rate × set-up time, shared over the batch"},
-            {"item": "total", "per_part": c.per_part, "batch": c.batch,
-             "how": "" if c.complete else "incomplete: give " + " and ".join(missing)})
+            {"item": "total", "per_part": c["cost_per_part"], "batch": c["batch_cost"],
+             "how": "cost" if not missing else "incomplete: give " + " and ".join(missing)},
+            {"item": "overhead", "per_part": c["overhead_per_part"],
+             "batch": c["overhead_batch"], "how": f"{ex.overhead:g} % of the cost"},
+            {"item": "price", "per_part": c["price_per_part"], "batch": c["batch_price"],
+             "how": f"(cost + overhead) / (1 − {ex.margin:g} % margin)"}]
+    return tuple(rows)
 
 
 @dataclass(frozen=True, repr=False)
 class TurningResult(Result):
-    """A turned part's quote: tables part, faces, stock, removed, bars, cutting, times, cost.
+    """A turned part's quote: tables part, faces, stock, removed, bars, allowances, cutting,
+    operations, operation_formulas, times, cost (with overhead and price).
 
     The properties give the main figures in SI (m, m³, kg, s) and money.
     """
@@ -770,10 +1139,11 @@ class TurningResult(Result):
 
     def __repr__(self) -> str:
         q = self.quote
-        cost = "" if q.cost.per_part is None else f", {q.cost.per_part:.2f} per part"
+        c = self.cost_per_part
+        cost = "" if c is None else f", {c:.2f} per part"
         return (f"<TurningResult {self.part.name}: {q.stock.size.label} "
                 f"{_KIND_TEXT[q.stock.size.kind]}, part {q.part.mass:.6g} kg, stock "
-                f"{q.stock.mass:.6g} kg, cycle {q.times.cycle / 60:.4g} min{cost}>")
+                f"{q.stock.mass:.6g} kg, cycle {self.cycle_time / 60:.4g} min{cost}>")
 
     @property
     def heading(self) -> str:
@@ -814,13 +1184,23 @@ class TurningResult(Result):
 
     @property
     def cycle_time(self) -> float:
-        """Time per part (roughing + finishing + handling), s."""
-        return self.quote.times.cycle
+        """Time per part (the operations + handling), s."""
+        return self.part.cycle
+
+    @property
+    def operations(self) -> Tuple[Any, ...]:
+        """The operations in order (:class:`revolve.jobs.operations.Operation`)."""
+        return self.part.plan.operations
 
     @property
     def cost_per_part(self) -> Optional[float]:
-        """Cost per part in the currency, None without a price or a rate."""
-        return self.quote.cost.per_part
+        """Cost per good part in the currency, None without a price or a rate."""
+        return _costs(self.part)["cost_per_part"]
+
+    @property
+    def price_per_part(self) -> Optional[float]:
+        """Price per good part (cost, overhead and margin), None without a price or a rate."""
+        return _costs(self.part)["price_per_part"]
 
     @property
     def agrees(self) -> bool:
@@ -840,8 +1220,11 @@ def _inputs(pq: PartQuote, options: TurnOptions, currency) -> Dict[str, Any]:
             "material": m.key, "material_name": m.name, "density_kg_m3": m.density,
             "material_group": m.group, "material_source": m.source,
             "cutting_data_source": pq.cutting_source, "bar_list": pq.system,
-            "stock": options.stock, "quantity": pq.quote.cost.quantity, "currency": currency,
-            "tolerance": options.tolerance}
+            "stock": options.stock, "quantity": pq.quantity, "currency": currency,
+            "tolerance": options.tolerance, "scrap_percent": pq.extras.scrap,
+            "overhead_percent": pq.extras.overhead, "margin_percent": pq.extras.margin,
+            "stock_list": pq.extras.stock_list, "grooves": options.grooves,
+            "blind_bore": options.blind_bore}
 
 
 def result_of(pq: PartQuote, options: TurnOptions) -> TurningResult:
@@ -865,8 +1248,12 @@ def result_of(pq: PartQuote, options: TurnOptions) -> TurningResult:
                Table("cutting", f"Cutting data ({m.group}: {pq.cutting_source}) and spindle "
                      f"speeds", CUTTING_FIELDS,
                      tuple(sec["cutting"])),
+               Table("operations", "Operations in order, per part", OPERATION_FIELDS,
+                     tuple(sec["operations"])),
+               Table("operation_formulas", "How each operation is timed", FORMULA_FIELDS,
+                     tuple(sec["operations"])),
                Table("times", "Time per part", TIME_FIELDS, (sec["times"],), figures=True),
-               Table("cost", f"Cost, batch of {q.cost.quantity}", COST_FIELDS,
+               Table("cost", f"Cost and price, batch of {pq.quantity}", COST_FIELDS,
                      _cost_rows(pq, options))]
     return TurningResult("turn", units_for(pq.system, currency), _inputs(pq, options, currency),
                          tuple(tables), tuple(notes_of(pq)), ("turning",),
@@ -881,7 +1268,8 @@ def row_of(pq: PartQuote) -> Dict[str, Any]:
         row.update(sec[key])
     if sec["bars"] is not None:
         row.update({k: sec["bars"][k] for k in ("parts_per_bar", "bars_needed")})
-    row["quantity"] = pq.quote.cost.quantity
+    row["quantity"] = pq.quantity
+    row["started"] = pq.started
     row["crosscheck_agrees"] = pq.agrees
     return row
 
@@ -987,7 +1375,10 @@ def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: 
         (minutes), ``handling_time="30 s"``, ``whole_bars=True``,
         ``roughing="vc=220,f=0.3"``, ``finishing``, ``max_speed="3000"``
         (rev/min), ``no_finish=("bore",)``, ``currency="EUR"``, ``axis``,
-        ``units`` (of point lists), ``tolerance``.
+        ``units`` (of point lists), ``tolerance``; the operations and the
+        price: ``drilling="vc=25,f=0.15"``, ``grooves="2 x 3 x 1.5"``,
+        ``blind_bore="12 x 20"``, ``scrap="3%"``, ``overhead="15%"``,
+        ``margin="20%"``, ``stock_list="rack.csv"``, ``grade="S355"``.
 
     Returns
     -------
@@ -1005,7 +1396,21 @@ def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: 
     >>> r = quote_turning(pin, material="carbon steel", quantity=10, stock_price="2.40/kg",
     ...                   machine_rate="85/h")
     >>> r
-    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle 0.2457 min, 1.18 per part>
+    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle 0.414 min, 1.42 per part>
+    >>> [op.name for op in r.operations]
+    ['face', 'rough turn', 'finish turn', 'part off']
+
+    By hand (steel table row; common practice, no source): face π·16²/(200 000·0.25)
+    = 0.01608 min, rough turn 50/(0.3·200 000/(π·32)) = 0.08378 min, finish turn
+    A/(vc f) = (π·30·50 + 2π·15²)/(260 000·0.12) = 0.1963 min, part off
+    π·15²/(100 000·0.06) = 0.1178 min:
+
+    >>> round(r.cycle_time / 60, 4)
+    0.414
+    >>> p = quote_turning(pin, material="carbon steel", quantity=100, stock_price="2.40/kg",
+    ...                   machine_rate="85/h", setup_time="30", scrap="3%", margin="20%")
+    >>> p.to_dict()["bars"]["started"], round(p.price_per_part / p.cost_per_part, 12)
+    (103, 1.25)
     >>> round(r.volume * 1e9, 3) == round(math.pi * 15 ** 2 * 50, 3)      # π r² L, mm³
     True
     >>> round(r.to_dict()["stock"]["stock_mass"], 6)      # π/4 · 32² · 55 mm³ at 7850 kg/m³
@@ -1085,7 +1490,7 @@ def quote_many_with(files: Sequence[str], opts: TurnOptions, counts: Sequence[in
     pool = {} if serial_below is None else {"serial_below": serial_below}
 
     def run(system: str):
-        task = TurnTask(opts, system, opts.job(system))
+        task = TurnTask(opts, system, (opts.job(system), opts.extras(system)))
         return [r.value if r.ok else PartOutcome(None, error=r.error)
                 for r in batch.run_many(task, items, workers=workers, progress=progress, **pool)]
 

@@ -76,7 +76,8 @@ def test_one_part_quote_table_reads_like_a_quote(capsys):
     assert err == ""
     for text in ("Stepped shaft, crowned collar", "round bar", "42 mm", "stock length per part",
                  "parts per bar", "Bars, 200 parts", "utilisation", "roughing", "finishing",
-                 "spindle speeds", "Cost, batch of 200", "EUR", "Caution"):
+                 "spindle speeds", "Cost and price, batch of 200", "EUR", "Caution",
+                 "Operations in order", "part off", "How each operation is timed"):
         assert text in out, text
     assert "Times and costs are estimates" in out
     # parts per bar floor((3000 − 100) / 85) = 34 (common practice, no source)
@@ -552,11 +553,16 @@ from hypothesis import example, given, strategies as st  # noqa: E402
 
 
 @given(st.sampled_from(["--parting-width", "--bar-length", "--blank", "--stock-price",
-                        "--machine-rate", "--max-speed", "--roughing", "-q"]),
+                        "--machine-rate", "--max-speed", "--roughing", "-q", "--grooves",
+                        "--blind-bore", "--scrap", "--overhead", "--margin", "--drilling"]),
        st.text(alphabet="0123456789 ./-x,=EURkgminvcfap'\"", min_size=1, max_size=12))
 @example("--parting-width", "1/0 in")
 @example("-q", "0,1")
 @example("--roughing", "vc=1e999")
+@example("--grooves", "0 x 3 x 1")
+@example("--grooves", "9999 x 1e-9 x 1")
+@example("--blind-bore", "0 x 5")
+@example("--margin", "99.99999")
 def test_generated_option_text_is_quoted_or_refused_in_one_line(option, text):
     import contextlib
     import io
@@ -575,3 +581,246 @@ def test_generated_option_text_is_quoted_or_refused_in_one_line(option, text):
         assert code == 2 and out.getvalue() == "", (option, text, err.getvalue())
         lines = err.getvalue().splitlines()
         assert len(lines) == 1 and lines[0].startswith("revolve: error: "), lines
+
+
+# -- issue 14: operations, set-up, scrap, margin, the shop's stock, slender parts, inch shops ----
+STOCK_LIST = ROOT / "examples" / "shop-stock-list.csv"
+# Steel rows of revolve/data/operations.toml (typical, from memory), metric trade units.
+STEEL_DRILL = (25.0, 0.15)            # vc m/min, f mm/rev
+
+
+def ops_rows(d):
+    return {row["operation"]: row for row in d["operations"]}
+
+
+def drill_minutes(depth_mm, d_mm, vc=STEEL_DRILL[0], f=STEEL_DRILL[1], angle=118.0):
+    """t = (hole depth + point length) / (f n), n = vc / (π d), point = (d/2) / tan(angle/2)
+    (common practice, no source)."""
+    n = vc * 1000 / (math.pi * d_mm)
+    return (depth_mm + d_mm / 2 / math.tan(math.radians(angle / 2))) / (f * n)
+
+
+def test_operations_are_listed_in_order_with_formulas(capsys):
+    code, out, err = run([SHAFT, "--json", "--grooves", "2 x 3 x 1.5"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    names = [r["operation"] for r in d["operations"]]
+    assert names == ["face", "rough turn", "rough to the profile", "finish turn", "groove",
+                     "part off"]
+    assert [r["operation"] for r in d["operation_formulas"]] == names
+    assert all(r["formula"].startswith("t = ") for r in d["operation_formulas"])
+    t = d["times"]
+    assert rel(t["operations_time"], math.fsum(r["time"] for r in d["operations"])) < 1e-12
+    assert rel(t["cycle_time"], t["operations_time"] + t["handling_time"]) < 1e-12
+    # two grooves 3 mm wide, 1.5 mm deep at ⌀40, one plunge of a 3 mm tool each, at constant
+    # vc: t = π (R² − r²) / (vc f), R = 20, r = 18.5 mm; vc 120 m/min, f 0.08 (common practice)
+    g = ops_rows(d)["groove"]
+    assert rel(g["time"], 2 * math.pi * (20 ** 2 - 18.5 ** 2) / (120e3 * 0.08)) < 1e-12
+    # facing the ⌀42 bar end to the centre: π R² / (vc f), vc 200 m/min, f 0.25 mm/rev
+    assert rel(ops_rows(d)["face"]["time"], math.pi * 21 ** 2 / (200e3 * 0.25)) < 1e-12
+
+
+@pytest.mark.parametrize("bore, drill_d, bored", [("12 x 20", 10.0, True), ("6 x 15", 6.0, False)])
+def test_drill_time_from_feed_and_point_length(tmp_path, capsys, bore, drill_d, bored):
+    import revolve
+
+    f = write(tmp_path, "pin.toml", PIN)
+    code, out, err = run([f, "--json", "--blind-bore", bore], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    depth = float(bore.split("x")[1])
+    ops = ops_rows(d)
+    # a bore of 8 mm or more is drilled 2 mm under size and bored; a smaller one drilled to
+    # size (the bore rule of operations.toml, common practice, no source)
+    assert rel(ops["drill"]["time"], drill_minutes(depth, drill_d)) < 1e-12
+    assert rel(ops["drill"]["spindle_speed_rpm"], 25e3 / (math.pi * drill_d)) < 1e-12
+    assert ("bore" in ops) is bored and "centre drill" in ops
+    lib = revolve.quote_turning(f, blind_bore=bore)
+    drill = [op for op in lib.operations if op.name == "drill"][0]
+    assert rel(drill.time / 60, drill_minutes(depth, drill_d)) < 1e-12
+
+
+def test_drilling_data_given_sets_the_drill_time(tmp_path, capsys):
+    f = write(tmp_path, "pin.toml", PIN)
+    code, out, err = run([f, "--json", "--blind-bore", "6 x 15", "--drilling", "vc=30,f=0.1"],
+                         capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert rel(ops_rows(d)["drill"]["time"], drill_minutes(15, 6, 30, 0.1)) < 1e-12
+    assert d["inputs"]["cutting_data_source"] == "given"
+
+
+def test_scrap_raises_parts_started_and_bars(tmp_path, capsys):
+    import revolve
+
+    f = write(tmp_path, "pin.toml", PIN)
+    _, plain, _ = run([f, "--json", "-q", "104"], capsys)
+    code, out, err = run([f, "--json", "-q", "104", "--scrap", "3%"], capsys)
+    assert code == 0, err
+    p, d = json.loads(plain)["bars"], json.loads(out)["bars"]
+    # 52 parts a bar (floor((3000 − 100) / 55)); ceil(104 × 1.03) = 108 started (by hand)
+    assert p["parts_per_bar"] == d["parts_per_bar"] == 52
+    assert (p["started"], p["bars_needed"]) == (104, 2)
+    assert (d["started"], d["bars_needed"]) == (108, 3)
+    lib = revolve.quote_turning(f, quantity=104, scrap="3%").to_dict()["bars"]
+    assert (lib["started"], lib["bars_needed"]) == (108, 3)
+
+
+def test_setup_overhead_and_margin_give_the_price(tmp_path, capsys):
+    import revolve
+
+    f = write(tmp_path, "pin.toml", PIN)
+    args = ["-q", "100", "--stock-price", "2.40/kg", "--machine-rate", "85/h",
+            "--setup-time", "30", "--scrap", "5", "--overhead", "15%", "--margin", "20%"]
+    code, out, err = run([f, "--json", *args], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    c, t = cost_rows(d), d["times"]
+    started = 105                                                       # ceil(100 × 1.05)
+    assert rel(c["machine time"]["batch"], 85 * started * t["cycle_time"] / 60) < 1e-12
+    assert rel(c["set-up"]["batch"], 85 * 0.5) < 1e-12
+    assert rel(c["stock"]["batch"], started * 2.40 * d["stock"]["stock_mass"]) < 1e-12
+    cost = c["total"]["batch"]
+    assert rel(c["overhead"]["batch"], 0.15 * cost) < 1e-12
+    # margin as a share of the price: price = cost × 1.15 / (1 − 0.20) (common practice)
+    assert rel(c["price"]["batch"], cost * 1.15 / 0.8) < 1e-12
+    assert rel(c["price"]["per_part"], c["price"]["batch"] / 100) < 1e-12
+    assert not any("set-up time is zero" in n for n in d["notes"])
+    lib = revolve.quote_turning(f, quantity=100, stock_price="2.40/kg", machine_rate="85/h",
+                                setup_time="30", scrap="5", overhead="15%", margin="20%")
+    assert rel(lib.price_per_part, c["price"]["per_part"]) < 1e-12
+    _, zero, _ = run([f, "--json", "--machine-rate", "85"], capsys)
+    assert any("set-up time is zero" in n for n in json.loads(zero)["notes"])
+
+
+def test_stock_list_replaces_the_sizes_and_gives_the_price(capsys):
+    import revolve
+
+    code, out, err = run([SHAFT, "--json", "-q", "20", "--stock-list", STOCK_LIST,
+                          "--grade", "c45"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    s = d["stock"]
+    # the shaft needs ⌀42 (⌀40 + 2 mm): the smallest C45 round bar covering it is 45 mm
+    assert s["stock_label"] == "45 mm C45" and s["stock_diameter"] == 45
+    assert s["stock_source"] == "shop-stock-list.csv line 5"
+    assert d["bars"]["bar_length"] == 3000                          # the rack length, 3 m
+    # 12.90 EUR per metre × the stock length per part (mm → m), 20 parts
+    assert rel(cost_rows(d)["stock"]["batch"], 20 * 12.90 * s["stock_length"] / 1000) < 1e-12
+    assert d["units"]["money"] == "EUR"
+    lib = revolve.quote_turning(SHAFT, quantity=20, stock_list=str(STOCK_LIST), grade="C45")
+    assert lib.stock_label == "45 mm C45"
+
+
+def test_stock_list_bad_row_names_file_and_line(tmp_path, capsys):
+    rack = write(tmp_path, "rack.csv", "shape,size,grade,price,length\n"
+                 "round,45 mm,C45,12.90 EUR/m,3 m\nround,50,C45,15 EUR/m,3 m\n")
+    err = _bad(tmp_path, capsys, [SHAFT, "--stock-list", rack], "rack.csv:3", "no unit")
+    assert "column 'size'" in err
+
+
+@pytest.mark.parametrize("args, must", [
+    (["--scrap", "120"], "--scrap"),
+    (["--overhead", "ten"], "--overhead"),
+    (["--margin", "100"], "--margin"),
+    (["--grooves", "2 x 3"], "--grooves"),
+    (["--grooves", "2 x 3 x 25"], "--grooves"),
+    (["--grooves", "30 x 3 x 1"], "wider together than the part"),
+    (["--blind-bore", "12"], "--blind-bore"),
+    (["--blind-bore", "12 x 500"], "--blind-bore"),
+    (["--drilling", "vc=25,ap=1"], "--drilling"),
+    (["--grade", "C45"], "--grade"),
+    (["--stock-list", STOCK_LIST], "--grade"),
+    (["--stock-list", STOCK_LIST, "--grade", "S355"], "--grade"),
+    (["--stock-list", STOCK_LIST, "--grade", "C45", "--stock-price", "2/kg"], "--stock-price"),
+    (["--stock-list", "/nonexistent/rack.csv"], "/nonexistent/rack.csv"),
+    (["--stock-list", STOCK_LIST, "--grade", "C45", "--blank", "45"], "--blank"),
+])
+def test_bad_issue14_options(tmp_path, capsys, args, must):
+    _bad(tmp_path, capsys, [SHAFT, *args], must)
+
+
+def test_slender_part_is_warned_about(tmp_path, capsys):
+    long_pin = PIN.replace("[50, 0]", "[60, 0]").replace("[50, 15]", "[60, 5]") \
+        .replace("[0, 15]", "[0, 5]")
+    f = write(tmp_path, "long.toml", long_pin)
+    code, out, err = run([f, "--json"], capsys)
+    assert code == 0, err
+    notes = json.loads(out)["notes"]
+    # L/D = 60/10 = 6, above 4: a tailstock (rule of thumb, common practice, no source)
+    assert any("length over diameter 6" in n and "tailstock" in n and "common practice" in n
+               for n in notes)
+    code, out, _ = run([f, "--json", "--roughing", "ap=4"], capsys)
+    # ap 4 mm is more than a quarter of the ⌀12 bar (rule of thumb, common practice)
+    assert any("rough turn: the depth of cut 4 mm" in n and "implausible" in n
+               for n in json.loads(out)["notes"])
+
+
+def test_inch_shop_cutting_data_in_sfm_and_inch_per_rev(capsys):
+    code, out, err = run([SLEEVE, "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    assert d["units"]["cutting_distance/time"] == "ft/min"
+    for row in d["operations"]:
+        # round steps as inch shops write them (common practice, no source): sfm in 5s or 25s,
+        # in/rev in 0.0005 in
+        sfm, ipr = row["cutting_speed"], row["feed_per_rev"]
+        assert abs(sfm / 5 - round(sfm / 5)) < 1e-9, row
+        assert abs(ipr / 0.0005 - round(ipr / 0.0005)) < 1e-6, row
+    code, out, err = run([SLEEVE, "--json", "--roughing", "vc=500,f=0.012,ap=0.08"], capsys)
+    rough = ops_rows(json.loads(out))["rough turn"]
+    assert (rough["cutting_speed"], rough["feed_per_rev"], rough["depth_of_cut"]) == \
+        pytest.approx((500, 0.012, 0.08), rel=1e-12)
+
+
+@pytest.mark.parametrize("path", [SHAFT, SLEEVE], ids=os.path.basename)
+def test_library_equals_json_with_the_issue14_options(path, capsys):
+    import revolve
+    from revolve.render.output import clean_json
+
+    opts = dict(quantity=40, machine_rate="70/h", setup_time="20", scrap="3%", overhead="10",
+                margin="25%", grooves="1 x 3 x 1 mm", stock_list=str(STOCK_LIST), grade="C45")
+    args = ["-q", "40", "--machine-rate", "70/h", "--setup-time", "20", "--scrap", "3%",
+            "--overhead", "10", "--margin", "25%", "--grooves", "1 x 3 x 1 mm",
+            "--stock-list", STOCK_LIST, "--grade", "C45"]
+    code, out, err = run([path, "--json", *args], capsys)
+    assert code == 0, err
+    r = revolve.quote_turning(path, **opts)
+    assert json.loads(json.dumps(clean_json(r.to_dict()), ensure_ascii=False)) == json.loads(out)
+
+
+def test_inch_drill_time_with_the_inch_shop_sizes(capsys):
+    code, out, err = run([SLEEVE, "--json"], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    drill = ops_rows(d)["drill"]
+    # the 1 1/8 in bore is drilled 1/16 in under size (inch rule of operations.toml, common
+    # practice): ⌀1 1/16 in through the part's length; t = (depth + point) / (f n),
+    # n = 12 sfm / (π d) rev/min with d in inches (1 ft = 12 in), point = (d/2) / tan 59°
+    dia, depth = 1.0625, d["part"]["part_length"]
+    n = 12 * drill["cutting_speed"] / (math.pi * dia)
+    assert rel(drill["spindle_speed_rpm"], n) < 1e-12
+    expect = (depth + dia / 2 / math.tan(math.radians(59))) / (drill["feed_per_rev"] * n)
+    assert rel(drill["time"], expect) < 1e-12
+    assert "⌀1.062 in × 2.5 in" in [r for r in d["operation_formulas"]
+                                   if r["operation"] == "drill"][0]["detail"]
+
+
+def test_stock_list_tube_is_bored_not_drilled(tmp_path, capsys):
+    bushing = ROOT / "profiles" / "flanged-bushing.toml"
+    out_csv = tmp_path / "q.csv"
+    code, out, err = run([bushing, "--json", "-q", "30", "--stock", "tube", "--stock-list",
+                          STOCK_LIST, "--grade", "C45", "--csv", out_csv], capsys)
+    assert code == 0, err
+    d = json.loads(out)
+    s = d["stock"]
+    # ⌀56 part + 2 mm needs ⌀58; the ⌀20 bore less 2 mm allows a stock bore up to 18 mm:
+    # the 60 x 16 mm tube of the list
+    assert s["stock_label"] == "60 x 16 mm C45" and s["stock_kind"] == "tube"
+    names = [r["operation"] for r in d["operations"]]
+    assert "drill" not in names and "centre drill" not in names and "bore" in names
+    # 2.90 EUR per kg × stock mass × 30 parts
+    assert rel(cost_rows(d)["stock"]["batch"], 30 * 2.90 * s["stock_mass"]) < 1e-12
+    with open(out_csv, newline="", encoding="utf-8") as handle:
+        row = next(csv.DictReader(handle))
+    assert row["started"] == "30" and float(row["price_per_part (EUR)"]) > 0

@@ -384,3 +384,43 @@ def test_stock_from_the_shops_list_and_its_price():
     assert bar.price_for(length=0.055, mass=0.0) == pytest.approx(0.462)
     with pytest.raises(RevolveError, match="nothing on the stock list covers ⌀36 mm in S355"):
         choose_from_stock(rack, 0.036, grade="S355")
+
+
+# -- tube stock and inch shops (issue 14) ----------------------------------------------------
+
+def test_tube_stock_is_bored_from_its_own_bore_not_drilled():
+    part = Features((OuterStep(0.036, 0.02),), bore_diameter=0.028, bore_depth=0.02)
+    plan = plan_operations(part, 0.040, STEEL, stock_bore=0.024)
+    ops_ = by_name(plan)
+    assert "drill" not in ops_ and "centre drill" not in ops_
+    # bore 24 → 28 mm, ap 1.5: ceil(2 / 1.5) = 2 passes of 1 mm, cut at ⌀26 then ⌀28;
+    # t = Σ L / (f n), n = vc / (π D), vc 180 m/min, f 0.15 mm/rev (common practice, no source)
+    minutes = sum(20 / (0.15 * 180e3 / (math.pi * d)) for d in (26, 28))
+    assert ops_["bore"].passes == 2
+    assert abs(ops_["bore"].time / 60 - minutes) / minutes < 1e-12
+    # facing the tube end ⌀40 → ⌀24 at constant vc: π (R² − r²) / (vc f), mm and mm/min
+    face = math.pi * (20 ** 2 - 12 ** 2) / (200e3 * 0.25)
+    assert abs(ops_["face"].time / 60 - face) / face < 1e-12
+    with pytest.raises(RevolveError, match="stock bore"):
+        plan_operations(Features((OuterStep(0.036, 0.02),)), 0.040, STEEL, stock_bore=0.024)
+
+
+def test_inch_shop_data_are_round_sfm_and_inch_per_rev():
+    inch = ops.as_shop_writes(STEEL, "inch")
+    for op, d in inch.items():
+        sfm, ipr, doc = d.trade_units("inch")
+        step = 5 if sfm < 200 else 25
+        assert sfm == step * round(sfm / step), op
+        assert abs(ipr / 0.0005 - round(ipr / 0.0005)) < 1e-9, op
+        # within half a step of the metric row (1 ft = 0.3048 m, 1 in = 25.4 mm, 1959)
+        vc, f, _ = STEEL[op].trade_units("metric")
+        assert abs(sfm - vc / 0.3048) <= step / 2 + 1e-9, op
+        assert abs(ipr - f / 25.4) <= 0.00025 + 1e-12, op
+    assert ops.as_shop_writes(STEEL, "metric") == STEEL
+
+
+def test_details_and_warnings_in_inches_for_an_inch_shop():
+    plan = plan_operations(Features((OuterStep(0.0254, 0.127),)), 0.0254 * 1.125, STEEL,
+                           unit="in")
+    assert by_name(plan)["face"].detail == "⌀1.125 in to the centre"
+    assert plan.warnings[0].startswith("length over diameter 5 (5 in over 1 in)")

@@ -19,14 +19,13 @@ from typing import Any, List, Optional
 import typer
 
 from revolve.cli import options
-from revolve.errors import RevolveError
 
 #: Columns of the plain many-parts table (keys of the job's rows) and their short headings.
 ROW_COLUMNS = {"material": "material", "part_diameter": "⌀", "part_length": "length",
                "stock_label": "stock", "stock_length": "stock length", "part_mass": "part",
                "stock_mass": "stock", "utilisation_percent": "used", "quantity": "qty",
-               "bars_needed": "bars", "cycle_time": "cycle", "cost_per_part": "per part",
-               "batch_cost": "batch"}
+               "bars_needed": "bars", "cycle_time": "cycle", "cost_per_part": "cost",
+               "price_per_part": "price", "batch_cost": "batch cost"}
 
 
 def _rows_text(result, one_qty: bool) -> str:
@@ -182,8 +181,29 @@ def register(app: typer.Typer) -> None:
                                                "sfm, in/rev, in)."),
         finishing: Optional[str] = typer.Option(None, "--finishing", help="Finishing data, e.g. "
                                                 "vc=280,f=0.1."),
+        drilling: Optional[str] = typer.Option(None, "--drilling", help="Drilling data, e.g. "
+                                               "vc=25,f=0.15 (inch list: sfm, in/rev)."),
         max_speed: Optional[str] = typer.Option(None, "--max-speed", help="The machine's spindle "
                                                 "speed limit, rev/min; the times use it."),
+        grooves: Optional[str] = typer.Option(None, "--grooves", help="Grooves the profile does "
+                                              "not show: N x WIDTH x DEPTH, e.g. '2 x 3 x 1.5', "
+                                              "cut at the largest diameter."),
+        blind_bore: Optional[str] = typer.Option(None, "--blind-bore", help="A blind bore the "
+                                                 "profile does not show: DIAMETER x DEPTH from "
+                                                 "the faced end, e.g. '12 x 20'."),
+        scrap: Optional[float] = typer.Option(None, "--scrap", click_type=options.PERCENT,
+                                              help="Scrap allowance, e.g. 3%: more parts "
+                                              "started, more bars."),
+        overhead: Optional[float] = typer.Option(None, "--overhead", click_type=options.PERCENT,
+                                                 help="Overhead on the cost, e.g. 15%."),
+        margin: Optional[float] = typer.Option(None, "--margin", click_type=options.PERCENT,
+                                               help="Margin as a share of the price (below 100 "
+                                               "%), e.g. 20%."),
+        stock_list: Optional[str] = typer.Option(None, "--stock-list", help="The shop's stock "
+                                                 "list (CSV: shape, size, grade, price, length); "
+                                                 "replaces the built-in sizes and gives the price."),
+        grade: Optional[str] = typer.Option(None, "--grade", help="The grade to take from "
+                                            "--stock-list."),
         no_finish: Optional[List[str]] = typer.Option(None, "--no-finish", help="A face left as "
                                                       "roughed or parted. Repeat for more."),
         currency: Optional[str] = typer.Option(None, "--currency", help="Currency, e.g. EUR."),
@@ -207,6 +227,8 @@ def register(app: typer.Typer) -> None:
                         setup_time=setup_time, handling_time=handling_time,
                         whole_bars=whole_bars, roughing=roughing, finishing=finishing,
                         max_speed=max_speed, no_finish=tuple(no_finish or ()),
+                        drilling=drilling, grooves=grooves, blind_bore=blind_bore, scrap=scrap,
+                        overhead=overhead, margin=margin, stock_list=stock_list, grade=grade,
                         currency=currency, as_json=as_json, csv_file=csv_file, force=force,
                         tolerance=tolerance, workers=workers)
         if code:
