@@ -187,6 +187,31 @@ def _fail(message: str) -> None:
     sys.exit(2)
 
 
+def _app_for(argv) -> typer.Typer:
+    """The app with only the command that ``argv`` names, else the whole app.
+
+    typer turns every registered command into a click command (reading each
+    function's signature and type hints) before it dispatches; for one command
+    that is most of the start-up of a short run. The one command keeps the
+    root's options and callback, so its help, errors and exit codes are the
+    same as through the whole app.
+
+    >>> [c.name for c in _app_for(["vessel", "--help"]).registered_commands]
+    ['vessel']
+    >>> _app_for(["--version"]) is app, _app_for(["mash"]) is app
+    (True, True)
+    """
+    first = argv[0] if argv else None
+    chosen = [c for c in app.registered_commands if first is not None and c.name == first]
+    if len(chosen) != 1:
+        return app
+    one = typer.Typer(name=PROGRAM, help=app.info.help, invoke_without_command=True,
+                      add_completion=False, pretty_exceptions_enable=False)
+    one.registered_callback = app.registered_callback
+    one.registered_commands = chosen
+    return one
+
+
 def main(argv=None) -> None:
     """Entry point of the console script: run the app; input errors become one line and exit 2.
 
@@ -197,7 +222,8 @@ def main(argv=None) -> None:
     from typer._click import exceptions as ce
 
     try:
-        code = app(args=argv, prog_name=PROGRAM, standalone_mode=False)
+        code = _app_for(sys.argv[1:] if argv is None else list(argv))(
+            args=argv, prog_name=PROGRAM, standalone_mode=False)
     except ce.NoArgsIsHelpError as exc:  # the help text has been printed: no error line
         sys.exit(exc.exit_code)
     except ce.ClickException as exc:
