@@ -162,8 +162,9 @@ def test_touching_chains_count_within_the_tolerance():
 @settings(max_examples=60, deadline=None)
 @given(st.integers(0, 2 ** 32 - 1), st.integers(4, 200), st.booleans(), st.sampled_from(["random", "ring"]))
 def test_every_candidate_index_agrees_with_shapely_is_simple(seed, n, closed, shape):
-    # Random points (crossings everywhere) or a noisy ring (crossings rare): the x sweep, the
-    # y sweep and the grid must each find a crossing exactly when shapely's is_simple says
+    # Random points (crossings everywhere) or a noisy ring (crossings rare): with the chains'
+    # boxes paired by the x sweep, the y sweep or the grid, the finder must find a crossing
+    # exactly when shapely's is_simple says
     # the line is not simple (touching within 1e-12 does not occur with these random points).
     rng = np.random.default_rng(seed)
     if shape == "random":
