@@ -235,7 +235,7 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
             choices[name] = (int(span.sum()), order, span, None, None)
     # The grid costs a sort of its registrations: build it only when a sweep is not already
     # down to a few pairs per box (or when asked for).
-    few = bool(choices) and min(c[0] for c in choices.values()) <= 4 * n
+    few = bool(choices) and min(c[0] for c in choices.values()) <= 16 * n
     grid = _grid_order(x0, x1, y0, y1, 4 * n + 1024) \
         if index == "grid" or (index is None and not few) else None
     if grid is not None:
@@ -617,7 +617,9 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     if not np.all(np.isfinite(allpts)):
         raise ProfileError("the profile has a coordinate that is not a finite number")
     check_coordinate_range(allpts)
-    lo, hi = allpts.min(axis=0), allpts.max(axis=0)
+    # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+    lo = np.array([allpts[:, 0].min(), allpts[:, 1].min()])
+    hi = np.array([allpts[:, 0].max(), allpts[:, 1].max()])
     size = float(np.hypot(*(hi - lo)))
     if size == 0:
         raise ProfileError("the profile has zero size: every point is the same")

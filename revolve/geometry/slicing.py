@@ -474,6 +474,9 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 
 #: Most (piece, interval) pairs per piece the first partition of the washers may give.
 PAIRS_PER_PIECE = 4
+#: When every kind's radius is a polynomial of ``z`` (exact rules, nothing to refine), the
+#: first partition keeps every 2^k-th piece end at least, k = this.
+EXACT_SLICE_SHIFT = 4
 
 
 def _partition(table: PieceTable):
@@ -523,6 +526,10 @@ def _partition(table: PieceTable):
     # every break (and fall as k grows): start from the first k that bound allows.
     beyond = int((high - low).sum())
     shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
+    if all(g.kind.washer_degree() is not None for g in table.groups):
+        # Exact rules only: a piece's part of a wider slice is as exact as of a narrow one,
+        # and no interval will be halved; wider slices cut fewer pieces and sum fewer values.
+        shift = max(shift, EXACT_SLICE_SHIFT)
     while True:
         step = 1 << shift
         first = low >> shift if shift else low
@@ -571,7 +578,9 @@ def _radius_range(table: PieceTable) -> Tuple[float, float]:
     A kind whose radius is linear in ``z`` along a piece (``washer_degree()
     == 1``: straight pieces, many of them) has its extremes at the piece
     ends, evaluated at once by its ``washer_radius``; any other kind (arcs,
-    curves: few) answers each segment's ``bounds()``.
+    curves: few), and a kind whose few segments hold many pieces each (a
+    polyline's edges), answers each segment's ``bounds()`` (every kind's
+    bounds include its turning points).
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
@@ -586,7 +595,12 @@ def _radius_range(table: PieceTable) -> Tuple[float, float]:
     """
     lo, hi = math.inf, -math.inf
     for g in table.groups:
-        if g.kind.washer_degree() == 1:
+        if len(g.segments) * 64 <= g.stop - g.start:
+            # Few segments holding many pieces (a polyline's edges): their bounds, a pass each.
+            for seg in g.segments:
+                _, r0, _, r1 = seg.bounds()
+                lo, hi = min(lo, r0), max(hi, r1)
+        elif g.kind.washer_degree() == 1:
             z = np.empty((2, g.stop - g.start))
             z[0], z[1] = table.lo[g.start:g.stop], table.hi[g.start:g.stop]
             with np.errstate(all="ignore"):      # a piece too short for its slope: not counted
