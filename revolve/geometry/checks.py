@@ -500,7 +500,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
                       np.abs(ch.y1).max()))
     slack = 4 * tol + 16 * np.finfo(float).eps * scale
-    tiny = np.flatnonzero((np.abs(dx) <= slack) & (np.abs(dy) <= slack))
+    tiny = np.flatnonzero(np.abs(dx) <= slack)
+    tiny = tiny[np.abs(dy[tiny]) <= slack]
     if tiny.size:
         gap = np.diff(tiny) > 1
         lo = np.maximum(tiny[np.concatenate([[True], gap])] - 1, 0)
@@ -611,7 +612,8 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     # Sketch points of every segment, for size, side and intersections.
     flat = [[s.flatten() for s in p.segments] for p in paths]
     pieces = [f for fs in flat for f in fs]
-    allpts = np.concatenate(pieces) if pieces else np.zeros((0, 2))
+    allpts = (pieces[0] if len(pieces) == 1 else np.concatenate(pieces)) if pieces \
+        else np.zeros((0, 2))
     if allpts.size == 0:
         raise ProfileError("the profile has no segments")
     if not np.all(np.isfinite(allpts)):
