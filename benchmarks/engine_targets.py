@@ -116,10 +116,12 @@ def noisy(n):
 #: the arrays, cross-check included) and of shapely's area + centroid, as JSON.
 LIBRARY_ROW = """
 import json, math, sys, time
-sys.path.insert(0, sys.argv[1])
 sys.path.insert(0, sys.argv[2])
 import numpy as np, shapely
-from engine_targets import noisy, ring
+from engine_targets import noisy, ring       # (puts this tree on the path: the tree goes first)
+sys.path.insert(0, sys.argv[1])
+import revolve
+assert revolve.__file__.startswith(sys.argv[1]), revolve.__file__
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 xy = (ring if sys.argv[3] == "ring" else noisy)(int(sys.argv[4]))
@@ -153,7 +155,7 @@ def library_rows(big, repeats, before, work):
                             ("3b. library measure of a 100,000-vertex noisy outline vs shapely",
                              "noisy", 100_000)):
         best = {}
-        for _ in range(max(1, repeats // 2)):    # alternate the trees, each best of 2 inside
+        for _ in range(repeats):                 # alternate the trees, each best of 2 inside
             for name, tree in trees:
                 r = subprocess.run([sys.executable, "-c", LIBRARY_ROW, str(tree),
                                     str(ROOT / "benchmarks"), shape, str(n), "2"],

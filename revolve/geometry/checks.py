@@ -383,7 +383,7 @@ FEW_PAIRS = 16
 
 
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 500_000,
+                           chunk: int = 1 << 16,
                            index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
