@@ -221,11 +221,16 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         z_from, z_to, counts, params = kind.washer_pieces(segs)
         z_from = np.asarray(z_from, dtype=float)
         z_to = np.asarray(z_to, dtype=float)
-        factor = np.repeat(np.asarray(factors, dtype=float), counts)
+        f0 = float(factors[0]) if factors else 0.0
+        # One loop (a point list): its factor is one number, not an array per piece.
+        factor = f0 if all(f == f0 for f in factors) else \
+            np.repeat(np.asarray(factors, dtype=float), counts)
         across = z_from == z_to
         if across.any():
             keep = ~across
-            z_from, z_to, factor, params = z_from[keep], z_to[keep], factor[keep], params[keep]
+            z_from, z_to, params = z_from[keep], z_to[keep], params[keep]
+            if not np.isscalar(factor):
+                factor = factor[keep]
         if not z_from.size:
             continue
         parts.append((z_from, z_to, factor))
@@ -239,7 +244,8 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
     if len(parts) == 1:
         z_from, z_to, factor = parts[0]
     else:
-        z_from, z_to, factor = (np.concatenate(c) for c in zip(*parts))
+        z_from, z_to, factor = (np.concatenate([np.broadcast_to(v, z.shape) for v, z in
+                                                zip(c, (p[0] for p in parts))]) for c in zip(*parts))
     rising = z_to > z_from
     return PieceTable(z_from, z_to, np.where(rising, z_from, z_to), np.where(rising, z_to, z_from),
                       np.where(rising, -factor, factor), tuple(groups))
@@ -509,22 +515,26 @@ def _partition(table: PieceTable):
     new[:1] = True
     np.not_equal(ordered[1:], ordered[:-1], out=new[1:])
     breaks = ordered[new]
-    where = np.empty(values.size, dtype=np.int64)
-    where[order] = np.cumsum(new) - 1
-    del order, ordered, new, rising
+    # Ranks in 32 bits where they fit: half the memory traffic in every pass below.
+    rank_type = np.int32 if values.size < 2 ** 31 - 2 else np.int64
+    rank = np.cumsum(new, dtype=rank_type)
+    rank -= 1
+    where = np.empty(values.size, dtype=rank_type)
+    where[order] = rank
+    del order, ordered, new, rising, rank
     at_from = where[:n]
     at_to = np.empty(n, dtype=where.dtype)
-    at_to[~linked] = where[n:]
-    chain = np.flatnonzero(linked)
-    at_to[chain] = at_from[chain + 1]
+    at_to[:-1] = where[1:n]                        # a linked piece ends where the next starts
+    at_to[np.flatnonzero(~linked)] = where[n:]
     low = np.minimum(at_from, at_to)
-    high = np.maximum(at_from, at_to) - 1          # the last elementary interval met
-    del at_from, at_to, where, values, linked, chain
+    high = np.maximum(at_from, at_to)
+    high -= 1                                      # the last elementary interval met
+    del at_from, at_to, where, values, linked
     limit = PAIRS_PER_PIECE * n + 64
     intervals = breaks.size - 1
     # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
     # every break (and fall as k grows): start from the first k that bound allows.
-    beyond = int((high - low).sum())
+    beyond = int((high - low).sum(dtype=np.int64))
     shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
     if all(g.kind.washer_degree() is not None for g in table.groups):
         # Exact rules only: a piece's part of a wider slice is as exact as of a narrow one,
@@ -533,8 +543,10 @@ def _partition(table: PieceTable):
     while True:
         step = 1 << shift
         first = low >> shift if shift else low
-        count = (high >> shift) - first + 1 if shift else high - low + 1
-        if int(count.sum()) <= limit or step >= intervals:
+        count = high >> shift if shift else high.copy()
+        count -= first
+        count += 1
+        if int(count.sum(dtype=np.int64)) <= limit or step >= intervals:
             break
         shift += 1
     edges = breaks[::step]
