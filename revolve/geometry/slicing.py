@@ -12,7 +12,8 @@ splitting intervals until they agree; a straight crossing, whose ``r²`` is a
 quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
 rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
-crossings (a noisy outline) the intervals may be coarser than the vertices
+crossings (a noisy outline), or when every crossing takes an exact rule (an
+outline of straight edges), the intervals may be coarser than the vertices
 (:func:`first_partition`); the pieces and intervals are arrays, and the work is
 O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
 
@@ -565,8 +566,11 @@ def first_partition(table: PieceTable) -> np.ndarray:
     are longer along the axis than the spacing of its points. Then every k-th
     end is kept, k doubling until they fit: each slice interval then holds the
     parts of the pieces that cross it, each piece integrated over its own part
-    (its kinks stay at the ends of its parts). The cost of the choice is one
-    sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
+    (its kinks stay at the ends of its parts). When every kind's radius is a
+    polynomial of ``z`` (straight pieces: exact rules, no interval is ever
+    halved) every 2^:data:`EXACT_SLICE_SHIFT`-th end at least is kept, so
+    fewer pieces are cut and fewer slice values summed. The cost of the choice
+    is one sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
 
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
