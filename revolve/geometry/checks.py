@@ -688,8 +688,15 @@ def _check_path(path, k: int, tol: float) -> None:
         raise ProfileError(f"{'loop' if path.closed else 'chain'} {k} has no segments")
     number = 0
     for j, s in enumerate(segs):
-        if s.edge_count() > 1:
-            short = np.flatnonzero(s.edge_lengths() <= tol)
+        if s.edge_count() > 1:            # its flattened chords are its edges
+            pts = s.flatten()
+            # An edge no longer than tol is no longer than tol on either axis: the exact
+            # lengths only of those (hypot over every edge costs more than these passes).
+            short = np.flatnonzero(np.abs(np.diff(pts[:, 0])) <= tol)
+            if short.size:
+                short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
+                short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],
+                                       pts[short + 1, 1] - pts[short, 1]) <= tol]
             if short.size:
                 e = int(short[0])
                 raise _fail_at("this segment has zero length; remove it", s, e,
