@@ -345,75 +345,92 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
 
     ``pieces`` are rows of the table (of this group; an int array, or an int
     when they are the rows from there on), piece ``pieces[i]`` meeting the
-    ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
-    are expanded in blocks of at most :data:`NODE_BLOCK` nodes. With
-    ``small_rule``, parts no longer than :data:`SMALL_PART` of their piece
-    take that rule.
+    ``count[i]`` intervals from ``first[i]`` on. When the rows are consecutive
+    (an int), every piece's part of its first interval is taken in blocks of
+    consecutive rows (slices of the table, no gathering), and only the pieces
+    that meet more intervals go on to the rest of theirs. Otherwise the
+    (piece, interval) pairs are expanded in blocks of at most
+    :data:`NODE_BLOCK` nodes. With ``small_rule``, parts no longer than
+    :data:`SMALL_PART` of their piece take that rule.
     """
+    if not count.size:
+        return
+    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
+    few = a.size <= 4 * block           # few intervals: sum into all of them
+    args = (group, a, b, rule, r_ref, out, small_rule, few)
+    if isinstance(pieces, (int, np.integer)) and int(count.min()) < 1:
+        pieces = np.arange(pieces, pieces + count.size)      # some meet none: pair by pair
+    if isinstance(pieces, (int, np.integer)):
+        base = pieces - group.start
+        for p0 in range(0, count.size, block):
+            p1 = min(count.size, p0 + block)
+            rows = slice(pieces + p0, pieces + p1)
+            _add_parts(first[p0:p1], table.lo[rows], table.hi[rows], table.sign[rows],
+                       group.params[base + p0:base + p1], *args)
+        more = np.flatnonzero(count > 1)
+        if more.size:
+            _group_sums(table, group, pieces + more, first[more] + 1, count[more] - 1, a, b,
+                        rule, r_ref, out, small_rule)
+        return
     ends = np.cumsum(count)
-    total = int(ends[-1]) if ends.size else 0
+    total = int(ends[-1])
     if total == 0:
         return
     starts = ends - count
-    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
-    ranged = isinstance(pieces, (int, np.integer))
-    few = a.size <= 4 * block           # few intervals: sum into all of them
     for q0 in range(0, total, block):
         q1 = min(total, q0 + block)
         p0 = int(np.searchsorted(ends, q0, side="right"))
         p1 = int(np.searchsorted(ends, q1 - 1, side="right")) + 1
-        if q1 - q0 == p1 - p0 and ranged:     # one interval per piece, consecutive pieces
-            iv = first[p0:p1]
-            rows = slice(pieces + p0, pieces + p1)
-            lo, hi, sign = table.lo[rows], table.hi[rows], table.sign[rows]
-            params = group.params[rows.start - group.start:rows.stop - group.start]
-        else:
-            own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
-            local = np.repeat(np.arange(p0, p1), own)
-            iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
-            piece = local + pieces if ranged else np.take(pieces, local)
-            lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
-            params = np.take(group.params, piece - group.start, axis=0)
-        c = np.maximum(np.take(a, iv), lo)
-        d = np.minimum(np.take(b, iv), hi)
-        small = None
-        if small_rule is not None:
-            small = (d - c) <= SMALL_PART * (hi - lo)
-            if small.all():
-                rule_here, small = small_rule, None
-            elif not small.any():
-                rule_here, small = rule, None
-        else:
-            rule_here = rule
-        half = d - c
-        half *= 0.5
-        c += d
-        c *= 0.5                          # the middle
-        if small is None:
-            sums = _part_sums(group, params, c, half, rule_here, r_ref)
-        else:
-            sums = np.empty((c.size, 2))
-            for sel, rl in ((small, small_rule), (~small, rule)):
-                sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
-        half *= sign
-        if few:
-            lo_iv, span = 0, a.size
-        else:                             # the intervals this block's pieces meet
-            lo_iv = int(first[p0:p1].min())
-            span = int((first[p0:p1] + count[p0:p1]).max()) - lo_iv
-            if span > 4 * iv.size:        # a long piece: only the intervals of its pairs here
-                lo_iv = int(iv.min())
-                span = int(iv.max()) + 1 - lo_iv
-            iv = iv - lo_iv
-        if sums.ndim == 1:
-            sums *= half
-            add = np.bincount(iv, weights=sums, minlength=span)
-            out[lo_iv:lo_iv + span, 0] += add
-            out[lo_iv:lo_iv + span, 1] += add
-        else:
-            sums *= half[:, None]
-            for k in range(2):
-                out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+        own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
+        local = np.repeat(np.arange(p0, p1), own)
+        iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
+        piece = np.take(pieces, local)
+        lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
+        params = np.take(group.params, piece - group.start, axis=0)
+        _add_parts(iv, lo, hi, sign, params, *args)
+
+
+def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r_ref: float,
+               out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
+    """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
+    intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
+    c = np.maximum(np.take(a, iv), lo)
+    d = np.minimum(np.take(b, iv), hi)
+    small = None
+    if small_rule is not None:
+        small = (d - c) <= SMALL_PART * (hi - lo)
+        if small.all():
+            rule_here, small = small_rule, None
+        elif not small.any():
+            rule_here, small = rule, None
+    else:
+        rule_here = rule
+    half = d - c
+    half *= 0.5
+    c += d
+    c *= 0.5                          # the middle
+    if small is None:
+        sums = _part_sums(group, params, c, half, rule_here, r_ref)
+    else:
+        sums = np.empty((c.size, 2))
+        for sel, rl in ((small, small_rule), (~small, rule)):
+            sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
+    half *= sign
+    if few:
+        lo_iv, span = 0, a.size
+    else:                             # the intervals these parts lie in
+        lo_iv = int(iv.min())
+        span = int(iv.max()) + 1 - lo_iv
+        iv = iv - lo_iv
+    if sums.ndim == 1:
+        sums *= half
+        add = np.bincount(iv, weights=sums, minlength=span)
+        out[lo_iv:lo_iv + span, 0] += add
+        out[lo_iv:lo_iv + span, 1] += add
+    else:
+        sums *= half[:, None]
+        for k in range(2):
+            out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
