@@ -382,6 +382,32 @@ def _expand(first, stop):
 FEW_PAIRS = 16
 
 
+def _expand_blocks(first, stop, block: int):
+    """:func:`_expand` in pieces of at most about ``block`` positions (runs longer than
+    ``block`` are cut), so that no expansion outgrows memory.
+
+    >>> [[v.tolist() for v in b] for b in _expand_blocks(np.array([0, 5]), np.array([3, 6]), 2)]
+    [[[0, 0], [0, 1]], [[0, 1], [2, 5]]]
+    """
+    count = stop - first
+    if int(count.sum()) <= block:
+        yield _expand(first, stop)
+        return
+    parts = np.maximum(-(-count // block), 1)
+    owner = np.repeat(np.arange(count.size), parts)
+    k = np.arange(owner.size) - np.repeat(np.cumsum(parts) - parts, parts)
+    f = first[owner] + k * block
+    s = np.minimum(f + block, stop[owner])
+    cum = np.cumsum(s - f)
+    start = 0
+    while start < f.size:
+        done = int(cum[start - 1]) if start else 0
+        end = max(start + 1, int(np.searchsorted(cum, done + block, side="right")))
+        o, pos = _expand(f[start:end], s[start:end])
+        yield owner[start:end][o], pos
+        start = end
+
+
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
                            chunk: int = 1 << 16,
                            index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
@@ -506,16 +532,15 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         gap = np.diff(tiny) > 1
         lo = np.maximum(tiny[np.concatenate([[True], gap])] - 1, 0)
         hi = np.minimum(tiny[np.concatenate([gap, [True]])] + 1, n - 1)      # inclusive
-        run, i = _expand(lo, hi + 1)
-        count = np.maximum(hi[run] - i - 1, 0)          # partners i + 2 … hi
-        own, j = _expand(i + 2, i + 2 + count)
-        i = i[own]
-        if i.size:
-            x0i, x1i, y0i, y1i = box(i)
-            x0j, x1j, y0j, y1j = box(j)
-            near = (x0i <= x1j) & (x0j <= x1i) & (y0i <= y1j) & (y0j <= y1i)
-            if near.any():
-                test(i[near], j[near])
+        for run, first_i in _expand_blocks(lo, hi + 1, chunk):
+            count = np.maximum(hi[run] - first_i - 1, 0)          # partners i + 2 … hi
+            for own, j in _expand_blocks(first_i + 2, first_i + 2 + count, chunk):
+                i = first_i[own]
+                x0i, x1i, y0i, y1i = box(i)
+                x0j, x1j, y0j, y1j = box(j)
+                near = (x0i <= x1j) & (x0j <= x1i) & (y0i <= y1j) & (y0j <= y1i)
+                if near.any():
+                    test(i[near], j[near])
 
     # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
     # the other's box, and for each of those the run of the other's chords that its box meets.
@@ -538,16 +563,13 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
             near = (x0a <= x1b) & (x0b <= x1a) & (y0a <= y1b) & (y0b <= y1a)
             test(pa[near], pb[near])
             qa, qb = qa[~few], qb[~few]
+        if not qa.size:
+            continue
         f, s = ch.meeting(qa, ch.x0[qb], ch.x1[qb], ch.y0[qb], ch.y1[qb])
-        owner, pos = _expand(f, s)
-        qa, qb = qa[owner], qb[owner]
-        i = ch.chord(qa, pos)
-        for lo_ in range(0, i.size, chunk):
-            ia, cb = i[lo_:lo_ + chunk], qb[lo_:lo_ + chunk]
-            f, s = ch.meeting(cb, *box(ia))
-            own, pos = _expand(f, s)
-            for lo2 in range(0, own.size, chunk):
-                o, p = own[lo2:lo2 + chunk], pos[lo2:lo2 + chunk]
+        for owner, pos in _expand_blocks(f, s, chunk):
+            ia, cb = ch.chord(qa[owner], pos), qb[owner]
+            f2, s2 = ch.meeting(cb, *box(ia))
+            for o, p in _expand_blocks(f2, s2, chunk):
                 test(ia[o], ch.chord(cb[o], p))
     return best
 
