@@ -173,8 +173,9 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
     """Boxes registered in the cells of a uniform grid that they cover, grouped by cell.
 
     Returns (edge of each registration, span, cell key of each registration,
-    cell function) with the registrations sorted by cell; the partners of a
-    registration are the later ones in its cell. The cell size starts at the
+    cell function) with the registrations sorted by cell and in a cell by the
+    low end on x; the partners of a registration are the later ones in its
+    cell that start on x before it ends. The cell size starts at the
     median box size and doubles until at most ``n_limit`` registrations are
     made, so long boxes cannot blow up the index. ``None`` if the boxes are
     degenerate (all of zero size).
@@ -202,12 +203,26 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
     edge = np.repeat(np.arange(n), reg)
     off = np.arange(total) - np.repeat(np.cumsum(reg) - reg, reg)
     key = (cx0[edge] + off // wide[edge]) * rows + (cy0[edge] + off % wide[edge])
-    order = np.argsort(key, kind="stable")
+    # By cell, and in a cell by the low end on x: a registration's partners are then the
+    # later ones of its cell up to the last that starts on x before it ends (a sweep in
+    # each cell, found by binary search), not every later one of the cell.
+    order = np.lexsort((x0[edge], key))
     key, edge = key[order], edge[order]
     new = np.flatnonzero(key[1:] != key[:-1]) + 1
     group_end = np.append(new, total)
     group = np.concatenate([[0], np.cumsum(key[1:] != key[:-1])]) if total else np.zeros(0, int)
-    span = group_end[group] - np.arange(total) - 1
+    lo_x, hi_x = x0[edge], x1[edge]
+    low = np.arange(1, total + 1)                    # first partner candidate: the next one
+    high = group_end[group]
+    live = np.flatnonzero(low < high)
+    while live.size:
+        l, u = low[live], high[live]
+        mid = (l + u) >> 1
+        past = lo_x[mid] > hi_x[live]                # starts after this box ends on x
+        low[live] = np.where(past, l, mid + 1)
+        high[live] = np.where(past, mid, u)
+        live = live[low[live] < high[live]]
+    span = low - np.arange(total) - 1
 
     def cell(x, y):
         return np.floor((x - ox) / h).astype(np.int64) * rows + np.floor((y - oy) / h).astype(np.int64)
