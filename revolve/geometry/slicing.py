@@ -235,8 +235,9 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         if not z_from.size:
             continue
         parts.append((z_from, z_to, factor))
-        # contiguous rows: np.take picks rows of them fast (not so from a strided view)
-        groups.append(PieceGroup(kind, tuple(segs), np.ascontiguousarray(params, dtype=float),
+        # kept as given (a polyline's rows are a view of its vertices): the washers read them
+        # mostly in slices of consecutive rows, so a contiguous copy would cost more than it saves
+        groups.append(PieceGroup(kind, tuple(segs), np.asarray(params, dtype=float),
                                  start, start + z_from.size))
         start += z_from.size
     if not parts:
