@@ -173,8 +173,9 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
     """Boxes registered in the cells of a uniform grid that they cover, grouped by cell.
 
     Returns (edge of each registration, span, cell key of each registration,
-    cell function) with the registrations sorted by cell; the partners of a
-    registration are the later ones in its cell. The cell size starts at the
+    cell function) with the registrations sorted by cell and in a cell by the
+    low end on x; the partners of a registration are the later ones in its
+    cell that start on x before it ends. The cell size starts at the
     median box size and doubles until at most ``n_limit`` registrations are
     made, so long boxes cannot blow up the index. ``None`` if the boxes are
     degenerate (all of zero size).
@@ -202,12 +203,26 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
     edge = np.repeat(np.arange(n), reg)
     off = np.arange(total) - np.repeat(np.cumsum(reg) - reg, reg)
     key = (cx0[edge] + off // wide[edge]) * rows + (cy0[edge] + off % wide[edge])
-    order = np.argsort(key, kind="stable")
+    # By cell, and in a cell by the low end on x: a registration's partners are then the
+    # later ones of its cell up to the last that starts on x before it ends (a sweep in
+    # each cell, found by binary search), not every later one of the cell.
+    order = np.lexsort((x0[edge], key))
     key, edge = key[order], edge[order]
     new = np.flatnonzero(key[1:] != key[:-1]) + 1
     group_end = np.append(new, total)
     group = np.concatenate([[0], np.cumsum(key[1:] != key[:-1])]) if total else np.zeros(0, int)
-    span = group_end[group] - np.arange(total) - 1
+    lo_x, hi_x = x0[edge], x1[edge]
+    low = np.arange(1, total + 1)                    # first partner candidate: the next one
+    high = group_end[group]
+    live = np.flatnonzero(low < high)
+    while live.size:
+        l, u = low[live], high[live]
+        mid = (l + u) >> 1
+        past = lo_x[mid] > hi_x[live]                # starts after this box ends on x
+        low[live] = np.where(past, l, mid + 1)
+        high[live] = np.where(past, mid, u)
+        live = live[low[live] < high[live]]
+    span = low - np.arange(total) - 1
 
     def cell(x, y):
         return np.floor((x - ox) / h).astype(np.int64) * rows + np.floor((y - oy) / h).astype(np.int64)
@@ -215,66 +230,27 @@ def _grid_order(x0, x1, y0, y1, n_limit: int):
     return edge, span, key, cell
 
 
-def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 500_000,
-                           index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
-    """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
+def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
+    """Pairs of boxes that overlap, each once, in blocks of about ``chunk``: yields (i, j) arrays.
 
-    ``chains`` holds each path's points (m + 1, 2). Two chords are candidates
-    when their boxes overlap: ``[x_min − tol, x_max + tol]`` on x and
-    ``[y_min, y_max + tol]`` on y. The candidates come from whichever of three
-    indexes gives the fewest pairs to test, each counted exactly beforehand in
-    O(n log n): a sweep over x, a sweep over y, or a uniform grid whose cells
-    hold the chords whose boxes cover them (a pair is tested only in the cell
-    that holds the low corner of the overlap of their boxes, so once). On real
-    outlines the grid's pairs are O(n); no index helps when the boxes of many
-    chords truly overlap (a noisy outline whose zigzags are far longer than
-    the spacing of its points: the pairs grow as (total length)² / area).
-    The exact orientation test then runs vectorised over the candidates, in
-    chunks of ``chunk`` pairs (their temporaries stay near 100 MB). ``index``
-    ("x", "y" or "grid") forces one index (for tests); the answer is the same
-    whichever is used.
-
-    >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
-    >>> find_self_intersection(bow, [True], 1e-9)
-    (0, 0, 0, 2)
-    >>> square = [np.array([[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]], dtype=float)]
-    >>> find_self_intersection(square, [True], 1e-9) is None
-    True
+    Boxes overlap when ``x0[i] <= x1[j]``, ``x0[j] <= x1[i]`` and the same on y.
+    The pairs come from whichever of three indexes gives the fewest to test,
+    each counted exactly beforehand in O(n log n): a sweep over x, a sweep over
+    y, or a uniform grid whose cells hold the boxes that cover them (a pair is
+    kept only in the cell that holds the low corner of the overlap of the two
+    boxes, so once). ``index`` ("x", "y" or "grid") forces one (for tests).
     """
-    starts, ends, path_of, index_of, count_of = [], [], [], [], []
-    for k, pts in enumerate(chains):
-        m = len(pts) - 1
-        if m < 1:
-            continue
-        starts.append(pts[:-1])
-        ends.append(pts[1:])
-        path_of.append(np.full(m, k))
-        index_of.append(np.arange(m))
-        count_of.append(np.full(m, m))
-    if not starts:
-        return None
-    a = np.vstack(starts)
-    b = np.vstack(ends)
-    path = np.concatenate(path_of)
-    idx = np.concatenate(index_of)
-    cnt = np.concatenate(count_of)
-    is_closed = np.asarray(closed, dtype=bool)[path]
-    x0 = np.minimum(a[:, 0], b[:, 0]) - tol
-    x1 = np.maximum(a[:, 0], b[:, 0]) + tol
-    y0 = np.minimum(a[:, 1], b[:, 1])
-    y1 = np.maximum(a[:, 1], b[:, 1]) + tol
-    n = len(a)
+    n = len(x0)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
         if name == "y" and index is None and choices and choices["x"][0] <= 3 * n:
-            break       # the x sweep is already down to three pairs per chord: take it
+            break       # the x sweep is already down to three pairs per box: take it
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None)
     # The grid costs a sort of its registrations: build it only when a sweep is not already
-    # down to a few pairs per chord (or when asked for).
-    few = bool(choices) and min(c[0] for c in choices.values()) <= 4 * n
+    # down to a few pairs per box (or when asked for).
+    few = bool(choices) and min(c[0] for c in choices.values()) <= 16 * n
     grid = _grid_order(x0, x1, y0, y1, 4 * n + 1024) \
         if index == "grid" or (index is None and not few) else None
     if grid is not None:
@@ -287,7 +263,6 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     # The boxes in the index's order, so that a position's partners are read nearby.
     bx0, bx1, by0, by1 = x0[ids], x1[ids], y0[ids], y1[ids]
     cum = np.cumsum(span)
-    best = None
     start = 0
     while start < len(ids) and total:
         # Owners start … stop − 1 (about `chunk` pairs), each with partners p + 1 … p + span[p].
@@ -303,21 +278,314 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p]) & (by0[p] <= by1[q]) & (by0[q] <= by1[p])
         p, q = p[near], q[near]
         i, j = ids[p], ids[q]
-        same = path[i] == path[j]
-        diff = np.abs(idx[i] - idx[j])
-        adjacent = same & ((diff == 1) | (is_closed[i] & (diff == cnt[i] - 1)))
-        keep = (~adjacent) & (i != j)
+        keep = i != j
         if cell is not None:
             keep &= cell(np.maximum(x0[i], x0[j]), np.maximum(y0[i], y0[j])) == key[p]
-        i, j = i[keep], j[keep]
-        if i.size:
-            hit = _segments_cross(a[i], b[i], a[j], b[j], tol)
-            if hit.any():
-                cand = [(int(path[x]), int(idx[x]), int(path[y]), int(idx[y]))
-                        for x, y in zip(i[hit], j[hit])]
-                cand = [c if (c[0], c[1]) <= (c[2], c[3]) else (c[2], c[3], c[0], c[1]) for c in cand]
-                m = min(cand)
-                best = m if best is None else min(best, m)
+        if keep.any():
+            yield i[keep], j[keep]
+
+
+def _turns(d: np.ndarray) -> np.ndarray:
+    """Positions k ≥ 1 where step ``d[k]`` runs against the last non-zero step before it.
+
+    Zero steps run neither way and never start a new run.
+
+    >>> _turns(np.array([1.0, 2.0, 0.0, -1.0, 0.0, -3.0, 0.0, 2.0])).tolist()
+    [3, 7]
+    >>> _turns(np.array([0.0, 0.0, -1.0, 1.0])).tolist()
+    [3]
+    """
+    s = (d > 0).view(np.int8) - (d < 0).view(np.int8)
+    if s.size < 2:
+        return np.zeros(0, dtype=np.int64)
+    if np.all(s):
+        return np.flatnonzero(s[1:] != s[:-1]) + 1
+    last = np.where(s != 0, np.arange(s.size), 0)
+    np.maximum.accumulate(last, out=last)
+    before = s[last[:-1]]                    # the last non-zero step at or before k − 1
+    k = np.flatnonzero((s[1:] != 0) & (before != 0) & (s[1:] != before)) + 1
+    return k
+
+
+class _Chains:
+    """Paths cut into chains monotone in both x and y, for box queries by binary search.
+
+    Chain ``c`` holds chords ``start[c] … start[c] + length[c] − 1`` of the
+    concatenated paths. Taken in *sorted* order (reversed where x falls along
+    the path) its vertices' x are non-decreasing and its y monotone, so the
+    low and high ends of its chords' boxes are sorted on both axes and the
+    chords whose boxes overlap a given box are one run of sorted positions,
+    found by four binary searches over the vertex array (one gather a step,
+    no array per chord).
+    """
+
+    def __init__(self, vx, vy, starts, n, chord_vertex, tol):
+        self.vx, self.vy, self.tol = vx, vy, tol
+        self.start = starts
+        self.length = np.append(starts[1:], n) - starts
+        first = chord_vertex(starts)                 # the chain's first vertex along the path
+        last = first + self.length
+        sx, sy, ex, ey = vx[first], vy[first], vx[last], vy[last]
+        self.rev = ex < sx                           # x falls along the path
+        # Sorted vertex t of chain c is vertex base[c] + step[c] · t.
+        self.base = np.where(self.rev, last, first)
+        self.step = np.where(self.rev, -1, 1)
+        self.neg = np.where(self.rev, sy, ey) < np.where(self.rev, ey, sy)   # y falls, sorted
+        self.x0 = np.minimum(sx, ex) - tol
+        self.x1 = np.maximum(sx, ex) + tol
+        self.y0 = np.minimum(sy, ey)
+        self.y1 = np.maximum(sy, ey) + tol
+
+    def chord(self, c, k):
+        """Chord id at sorted position ``k`` of chain ``c``."""
+        return np.where(self.rev[c], self.start[c] + self.length[c] - 1 - k, self.start[c] + k)
+
+    def _first(self, c, pred, q0, q1):
+        """First sorted position k of each chain ``c`` where ``pred`` holds (it holds from there on).
+
+        ``pred(base, step, k, neg, q0, q1)`` is evaluated on the live queries only.
+        """
+        lo = np.zeros(c.size, dtype=np.int64)
+        hi = self.length[c]
+        base, step, neg = self.base[c], self.step[c], self.neg[c]
+        live = np.flatnonzero(hi > 0)
+        while live.size:
+            l, h = lo[live], hi[live]
+            mid = (l + h) >> 1
+            ok = pred(base[live], step[live], mid, neg[live], q0[live], q1[live])
+            lo[live] = np.where(ok, l, mid + 1)
+            hi[live] = np.where(ok, mid, h)
+            live = live[lo[live] < hi[live]]
+        return lo
+
+    def meeting(self, c, x0, x1, y0, y1):
+        """Per query, the run ``[first, stop)`` of sorted positions of chain ``c`` whose chord
+        boxes overlap the box ``x0 … x1, y0 … y1`` (the same comparisons as box against box)."""
+        vx, vy, tol = self.vx, self.vy, self.tol
+        # Chord k of a sorted chain runs from sorted vertex k (low x) to k + 1 (high x); on y
+        # the low end is vertex k, or k + 1 where y falls.
+        first_x = self._first(c, lambda b, s, k, g, q, _: vx[b + s * (k + 1)] + tol >= q, x0, x0)
+        stop_x = self._first(c, lambda b, s, k, g, q, _: vx[b + s * k] - tol > q, x1, x1)
+
+        def y_started(b, s, k, g, lo, hi):           # box high end ≥ lo
+            v = vy[b + s * (k + 1)]
+            return np.where(g, v <= hi, v + tol >= lo)   # falling: its low end ≤ hi
+
+        def y_passed(b, s, k, g, lo, hi):            # box low end > hi
+            v = vy[b + s * k]
+            return np.where(g, v + tol < lo, v > hi)     # falling: its high end < lo
+
+        first_y = self._first(c, y_started, y0, y1)
+        stop_y = self._first(c, y_passed, y0, y1)
+        first = np.maximum(first_x, first_y)
+        return first, np.maximum(np.minimum(stop_x, stop_y), first)
+
+
+def _expand(first, stop):
+    """(owner, position) for every position of every run ``first[o] … stop[o] − 1``.
+
+    >>> [v.tolist() for v in _expand(np.array([0, 5]), np.array([2, 6]))]
+    [[0, 0, 1], [0, 1, 5]]
+    """
+    count = stop - first
+    owner = np.repeat(np.arange(count.size), count)
+    pos = np.arange(owner.size) - np.repeat(np.cumsum(count) - count, count) + first[owner]
+    return owner, pos
+
+
+#: Pairs of chains with at most this many pairs of chords are tested chord by chord, no search.
+FEW_PAIRS = 16
+
+
+def _expand_blocks(first, stop, block: int):
+    """:func:`_expand` in pieces of at most about ``block`` positions (runs longer than
+    ``block`` are cut), so that no expansion outgrows memory.
+
+    >>> [[v.tolist() for v in b] for b in _expand_blocks(np.array([0, 5]), np.array([3, 6]), 2)]
+    [[[0, 0], [0, 1]], [[0, 1], [2, 5]]]
+    """
+    count = stop - first
+    if int(count.sum()) <= block:
+        yield _expand(first, stop)
+        return
+    parts = np.maximum(-(-count // block), 1)
+    owner = np.repeat(np.arange(count.size), parts)
+    k = np.arange(owner.size) - np.repeat(np.cumsum(parts) - parts, parts)
+    f = first[owner] + k * block
+    s = np.minimum(f + block, stop[owner])
+    cum = np.cumsum(s - f)
+    start = 0
+    while start < f.size:
+        done = int(cum[start - 1]) if start else 0
+        end = max(start + 1, int(np.searchsorted(cum, done + block, side="right")))
+        o, pos = _expand(f[start:end], s[start:end])
+        yield owner[start:end][o], pos
+        start = end
+
+
+def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
+                           chunk: int = 1 << 16,
+                           index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
+    """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
+
+    ``chains`` holds each path's points (m + 1, 2); "first" is the smallest
+    (path_a, chord_a, path_b, chord_b) with (path_a, chord_a) < (path_b, chord_b).
+    Two chords are tested when their boxes overlap: ``[x_min − tol, x_max + tol]``
+    on x and ``[y_min, y_max + tol]`` on y (every pair that meets does).
+
+    The paths are cut into chains along which neither x nor y turns back (a
+    zero step, vertical or level, turns neither way), with numpy in a few
+    passes. In such a chain the chords' boxes are sorted on both axes, so the
+    chords of a chain whose boxes overlap a box are one run, found by binary
+    search. The chains' own boxes go through an index (a sweep over x, over y,
+    or a uniform grid, whichever gives the fewest pairs, counted beforehand;
+    ``index`` forces one, for tests); for each pair of overlapping chains the
+    chords of the shorter that meet the other's box are found, then for each
+    of those the run of the other's chords that its box meets. Within one
+    chain, two non-adjacent chords can overlap only across chords shorter than
+    about 2·tol on both axes (each step along a chain moves away on both
+    axes): those few pairs are added directly. On a real outline the cost is
+    a few passes over the vertices plus O(c log n) for c chains (those where
+    the outline turns back, noise included). On a noisy outline whose zigzags
+    turn at almost every vertex the chains are single chords and the work is
+    that of the chords' boxes in the index, which grows as
+    (total length)² / area where the zigzags truly overlap. The exact
+    orientation test runs vectorised on the candidates, in blocks of about
+    ``chunk`` pairs.
+
+    >>> bow = [np.array([[0, 0], [2, 2], [2, 0], [0, 2], [0, 0]], dtype=float)]
+    >>> find_self_intersection(bow, [True], 1e-9)
+    (0, 0, 0, 2)
+    >>> square = [np.array([[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]], dtype=float)]
+    >>> find_self_intersection(square, [True], 1e-9) is None
+    True
+    >>> back = [np.array([[0, 0], [0, 2], [0, 1], [0, 3]], dtype=float)]   # up, down, up again
+    >>> find_self_intersection(back, [False], 1e-9)
+    (0, 0, 0, 2)
+    >>> find_self_intersection([np.zeros((1, 2))], [False], 1e-9) is None   # no chord at all
+    True
+    """
+    used = [(k, np.asarray(p, dtype=float)) for k, p in enumerate(chains) if len(p) >= 2]
+    if not used:
+        return None
+    counts = np.array([len(p) - 1 for _, p in used], dtype=np.int64)
+    offsets = np.concatenate([[0], np.cumsum(counts)])
+    path_no = np.array([k for k, _ in used], dtype=np.int64)
+    path_closed = np.asarray(closed, dtype=bool)[path_no]
+    n = int(offsets[-1])
+    single = len(used) == 1
+    V = used[0][1] if single else np.concatenate([p for _, p in used])
+    vx, vy = V[:, 0], V[:, 1]
+    if single:
+        dx, dy = np.diff(vx), np.diff(vy)
+
+        def ordinal(i):
+            return np.zeros(np.shape(i), dtype=np.int64)
+    else:
+        junction = offsets[1:-1] + np.arange(len(used) - 1)     # rows joining two paths
+        dx, dy = np.delete(np.diff(vx), junction), np.delete(np.diff(vy), junction)
+
+        def ordinal(i):
+            return np.searchsorted(offsets, i, side="right") - 1
+
+    def chord_vertex(i):                     # vertex row where chord i starts
+        return i + ordinal(i)
+
+    starts = np.sort(np.concatenate([[0], _turns(dx), _turns(dy), offsets[1:-1]]).astype(np.int64))
+    starts = starts[np.concatenate([[True], starts[1:] != starts[:-1]])]
+    if 2 * starts.size > n:
+        # A noisy outline turns back at most vertices: chains of a chord or two gain nothing
+        # over the chords themselves, whose boxes are smaller.
+        starts = np.arange(n, dtype=np.int64)
+    ch = _Chains(vx, vy, starts, n, chord_vertex, tol)
+    best = None
+
+    def box(i):
+        v = chord_vertex(i)
+        ax, ay, bx, by = vx[v], vy[v], vx[v + 1], vy[v + 1]
+        return (np.minimum(ax, bx) - tol, np.maximum(ax, bx) + tol,
+                np.minimum(ay, by), np.maximum(ay, by) + tol)
+
+    def test(i, j):
+        nonlocal best
+        diff = np.abs(i - j)
+        if single:                        # one path: chord numbers are chord ids
+            distant = (diff > 1) & ((diff != n - 1) | ~path_closed[0])
+            keep = np.flatnonzero(distant)
+            pi = pj = np.zeros(keep.size, dtype=np.int64)
+            i, j = i[keep], j[keep]
+            ii, jj = i, j
+        else:
+            pi, pj = ordinal(i), ordinal(j)
+            ii, jj = i - offsets[pi], j - offsets[pj]
+            diff = np.abs(ii - jj)
+            adjacent = (pi == pj) & ((diff == 1) | (path_closed[pi] & (diff == counts[pi] - 1)))
+            keep = np.flatnonzero(~adjacent & (i != j))
+            i, j, pi, pj, ii, jj = i[keep], j[keep], pi[keep], pj[keep], ii[keep], jj[keep]
+        if not keep.size:
+            return
+        vi, vj = i + pi, j + pj
+        hit = np.flatnonzero(_segments_cross(V[vi], V[vi + 1], V[vj], V[vj + 1], tol))
+        if not hit.size:
+            return
+        pa, ca, pb, cb = path_no[pi[hit]], ii[hit], path_no[pj[hit]], jj[hit]
+        swap = (pb < pa) | ((pb == pa) & (cb < ca))
+        pa, ca, pb, cb = (np.where(swap, pb, pa), np.where(swap, cb, ca),
+                          np.where(swap, pa, pb), np.where(swap, ca, cb))
+        k = np.lexsort((cb, pb, ca, pa))[0]
+        found = (int(pa[k]), int(ca[k]), int(pb[k]), int(cb[k]))
+        best = found if best is None else min(best, found)
+
+    # Within a chain: runs of chords shorter than about 2·tol on both axes, with a chord on
+    # either side (a superset, put through the same box test as the pairs across chains).
+    scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
+                      np.abs(ch.y1).max()))
+    slack = 4 * tol + 16 * np.finfo(float).eps * scale
+    tiny = np.flatnonzero(np.abs(dx) <= slack)
+    tiny = tiny[np.abs(dy[tiny]) <= slack]
+    if tiny.size:
+        gap = np.diff(tiny) > 1
+        lo = np.maximum(tiny[np.concatenate([[True], gap])] - 1, 0)
+        hi = np.minimum(tiny[np.concatenate([gap, [True]])] + 1, n - 1)      # inclusive
+        for run, first_i in _expand_blocks(lo, hi + 1, chunk):
+            count = np.maximum(hi[run] - first_i - 1, 0)          # partners i + 2 … hi
+            for own, j in _expand_blocks(first_i + 2, first_i + 2 + count, chunk):
+                i = first_i[own]
+                x0i, x1i, y0i, y1i = box(i)
+                x0j, x1j, y0j, y1j = box(j)
+                near = (x0i <= x1j) & (x0j <= x1i) & (y0i <= y1j) & (y0j <= y1i)
+                if near.any():
+                    test(i[near], j[near])
+
+    # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
+    # the other's box, and for each of those the run of the other's chords that its box meets.
+    for ca_, cb_ in _box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index):
+        short = ch.length[cb_] < ch.length[ca_]
+        qa, qb = np.where(short, cb_, ca_), np.where(short, ca_, cb_)
+        ones = ch.length[qb] == 1          # two single chords: their boxes overlap, test them
+        if ones.any():
+            test(ch.start[qa[ones]], ch.start[qb[ones]])
+            qa, qb = qa[~ones], qb[~ones]
+        # Short chains (a single chord against a few): every pair of their chords, box-tested.
+        few = ch.length[qa] * ch.length[qb] <= FEW_PAIRS
+        if few.any():
+            fa, fb = qa[few], qb[few]
+            pair, pa = _expand(ch.start[fa], ch.start[fa] + ch.length[fa])
+            entry, pb = _expand(np.zeros(pair.size, dtype=np.int64), ch.length[fb][pair])
+            pa, pb = pa[entry], pb + ch.start[fb][pair[entry]]
+            x0a, x1a, y0a, y1a = box(pa)
+            x0b, x1b, y0b, y1b = box(pb)
+            near = (x0a <= x1b) & (x0b <= x1a) & (y0a <= y1b) & (y0b <= y1a)
+            test(pa[near], pb[near])
+            qa, qb = qa[~few], qb[~few]
+        if not qa.size:
+            continue
+        f, s = ch.meeting(qa, ch.x0[qb], ch.x1[qb], ch.y0[qb], ch.y1[qb])
+        for owner, pos in _expand_blocks(f, s, chunk):
+            ia, cb = ch.chord(qa[owner], pos), qb[owner]
+            f2, s2 = ch.meeting(cb, *box(ia))
+            for o, p in _expand_blocks(f2, s2, chunk):
+                test(ia[o], ch.chord(cb[o], p))
     return best
 
 
@@ -381,13 +649,16 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     # Sketch points of every segment, for size, side and intersections.
     flat = [[s.flatten() for s in p.segments] for p in paths]
     pieces = [f for fs in flat for f in fs]
-    allpts = np.concatenate(pieces) if pieces else np.zeros((0, 2))
+    allpts = (pieces[0] if len(pieces) == 1 else np.concatenate(pieces)) if pieces \
+        else np.zeros((0, 2))
     if allpts.size == 0:
         raise ProfileError("the profile has no segments")
     if not np.all(np.isfinite(allpts)):
         raise ProfileError("the profile has a coordinate that is not a finite number")
     check_coordinate_range(allpts)
-    lo, hi = allpts.min(axis=0), allpts.max(axis=0)
+    # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+    lo = np.array([allpts[:, 0].min(), allpts[:, 1].min()])
+    hi = np.array([allpts[:, 0].max(), allpts[:, 1].max()])
     size = float(np.hypot(*(hi - lo)))
     if size == 0:
         raise ProfileError("the profile has zero size: every point is the same")
@@ -454,8 +725,15 @@ def _check_path(path, k: int, tol: float) -> None:
         raise ProfileError(f"{'loop' if path.closed else 'chain'} {k} has no segments")
     number = 0
     for j, s in enumerate(segs):
-        if s.edge_count() > 1:
-            short = np.flatnonzero(s.edge_lengths() <= tol)
+        if s.edge_count() > 1:            # its flattened chords are its edges
+            pts = s.flatten()
+            # An edge no longer than tol is no longer than tol on either axis: the exact
+            # lengths only of those (hypot over every edge costs more than these passes).
+            short = np.flatnonzero(np.abs(np.diff(pts[:, 0])) <= tol)
+            if short.size:
+                short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
+                short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],
+                                       pts[short + 1, 1] - pts[short, 1]) <= tol]
             if short.size:
                 e = int(short[0])
                 raise _fail_at("this segment has zero length; remove it", s, e,

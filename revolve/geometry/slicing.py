@@ -12,7 +12,8 @@ splitting intervals until they agree; a straight crossing, whose ``r²`` is a
 quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
 rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
-crossings (a noisy outline) the intervals may be coarser than the vertices
+crossings (a noisy outline), or when every crossing takes an exact rule (an
+outline of straight edges), the intervals may be coarser than the vertices
 (:func:`first_partition`); the pieces and intervals are arrays, and the work is
 O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
 
@@ -221,16 +222,22 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         z_from, z_to, counts, params = kind.washer_pieces(segs)
         z_from = np.asarray(z_from, dtype=float)
         z_to = np.asarray(z_to, dtype=float)
-        factor = np.repeat(np.asarray(factors, dtype=float), counts)
+        f0 = float(factors[0]) if factors else 0.0
+        # One loop (a point list): its factor is one number, not an array per piece.
+        factor = f0 if all(f == f0 for f in factors) else \
+            np.repeat(np.asarray(factors, dtype=float), counts)
         across = z_from == z_to
         if across.any():
             keep = ~across
-            z_from, z_to, factor, params = z_from[keep], z_to[keep], factor[keep], params[keep]
+            z_from, z_to, params = z_from[keep], z_to[keep], params[keep]
+            if not np.isscalar(factor):
+                factor = factor[keep]
         if not z_from.size:
             continue
         parts.append((z_from, z_to, factor))
-        # contiguous rows: np.take picks rows of them fast (not so from a strided view)
-        groups.append(PieceGroup(kind, tuple(segs), np.ascontiguousarray(params, dtype=float),
+        # kept as given (a polyline's rows are a view of its vertices): the washers read them
+        # mostly in slices of consecutive rows, so a contiguous copy would cost more than it saves
+        groups.append(PieceGroup(kind, tuple(segs), np.asarray(params, dtype=float),
                                  start, start + z_from.size))
         start += z_from.size
     if not parts:
@@ -239,7 +246,8 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
     if len(parts) == 1:
         z_from, z_to, factor = parts[0]
     else:
-        z_from, z_to, factor = (np.concatenate(c) for c in zip(*parts))
+        z_from, z_to, factor = (np.concatenate([np.broadcast_to(v, z.shape) for v, z in
+                                                zip(c, (p[0] for p in parts))]) for c in zip(*parts))
     rising = z_to > z_from
     return PieceTable(z_from, z_to, np.where(rising, z_from, z_to), np.where(rising, z_to, z_from),
                       np.where(rising, -factor, factor), tuple(groups))
@@ -338,75 +346,92 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
 
     ``pieces`` are rows of the table (of this group; an int array, or an int
     when they are the rows from there on), piece ``pieces[i]`` meeting the
-    ``count[i]`` intervals from ``first[i]`` on. The (piece, interval) pairs
-    are expanded in blocks of at most :data:`NODE_BLOCK` nodes. With
-    ``small_rule``, parts no longer than :data:`SMALL_PART` of their piece
-    take that rule.
+    ``count[i]`` intervals from ``first[i]`` on. When the rows are consecutive
+    (an int), every piece's part of its first interval is taken in blocks of
+    consecutive rows (slices of the table, no gathering), and only the pieces
+    that meet more intervals go on to the rest of theirs. Otherwise the
+    (piece, interval) pairs are expanded in blocks of at most
+    :data:`NODE_BLOCK` nodes. With ``small_rule``, parts no longer than
+    :data:`SMALL_PART` of their piece take that rule.
     """
+    if not count.size:
+        return
+    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
+    few = a.size <= 4 * block           # few intervals: sum into all of them
+    args = (group, a, b, rule, r_ref, out, small_rule, few)
+    if isinstance(pieces, (int, np.integer)) and int(count.min()) < 1:
+        pieces = np.arange(pieces, pieces + count.size)      # some meet none: pair by pair
+    if isinstance(pieces, (int, np.integer)):
+        base = pieces - group.start
+        for p0 in range(0, count.size, block):
+            p1 = min(count.size, p0 + block)
+            rows = slice(pieces + p0, pieces + p1)
+            _add_parts(first[p0:p1], table.lo[rows], table.hi[rows], table.sign[rows],
+                       group.params[base + p0:base + p1], *args)
+        more = np.flatnonzero(count > 1)
+        if more.size:
+            _group_sums(table, group, pieces + more, first[more] + 1, count[more] - 1, a, b,
+                        rule, r_ref, out, small_rule)
+        return
     ends = np.cumsum(count)
-    total = int(ends[-1]) if ends.size else 0
+    total = int(ends[-1])
     if total == 0:
         return
     starts = ends - count
-    block = max(1024, NODE_BLOCK // (small_rule or rule).x.size)
-    ranged = isinstance(pieces, (int, np.integer))
-    few = a.size <= 4 * block           # few intervals: sum into all of them
     for q0 in range(0, total, block):
         q1 = min(total, q0 + block)
         p0 = int(np.searchsorted(ends, q0, side="right"))
         p1 = int(np.searchsorted(ends, q1 - 1, side="right")) + 1
-        if q1 - q0 == p1 - p0 and ranged:     # one interval per piece, consecutive pieces
-            iv = first[p0:p1]
-            rows = slice(pieces + p0, pieces + p1)
-            lo, hi, sign = table.lo[rows], table.hi[rows], table.sign[rows]
-            params = group.params[rows.start - group.start:rows.stop - group.start]
-        else:
-            own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
-            local = np.repeat(np.arange(p0, p1), own)
-            iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
-            piece = local + pieces if ranged else np.take(pieces, local)
-            lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
-            params = np.take(group.params, piece - group.start, axis=0)
-        c = np.maximum(np.take(a, iv), lo)
-        d = np.minimum(np.take(b, iv), hi)
-        small = None
-        if small_rule is not None:
-            small = (d - c) <= SMALL_PART * (hi - lo)
-            if small.all():
-                rule_here, small = small_rule, None
-            elif not small.any():
-                rule_here, small = rule, None
-        else:
-            rule_here = rule
-        half = d - c
-        half *= 0.5
-        c += d
-        c *= 0.5                          # the middle
-        if small is None:
-            sums = _part_sums(group, params, c, half, rule_here, r_ref)
-        else:
-            sums = np.empty((c.size, 2))
-            for sel, rl in ((small, small_rule), (~small, rule)):
-                sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
-        half *= sign
-        if few:
-            lo_iv, span = 0, a.size
-        else:                             # the intervals this block's pieces meet
-            lo_iv = int(first[p0:p1].min())
-            span = int((first[p0:p1] + count[p0:p1]).max()) - lo_iv
-            if span > 4 * iv.size:        # a long piece: only the intervals of its pairs here
-                lo_iv = int(iv.min())
-                span = int(iv.max()) + 1 - lo_iv
-            iv = iv - lo_iv
-        if sums.ndim == 1:
-            sums *= half
-            add = np.bincount(iv, weights=sums, minlength=span)
-            out[lo_iv:lo_iv + span, 0] += add
-            out[lo_iv:lo_iv + span, 1] += add
-        else:
-            sums *= half[:, None]
-            for k in range(2):
-                out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+        own = np.minimum(ends[p0:p1], q1) - np.maximum(starts[p0:p1], q0)
+        local = np.repeat(np.arange(p0, p1), own)
+        iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
+        piece = np.take(pieces, local)
+        lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
+        params = np.take(group.params, piece - group.start, axis=0)
+        _add_parts(iv, lo, hi, sign, params, *args)
+
+
+def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r_ref: float,
+               out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
+    """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
+    intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
+    c = np.maximum(np.take(a, iv), lo)
+    d = np.minimum(np.take(b, iv), hi)
+    small = None
+    if small_rule is not None:
+        small = (d - c) <= SMALL_PART * (hi - lo)
+        if small.all():
+            rule_here, small = small_rule, None
+        elif not small.any():
+            rule_here, small = rule, None
+    else:
+        rule_here = rule
+    half = d - c
+    half *= 0.5
+    c += d
+    c *= 0.5                          # the middle
+    if small is None:
+        sums = _part_sums(group, params, c, half, rule_here, r_ref)
+    else:
+        sums = np.empty((c.size, 2))
+        for sel, rl in ((small, small_rule), (~small, rule)):
+            sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
+    half *= sign
+    if few:
+        lo_iv, span = 0, a.size
+    else:                             # the intervals these parts lie in
+        lo_iv = int(iv.min())
+        span = int(iv.max()) + 1 - lo_iv
+        iv = iv - lo_iv
+    if sums.ndim == 1:
+        sums *= half
+        add = np.bincount(iv, weights=sums, minlength=span)
+        out[lo_iv:lo_iv + span, 0] += add
+        out[lo_iv:lo_iv + span, 1] += add
+    else:
+        sums *= half[:, None]
+        for k in range(2):
+            out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
@@ -474,6 +499,9 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 
 #: Most (piece, interval) pairs per piece the first partition of the washers may give.
 PAIRS_PER_PIECE = 4
+#: When every kind's radius is a polynomial of ``z`` (exact rules, nothing to refine), the
+#: first partition keeps every 2^k-th piece end at least, k = this.
+EXACT_SLICE_SHIFT = 4
 
 
 def _partition(table: PieceTable):
@@ -506,28 +534,38 @@ def _partition(table: PieceTable):
     new[:1] = True
     np.not_equal(ordered[1:], ordered[:-1], out=new[1:])
     breaks = ordered[new]
-    where = np.empty(values.size, dtype=np.int64)
-    where[order] = np.cumsum(new) - 1
-    del order, ordered, new, rising
+    # Ranks in 32 bits where they fit: half the memory traffic in every pass below.
+    rank_type = np.int32 if values.size < 2 ** 31 - 2 else np.int64
+    rank = np.cumsum(new, dtype=rank_type)
+    rank -= 1
+    where = np.empty(values.size, dtype=rank_type)
+    where[order] = rank
+    del order, ordered, new, rising, rank
     at_from = where[:n]
     at_to = np.empty(n, dtype=where.dtype)
-    at_to[~linked] = where[n:]
-    chain = np.flatnonzero(linked)
-    at_to[chain] = at_from[chain + 1]
+    at_to[:-1] = where[1:n]                        # a linked piece ends where the next starts
+    at_to[np.flatnonzero(~linked)] = where[n:]
     low = np.minimum(at_from, at_to)
-    high = np.maximum(at_from, at_to) - 1          # the last elementary interval met
-    del at_from, at_to, where, values, linked, chain
+    high = np.maximum(at_from, at_to)
+    high -= 1                                      # the last elementary interval met
+    del at_from, at_to, where, values, linked
     limit = PAIRS_PER_PIECE * n + 64
     intervals = breaks.size - 1
     # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
     # every break (and fall as k grows): start from the first k that bound allows.
-    beyond = int((high - low).sum())
+    beyond = int((high - low).sum(dtype=np.int64))
     shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
+    if all(g.kind.washer_degree() is not None for g in table.groups):
+        # Exact rules only: a piece's part of a wider slice is as exact as of a narrow one,
+        # and no interval will be halved; wider slices cut fewer pieces and sum fewer values.
+        shift = max(shift, EXACT_SLICE_SHIFT)
     while True:
         step = 1 << shift
         first = low >> shift if shift else low
-        count = (high >> shift) - first + 1 if shift else high - low + 1
-        if int(count.sum()) <= limit or step >= intervals:
+        count = high >> shift if shift else high.copy()
+        count -= first
+        count += 1
+        if int(count.sum(dtype=np.int64)) <= limit or step >= intervals:
             break
         shift += 1
     edges = breaks[::step]
@@ -546,8 +584,11 @@ def first_partition(table: PieceTable) -> np.ndarray:
     are longer along the axis than the spacing of its points. Then every k-th
     end is kept, k doubling until they fit: each slice interval then holds the
     parts of the pieces that cross it, each piece integrated over its own part
-    (its kinks stay at the ends of its parts). The cost of the choice is one
-    sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
+    (its kinks stay at the ends of its parts). When every kind's radius is a
+    polynomial of ``z`` (straight pieces: exact rules, no interval is ever
+    halved) every 2^:data:`EXACT_SLICE_SHIFT`-th end at least is kept, so
+    fewer pieces are cut and fewer slice values summed. The cost of the choice
+    is one sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
 
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
@@ -571,7 +612,9 @@ def _radius_range(table: PieceTable) -> Tuple[float, float]:
     A kind whose radius is linear in ``z`` along a piece (``washer_degree()
     == 1``: straight pieces, many of them) has its extremes at the piece
     ends, evaluated at once by its ``washer_radius``; any other kind (arcs,
-    curves: few) answers each segment's ``bounds()``.
+    curves: few), and a kind whose few segments hold many pieces each (a
+    polyline's edges), answers each segment's ``bounds()`` (every kind's
+    bounds include its turning points).
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
@@ -586,7 +629,12 @@ def _radius_range(table: PieceTable) -> Tuple[float, float]:
     """
     lo, hi = math.inf, -math.inf
     for g in table.groups:
-        if g.kind.washer_degree() == 1:
+        if len(g.segments) * 64 <= g.stop - g.start:
+            # Few segments holding many pieces (a polyline's edges): their bounds, a pass each.
+            for seg in g.segments:
+                _, r0, _, r1 = seg.bounds()
+                lo, hi = min(lo, r0), max(hi, r1)
+        elif g.kind.washer_degree() == 1:
             z = np.empty((2, g.stop - g.start))
             z[0], z[1] = table.lo[g.start:g.stop], table.hi[g.start:g.stop]
             with np.errstate(all="ignore"):      # a piece too short for its slope: not counted

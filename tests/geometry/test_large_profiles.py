@@ -86,12 +86,31 @@ def _clockwise(pts):
     return not LinearRing(pts).is_ccw
 
 
-def test_smooth_outline_is_sliced_at_every_vertex():
-    # A smooth outline keeps every piece end as a slice end (the partition is not coarsened):
-    # the 10⁴-gon's vertices have 5001 distinct positions along the axis (symmetric about it).
+def test_straight_outline_is_sliced_at_every_16th_vertex():
+    # Straight edges take an exact rule on any part of a slice, so the first partition keeps
+    # every 2^EXACT_SLICE_SHIFT-th piece end (and the last); the volume is checked against
+    # shapely + Pappus above. The 10⁴-gon's vertices have 5001 distinct positions along the axis.
+    from revolve.geometry.slicing import EXACT_SLICE_SHIFT
+
     prep = prepare(Profile(loops=(Loop.from_points(torus_section().tolist()),)), Axis.x())
     table = piece_table(prep, [1.0])
-    assert first_partition(table).size == np.unique(np.concatenate([table.lo, table.hi])).size
+    ends = np.unique(np.concatenate([table.lo, table.hi]))
+    edges = first_partition(table)
+    step = 2 ** EXACT_SLICE_SHIFT
+    assert edges.tolist() == ends[::step].tolist() + ([ends[-1]] if (ends.size - 1) % step else [])
+
+
+def test_outline_of_arcs_is_sliced_at_every_piece_end():
+    # Arcs are integrated by two compared rules and halved where they disagree: a smooth
+    # outline of arcs keeps every piece end as a slice end (the partition is not coarsened).
+    from revolve.geometry.segments import Line, arc_from_centre
+
+    bumps = [arc_from_centre((2.0 * i, 30.0), (2.0 * (i + 1), 30.0), (2.0 * i + 1.0, 29.0),
+                             clockwise=True) for i in range(40)]
+    loop = Loop(tuple(bumps) + (Line((80.0, 30.0), (80.0, 10.0)), Line((80.0, 10.0), (0.0, 10.0)),
+                                Line((0.0, 10.0), (0.0, 30.0))))
+    table = piece_table(prepare(Profile(loops=(loop,)), Axis.x()), [1.0])
+    assert first_partition(table).size == np.unique(np.concatenate([table.lo, table.hi])).size == 41
 
 
 # -- self-intersection ----------------------------------------------------------------------
@@ -162,8 +181,9 @@ def test_touching_chains_count_within_the_tolerance():
 @settings(max_examples=60, deadline=None)
 @given(st.integers(0, 2 ** 32 - 1), st.integers(4, 200), st.booleans(), st.sampled_from(["random", "ring"]))
 def test_every_candidate_index_agrees_with_shapely_is_simple(seed, n, closed, shape):
-    # Random points (crossings everywhere) or a noisy ring (crossings rare): the x sweep, the
-    # y sweep and the grid must each find a crossing exactly when shapely's is_simple says
+    # Random points (crossings everywhere) or a noisy ring (crossings rare): with the chains'
+    # boxes paired by the x sweep, the y sweep or the grid, the finder must find a crossing
+    # exactly when shapely's is_simple says
     # the line is not simple (touching within 1e-12 does not occur with these random points).
     rng = np.random.default_rng(seed)
     if shape == "random":
