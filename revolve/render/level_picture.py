@@ -22,7 +22,7 @@ from typing import Optional, Sequence, Tuple
 
 import numpy as np
 
-__all__ = ["level_picture", "label_boxes"]
+__all__ = ["level_picture", "picture_of", "label_boxes"]
 
 VOLUME_COLOUR = "#1f77b4"
 AREA_COLOUR = "#d62728"
@@ -166,6 +166,47 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
     _separate(fig, mark_texts)
     return fig
 
+
+
+def picture_of(result, title: Optional[str] = None):
+    """The picture of a :class:`~revolve.jobs.levels.LevelResult`: its rows, its vessel, its marks.
+
+    Volumes are the table's (after deadwood and the shell factor); marks are
+    the datum plate and the reference point where the table has them, and
+    the empty level of a tilted table.
+
+    >>> from revolve.geometry.profile import Chain, Profile
+    >>> from revolve.jobs.levels import level_table
+    >>> drum = Profile(chains=(Chain.from_points([(0, 0), (500, 0), (500, 2000), (0, 2000)]),),
+    ...                unit="mm")
+    >>> fig = picture_of(level_table(drum, orientation="vertical", axis="y", count=4,
+    ...                              datum_offset="50 mm"))
+    >>> fig.axes[1].get_xlabel(), [t.get_text() for t in fig.axes[1].texts]
+    ('volume (L)', ['datum plate, 50 mm'])
+    """
+    rows = result.rows
+    units = result.units
+    space = result.table("space").json(units)
+    levels = [r["level"] for r in rows]
+    volumes = [r["volume"] for r in rows]
+    areas = [r["wetted_area"] for r in rows]
+    marks = []
+    if "datum_offset" in space:
+        marks.append((space["datum_offset"], "datum plate"))
+        if "reference_height" in space:
+            marks.append((space["datum_offset"] + space["reference_height"], "reference point"))
+    if "empty_level" in space and abs(space["empty_level"]) > 0:
+        marks.append((space["empty_level"], "empty"))
+    outline = getattr(result, "outline", None)
+    profile = None
+    if outline is not None:
+        profile = (outline[0], outline[1])
+    order = sorted(range(len(levels)), key=lambda k: levels[k])
+    return level_picture([levels[k] for k in order], [volumes[k] for k in order],
+                         [areas[k] for k in order], level_unit=units.unit("level"),
+                         volume_unit=units.unit("capacity"), area_unit=units.unit("area"),
+                         capacity=space.get("capacity"), profile=profile, marks=marks,
+                         title=title or result.table("space").title)
 
 def _number(value: float) -> str:
     from revolve.render import numbers
