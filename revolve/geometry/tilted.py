@@ -304,7 +304,8 @@ def tilted_range(prep: PreparedProfile, tilt_degrees: float, orientation: str,
 
             res = minimize_scalar(f, bounds=(min(lo, hi), max(lo, hi)), method="bounded",
                                   options={"xatol": 1e-14 * max(abs(lo), abs(hi), 1.0)})
-            best = min(best, -res.fun) if sign < 0 else max(best, -res.fun)
+            # f is -sign·H: its minimum is H_min (sign < 0) or -H_max (sign > 0)
+            best = min(best, res.fun) if sign < 0 else max(best, -res.fun)
         out.append(float(best) - ref)
     return out[0], out[1]
 

@@ -877,7 +877,8 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
         the lowest wet point (the empty level)."""
         if not items:
             return np.zeros(np.shape(levels_si))
-        return gauging.deadwood_at(np.asarray(levels_si) - engine.low * metre, items)
+        depth = np.maximum(np.asarray(levels_si, dtype=float) - engine.low * metre, 0.0)
+        return gauging.deadwood_at(depth, items)
 
     def net(levels_si, geometric_m3):
         return factor * (np.asarray(geometric_m3) - deducted(levels_si))
@@ -991,9 +992,8 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
                        "ullage": row.get("ullage")}[reading]
             row[f"{reading}_text"] = gauging.format_feet_inches(text_of / 0.0254, denominator)
         row["volume"] = float(net_volume[k])
-        if corrected:
-            row["vessel_volume"] = float(geometric[k])
         if items:
+            row["vessel_volume"] = float(geometric[k])
             row["deducted"] = float(dead[k])
         row["percent"] = snapped(100.0 * float(net_volume[k]) / capacity) if capacity else 0.0
         if increments is not None:
@@ -1020,18 +1020,17 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
     if feet_inches:
         fields += (Field(f"{reading}_text", f"{reading} (ft in)", style="text"),)
     fields += (Field("volume", "volume", "capacity"),)
-    if corrected:
-        fields += (Field("vessel_volume", "vessel volume", "capacity"),)
     if items:
-        fields += (Field("deducted", "deducted", "capacity"),)
+        fields += (Field("vessel_volume", "vessel volume", "capacity"),
+                   Field("deducted", "deducted", "capacity"))
     fields += (Field("percent", "full", style="percent"),)
     if increments is not None:
         fields += (Field("increment", "to next row", "capacity"),)
     fields += (Field("wetted_area", "wetted area", "area"),
                Field("volume_error", "error estimate", "capacity", digits=2))
     if spread is not None:
-        fields += (Field("volume_uncertainty", "standard uncertainty", "capacity", digits=2),
-                   Field("largest_contributor", "largest contributor", style="text"))
+        fields += (Field("volume_uncertainty", "u", "capacity", digits=2),
+                   Field("largest_contributor", "main input", style="text"))
 
     figures = {"capacity": capacity, "full_level": engine.high * metre,
                "inside_area": space.inside_area * metre ** 2}
@@ -1124,7 +1123,8 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
             notes.append("the standard states CTSh for upright cylindrical tanks; here it is the "
                          "same areal growth (1 + αΔT)² applied to a lying vessel (geometry)")
     if spread is not None:
-        notes.append(f"uncertainty: {gauging.GUM_METHOD}")
+        notes.append(f"uncertainty u: the standard uncertainty of each volume, main input: its "
+                     f"largest contributor; {gauging.GUM_METHOD}")
         cap_u = shown.show(float(spread.standard_uncertainty[0]), "capacity")
         shares = spread.shares(0)
         named = ", ".join(f"{gauge_table.UNCERTAIN_INPUTS[k]} {100 * v:.0f} %"

@@ -42,7 +42,7 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
                   area_unit: Optional[str] = None, capacity: Optional[float] = None,
                   profile: Optional[Tuple[Sequence[float], Sequence[float]]] = None,
                   marks: Sequence[Tuple[float, str]] = (), title: Optional[str] = None,
-                  size: Tuple[float, float] = (7.5, 4.8)):
+                  size: Tuple[float, float] = (7.5, 4.8), profile_title: str = "vessel"):
     """A matplotlib Figure of a level table, values already in their display units.
 
     Parameters
@@ -63,6 +63,8 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         Horizontal marks (the heads' tangent lines), drawn across both panels.
     title : str, optional
         Wrapped to fit the canvas.
+    profile_title : str
+        The vessel panel's title ("vessel"; "end view" for a lying vessel's circle).
 
     Examples
     --------
@@ -143,7 +145,7 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         side.set_xlabel(f"radius ({level_unit})")
         _ticks(side.xaxis)
         side.tick_params(axis="x", labelsize=8)
-        side.set_title("vessel", fontsize=9)
+        side.set_title(profile_title, fontsize=9)
         chart.tick_params(axis="y", labelleft=False)
     else:
         chart.set_ylabel(level_label)
@@ -198,15 +200,17 @@ def picture_of(result, title: Optional[str] = None):
     if "empty_level" in space and abs(space["empty_level"]) > 0:
         marks.append((space["empty_level"], "empty"))
     outline = getattr(result, "outline", None)
-    profile = None
+    profile, profile_title = None, "vessel"
     if outline is not None:
         profile = (outline[0], outline[1])
+        profile_title = "vessel" if outline[2] == "section" else "end view"
     order = sorted(range(len(levels)), key=lambda k: levels[k])
     return level_picture([levels[k] for k in order], [volumes[k] for k in order],
                          [areas[k] for k in order], level_unit=units.unit("level"),
                          volume_unit=units.unit("capacity"), area_unit=units.unit("area"),
                          capacity=space.get("capacity"), profile=profile, marks=marks,
-                         title=title or result.table("space").title)
+                         title=title or result.table("space").title,
+                         profile_title=profile_title)
 
 def _number(value: float) -> str:
     from revolve.render import numbers
