@@ -364,7 +364,8 @@ def read_deadwood(path: str, vessel_space, *, default_unit: Optional[str] = None
         except FormatError:
             raise
         except RevolveError as e:
-            raise FormatError(e.message if e.file is None else str(e), file=path, line=line,
+            message = e.message.removeprefix(f"item {quoted(name.strip())}: ")
+            raise FormatError(message if e.file is None else str(e), file=path, line=line,
                               place=place) from None
     return tuple(items)
 

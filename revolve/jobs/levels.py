@@ -860,6 +860,9 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
             raise RevolveError(f"the reference height must be positive, got {H:g} {lu}",
                                option=n["reference_height"])
     low, high = (engine.low / level_in_profile, engine.high / level_in_profile)   # level unit
+    if datum_offset is not None and not datum < high:
+        raise RevolveError(f"the datum plate {datum:g} {lu} above the lowest inside point is at "
+                           f"or above the full level {high:.6g} {lu}", option=n["datum_offset"])
     reading = "ullage" if mode == "ullage" else (
         "innage" if datum_offset is not None or H is not None else "level")
 
@@ -1146,8 +1149,13 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
                           "gauge_point": None if gp is None else gp * metre}
     inputs = {"profile": doc.file if doc.file else name, "orientation": asked_from,
               "rows_by": mode}
-    for key, value in (("tilt", tilt), ("gauge_point", gauge_point),
-                       ("reference_height", reference_height), ("datum_offset", datum_offset),
+    def as_text(value):
+        return None if value is None else f"{value:.12g} {lu}"
+
+    for key, value in (("tilt", tilt),
+                       ("gauge_point", None if gp is None else as_text(gp / level_in_profile)),
+                       ("reference_height", as_text(H)),
+                       ("datum_offset", None if datum_offset is None else as_text(datum)),
                        ("deadwood", deadwood if isinstance(deadwood, str) else
                         (None if deadwood is None else f"{len(items)} items")),
                        ("shell_temperature", shell and shell.shell_temperature),
