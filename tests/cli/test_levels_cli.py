@@ -428,11 +428,12 @@ _UNITS = st.sampled_from(["", " in", " mm", " ft", " cm", " kg", " L", "in", " f
 
 
 @settings(max_examples=40, deadline=None)
-@given(option=st.sampled_from(["--step", "--at"]),
+@given(option=st.sampled_from(["--step", "--at", "--ullage"]),
        items=st.lists(st.tuples(_AMOUNTS, _UNITS), min_size=1, max_size=3))
 @example(option="--step", items=[("1/8", " in")])
 @example(option="--at", items=[("3 1/2", " in"), ("254", " mm")])
 @example(option="--at", items=[("1/0", " in")])
+@example(option="--ullage", items=[("3 1/2", " in"), ("30", " in")])
 def test_generated_levels_options(tmp_path_factory, option, items):
     import contextlib
     import io
@@ -445,7 +446,8 @@ def test_generated_levels_options(tmp_path_factory, option, items):
     with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
         with pytest.raises(SystemExit) as stop:
             main(["levels", path, option, value, "--level-unit", "in", "--volume-unit", "in^3",
-                  "--csv", str(out_csv), "--json"])
+                  "--csv", str(out_csv), "--json",
+                  *(["--reference-height", "2 ft"] if option == "--ullage" else [])])
     if stop.value.code == 2:
         (line,) = err.getvalue().strip().splitlines()
         assert line.startswith(f"revolve: error: {option}: ") and "Traceback" not in line
