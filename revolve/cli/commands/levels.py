@@ -133,14 +133,16 @@ def register(app: typer.Typer) -> None:
         axis: Optional[Any] = options.axis_option(),
         step: Optional[Any] = typer.Option(
             None, "--step", click_type=options.LENGTH, metavar="LENGTH",
-            help="A row every STEP of level, and the full level: '1/8 in', '50 mm'; a bare "
-                 "number is in the level unit."),
+            help="A row every STEP of level (of innage above the datum plate with "
+                 "--datum-offset), the empty and full levels, and the volume to the next row: "
+                 "'1/8 in', '50 mm'; a bare number is in the level unit."),
         count: Optional[int] = typer.Option(None, "--count", help="COUNT equal intervals from "
                                                                   "empty to full (COUNT + 1 rows; "
                                                                   "default 10)."),
         at: Optional[List[Any]] = typer.Option(
             None, "--at", click_type=options.LENGTH_LIST, metavar="LENGTHS",
-            help="Levels, e.g. '100 mm,250 mm' or 100,250 (bare numbers in the level unit)."),
+            help="Levels (innages with --datum-offset), e.g. '100 mm,250 mm', 3' 4 1/8\" or "
+                 "100,250 (bare numbers in the level unit)."),
         volume: Optional[List[str]] = typer.Option(
             None, "--volume", help="Inverse: the level holding each volume, e.g. '500 L,1000 L' "
                                    "(bare numbers in the volume unit)."),
@@ -163,7 +165,7 @@ def register(app: typer.Typer) -> None:
         tilt: Optional[str] = typer.Option(
             None, "--tilt", metavar="DEGREES",
             help="Angle of the axis from its drawn orientation, at most 45. Horizontal: "
-                 "positive raises the end at the end of the axis (larger x); vertical: a lean "
+                 "positive raises the end the axis points to; vertical: a lean "
                  "(its sign does not change a volume). Levels are then plumb heights at the "
                  "gauge point."),
         gauge_point: Optional[Any] = typer.Option(
@@ -187,8 +189,8 @@ def register(app: typer.Typer) -> None:
                  "feet-inches."),
         deadwood: Optional[str] = typer.Option(
             None, "--deadwood", metavar="FILE.toml",
-            help="Deadwood and fittings: a TOML list of [[item]] (volume from/to, or a body's "
-                 "profile); a deducted column per row."),
+            help="Deadwood and fittings: a TOML file of item tables (a volume from/to a level, "
+                 "or a body's profile); a deducted column per row."),
         shell_temperature: Optional[str] = typer.Option(
             None, "--shell-temperature", metavar="TEMP", help="Shell temperature, e.g. '35 °C'."),
         base_temperature: Optional[str] = typer.Option(
