@@ -637,7 +637,7 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     tilt : float or text, optional
         Degrees of the axis from its drawn orientation (at most 45; see
         :mod:`revolve.geometry.tilted`): horizontal, positive raises the end
-        at the end of the axis; vertical, a lean (its sign does not matter).
+        the axis points to; vertical, a lean (its sign does not matter).
     gauge_point : length, optional
         The gauge's distance along the axis from the vessel's end at the
         start of the axis; default mid-length (horizontal), 0 (vertical).
@@ -1184,7 +1184,7 @@ def _gauge_note(orientation, tilt, engine, metre, shown, said) -> str:
         text = ("horizontal: level = plumb height of the liquid surface above the bottom line "
                 "at the gauge point")
         if tilt is not None:
-            text += f"; tilt {tilt:g}° (positive: the end at the end of the axis raised)"
+            text += f"; tilt {tilt:g}° (positive: the end the axis points to raised)"
     else:
         text = "vertical: level = plumb height of the liquid surface above the axis at the gauge point"
         if tilt is not None:
