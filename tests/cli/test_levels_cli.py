@@ -794,3 +794,18 @@ def test_library_to_dict_equals_the_json_for_gauge_options(args, kwargs, capsys)
     assert code == 0, err
     library = revolve.level_table(str(DIESEL), **kwargs).to_dict()
     assert json.loads(json.dumps(library)) == json.loads(out)
+
+
+@pytest.mark.parametrize("tilt", [2.0, -2.0])
+def test_the_sign_of_the_tilt(tmp_path, capsys, tilt):
+    # geometry: a positive tilt raises the end the axis points to, so a gauge at the axis's
+    # start stands at the low end (empty level 0); a negative one makes that end the high one,
+    # whose bottom line is L sin α above the lowest point
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    d = _json([path, "--orientation", "horizontal", "--gauge-point", "0", "--tilt", str(tilt),
+               "--count", "2"], capsys)
+    a = math.radians(abs(tilt))
+    expected = 0.0 if tilt > 0 else -2000 * math.sin(a)
+    assert d["space"]["empty_level"] == pytest.approx(expected, abs=1e-9)
+    assert d["space"]["full_level"] == pytest.approx(
+        1000 * math.cos(a) + (2000 * math.sin(a) if tilt > 0 else 0.0), rel=1e-12)
