@@ -741,7 +741,9 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
                          level_unit=level_unit, volume_unit=volume_unit, area_unit=area_unit,
                          tolerance=tolerance, gauge_point=gauge_point,
                          reference_height=reference_height, datum_offset=datum_offset,
-                         deadwood=deadwood, uncertainty=uncertainty)
+                         deadwood=deadwood, uncertainty=uncertainty,
+                         temperature=(shell_temperature, base_temperature, shell_material,
+                                      expansion))
 
 
 def _gauge_settings(n, mode, *, tilt, reference_height, level_format, shell_temperature,
@@ -807,8 +809,9 @@ def _feet_inches_denominator(step_inches: Optional[float]) -> int:
 
 def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ullage, volumes,
                   percent, level_unit, volume_unit, area_unit, tolerance, gauge_point,
-                  reference_height, datum_offset, deadwood, uncertainty):
+                  reference_height, datum_offset, deadwood, uncertainty, temperature):
     """The table of :func:`level_table` once the settings that need no profile are checked."""
+    shell_temperature, base_temperature, shell_material, expansion = temperature
     from revolve import units as registry
     from revolve.jobs import gauge_table, gauging
     from revolve.jobs.measuring import _axis_of, parse_axis
@@ -1107,8 +1110,9 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
         notes.append("volumes: wetted circular segments integrated along the axis; largest "
                      f"error estimate {worst:.1e} of the capacity")
     if reading != "level":
-        text = f"readings: innage = level − {datum:g} {lu} (the datum plate above the lowest " \
-               "inside point)"
+        text = (f"readings: innage = level − {datum:g} {lu} (the datum plate above the lowest "
+                "inside point)" if datum_offset is not None else
+                "readings: innage = level (the datum plate at the lowest inside point)")
         if H is not None:
             text += f"; ullage = {H:g} {lu} (the reference point above the datum plate) − innage"
         notes.append(text)
@@ -1121,7 +1125,8 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
             notes.append("deadwood and fittings are taken by depth above the lowest wet point, "
                          "as in a level vessel")
     if shell is not None:
-        notes.append(shell.statement() + "; volumes = CTSh × (vessel volume − deducted)")
+        notes.append(shell.statement() + " (temperatures in °C); volumes = CTSh × (vessel "
+                     "volume − deducted)")
         if space.orientation != "vertical":
             notes.append("the standard states CTSh for upright cylindrical tanks; here it is the "
                          "same areal growth (1 + αΔT)² applied to a lying vessel (geometry)")
@@ -1158,8 +1163,10 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
                        ("datum_offset", None if datum_offset is None else as_text(datum)),
                        ("deadwood", deadwood if isinstance(deadwood, str) else
                         (None if deadwood is None else f"{len(items)} items")),
-                       ("shell_temperature", shell and shell.shell_temperature),
-                       ("base_temperature", shell and shell.base_temperature),
+                       ("shell_temperature", None if shell is None else str(shell_temperature)),
+                       ("base_temperature", None if shell is None else str(base_temperature)),
+                       ("shell_material", None if shell_material is None else str(shell_material)),
+                       ("expansion", None if expansion is None else str(expansion)),
                        ("uncertainty", uncertainty if isinstance(uncertainty, str) else
                         (None if uncertainty is None else "given"))):
         if value is not None:
