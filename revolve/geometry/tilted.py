@@ -411,7 +411,9 @@ def _integrate(pc, jobs, c, a, b, n):
     wet = jobs["wet"][:, None]
     e = c[jobs["level"]][:, None] - b * z
     s = a * r
-    with np.errstate(divide="ignore", invalid="ignore"):
+    # a lean of a hair gives a tiny a: y overflows to ±inf only where the circle is wholly wet
+    # or dry (np.where picks π r², 2π r there), never where the chord cuts it (|y| < r)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
         rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
         y = e / a if a > 0 else np.zeros_like(r)
@@ -706,7 +708,8 @@ def tilted_crosscheck(prep: PreparedProfile, levels, tilt_degrees: float, orient
     out = np.empty(d.size)
     for j, cj in enumerate(c):
         if a > 0:
-            top = np.clip((cj - b * zs) / a, -R, R)
+            with np.errstate(over="ignore"):          # ±inf is clipped to the slice's edge
+                top = np.clip((cj - b * zs) / a, -R, R)
         else:
             top = np.where(cj - b * zs > 0, R, -R)
         # the running sum at top: linear within its strip

@@ -809,3 +809,59 @@ def test_the_sign_of_the_tilt(tmp_path, capsys, tilt):
     assert d["space"]["empty_level"] == pytest.approx(expected, abs=1e-9)
     assert d["space"]["full_level"] == pytest.approx(
         1000 * math.cos(a) + (2000 * math.sin(a) if tilt > 0 else 0.0), rel=1e-12)
+
+
+@pytest.mark.parametrize("args", [
+    dict(tilt=1.0, step="100 mm", datum_offset="10 mm", reference_height="1100 mm"),
+    dict(count=4, deadwood=str(DEADWOOD), level_unit="in", volume_unit="US_gallon"),
+])
+def test_the_level_picture_of_a_gauge_table_reads_cleanly(args):
+    # no label overlaps another or leaves the canvas (label_boxes: matplotlib's own extents)
+    import revolve
+    from revolve.render.level_picture import label_boxes, picture_of
+
+    result = revolve.level_table(str(DIESEL), **args)
+    fig = picture_of(result)
+    boxes = label_boxes(fig)
+    texts = [t for t, _ in boxes]
+    assert f"volume ({result.units.unit('capacity')})" in texts and "end view" in texts
+    canvas = fig.bbox
+    for text, box in boxes:
+        assert canvas.x0 - 0.5 <= box.x0 and box.x1 <= canvas.x1 + 0.5, text
+        assert canvas.y0 - 0.5 <= box.y0 and box.y1 <= canvas.y1 + 0.5, text
+    for i, (a, box_a) in enumerate(boxes):
+        for b, box_b in boxes[i + 1:]:
+            assert not box_a.overlaps(box_b), (a, b)
+
+
+from hypothesis import strategies as _st  # noqa: E402
+
+
+@settings(max_examples=25, deadline=None)
+@given(tilt=_st.one_of(_st.floats(-60, 60), _st.sampled_from([0.0, 45.0, -45.0, 45.5])),
+       orientation=_st.sampled_from(["vertical", "horizontal"]),
+       count=_st.integers(1, 12))
+@example(tilt=45.5, orientation="vertical", count=3)
+@example(tilt=-44.9, orientation="horizontal", count=5)
+def test_generated_tilts(tilt, orientation, count):
+    # a bounded, non-decreasing table from empty to the Pappus capacity, or one line naming --tilt
+    import contextlib
+    import io
+
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        with pytest.raises(SystemExit) as stop:
+            main(["levels", str(DIESEL), "--orientation", orientation, "--tilt", repr(tilt),
+                  "--count", str(count), "--json"])
+    if abs(tilt) > 45:
+        assert stop.value.code == 2
+        (line,) = err.getvalue().strip().splitlines()
+        assert line.startswith("revolve: error: --tilt: ") and out.getvalue() == ""
+        return
+    assert stop.value.code in (0, None), err.getvalue()
+    d = json.loads(out.getvalue())
+    volumes = [r["volume"] for r in d["levels"]]
+    cap = d["space"]["capacity"]
+    assert volumes[0] == pytest.approx(0.0, abs=1e-9 * cap)
+    assert volumes[-1] == pytest.approx(cap, rel=1e-9)
+    assert all(b >= a - 1e-9 * cap for a, b in zip(volumes, volumes[1:]))
