@@ -1,4 +1,4 @@
-"""What tank calibration adds to a level table: tilt, gauge datum, deadwood, temperature, uncertainty.
+"""What calibration adds to a level table: tilt, gauge datum, deadwood, temperature, uncertainty.
 
 :func:`revolve.jobs.levels.level_table` builds every table; this module holds
 the parts it uses when a table is a gauge table (no printing, no files

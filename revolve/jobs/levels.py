@@ -1182,18 +1182,21 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
 
 def _gauge_note(orientation, tilt, engine, metre, shown, said) -> str:
     lu = shown.unit("level")
-    where = ("gauge point: " + ("the middle of the length" if engine.gauge_z is None and
-                                orientation == "horizontal" else
-                                "the lowest point on the axis" if engine.gauge_z is None else
-                                f"{shown.show((engine.gauge_z - engine.pieces.z_min) * metre, 'level'):.6g} "
-                                f"{lu} along the axis from its start"))
+    if engine.gauge_z is None:
+        where = ("the middle of the length" if orientation == "horizontal" else
+                 "the lowest point on the axis")
+    else:
+        along = shown.show((engine.gauge_z - engine.pieces.z_min) * metre, "level")
+        where = f"{along:.6g} {lu} along the axis from its start"
+    where = "gauge point: " + where
     if orientation == "horizontal":
         text = ("horizontal: level = plumb height of the liquid surface above the bottom line "
                 "at the gauge point")
         if tilt is not None:
             text += f"; tilt {tilt:g}° (positive: the end the axis points to raised)"
     else:
-        text = "vertical: level = plumb height of the liquid surface above the axis at the gauge point"
+        text = ("vertical: level = plumb height of the liquid surface above the axis at the "
+                "gauge point")
         if tilt is not None:
             text += f"; leaning {abs(tilt):g}° (the direction of lean does not change a volume)"
     return f"{text}; {where} ({said})"
