@@ -304,7 +304,8 @@ def tilted_range(prep: PreparedProfile, tilt_degrees: float, orientation: str,
 
             res = minimize_scalar(f, bounds=(min(lo, hi), max(lo, hi)), method="bounded",
                                   options={"xatol": 1e-14 * max(abs(lo), abs(hi), 1.0)})
-            best = min(best, -res.fun) if sign < 0 else max(best, -res.fun)
+            # f is -sign·H: its minimum is H_min (sign < 0) or -H_max (sign > 0)
+            best = min(best, res.fun) if sign < 0 else max(best, -res.fun)
         out.append(float(best) - ref)
     return out[0], out[1]
 
@@ -410,7 +411,9 @@ def _integrate(pc, jobs, c, a, b, n):
     wet = jobs["wet"][:, None]
     e = c[jobs["level"]][:, None] - b * z
     s = a * r
-    with np.errstate(divide="ignore", invalid="ignore"):
+    # a lean of a hair gives a tiny a: y overflows to ±inf only where the circle is wholly wet
+    # or dry (np.where picks π r², 2π r there), never where the chord cuts it (|y| < r)
+    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
         rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
         rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
         y = e / a if a > 0 else np.zeros_like(r)
@@ -705,7 +708,8 @@ def tilted_crosscheck(prep: PreparedProfile, levels, tilt_degrees: float, orient
     out = np.empty(d.size)
     for j, cj in enumerate(c):
         if a > 0:
-            top = np.clip((cj - b * zs) / a, -R, R)
+            with np.errstate(over="ignore"):          # ±inf is clipped to the slice's edge
+                top = np.clip((cj - b * zs) / a, -R, R)
         else:
             top = np.where(cj - b * zs > 0, R, -R)
         # the running sum at top: linear within its strip

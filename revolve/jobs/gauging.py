@@ -504,7 +504,7 @@ class RevolvedItem:
     """A body of revolution on the vessel's axis, given as its own profile (coil, column, mixer).
 
     Measured by the level engine (:func:`revolve.jobs.levels.liquid_space`
-    and :func:`revolve.jobs.levels.level_table` on the body's profile) in the
+    and :func:`revolve.jobs.levels.table_at_levels` on the body's profile) in the
     profile's unit and converted to metres; build it with
     :meth:`from_profile`.
 
@@ -574,13 +574,13 @@ class RevolvedItem:
 
     def volume_below(self, levels) -> np.ndarray:
         """The body's volume below each vessel level, m³ (levels in m)."""
-        from revolve.jobs.levels import level_table
+        from revolve.jobs.levels import table_at_levels
 
         lv = _array(levels, "levels")
         own = np.clip((lv - self.offset) / self.scale, 0.0, self.space.height)
         if own.size == 0:
             return own
-        return np.asarray(level_table(self.space, own).volume, dtype=float) * self.scale ** 3
+        return np.asarray(table_at_levels(self.space, own).volume, dtype=float) * self.scale ** 3
 
 
 def deadwood_at(levels, items: Sequence[Union[SpreadItem, RevolvedItem]]) -> np.ndarray:

@@ -66,12 +66,13 @@ axis round to the axis:
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass
+import os
+from dataclasses import dataclass, field
 from typing import Any, Optional, Tuple
 
 import numpy as np
 
-from revolve.errors import ProfileError, RevolveError
+from revolve.errors import ProfileError, RevolveError, quoted
 from revolve.geometry.checks import PreparedProfile, prepare
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.segments import Line
@@ -483,7 +484,15 @@ DEFAULT_TOLERANCE = 1e-9
 LIBRARY_NAMES = {"orientation": "orientation", "axis": "axis", "step": "step", "count": "count",
                  "at": "at", "volumes": "volumes", "percent": "percent",
                  "level_unit": "level_unit", "volume_unit": "volume_unit",
-                 "area_unit": "area_unit", "units": "units", "tolerance": "tolerance"}
+                 "area_unit": "area_unit", "units": "units", "tolerance": "tolerance",
+                 "tilt": "tilt", "gauge_point": "gauge_point",
+                 "reference_height": "reference_height", "ullage": "ullage",
+                 "datum_offset": "datum_offset", "level_format": "level_format",
+                 "deadwood": "deadwood", "shell_temperature": "shell_temperature",
+                 "base_temperature": "base_temperature", "shell_material": "shell_material",
+                 "expansion": "expansion", "uncertainty": "uncertainty"}
+#: How levels may be written: "auto" is feet-inches for in and ft level units, else decimal.
+LEVEL_FORMATS = ("auto", "decimal", "feet-inches")
 
 
 def _items(value) -> list:
@@ -567,7 +576,11 @@ class LevelResult(Result):
 
     ``rows`` are the table's rows in the output units (as in the JSON);
     ``capacity`` is in the capacity unit (``units.unit("capacity")``).
+    ``outline`` (not in the JSON) is the vessel drawn for the picture:
+    (levels, radii) in the level unit and what it shows.
     """
+
+    outline: Any = field(default=None, compare=False)
 
     @property
     def rows(self):
@@ -587,11 +600,15 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
                 count: Optional[int] = None, at=None, volumes=None, percent=None,
                 level_unit: Optional[str] = None, volume_unit: Optional[str] = None,
                 area_unit: Optional[str] = None, units: Optional[str] = None,
-                tolerance: float = DEFAULT_TOLERANCE, names=None):
-    """A fill-level table of a liquid space (forward by level, or inverse by volume or percent).
+                tolerance: float = DEFAULT_TOLERANCE, tilt=None, gauge_point=None,
+                reference_height=None, ullage=None, datum_offset=None,
+                level_format: Optional[str] = None, deadwood=None, shell_temperature=None,
+                base_temperature=None, shell_material=None, expansion=None, uncertainty=None,
+                names=None):
+    """A fill-level (gauge) table of a liquid space: forward by level, reading, or inverse.
 
     The same computation as ``revolve levels``: ``result.to_dict()`` is the
-    object ``revolve levels FILE --json`` prints.
+    object ``revolve levels FILE --json`` prints (with the same settings).
 
     Parameters
     ----------
@@ -601,17 +618,44 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
         Default: the file's ``orientation``; refused when neither says.
     axis : Axis or str, optional
         ``"x"``, ``"y"`` or ``"X0,Y0,DX,DY"``; default the file's, else x.
-    step, at : length text, numbers or lists, optional
-        Forward rows: a row every ``step`` (and the full level), or at each
-        level of ``at`` (``"10 mm,20 mm"``, ``["1/8 in", 0.5]``). A bare
-        number is in the level unit.
+    step : length text or number, optional
+        A row at every ``step`` of innage (from the datum plate; of level when
+        there is none), with the empty and full levels, and a column of
+        volume per increment.
+    at : length text, numbers or lists, optional
+        Rows at these innages (dips above the datum plate; levels when there
+        is none): ``"10 mm,20 mm"``, ``["1/8 in", 0.5]``, ``"3' 4 1/8\\""``.
+    ullage : length text, numbers or lists, optional
+        Rows at these ullages, read down from the reference point at
+        ``reference_height`` above the datum plate (``at = H - ullage``).
     count : int, optional
-        Forward rows: ``count`` equal intervals (default 10).
-    volumes : volume text, numbers or lists, optional
+        ``count`` equal intervals from empty to full (default 10).
+    volumes, percent : optional
         Inverse: the level holding each volume (``"500 L,1000 L"``; a bare
-        number is in the capacity unit).
-    percent : numbers or text, optional
-        Inverse: the level holding each percentage of the capacity.
+        number is in the capacity unit) or percentage of the capacity (both
+        after deadwood and the shell factor).
+    tilt : float or text, optional
+        Degrees of the axis from its drawn orientation (at most 45; see
+        :mod:`revolve.geometry.tilted`): horizontal, positive raises the end
+        the axis points to; vertical, a lean (its sign does not matter).
+    gauge_point : length, optional
+        The gauge's distance along the axis from the vessel's end at the
+        start of the axis; default mid-length (horizontal), 0 (vertical).
+    reference_height, datum_offset : length, optional
+        The reference point's height above the datum plate, and the datum
+        plate's above the lowest inside point (default 0).
+    level_format : "auto", "decimal" or "feet-inches"
+        ``auto`` (default) adds feet-inches-fractions text for in and ft levels.
+    deadwood : file name or sequence of items, optional
+        Deadwood and fittings (a TOML file, see ``examples/deadwood-*.toml``,
+        or :class:`revolve.jobs.gauging.SpreadItem`/``RevolvedItem`` objects).
+    shell_temperature, base_temperature : temperature text, optional
+        With ``shell_material`` (a name of ``data/expansion.toml``) or
+        ``expansion`` (``"12e-6 /K"``): the shell temperature factor CTSh.
+    uncertainty : file name or mapping, optional
+        Tolerances (``[tolerance]``: diameter, length, tilt, reading) and, for
+        diameter and length, the vessel's dimensions (``[vessel]`` as
+        ``revolve vessel`` takes them; a profile file does not record them).
     level_unit, volume_unit, area_unit : str, optional
         Output units: levels (default the drawing's unit), capacities
         (default L, US gal for inch/foot drawings), wetted areas (m², ft²).
@@ -627,7 +671,7 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     Returns
     -------
     LevelResult
-        Tables ``space`` (capacity, full level, inside surface) and
+        Tables ``space`` (capacity, full level, inside surface, …) and
         ``levels`` (the rows), values shown in ``result.units``.
 
     Examples
@@ -645,24 +689,26 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     >>> [round(row["level"], 9) for row in level_table(drum, orientation="vertical", axis="y",
     ...                                                volumes="0 L").rows]    # empty: level 0
     [0.0]
+    >>> u = level_table(drum, orientation="vertical", axis="y", reference_height="1.9 m",
+    ...                 ullage="400 mm")
+    >>> [(round(row["ullage"], 9), round(row["innage"], 9)) for row in u.rows]
+    [(400.0, 1500.0)]
     >>> level_table(drum, orientation="vertical", axis="y", step=1, count=3)
     Traceback (most recent call last):
     ...
-    revolve.errors.RevolveError: count: give one of step, count, at, volumes and percent, not step and count
+    revolve.errors.RevolveError: count: give one of step, count, at, ullage, volumes and percent, not step and count
     """
-    from revolve import units as registry
-    from revolve.jobs.measuring import _axis_of, as_document, parse_axis
-    from revolve.jobs.results import Field, Table, rows_of, trade_units
-    from revolve.jobs.vessel import TradeUnits, snapped
+    from revolve.jobs.measuring import as_document
 
     n = dict(LIBRARY_NAMES, **(names or {}))
-    given = [key for key, v in (("step", step), ("count", count), ("at", at),
+    given = [key for key, v in (("step", step), ("count", count), ("at", at), ("ullage", ullage),
                                 ("volumes", volumes), ("percent", percent))
              if v is not None and not (isinstance(v, (list, tuple)) and not v)]
     if len(given) > 1:
-        raise RevolveError("give one of " + ", ".join(n[k] for k in ("step", "count", "at")) +
-                           f", {n['volumes']} and {n['percent']}, not "
-                           + " and ".join(n[k] for k in given), option=n[given[1]])
+        raise RevolveError("give one of " + ", ".join(n[k] for k in ("step", "count", "at",
+                                                                      "ullage", "volumes")) +
+                           f" and {n['percent']}, not " + " and ".join(n[k] for k in given),
+                           option=n[given[1]])
     mode = given[0] if given else "count"
     if orientation is not None:
         orientation = str(orientation).strip().lower()
@@ -680,12 +726,98 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
         raise RevolveError(f"the count must be 1 or more, got {count!r}", option=n["count"])
     if count is not None and count > MAX_ROWS:
         raise RevolveError(f"{count} rows are too many (at most {MAX_ROWS})", option=n["count"])
+    gauge = _gauge_settings(n, mode, tilt=tilt, reference_height=reference_height,
+                            level_format=level_format, shell_temperature=shell_temperature,
+                            base_temperature=base_temperature, shell_material=shell_material,
+                            expansion=expansion)
     try:
         doc = as_document(profile_or_path, units)
     except RevolveError as e:
         if e.option == "units":
             e.option = n["units"]
         raise
+    return _level_result(doc, n, mode, gauge, orientation=orientation, axis=axis, step=step,
+                         count=count, at=at, ullage=ullage, volumes=volumes, percent=percent,
+                         level_unit=level_unit, volume_unit=volume_unit, area_unit=area_unit,
+                         tolerance=tolerance, gauge_point=gauge_point,
+                         reference_height=reference_height, datum_offset=datum_offset,
+                         deadwood=deadwood, uncertainty=uncertainty,
+                         temperature=(shell_temperature, base_temperature, shell_material,
+                                      expansion))
+
+
+def _gauge_settings(n, mode, *, tilt, reference_height, level_format, shell_temperature,
+                    base_temperature, shell_material, expansion) -> dict:
+    """The settings that need no profile: tilt, level format, shell temperature (checked)."""
+    from revolve.jobs import gauge_table, gauging
+
+    out: dict = {}
+    if tilt is not None:
+        try:
+            t = float(str(tilt).strip().removesuffix("°").removesuffix("deg").strip()) \
+                if isinstance(tilt, str) else float(tilt)
+        except (TypeError, ValueError):
+            raise RevolveError(f"give the tilt in degrees, such as 0.5 or -1.2, got "
+                               f"{quoted(str(tilt))}", option=n["tilt"]) from None
+        from revolve.geometry.tilted import plane_coefficients
+
+        _named(n["tilt"], plane_coefficients, t, "vertical")
+        out["tilt"] = t
+    else:
+        out["tilt"] = None
+    fmt = "auto" if level_format is None else str(level_format).strip().lower()
+    if fmt not in LEVEL_FORMATS:
+        raise RevolveError(f"give auto, decimal or feet-inches, got {quoted(str(level_format))}",
+                           option=n["level_format"])
+    out["level_format"] = fmt
+    if mode == "ullage" and reference_height is None:
+        raise RevolveError(f"ullages are read down from the reference point; give "
+                           f"{n['reference_height']} too", option=n["ullage"])
+    temperature = (shell_temperature, base_temperature, shell_material, expansion)
+    out["shell"] = None
+    if any(v is not None for v in temperature):
+        for value, key in ((shell_temperature, "shell_temperature"),
+                           (base_temperature, "base_temperature")):
+            if value is None:
+                raise RevolveError(f"the shell temperature factor needs {n['shell_temperature']} "
+                                   f"and {n['base_temperature']} (the table's calibration "
+                                   "temperature)", option=n[key])
+        if (shell_material is None) == (expansion is None):
+            raise RevolveError(f"give the shell's material ({n['shell_material']}) or its "
+                               f"expansion coefficient ({n['expansion']}), one of them",
+                               option=n["shell_material" if shell_material is None else
+                                        "expansion"])
+        ts = _named(n["shell_temperature"], gauge_table.parse_temperature, shell_temperature)
+        tb = _named(n["base_temperature"], gauge_table.parse_temperature, base_temperature)
+        if shell_material is not None:
+            material = str(shell_material)
+            out["shell"] = _named(n["shell_material"], gauging.shell_correction, ts, tb, material)
+        else:
+            alpha = _named(n["expansion"], gauge_table.parse_expansion, expansion)
+            out["shell"] = gauging.shell_correction(ts, tb, alpha)
+    return out
+
+
+def _feet_inches_denominator(step_inches: Optional[float]) -> int:
+    """1/16 inch, or finer when the step needs it (1/32, 1/64)."""
+    if step_inches:
+        for d in (16, 32, 64):
+            if abs(step_inches * d - round(step_inches * d)) <= 1e-9 * max(1.0, step_inches * d):
+                return d
+    return 16
+
+
+def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ullage, volumes,
+                  percent, level_unit, volume_unit, area_unit, tolerance, gauge_point,
+                  reference_height, datum_offset, deadwood, uncertainty, temperature):
+    """The table of :func:`level_table` once the settings that need no profile are checked."""
+    shell_temperature, base_temperature, shell_material, expansion = temperature
+    from revolve import units as registry
+    from revolve.jobs import gauge_table, gauging
+    from revolve.jobs.measuring import _axis_of, parse_axis
+    from revolve.jobs.results import Field, Table, rows_of, trade_units
+    from revolve.jobs.vessel import TradeUnits, snapped
+
     try:
         asked_from, written = orientation, doc.orientation
         orientation, source = choose_orientation(orientation, doc.orientation,
@@ -713,83 +845,232 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
         raise e.located(file=doc.file, line=doc.line_of(e.place) if e.place else None)
     metre = registry.factor(unit, "length")           # one profile unit in metres
     lu = shown.unit("level")
-    full_shown = shown.show(space.height * metre, "level")
     level_factor = shown.units["level"][1]                # one level unit in metres
     level_in_profile = level_factor / metre               # one level unit in profile units
-    asked_key, asked_values = None, None
+
+    def in_lu(value, key):
+        return _named(n[key], _length_in, value, lu, lu)
+
+    tilt = gauge["tilt"]
+    gp = None if gauge_point is None else in_lu(gauge_point, "gauge_point") * level_in_profile
+    engine = _named(n["gauge_point"] if gauge_point is not None else n["tilt"],
+                    gauge_table.make_gauge, space, tilt, gp)
+    datum = 0.0 if datum_offset is None else in_lu(datum_offset, "datum_offset")   # level unit
+    H = None
+    if reference_height is not None:
+        H = in_lu(reference_height, "reference_height")
+        if not (math.isfinite(H) and H > 0):
+            raise RevolveError(f"the reference height must be positive, got {H:g} {lu}",
+                               option=n["reference_height"])
+    low, high = (engine.low / level_in_profile, engine.high / level_in_profile)   # level unit
+    if datum_offset is not None and not datum < high:
+        raise RevolveError(f"the datum plate {datum:g} {lu} above the lowest inside point is at "
+                           f"or above the full level {high:.6g} {lu}", option=n["datum_offset"])
+    reading = "ullage" if mode == "ullage" else (
+        "innage" if datum_offset is not None or H is not None else "level")
+
+    items = ()
+    if deadwood is not None:
+        if isinstance(deadwood, (str, os.PathLike)):
+            items = _named(n["deadwood"], gauge_table.read_deadwood, str(deadwood), space)
+        else:
+            items = tuple(deadwood)
+    shell = gauge["shell"]
+    factor = shell.factor if shell is not None else 1.0
+
+    def deducted(levels_si):
+        """Deadwood minus fittings below each table level (m³); their levels are depths above
+        the lowest wet point (the empty level)."""
+        if not items:
+            return np.zeros(np.shape(levels_si))
+        depth = np.maximum(np.asarray(levels_si, dtype=float) - engine.low * metre, 0.0)
+        return gauging.deadwood_at(depth, items)
+
+    def net(levels_si, geometric_m3):
+        return factor * (np.asarray(geometric_m3) - deducted(levels_si))
+
+    corrected = bool(items) or shell is not None
+    asked_key, asked_values, step_lu = None, None, None
+
+    def check_range(values, what, option, shift=0.0):
+        for x in values:
+            lv = x + shift
+            if lv < low - 1e-12 * max(abs(high - low), 1.0) * 1.0:
+                raise RevolveError(f"{what} {x:g} {lu} is below the lowest inside point "
+                                   f"({low - shift:.6g} {lu})", option=option)
+            if lv > high + 1e-12 * max(abs(high), abs(low)):
+                raise RevolveError(f"{what} {x:g} {lu} is above the full level "
+                                   f"{high - shift:.6g} {lu}", option=option)
 
     if mode == "step":
-        s = _named(n["step"], _length_in, step, lu, lu)
+        s = in_lu(step, "step")
         if not (math.isfinite(s) and s > 0):
             raise RevolveError(f"the step must be a positive number, got {s:g} {lu}",
                                option=n["step"])
-        if full_shown / s > MAX_ROWS:
-            raise RevolveError(f"a step of {s:g} {lu} gives {full_shown / s:.3g} rows for a full "
-                               f"level of {full_shown:.6g} {lu} (at most {MAX_ROWS}); make it "
-                               "larger", option=n["step"])
-        table = table_at_levels(space, levels_by_step(space, s * level_in_profile))
+        if (high - low) / s > MAX_ROWS:
+            raise RevolveError(f"a step of {s:g} {lu} gives {(high - low) / s:.3g} rows for a "
+                               f"full level of {high - low:.6g} {lu} (at most {MAX_ROWS}); make "
+                               "it larger", option=n["step"])
+        step_lu = s
+        lv = gauge_table.step_levels(low, high, s, datum) * level_in_profile
     elif mode == "count":
-        table = table_at_levels(space, levels_by_count(space, int(count or DEFAULT_COUNT)))
-    elif mode == "at":
-        values = [_named(n["at"], _length_in, v, lu, lu) for v in _named(n["at"], _items, at)]
+        lv = np.linspace(engine.low, engine.high, int(count or DEFAULT_COUNT) + 1)
+        lv[-1] = engine.high
+    elif mode in ("at", "ullage"):
+        key = "at" if mode == "at" else "ullage"
+        values = [in_lu(v, key) for v in _named(n[key], _items, at if mode == "at" else ullage)]
         if not values:
-            raise RevolveError("give at least one level", option=n["at"])
-        for x in values:
-            if x < 0:
-                raise RevolveError(f"level {x:g} {lu} is below the lowest inside point (0)",
-                                   option=n["at"])
-            if x > full_shown * (1 + 1e-12):
-                raise RevolveError(f"level {x:g} {lu} is above the full level "
-                                   f"{full_shown:.6g} {lu}", option=n["at"])
-        table = table_at_levels(space, np.minimum(np.array(values) * level_in_profile,
-                                                  space.height))
-    elif mode == "volumes":
-        si = [_named(n["volumes"], _volume_si, v, shown) for v in _named(n["volumes"], _items, volumes)]
-        if not si:
-            raise RevolveError("give at least one volume", option=n["volumes"])
-        cap_si = space.capacity * metre ** 3
-        vu = shown.unit("capacity")
-        for x in si:
-            if x < 0:
-                raise RevolveError(f"volume {shown.show(x, 'capacity'):g} {vu} is negative",
-                                   option=n["volumes"])
-            if x > cap_si * (1 + 1e-12):
-                raise RevolveError(f"volume {shown.show(x, 'capacity'):g} {vu} is more than the "
-                                   f"capacity {shown.show(cap_si, 'capacity'):.6g} {vu}",
-                                   option=n["volumes"])
-        asked_key, asked_values = "volume_asked", si
-        table = level_for_volume(space, np.minimum(np.array(si) / metre ** 3, space.capacity))
+            raise RevolveError(f"give at least one {'level' if mode == 'at' else 'ullage'}",
+                               option=n[key])
+        if mode == "ullage":
+            for u in values:
+                if not 0 <= u <= H * (1 + 1e-12):
+                    raise RevolveError(f"ullage {u:g} {lu} is outside 0 to the reference height "
+                                       f"{H:g} {lu}", option=n["ullage"])
+            asked_key, asked_values = "ullage", [u * level_factor for u in values]
+            innages = [H - u for u in values]
+            check_range(innages, "the innage of that ullage,", n["ullage"], datum)
+        else:
+            innages = values
+            check_range(innages, "innage" if reading != "level" else "level", n["at"], datum)
+        lv = np.clip((np.array(innages) + datum) * level_in_profile, engine.low, engine.high)
     else:
-        asked_values = [_named(n["percent"], _percent_value, v)
-                        for v in _named(n["percent"], _items, percent)]
-        if not asked_values:
-            raise RevolveError("give at least one percentage", option=n["percent"])
-        asked_key = "percent_asked"
-        table = level_for_percent(space, asked_values)
+        cap_net = float(net([engine.high * metre], [space.capacity * metre ** 3])[0])
+        if mode == "volumes":
+            si = [_named(n["volumes"], _volume_si, v, shown)
+                  for v in _named(n["volumes"], _items, volumes)]
+            if not si:
+                raise RevolveError("give at least one volume", option=n["volumes"])
+            vu = shown.unit("capacity")
+            for x in si:
+                if x < 0:
+                    raise RevolveError(f"volume {shown.show(x, 'capacity'):g} {vu} is negative",
+                                       option=n["volumes"])
+                if x > cap_net * (1 + 1e-12):
+                    raise RevolveError(f"volume {shown.show(x, 'capacity'):g} {vu} is more than "
+                                       f"the capacity {shown.show(cap_net, 'capacity'):.6g} {vu}",
+                                       option=n["volumes"])
+            asked_key, asked_values = "volume_asked", si
+            targets = np.minimum(np.array(si), cap_net)
+        else:
+            asked_values = [_named(n["percent"], _percent_value, v)
+                            for v in _named(n["percent"], _items, percent)]
+            if not asked_values:
+                raise RevolveError("give at least one percentage", option=n["percent"])
+            asked_key = "percent_asked"
+            targets = np.array(asked_values) / 100.0 * cap_net
+        if not corrected:
+            lv = engine.inverse(targets / metre ** 3)
+        else:
+            lv = _solve_levels(engine, lambda h: net(h * metre, engine.forward(h)[0] * metre ** 3),
+                               targets)
+    volume, error, wetted = engine.forward(lv)
+    levels_si = np.asarray(lv) * metre
+    geometric = np.asarray(volume) * metre ** 3
+    net_volume = net(levels_si, geometric)
+    capacity_geometric = space.capacity * metre ** 3
+    capacity = float(net([engine.high * metre], [capacity_geometric])[0])
+    fmt = gauge["level_format"]
+    feet_inches = fmt == "feet-inches" or (fmt == "auto" and lu in ("in", "ft"))
+    denominator = _feet_inches_denominator(
+        step_lu * level_factor / 0.0254 if step_lu is not None else None)
+    increments = gauging.per_increment(net_volume) if mode == "step" else None
+    dead = deducted(levels_si)
+
+    # -- uncertainty (GUM) -------------------------------------------------------------------
+    spread = None
+    if uncertainty is not None:
+        spread = _named(n["uncertainty"], _uncertainty, uncertainty, space, metre, tilt,
+                        gp, levels_si, net, capacity_geometric)
+
     rows = []
-    for k in range(len(table)):
+    for k in range(len(levels_si)):
         row = {} if asked_key is None else {asked_key: float(asked_values[k])}
-        row.update(level=float(table.level[k]) * metre,
-                   volume=float(table.volume[k]) * metre ** 3,
-                   percent=snapped(float(table.percent[k])),
-                   wetted_area=float(table.wetted_area[k]) * metre ** 2,
-                   volume_error=float(table.error[k]) * metre ** 3)
+        level_si = float(levels_si[k])
+        innage_si = level_si - datum * level_factor
+        if reading != "level":
+            row["innage"] = innage_si
+        if H is not None and mode != "ullage":
+            row["ullage"] = H * level_factor - innage_si
+        row["level"] = level_si
+        if feet_inches:
+            text_of = {"level": level_si, "innage": innage_si,
+                       "ullage": row.get("ullage")}[reading]
+            row[f"{reading}_text"] = gauging.format_feet_inches(text_of / 0.0254, denominator)
+        row["volume"] = float(net_volume[k])
+        if items:
+            row["vessel_volume"] = float(geometric[k])
+            row["deducted"] = float(dead[k])
+        row["percent"] = snapped(100.0 * float(net_volume[k]) / capacity) if capacity else 0.0
+        if increments is not None:
+            row["increment"] = None if k == len(levels_si) - 1 else float(increments[k])
+        row["wetted_area"] = float(wetted[k]) * metre ** 2
+        row["volume_error"] = float(error[k]) * metre ** 3 * factor
+        if spread is not None:
+            row["volume_uncertainty"] = float(spread.standard_uncertainty[k + 1])
+            row["largest_contributor"] = (spread.largest[k + 1][0] if spread.largest[k + 1]
+                                          else "none")
         rows.append(row)
-    fields = ((Field("volume_asked", "volume asked", "capacity"),
-               Field("percent_asked", "asked", style="percent")) if asked_key else ()) + (
-        Field("level", "level", "level"), Field("volume", "volume", "capacity"),
-        Field("percent", "full", style="percent"),
-        Field("wetted_area", "wetted area", "area"),
-        Field("volume_error", "error estimate", "capacity", digits=2))
-    figures = {"capacity": space.capacity * metre ** 3,
-               "full_level": space.height * metre,
+    fields = ()
+    if asked_key == "volume_asked":
+        fields += (Field("volume_asked", "volume asked", "capacity"),)
+    elif asked_key == "percent_asked":
+        fields += (Field("percent_asked", "asked", style="percent"),)
+    if mode == "ullage":
+        fields += (Field("ullage", "ullage (given)", "level"),)
+    if reading != "level":
+        fields += (Field("innage", "innage" + (" (given)" if mode == "at" else ""), "level"),)
+    if H is not None and mode != "ullage":
+        fields += (Field("ullage", "ullage", "level"),)
+    fields += (Field("level", "level", "level"),)
+    if feet_inches:
+        fields += (Field(f"{reading}_text", f"{reading} (ft in)", style="text"),)
+    fields += (Field("volume", "volume", "capacity"),)
+    if items:
+        fields += (Field("vessel_volume", "vessel volume", "capacity"),
+                   Field("deducted", "deducted", "capacity"))
+    fields += (Field("percent", "full", style="percent"),)
+    if increments is not None:
+        fields += (Field("increment", "to next row", "capacity"),)
+    fields += (Field("wetted_area", "wetted area", "area"),
+               Field("volume_error", "error estimate", "capacity", digits=2))
+    if spread is not None:
+        fields += (Field("volume_uncertainty", "u", "capacity", digits=2),
+                   Field("largest_contributor", "main input", style="text"))
+
+    figures = {"capacity": capacity, "full_level": engine.high * metre,
                "inside_area": space.inside_area * metre ** 2}
-    figure_fields = [Field("capacity", "capacity", "capacity"),
-                     Field("full_level", "full level", "level"),
-                     Field("inside_area", "inside surface", "area")]
+    figure_fields = [Field("capacity", "capacity", "capacity")]
+    if corrected:
+        figures["vessel_capacity"] = capacity_geometric
+        figure_fields.append(Field("vessel_capacity", "vessel capacity (geometry)", "capacity"))
+    if items:
+        figures["deducted_full"] = float(deducted([engine.high * metre])[0])
+        figure_fields.append(Field("deducted_full", "deducted when full (deadwood − fittings)",
+                                   "capacity"))
+    if shell is not None:
+        figures["shell_factor"] = shell.factor
+        figure_fields.append(Field("shell_factor", "shell temperature factor CTSh", digits=9))
+    if spread is not None:
+        figures["capacity_uncertainty"] = float(spread.standard_uncertainty[0])
+        figure_fields.append(Field("capacity_uncertainty", "capacity's standard uncertainty",
+                                   "capacity", digits=2))
+    figure_fields.append(Field("full_level", "full level", "level"))
+    if tilt is not None or gp is not None:
+        figures["empty_level"] = engine.low * metre
+        figure_fields.append(Field("empty_level", "empty level (at the gauge point)", "level"))
+    figure_fields.append(Field("inside_area", "inside surface", "area"))
     if space.orientation == "horizontal":
         figures["axis_height"] = space.r_max * metre
         figure_fields.append(Field("axis_height", "axis above the lowest inside point", "level"))
+    if datum_offset is not None:
+        figures["datum_offset"] = datum * level_factor
+        figure_fields.append(Field("datum_offset", "datum plate above the lowest inside point",
+                                   "level"))
+    if H is not None:
+        figures["reference_height"] = H * level_factor
+        figure_fields.append(Field("reference_height", "reference point above the datum plate",
+                                   "level"))
     name = doc.profile.name or doc.file or "liquid space"
     if space.orientation == "vertical":
         how = ("vertical: the axis upright (its direction up); level = height of the liquid "
@@ -802,21 +1083,177 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
     notes = [f"{how} ({said})",
              f"capacity by Pappus–Guldinus; the washer cross-check differs by "
              f"{space.capacity_crosscheck:.1e} (relative)"]
-    if space.orientation == "vertical":
+    check = space.capacity_crosscheck
+    crosscheck = {"capacity_difference": check, "tolerance": tolerance,
+                  "agrees": bool(check <= tolerance)}
+    cap_profile = space.capacity
+    if tilt is not None or gp is not None:
+        notes[0] = _gauge_note(space.orientation, tilt, engine, metre, shown, said)
+    if tilt is not None:
+        worst = float(np.max(error)) / cap_profile if cap_profile and len(error) else 0.0
+        notes.append("volumes: chords of the tilted liquid plane integrated along the wall "
+                     f"(Gauss–Legendre); largest error estimate {worst:.1e} of the capacity")
+        pick = np.unique(np.linspace(0, len(lv) - 1, min(len(lv), gauge_table.CROSSCHECK_ROWS))
+                         .round().astype(int))
+        second = engine.crosscheck(np.asarray(lv)[pick])
+        diff = float(np.max(np.abs(second - np.asarray(volume)[pick]))) / cap_profile
+        notes.append(f"tilted cross-check (chord sums over the slices, no shared formula) at "
+                     f"{pick.size} rows: largest difference {diff:.1e} of the capacity (allowed "
+                     f"{gauge_table.CROSSCHECK_BOUND:g})")
+        crosscheck.update(tilted_difference=diff, tilted_rows=int(pick.size),
+                          tilted_bound=gauge_table.CROSSCHECK_BOUND)
+        crosscheck["agrees"] = bool(crosscheck["agrees"] and diff <= gauge_table.CROSSCHECK_BOUND)
+    elif space.orientation == "vertical":
         notes.append("volumes: the section clipped at each level, Pappus–Guldinus (exact)")
     else:
-        worst = float(table.error.max()) / space.capacity if space.capacity and len(table) else 0.0
+        worst = float(np.max(error)) / cap_profile if cap_profile and len(error) else 0.0
         notes.append("volumes: wetted circular segments integrated along the axis; largest "
                      f"error estimate {worst:.1e} of the capacity")
-    check = space.capacity_crosscheck
+    if reading != "level":
+        text = (f"readings: innage = level − {datum:g} {lu} (the datum plate above the lowest "
+                "inside point)" if datum_offset is not None else
+                "readings: innage = level (the datum plate at the lowest inside point)")
+        if H is not None:
+            text += f"; ullage = {H:g} {lu} (the reference point above the datum plate) − innage"
+        notes.append(text)
+    if items:
+        listed = "; ".join(
+            f"{it.name} ({'fitting, adds' if it.fitting else 'deadwood'}, "
+            f"{shown.show(it.volume, 'capacity'):.6g} {shown.unit('capacity')})" for it in items)
+        notes.append(f"deducted: deadwood minus fittings below each level: {listed}")
+        if tilt is not None:
+            notes.append("deadwood and fittings are taken by depth above the lowest wet point, "
+                         "as in a level vessel")
+    if shell is not None:
+        notes.append(shell.statement() + " (temperatures in °C); volumes = CTSh × (vessel "
+                     "volume − deducted)")
+        if space.orientation != "vertical":
+            notes.append("the standard states CTSh for upright cylindrical tanks; here it is the "
+                         "same areal growth (1 + αΔT)² applied to a lying vessel (geometry)")
+    if spread is not None:
+        notes.append(f"uncertainty u: the standard uncertainty of each volume, main input: its "
+                     f"largest contributor; {gauging.GUM_METHOD}")
+        cap_u = shown.show(float(spread.standard_uncertainty[0]), "capacity")
+        shares = spread.shares(0)
+        named = ", ".join(f"{gauge_table.UNCERTAIN_INPUTS[k]} {100 * v:.0f} %"
+                          for k, v in shares.items()) or "none"
+        notes.append(f"capacity's standard uncertainty {cap_u:.3g} {shown.unit('capacity')}; "
+                     f"largest contributors (share of the variance): {named}")
+        notes.append("tolerances: " + "; ".join(
+            f"{gauge_table.UNCERTAIN_INPUTS[k]} u = {v:.4g} "
+            f"{'°' if k == 'tilt' else 'm'}" for k, v in spread.inputs.items()))
+    cautions = ("vessel",)
+    if tilt is not None or shell is not None or spread is not None:
+        cautions += (gauging.CALIBRATION_CAUTION,)
     extra = {"profile": {"file": doc.file, "name": doc.profile.name, "unit": unit},
              "orientation": space.orientation,
              "orientation_from": "file" if from_file else "asked",
-             "crosscheck": {"capacity_difference": check, "tolerance": tolerance,
-                            "agrees": bool(check <= tolerance)}}
+             "crosscheck": crosscheck}
+    if tilt is not None or gp is not None or reading != "level":
+        extra["gauge"] = {"tilt_degrees": tilt, "reading": reading,
+                          "gauge_point": None if gp is None else gp * metre}
     inputs = {"profile": doc.file if doc.file else name, "orientation": asked_from,
               "rows_by": mode}
+    def as_text(value):
+        return None if value is None else f"{value:.12g} {lu}"
+
+    for key, value in (("tilt", tilt),
+                       ("gauge_point", None if gp is None else as_text(gp / level_in_profile)),
+                       ("reference_height", as_text(H)),
+                       ("datum_offset", None if datum_offset is None else as_text(datum)),
+                       ("deadwood", deadwood if isinstance(deadwood, str) else
+                        (None if deadwood is None else f"{len(items)} items")),
+                       ("shell_temperature", None if shell is None else str(shell_temperature)),
+                       ("base_temperature", None if shell is None else str(base_temperature)),
+                       ("shell_material", None if shell_material is None else str(shell_material)),
+                       ("expansion", None if expansion is None else str(expansion)),
+                       ("uncertainty", uncertainty if isinstance(uncertainty, str) else
+                        (None if uncertainty is None else "given"))):
+        if value is not None:
+            inputs[key] = value if isinstance(value, (int, float, str)) else str(value)
+    title = "Gauge table" if reading != "level" or tilt is not None else "Level table"
+    outline = _outline(space, engine, metre, level_factor)
     return LevelResult("levels", shown, inputs,
-               (Table("space", name, tuple(figure_fields), rows_of([figures]), figures=True),
-                Table("levels", "Level table", fields, rows_of(rows))),
-               tuple(notes), ("vessel",), extra)
+                       (Table("space", name, tuple(figure_fields), rows_of([figures]),
+                              figures=True),
+                        Table("levels", title, fields, rows_of(rows))),
+                       tuple(notes), cautions, extra, outline=outline)
+
+
+def _gauge_note(orientation, tilt, engine, metre, shown, said) -> str:
+    lu = shown.unit("level")
+    if engine.gauge_z is None:
+        where = ("the middle of the length" if orientation == "horizontal" else
+                 "the lowest point on the axis")
+    else:
+        along = shown.show((engine.gauge_z - engine.pieces.z_min) * metre, "level")
+        where = f"{along:.6g} {lu} along the axis from its start"
+    where = "gauge point: " + where
+    if orientation == "horizontal":
+        text = ("horizontal: level = plumb height of the liquid surface above the bottom line "
+                "at the gauge point")
+        if tilt is not None:
+            text += f"; tilt {tilt:g}° (positive: the end the axis points to raised)"
+    else:
+        text = ("vertical: level = plumb height of the liquid surface above the axis at the "
+                "gauge point")
+        if tilt is not None:
+            text += f"; leaning {abs(tilt):g}° (the direction of lean does not change a volume)"
+    return f"{text}; {where} ({said})"
+
+
+def _solve_levels(engine, forward_net, targets) -> np.ndarray:
+    """Levels (profile units) where the monotone ``forward_net`` reaches each target (m³)."""
+    from scipy.optimize import brentq
+
+    grid = np.linspace(engine.low, engine.high, 65)
+    gv = np.maximum.accumulate(forward_net(grid))
+    out = np.empty(len(targets))
+    for i, t in enumerate(targets):
+        k = int(np.clip(np.searchsorted(gv, t, side="left"), 1, grid.size - 1))
+        a, b = grid[k - 1], grid[k]
+        fa, fb = gv[k - 1] - t, gv[k] - t
+        if fa >= 0:
+            out[i] = a
+        elif fb <= 0:
+            out[i] = b
+        else:
+            out[i] = brentq(lambda h: float(forward_net(np.array([h]))[0]) - t, a, b,
+                            xtol=1e-13 * max(engine.high - engine.low, 1e-300), rtol=1e-15)
+    return out
+
+
+def _uncertainty(source, space, metre, tilt, gauge_point, levels_si, net, capacity_si):
+    """The GUM combination for a table (capacity first, then each row)."""
+    from revolve import units as registry
+    from revolve.jobs import gauge_table, gauging
+
+    dims, tolerances = gauge_table.read_uncertainty(source)
+    if dims is not None:
+        built = dims.space(space.orientation)
+        cap = built.capacity * registry.factor(built.profile.unit, "length") ** 3
+        if abs(cap - capacity_si) > 1e-9 * capacity_si:
+            where = f"{source}: " if isinstance(source, (str, os.PathLike)) else ""
+            raise RevolveError(f"{where}the vessel in [vessel] holds {cap:.6g} m³, the profile "
+                               f"{capacity_si:.6g} m³; describe the vessel the profile was built "
+                               "from (revolve vessel's diameter, length and heads)")
+    model, values = gauge_table.uncertainty_model(dims, space, tilt=tilt, gauge_point=gauge_point,
+                                                  levels_si=levels_si, net=net)
+    return gauging.combined_uncertainty(model, values, tolerances)
+
+
+def _outline(space, engine, metre, level_factor):
+    """The vessel's outline for the picture: (levels, radii) in the level unit, and marks."""
+    pc = engine.pieces
+    if space.orientation == "vertical":
+        u = np.linspace(0.0, 1.0, 33)
+        p = pc.pa[:, None] + (pc.pb - pc.pa)[:, None] * u[None, :]
+        z, r, _, _ = pc.geometry(np.arange(len(pc)), p)
+        ref = pc.z_min + engine.shift if engine.tilt is None else (
+            engine.gauge_z if engine.gauge_z is not None else pc.z_min)
+        level = (z.ravel() - ref) * metre / level_factor
+        return level, r.ravel() * metre / level_factor, "section"
+    t = np.linspace(0.0, math.pi, 181)
+    a = math.cos(math.radians(engine.tilt)) if engine.tilt else 1.0
+    R = space.r_max * metre / level_factor
+    return a * R * (1 - np.cos(t)), R * np.sin(t), "end view"

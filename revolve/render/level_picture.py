@@ -22,7 +22,7 @@ from typing import Optional, Sequence, Tuple
 
 import numpy as np
 
-__all__ = ["level_picture", "label_boxes"]
+__all__ = ["level_picture", "picture_of", "label_boxes"]
 
 VOLUME_COLOUR = "#1f77b4"
 AREA_COLOUR = "#d62728"
@@ -42,7 +42,7 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
                   area_unit: Optional[str] = None, capacity: Optional[float] = None,
                   profile: Optional[Tuple[Sequence[float], Sequence[float]]] = None,
                   marks: Sequence[Tuple[float, str]] = (), title: Optional[str] = None,
-                  size: Tuple[float, float] = (7.5, 4.8)):
+                  size: Tuple[float, float] = (7.5, 4.8), profile_title: str = "vessel"):
     """A matplotlib Figure of a level table, values already in their display units.
 
     Parameters
@@ -63,6 +63,8 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         Horizontal marks (the heads' tangent lines), drawn across both panels.
     title : str, optional
         Wrapped to fit the canvas.
+    profile_title : str
+        The vessel panel's title ("vessel"; "end view" for a lying vessel's circle).
 
     Examples
     --------
@@ -143,7 +145,7 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         side.set_xlabel(f"radius ({level_unit})")
         _ticks(side.xaxis)
         side.tick_params(axis="x", labelsize=8)
-        side.set_title("vessel", fontsize=9)
+        side.set_title(profile_title, fontsize=9)
         chart.tick_params(axis="y", labelleft=False)
     else:
         chart.set_ylabel(level_label)
@@ -166,6 +168,49 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
     _separate(fig, mark_texts)
     return fig
 
+
+
+def picture_of(result, title: Optional[str] = None):
+    """The picture of a :class:`~revolve.jobs.levels.LevelResult`: its rows, its vessel, its marks.
+
+    Volumes are the table's (after deadwood and the shell factor); marks are
+    the datum plate and the reference point where the table has them, and
+    the empty level of a tilted table.
+
+    >>> from revolve.geometry.profile import Chain, Profile
+    >>> from revolve.jobs.levels import level_table
+    >>> drum = Profile(chains=(Chain.from_points([(0, 0), (500, 0), (500, 2000), (0, 2000)]),),
+    ...                unit="mm")
+    >>> fig = picture_of(level_table(drum, orientation="vertical", axis="y", count=4,
+    ...                              datum_offset="50 mm"))
+    >>> fig.axes[1].get_xlabel(), [t.get_text() for t in fig.axes[1].texts]
+    ('volume (L)', ['datum plate, 50 mm'])
+    """
+    rows = result.rows
+    units = result.units
+    space = result.table("space").json(units)
+    levels = [r["level"] for r in rows]
+    volumes = [r["volume"] for r in rows]
+    areas = [r["wetted_area"] for r in rows]
+    marks = []
+    if "datum_offset" in space:
+        marks.append((space["datum_offset"], "datum plate"))
+        if "reference_height" in space:
+            marks.append((space["datum_offset"] + space["reference_height"], "reference point"))
+    if "empty_level" in space and abs(space["empty_level"]) > 0:
+        marks.append((space["empty_level"], "empty"))
+    outline = getattr(result, "outline", None)
+    profile, profile_title = None, "vessel"
+    if outline is not None:
+        profile = (outline[0], outline[1])
+        profile_title = "vessel" if outline[2] == "section" else "end view"
+    order = sorted(range(len(levels)), key=lambda k: levels[k])
+    return level_picture([levels[k] for k in order], [volumes[k] for k in order],
+                         [areas[k] for k in order], level_unit=units.unit("level"),
+                         volume_unit=units.unit("capacity"), area_unit=units.unit("area"),
+                         capacity=space.get("capacity"), profile=profile, marks=marks,
+                         title=title or result.table("space").title,
+                         profile_title=profile_title)
 
 def _number(value: float) -> str:
     from revolve.render import numbers

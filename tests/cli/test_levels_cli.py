@@ -428,11 +428,12 @@ _UNITS = st.sampled_from(["", " in", " mm", " ft", " cm", " kg", " L", "in", " f
 
 
 @settings(max_examples=40, deadline=None)
-@given(option=st.sampled_from(["--step", "--at"]),
+@given(option=st.sampled_from(["--step", "--at", "--ullage"]),
        items=st.lists(st.tuples(_AMOUNTS, _UNITS), min_size=1, max_size=3))
 @example(option="--step", items=[("1/8", " in")])
 @example(option="--at", items=[("3 1/2", " in"), ("254", " mm")])
 @example(option="--at", items=[("1/0", " in")])
+@example(option="--ullage", items=[("3 1/2", " in"), ("30", " in")])
 def test_generated_levels_options(tmp_path_factory, option, items):
     import contextlib
     import io
@@ -445,7 +446,8 @@ def test_generated_levels_options(tmp_path_factory, option, items):
     with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
         with pytest.raises(SystemExit) as stop:
             main(["levels", path, option, value, "--level-unit", "in", "--volume-unit", "in^3",
-                  "--csv", str(out_csv), "--json"])
+                  "--csv", str(out_csv), "--json",
+                  *(["--reference-height", "2 ft"] if option == "--ullage" else [])])
     if stop.value.code == 2:
         (line,) = err.getvalue().strip().splitlines()
         assert line.startswith(f"revolve: error: {option}: ") and "Traceback" not in line
@@ -458,3 +460,408 @@ def test_generated_levels_options(tmp_path_factory, option, items):
         assert 0 <= r["level"] <= 24 * (1 + 1e-15)
         assert r["volume"] == pytest.approx(math.pi * 100 * r["level"], rel=1e-13, abs=1e-9)
     assert out_csv.exists()
+
+
+# -- gauge tables (issue 13): tilt, readings, increments, deadwood, temperature, uncertainty ----
+
+DIESEL = ROOT / "profiles" / "vessel-diesel-day-tank.toml"
+DEADWOOD = ROOT / "examples" / "deadwood-diesel-day-tank.toml"
+UNCERTAINTY = ROOT / "examples" / "uncertainty-diesel-day-tank.toml"
+
+
+def _json(args, capsys):
+    code, out, err = run(["levels", *args, "--json"], capsys)
+    assert code == 0, err
+    return json.loads(out)
+
+
+@pytest.mark.parametrize("tilt", [-3.0, 1.5, 4.0])
+def test_tilted_table_against_scipy_quad_of_circular_segments(tmp_path, capsys, tilt):
+    # CHECKS.md "tilted horizontal cylinder, flat ends": V = ∫ A_seg(d(s)) ds with
+    # d(s) = h/cos α − s tan α (s along the axis from the gauge point at mid-length);
+    # A_seg: CRC circular segment (from memory); integrated with scipy.integrate.quad
+    from scipy.integrate import quad
+
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    d = _json([path, "--orientation", "horizontal", "--tilt", str(tilt), "--count", "6",
+               "--volume-unit", "mm^3"], capsys)
+    a = math.radians(tilt)
+    R, L = 500.0, 2000.0
+
+    def area(depth):
+        depth = min(max(depth, 0.0), 2 * R)
+        return segment(R, depth) if depth < 2 * R else math.pi * R * R
+
+    for row in d["levels"]:
+        h = row["level"]
+        ref = quad(lambda s: area(h / math.cos(a) - s * math.tan(a)), -L / 2, L / 2,
+                   limit=200, epsabs=1e-6, epsrel=1e-12)[0]
+        assert row["volume"] == pytest.approx(ref, rel=1e-9, abs=1e-9 * math.pi * R * R * L)
+    assert d["crosscheck"]["agrees"] and d["crosscheck"]["tilted_difference"] < 1e-4
+    assert d["gauge"]["tilt_degrees"] == tilt
+    assert gauging_caution() in d["cautions"]
+
+
+def gauging_caution():
+    from revolve.jobs.gauging import CALIBRATION_CAUTION
+
+    return CALIBRATION_CAUTION
+
+
+@pytest.mark.parametrize("path,orientation", [(DIESEL, "horizontal"),
+                                              (ROOT / "profiles" / "vessel-brew-kettle.toml",
+                                               "vertical")])
+def test_tilt_through_the_command_is_tilted_levels_and_zero_is_the_level_table(path, orientation,
+                                                                               capsys):
+    # the command against the tilted engine called directly, and --tilt 0 against the untilted
+    # table (clipping / horizontal segments, checked against CRC formulas in tests/jobs)
+    from revolve.formats import load_profile
+    from revolve.geometry.tilted import tilted_levels
+    from revolve.jobs.levels import liquid_space
+
+    doc = load_profile(str(path))
+    space = liquid_space(doc.profile, doc.axis, orientation=orientation)
+    tilted = _json([str(path), "--orientation", orientation, "--tilt", "2.5", "--count", "8",
+                    "--level-unit", doc.profile.unit, "--volume-unit", f"{doc.profile.unit}^3"],
+                   capsys)
+    levels = [r["level"] for r in tilted["levels"]]
+    v = tilted_levels(space.prepared, levels, 2.5, orientation)[0]
+    assert [r["volume"] for r in tilted["levels"]] == pytest.approx(list(v), rel=1e-12, abs=1e-9)
+    level = _json([str(path), "--orientation", orientation, "--count", "8"], capsys)
+    zero = _json([str(path), "--orientation", orientation, "--count", "8", "--tilt", "0"],
+                 capsys)
+    assert [r["level"] for r in zero["levels"]] == pytest.approx(
+        [r["level"] for r in level["levels"]], abs=1e-9)
+    cap = level["space"]["capacity"]
+    for a, b in zip(zero["levels"], level["levels"]):
+        assert a["volume"] == pytest.approx(b["volume"], abs=1e-9 * cap)
+
+
+def test_tilted_inverse_lookups_give_back_their_volumes(capsys):
+    # the level found for a volume holds that volume (scipy brentq on the tilted table)
+    d = _json([str(DIESEL), "--tilt", "-2", "--volume", "100 L,1500 L,3000 L"], capsys)
+    assert [r["volume"] for r in d["levels"]] == pytest.approx([100, 1500, 3000], rel=1e-9)
+    p = _json([str(DIESEL), "--tilt", "-2", "--percent", "50"], capsys)
+    assert p["levels"][0]["percent"] == pytest.approx(50.0, rel=1e-9)
+    level = _json([str(DIESEL), "--percent", "50"], capsys)
+    assert p["levels"][0]["level"] != pytest.approx(level["levels"][0]["level"], abs=1e-3)
+
+
+def test_ullage_is_at_reference_height_minus_ullage_and_round_trips(tmp_path, capsys):
+    # innage = H − ullage, level = innage + datum offset (the definitions of the gauge datum,
+    # common practice, no source); volumes: CRC cylinder π r² h
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    by_ullage = _json([path, "--reference-height", "2 ft", "--datum-offset", "1/2 in",
+                       "--ullage", "1 ft,3 1/4 in,20 in", "--volume-unit", "in^3"], capsys)
+    by_innage = _json([path, "--reference-height", "2 ft", "--datum-offset", "1/2 in",
+                       "--at", "12 in,20 3/4 in,4 in", "--volume-unit", "in^3"], capsys)
+    for u, i, given in zip(by_ullage["levels"], by_innage["levels"], (12, 3.25, 20)):
+        assert u["ullage"] == pytest.approx(given, abs=1e-12)
+        assert u["innage"] == pytest.approx(24 - given, abs=1e-12)
+        assert u["level"] == pytest.approx(24 - given + 0.5, abs=1e-12)
+        assert i["ullage"] == pytest.approx(u["ullage"], abs=1e-12)     # and back
+        assert u["volume"] == pytest.approx(i["volume"], rel=1e-14)
+        assert u["volume"] == pytest.approx(math.pi * 100 * u["level"], rel=1e-13)
+    assert by_ullage["gauge"]["reading"] == "ullage"
+    assert by_ullage["space"]["reference_height"] == 24
+    assert by_ullage["space"]["datum_offset"] == 0.5
+
+
+def test_increments_sum_to_the_capacity_and_each_is_a_slice(tmp_path, capsys):
+    # CRC: cylinder π r² h; the increments of a table from empty to full add up to the capacity
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    d = _json([path, "--step", "1/8 in", "--volume-unit", "in^3"], capsys)
+    rows = d["levels"]
+    inc = [r["increment"] for r in rows]
+    assert inc[-1] is None
+    assert math.fsum(inc[:-1]) == pytest.approx(d["space"]["capacity"], rel=1e-13)
+    assert inc[:-1] == pytest.approx([math.pi * 100 / 8] * 192, rel=1e-12)
+    # a partial last increment, in mm on a lying vessel: 1 cm steps
+    lying = write(tmp_path, "lying.toml", LYING_MM)
+    d = _json([lying, "--orientation", "horizontal", "--step", "3 cm", "--volume-unit", "mm^3"],
+              capsys)
+    rows = d["levels"]
+    assert rows[-1]["level"] == 1000 and rows[-2]["level"] == 990
+    assert math.fsum(r["increment"] for r in rows[:-1]) == pytest.approx(
+        2000 * math.pi * 500 ** 2, rel=1e-12)
+
+
+def test_levels_in_feet_inches_and_fractions(tmp_path, capsys):
+    # text that reads back (revolve.inputs.parse_length) to the level, to the nearest 1/16 in
+    from revolve.inputs import parse_length
+
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    d = _json([path, "--at", "1' 4 1/8\"", "--at", "0.3 in"], capsys)
+    texts = [r["level_text"] for r in d["levels"]]
+    assert texts == ['1\' 4 1/8"', '0\' 0 5/16"']
+    for r in d["levels"]:
+        assert parse_length(r["level_text"]).value == pytest.approx(r["level"], abs=1 / 32)
+    step = _json([path, "--step", "1/64 in"], capsys)
+    assert step["levels"][1]["level_text"] == '0\' 0 1/64"'
+    plain = _json([path, "--at", "3 in", "--level-format", "decimal"], capsys)
+    assert "level_text" not in plain["levels"][0]
+    mm = _json([path, "--at", "3 in", "--level-unit", "mm"], capsys)
+    assert "level_text" not in mm["levels"][0]
+    forced = _json([path, "--at", "3 in", "--level-unit", "mm", "--level-format", "feet-inches"],
+                   capsys)
+    assert forced["levels"][0]["level_text"] == '0\' 3"'
+
+
+def test_shell_temperature_factor_against_its_formula(tmp_path, capsys):
+    # CTSh = 1 + 2αΔT + α²ΔT² (API MPMS ch. 12.1.1, from memory); α = 6.2e-6 /°F
+    path = write(tmp_path, "drum.toml", DRUM_IN)
+    plain = _json([path, "--count", "4"], capsys)
+    hot = _json([path, "--count", "4", "--shell-temperature", "95 °F", "--base-temperature",
+                 "60 °F", "--expansion", "6.2e-6 /°F"], capsys)
+    alpha, dT = 6.2e-6, 35.0          # per °F and °F: αΔT has no unit
+    factor = 1 + 2 * alpha * dT + (alpha * dT) ** 2
+    assert hot["space"]["shell_factor"] == pytest.approx(factor, rel=1e-14)
+    for a, b in zip(hot["levels"], plain["levels"]):
+        assert a["volume"] == pytest.approx(factor * b["volume"], rel=1e-14)
+    assert any("CTSh = 1 + 2αΔT + α²ΔT²" in n and "API MPMS" in n for n in hot["notes"])
+    assert gauging_caution() in hot["cautions"]
+    steel = _json([path, "--count", "1", "--shell-temperature", "35 degC",
+                   "--base-temperature", "15 °C", "--shell-material", "carbon steel"], capsys)
+    # carbon steel about 12e-6 /K (common practice, no source); the table's figure 11.16e-6
+    alpha_steel = (steel["space"]["shell_factor"] - 1) / (2 * 20)     # first order in αΔT
+    assert alpha_steel == pytest.approx(12e-6, rel=0.1)
+
+
+def test_deadwood_example_deducts_each_item(capsys):
+    # spread items: the volume times the share of their range below the level (the definition);
+    # the heater tube: a horizontal cylinder r = 30 mm, 2 m long, on the axis: 2 m × the CRC
+    # circular segment of the depth above its bottom (570 mm above the lowest inside point)
+    plain = _json([str(DIESEL), "--at", "100 mm,600 mm,1100 mm", "--volume-unit", "m^3"], capsys)
+    d = _json([str(DIESEL), "--at", "100 mm,600 mm,1100 mm", "--volume-unit", "m^3",
+               "--deadwood", str(DEADWOOD)], capsys)
+
+    def spread(v, lo, hi, h):
+        return v * min(max((h - lo) / (hi - lo), 0.0), 1.0)
+
+    for row, base, h in zip(d["levels"], plain["levels"], (100, 600, 1100)):
+        tube = 2.0 * segment(0.03, min(max((h - 570) / 1000, 0.0), 0.06)) if h > 570 else 0.0
+        expected = (spread(2.4e-3, 30, 1200, h) + spread(0.9e-3, 150, 900, h) - 3.5e-3 + tube)
+        assert row["deducted"] == pytest.approx(expected, rel=1e-9, abs=1e-12)
+        assert row["volume"] == pytest.approx(base["volume"] - expected, rel=1e-12)
+        assert row["vessel_volume"] == pytest.approx(base["volume"], rel=1e-14)
+
+
+def test_gum_uncertainty_of_the_example_and_its_largest_contributor(capsys):
+    # JCGM 100:2008 5.1.2 with the derivatives by hand: V = π D² L/4 + π D³/12 (2:1 heads,
+    # CRC/common practice); ∂V/∂D = π D L/2 + π D²/4, ∂V/∂L = π D²/4; rectangular u = a/√3,
+    # normal u = a/k (GUM 4.3.7, 4.3.9)
+    d = _json([str(DIESEL), "--count", "4", "--uncertainty", str(UNCERTAINTY),
+               "--volume-unit", "m^3"], capsys)
+    D, L = 1.2, 2.4
+    uD, uL = 0.003 / math.sqrt(3), 0.004 / 2
+    expected = math.hypot((math.pi * D * L / 2 + math.pi * D ** 2 / 4) * uD,
+                          math.pi * D ** 2 / 4 * uL)
+    assert d["space"]["capacity_uncertainty"] == pytest.approx(expected, rel=1e-5)
+    assert d["levels"][-1]["largest_contributor"] == "diameter"
+    assert d["levels"][0]["volume_uncertainty"] < 1e-5 * expected      # empty: next to nothing
+    assert any("JCGM 100:2008" in n for n in d["notes"])
+    assert any("shell diameter" in n and "largest contributors" in n for n in d["notes"])
+
+
+def test_picture_and_report(tmp_path, capsys):
+    from PIL import Image
+
+    picture, report = tmp_path / "t.png", tmp_path / "t.html"
+    code, out, err = run(["levels", str(DIESEL), "--tilt", "1", "--step", "100 mm",
+                          "--datum-offset", "10 mm", "--picture", str(picture),
+                          "--report", str(report)], capsys)
+    assert code == 0, err
+    with Image.open(picture) as im:
+        assert im.format == "PNG" and im.size[0] > 300
+    page = report.read_text(encoding="utf-8")
+    assert page.count("<svg") == 1 and "Gauge table" in page and "innage (mm)" in page
+    assert "accredited body" in page and "http" not in page.split("<svg", 1)[1]
+    svg = tmp_path / "t.svg"
+    code, out, err = run(["levels", str(DIESEL), "--picture", str(svg)], capsys)
+    assert code == 0 and svg.read_text(encoding="utf-8").lstrip().startswith("<?xml")
+
+
+@pytest.mark.parametrize("option,name", [("--picture", "t.png"), ("--report", "t.html"),
+                                         ("--csv", "t.csv")])
+def test_every_file_is_refused_without_force_and_replaced_with_it(tmp_path, capsys, option,
+                                                                  name):
+    target = tmp_path / name
+    target.write_text("previous\n", encoding="utf-8")
+    others = {"--picture": "o.png", "--report": "o.html", "--csv": "o.csv"}
+    extra = [x for o, n in others.items() if o != option for x in (o, str(tmp_path / n))]
+    args = ["levels", str(DIESEL), "--tilt", "1", "--count", "3", option, str(target), *extra]
+    code, out, err = run(args, capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith(f"revolve: error: {option}: ") and "--force" in err
+    assert target.read_text(encoding="utf-8") == "previous\n"
+    assert not any((tmp_path / n).exists() for o, n in others.items() if o != option)
+    code, out, err = run(args + ["--force"], capsys)
+    assert code == 0, err
+    assert target.read_text(encoding="utf-8", errors="replace") != "previous\n"
+
+
+BAD_DEADWOOD = {
+    "unitless.toml": '[[item]]\nname = "coil"\nvolume = 20\nfrom = "0 m"\nto = "1 m"\n',
+    "both.toml": '[[item]]\nname = "coil"\nvolume = "2 L"\nfrom = "0 m"\nto = "1 m"\n'
+                 'profile = "x.toml"\n',
+    "key.toml": '[[item]]\nname = "coil"\nvolumes = "2 L"\n',
+    "empty.toml": 'title = "x"\n',
+    "deep.toml": "x = " + "[" * 40 + "]" * 40 + "\n",
+    "down.toml": '[[item]]\nname = "coil"\nvolume = "2 L"\nfrom = "1 m"\nto = "0.5 m"\n',
+}
+
+
+@pytest.mark.parametrize("args,expected", [
+    (["--tilt", "x"], "--tilt: give the tilt in degrees"),
+    (["--tilt", "50"], "--tilt: a tilt of 50° is more than 45°"),
+    (["--gauge-point", "9 m"], "--gauge-point: the gauge point 9000 is beyond"),
+    (["--gauge-point", "x"], "--gauge-point: 'x' is not a length"),
+    (["--reference-height", "0", "--ullage", "1"], "--reference-height: the reference height must"),
+    (["--ullage", "100 mm"], "--ullage: ullages are read down from the reference point"),
+    (["--reference-height", "1 m", "--ullage", "2 m"], "--ullage: ullage 2000 mm is outside 0"),
+    (["--reference-height", "3 m", "--ullage", "10 mm"], "--ullage: the innage of that ullage,"),
+    (["--datum-offset", "5 kg"], "--datum-offset: 'kg' is a mass unit"),
+    (["--datum-offset", "-50 mm", "--at", "10 mm"],
+     "--at: innage 10 mm is below the lowest inside point (50 mm)"),
+    (["--datum-offset", "2 m", "--at", "0"], "--datum-offset: the datum plate 2000 mm above"),
+    (["--level-format", "roman"], "--level-format: give auto, decimal or feet-inches"),
+    (["--deadwood", "missing.toml"], "--deadwood: missing.toml: no such file"),
+    (["--deadwood", "unitless.toml"], "unitless.toml:1: item 1 (coil): volume: '20' has no unit"),
+    (["--deadwood", "both.toml"], "both.toml:1: item 1 (coil): give either a profile"),
+    (["--deadwood", "key.toml"], "key.toml:1: item 1 (coil): unknown key 'volumes'"),
+    (["--deadwood", "empty.toml"], "empty.toml: unknown key 'title'"),
+    (["--deadwood", "deep.toml"], "deep.toml:1: nesting too large"),
+    (["--deadwood", "down.toml"], "down.toml:1: item 1 (coil): its range runs from 1 m down"),
+    (["--shell-temperature", "35"], "--base-temperature: the shell temperature factor needs"),
+    (["--shell-temperature", "35", "--base-temperature", "15 °C", "--expansion", "1e-5 /K"],
+     "--shell-temperature: '35' has no unit"),
+    (["--shell-temperature", "35 °C", "--base-temperature", "15 °X", "--expansion", "1e-5 /K"],
+     "--base-temperature: '°X' is not a temperature unit"),
+    (["--shell-temperature", "35 °C", "--base-temperature", "15 °C"],
+     "--shell-material: give the shell's material"),
+    (["--shell-temperature", "35 °C", "--base-temperature", "15 °C", "--shell-material",
+      "steel", "--expansion", "1e-5 /K"], "--expansion: give the shell's material"),
+    (["--shell-temperature", "35 °C", "--base-temperature", "15 °C", "--shell-material",
+      "copper"], "--shell-material: no expansion coefficient for 'copper'"),
+    (["--shell-temperature", "35 °C", "--base-temperature", "15 °C", "--expansion", "1e-5"],
+     "--expansion: '1e-5' has no unit"),
+    (["--uncertainty", "missing.toml"], "--uncertainty: missing.toml: no such file"),
+    (["--uncertainty", "nodims.toml"], "--uncertainty: nodims.toml:1: tolerance: diameter: a "
+                                       "tolerance of the diameter needs"),
+    (["--uncertainty", "other.toml"], "--uncertainty: other.toml: the vessel in [vessel] holds"),
+    (["--uncertainty", "badkey.toml"], "--uncertainty: badkey.toml:1: tolerance: no tolerance can"),
+    (["--picture", "t.gif"], "--picture: t.gif: pictures are written as .png or .svg"),
+    (["--report", "nowhere/t.html"], "--report: "),
+])
+def test_bad_gauge_input(tmp_path, capsys, monkeypatch, args, expected):
+    monkeypatch.chdir(tmp_path)
+    for name, text in BAD_DEADWOOD.items():
+        (tmp_path / name).write_text(text, encoding="utf-8")
+    (tmp_path / "nodims.toml").write_text('[tolerance]\ndiameter = "1 mm"\n', encoding="utf-8")
+    (tmp_path / "badkey.toml").write_text('[tolerance]\nwall = "1 mm"\n', encoding="utf-8")
+    (tmp_path / "other.toml").write_text('[vessel]\ndiameter = "1300 mm"\nlength = "2400 mm"\n'
+                                         'head = "ellipsoidal"\n[tolerance]\ndiameter = "1 mm"\n',
+                                         encoding="utf-8")
+    out_csv, picture = tmp_path / "out.csv", tmp_path / "out.png"
+    code, out, err = run(["levels", str(DIESEL), *args, "--csv", str(out_csv),
+                          *([] if "--picture" in args else ["--picture", str(picture)])], capsys)
+    assert code == 2, err
+    lines = err.strip().splitlines()
+    assert len(lines) == 1 and "Traceback" not in err
+    assert lines[0].startswith("revolve: error: ") and expected in lines[0], lines[0]
+    assert out == "" and not out_csv.exists() and not picture.exists()
+
+
+@pytest.mark.parametrize("args,kwargs", [
+    (["--tilt", "1.5", "--gauge-point", "400 mm", "--count", "5"],
+     dict(tilt=1.5, gauge_point="400 mm", count=5)),
+    (["--reference-height", "1300 mm", "--ullage", "200 mm,700 mm", "--datum-offset", "20 mm"],
+     dict(reference_height="1300 mm", ullage="200 mm,700 mm", datum_offset="20 mm")),
+    (["--step", "1/2 ft", "--level-unit", "in"], dict(step="1/2 ft", level_unit="in")),
+    (["--deadwood", str(DEADWOOD), "--percent", "20,80"],
+     dict(deadwood=str(DEADWOOD), percent=[20, 80])),
+    (["--shell-temperature", "30 °C", "--base-temperature", "15 °C", "--shell-material",
+      "stainless 316", "--volume", "1000 L"],
+     dict(shell_temperature="30 °C", base_temperature="15 °C", shell_material="stainless 316",
+          volumes="1000 L")),
+    (["--uncertainty", str(UNCERTAINTY), "--count", "3", "--tilt", "-0.5"],
+     dict(uncertainty=str(UNCERTAINTY), count=3, tilt=-0.5)),
+])
+def test_library_to_dict_equals_the_json_for_gauge_options(args, kwargs, capsys):
+    import revolve
+
+    code, out, err = run(["levels", str(DIESEL), *args, "--json"], capsys)
+    assert code == 0, err
+    library = revolve.level_table(str(DIESEL), **kwargs).to_dict()
+    assert json.loads(json.dumps(library)) == json.loads(out)
+
+
+@pytest.mark.parametrize("tilt", [2.0, -2.0])
+def test_the_sign_of_the_tilt(tmp_path, capsys, tilt):
+    # geometry: a positive tilt raises the end the axis points to, so a gauge at the axis's
+    # start stands at the low end (empty level 0); a negative one makes that end the high one,
+    # whose bottom line is L sin α above the lowest point
+    path = write(tmp_path, "lying.toml", LYING_MM)
+    d = _json([path, "--orientation", "horizontal", "--gauge-point", "0", "--tilt", str(tilt),
+               "--count", "2"], capsys)
+    a = math.radians(abs(tilt))
+    expected = 0.0 if tilt > 0 else -2000 * math.sin(a)
+    assert d["space"]["empty_level"] == pytest.approx(expected, abs=1e-9)
+    assert d["space"]["full_level"] == pytest.approx(
+        1000 * math.cos(a) + (2000 * math.sin(a) if tilt > 0 else 0.0), rel=1e-12)
+
+
+@pytest.mark.parametrize("args", [
+    dict(tilt=1.0, step="100 mm", datum_offset="10 mm", reference_height="1100 mm"),
+    dict(count=4, deadwood=str(DEADWOOD), level_unit="in", volume_unit="US_gallon"),
+])
+def test_the_level_picture_of_a_gauge_table_reads_cleanly(args):
+    # no label overlaps another or leaves the canvas (label_boxes: matplotlib's own extents)
+    import revolve
+    from revolve.render.level_picture import label_boxes, picture_of
+
+    result = revolve.level_table(str(DIESEL), **args)
+    fig = picture_of(result)
+    boxes = label_boxes(fig)
+    texts = [t for t, _ in boxes]
+    assert f"volume ({result.units.unit('capacity')})" in texts and "end view" in texts
+    canvas = fig.bbox
+    for text, box in boxes:
+        assert canvas.x0 - 0.5 <= box.x0 and box.x1 <= canvas.x1 + 0.5, text
+        assert canvas.y0 - 0.5 <= box.y0 and box.y1 <= canvas.y1 + 0.5, text
+    for i, (a, box_a) in enumerate(boxes):
+        for b, box_b in boxes[i + 1:]:
+            assert not box_a.overlaps(box_b), (a, b)
+
+
+from hypothesis import strategies as _st  # noqa: E402
+
+
+@settings(max_examples=25, deadline=None)
+@given(tilt=_st.one_of(_st.floats(-60, 60), _st.sampled_from([0.0, 45.0, -45.0, 45.5])),
+       orientation=_st.sampled_from(["vertical", "horizontal"]),
+       count=_st.integers(1, 12))
+@example(tilt=45.5, orientation="vertical", count=3)
+@example(tilt=-44.9, orientation="horizontal", count=5)
+def test_generated_tilts(tilt, orientation, count):
+    # a bounded, non-decreasing table from empty to the Pappus capacity, or one line naming --tilt
+    import contextlib
+    import io
+
+    out, err = io.StringIO(), io.StringIO()
+    with contextlib.redirect_stdout(out), contextlib.redirect_stderr(err):
+        with pytest.raises(SystemExit) as stop:
+            main(["levels", str(DIESEL), "--orientation", orientation, "--tilt", repr(tilt),
+                  "--count", str(count), "--json"])
+    if abs(tilt) > 45:
+        assert stop.value.code == 2
+        (line,) = err.getvalue().strip().splitlines()
+        assert line.startswith("revolve: error: --tilt: ") and out.getvalue() == ""
+        return
+    assert stop.value.code in (0, None), err.getvalue()
+    d = json.loads(out.getvalue())
+    volumes = [r["volume"] for r in d["levels"]]
+    cap = d["space"]["capacity"]
+    assert volumes[0] == pytest.approx(0.0, abs=1e-9 * cap)
+    assert volumes[-1] == pytest.approx(cap, rel=1e-9)
+    assert all(b >= a - 1e-9 * cap for a, b in zip(volumes, volumes[1:]))

@@ -349,3 +349,24 @@ def test_tilted_tank_with_ellipsoidal_heads_against_scipy_dblquad():
     v = tilted_levels(space.prepared, levels, tilt, "horizontal")[0]
     ref = np.array([volume(h) for h in levels])
     assert np.max(np.abs(v - ref)) <= 1e-12 * space.capacity
+
+
+# -- the empty level of a vessel with dished heads ---------------------------------------------
+
+@pytest.mark.parametrize("tilt", [0.0, 1.5, -7.0, 30.0])
+def test_empty_level_of_a_leaning_vessel_with_a_hemispherical_bottom(tilt):
+    # geometry (sphere, CRC from memory): a hemispherical bottom of radius R whose pole is the
+    # gauge point; leaning by α, its lowest point lies R below the centre, which is R cos α
+    # above the pole: the empty level is -R (1 - cos α), and the full level (the flat top's
+    # highest rim point) is (R + L) cos α + R |sin α| above the pole.
+    from revolve.geometry.segments import Line, arc_from_centre
+
+    R, L = 0.6, 1.5
+    bottom = arc_from_centre((0.0, 0.0), (R, R), (0.0, R), clockwise=False)
+    loop = Loop((bottom, Line((R, R), (R, R + L)), Line((R, R + L), (0.0, R + L)),
+                 Line((0.0, R + L), (0.0, 0.0))))
+    prep = prepare(Profile(loops=(loop,)), Axis.y())
+    lo, hi = tilted_range(prep, tilt, "vertical")
+    a = math.radians(tilt)
+    assert lo == pytest.approx(-R * (1 - math.cos(a)), abs=1e-12)
+    assert hi == pytest.approx((R + L) * math.cos(a) + R * abs(math.sin(a)), rel=1e-12)

@@ -36,7 +36,7 @@ from revolve.jobs.gauging import (CALIBRATION_CAUTION, GUM_METHOD, SHELL_FORMULA
                                   parse_expansion, per_increment, shell_correction,
                                   shell_correction_factor, shell_temperature,
                                   ullage_from_innage)
-from revolve.jobs.levels import level_table, liquid_space
+from revolve.jobs.levels import liquid_space, table_at_levels as level_table
 
 
 def one_line_error(exc_info) -> str:
@@ -372,12 +372,12 @@ def test_cylinder_against_monte_carlo():
 def vessel_model(levels):
     """Capacity and volumes at ``levels`` of an upright vessel built by revolve.jobs.vessel:
     hemispherical bottom, conical top of a given depth (metres)."""
-    from revolve.jobs.vessel import HeadSpec, build_vessel, sketch_profile
+    from revolve.jobs.vessel import HeadSpec, design_vessel, sketch_profile
 
     def model(D, L, depth):
         angle = math.degrees(math.atan2(D / 2, depth))     # half-angle from the axis
-        design = build_vessel(D, L, HeadSpec("hemispherical"),
-                              HeadSpec("conical", angle=angle, knuckle=0.0), unit="m")
+        design = design_vessel(D, L, HeadSpec("hemispherical"),
+                               HeadSpec("conical", angle=angle, knuckle=0.0), unit="m")
         profile, axis = sketch_profile(design, "vertical")
         space = liquid_space(profile, axis, orientation="vertical")
         return np.concatenate([[space.capacity], level_table(space, levels).volume])

@@ -369,7 +369,7 @@ def test_level_table_inverse_by_volume_with_units():
     (dict(volumes="2 m"), "volumes: 'm' is a length unit"),
     (dict(percent=[120]), "percent: 120 % is outside 0 to 100 %"),
     (dict(count=0), "count: the count must be 1 or more"),
-    (dict(step=1, at=2), "at: give one of step, count, at, volumes and percent, not step and at"),
+    (dict(step=1, at=2), "at: give one of step, count, at, ullage, volumes and percent, not step and at"),
     (dict(orientation="sideways"), "orientation: give vertical or horizontal"),
 ])
 def test_level_table_errors_name_the_setting(kwargs, expected):
