@@ -467,7 +467,8 @@ def check_names(names: Sequence[str], known_faces: Iterable[str], option: str,
             close = [lowered[c] for c in difflib.get_close_matches(name.lower(), list(lowered),
                                                                    n=2, cutoff=0.6)]
         hint = (" did you mean " + " or ".join(f'"{c}"' for c in close) + "?") if close else ""
-        raise CoatingError(f'no face or group "{name}";{hint} The faces are '
+        raise CoatingError(f'no face or group "{name}"' + (f";{hint} The" if hint else "; the")
+                           + ' faces are '
                            f"{', '.join(known) or '(none)'}; the groups {', '.join(words)}",
                            file=file, place=option)
 
@@ -1576,13 +1577,14 @@ class CoatedPart:
     chosen: Tuple[Chosen, ...] = ()
 
 
-def _measure(doc, axis, angle, quantity: int, number: int) -> CoatedPart:
+def _measure(doc, axis, angle, quantity: int, number: int,
+             angle_option: str = "--angle") -> CoatedPart:
     """Measure a document once (the engine's :class:`Measurement` and its prepared profile)."""
     from revolve import units
     from revolve.geometry.measure import measure
     from revolve.jobs.measuring import revolution_for
 
-    rev = revolution_for(doc, axis, angle)
+    rev = revolution_for(doc, axis, angle, angle_option=angle_option)
     try:
         m = measure(rev)
     except RevolveError as e:
@@ -2144,7 +2146,8 @@ def run(profiles: Any, *, system: Any = None, dft: Any = None, volume_solids: An
                            currency=currency, film_unit=film_text, bought_as=bought_as,
                            labour_rate=labour_rate)
     counts = _quantities(quantity, len(docs), names["quantity"])
-    parts = [_measure(d, axis, angle, q, i) for i, (d, q) in enumerate(zip(docs, counts), 1)]
+    parts = [_measure(d, axis, angle, q, i, names["angle"])
+             for i, (d, q) in enumerate(zip(docs, counts), 1)]
     include = split_names([faces] if isinstance(faces, str) else faces)
     masked = split_names([mask] if isinstance(mask, str) else mask)
     prepared = split_names([prepare] if isinstance(prepare, str) else prepare)
