@@ -251,9 +251,16 @@ def read_speed(text: Any) -> Optional[float]:
 
     >>> read_speed("3000 rpm"), read_speed(None)
     (50.0, None)
+
+    A pint quantity of rotation per time (``Quantity(3000, "1/min")``) is read in rev/min.
     """
     if text is None:
         return None
+    if hasattr(text, "magnitude") and hasattr(text, "to"):              # a pint quantity
+        try:
+            text = float(text.to("1/min").magnitude)
+        except Exception:                                               # not per time
+            text = str(text)
     t = re.sub(r"\s*(rpm|rev/min|r/min|min\^-1|1/min)\s*$", "", str(text).strip(), flags=re.I)
     try:
         value = float(t) if len(t) < 40 else math.nan
@@ -1132,6 +1139,18 @@ class TurningResult(Result):
     operations, operation_formulas, times, cost (with overhead and price).
 
     The properties give the main figures in SI (m, m³, kg, s) and money.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> pin = Profile(loops=(Loop.from_points([(0, 0), (50, 0), (50, 15), (0, 15)]),), name="pin")
+    >>> r = quote_turning(pin, material="carbon steel")
+    >>> r             # doctest: +ELLIPSIS
+    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle ... min>
+    >>> r.to_dict()["command"], r.cost_per_part is None       # no prices given, no cost
+    ('turn', True)
+    >>> "<table>" in r._repr_html_()
+    True
     """
 
     quote: Any = dc_field(default=None, compare=False)
