@@ -432,3 +432,31 @@ def test_film_thickness_and_speed_take_pint_quantities():
     assert revolve.quote_turning(SHAFT, turning_allowance=ureg.Quantity(0.2, "cm")).to_dict() == \
         revolve.quote_turning(SHAFT, turning_allowance="2 mm").to_dict() == \
         revolve.quote_turning(SHAFT, turning_allowance=2).to_dict()          # bare: mm (metric)
+
+
+def test_readme_job_script_runs_and_agrees_with_closed_forms(tmp_path):
+    text = (ROOT / "README.md").read_text(encoding="utf-8")
+    section = text[text.index("### A vessel and its level table"):]
+    script = re.search(r"```python\n(.*?)```", section, re.S).group(1)
+    printed = re.search(r"prints\n\n```text\n(.*?)```", section, re.S).group(1)
+    run = subprocess.run([PYTHON, "-c", script], cwd=tmp_path, env=ENV, capture_output=True,
+                         text=True)
+    assert run.returncode == 0, run.stderr
+    assert run.stdout == printed
+    assert "build_vessel" in script and "level_table" in script
+    # Closed forms (from memory): a cylinder π/4 D² L; a 2:1 ellipsoidal head of depth D/4 holds
+    # π D³/24, and filled to y from its bottom π (a/b)² (b y² − y³/3) with a = D/2, b = D/4.
+    d, shell = 0.6, 0.8
+    head = math.pi * d ** 3 / 24
+    capacity_l = 1000 * (math.pi / 4 * d ** 2 * shell + 2 * head)
+    assert float(re.search(r"capacity=(\S+) L", run.stdout).group(1)) == \
+        pytest.approx(capacity_l, rel=1e-5)
+    a, b, y = d / 2, d / 4, 0.1
+    rows = dict(re.findall(r"^\s*(\d+) mm\s+(\S+) L$", run.stdout, re.M))
+    in_head = math.pi * (a / b) ** 2 * (b * y ** 2 - y ** 3 / 3)
+    assert float(rows["100"]) == pytest.approx(1000 * in_head, abs=0.005)
+    assert float(rows["200"]) == pytest.approx(1000 * (head + math.pi / 4 * d ** 2 * 0.05),
+                                               abs=0.005)
+    for litres, level in re.findall(r"^(\d+) L at (\S+) mm$", run.stdout, re.M):
+        in_shell = (float(litres) / 1000 - head) / (math.pi / 4 * d ** 2)
+        assert float(level) == pytest.approx(1000 * (b + in_shell), abs=0.05)
