@@ -212,6 +212,15 @@ def test_version_agrees_with_the_command_line():
     run = subprocess.run([PYTHON, "-m", "revolve", "--version"], cwd=ROOT, env=ENV,
                          capture_output=True, text=True)
     assert run.stdout.split()[-1] == revolve.__version__
+    # The package metadata reads the same one place (pyproject: a dynamic version, by attribute).
+    try:
+        import tomllib
+    except ImportError:                         # Python < 3.11
+        import tomli as tomllib
+
+    project = tomllib.loads((ROOT / "pyproject.toml").read_text(encoding="utf-8"))
+    assert "version" not in project["project"] and "version" in project["project"]["dynamic"]
+    assert project["tool"]["setuptools"]["dynamic"]["version"] == {"attr": "revolve.__version__"}
 
 
 def test_importing_and_measuring_lines_and_arcs_stays_light():
