@@ -578,6 +578,21 @@ class LevelResult(Result):
     ``capacity`` is in the capacity unit (``units.unit("capacity")``).
     ``outline`` (not in the JSON) is the vessel drawn for the picture:
     (levels, radii) in the level unit and what it shows.
+
+    Examples
+    --------
+    A standing drum 1 m across and 1 m tall: π/4 · 1² · 1 m³ = 785.398 L,
+    a quarter of it at 250 mm; the empty level holds nothing:
+
+    >>> drum = Profile(loops=(Loop.from_points([(0, 0), (500, 0), (500, 1000), (0, 1000)]),),
+    ...                name="drum")
+    >>> t = level_table(drum, orientation="vertical", axis="y", at="0 mm, 250 mm")
+    >>> t
+    <LevelResult drum: 2 rows, vertical, capacity=785.398 L>
+    >>> [(row["level"], round(row["volume"], 6)) for row in t.rows]
+    [(0.0, 0.0), (250.0, 196.349541)]
+    >>> t.to_dict()["units"]["capacity"], t._repr_html_().startswith("<table>")
+    ('L', True)
     """
 
     outline: Any = field(default=None, compare=False)
