@@ -1266,6 +1266,9 @@ def _outline(space, engine, metre, level_factor):
         z, r, _, _ = pc.geometry(np.arange(len(pc)), p)
         ref = pc.z_min + engine.shift if engine.tilt is None else (
             engine.gauge_z if engine.gauge_z is not None else pc.z_min)
+        # a NaN after each piece: the drawn line breaks there (a coil is not joined to the wall)
+        gap = np.full((z.shape[0], 1), np.nan)
+        z, r = np.hstack([z, gap]), np.hstack([r, gap])
         level = (z.ravel() - ref) * metre / level_factor
         return level, r.ravel() * metre / level_factor, "section"
     t = np.linspace(0.0, math.pi, 181)
