@@ -202,3 +202,32 @@ def unit_option(role: str, kind: str, help_text: str):
     """``--{role}-unit``: an output unit of ``kind``."""
     return typer.Option(None, f"--{role}-unit", click_type=unit_type(kind), metavar="UNIT",
                         help=help_text)
+
+
+def report_option():
+    """``--report FILE.html``: the command's report (:func:`report_files`)."""
+    return typer.Option(None, "--report", metavar="FILE.html",
+                        help="Also write a report: one self-contained HTML file with the "
+                             "inputs, each part's section, every table, the sources and the "
+                             "cautions; prints on A4 or Letter. Many parts: a summary, then a "
+                             "page per part.")
+
+
+def check_report(path, force: bool) -> None:
+    """Refuse a ``--report`` name before any work: ending .html, its folder there, the one
+    overwrite rule (an existing file only with ``--force``). None: no report."""
+    if path is not None:
+        from revolve.cli.common import check_output
+
+        check_output(path, (".html",), "reports", option="--report", force=force)
+
+
+def report_files(path, results, **how: Any) -> dict:
+    """``{path: (html, "--report")}`` for :func:`revolve.render.output.write_outputs` (with the
+    command's other files: all or none), or ``{}`` without ``--report``. ``how``: the
+    options of :func:`revolve.render.report.report_for` (axis, angle, units, title)."""
+    if path is None:
+        return {}
+    from revolve.render.report import report_for
+
+    return {path: (report_for(results, **how), "--report")}

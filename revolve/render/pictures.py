@@ -359,8 +359,11 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
 
 def profile_figure(revolution, measurement, *, units, title: Optional[str] = None,
                    density_label: Optional[str] = None, width: int = 1200, height: int = 800,
-                   dpi: int = 100):
+                   dpi: int = 100, figures: bool = True):
     """The matplotlib ``Figure`` of :func:`profile_picture` (drawn on the Agg canvas).
+
+    ``figures=False`` leaves the results out of the caption (only how the
+    profile is revolved): a report shows them in its tables.
 
     >>> from revolve.jobs.measuring import part_units
     >>> from revolve.geometry.measure import measure
@@ -397,6 +400,8 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     caption = _caption_lines(m, u, revolution, density_label)
+    if not figures:
+        caption = caption[:1][0].split("   ·   ")[:1]
     caption_height, top = _frame(fig, title, caption, fs)
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
@@ -815,3 +820,24 @@ def solid_figure(revolution, measurement, *, units, title: Optional[str] = None,
     ax.set_aspect("equal", adjustable="box")
 
     return fig, mesh
+
+
+def section_svg(revolution, measurement, *, units, title: Optional[str] = None,
+                width: int = 720, height: int = 440) -> str:
+    """The 2-D section picture (:func:`profile_figure`, results left to the tables) as inline SVG.
+
+    For reports (:func:`revolve.render.report.report_for`): text as paths,
+    nothing outside the picture referenced (:func:`revolve.render.report.svg_of`).
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> text = section_svg(rev, measure(rev), units=part_units("mm"), width=300, height=200)
+    >>> text.startswith("<svg"), "http" in text
+    (True, False)
+    """
+    from revolve.render.report import svg_of
+
+    return svg_of(profile_figure(revolution, measurement, units=units, title=title, width=width,
+                                 height=height, figures=False))

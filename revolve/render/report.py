@@ -46,7 +46,7 @@ from typing import Any, Iterable, List, Mapping, Optional, Sequence, Tuple, Unio
 from revolve.jobs.results import Field, Result, Table
 from revolve.render.output import _heading, cell, write_outputs
 
-__all__ = ["report_html", "write_report", "svg_of", "STYLE"]
+__all__ = ["report_html", "report_for", "write_report", "svg_of", "STYLE"]
 
 #: The report's style sheet, screen and print (inline in every report).
 STYLE = """
@@ -422,3 +422,120 @@ def write_report(path: str, html: str, force: bool, option: str = "--report") ->
     '<p>b</p>'
     """
     write_outputs({path: (html, option)}, force=force)
+
+
+#: The report's title by command (then the part's name, for one part).
+TITLES = {"measure": "Measurement", "vessel": "Vessel", "turn": "Turning quote",
+          "coat": "Coating estimate", "levels": "Level table"}
+
+
+def _measured_parts(r: Result, axis, angle, units) -> List[Tuple[str, Any, Any, Any]]:
+    """``(name, revolution, measurement, output units)`` of each part a result is about.
+
+    What the result holds is used as it is (a measured part, a vessel's
+    design); otherwise the profile files its inputs name are read again with
+    the command's ``axis``, ``angle`` and ``units`` and measured (quick
+    beside drawing the picture).
+    """
+    from revolve.jobs.measuring import measure_document, part_units, revolution_for
+
+    part = getattr(r, "part", None)
+    if getattr(part, "measurement", None) is not None and getattr(part, "revolution", None):
+        doc = part.document
+        return [(doc.name or doc.file or "profile", part.revolution, part.measurement, r.units)]
+    design = getattr(r, "design", None)
+    if design is not None:                       # a vessel: the liquid space it writes
+        from revolve.geometry.measure import measure
+        from revolve.geometry.profile import Revolution
+        from revolve.jobs.vessel import sketch_profile
+
+        profile, shown_axis = sketch_profile(design, getattr(r, "orientation", "vertical"),
+                                             "inside", name=getattr(r, "name", None))
+        rev = Revolution(profile, shown_axis)
+        return [("liquid space", rev, measure(rev),
+                 part_units(profile.unit, length=r.units.unit("length")))]
+    files = r.inputs.get("profiles") or [r.inputs.get("file")]
+    out = []
+    for path in files:
+        if not isinstance(path, str) or not path:
+            continue
+        from revolve.formats import load_profile
+
+        doc = load_profile(path, unit=units)
+        part = measure_document(doc, axis=revolution_for(doc, axis, angle).axis, angle=angle)
+        out.append((doc.name or path, part.revolution, part.measurement,
+                    part_units(doc.profile.unit)))
+    return out
+
+
+def _data_sources(r: Result) -> List[str]:
+    """Where a result's materials and data come from, as its inputs and JSON name them."""
+    i, out = r.inputs, []
+    d = r.to_dict()
+    if i.get("material_name") and i.get("material_source"):
+        density = i.get("density_kg_m3")
+        out.append(f"material: {i['material_name']}"
+                   + (f", {density:g} kg/m³" if isinstance(density, (int, float)) else "")
+                   + f" ({i['material_source']})")
+    if i.get("cutting_data_source"):
+        out.append(f"cutting data: {i['cutting_data_source']}")
+    if i.get("stock_list"):
+        out.append(f"stock sizes and prices: {i['stock_list']}")
+    for key, label in (("density", "density"), ("metal", "metal"), ("liquid", "liquid")):
+        if isinstance(d.get(key), str) and d[key]:
+            out.append(f"{label}: {d[key]}")
+    system = i.get("system")
+    if isinstance(system, Mapping):
+        where = f"the file {system['file']}" if system.get("file") else "the command line"
+        out.append(f"coating system: {system.get('name') or 'one coat'}, from {where} "
+                   "(film thickness, volume solids and loss as the coating's data sheet gives "
+                   "them)")
+    return out
+
+
+def report_for(results: Union[Result, Sequence[Result]], *, title: Optional[str] = None,
+               axis: Any = None, angle: Optional[float] = None, units: Optional[str] = None,
+               width: int = 720, height: int = 440) -> str:
+    """The report of a command's result(s): each part's section picture, the data sources.
+
+    The one path from a command's :class:`Result` to its ``--report``: the
+    tables are the result's (the JSON's numbers), each part's 2-D section is
+    drawn (:func:`revolve.render.pictures.section_svg`), the sources of
+    materials and data are collected from the inputs, and the title is the
+    command's with the part's name. ``axis``, ``angle``, ``units`` are the
+    command's options, used where the picture must read a profile file again.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> from revolve.jobs.measuring import measure
+    >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),), name="ring")
+    >>> page = report_for(measure(ring, density="7850"), width=300, height=200)
+    >>> "<title>Measurement: ring</title>" in page, page.count("<svg"), "density: " in page
+    (True, 1, True)
+    >>> report_for([])
+    Traceback (most recent call last):
+    ...
+    ValueError: a report needs at least one result
+    """
+    from revolve.render.pictures import section_svg
+
+    results = [results] if isinstance(results, Result) else list(results)
+    if not results:
+        raise ValueError("a report needs at least one result")
+    pictures, sources = [], []
+    for r in results:
+        shown = []
+        for name, rev, m, u in _measured_parts(r, axis, angle, units):
+            shown.append((f"Section of {name} (the half-profile revolved about the axis)",
+                          section_svg(rev, m, units=u, title=name if len(results) > 1 else None,
+                                      width=width, height=height)))
+        pictures.append(shown)
+        sources.extend(_data_sources(r))
+    if title is None:
+        command = results[0].command
+        head = TITLES.get(command, f"revolve {command}")
+        title = (f"{head}: {_part_name(results[0], 0)}" if len(results) == 1 and
+                 command != "coat" else head + (f", {len(results)} parts" if len(results) > 1
+                                                else ""))
+    return report_html(results, title=title, pictures=pictures, sources=sources)
