@@ -228,6 +228,11 @@ def report_files(path, results, **how: Any) -> dict:
     options of :func:`revolve.render.report.report_for` (axis, angle, units, title)."""
     if path is None:
         return {}
+    if isinstance(results, (list, tuple)) and not results:     # every part refused
+        import sys
+
+        print(f"revolve: no part could be reported; {path} not written", file=sys.stderr)
+        return {}
     from revolve.render.report import report_for
 
     return {path: (report_for(results, **how), "--report")}

@@ -823,7 +823,7 @@ def solid_figure(revolution, measurement, *, units, title: Optional[str] = None,
 
 
 def section_svg(revolution, measurement, *, units, title: Optional[str] = None,
-                width: int = 720, height: int = 440) -> str:
+                width: int = 600, height: int = 360) -> str:
     """The 2-D section picture (:func:`profile_figure`, results left to the tables) as inline SVG.
 
     For reports (:func:`revolve.render.report.report_for`): text as paths,

@@ -437,7 +437,8 @@ def _measured_parts(r: Result, axis, angle, units) -> List[Tuple[str, Any, Any, 
     the command's ``axis``, ``angle`` and ``units`` and measured (quick
     beside drawing the picture).
     """
-    from revolve.jobs.measuring import measure_document, part_units, revolution_for
+    from revolve.jobs.measuring import (measure_document, parse_axis, part_units,
+                                        revolution_for)
 
     part = getattr(r, "part", None)
     if getattr(part, "measurement", None) is not None and getattr(part, "revolution", None):
@@ -462,10 +463,21 @@ def _measured_parts(r: Result, axis, angle, units) -> List[Tuple[str, Any, Any, 
         from revolve.formats import load_profile
 
         doc = load_profile(path, unit=units)
-        part = measure_document(doc, axis=revolution_for(doc, axis, angle).axis, angle=angle)
+        given = parse_axis(axis) if isinstance(axis, str) else axis
+        part = measure_document(doc, axis=revolution_for(doc, given, angle).axis, angle=angle)
         out.append((doc.name or path, part.revolution, part.measurement,
                     part_units(doc.profile.unit)))
     return out
+
+
+def _tall(profile) -> bool:
+    """Whether the sketch is taller than it is wide (each segment's exact bounds)."""
+    bounds = [s.bounds() for s in profile.segments()]
+    if not bounds:
+        return False
+    x0, y0 = min(b[0] for b in bounds), min(b[1] for b in bounds)
+    x1, y1 = max(b[2] for b in bounds), max(b[3] for b in bounds)
+    return (y1 - y0) > (x1 - x0)
 
 
 def _data_sources(r: Result) -> List[str]:
@@ -495,7 +507,7 @@ def _data_sources(r: Result) -> List[str]:
 
 def report_for(results: Union[Result, Sequence[Result]], *, title: Optional[str] = None,
                axis: Any = None, angle: Optional[float] = None, units: Optional[str] = None,
-               width: int = 720, height: int = 440) -> str:
+               width: int = 600, height: int = 360) -> str:
     """The report of a command's result(s): each part's section picture, the data sources.
 
     The one path from a command's :class:`Result` to its ``--report``: the
@@ -527,15 +539,18 @@ def report_for(results: Union[Result, Sequence[Result]], *, title: Optional[str]
     for r in results:
         shown = []
         for name, rev, m, u in _measured_parts(r, axis, angle, units):
+            # a tall sketch: a square picture (narrower, so its text stays as large on paper)
+            w, h = (max(300, round(0.75 * width)),) * 2 if _tall(rev.profile) else (width, height)
             shown.append((f"Section of {name} (the half-profile revolved about the axis)",
                           section_svg(rev, m, units=u, title=name if len(results) > 1 else None,
-                                      width=width, height=height)))
+                                      width=w, height=h)))
         pictures.append(shown)
         sources.extend(_data_sources(r))
     if title is None:
         command = results[0].command
         head = TITLES.get(command, f"revolve {command}")
-        title = (f"{head}: {_part_name(results[0], 0)}" if len(results) == 1 and
+        name = results[0].inputs.get("name") or _part_name(results[0], 0)
+        title = (f"{head}: {name}" if len(results) == 1 and
                  command != "coat" else head + (f", {len(results)} parts" if len(results) > 1
                                                 else ""))
     return report_html(results, title=title, pictures=pictures, sources=sources)

@@ -106,10 +106,7 @@ def _batch_report(report: str, paths, task, unit_names, tolerance: float, force:
             continue
         results.append(measure_result(part, part_units(part.document.profile.unit, *unit_names),
                                       tolerance=tolerance))
-    if results:
-        output.write_outputs(options.report_files(report, results), force=force)
-    else:
-        print(f"revolve: no part was measured; {report} not written", file=sys.stderr)
+    output.write_outputs(options.report_files(report, results), force=force)
 
 
 def show_result(result, as_json: bool, csv_path: Optional[str], force: bool,
