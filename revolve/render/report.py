@@ -84,6 +84,11 @@ section.part.first { break-before: auto; page-break-before: auto; }
   body { max-width: none; margin: 0; padding: 0; font-size: 9.5pt; }
   table { font-size: 8.5pt; }
   a { color: inherit; text-decoration: none; }
+  /* a part's picture, tables and cautions on one page */
+  figure { margin: 0.2em 0 0.4em; }
+  figure svg { max-height: 80mm; }
+  th, td { padding: 0.05em 0.4em; }
+  section.part > h2:first-child { margin-top: 0; }
 }
 """
 
