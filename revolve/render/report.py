@@ -273,34 +273,47 @@ def _part_name(r: Result, k: int) -> str:
     return f"part {k + 1}"
 
 
-def _summary_html(results: Sequence[Result], names: Sequence[str]) -> str:
-    """One row per part: the figures of each part's first table of figures (else its first table)."""
+def _shown_row(r: Result, key: str) -> Tuple[Optional[Table], Mapping[str, Any]]:
+    """Table ``key`` of ``r`` and its figures (a table of rows: its first row) in output units."""
+    t = next((t for t in r.tables if t.key == key), None)
+    if t is None:
+        return None, {}
+    shown = t.json(r.units)
+    return t, (shown if t.figures else (shown[0] if shown else {}))
+
+
+def _summary_html(results: Sequence[Result], names: Sequence[str],
+                  summary: Optional[Sequence[Tuple[str, str]]] = None) -> str:
+    """One row per part: the figures ``summary`` names as ``(table key, field key)`` pairs, by
+    default every figure of each part's first table of figures (else its first table)."""
     columns: List[Tuple[str, Field]] = []       # (table key, field) in first-seen order
     seen = set()
-    chosen = []
-    for r in results:
-        t = next((t for t in r.tables if t.figures), r.tables[0] if r.tables else None)
-        chosen.append(t)
-        if t is None:
-            continue
-        shown = t.json(r.units)
-        shown = shown if t.figures else (shown[0] if shown else {})
-        for f in t.fields:
-            if f.key in shown and (t.key, f.key) not in seen and f.style != "text":
-                seen.add((t.key, f.key))
-                columns.append((t.key, f))
+    if summary is None:
+        for r in results:
+            t = next((t for t in r.tables if t.figures), r.tables[0] if r.tables else None)
+            if t is None:
+                continue
+            _, shown = _shown_row(r, t.key)
+            for f in t.fields:
+                if f.key in shown and (t.key, f.key) not in seen and f.style != "text":
+                    seen.add((t.key, f.key))
+                    columns.append((t.key, f))
+    else:
+        for key, field_key in summary:
+            for r in results:
+                t, shown = _shown_row(r, key)
+                f = next((f for f in t.fields if f.key == field_key), None) if t else None
+                if f is not None and field_key in shown:
+                    columns.append((key, f))
+                    break
     heads, cells = [], [[] for _ in results]
     for key, f in columns:
-        units = {_unit(f, r) for r, t in zip(results, chosen) if t is not None and t.key == key}
+        units = {_unit(f, r) for r in results if _shown_row(r, key)[0] is not None}
         one = len(units) == 1
         unit = next(iter(units)) if one else ""
         heads.append(f"{f.label} ({unit})" if one and unit else f.label)
-        for i, (r, t) in enumerate(zip(results, chosen)):
-            if t is None or t.key != key:
-                cells[i].append(_td("—", f))
-                continue
-            shown = t.json(r.units)
-            shown = shown if t.figures else (shown[0] if shown else {})
+        for i, r in enumerate(results):
+            _, shown = _shown_row(r, key)
             if f.key not in shown:
                 cells[i].append(_td("—", f))
                 continue
@@ -340,7 +353,8 @@ def _normalise(results, pictures) -> Tuple[List[Result], List[Sequence[Tuple[str
 
 def report_html(results: Union[Result, Sequence[Result]], *, title: str,
                 pictures: Optional[Sequence[Any]] = None,
-                sources: Optional[Sequence[str]] = None) -> str:
+                sources: Optional[Sequence[str]] = None,
+                summary: Optional[Sequence[Tuple[str, str]]] = None) -> str:
     """One self-contained HTML report of one result or of many (one page per part).
 
     Parameters
@@ -358,6 +372,9 @@ def report_html(results: Union[Result, Sequence[Result]], *, title: str,
     sources : sequence of str, optional
         The sources of materials and data (shown with those a result holds
         in ``extra["sources"]``).
+    summary : sequence of (str, str), optional
+        Many parts: the summary's columns as ``(table key, field key)``
+        pairs (default: every figure of each part's first table of figures).
 
     Returns
     -------
@@ -401,7 +418,7 @@ def report_html(results: Union[Result, Sequence[Result]], *, title: str,
            f'<p class="meta">revolve {escape(commands)}'
            f"{f' — {len(results)} parts' if many else ''}</p>"]
     if many:
-        top.append(_summary_html(results, names))
+        top.append(_summary_html(results, names, summary))
         top.append(_sources_html(all_sources))
         top.append(_cautions_html(c for r in results for c in r.cautions))
         closing = ""
@@ -428,6 +445,17 @@ def write_report(path: str, html: str, force: bool, option: str = "--report") ->
     """
     write_outputs({path: (html, option)}, force=force)
 
+
+#: The summary's columns of a many-parts report by command: (table key, field key).
+SUMMARIES = {
+    "measure": (("figures", "area"), ("figures", "volume"), ("figures", "surface_area"),
+                ("figures", "mass"), ("crosscheck", "volume_verdict"),
+                ("crosscheck", "surface_verdict")),
+    "turn": (("part", "part_diameter"), ("part", "part_length"), ("part", "part_mass"),
+             ("stock", "stock_label"), ("stock", "stock_mass"),
+             ("removed", "utilisation_percent"), ("bars", "bars_needed"),
+             ("times", "cycle_time")),
+}
 
 #: The report's title by command (then the part's name, for one part).
 TITLES = {"measure": "Measurement", "vessel": "Vessel", "turn": "Turning quote",
@@ -558,4 +586,5 @@ def report_for(results: Union[Result, Sequence[Result]], *, title: Optional[str]
         title = (f"{head}: {name}" if len(results) == 1 and
                  command != "coat" else head + (f", {len(results)} parts" if len(results) > 1
                                                 else ""))
-    return report_html(results, title=title, pictures=pictures, sources=sources)
+    return report_html(results, title=title, pictures=pictures, sources=sources,
+                       summary=SUMMARIES.get(results[0].command))
