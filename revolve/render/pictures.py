@@ -422,6 +422,11 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
     # The part in the axis frame: z along the axis, r from it.
     z_all, r_all = (allpts - origin) @ along, (allpts - origin) @ towards
     z0, z1, r0, r1 = float(z_all.min()), float(z_all.max()), float(r_all.min()), float(r_all.max())
+    # the figures written on the dimensions are exact (each frame segment's bounds: an arc's
+    # crest between the sketch's sample points counts), the lines are drawn at the samples
+    bounds = np.array([seg.bounds() for path in prep.paths for seg in path])
+    length_text = float(bounds[:, 2].max() - bounds[:, 0].min())
+    outer_text, inner_text = float(bounds[:, 3].max()), float(bounds[:, 1].min())
     at = lambda z, r: origin + z * along + r * towards  # noqa: E731
     near = 1e-9 * size
     gap = 0.09 * max(z1 - z0, r1 - (0.0 if show_axis else r0), 1e-12 * size)
@@ -432,22 +437,22 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
         fa = allpts[np.argmax(np.where(np.abs(z_all - z0) <= near * 10, r_all, -np.inf))]
         fb = allpts[np.argmax(np.where(np.abs(z_all - z1) <= near * 10, r_all, -np.inf))]
         dims.append((fa, fb, at(z0, r1 + gap), at(z1, r1 + gap),
-                     f"{fmt((z1 - z0) * L, 5)} {u.length}", "<|-|>"))
+                     f"{fmt(length_text * L, 5)} {u.length}", "<|-|>"))
     solid_bore = r0 > 1e-6 * size
     if show_axis:
         if r1 > 1e-12 * size:
             f = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
             dims.append((f, None, at(z1 + gap, 0.0), at(z1 + gap, r1),
-                         f"Ø{fmt(2 * r1 * L, 5)} {u.length}", "-|>"))
+                         f"Ø{fmt(2 * outer_text * L, 5)} {u.length}", "-|>"))
         if solid_bore:
             f = allpts[np.argmin(np.where(np.abs(r_all - r0) <= near * 10, z_all, np.inf))]
             dims.append((f, None, at(z0 - gap, 0.0), at(z0 - gap, r0),
-                         f"Ø{fmt(2 * r0 * L, 5)} {u.length}", "-|>"))
+                         f"Ø{fmt(2 * inner_text * L, 5)} {u.length}", "-|>"))
     elif r1 - r0 > 1e-12 * size:
         fa = allpts[np.argmax(np.where(np.abs(r_all - r0) <= near * 10, z_all, -np.inf))]
         fb = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
         dims.append((fa, fb, at(z1 + gap, r0), at(z1 + gap, r1),
-                     f"{fmt((r1 - r0) * L, 5)} {u.length}", "<|-|>"))
+                     f"{fmt((outer_text - inner_text) * L, 5)} {u.length}", "<|-|>"))
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
     view_pts = [allpts] + [np.array([d[2], d[3]]) for d in dims]
