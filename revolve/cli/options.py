@@ -213,13 +213,28 @@ def report_option():
                              "page per part.")
 
 
-def check_report(path, force: bool) -> None:
-    """Refuse a ``--report`` name before any work: ending .html, its folder there, the one
-    overwrite rule (an existing file only with ``--force``). None: no report."""
-    if path is not None:
-        from revolve.cli.common import check_output
+#: The most parts one report holds (a page and a picture each; bounded work).
+REPORT_MOST_PARTS = 200
 
-        check_output(path, (".html",), "reports", option="--report", force=force)
+
+def check_report(path, force: bool, parts: int = 1) -> None:
+    """Refuse a ``--report`` name before any work: ending .html, its folder there, the one
+    overwrite rule (an existing file only with ``--force``), at most :data:`REPORT_MOST_PARTS`
+    parts. None: no report.
+
+    >>> check_report("r.html", False, parts=201)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --report: a report holds at most 200 parts, not 201; report fewer files at a time
+    """
+    if path is None:
+        return
+    if parts > REPORT_MOST_PARTS:
+        raise RevolveError(f"a report holds at most {REPORT_MOST_PARTS} parts, not {parts}; "
+                           "report fewer files at a time", option="--report")
+    from revolve.cli.common import check_output
+
+    check_output(path, (".html",), "reports", option="--report", force=force)
 
 
 def report_files(path, results, **how: Any) -> dict:

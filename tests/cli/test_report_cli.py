@@ -340,3 +340,18 @@ def test_in_a_browser_a_many_part_measure_report_prints_a_summary_and_a_page_eac
             ends = starts[1:] + [len(pages)]
             for k, end in zip(starts, ends):
                 assert end - k in (1, 2) and "Caution" in "".join(pages[k:end])
+
+
+@pytest.mark.parametrize("command", ["measure", "turn", "coat"])
+def test_a_report_of_too_many_parts_is_refused_before_any_work(command, tmp_path, capsys,
+                                                                monkeypatch):
+    from revolve.cli import options
+
+    monkeypatch.setattr(options, "REPORT_MOST_PARTS", 1)     # the bound, made small to test it
+    extra = ["--system", SYSTEM] if command == "coat" else []
+    report, csv = tmp_path / "r.html", tmp_path / "r.csv"
+    code, out, err = run([command, BUSHING, SHAFT, *extra, "--csv", str(csv), "--report",
+                          str(report)], capsys)
+    assert code == 2 and out == "" and err.count("\n") == 1
+    assert err.startswith("revolve: error: --report: a report holds at most 1 parts, not 2")
+    assert not report.exists() and not csv.exists()

@@ -43,8 +43,8 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
 
     if csv_file:
         check_target(csv_file, option="--csv", replace=force)      # before any work
-    options.check_report(report, force)
     paths, left_out = profile_paths(profiles, skip=csv_file)
+    options.check_report(report, force, len(paths))
     result = coating.run(paths, names=coating.CLI_NAMES, left_out=left_out, **inputs)
     files = options.report_files(report, result, axis=inputs.get("axis"),
                                  angle=inputs.get("angle"), units=inputs.get("units"))

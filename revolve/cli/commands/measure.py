@@ -53,11 +53,11 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     batch.check_workers(workers)
     if csv_path is not None:
         common.check_output(csv_path, (".csv",), "tables", option="--csv", force=force)
-    options.check_report(report, force)
     if not 0 < tolerance:
         raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
     single = len(items) == 1 and not os.path.isdir(items[0])
     paths, left_out = ([items[0]], []) if single else profile_paths(items, skip=csv_path)
+    options.check_report(report, force, len(paths))
     if exact and not single:
         raise RevolveError("give one file with --exact; closed forms are worked out one part "
                            "at a time", option="--exact")

@@ -83,9 +83,9 @@ def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bo
                        settings.pop("stock", "bar"), settings)
     if csv_file is not None:
         check_target(csv_file, "--csv", replace=force)
-    options.check_report(report, force)
-    how = {"axis": opts.axis, "units": opts.units}        # the report's pictures read the files
     paths, left_out = profile_paths(profiles, skip=csv_file)
+    options.check_report(report, force, len(paths))
+    how = {"axis": opts.axis, "units": opts.units}        # the report's pictures read the files
     left = [f"left out {o}: not a profile (no [[loop]] or [[chain]])" for o in left_out]
     counts = tq.quantities(quantity, len(paths))
     if len(profiles) == 1 and len(paths) == 1 and not os.path.isdir(profiles[0]):
