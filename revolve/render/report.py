@@ -533,8 +533,8 @@ def _data_sources(r: Result) -> List[str]:
     if isinstance(system, Mapping):
         where = f"the file {system['file']}" if system.get("file") else "the command line"
         out.append(f"coating system: {system.get('name') or 'one coat'}, from {where} "
-                   "(film thickness, volume solids and loss as the coating's data sheet gives "
-                   "them)")
+                   "(film thickness, volume solids and loss as given there; they belong to the "
+                   "coating's data sheet)")
     return out
 
 
