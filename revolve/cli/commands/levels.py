@@ -61,8 +61,8 @@ def run_levels(profile: str, *, csv_file: Optional[str], force: bool, as_json: b
     from revolve.jobs.levels import level_table
     from revolve.render import output
 
-    targets = [(p, o) for p, o in ((csv_file, "--csv"), (picture, "--picture"),
-                                   (report, "--report")) if p]
+    options.check_report(report, force)
+    targets = [(p, o) for p, o in ((csv_file, "--csv"), (picture, "--picture")) if p]
     if targets:
         from revolve.formats.files import check_target
 
@@ -209,8 +209,7 @@ def register(app: typer.Typer) -> None:
                  "each row's standard uncertainty (GUM) with its largest contributor."),
         picture: Optional[str] = typer.Option(
             None, "--picture", metavar="FILE", help="Write the level picture (.png or .svg)."),
-        report: Optional[str] = typer.Option(
-            None, "--report", metavar="FILE.html", help="Write a self-contained HTML report."),
+        report: Optional[str] = options.report_option(),
     ) -> None:
         """Fill-level table: volume and wetted inside area at each level, or level for a volume.
 
