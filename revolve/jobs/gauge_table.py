@@ -400,7 +400,7 @@ UNCERTAIN_INPUTS = {"diameter": "shell diameter", "length": "straight shell leng
                     "reading": "gauge reading"}
 #: Head dimensions by tolerance name: what it is, and the head kinds that have it.
 HEAD_DIMENSIONS = {"crown": "crown radius", "knuckle": "knuckle radius",
-                   "angle": "cone half-angle (degrees)", "depth": "inside depth"}
+                   "angle": "cone half-angle", "depth": "inside depth"}
 for _h in (1, 2):
     for _k, _what in HEAD_DIMENSIONS.items():
         UNCERTAIN_INPUTS[f"head_{_h}_{_k}"] = f"head {_h} {_what}"
