@@ -701,8 +701,31 @@ def read_uncertainty(source, *, names: Optional[Mapping[str, str]] = None):
         for target in targets:
             if target in tolerances:
                 raise fail(f"a tolerance of {UNCERTAIN_INPUTS[target]} is given twice", key)
+            if dims is not None and target in available:
+                _check_buildable(dims, available, target, t.half_width, key, fail)
             tolerances[target] = t
     return dims, tolerances
+
+
+def _check_buildable(dims: VesselDimensions, available, target: str, half: float, key, fail):
+    """Refuse a tolerance so wide that the vessel cannot be built at either end of it."""
+    from revolve import units as registry
+
+    per = 1.0 if target in ANGLE_INPUTS else registry.factor(dims.unit, "length")
+    unit = "°" if target in ANGLE_INPUTS else f" {dims.unit}"
+    nominal = available[target]
+    for sign in (-1.0, 1.0):
+        value = nominal + sign * half / per
+        try:
+            if target.endswith("_depth"):
+                if not value > 0:
+                    raise RevolveError("the depth must be positive")
+            else:
+                dims._design({target: value})
+        except RevolveError as e:
+            raise fail(f"the vessel cannot be built at {nominal:g}{unit} "
+                       f"{'−' if sign < 0 else '+'} {half / per:g}{unit} ({e.message}); give a "
+                       "smaller tolerance", key) from None
 
 
 def uncertainty_model(dims: Optional[VesselDimensions], space, *, tilt: Optional[float],

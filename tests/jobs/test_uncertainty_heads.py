@@ -211,6 +211,12 @@ VESSEL = '[vessel]\ndiameter = "1200 mm"\nlength = "2400 mm"\nhead = "ellipsoida
      ":1: vessel: head: give head (both ends) or head_1 and head_2, not both"),
     (VESSEL.replace("ellipsoidal", "torispherical:crown=400") + '[tolerance]\ncrown = "5 mm"\n',
      ":1: vessel: head 1: the crown radius 400 is less than the shell radius 600"),
+    (VESSEL.replace("ellipsoidal", "torispherical") + '[tolerance]\ncrown = "700 mm"\n',
+     ":5: tolerance: crown: the vessel cannot be built at 1200 mm − 700 mm (the crown radius 500 "
+     "is less than the shell radius 600"),
+    (VESSEL + '[tolerance]\ndepth = "0.3 m"\n',
+     ":5: tolerance: depth: the vessel cannot be built at 300 mm − 300 mm (the depth must be "
+     "positive)"),
     (VESSEL + '[tolerance]\nradius = "5 mm"\n',
      ":5: tolerance: no tolerance can be given for 'radius'"),
 ])
