@@ -47,6 +47,7 @@ from revolve.errors import FormatError, RevolveError, quoted
 
 __all__ = ["Gauge", "make_gauge", "step_levels", "parse_temperature", "parse_expansion",
            "read_deadwood", "read_uncertainty", "uncertainty_model", "VesselDimensions",
+           "input_unit",
            "CROSSCHECK_BOUND", "MAX_FILE_CHARACTERS", "MAX_ITEMS"]
 
 #: Largest difference (of the capacity) allowed between a tilted table and its chord-sum check.
@@ -391,14 +392,50 @@ def _volume_m3(value) -> float:
 
 # -- uncertainty from the dimensions of a vessel ---------------------------------------------------
 
-#: The inputs a tolerance may be given for, and what they are.
+#: The inputs a tolerance may be given for, and what they are. A head dimension written
+#: without ``head_1_``/``head_2_`` is a tolerance of each head that has it (made apart:
+#: independent inputs).
 UNCERTAIN_INPUTS = {"diameter": "shell diameter", "length": "straight shell length",
-                    "tilt": "tilt (degrees)", "reading": "gauge reading"}
+                    "thickness": "wall thickness", "tilt": "tilt (degrees)",
+                    "reading": "gauge reading"}
+#: Head dimensions by tolerance name: what it is, and the head kinds that have it.
+HEAD_DIMENSIONS = {"crown": "crown radius", "knuckle": "knuckle radius",
+                   "angle": "cone half-angle", "depth": "inside depth"}
+for _h in (1, 2):
+    for _k, _what in HEAD_DIMENSIONS.items():
+        UNCERTAIN_INPUTS[f"head_{_h}_{_k}"] = f"head {_h} {_what}"
+del _h, _k, _what
+#: Inputs in degrees (the rest are lengths, in metres inside the model).
+ANGLE_INPUTS = ("tilt", "head_1_angle", "head_2_angle")
+
+
+def input_unit(name: str) -> str:
+    """The unit a model input is in: ``"°"`` for angles, ``"m"`` for lengths.
+
+    >>> input_unit("head_2_angle"), input_unit("head_1_crown")
+    ('°', 'm')
+    """
+    return "°" if name in ANGLE_INPUTS else "m"
 
 
 @dataclass(frozen=True)
 class VesselDimensions:
-    """A vessel as ``revolve vessel`` builds it (lengths in ``unit``), for the uncertainty model."""
+    """A vessel as ``revolve vessel`` builds it (lengths in ``unit``), for the uncertainty model.
+
+    ``head_1`` and ``head_2`` are the head texts ``revolve vessel`` takes
+    (``"torispherical:crown=1000,knuckle=100"``); :meth:`dimensions_of`
+    gives every dimension a tolerance may be given for, and :meth:`space`
+    rebuilds the liquid space with any of them changed.
+
+    Examples
+    --------
+    >>> v = VesselDimensions(1000.0, 2000.0, "torispherical", "ellipsoidal", "mm")
+    >>> v.dimensions_of()
+    {'diameter': 1000.0, 'length': 2000.0, 'head_1_crown': 1000.0, 'head_1_knuckle': 60.0, 'head_2_depth': 250.0}
+    >>> round(v.space("vertical").capacity / 1e9, 6) == round(
+    ...     v.space("vertical", head_2_depth=250.0).capacity / 1e9, 6)
+    True
+    """
 
     diameter: float
     length: float
@@ -408,23 +445,88 @@ class VesselDimensions:
     dimensions: str = "inside"
     thickness: Optional[float] = None
 
-    def space(self, orientation: str, diameter: Optional[float] = None,
-              length: Optional[float] = None):
-        """The liquid space of the vessel, with the diameter or length changed (unit)."""
-        from revolve.jobs.levels import liquid_space
-        from revolve.jobs.vessel import design_vessel, parse_head, sketch_profile
+    def heads(self, diameter: Optional[float] = None):
+        """The two :class:`~revolve.jobs.vessel.HeadSpec` (percentages of ``diameter``)."""
+        from revolve.jobs.vessel import parse_head
 
         D = self.diameter if diameter is None else diameter
-        L = self.length if length is None else length
-        design = design_vessel(D, L, parse_head(self.head_1, D, "head 1"),
-                               parse_head(self.head_2, D, "head 2"), thickness=self.thickness,
-                               dimensions=self.dimensions, unit=self.unit)
+        return parse_head(self.head_1, D, "head 1"), parse_head(self.head_2, D, "head 2")
+
+    def dimensions_of(self) -> Dict[str, float]:
+        """Each dimension of the vessel a tolerance may be given for (vessel units, degrees)."""
+        out = {"diameter": self.diameter, "length": self.length}
+        if self.thickness is not None:
+            out["thickness"] = self.thickness
+        design = self._design({})
+        for k, spec in enumerate(design.heads, start=1):
+            for key in ("crown", "knuckle", "angle"):
+                value = getattr(spec, key)
+                if value is not None and not (key == "knuckle" and value == 0.0):
+                    out[f"head_{k}_{key}"] = float(value)
+            if spec.kind == "ellipsoidal":
+                pole = design.poles[0] if k == 1 else design.poles[1] - design.length
+                out[f"head_{k}_depth"] = abs(float(pole))
+        return out
+
+    def _design(self, changes: Mapping[str, float]):
+        from dataclasses import replace
+
+        from revolve.jobs.vessel import design_vessel
+
+        D = changes.get("diameter", self.diameter)
+        specs = list(self.heads(D))
+        for k in (1, 2):
+            head = {key: changes[f"head_{k}_{key}"] for key in ("crown", "knuckle", "angle")
+                    if f"head_{k}_{key}" in changes}
+            if head:
+                specs[k - 1] = replace(specs[k - 1], **head)
+        return design_vessel(D, changes.get("length", self.length), specs[0], specs[1],
+                             thickness=changes.get("thickness", self.thickness),
+                             dimensions=self.dimensions, unit=self.unit)
+
+    def space(self, orientation: str, **changes: float):
+        """The liquid space of the vessel with dimensions changed (vessel units, degrees).
+
+        ``changes`` are named as in :meth:`dimensions_of`. A head's depth
+        (ellipsoidal heads) changes by stretching that head's inside along the
+        axis: an ellipsoid of revolution stays one, with the new depth.
+        """
+        from dataclasses import replace
+
+        from revolve.geometry.profile import Loop
+        from revolve.geometry.segments import Line
+        from revolve.jobs.levels import liquid_space
+        from revolve.jobs.vessel import sketch_profile
+
+        design = self._design(changes)
+        if any(f"head_{k}_depth" in changes for k in (1, 2)):
+            L = design.length
+            depths = (-design.poles[0], design.poles[1] - L)
+            scale = [changes.get(f"head_{k}_depth", depths[k - 1]) / depths[k - 1]
+                     for k in (1, 2)]
+            for k, s in enumerate(scale, start=1):
+                if not (math.isfinite(s) and s > 0):
+                    raise RevolveError(f"head {k}: the depth must be positive")
+            segs = []
+            for seg in design.inside.segments[:-1]:          # the last: the axis, pole to pole
+                face = getattr(seg, "face", None)
+                if face == "head 1":
+                    seg = seg.transformed((scale[0], 0.0, 0.0, 1.0), (0.0, 0.0))
+                elif face == "head 2":
+                    seg = seg.transformed((scale[1], 0.0, 0.0, 1.0), ((1 - scale[1]) * L, 0.0))
+                segs.append(seg)
+            poles = (design.poles[0] * scale[0], L + depths[1] * scale[1])
+            segs.append(Line((poles[1], 0.0), (poles[0], 0.0)))
+            design = replace(design, inside=Loop(tuple(segs)), poles=poles)
         profile, axis = sketch_profile(design, orientation)
         return liquid_space(profile, axis, orientation=orientation)
 
 
 def _tolerance(value, key, fail, unit):
-    """A tolerance given as a length text, or a table {value, distribution, coverage}."""
+    """A tolerance given as a length (or angle) text, or a table {value, distribution, coverage}.
+
+    ``unit`` is metres per unit of a bare length.
+    """
     from revolve.jobs.gauging import Tolerance
 
     table = value if isinstance(value, dict) else {"value": value}
@@ -436,14 +538,14 @@ def _tolerance(value, key, fail, unit):
         raise fail("give the tolerance's value (a half-width)", key)
     raw = table["value"]
     try:
-        if key == "tilt":
-            m = re.fullmatch(rf"\s*({_NUMBER})\s*(?:°|deg|degrees?)\s*", str(raw))
+        if key in ANGLE_INPUTS or key == "angle":
+            m = re.fullmatch(rf"\s*({_NUMBER})\s*(?:°|deg|degrees?)\s*", str(raw)[:100])
             if m is None:
-                raise RevolveError(f"{quoted(str(raw))}: give the tilt's tolerance in degrees, "
-                                   "such as '0.1 deg'")
+                raise RevolveError(f"{quoted(str(raw)[:100])}: give the tolerance of an angle in "
+                                   "degrees, such as '0.1 deg'")
             half = float(m.group(1))
         else:
-            half = _length_m(raw, None) / unit
+            half = _length_m(raw, None)
         return Tolerance(half, str(table.get("distribution", "rectangular")),
                          float(table.get("coverage", 2.0)))
     except (RevolveError, TypeError, ValueError) as e:
@@ -458,26 +560,39 @@ def read_uncertainty(source, *, names: Optional[Mapping[str, str]] = None):
         [vessel]                 # optional: the vessel as revolve vessel built it
         diameter = "1200 mm"
         length = "2400 mm"
-        head = "ellipsoidal"     # or head_1 and head_2; dimensions = "outside", thickness
+        head = "torispherical"   # or head_1 and head_2, with settings as revolve vessel
+                                 # takes them ("conical:angle=30,knuckle=50");
+                                 # dimensions = "outside", thickness = "6 mm"
         [tolerance]              # half-widths (rectangular unless a table says otherwise)
         diameter = "3 mm"
         length = { value = "5 mm", distribution = "normal", coverage = 2 }
+        crown = "10 mm"          # each head's crown radius (or head_1_crown, head_2_crown)
+        knuckle = "3 mm"         # also angle (conical, degrees), depth (ellipsoidal), thickness
         tilt = "0.2 deg"
         reading = "2 mm"
 
-    Returns ``(VesselDimensions or None, {input: Tolerance})`` — lengths in
-    metres in the tolerances, the vessel's in its own unit.
+    A head dimension without ``head_1_`` or ``head_2_`` is a tolerance of
+    each head that has it, the two heads independent. Returns
+    ``(VesselDimensions or None, {input: Tolerance})`` — lengths in metres
+    in the tolerances, angles in degrees, the vessel's in its own unit.
 
     >>> dims, tol = read_uncertainty({"tolerance": {"tilt": "0.5 deg", "reading": "1 mm"}})
     >>> dims, round(tol["tilt"].standard, 6), round(tol["reading"].standard * 1e3, 6)
     (None, 0.288675, 0.57735)
+    >>> vessel = {"diameter": "1 m", "length": "2 m", "head_1": "torispherical",
+    ...           "head_2": "flat"}
+    >>> sorted(read_uncertainty({"vessel": vessel, "tolerance": {"crown": "5 mm"}})[1])
+    ['head_1_crown']
     >>> read_uncertainty({"tolerance": {"diameter": "1 mm"}})
     Traceback (most recent call last):
     ...
     revolve.errors.FormatError: tolerance: diameter: a tolerance of the diameter needs the vessel's dimensions in a [vessel] table (the profile file does not record them)
+    >>> read_uncertainty({"vessel": vessel, "tolerance": {"head_2_knuckle": "1 mm"}})
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: tolerance: head_2_knuckle: the vessel has no head 2 knuckle radius (head 2 is flat); tolerances it takes: diameter, length, tilt, reading, head_1_crown, head_1_knuckle
     """
     from revolve import units as registry
-    from revolve.jobs.gauging import Tolerance  # noqa: F401  (the type the tolerances have)
 
     file = None
     if isinstance(source, (str, os.PathLike)):
@@ -506,6 +621,7 @@ def read_uncertainty(source, *, names: Optional[Mapping[str, str]] = None):
         raise FormatError(f"unknown key {quoted(extra[0])}; an uncertainty file holds [vessel] "
                           "and [tolerance]", file=file)
     dims = None
+    available: Dict[str, float] = {}
     vessel = data.get("vessel")
     if vessel is not None:
         fail = failer("vessel")
@@ -530,55 +646,119 @@ def read_uncertainty(source, *, names: Optional[Mapping[str, str]] = None):
             if key not in values:
                 raise fail(f"give the vessel's {key}", key)
         head = vessel.get("head")
-        h1, h2 = (head, head) if head else (vessel.get("head_1"), vessel.get("head_2"))
+        if head is not None and ("head_1" in vessel or "head_2" in vessel):
+            raise fail("give head (both ends) or head_1 and head_2, not both", "head")
+        h1, h2 = (head, head) if head is not None else (vessel.get("head_1"), vessel.get("head_2"))
         if not (isinstance(h1, str) and isinstance(h2, str)):
             raise fail("give head (both ends) or head_1 and head_2, as revolve vessel takes them",
                        "head")
+        dimensions = vessel.get("dimensions", "inside")
+        if dimensions not in ("inside", "outside"):
+            raise fail(f"give inside or outside, got {dimensions!r}", "dimensions")
         dims = VesselDimensions(values["diameter"], values["length"], h1, h2, unit,
-                                str(vessel.get("dimensions", "inside")), values.get("thickness"))
+                                dimensions, values.get("thickness"))
+        try:
+            available = dims.dimensions_of()
+        except RevolveError as e:
+            raise fail(e.message if e.place is None else f"{e.place}: {e.message}") from None
     tolerances = {}
     raw = data.get("tolerance")
     fail = failer("tolerance")
     if not isinstance(raw, dict) or not raw:
-        raise fail("give the tolerances in a [tolerance] table: " + ", ".join(UNCERTAIN_INPUTS))
+        raise fail("give the tolerances in a [tolerance] table: diameter, length, thickness, "
+                   "crown, knuckle, angle, depth (or head_1_…, head_2_…), tilt, reading")
+    taken = [k for k in UNCERTAIN_INPUTS if k in available or k in ("tilt", "reading")]
+
     for key, value in raw.items():
-        if key not in UNCERTAIN_INPUTS:
+        if key in HEAD_DIMENSIONS:
+            targets = [f"head_{k}_{key}" for k in (1, 2)]
+        elif key in UNCERTAIN_INPUTS:
+            targets = [key]
+        else:
             raise fail(f"no tolerance can be given for {quoted(key)}; give "
-                       + ", ".join(UNCERTAIN_INPUTS))
-        if key in ("diameter", "length") and dims is None:
+                       + ", ".join(("diameter", "length", "thickness", *HEAD_DIMENSIONS,
+                                    "head_1_…", "head_2_…", "tilt", "reading")))
+        if key not in ("tilt", "reading") and dims is None:
             raise fail(f"a tolerance of the {key} needs the vessel's dimensions in a [vessel] "
                        "table (the profile file does not record them)", key)
-        per = registry.factor(dims.unit, "length") if key in ("diameter", "length") else 1.0
-        t = _tolerance(value, key, fail, per)
-        if key in ("diameter", "length"):
-            from revolve.jobs.gauging import Tolerance as T
-
-            t = T(t.half_width * per, t.distribution, t.coverage)   # back to metres
-        tolerances[key] = t
+        if dims is not None:
+            have = [t for t in targets if t in available or t in ("tilt", "reading")]
+            if not have:
+                what = UNCERTAIN_INPUTS[targets[0]]
+                if key == "thickness":
+                    why = "no thickness in [vessel]"
+                elif key in HEAD_DIMENSIONS:
+                    why = f"heads {dims.head_1}, {dims.head_2}"
+                else:
+                    k = targets[0][5]
+                    why = f"head {k} is {dims.head_1 if k == '1' else dims.head_2}"
+                if key in HEAD_DIMENSIONS:
+                    what = f"head {HEAD_DIMENSIONS[key]}"
+                raise fail(f"the vessel has no {what} ({why}); tolerances it takes: "
+                           + ", ".join(taken), key)
+            targets = have
+        t = _tolerance(value, key, fail, 1.0)
+        for target in targets:
+            if target in tolerances:
+                raise fail(f"a tolerance of {UNCERTAIN_INPUTS[target]} is given twice", key)
+            if dims is not None and target in available:
+                _check_buildable(dims, available, target, t.half_width, key, fail)
+            tolerances[target] = t
     return dims, tolerances
 
 
+def _check_buildable(dims: VesselDimensions, available, target: str, half: float, key, fail):
+    """Refuse a tolerance so wide that the vessel cannot be built at either end of it."""
+    from revolve import units as registry
+
+    per = 1.0 if target in ANGLE_INPUTS else registry.factor(dims.unit, "length")
+    unit = "°" if target in ANGLE_INPUTS else f" {dims.unit}"
+    nominal = available[target]
+    for sign in (-1.0, 1.0):
+        value = nominal + sign * half / per
+        try:
+            if target.endswith("_depth"):
+                if not value > 0:
+                    raise RevolveError("the depth must be positive")
+            else:
+                dims._design({target: value})
+        except RevolveError as e:
+            raise fail(f"the vessel cannot be built at {nominal:g}{unit} "
+                       f"{'−' if sign < 0 else '+'} {half / per:g}{unit} ({e.message}); give a "
+                       "smaller tolerance", key) from None
+
+
 def uncertainty_model(dims: Optional[VesselDimensions], space, *, tilt: Optional[float],
-                      gauge_point: Optional[float], levels_si, net: Callable) -> Tuple[
-                          Callable[..., np.ndarray], Dict[str, float]]:
+                      gauge_point: Optional[float], levels_si, net: Callable,
+                      toleranced=None) -> Tuple[Callable[..., np.ndarray], Dict[str, float]]:
     """The model (inputs in metres and degrees) -> net capacity and the net volume at each level.
 
     ``levels_si`` are the table's levels (m); ``net(levels_si, geometric_m3)``
-    applies deadwood and the shell factor. Returns the model and the values
-    of its inputs.
+    applies deadwood and the shell factor. The vessel's diameter and length
+    are inputs (lengths in metres), and so are those of its other dimensions
+    (named as :meth:`VesselDimensions.dimensions_of`) named in
+    ``toleranced`` (all of them if None): each call rebuilds the vessel with
+    the values it is given. A dimension left out follows the vessel's
+    description (a 2:1 head stays 2:1, a crown given as a share of the
+    diameter stays that share, as the diameter changes). Returns the model
+    and the values of its inputs.
     """
     from revolve import units as registry
 
     metre = registry.factor(space.profile.unit, "length")
     values: Dict[str, float] = {"tilt": float(tilt or 0.0), "reading": 0.0}
+    per = 1.0
     if dims is not None:
         per = registry.factor(dims.unit, "length")
-        values.update(diameter=dims.diameter * per, length=dims.length * per)
+        values.update({k: (v if k in ANGLE_INPUTS else v * per)
+                       for k, v in dims.dimensions_of().items()
+                       if k in ("diameter", "length") or toleranced is None or k in toleranced})
     levels_si = np.asarray(levels_si, dtype=float)
 
-    def model(tilt=0.0, reading=0.0, diameter=None, length=None):
+    def model(tilt=0.0, reading=0.0, **dimensions):
         if dims is not None:
-            s = dims.space(space.orientation, diameter / per, length / per)
+            changes = {k: (v if k in ANGLE_INPUTS else v / per) for k, v in dimensions.items()}
+            s = dims.space(space.orientation, **changes)
             m = registry.factor(s.profile.unit, "length")
         else:
             s, m = space, metre

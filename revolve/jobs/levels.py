@@ -1156,7 +1156,7 @@ def _level_result(doc, n, mode, gauge, *, orientation, axis, step, count, at, ul
                      f"largest contributors (share of the variance): {named}")
         notes.append("tolerances: " + "; ".join(
             f"{gauge_table.UNCERTAIN_INPUTS[k]} u = {v:.4g} "
-            f"{'°' if k == 'tilt' else 'm'}" for k, v in spread.inputs.items()))
+            f"{gauge_table.input_unit(k)}" for k, v in spread.inputs.items()))
     cautions = ("vessel",)
     if tilt is not None or shell is not None or spread is not None:
         cautions += (gauging.CALIBRATION_CAUTION,)
@@ -1253,7 +1253,8 @@ def _uncertainty(source, space, metre, tilt, gauge_point, levels_si, net, capaci
                                f"{capacity_si:.6g} m³; describe the vessel the profile was built "
                                "from (revolve vessel's diameter, length and heads)")
     model, values = gauge_table.uncertainty_model(dims, space, tilt=tilt, gauge_point=gauge_point,
-                                                  levels_si=levels_si, net=net)
+                                                  levels_si=levels_si, net=net,
+                                                  toleranced=tuple(tolerances))
     return gauging.combined_uncertainty(model, values, tolerances)
 
 

@@ -647,20 +647,40 @@ def test_deadwood_example_deducts_each_item(capsys):
 
 
 def test_gum_uncertainty_of_the_example_and_its_largest_contributor(capsys):
-    # JCGM 100:2008 5.1.2 with the derivatives by hand: V = π D² L/4 + π D³/12 (2:1 heads,
-    # CRC/common practice); ∂V/∂D = π D L/2 + π D²/4, ∂V/∂L = π D²/4; rectangular u = a/√3,
-    # normal u = a/k (GUM 4.3.7, 4.3.9)
+    # JCGM 100:2008 5.1.2 with the derivatives by hand: V = π D² L/4 + (π/6) D² (h1 + h2)
+    # (cylinder and half spheroids, CRC from memory; 2:1 heads h = D/4, common practice), the
+    # head depths toleranced apart: ∂V/∂D = π D L/2 + (π/3) D (h1 + h2), ∂V/∂L = π D²/4,
+    # ∂V/∂h = π D²/6; rectangular u = a/√3, normal u = a/k (GUM 4.3.7, 4.3.9)
     d = _json([str(DIESEL), "--count", "4", "--uncertainty", str(UNCERTAINTY),
                "--volume-unit", "m^3"], capsys)
-    D, L = 1.2, 2.4
-    uD, uL = 0.003 / math.sqrt(3), 0.004 / 2
-    expected = math.hypot((math.pi * D * L / 2 + math.pi * D ** 2 / 4) * uD,
-                          math.pi * D ** 2 / 4 * uL)
+    D, L, h = 1.2, 2.4, 0.3
+    uD, uL, uh = 0.003 / math.sqrt(3), 0.004 / 2, 0.003 / math.sqrt(3)
+    expected = math.sqrt(((math.pi * D * L / 2 + math.pi / 3 * D * 2 * h) * uD) ** 2
+                         + (math.pi * D ** 2 / 4 * uL) ** 2
+                         + 2 * (math.pi * D ** 2 / 6 * uh) ** 2)
     assert d["space"]["capacity_uncertainty"] == pytest.approx(expected, rel=1e-5)
     assert d["levels"][-1]["largest_contributor"] == "diameter"
     assert d["levels"][0]["volume_uncertainty"] < 1e-5 * expected      # empty: next to nothing
     assert any("JCGM 100:2008" in n for n in d["notes"])
     assert any("shell diameter" in n and "largest contributors" in n for n in d["notes"])
+    assert any("head 1 inside depth u = 0.001732 m" in n for n in d["notes"])
+
+
+RAINWATER = ROOT / "profiles" / "vessel-rainwater-tank.toml"
+RAINWATER_UNCERTAINTY = ROOT / "examples" / "uncertainty-rainwater-tank.toml"
+
+
+def test_head_radii_and_cone_angle_of_the_rainwater_example(capsys):
+    # the torispherical bottom's radii and the cone roof's angle count in the capacity's u
+    # (JCGM 100:2008 5.1.2), and a level in the shell has a smaller u than the full vessel
+    d = _json([str(RAINWATER), "--at", "1000 mm,1500 mm", "--uncertainty",
+               str(RAINWATER_UNCERTAINTY), "--volume-unit", "m^3"], capsys)
+    note = next(n for n in d["notes"] if "largest contributors" in n)
+    for words in ("head 1 crown radius", "head 1 knuckle radius", "head 2 cone half-angle"):
+        assert words in note
+    assert d["space"]["capacity_uncertainty"] > d["levels"][0]["volume_uncertainty"] > 0
+    assert d["levels"][0]["largest_contributor"] in ("diameter", "head_1_crown",
+                                                     "head_1_knuckle")
 
 
 def test_picture_and_report(tmp_path, capsys):
@@ -750,6 +770,10 @@ BAD_DEADWOOD = {
                                        "tolerance of the diameter needs"),
     (["--uncertainty", "other.toml"], "--uncertainty: other.toml: the vessel in [vessel] holds"),
     (["--uncertainty", "badkey.toml"], "--uncertainty: badkey.toml:1: tolerance: no tolerance can"),
+    (["--uncertainty", "crown.toml"], "--uncertainty: crown.toml:5: tolerance: crown: the vessel "
+                                      "has no head crown radius (heads ellipsoidal, ellipsoidal)"),
+    (["--uncertainty", "wall.toml"], "--uncertainty: wall.toml:5: tolerance: thickness: the "
+                                     "vessel has no wall thickness"),
     (["--picture", "t.gif"], "--picture: t.gif: pictures are written as .png or .svg"),
     (["--report", "nowhere/t.html"], "--report: "),
 ])
@@ -759,6 +783,10 @@ def test_bad_gauge_input(tmp_path, capsys, monkeypatch, args, expected):
         (tmp_path / name).write_text(text, encoding="utf-8")
     (tmp_path / "nodims.toml").write_text('[tolerance]\ndiameter = "1 mm"\n', encoding="utf-8")
     (tmp_path / "badkey.toml").write_text('[tolerance]\nwall = "1 mm"\n', encoding="utf-8")
+    tank = '[vessel]\ndiameter = "1200 mm"\nlength = "2400 mm"\nhead = "ellipsoidal"\n'
+    (tmp_path / "crown.toml").write_text(tank + '[tolerance]\ncrown = "1 mm"\n', encoding="utf-8")
+    (tmp_path / "wall.toml").write_text(tank + '[tolerance]\nthickness = "1 mm"\n',
+                                        encoding="utf-8")
     (tmp_path / "other.toml").write_text('[vessel]\ndiameter = "1300 mm"\nlength = "2400 mm"\n'
                                          'head = "ellipsoidal"\n[tolerance]\ndiameter = "1 mm"\n',
                                          encoding="utf-8")

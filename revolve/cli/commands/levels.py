@@ -205,8 +205,9 @@ def register(app: typer.Typer) -> None:
             help="The shell's linear expansion coefficient instead, e.g. '12e-6 /K'."),
         uncertainty: Optional[str] = typer.Option(
             None, "--uncertainty", metavar="FILE.toml",
-            help="Tolerances (diameter, length, tilt, reading) and the vessel's dimensions: "
-                 "each row's standard uncertainty (GUM) with its largest contributor."),
+            help="Tolerances (diameter, length, thickness, head crown, knuckle, angle, depth, "
+                 "tilt, reading) and the vessel's dimensions: each row's standard uncertainty "
+                 "(GUM) with its largest contributor."),
         picture: Optional[str] = typer.Option(
             None, "--picture", metavar="FILE", help="Write the level picture (.png or .svg)."),
         report: Optional[str] = options.report_option(),
