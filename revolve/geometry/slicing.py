@@ -387,7 +387,8 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
         piece = np.take(pieces, local)
         lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
-        params = np.take(group.params, piece - group.start, axis=0)
+        # indexing, not np.take(axis=0): take copies a strided view (a polyline's rows) whole
+        params = group.params[piece - group.start]
         _add_parts(iv, lo, hi, sign, params, *args)
 
 
