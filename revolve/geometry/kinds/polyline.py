@@ -162,9 +162,15 @@ class Polyline(SegmentKind):
         return sorted(set(at_vertex.tolist()) | set((cross + f).tolist()))
 
     def bounds(self):
-        # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
-        x, y = self.points[:, 0], self.points[:, 1]
-        return (float(x.min()), float(y.min()), float(x.max()), float(y.max()))
+        # Kept once found (the points are read-only): preparing, the section and the washers
+        # each ask for them, and each asking would be a pass over the whole array.
+        box = self.__dict__.get("_bounds")
+        if box is None:
+            # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+            x, y = self.points[:, 0], self.points[:, 1]
+            box = (float(x.min()), float(y.min()), float(x.max()), float(y.max()))
+            self.__dict__["_bounds"] = box        # frozen: the cache goes straight into the dict
+        return box
 
     def split_at(self, params: Sequence[float]) -> tuple:
         if not len(params):
@@ -212,10 +218,18 @@ class Polyline(SegmentKind):
         return self.points
 
     def snapped(self, tiny: float):
-        small = np.abs(self.points) < tiny
+        x0, y0, x1, y1 = self.bounds()
+        # only a column whose range comes within ``tiny`` of zero can hold a tiny coordinate
+        near = [k for k, (lo, hi) in enumerate(((x0, x1), (y0, y1))) if lo < tiny and hi > -tiny]
+        if not near:
+            return self
+        small = np.abs(self.points[:, near]) < tiny
         if not small.any():
             return self
-        return replace(self, points=np.where(small, 0.0, self.points))
+        pts = self.points.copy()
+        for j, k in enumerate(near):
+            pts[small[:, j], k] = 0.0
+        return replace(self, points=pts)
 
     def chord_count(self) -> int:
         return len(self.points) - 1
@@ -251,12 +265,26 @@ class Polyline(SegmentKind):
         >>> float(v[0][0]), how
         (4.0, ('closed form',))
         """
+        return cls.integral_rows_about(segments, symbolic)
+
+    @classmethod
+    def integral_rows_about(cls, segments, symbolic: bool = False, about=(0.0, 0.0)):
+        """:meth:`integral_rows` of the polylines moved by ``−about``, with no moved copy.
+
+        (:func:`~revolve.geometry.integrals.segment_integrals` asks for it when
+        the moments are taken about a point other than the origin.)
+
+        >>> square = Polyline(np.array([[1.0, 1.0], [2.0, 1.0], [2.0, 2.0], [1.0, 2.0], [1.0, 1.0]]))
+        >>> v, e, how = Polyline.integral_rows_about([square], about=(1.0, 1.0))
+        >>> float(v[0][3]), float(v[0][4])          # area 1, ∫∫ x dA = 0.5 about (1, 1)
+        (1.0, 0.5)
+        """
         from revolve.geometry.integrals import COLUMNS, polyline_sums
 
         values = np.zeros((len(segments), len(COLUMNS)))
         errors = np.zeros_like(values)
         for i, seg in enumerate(segments):
-            values[i], errors[i] = polyline_sums(seg.points)
+            values[i], errors[i] = polyline_sums(seg.points, about=about)
         return values, errors, ("closed form",) * len(segments)
 
     # -- for meshes and pictures (mesh.py) ----------------------------------------------
