@@ -489,7 +489,7 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
             return np.searchsorted(offsets, i, side="right") - 1
 
     def chord_vertex(i):                     # vertex row where chord i starts
-        return i + ordinal(i)
+        return i if single else i + ordinal(i)
 
     starts = np.sort(np.concatenate([[0], _turns(dx), _turns(dy), offsets[1:-1]]).astype(np.int64))
     starts = starts[np.concatenate([[True], starts[1:] != starts[:-1]])]

@@ -329,7 +329,12 @@ def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.
     # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
     # to the same washer area, without losing digits when a thin section lies far from
     # the axis.
-    val = (r - r_ref) * (r + r_ref)
+    val = np.subtract(r, r_ref)
+    if isinstance(r, np.ndarray) and r.flags.writeable and r.base is None:
+        r += r_ref                    # a fresh array of the kind's: no second temporary
+    else:
+        r = r + r_ref
+    val *= r
     if rule.exact:
         w = rule.weights[:, 0]
         sums = val[:, 0] * w[0]
@@ -396,8 +401,10 @@ def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r
                out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
     """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
     intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
-    c = np.maximum(np.take(a, iv), lo)
-    d = np.minimum(np.take(b, iv), hi)
+    c = np.take(a, iv)
+    np.maximum(c, lo, out=c)
+    d = np.take(b, iv)
+    np.minimum(d, hi, out=d)
     small = None
     if small_rule is not None:
         small = (d - c) <= SMALL_PART * (hi - lo)

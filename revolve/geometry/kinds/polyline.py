@@ -472,7 +472,12 @@ class Polyline(SegmentKind):
         [[2.0]]
         """
         z0, r0, z1, r1 = (params[:, k:k + 1] for k in range(4))
-        return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+        slope = np.subtract(r1, r0)
+        slope /= z1 - z0
+        r = np.subtract(z, z0)          # r0 + (z − z0)·slope, in one array
+        r *= slope
+        r += r0
+        return r
 
     @classmethod
     def washer_degree(cls):
