@@ -693,7 +693,10 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
     largest = max(abs((r_high - r_ref) * (r_high + r_ref)), abs((r_low - r_ref) * (r_low + r_ref)))
-    error = 16 * np.finfo(float).eps * largest * float((table.hi - table.lo).sum())
+    # the pieces' total extent along the axis, as two sums (no full-size temporary): a bound
+    # needs no more than its leading digits
+    extent = max(float(table.hi.sum()) - float(table.lo.sum()), 0.0)
+    error = 16 * np.finfo(float).eps * largest * extent
     n = 24
     budget = a.size + max_intervals
     used = 0

@@ -197,7 +197,7 @@ class Polyline(SegmentKind):
         return tuple(out)
 
     def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0), exact=None):
-        return replace(self, points=map_points(self.points, matrix, offset), exact=None)
+        return replace(self, points=_owned(map_points(self.points, matrix, offset)), exact=None)
 
     def translated(self, dx: float, dy: float = 0.0):
         if dx == 0 and dy == 0:
@@ -206,11 +206,11 @@ class Polyline(SegmentKind):
         pts = np.empty_like(self.points)
         np.add(self.points[:, 0], dx, out=pts[:, 0])
         np.add(self.points[:, 1], dy, out=pts[:, 1])
-        return replace(self, points=pts, exact=None)
+        return replace(self, points=_owned(pts), exact=None)
 
     def reversed(self) -> "Polyline":
         ex = self.exact
-        return replace(self, points=self.points[::-1].copy(),
+        return replace(self, points=_owned(self.points[::-1].copy()),
                        exact=None if ex is None else PolylineExact(tuple(reversed(ex.points))),
                        lines=None if self.lines is None else self.lines[::-1].copy())
 
@@ -218,18 +218,41 @@ class Polyline(SegmentKind):
         return self.points
 
     def snapped(self, tiny: float):
-        x0, y0, x1, y1 = self.bounds()
-        # only a column whose range comes within ``tiny`` of zero can hold a tiny coordinate
-        near = [k for k, (lo, hi) in enumerate(((x0, x1), (y0, y1))) if lo < tiny and hi > -tiny]
-        if not near:
+        """The polyline with coordinates of magnitude below ``tiny`` set to zero (``+0.0``).
+
+        Only a column whose range comes within ``tiny`` of zero is read, and the
+        array is copied only when some coordinate changes; the copy keeps the
+        bounds, found without another pass.
+
+        >>> p = Polyline(np.array([[1e-20, 1.0], [2.0, 0.0], [-0.0, 3.0]]))
+        >>> q = p.snapped(1e-12)
+        >>> q.points.tolist(), q.bounds(), q.bounds() == Polyline(q.points).bounds()
+        ([[0.0, 1.0], [2.0, 0.0], [0.0, 3.0]], (0.0, 0.0, 2.0, 3.0), True)
+        >>> exact_zeros = Polyline(np.array([[0.0, 1.0], [2.0, 0.0]]))
+        >>> exact_zeros.snapped(1e-12) is exact_zeros            # nothing to change: no copy
+        True
+        """
+        box = list(self.bounds())
+        pts = None
+        for k in (0, 1):
+            lo, hi = box[k], box[k + 2]
+            if not (lo < tiny and hi > -tiny):
+                continue                  # no coordinate of this column is that small
+            col = self.points[:, k]
+            small = np.flatnonzero(np.abs(col) < tiny)
+            small = small[(col[small] != 0.0) | np.signbit(col[small])]     # +0.0 stays as it is
+            if not small.size:
+                continue
+            if pts is None:
+                pts = self.points.copy()
+            pts[small, k] = 0.0
+            box[k] = 0.0 if abs(lo) < tiny else lo
+            box[k + 2] = 0.0 if abs(hi) < tiny else hi
+        if pts is None:
             return self
-        small = np.abs(self.points[:, near]) < tiny
-        if not small.any():
-            return self
-        pts = self.points.copy()
-        for j, k in enumerate(near):
-            pts[small[:, j], k] = 0.0
-        return replace(self, points=pts)
+        out = replace(self, points=_owned(pts))
+        out.__dict__["_bounds"] = tuple(box)
+        return out
 
     def chord_count(self) -> int:
         return len(self.points) - 1
@@ -515,6 +538,12 @@ class Polyline(SegmentKind):
                 errors[i] += float(e.sum())
         return values, errors
 
+
+
+def _owned(points):
+    """A new array that nothing else holds, made read-only (so the polyline keeps it, no copy)."""
+    points.flags.writeable = False
+    return points
 
 
 def _edge_rows(segments, factors):
