@@ -179,6 +179,8 @@ class PieceTable:
     hi: np.ndarray
     sign: np.ndarray
     groups: Tuple[PieceGroup, ...]
+    #: ``z_to > z_from`` per piece (kept from building the table, for :func:`_partition`)
+    rising: Optional[np.ndarray] = field(default=None, repr=False, compare=False)
 
     @property
     def count(self) -> int:
@@ -249,8 +251,9 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         z_from, z_to, factor = (np.concatenate([np.broadcast_to(v, z.shape) for v, z in
                                                 zip(c, (p[0] for p in parts))]) for c in zip(*parts))
     rising = z_to > z_from
-    return PieceTable(z_from, z_to, np.where(rising, z_from, z_to), np.where(rising, z_to, z_from),
-                      np.where(rising, -factor, factor), tuple(groups))
+    # (no piece has z_from == z_to: the lower end is the smaller one, whichever way it runs)
+    return PieceTable(z_from, z_to, np.minimum(z_from, z_to), np.maximum(z_from, z_to),
+                      np.where(rising, -factor, factor), tuple(groups), rising)
 
 
 @dataclass(frozen=True)
@@ -529,12 +532,12 @@ def _partition(table: PieceTable):
     """
     n = table.count
     z_from, z_to = table.z_from, table.z_to
-    linked = np.zeros(n, dtype=bool)
-    linked[:-1] = z_to[:-1] == z_from[1:]
-    values = np.concatenate([z_from, z_to[~linked]])
+    # the pieces that do not end where the next one starts (few: where a loop ends)
+    unlinked = np.append(np.flatnonzero(z_to[:-1] != z_from[1:]), n - 1)
+    values = np.concatenate([z_from, z_to[unlinked]])
     # A real outline runs along the axis in few monotone runs: a merge sort takes them in
     # about one pass. A noisy one turns back at most vertices: quicksort is faster there.
-    rising = z_to > z_from
+    rising = table.rising if table.rising is not None else z_to > z_from
     turns = int(np.count_nonzero(rising[1:] != rising[:-1]))
     order = np.argsort(values, kind="stable" if turns * 16 < n else "quicksort")
     ordered = values[order]
@@ -549,19 +552,22 @@ def _partition(table: PieceTable):
     where = np.empty(values.size, dtype=rank_type)
     where[order] = rank
     del order, ordered, new, rising, rank
-    at_from = where[:n]
-    at_to = np.empty(n, dtype=where.dtype)
-    at_to[:-1] = where[1:n]                        # a linked piece ends where the next starts
-    at_to[np.flatnonzero(~linked)] = where[n:]
-    low = np.minimum(at_from, at_to)
-    high = np.maximum(at_from, at_to)
+    # A piece starts at rank where[i] and ends at where[i + 1] (the next one's start), or for
+    # an unlinked piece at its own end's rank, stored after the starts.
+    low = np.empty(n, dtype=where.dtype)
+    high = np.empty(n, dtype=where.dtype)
+    np.minimum(where[:n - 1], where[1:n], out=low[:-1])
+    np.maximum(where[:n - 1], where[1:n], out=high[:-1])
+    ends = where[n:]
+    low[unlinked] = np.minimum(where[unlinked], ends)
+    high[unlinked] = np.maximum(where[unlinked], ends)
     high -= 1                                      # the last elementary interval met
-    del at_from, at_to, where, values, linked
+    del where, values, ends
     limit = PAIRS_PER_PIECE * n + 64
     intervals = breaks.size - 1
     # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
     # every break (and fall as k grows): start from the first k that bound allows.
-    beyond = int((high - low).sum(dtype=np.int64))
+    beyond = int(high.sum(dtype=np.int64)) - int(low.sum(dtype=np.int64))
     shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
     if all(g.kind.washer_degree() is not None for g in table.groups):
         # Exact rules only: a piece's part of a wider slice is as exact as of a narrow one,
