@@ -512,7 +512,7 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 PAIRS_PER_PIECE = 4
 #: When every kind's radius is a polynomial of ``z`` (exact rules, nothing to refine), the
 #: first partition keeps every 2^k-th piece end at least, k = this.
-EXACT_SLICE_SHIFT = 4
+EXACT_SLICE_SHIFT = 6
 
 
 def _partition(table: PieceTable):
