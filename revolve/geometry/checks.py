@@ -541,7 +541,7 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
                       np.abs(ch.y1).max()))
     slack = 4 * tol + 16 * np.finfo(float).eps * scale
-    tiny = np.flatnonzero(np.abs(dx) <= slack)
+    tiny = np.flatnonzero(_within(dx, slack))
     tiny = tiny[np.abs(dy[tiny]) <= slack]
     if tiny.size:
         gap = np.diff(tiny) > 1
@@ -745,6 +745,17 @@ def _farthest_from_axis(points: np.ndarray, lo, hi, axis: Axis) -> float:
     return float(r_all[int(np.argmax(np.abs(r_all)))])
 
 
+def _within(values: np.ndarray, bound: float) -> np.ndarray:
+    """``|values| ≤ bound`` as a boolean array, with no float temporary (two comparisons).
+
+    >>> _within(np.array([-2.0, -1.0, 0.0, 1.0, np.nan]), 1.0).tolist()
+    [False, True, True, True, False]
+    """
+    out = np.less_equal(values, bound)
+    out &= np.greater_equal(values, -bound)
+    return out
+
+
 def _check_path(path, k: int, tol: float) -> None:
     """Zero-length segments (a polyline's edges at once), joins and closure of path ``k``."""
     segs = path.segments
@@ -756,7 +767,7 @@ def _check_path(path, k: int, tol: float) -> None:
             pts = s.flatten()
             # An edge no longer than tol is no longer than tol on either axis: the exact
             # lengths only of those (hypot over every edge costs more than these passes).
-            short = np.flatnonzero(np.abs(np.diff(pts[:, 0])) <= tol)
+            short = np.flatnonzero(_within(np.diff(pts[:, 0]), tol))
             if short.size:
                 short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
                 short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],

@@ -239,7 +239,9 @@ class Polyline(SegmentKind):
             if not (lo < tiny and hi > -tiny):
                 continue                  # no coordinate of this column is that small
             col = self.points[:, k]
-            small = np.flatnonzero(np.abs(col) < tiny)
+            small = np.less(col, tiny)                 # |col| < tiny, no float temporary
+            small &= np.greater(col, -tiny)
+            small = np.flatnonzero(small)
             small = small[(col[small] != 0.0) | np.signbit(col[small])]     # +0.0 stays as it is
             if not small.size:
                 continue
