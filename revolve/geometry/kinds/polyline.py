@@ -514,7 +514,7 @@ class Polyline(SegmentKind):
         return 1
 
     @classmethod
-    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14, block: int = 1 << 16):
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14, block: int = 1 << 14):
         """``∫ r ds`` along each polyline, edge by edge by Gauss–Legendre: ``(values, errors)``.
 
         One value per polyline: the sum over its edges of two nodes per edge,
@@ -530,12 +530,14 @@ class Polyline(SegmentKind):
 
         values = np.zeros(len(segments))
         errors = np.zeros(len(segments))
+        work = np.empty((4, min(block, max((len(s.points) - 1 for s in segments), default=0))))
         for i, seg in enumerate(segments):
             pts = seg.points
             m = len(pts) - 1
             for j in range(0, m, block):
                 k = min(m, j + block)
-                v, e = _r_ds_straight(pts[j:k, 0], pts[j:k, 1], pts[j + 1:k + 1, 0], pts[j + 1:k + 1, 1])
+                v, e = _r_ds_straight(pts[j:k, 0], pts[j:k, 1], pts[j + 1:k + 1, 0], pts[j + 1:k + 1, 1],
+                                      work[:, :k - j])
                 values[i] += float(v.sum())
                 errors[i] += float(e.sum())
         return values, errors
