@@ -49,6 +49,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from functools import cached_property
 from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
@@ -160,10 +161,14 @@ class PieceTable:
     """The monotone pieces of a profile's loops as arrays, for the washers.
 
     ``z_from``, ``z_to`` are each piece's axial position at its start and
-    end, ``lo`` and ``hi`` its extent along the axis, and ``sign`` is
-    ``-direction × factor`` (the sign its ``r²`` takes in the slice). The
-    pieces of each kind are contiguous rows, described by ``groups``, each
-    kind's pieces in the order of their segments along the loops.
+    end, ``factor`` its loop's factor (one number when every piece has the
+    same), ``rising`` whether ``z_to > z_from``; ``lo`` and ``hi`` are its
+    extent along the axis, and ``sign`` is ``-direction × factor`` (the sign
+    its ``r²`` takes in the slice): these three are found when first asked for,
+    and :meth:`ends` gives them for some rows only (the washers take them block
+    by block, so no full-size array is made for them). The pieces of each kind
+    are contiguous rows, described by ``groups``, each kind's pieces in the
+    order of their segments along the loops.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
@@ -171,20 +176,47 @@ class PieceTable:
     >>> t = piece_table(prep, [1.0])
     >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist(), [g.kind.kind for g in t.groups]
     (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0], ['polyline'])
+    >>> [v.tolist() for v in t.ends(slice(1, 2))]
+    [[0.0], [2.0], [1.0]]
     """
 
     z_from: np.ndarray
     z_to: np.ndarray
-    lo: np.ndarray
-    hi: np.ndarray
-    sign: np.ndarray
+    factor: object
     groups: Tuple[PieceGroup, ...]
-    #: ``z_to > z_from`` per piece (kept from building the table, for :func:`_partition`)
-    rising: Optional[np.ndarray] = field(default=None, repr=False, compare=False)
+    rising: np.ndarray
 
     @property
     def count(self) -> int:
-        return int(self.lo.size)
+        return int(self.z_from.size)
+
+    def ends(self, rows):
+        """``(lo, hi, sign)`` of the pieces ``rows`` (a slice or an index array).
+
+        (No piece has ``z_from == z_to``: the lower end is the smaller one,
+        whichever way it runs.)
+        """
+        zf, zt, up = self.z_from[rows], self.z_to[rows], self.rising[rows]
+        f = self.factor if np.isscalar(self.factor) else self.factor[rows]
+        return np.minimum(zf, zt), np.maximum(zf, zt), np.where(up, np.negative(f), f)
+
+    @cached_property
+    def lo(self) -> np.ndarray:
+        return np.minimum(self.z_from, self.z_to)
+
+    @cached_property
+    def hi(self) -> np.ndarray:
+        return np.maximum(self.z_from, self.z_to)
+
+    @cached_property
+    def sign(self) -> np.ndarray:
+        return self.ends(slice(None))[2]
+
+    def extent(self) -> float:
+        """The pieces' total extent along the axis, ``Σ (hi − lo)``."""
+        d = np.subtract(self.z_to, self.z_from)
+        np.abs(d, out=d)
+        return float(d.sum())
 
 
 def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
@@ -244,16 +276,13 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         start += z_from.size
     if not parts:
         empty = np.zeros(0)
-        return PieceTable(empty, empty, empty, empty, empty, ())
+        return PieceTable(empty, empty, 0.0, (), np.zeros(0, dtype=bool))
     if len(parts) == 1:
         z_from, z_to, factor = parts[0]
     else:
         z_from, z_to, factor = (np.concatenate([np.broadcast_to(v, z.shape) for v, z in
                                                 zip(c, (p[0] for p in parts))]) for c in zip(*parts))
-    rising = z_to > z_from
-    # (no piece has z_from == z_to: the lower end is the smaller one, whichever way it runs)
-    return PieceTable(z_from, z_to, np.minimum(z_from, z_to), np.maximum(z_from, z_to),
-                      np.where(rising, -factor, factor), tuple(groups), rising)
+    return PieceTable(z_from, z_to, factor, tuple(groups), z_to > z_from)
 
 
 @dataclass(frozen=True)
@@ -374,7 +403,7 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         for p0 in range(0, count.size, block):
             p1 = min(count.size, p0 + block)
             rows = slice(pieces + p0, pieces + p1)
-            _add_parts(first[p0:p1], table.lo[rows], table.hi[rows], table.sign[rows],
+            _add_parts(first[p0:p1], *table.ends(rows),
                        group.params[base + p0:base + p1], *args)
         more = np.flatnonzero(count > 1)
         if more.size:
@@ -394,7 +423,7 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         local = np.repeat(np.arange(p0, p1), own)
         iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
         piece = np.take(pieces, local)
-        lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
+        lo, hi, sign = table.ends(piece)
         # indexing, not np.take(axis=0): take copies a strided view (a polyline's rows) whole
         params = group.params[piece - group.start]
         _add_parts(iv, lo, hi, sign, params, *args)
@@ -537,7 +566,7 @@ def _partition(table: PieceTable):
     values = np.concatenate([z_from, z_to[unlinked]])
     # A real outline runs along the axis in few monotone runs: a merge sort takes them in
     # about one pass. A noisy one turns back at most vertices: quicksort is faster there.
-    rising = table.rising if table.rising is not None else z_to > z_from
+    rising = table.rising
     turns = int(np.count_nonzero(rising[1:] != rising[:-1]))
     order = np.argsort(values, kind="stable" if turns * 16 < n else "quicksort")
     ordered = values[order]
@@ -607,9 +636,8 @@ def first_partition(table: PieceTable) -> np.ndarray:
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
     >>> _, _, _, params = Line.washer_pieces(segs)
-    >>> t = PieceTable(np.array([0.0, 2.0]), np.array([2.0, 0.0]), np.array([0.0, 0.0]),
-    ...                np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
-    ...                (PieceGroup(Line, segs, params, 0, 2),))
+    >>> t = PieceTable(np.array([0.0, 2.0]), np.array([2.0, 0.0]), 1.0,
+    ...                (PieceGroup(Line, segs, params, 0, 2),), np.array([True, False]))
     >>> first_partition(t).tolist()
     [0.0, 2.0]
     """
@@ -699,9 +727,7 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
     largest = max(abs((r_high - r_ref) * (r_high + r_ref)), abs((r_low - r_ref) * (r_low + r_ref)))
-    # the pieces' total extent along the axis, as two sums (no full-size temporary): a bound
-    # needs no more than its leading digits
-    extent = max(float(table.hi.sum()) - float(table.lo.sum()), 0.0)
+    extent = table.extent()
     error = 16 * np.finfo(float).eps * largest * extent
     n = 24
     budget = a.size + max_intervals
