@@ -18,16 +18,26 @@ Measuring
 Pictures
     :func:`draw` (on a matplotlib Axes)
 Trade jobs
-    :func:`estimate_coating` (``to_dict()`` is ``revolve coat --json``),
-    :func:`quote_turning` (one part; ``to_dict()`` is ``revolve turn --json``),
+    :func:`estimate_coating` (a :class:`CoatingResult`; ``to_dict()`` is
+    ``revolve coat --json``),
+    :func:`quote_turning` (one part, a :class:`TurningResult`; ``to_dict()`` is
+    ``revolve turn --json``),
     :func:`quote_turning_many` (many files, one row per part),
-    :func:`build_vessel` (``revolve vessel --json``),
-    :func:`level_table` (forward and inverse; ``revolve levels --json``)
+    :func:`build_vessel` (a :class:`VesselResult`; ``revolve vessel --json``),
+    :func:`level_table` (forward and inverse, a :class:`LevelResult`;
+    ``revolve levels --json``)
 Errors
     :class:`RevolveError` (a ``ValueError``; one sentence naming where)
 
 Lengths are in the profile's ``unit`` (default mm); densities carry their
-unit (``"7850 kg/m^3"``), a bare number being kg/m³.
+unit (``"7850 kg/m^3"``), a bare number being kg/m³. Every other dimensional
+argument of a job (diameters, lengths, steps, levels, volumes, film
+thicknesses, times, speeds) takes text with its unit (``"1/8 in"``,
+``"500 L"``, ``"75 um"``) or a pint quantity; a bare number is the unit its
+function documents (the vessel's ``units``, the level unit, the capacity
+unit, µm, mm of a metric bar list) or is refused. Prices say what they are
+per (``"2.40/kg"``, ``"85/h"``). Errors are :class:`RevolveError`, one
+sentence naming the argument (``density``, ``step``), not the command's option.
 
 Examples
 --------
@@ -37,6 +47,10 @@ Examples
 50.265482
 >>> "measure" in dir(revolve), revolve.__version__ == revolve.__dict__["__version__"]
 (True, True)
+>>> revolve.measure(ring, density="7850 kg")
+Traceback (most recent call last):
+...
+revolve.errors.UnitError: density: 'kg' is a mass unit, not a density unit
 >>> revolve.no_such_name
 Traceback (most recent call last):
 ...
@@ -67,6 +81,7 @@ _LAZY = {
     "measure_many": "revolve.jobs.batch",
     "draw": "revolve.render.drawing",
     "estimate_coating": "revolve.jobs.coating",
+    "CoatingResult": "revolve.jobs.coating",
     "quote_turning": "revolve.jobs.turning_quote",
     "quote_turning_many": "revolve.jobs.turning_quote",
     "TurningResult": "revolve.jobs.turning_quote",

@@ -202,3 +202,52 @@ def unit_option(role: str, kind: str, help_text: str):
     """``--{role}-unit``: an output unit of ``kind``."""
     return typer.Option(None, f"--{role}-unit", click_type=unit_type(kind), metavar="UNIT",
                         help=help_text)
+
+
+def report_option():
+    """``--report FILE.html``: the command's report (:func:`report_files`)."""
+    return typer.Option(None, "--report", metavar="FILE.html",
+                        help="Also write a report: one self-contained HTML file with the "
+                             "inputs, each part's section, every table, the sources and the "
+                             "cautions; prints on A4 or Letter. Many parts: a summary, then a "
+                             "page per part.")
+
+
+#: The most parts one report holds (a page and a picture each; bounded work).
+REPORT_MOST_PARTS = 200
+
+
+def check_report(path, force: bool, parts: int = 1) -> None:
+    """Refuse a ``--report`` name before any work: ending .html, its folder there, the one
+    overwrite rule (an existing file only with ``--force``), at most :data:`REPORT_MOST_PARTS`
+    parts. None: no report.
+
+    >>> check_report("r.html", False, parts=201)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --report: a report holds at most 200 parts, not 201; report fewer files at a time
+    """
+    if path is None:
+        return
+    if parts > REPORT_MOST_PARTS:
+        raise RevolveError(f"a report holds at most {REPORT_MOST_PARTS} parts, not {parts}; "
+                           "report fewer files at a time", option="--report")
+    from revolve.cli.common import check_output
+
+    check_output(path, (".html",), "reports", option="--report", force=force)
+
+
+def report_files(path, results, **how: Any) -> dict:
+    """``{path: (html, "--report")}`` for :func:`revolve.render.output.write_outputs` (with the
+    command's other files: all or none), or ``{}`` without ``--report``. ``how``: the
+    options of :func:`revolve.render.report.report_for` (axis, angle, units, title)."""
+    if path is None:
+        return {}
+    if isinstance(results, (list, tuple)) and not results:     # every part refused
+        import sys
+
+        print(f"revolve: no part could be reported; {path} not written", file=sys.stderr)
+        return {}
+    from revolve.render.report import report_for
+
+    return {path: (report_for(results, **how), "--report")}

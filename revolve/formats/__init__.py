@@ -130,6 +130,15 @@ def load_profile(path, *, unit: Optional[str] = None, exact: bool = False) -> Pr
     True
     >>> load_profile(path, exact=True).profile.loops[0].segments[0].exact.points[1]
     (Fraction(1, 2), Fraction(1, 1))
+
+    An empty file is refused, naming it:
+
+    >>> empty = os.path.join(tempfile.mkdtemp(), "empty.csv")
+    >>> open(empty, "w").close()
+    >>> load_profile(empty)                  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.FormatError: ...empty.csv: the file is empty
     """
     name = os.fspath(path)
     if not os.path.exists(name):

@@ -97,6 +97,13 @@ def write_profile(document_or_profile: Union[ProfileDocument, Profile], path_or_
     ...               density="1000 kg/m^3")
     >>> print(out.getvalue().splitlines()[2])
     density = "1000 kg/m^3"
+
+    An empty profile writes only its units (reading it back is refused: no loops or chains):
+
+    >>> out = io.StringIO()
+    >>> write_profile(Profile(), out)
+    >>> out.getvalue().splitlines()[1:]
+    ['units = "mm"']
     """
     text = profile_text(document_or_profile, axis=axis, angle=angle, material=material,
                         density=density, name=name, orientation=orientation)

@@ -31,7 +31,49 @@ from revolve.geometry.segments import COORDINATE_LIMIT, Point, Segment, Where
 
 @dataclass(frozen=True)
 class Loop:
-    """A closed sequence of segments, each starting where the previous one ends."""
+    """A closed sequence of segments, each starting where the previous one ends.
+
+    A loop bounds a section: revolved, it gives a volume and a surface.
+
+    Parameters
+    ----------
+    segments : tuple of segments
+        Lines, arcs, curves or polylines in order; the last ends where the
+        first starts (checked when the profile is measured, by place).
+    where : optional
+        Where the loop came from in a file, for messages.
+
+    Examples
+    --------
+    A 2 × 2 square 1 above the axis, from segments or from its corners:
+
+    >>> import revolve
+    >>> Loop = revolve.Loop                 # the public name (doctests may run on a copy of this module)
+    >>> square = Loop((revolve.Line((0, 1), (2, 1)), revolve.Line((2, 1), (2, 3)),
+    ...                revolve.Line((2, 3), (0, 3)), revolve.Line((0, 3), (0, 1))))
+    >>> len(square.segments), Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]).segments[0].kind
+    (4, 'polyline')
+
+    Swept about x it is a tube, π (3² − 1²) · 2 = 16π; a loop touching the
+    axis sweeps a solid, π 3² · 2 = 18π:
+
+    >>> round(revolve.measure(revolve.Profile(loops=(square,))).volume / math.pi, 12)
+    16.0
+    >>> disc = Loop.from_points([(0, 0), (2, 0), (2, 3), (0, 3)])
+    >>> round(revolve.measure(revolve.Profile(loops=(disc,))).volume / math.pi, 12)
+    18.0
+
+    An empty or open loop can be built, and is refused when measured:
+
+    >>> revolve.measure(revolve.Profile(loops=(Loop(()),)))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the profile has no segments
+    >>> revolve.measure(revolve.Profile(loops=(Loop(square.segments[:2]),)))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: loop 1, segment 2: the loop is not closed: it ends at (2, 3) but starts at (0, 1); add a segment back to the start
+    """
 
     segments: Tuple[Segment, ...]
     where: Optional[Where] = field(default=None, compare=False, repr=False)
@@ -79,7 +121,35 @@ class Loop:
 
 @dataclass(frozen=True)
 class Chain:
-    """An open sequence of segments: a surface without a section (sheet or shell)."""
+    """An open sequence of segments: a surface without a section (sheet or shell).
+
+    Parameters
+    ----------
+    segments : tuple of segments
+        Lines, arcs, curves or polylines in order, each starting where the
+        previous one ends.
+    where : optional
+        Where the chain came from in a file, for messages.
+
+    Examples
+    --------
+    A straight wall 4 long at radius 2 sweeps a cylinder's side, 2π · 2 · 4 =
+    16π, and no volume:
+
+    >>> import revolve
+    >>> Chain = revolve.Chain               # the public name (doctests may run on a copy of this module)
+    >>> wall = Chain.from_points([(0, 2), (4, 2)])
+    >>> r = revolve.measure(revolve.Profile(chains=(wall,)))
+    >>> r.volume, round(r.surface_area / math.pi, 12)
+    (0.0, 16.0)
+
+    A chain lying on the axis sweeps nothing, and is refused:
+
+    >>> revolve.measure(revolve.Profile(chains=(Chain.from_points([(0, 0), (4, 0)]),)))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the whole profile lies on the axis; it would sweep nothing
+    """
 
     segments: Tuple[Segment, ...]
     where: Optional[Where] = field(default=None, compare=False, repr=False)
@@ -138,6 +208,34 @@ class Profile:
 
     ``unit`` is the length unit of every coordinate (a plain name such as
     ``"mm"``); the engine itself is unit-free.
+
+    Parameters
+    ----------
+    loops : tuple of Loop
+        Closed loops: the section (a loop inside another is a hole).
+    chains : tuple of Chain
+        Open chains: surfaces without a section.
+    unit : str
+        The length unit of every coordinate; default ``"mm"``.
+    name, file : str, optional
+        The part's name and the file it came from, for results and messages.
+
+    Examples
+    --------
+    >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)], face="ring"),),
+    ...                unit="in", name="ring")
+    >>> ring.faces(), ring.unit
+    (('ring',), 'in')
+
+    An empty profile has no faces, and measuring it is refused:
+
+    >>> Profile().faces()
+    ()
+    >>> import revolve
+    >>> revolve.measure(revolve.Profile())
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the profile has no loops or chains; give at least one closed loop
     """
 
     loops: Tuple[Loop, ...] = ()
@@ -178,6 +276,18 @@ UNNAMED_FACE = "other"
 class Axis:
     """The axis of revolution: a point on it and a direction, in sketch coordinates.
 
+    Parameters
+    ----------
+    point : (float, float)
+        A point on the axis.
+    direction : (float, float)
+        Its direction (any length but zero); :meth:`x` and :meth:`y` are the
+        sketch axes.
+
+    Examples
+    --------
+    >>> Axis.y(), [round(c, 12) for c in Axis((0, 0), (1, 1)).unit_direction()]
+    (Axis(point=(0.0, 0.0), direction=(0.0, 1.0)), [0.707106781187, 0.707106781187])
     >>> Axis((0, 0), (0, 5)).unit_direction()
     (0.0, 1.0)
     >>> Axis((0, 0), (0, 0)).unit_direction()
@@ -256,7 +366,32 @@ class Axis:
 
 @dataclass(frozen=True)
 class Revolution:
-    """A profile swept about an axis through ``angle_degrees`` in (0, 360]."""
+    """A profile swept about an axis through ``angle_degrees`` in (0, 360].
+
+    Parameters
+    ----------
+    profile : Profile
+        The half-profile.
+    axis : Axis
+        The axis of revolution; default the sketch x axis.
+    angle_degrees : float
+        The angle swept, above 0 and at most 360 (default).
+
+    Examples
+    --------
+    A quarter turn of a 2 × 2 square 1 above the axis: a quarter of the
+    tube's 16π:
+
+    >>> import revolve
+    >>> loop = revolve.Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)])
+    >>> quarter = revolve.Revolution(revolve.Profile(loops=(loop,)), revolve.Axis.x(), 90)
+    >>> round(revolve.measure(quarter).volume / math.pi, 12)
+    4.0
+    >>> Revolution(Profile(loops=(loop,)), Axis.x(), 0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: the revolution angle must be above 0 and at most 360 degrees, got 0
+    """
 
     profile: Profile
     axis: Axis = field(default_factory=Axis.x)

@@ -105,7 +105,7 @@ def chunk_size(count: int, workers: int) -> int:
     return max(1, min(LARGEST_CHUNK, math.ceil(count / (max(1, workers) * CHUNKS_PER_WORKER))))
 
 
-def check_workers(workers: Optional[int]) -> None:
+def check_workers(workers: Optional[int], option: str = "--workers") -> None:
     """Refuse a number of worker processes below 1 (``--workers``).
 
     Examples
@@ -118,7 +118,7 @@ def check_workers(workers: Optional[int]) -> None:
     revolve.errors.RevolveError: --workers: give a whole number of at least 1, got 0
     """
     if workers is not None and workers < 1:
-        raise RevolveError(f"give a whole number of at least 1, got {workers}", option="--workers")
+        raise RevolveError(f"give a whole number of at least 1, got {workers}", option=option)
 
 
 def run_many(task: Callable[[Any], Any], items: Sequence[Any], *, workers: Optional[int] = None,
@@ -285,7 +285,7 @@ def measure_part(path: str, task: MeasureTask = MeasureTask()) -> PartMeasuremen
     return part if part.file else dataclasses.replace(part, file=path)
 
 
-def check_units(units: Optional[str]) -> None:
+def check_units(units: Optional[str], option: str = "--units") -> None:
     """Refuse, once and before any file is read, a ``units`` that is not a length unit.
 
     Examples
@@ -305,7 +305,7 @@ def check_units(units: Optional[str]) -> None:
     try:
         registry.factor(units, "length")
     except UnitError as e:
-        raise e.located(option="--units")
+        raise e.located(option=option)
 
 
 def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = None,
@@ -346,7 +346,24 @@ def measure_many(paths: Sequence[str], *, axis=None, angle: Optional[float] = No
         are still measured.
 
     See the module's examples.
+
+    Examples
+    --------
+    Errors name the library's arguments; no file given is no row:
+
+    >>> measure_many([])
+    []
+    >>> measure_many(["a.txt"], units="gallon")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: units: 'gallon' is a volume unit, not a length unit
+    >>> measure_many(["a.txt"], workers=0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: workers: give a whole number of at least 1, got 0
     """
+    check_units(units, option="units")
+    check_workers(workers, option="workers")
     return list(iter_measure(paths, axis=axis, angle=angle, units=units, density=density,
                              density_label=density_label, convert=convert, workers=workers,
                              serial_below=serial_below, progress=progress))

@@ -578,6 +578,21 @@ class LevelResult(Result):
     ``capacity`` is in the capacity unit (``units.unit("capacity")``).
     ``outline`` (not in the JSON) is the vessel drawn for the picture:
     (levels, radii) in the level unit and what it shows.
+
+    Examples
+    --------
+    A standing drum 1 m across and 1 m tall: π/4 · 1² · 1 m³ = 785.398 L,
+    a quarter of it at 250 mm; the empty level holds nothing:
+
+    >>> drum = Profile(loops=(Loop.from_points([(0, 0), (500, 0), (500, 1000), (0, 1000)]),),
+    ...                name="drum")
+    >>> t = level_table(drum, orientation="vertical", axis="y", at="0 mm, 250 mm")
+    >>> t
+    <LevelResult drum: 2 rows, vertical, capacity=785.398 L>
+    >>> [(row["level"], round(row["volume"], 6)) for row in t.rows]
+    [(0.0, 0.0), (250.0, 196.349541)]
+    >>> t.to_dict()["units"]["capacity"], t._repr_html_().startswith("<table>")
+    ('L', True)
     """
 
     outline: Any = field(default=None, compare=False)
@@ -1251,6 +1266,9 @@ def _outline(space, engine, metre, level_factor):
         z, r, _, _ = pc.geometry(np.arange(len(pc)), p)
         ref = pc.z_min + engine.shift if engine.tilt is None else (
             engine.gauge_z if engine.gauge_z is not None else pc.z_min)
+        # a NaN after each piece: the drawn line breaks there (a coil is not joined to the wall)
+        gap = np.full((z.shape[0], 1), np.nan)
+        z, r = np.hstack([z, gap]), np.hstack([r, gap])
         level = (z.ravel() - ref) * metre / level_factor
         return level, r.ravel() * metre / level_factor, "section"
     t = np.linspace(0.0, math.pi, 181)

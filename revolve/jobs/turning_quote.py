@@ -251,9 +251,16 @@ def read_speed(text: Any) -> Optional[float]:
 
     >>> read_speed("3000 rpm"), read_speed(None)
     (50.0, None)
+
+    A pint quantity of rotation per time (``Quantity(3000, "1/min")``) is read in rev/min.
     """
     if text is None:
         return None
+    if hasattr(text, "magnitude") and hasattr(text, "to"):              # a pint quantity
+        try:
+            text = float(text.to("1/min").magnitude)
+        except Exception:                                               # not per time
+            text = str(text)
     t = re.sub(r"\s*(rpm|rev/min|r/min|min\^-1|1/min)\s*$", "", str(text).strip(), flags=re.I)
     try:
         value = float(t) if len(t) < 40 else math.nan
@@ -1132,6 +1139,18 @@ class TurningResult(Result):
     operations, operation_formulas, times, cost (with overhead and price).
 
     The properties give the main figures in SI (m, m³, kg, s) and money.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> pin = Profile(loops=(Loop.from_points([(0, 0), (50, 0), (50, 15), (0, 15)]),), name="pin")
+    >>> r = quote_turning(pin, material="carbon steel")
+    >>> r             # doctest: +ELLIPSIS
+    <TurningResult pin: 32 mm round bar, part 0.277442 kg, stock 0.347234 kg, cycle ... min>
+    >>> r.to_dict()["command"], r.cost_per_part is None       # no prices given, no cost
+    ('turn', True)
+    >>> "<table>" in r._repr_html_()
+    True
     """
 
     quote: Any = dc_field(default=None, compare=False)
@@ -1335,13 +1354,37 @@ def _options(material, bar_list, stock, kwargs) -> TurnOptions:
     no_finish = kwargs.pop("no_finish", ()) or ()
     if isinstance(no_finish, str):
         no_finish = (no_finish,)
-    try:
-        opts = TurnOptions(material=material, bar_list=bar_list, stock=stock,
-                           no_finish=tuple(no_finish), **kwargs)
-    except TypeError as e:
-        raise RevolveError(f"unknown setting: {e}") from None
+    unknown = sorted(set(kwargs) - {f for f in TurnOptions.__dataclass_fields__})
+    if unknown:
+        raise RevolveError(f"unknown setting {quoted(unknown[0])}; give the options of "
+                           f"revolve turn by their names, such as stock_price or blank")
+    opts = TurnOptions(material=material, bar_list=bar_list, stock=stock,
+                       no_finish=tuple(no_finish), **kwargs)
     opts.check()
     return opts
+
+
+_OPTION = re.compile(r"--([a-z][a-z0-9]*(?:-[a-z0-9]+)*)")
+
+
+def _library_named(error: RevolveError) -> RevolveError:
+    """``error`` naming the library's argument (``stock_price``) where it names the option.
+
+    Every option of ``revolve turn`` is the keyword of :func:`quote_turning`
+    with its dashes turned to underscores, so the rule needs no table.
+
+    Examples
+    --------
+    >>> print(_library_named(RevolveError("give --blank with it", option="--blank-length")))
+    blank_length: give blank with it
+    """
+    def name(text):
+        return _OPTION.sub(lambda m: m.group(1).replace("-", "_"), text) if text else text
+
+    copy = error.located()
+    copy.option, copy.message = name(error.option), name(error.message)
+    copy.args = (copy.message,)
+    return copy
 
 
 def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: int = 1,
@@ -1418,14 +1461,25 @@ def quote_turning(profile_or_path, *, material: Optional[str] = None, quantity: 
     >>> quote_turning(pin, material="water")
     Traceback (most recent call last):
     ...
-    revolve.errors.MaterialError: --material: a material of group 'liquid' cannot be turned; choose a solid material
+    revolve.errors.MaterialError: material: a material of group 'liquid' cannot be turned; choose a solid material
     >>> quote_turning(pin, material="carbon steel", quantity=0)
     Traceback (most recent call last):
     ...
-    revolve.errors.RevolveError: --quantity: must be a whole number of at least 1, got 0
+    revolve.errors.RevolveError: quantity: must be a whole number of at least 1, got 0
+    >>> quote_turning(pin, material="carbon steel", turning_allowance="1 kg")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: turning_allowance: 'kg' is a mass unit, not a length unit
+
+    Lengths are text with a unit (``"1/16 in"``) or a pint quantity; a bare
+    number is in the bar list's unit (mm, or in for an inch bar list), and
+    prices and rates say what they are per (``"2.40/kg"``, ``"85/h"``).
     """
-    opts = _options(material, bar_list, stock, settings)
-    return quote_with(profile_or_path, opts, quantities(quantity, 1)[0])
+    try:
+        opts = _options(material, bar_list, stock, settings)
+        return quote_with(profile_or_path, opts, quantities(quantity, 1)[0])
+    except RevolveError as e:
+        raise _library_named(e) from None
 
 
 def quote_with(profile_or_path, opts: TurnOptions, quantity: int) -> TurningResult:
@@ -1463,20 +1517,34 @@ def quote_turning_many(paths: Sequence[Any], *, material: Optional[str] = None,
 
     Examples
     --------
+    >>> import tempfile, pathlib
+    >>> folder = pathlib.Path(tempfile.mkdtemp())
+    >>> _ = (folder / "pin.txt").write_text(chr(10).join(["0,0", "50,0", "50,15", "0,15"]))
+    >>> b = quote_turning_many([folder / "pin.txt", folder / "gone.txt"], material="carbon steel",
+    ...                        quantity=[10, 5])
+    >>> b.to_dict()["parts"][0]["quantity"], [error for _, error in b.failed]   # doctest: +ELLIPSIS
+    (10, ['...gone.txt: no such file; check the name and folder'])
     >>> quote_turning_many([])
     Traceback (most recent call last):
     ...
     revolve.errors.RevolveError: give at least one profile file
+    >>> quote_turning_many(["a.toml"], quantity=[1, 2])     # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: quantity: give one quantity (for every profile) or one per profile...
     """
     from revolve.jobs import batch
 
-    batch.check_workers(workers)
-    opts = _options(material, bar_list, stock, settings)
-    files = [os.fspath(p) for p in paths]
-    if not files:
-        raise RevolveError("give at least one profile file")
-    return quote_many_with(files, opts, quantities(quantity, len(files)), workers=workers,
-                           serial_below=serial_below, progress=progress)
+    try:
+        batch.check_workers(workers, option="workers")
+        opts = _options(material, bar_list, stock, settings)
+        files = [os.fspath(p) for p in paths]
+        if not files:
+            raise RevolveError("give at least one profile file")
+        return quote_many_with(files, opts, quantities(quantity, len(files)), workers=workers,
+                               serial_below=serial_below, progress=progress)
+    except RevolveError as e:
+        raise _library_named(e) from None
 
 
 def quote_many_with(files: Sequence[str], opts: TurnOptions, counts: Sequence[int], *,

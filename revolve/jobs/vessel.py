@@ -754,6 +754,19 @@ class VesselResult(Result):
     ``summary`` the :class:`VesselSummary`; :meth:`profile_text` and
     :meth:`wall_text` give the profile files ``revolve vessel`` writes.
     ``capacity`` is in the capacity unit (``units.unit("capacity")``).
+
+    Examples
+    --------
+    No shell between two hemispherical heads is a sphere, π/6 · 1³ m³
+    (from memory):
+
+    >>> ball = build_vessel("1 m", 0, head="hemispherical")
+    >>> round(ball.capacity, 6), round(math.pi / 6 * 1000, 6), ball.units.unit("capacity")
+    (523.598776, 523.598776, 'L')
+    >>> ball            # doctest: +ELLIPSIS
+    <VesselResult vessel, inside diameter 1000 mm, shell 0 mm, ...: capacity=523.599 L, ...>
+    >>> ball._repr_html_().startswith("<table>")
+    True
     """
 
     design: Optional[VesselDesign] = None

@@ -180,6 +180,16 @@ def draw(profile_or_result, ax=None, *, axis=None, angle=None, units=None):
     Traceback (most recent call last):
     ...
     revolve.errors.FormatError: no/such/file.toml: no such file...
+
+    A part touching the axis is drawn like any other; errors name the argument:
+
+    >>> disc = Profile(loops=(Loop.from_points([(0, 0), (2, 0), (2, 3), (0, 3)]),))
+    >>> draw(disc, axis="x").get_aspect()
+    1.0
+    >>> draw(disc, angle=400)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ProfileError: angle: the revolution angle must be above 0 and at most 360 degrees, got 400
     """
     from revolve.geometry.checks import prepare
     from revolve.jobs.measuring import MeasureResult, _axis_of, as_document, revolution_for
@@ -187,7 +197,8 @@ def draw(profile_or_result, ax=None, *, axis=None, angle=None, units=None):
     if isinstance(profile_or_result, MeasureResult):
         revolution = profile_or_result.revolution
     else:
-        revolution = revolution_for(as_document(profile_or_result, units), _axis_of(axis), angle)
+        revolution = revolution_for(as_document(profile_or_result, units), _axis_of(axis), angle,
+                                    angle_option="angle")
     if ax is None:
         from matplotlib.figure import Figure
 

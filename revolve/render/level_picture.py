@@ -103,10 +103,11 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         if z.size != r.size or z.size == 0:
             raise ValueError("the profile needs as many radii as levels (z, r)")
         # The vessel panel about to scale: its width over the plot height as 2.3 radii over the
-        # level span (the plot height taken as 70 % of the figure's), kept between 15 % and 40 %.
-        span = max(float(np.ptp(np.r_[z, levels])), 1e-300)
-        share = 0.7 * size[1] * 2.3 * max(float(np.max(np.abs(r))), 1e-300) / span / size[0]
-        share = min(max(share, 0.15), 0.40)
+        # level span (the plot height taken as 70 % of the figure's), kept between 15 % and 55 %.
+        both = np.r_[z, levels]
+        span = max(float(np.nanmax(both) - np.nanmin(both)), 1e-300)
+        share = 0.7 * size[1] * 2.3 * max(float(np.nanmax(np.abs(r))), 1e-300) / span / size[0]
+        share = min(max(share, 0.15), 0.55)
         grid = fig.add_gridspec(1, 2, width_ratios=(share, 1 - share))
         side = fig.add_subplot(grid[0, 0])
         chart = fig.add_subplot(grid[0, 1], sharey=side)
@@ -139,7 +140,7 @@ def level_picture(levels, volumes, wetted_areas=None, *, level_unit: str, volume
         side.plot(r, z, color=WALL_COLOUR, lw=1.6)
         side.plot(-r, z, color=WALL_COLOUR, lw=0.8, alpha=0.35)
         side.axvline(0, color="#444444", lw=0.7, ls=(0, (10, 3, 2, 3)))
-        reach = 1.12 * max(float(np.max(np.abs(r))), 1e-300)
+        reach = 1.12 * max(float(np.nanmax(np.abs(r))), 1e-300)
         side.set_xlim(-reach, reach)
         side.set_ylabel(level_label)
         side.set_xlabel(f"radius ({level_unit})")

@@ -359,8 +359,11 @@ def profile_picture(revolution, measurement, path: str, *, units, title: Optiona
 
 def profile_figure(revolution, measurement, *, units, title: Optional[str] = None,
                    density_label: Optional[str] = None, width: int = 1200, height: int = 800,
-                   dpi: int = 100):
+                   dpi: int = 100, figures: bool = True):
     """The matplotlib ``Figure`` of :func:`profile_picture` (drawn on the Agg canvas).
+
+    ``figures=False`` leaves the results out of the caption (only how the
+    profile is revolved): a report shows them in its tables.
 
     >>> from revolve.jobs.measuring import part_units
     >>> from revolve.geometry.measure import measure
@@ -397,6 +400,8 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
     scale = min(width, height * 1.5) / 1200.0 * 100.0 / dpi  # font scale for small pictures
     fs = max(7.0 * 100.0 / dpi, 10.0 * scale)
     caption = _caption_lines(m, u, revolution, density_label)
+    if not figures:
+        caption = caption[:1][0].split("   ·   ")[:1]
     caption_height, top = _frame(fig, title, caption, fs)
     ax = fig.add_axes([0.03, caption_height + 0.03, 0.72, top - caption_height - 0.04])
     ax.set_axis_off()
@@ -417,6 +422,11 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
     # The part in the axis frame: z along the axis, r from it.
     z_all, r_all = (allpts - origin) @ along, (allpts - origin) @ towards
     z0, z1, r0, r1 = float(z_all.min()), float(z_all.max()), float(r_all.min()), float(r_all.max())
+    # the figures written on the dimensions are exact (each frame segment's bounds: an arc's
+    # crest between the sketch's sample points counts), the lines are drawn at the samples
+    bounds = np.array([seg.bounds() for path in prep.paths for seg in path])
+    length_text = float(bounds[:, 2].max() - bounds[:, 0].min())
+    outer_text, inner_text = float(bounds[:, 3].max()), float(bounds[:, 1].min())
     at = lambda z, r: origin + z * along + r * towards  # noqa: E731
     near = 1e-9 * size
     gap = 0.09 * max(z1 - z0, r1 - (0.0 if show_axis else r0), 1e-12 * size)
@@ -427,22 +437,22 @@ def profile_figure(revolution, measurement, *, units, title: Optional[str] = Non
         fa = allpts[np.argmax(np.where(np.abs(z_all - z0) <= near * 10, r_all, -np.inf))]
         fb = allpts[np.argmax(np.where(np.abs(z_all - z1) <= near * 10, r_all, -np.inf))]
         dims.append((fa, fb, at(z0, r1 + gap), at(z1, r1 + gap),
-                     f"{fmt((z1 - z0) * L, 5)} {u.length}", "<|-|>"))
+                     f"{fmt(length_text * L, 5)} {u.length}", "<|-|>"))
     solid_bore = r0 > 1e-6 * size
     if show_axis:
         if r1 > 1e-12 * size:
             f = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
             dims.append((f, None, at(z1 + gap, 0.0), at(z1 + gap, r1),
-                         f"Ø{fmt(2 * r1 * L, 5)} {u.length}", "-|>"))
+                         f"Ø{fmt(2 * outer_text * L, 5)} {u.length}", "-|>"))
         if solid_bore:
             f = allpts[np.argmin(np.where(np.abs(r_all - r0) <= near * 10, z_all, np.inf))]
             dims.append((f, None, at(z0 - gap, 0.0), at(z0 - gap, r0),
-                         f"Ø{fmt(2 * r0 * L, 5)} {u.length}", "-|>"))
+                         f"Ø{fmt(2 * inner_text * L, 5)} {u.length}", "-|>"))
     elif r1 - r0 > 1e-12 * size:
         fa = allpts[np.argmax(np.where(np.abs(r_all - r0) <= near * 10, z_all, -np.inf))]
         fb = allpts[np.argmax(np.where(np.abs(r_all - r1) <= near * 10, z_all, -np.inf))]
         dims.append((fa, fb, at(z1 + gap, r0), at(z1 + gap, r1),
-                     f"{fmt((r1 - r0) * L, 5)} {u.length}", "<|-|>"))
+                     f"{fmt((outer_text - inner_text) * L, 5)} {u.length}", "<|-|>"))
 
     # The view: the profile, the foot of the axis beside it, room for the dimensions.
     view_pts = [allpts] + [np.array([d[2], d[3]]) for d in dims]
@@ -815,3 +825,24 @@ def solid_figure(revolution, measurement, *, units, title: Optional[str] = None,
     ax.set_aspect("equal", adjustable="box")
 
     return fig, mesh
+
+
+def section_svg(revolution, measurement, *, units, title: Optional[str] = None,
+                width: int = 600, height: int = 360) -> str:
+    """The 2-D section picture (:func:`profile_figure`, results left to the tables) as inline SVG.
+
+    For reports (:func:`revolve.render.report.report_for`): text as paths,
+    nothing outside the picture referenced (:func:`revolve.render.report.svg_of`).
+
+    >>> from revolve.jobs.measuring import part_units
+    >>> from revolve.geometry.measure import measure
+    >>> from revolve.geometry.profile import Axis, Loop, Profile, Revolution
+    >>> rev = Revolution(Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),)), Axis.x())
+    >>> text = section_svg(rev, measure(rev), units=part_units("mm"), width=300, height=200)
+    >>> text.startswith("<svg"), "http" in text
+    (True, False)
+    """
+    from revolve.render.report import svg_of
+
+    return svg_of(profile_figure(revolution, measurement, units=units, title=title, width=width,
+                                 height=height, figures=False))

@@ -46,7 +46,7 @@ from typing import Any, Iterable, List, Mapping, Optional, Sequence, Tuple, Unio
 from revolve.jobs.results import Field, Result, Table
 from revolve.render.output import _heading, cell, write_outputs
 
-__all__ = ["report_html", "write_report", "svg_of", "STYLE"]
+__all__ = ["report_html", "report_for", "write_report", "svg_of", "STYLE"]
 
 #: The report's style sheet, screen and print (inline in every report).
 STYLE = """
@@ -84,6 +84,11 @@ section.part.first { break-before: auto; page-break-before: auto; }
   body { max-width: none; margin: 0; padding: 0; font-size: 9.5pt; }
   table { font-size: 8.5pt; }
   a { color: inherit; text-decoration: none; }
+  /* a part's picture, tables and cautions on one page */
+  figure { margin: 0.2em 0 0.4em; }
+  figure svg { max-height: 80mm; }
+  th, td { padding: 0.05em 0.4em; }
+  section.part > h2:first-child { margin-top: 0; }
 }
 """
 
@@ -268,34 +273,47 @@ def _part_name(r: Result, k: int) -> str:
     return f"part {k + 1}"
 
 
-def _summary_html(results: Sequence[Result], names: Sequence[str]) -> str:
-    """One row per part: the figures of each part's first table of figures (else its first table)."""
+def _shown_row(r: Result, key: str) -> Tuple[Optional[Table], Mapping[str, Any]]:
+    """Table ``key`` of ``r`` and its figures (a table of rows: its first row) in output units."""
+    t = next((t for t in r.tables if t.key == key), None)
+    if t is None:
+        return None, {}
+    shown = t.json(r.units)
+    return t, (shown if t.figures else (shown[0] if shown else {}))
+
+
+def _summary_html(results: Sequence[Result], names: Sequence[str],
+                  summary: Optional[Sequence[Tuple[str, str]]] = None) -> str:
+    """One row per part: the figures ``summary`` names as ``(table key, field key)`` pairs, by
+    default every figure of each part's first table of figures (else its first table)."""
     columns: List[Tuple[str, Field]] = []       # (table key, field) in first-seen order
     seen = set()
-    chosen = []
-    for r in results:
-        t = next((t for t in r.tables if t.figures), r.tables[0] if r.tables else None)
-        chosen.append(t)
-        if t is None:
-            continue
-        shown = t.json(r.units)
-        shown = shown if t.figures else (shown[0] if shown else {})
-        for f in t.fields:
-            if f.key in shown and (t.key, f.key) not in seen and f.style != "text":
-                seen.add((t.key, f.key))
-                columns.append((t.key, f))
+    if summary is None:
+        for r in results:
+            t = next((t for t in r.tables if t.figures), r.tables[0] if r.tables else None)
+            if t is None:
+                continue
+            _, shown = _shown_row(r, t.key)
+            for f in t.fields:
+                if f.key in shown and (t.key, f.key) not in seen and f.style != "text":
+                    seen.add((t.key, f.key))
+                    columns.append((t.key, f))
+    else:
+        for key, field_key in summary:
+            for r in results:
+                t, shown = _shown_row(r, key)
+                f = next((f for f in t.fields if f.key == field_key), None) if t else None
+                if f is not None and field_key in shown:
+                    columns.append((key, f))
+                    break
     heads, cells = [], [[] for _ in results]
     for key, f in columns:
-        units = {_unit(f, r) for r, t in zip(results, chosen) if t is not None and t.key == key}
+        units = {_unit(f, r) for r in results if _shown_row(r, key)[0] is not None}
         one = len(units) == 1
         unit = next(iter(units)) if one else ""
         heads.append(f"{f.label} ({unit})" if one and unit else f.label)
-        for i, (r, t) in enumerate(zip(results, chosen)):
-            if t is None or t.key != key:
-                cells[i].append(_td("—", f))
-                continue
-            shown = t.json(r.units)
-            shown = shown if t.figures else (shown[0] if shown else {})
+        for i, r in enumerate(results):
+            _, shown = _shown_row(r, key)
             if f.key not in shown:
                 cells[i].append(_td("—", f))
                 continue
@@ -335,7 +353,8 @@ def _normalise(results, pictures) -> Tuple[List[Result], List[Sequence[Tuple[str
 
 def report_html(results: Union[Result, Sequence[Result]], *, title: str,
                 pictures: Optional[Sequence[Any]] = None,
-                sources: Optional[Sequence[str]] = None) -> str:
+                sources: Optional[Sequence[str]] = None,
+                summary: Optional[Sequence[Tuple[str, str]]] = None) -> str:
     """One self-contained HTML report of one result or of many (one page per part).
 
     Parameters
@@ -353,6 +372,9 @@ def report_html(results: Union[Result, Sequence[Result]], *, title: str,
     sources : sequence of str, optional
         The sources of materials and data (shown with those a result holds
         in ``extra["sources"]``).
+    summary : sequence of (str, str), optional
+        Many parts: the summary's columns as ``(table key, field key)``
+        pairs (default: every figure of each part's first table of figures).
 
     Returns
     -------
@@ -396,7 +418,7 @@ def report_html(results: Union[Result, Sequence[Result]], *, title: str,
            f'<p class="meta">revolve {escape(commands)}'
            f"{f' — {len(results)} parts' if many else ''}</p>"]
     if many:
-        top.append(_summary_html(results, names))
+        top.append(_summary_html(results, names, summary))
         top.append(_sources_html(all_sources))
         top.append(_cautions_html(c for r in results for c in r.cautions))
         closing = ""
@@ -422,3 +444,147 @@ def write_report(path: str, html: str, force: bool, option: str = "--report") ->
     '<p>b</p>'
     """
     write_outputs({path: (html, option)}, force=force)
+
+
+#: The summary's columns of a many-parts report by command: (table key, field key).
+SUMMARIES = {
+    "measure": (("figures", "area"), ("figures", "volume"), ("figures", "surface_area"),
+                ("figures", "mass"), ("crosscheck", "volume_verdict"),
+                ("crosscheck", "surface_verdict")),
+    "turn": (("part", "part_diameter"), ("part", "part_length"), ("part", "part_mass"),
+             ("stock", "stock_label"), ("stock", "stock_mass"),
+             ("removed", "utilisation_percent"), ("bars", "bars_needed"),
+             ("times", "cycle_time")),
+}
+
+#: The report's title by command (then the part's name, for one part).
+TITLES = {"measure": "Measurement", "vessel": "Vessel", "turn": "Turning quote",
+          "coat": "Coating estimate", "levels": "Level table"}
+
+
+def _measured_parts(r: Result, axis, angle, units) -> List[Tuple[str, Any, Any, Any]]:
+    """``(name, revolution, measurement, output units)`` of each part a result is about.
+
+    What the result holds is used as it is (a measured part, a vessel's
+    design); otherwise the profile files its inputs name are read again with
+    the command's ``axis``, ``angle`` and ``units`` and measured (quick
+    beside drawing the picture).
+    """
+    from revolve.jobs.measuring import (measure_document, parse_axis, part_units,
+                                        revolution_for)
+
+    part = getattr(r, "part", None)
+    if getattr(part, "measurement", None) is not None and getattr(part, "revolution", None):
+        doc = part.document
+        return [(doc.name or doc.file or "profile", part.revolution, part.measurement, r.units)]
+    design = getattr(r, "design", None)
+    if design is not None:                       # a vessel: the liquid space it writes
+        from revolve.geometry.measure import measure
+        from revolve.geometry.profile import Revolution
+        from revolve.jobs.vessel import sketch_profile
+
+        profile, shown_axis = sketch_profile(design, getattr(r, "orientation", "vertical"),
+                                             "inside", name=getattr(r, "name", None))
+        rev = Revolution(profile, shown_axis)
+        return [("liquid space", rev, measure(rev),
+                 part_units(profile.unit, length=r.units.unit("length")))]
+    files = r.inputs.get("profiles") or [r.inputs.get("file")]
+    out = []
+    for path in files:
+        if not isinstance(path, str) or not path:
+            continue
+        from revolve.formats import load_profile
+
+        doc = load_profile(path, unit=units)
+        given = parse_axis(axis) if isinstance(axis, str) else axis
+        part = measure_document(doc, axis=revolution_for(doc, given, angle).axis, angle=angle)
+        out.append((doc.name or path, part.revolution, part.measurement,
+                    part_units(doc.profile.unit)))
+    return out
+
+
+def _tall(profile) -> bool:
+    """Whether the sketch is taller than it is wide (each segment's exact bounds)."""
+    bounds = [s.bounds() for s in profile.segments()]
+    if not bounds:
+        return False
+    x0, y0 = min(b[0] for b in bounds), min(b[1] for b in bounds)
+    x1, y1 = max(b[2] for b in bounds), max(b[3] for b in bounds)
+    return (y1 - y0) > (x1 - x0)
+
+
+def _data_sources(r: Result) -> List[str]:
+    """Where a result's materials and data come from, as its inputs and JSON name them."""
+    i, out = r.inputs, []
+    d = r.to_dict()
+    if i.get("material_name") and i.get("material_source"):
+        density = i.get("density_kg_m3")
+        out.append(f"material: {i['material_name']}"
+                   + (f", {density:g} kg/m³" if isinstance(density, (int, float)) else "")
+                   + f" ({i['material_source']})")
+    if i.get("cutting_data_source"):
+        out.append(f"cutting data: {i['cutting_data_source']}")
+    if i.get("stock_list"):
+        out.append(f"stock sizes and prices: {i['stock_list']}")
+    for key, label in (("density", "density"), ("metal", "metal"), ("liquid", "liquid")):
+        if isinstance(d.get(key), str) and d[key]:
+            out.append(f"{label}: {d[key]}")
+    system = i.get("system")
+    if isinstance(system, Mapping):
+        where = f"the file {system['file']}" if system.get("file") else "the command line"
+        out.append(f"coating system: {system.get('name') or 'one coat'}, from {where} "
+                   "(film thickness, volume solids and loss as given there; they belong to the "
+                   "coating's data sheet)")
+    return out
+
+
+def report_for(results: Union[Result, Sequence[Result]], *, title: Optional[str] = None,
+               axis: Any = None, angle: Optional[float] = None, units: Optional[str] = None,
+               width: int = 600, height: int = 360) -> str:
+    """The report of a command's result(s): each part's section picture, the data sources.
+
+    The one path from a command's :class:`Result` to its ``--report``: the
+    tables are the result's (the JSON's numbers), each part's 2-D section is
+    drawn (:func:`revolve.render.pictures.section_svg`), the sources of
+    materials and data are collected from the inputs, and the title is the
+    command's with the part's name. ``axis``, ``angle``, ``units`` are the
+    command's options, used where the picture must read a profile file again.
+
+    Examples
+    --------
+    >>> from revolve.geometry.profile import Loop, Profile
+    >>> from revolve.jobs.measuring import measure
+    >>> ring = Profile(loops=(Loop.from_points([(0, 1), (2, 1), (2, 3), (0, 3)]),), name="ring")
+    >>> page = report_for(measure(ring, density="7850"), width=300, height=200)
+    >>> "<title>Measurement: ring</title>" in page, page.count("<svg"), "density: " in page
+    (True, 1, True)
+    >>> report_for([])
+    Traceback (most recent call last):
+    ...
+    ValueError: a report needs at least one result
+    """
+    from revolve.render.pictures import section_svg
+
+    results = [results] if isinstance(results, Result) else list(results)
+    if not results:
+        raise ValueError("a report needs at least one result")
+    pictures, sources = [], []
+    for r in results:
+        shown = []
+        for name, rev, m, u in _measured_parts(r, axis, angle, units):
+            # a tall sketch: a square picture (narrower, so its text stays as large on paper)
+            w, h = (max(300, round(0.75 * width)),) * 2 if _tall(rev.profile) else (width, height)
+            shown.append((f"Section of {name} (the half-profile revolved about the axis)",
+                          section_svg(rev, m, units=u, title=name if len(results) > 1 else None,
+                                      width=w, height=h)))
+        pictures.append(shown)
+        sources.extend(_data_sources(r))
+    if title is None:
+        command = results[0].command
+        head = TITLES.get(command, f"revolve {command}")
+        name = results[0].inputs.get("name") or _part_name(results[0], 0)
+        title = (f"{head}: {name}" if len(results) == 1 and
+                 command != "coat" else head + (f", {len(results)} parts" if len(results) > 1
+                                                else ""))
+    return report_html(results, title=title, pictures=pictures, sources=sources,
+                       summary=SUMMARIES.get(results[0].command))

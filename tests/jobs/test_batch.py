@@ -95,8 +95,11 @@ def test_progress_counts_every_part_serial_and_pooled(tmp_path):
 
 
 def test_settings_are_refused_once_before_any_file(tmp_path):
-    with pytest.raises(RevolveError, match="^--units: 'litre'"):
+    # The library names its argument; the command line's path (iter_measure) its option.
+    with pytest.raises(RevolveError, match="^units: 'litre'"):
         batch.measure_many([str(tmp_path / "never.txt")], units="litre")
+    with pytest.raises(RevolveError, match="^--units: 'litre'"):
+        batch.iter_measure([str(tmp_path / "never.txt")], units="litre")
     with pytest.raises(RevolveError, match="^--workers: "):
         batch.run_many(len, ["a"], workers=0)
 

@@ -31,8 +31,9 @@ from revolve.cli import options
 
 
 def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, force: bool,
-             **inputs: Any) -> int:
-    """Estimate, write the CSV, print; return the exit code (1: a cross-check disagrees)."""
+             report: Optional[str] = None, **inputs: Any) -> int:
+    """Estimate, write the CSV and the report, print; return the exit code (1: a cross-check
+    disagrees)."""
     import sys
 
     from revolve.formats.paths import profile_paths
@@ -43,10 +44,13 @@ def run_coat(profiles: List[str], *, csv_file: Optional[str], as_json: bool, for
     if csv_file:
         check_target(csv_file, option="--csv", replace=force)      # before any work
     paths, left_out = profile_paths(profiles, skip=csv_file)
+    options.check_report(report, force, len(paths))
     result = coating.run(paths, names=coating.CLI_NAMES, left_out=left_out, **inputs)
+    files = options.report_files(report, result, axis=inputs.get("axis"),
+                                 angle=inputs.get("angle"), units=inputs.get("units"))
     if csv_file:
-        output.write_outputs({csv_file: (output.csv_text(result, "quantities"), "--csv")},
-                             force=force)
+        files[csv_file] = (output.csv_text(result, "quantities"), "--csv")
+    output.write_outputs(files, force=force)
     if as_json:
         sys.stdout.write(output.json_text(result) + "\n")
     else:
@@ -140,6 +144,7 @@ def register(app: typer.Typer) -> None:
         csv_file: Optional[str] = typer.Option(None, "--csv", help="Also write one row per part "
                                                                    "and coat to this CSV file."),
         force: bool = options.force_option(),
+        report: Optional[str] = options.report_option(),
         tolerance: float = options.tolerance_option(1e-9),
         packs: Optional[str] = typer.Option(
             None, "--packs", metavar="SIZES", help="Pack sizes the one coat is sold in, each with "
@@ -197,7 +202,7 @@ def register(app: typer.Typer) -> None:
         Units: areas m², paint L, films µm (ft², US gal, mil for inch or foot
         drawings or with --us); small parts in cm² (in²) and mL.
         """
-        code = run_coat(profiles, csv_file=csv_file, as_json=as_json, force=force,
+        code = run_coat(profiles, csv_file=csv_file, as_json=as_json, force=force, report=report,
                         quantity=quantity, faces=faces, mask=mask, sides=sides,
                         cut_faces=cut_faces, system=system, coat_name=coat_name, dft=dft,
                         volume_solids=volume_solids, loss=loss, price_per_litre=price_per_litre,

@@ -32,7 +32,7 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
                 length_unit: Optional[str], area_unit: Optional[str], volume_unit: Optional[str],
                 mass_unit: Optional[str], tolerance: float, csv_path: Optional[str] = None,
                 *, force: bool = False, workers: Optional[int] = None,
-                serial_below: Optional[int] = None) -> int:
+                serial_below: Optional[int] = None, report: Optional[str] = None) -> int:
     """Measure one file (tables or JSON) or many (one row per part); the exit code.
 
     ``profile`` is a file name or a list of files and folders. One file that
@@ -40,7 +40,8 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     else one row per part. ``axis`` and ``density`` are text or already
     parsed (an :class:`~revolve.geometry.profile.Axis`, a density in kg/m³).
     Exit code 0, 1 when a cross-check disagrees, 2 when a part is refused
-    (the other rows are still given).
+    (the other rows are still given). ``report``: also write the HTML report
+    (``--report``; many parts: a summary, then a page per part measured).
     """
     from revolve.cli import common
     from revolve.formats.paths import profile_paths
@@ -56,6 +57,7 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
         raise RevolveError(f"must be a positive number, got {tolerance:g}", option="--tolerance")
     single = len(items) == 1 and not os.path.isdir(items[0])
     paths, left_out = ([items[0]], []) if single else profile_paths(items, skip=csv_path)
+    options.check_report(report, force, len(paths))
     if exact and not single:
         raise RevolveError("give one file with --exact; closed forms are worked out one part "
                            "at a time", option="--exact")
@@ -70,9 +72,13 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     if not single:
         from revolve.cli.rows import run_batch
 
-        return run_batch(paths, left_out, task, as_json, csv_path,
+        code = run_batch(paths, left_out, task, as_json, csv_path,
                          JsonRow(length_unit, area_unit, volume_unit, mass_unit, tolerance),
                          force=force, workers=workers, serial_below=serial_below)
+        if report is not None:
+            _batch_report(report, paths, task, (length_unit, area_unit, volume_unit, mass_unit),
+                          tolerance, force)
+        return code
 
     part = batch.measure_part(paths[0], task)
     exact_out = None
@@ -83,16 +89,36 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
                                   exact_angle=angle)
     u = part_units(part.document.profile.unit, length_unit, area_unit, volume_unit, mass_unit)
     result = measure_result(part, u, tolerance=tolerance, exact_out=exact_out)
-    return show_result(result, as_json, csv_path, force)
+    return show_result(result, as_json, csv_path, force, report)
 
 
-def show_result(result, as_json: bool, csv_path: Optional[str], force: bool) -> int:
-    """Print one part's result (tables or JSON), write its CSV; the exit code (1: disagree)."""
+def _batch_report(report: str, paths, task, unit_names, tolerance: float, force: bool) -> None:
+    """The many-parts report: every part that was measured (a refused one has its row's error)."""
+    from revolve.jobs import batch
+    from revolve.jobs.measuring import measure_result, part_units
     from revolve.render import output
 
+    results = []
+    for path in paths:
+        try:
+            part = batch.measure_part(path, task)
+        except RevolveError:
+            continue
+        results.append(measure_result(part, part_units(part.document.profile.unit, *unit_names),
+                                      tolerance=tolerance))
+    output.write_outputs(options.report_files(report, results), force=force)
+
+
+def show_result(result, as_json: bool, csv_path: Optional[str], force: bool,
+                report: Optional[str] = None) -> int:
+    """Print one part's result (tables or JSON), write its CSV and report (all or none); the
+    exit code (1: disagree)."""
+    from revolve.render import output
+
+    files = options.report_files(report, result)
     if csv_path is not None:
-        output.write_outputs({csv_path: (output.csv_text(one_row(result)), "--csv")},
-                             force=force)
+        files[csv_path] = (output.csv_text(one_row(result)), "--csv")
+    output.write_outputs(files, force=force)
     if as_json:
         sys.stdout.write(output.json_text(result) + "\n")
     else:
@@ -150,6 +176,7 @@ def register(app: typer.Typer) -> None:
             None, "--csv", help="Also write every figure of both tables to this CSV file (one "
             "row, each column with its unit); for several files, one row per part."),
         force: bool = options.force_option(),
+        report: Optional[str] = options.report_option(),
         workers: Optional[int] = typer.Option(None, "--workers", help="Processes for many "
                                               "files: default one per core (from 32 files on); "
                                               "1 runs in one process."),
@@ -163,6 +190,7 @@ def register(app: typer.Typer) -> None:
         """
         code = run_measure(profile[0] if len(profile) == 1 else profile, axis, angle, material,
                            density, as_json, exact, units, length_unit, area_unit, volume_unit,
-                           mass_unit, tolerance, csv_path=csv_path, force=force, workers=workers)
+                           mass_unit, tolerance, csv_path=csv_path, force=force, workers=workers,
+                           report=report)
         if code:
             raise typer.Exit(code)

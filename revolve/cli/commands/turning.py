@@ -14,6 +14,7 @@ from __future__ import annotations
 import math
 import os
 import sys
+from dataclasses import replace
 from typing import Any, List, Optional
 
 import typer
@@ -65,7 +66,8 @@ def _rows_text(result, one_qty: bool) -> str:
 
 def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bool = False,
              force: bool = False, quantity: Any = None, workers: Optional[int] = None,
-             serial_below: Optional[int] = None, **settings: Any) -> int:
+             serial_below: Optional[int] = None, report: Optional[str] = None,
+             **settings: Any) -> int:
     """Quote every profile; print tables or JSON, write the CSV; the exit code.
 
     Exit codes: 0 done, 1 a cross-check disagrees, 2 a file or option refused
@@ -82,13 +84,15 @@ def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bo
     if csv_file is not None:
         check_target(csv_file, "--csv", replace=force)
     paths, left_out = profile_paths(profiles, skip=csv_file)
+    options.check_report(report, force, len(paths))
+    how = {"axis": opts.axis, "units": opts.units}        # the report's pictures read the files
     left = [f"left out {o}: not a profile (no [[loop]] or [[chain]])" for o in left_out]
     counts = tq.quantities(quantity, len(paths))
     if len(profiles) == 1 and len(paths) == 1 and not os.path.isdir(profiles[0]):
         r = tq.quote_with(paths[0], opts, counts[0])
         files = {} if csv_file is None else {csv_file: (output.csv_text(
             tq.parts_result([tq.row_of(r.part)], r.part.system, opts)), "--csv")}
-        output.write_outputs(files, force=force)
+        output.write_outputs({**files, **options.report_files(report, r, **how)}, force=force)
         if as_json:
             print(output.json_text(r))
         else:
@@ -102,6 +106,9 @@ def run_turn(profiles: List[str], *, csv_file: Optional[str] = None, as_json: bo
         b = tq.quote_many_with(paths, opts, counts, workers=workers, serial_below=serial_below,
                                progress=advance)
     files = {} if csv_file is None else {csv_file: (output.csv_text(b, "parts"), "--csv")}
+    each = replace(opts, bar_list=b.inputs["bar_list"])      # one page per part quoted, as b
+    files.update(options.report_files(report, [tq.quote_with(f, each, n) for f, n, o in zip(
+        paths, counts, b.outcomes) if o.error is None] if report else [], **how))
     output.write_outputs(files, force=force)
     if as_json:
         print(output.json_text(b))
@@ -213,6 +220,7 @@ def register(app: typer.Typer) -> None:
         csv_file: Optional[str] = typer.Option(None, "--csv", help="Also write one row per part "
                                                "to this CSV file (units in the headings)."),
         force: bool = options.force_option(),
+        report: Optional[str] = options.report_option(),
         tolerance: float = options.tolerance_option(1e-9),
         workers: Optional[int] = typer.Option(None, "--workers", help="Processes for many parts: "
                                               "default one per core (from 32 parts on)."),
@@ -230,6 +238,6 @@ def register(app: typer.Typer) -> None:
                         drilling=drilling, grooves=grooves, blind_bore=blind_bore, scrap=scrap,
                         overhead=overhead, margin=margin, stock_list=stock_list, grade=grade,
                         currency=currency, as_json=as_json, csv_file=csv_file, force=force,
-                        tolerance=tolerance, workers=workers)
+                        tolerance=tolerance, workers=workers, report=report)
         if code:
             raise typer.Exit(code)

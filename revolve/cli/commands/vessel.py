@@ -39,8 +39,9 @@ NAMES = {"diameter": "--diameter", "length": "--length", "head": "--head",
 
 
 def run_vessel(*, output: Optional[str], wall_output: Optional[str], force: bool,
-               as_json: bool, **settings: Any) -> int:
-    """Build, write and show; the exit code (1: the two computations disagree)."""
+               as_json: bool, report: Optional[str] = None, **settings: Any) -> int:
+    """Build, write (profiles, ``--report``) and show; the exit code (1: the two computations
+    disagree)."""
     import sys
     from dataclasses import replace
 
@@ -60,15 +61,18 @@ def run_vessel(*, output: Optional[str], wall_output: Optional[str], force: bool
         for path, option in ((output, "--output"), (wall_output, "--wall-output")):
             if path:
                 check_target(path, option=option, replace=force)
+    options.check_report(report, force)
     result = build_vessel(names=NAMES, **settings)
     files = {}
     if output:
         files[output] = (result.profile_text(), "--output")
     if wall_output:
         files[wall_output] = (result.wall_text(), "--wall-output")
-    if files:
-        render.write_outputs(files, force=force)    # both files together, or neither
     written = {"liquid_space": output, "wall": wall_output}
+    files.update(options.report_files(report, replace(result, extra={**result.extra,
+                                                                       "files": written})))
+    if files:
+        render.write_outputs(files, force=force)    # every file together, or none
     notes = result.notes
     if output:
         notes += (f"wrote {output}: the liquid space", f"  revolve measure {output}",
@@ -134,6 +138,7 @@ def register(app: typer.Typer) -> None:
                                                   help="Write the wall (metal section) profile "
                                                        "to this file."),
         force: bool = options.force_option(),
+        report: Optional[str] = options.report_option(),
         length_unit: Optional[str] = options.unit_option("length", "length", "Output length "
                                                          "unit. Default: --units."),
         volume_unit: Optional[str] = options.unit_option(
@@ -166,7 +171,7 @@ def register(app: typer.Typer) -> None:
         are for the applicable code and a licensed engineer.
         """
         code = run_vessel(
-            output=output, wall_output=wall_output, force=force, as_json=as_json,
+            output=output, wall_output=wall_output, force=force, as_json=as_json, report=report,
             diameter=diameter, length=length, head=head, head_1=head_1, head_2=head_2,
             units=units, dimensions=dimensions, thickness=thickness, material=material,
             density=density, liquid=liquid, liquid_density=liquid_density,

@@ -692,9 +692,36 @@ def arc_from_radius(start: Point, end: Point, radius: float, side: str = "left",
     ``end``, the arc lies ("left" or "right"). ``major=True`` takes the arc
     longer than a half circle. A radius shorter than half the chord is refused.
 
+    Parameters
+    ----------
+    start, end : (float, float)
+        The ends, in the profile's unit.
+    radius : float
+        The radius, at least half the chord.
+    side : {"left", "right"}
+        The side of the chord the arc bows to, looking from start to end.
+    major : bool
+        Take the arc longer than a half circle.
+    face : str, optional
+        The face the arc belongs to.
+
+    Returns
+    -------
+    Arc
+
+    Examples
+    --------
+    A half circle of radius 1 (length π):
+
     >>> a = arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=1.0, side="right")
     >>> [round(v, 12) for v in a.centre], a.clockwise
     ([1.0, 0.0], False)
+    >>> round(a.length() / math.pi, 12)
+    1.0
+    >>> arc_from_radius((0.0, 0.0), (0.0, 0.0), radius=1.0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc start and end are the same point; an arc needs two distinct ends
     >>> arc_from_radius((0.0, 0.0), (2.0, 0.0), radius=0.9)
     Traceback (most recent call last):
     ...
@@ -736,6 +763,32 @@ def arc_from_centre(start: Point, end: Point, centre: Point, clockwise: bool,
                     tolerance: float = 1e-9, exact: Optional[tuple] = None) -> "Arc":
     """An arc about a given centre; start and end must be equally far from it.
 
+    Parameters
+    ----------
+    start, end, centre : (float, float)
+        The ends and the centre, in the profile's unit.
+    clockwise : bool
+        The direction from start to end.
+    face : str, optional
+        The face the arc belongs to.
+    tolerance : float
+        Relative difference allowed between the two radii.
+
+    Returns
+    -------
+    Arc
+
+    Examples
+    --------
+    A quarter circle of radius 2 about the origin (length π):
+
+    >>> q = arc_from_centre((2.0, 0.0), (0.0, 2.0), (0.0, 0.0), clockwise=False)
+    >>> round(q.length() / math.pi, 12), q.bounds()
+    (1.0, (0.0, 0.0, 2.0, 2.0))
+    >>> arc_from_centre((1.0, 0.0), (1.0, 0.0), (0.0, 0.0), clockwise=False)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: arc start and end are the same point; split a full circle into two arcs
     >>> arc_from_centre((1.0, 0.0), (0.0, 2.0), (0.0, 0.0), clockwise=False)
     Traceback (most recent call last):
     ...

@@ -31,9 +31,29 @@ class LineExact(NamedTuple):
 class Line(SegmentKind):
     """A straight segment from ``start`` to ``end``; its parameter is the fraction 0…1.
 
+    Parameters
+    ----------
+    start, end : (float, float)
+        The ends, in the profile's unit.
+    face : str, optional
+        The face the segment belongs to (surfaces are reported by face).
+
+    Examples
+    --------
     >>> Line((0.0, 0.0), (3.0, 4.0)).length()
     5.0
+    >>> Line((0.0, 0.0), (3.0, 4.0), face="cone").points_at([0.5]).tolist()
+    [[1.5, 2.0]]
+
+    A zero-length line is allowed (it adds nothing), and one on the axis
+    sweeps no surface:
+
     >>> Line((1.0, 1.0), (1.0, 1.0)).length()
+    0.0
+    >>> import revolve
+    >>> loop = revolve.Loop((revolve.Line((0, 0), (4, 0), face="axis"),
+    ...                      revolve.Line((4, 0), (4, 2)), revolve.Line((4, 2), (0, 0))))
+    >>> revolve.measure(revolve.Profile(loops=(loop,))).to_dict()["surface_by_face"]["axis"]
     0.0
     """
 

@@ -70,9 +70,30 @@ def map_points(points: np.ndarray, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0)) ->
 class Polyline(SegmentKind):
     """Straight edges through ``points`` (an (n, 2) array, n ≥ 2), in order.
 
+    Many points are held as one array (a point list of 10⁶ vertices is one
+    segment, not 10⁶ objects); :meth:`revolve.Loop.from_points` builds one.
+
+    Parameters
+    ----------
+    points : (n, 2) array_like
+        The vertices in order, n ≥ 2.
+    face : str, optional
+        The face every edge belongs to.
+
+    Examples
+    --------
     >>> p = Polyline(np.array([[0.0, 0.0], [3.0, 4.0], [3.0, 5.0]]), face="side")
     >>> p.length(), p.bounds(), p.chord_count()
     (6.0, (0.0, 0.0, 3.0, 5.0), 2)
+
+    Two equal points are a zero-length polyline; one point is refused:
+
+    >>> Polyline(np.array([[1.0, 2.0], [1.0, 2.0]])).length()
+    0.0
+    >>> Polyline(np.array([[1.0, 2.0]]))
+    Traceback (most recent call last):
+    ...
+    revolve.errors.SegmentError: a polyline needs an (n, 2) array of at least two points
     """
 
     points: np.ndarray
@@ -87,7 +108,10 @@ class Polyline(SegmentKind):
     def __post_init__(self):
         pts = np.asarray(self.points, dtype=float)
         if pts.ndim != 2 or pts.shape[1] != 2 or len(pts) < 2:
-            raise ValueError("a polyline needs an (n, 2) array of at least two points")
+            from revolve.geometry.kinds.base import segment_error
+
+            raise segment_error("a polyline needs an (n, 2) array of at least two points",
+                                self.where)
         if pts is self.points and pts.flags.writeable:
             pts = pts.copy()
         pts.flags.writeable = False
