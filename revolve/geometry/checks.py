@@ -489,7 +489,7 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
             return np.searchsorted(offsets, i, side="right") - 1
 
     def chord_vertex(i):                     # vertex row where chord i starts
-        return i + ordinal(i)
+        return i if single else i + ordinal(i)
 
     starts = np.sort(np.concatenate([[0], _turns(dx), _turns(dy), offsets[1:-1]]).astype(np.int64))
     starts = starts[np.concatenate([[True], starts[1:] != starts[:-1]])]
@@ -541,7 +541,7 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
                       np.abs(ch.y1).max()))
     slack = 4 * tol + 16 * np.finfo(float).eps * scale
-    tiny = np.flatnonzero(np.abs(dx) <= slack)
+    tiny = np.flatnonzero(_within(dx, slack))
     tiny = tiny[np.abs(dy[tiny]) <= slack]
     if tiny.size:
         gap = np.diff(tiny) > 1
@@ -653,12 +653,15 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
         else np.zeros((0, 2))
     if allpts.size == 0:
         raise ProfileError("the profile has no segments")
-    if not np.all(np.isfinite(allpts)):
-        raise ProfileError("the profile has a coordinate that is not a finite number")
-    check_coordinate_range(allpts)
-    # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+    # One pass a column for the box, which also answers the finiteness and range checks: a
+    # NaN comes out of min and max, and so does an infinite or out-of-range coordinate.
+    # (column by column: a reduction along axis 0 of an (n, 2) array is many times slower)
     lo = np.array([allpts[:, 0].min(), allpts[:, 1].min()])
     hi = np.array([allpts[:, 0].max(), allpts[:, 1].max()])
+    if not (np.all(np.isfinite(lo)) and np.all(np.isfinite(hi))):
+        raise ProfileError("the profile has a coordinate that is not a finite number")
+    if not max(float(np.abs(lo).max()), float(np.abs(hi).max())) <= COORDINATE_LIMIT:
+        check_coordinate_range(allpts)
     size = float(np.hypot(*(hi - lo)))
     if size == 0:
         raise ProfileError("the profile has zero size: every point is the same")
@@ -670,12 +673,10 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     for k, p in enumerate(paths, start=1):
         _check_path(p, k, tol)
     # Which side of the axis?
-    z_all, r_all = axis.to_frame(allpts[:, 0], allpts[:, 1])
-    far = int(np.argmax(np.abs(r_all)))
-    if abs(r_all[far]) <= tol:
+    r_far = _farthest_from_axis(allpts, lo, hi, axis)
+    if abs(r_far) <= tol:
         raise ProfileError("the whole profile lies on the axis; it would sweep nothing")
-    side = 1.0 if r_all[far] > 0 else -1.0
-    del z_all, r_all
+    side = 1.0 if r_far > 0 else -1.0
     frame_paths = []
     for k, p in enumerate(paths, start=1):
         fsegs = tuple(to_frame(s.straightened(), axis, side).snapped(SNAP_FRACTION * size)
@@ -718,6 +719,43 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     return prep
 
 
+def _farthest_from_axis(points: np.ndarray, lo, hi, axis: Axis) -> float:
+    """The signed distance from the axis (:meth:`Axis.to_frame`) of the first point farthest from it.
+
+    An axis along x or y reads it from the box ``lo``, ``hi`` of the points (no
+    pass over them) unless the box's two sides are equally far (then which comes
+    first decides, as for any other axis: a pass over the points).
+
+    >>> pts = np.array([[0.0, 1.0], [2.0, -3.0], [4.0, 3.0]])
+    >>> lo, hi = pts.min(axis=0), pts.max(axis=0)
+    >>> _farthest_from_axis(pts, lo, hi, Axis.x()), _farthest_from_axis(pts, lo, hi, Axis.y())
+    (-3.0, -4.0)
+    >>> _farthest_from_axis(pts, lo, hi, Axis((0.0, 0.0), (1.0, 1.0)))
+    -3.5355339059327373
+    """
+    ux, uy = axis.unit_direction()
+    px, py = float(axis.point[0]), float(axis.point[1])
+    if uy == 0.0 or ux == 0.0:
+        # r = ux·(y − py) or −uy·(x − px): its extremes are at the box's sides
+        k, u, p = (1, ux, py) if uy == 0.0 else (0, -uy, px)
+        a, b = u * (float(lo[k]) - p), u * (float(hi[k]) - p)
+        if abs(a) != abs(b):
+            return a if abs(a) > abs(b) else b
+    _, r_all = axis.to_frame(points[:, 0], points[:, 1])
+    return float(r_all[int(np.argmax(np.abs(r_all)))])
+
+
+def _within(values: np.ndarray, bound: float) -> np.ndarray:
+    """``|values| ≤ bound`` as a boolean array, with no float temporary (two comparisons).
+
+    >>> _within(np.array([-2.0, -1.0, 0.0, 1.0, np.nan]), 1.0).tolist()
+    [False, True, True, True, False]
+    """
+    out = np.less_equal(values, bound)
+    out &= np.greater_equal(values, -bound)
+    return out
+
+
 def _check_path(path, k: int, tol: float) -> None:
     """Zero-length segments (a polyline's edges at once), joins and closure of path ``k``."""
     segs = path.segments
@@ -729,7 +767,7 @@ def _check_path(path, k: int, tol: float) -> None:
             pts = s.flatten()
             # An edge no longer than tol is no longer than tol on either axis: the exact
             # lengths only of those (hypot over every edge costs more than these passes).
-            short = np.flatnonzero(np.abs(np.diff(pts[:, 0])) <= tol)
+            short = np.flatnonzero(_within(np.diff(pts[:, 0]), tol))
             if short.size:
                 short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
                 short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],

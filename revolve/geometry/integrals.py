@@ -684,14 +684,23 @@ def closed_form_errors(values: np.ndarray) -> np.ndarray:
     return np.abs(values) * 8 * np.finfo(float).eps
 
 
-def segment_integrals(segments: Sequence[Segment], symbolic: bool = False) -> SegmentIntegrals:
+def segment_integrals(segments: Sequence[Segment], symbolic: bool = False,
+                      about=(0.0, 0.0)) -> SegmentIntegrals:
     """Integrals of every segment, in order, each kind's segments at once (:meth:`integral_rows`).
+
+    ``about`` is the point the moments are taken about: the segments are moved
+    by ``−about`` first (a kind with an ``integral_rows_about`` class method,
+    such as a polyline, moves its own arrays block by block instead of making a
+    moved copy).
 
     >>> from revolve.geometry.segments import Line
     >>> r = segment_integrals([Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 1.0), (2.0, 3.0))])
     >>> r.values[:, COL["length"]].tolist(), r.method
     ([2.0, 2.0], ('closed form', 'closed form'))
+    >>> segment_integrals([Line((1.0, 1.0), (3.0, 1.0))], about=(1.0, 1.0)).values[0, COL["length_x"]]
+    np.float64(2.0)
     """
+    zx, zy = float(about[0]), float(about[1])
     n = len(segments)
     values = np.zeros((n, len(COLUMNS)))
     errors = np.zeros((n, len(COLUMNS)))
@@ -700,54 +709,103 @@ def segment_integrals(segments: Sequence[Segment], symbolic: bool = False) -> Se
     for i, s in enumerate(segments):
         groups.setdefault(type(s), []).append(i)
     for kind, idx in groups.items():
-        v, e, how = kind.integral_rows([segments[i] for i in idx], symbolic=symbolic)
+        group = [segments[i] for i in idx]
+        moved = getattr(kind, "integral_rows_about", None)
+        if moved is not None:
+            v, e, how = moved(group, symbolic=symbolic, about=(zx, zy))
+        else:
+            if zx or zy:
+                group = [s.translated(-zx, -zy) for s in group]
+            v, e, how = kind.integral_rows(group, symbolic=symbolic)
         values[idx], errors[idx] = v, e
         for i, h in zip(idx, how):
             method[i] = h
     return SegmentIntegrals(values, errors, tuple(method))
 
 
-def polyline_sums(points: np.ndarray, lengths: bool = True, block: int = 1 << 15):
+def polyline_sums(points: np.ndarray, lengths: bool = True, block: int = 1 << 14,
+                  about=(0.0, 0.0)):
     """Sums of every column over the edges of an open polyline, and their rounding bound.
 
     The closed forms of :func:`line_integrals`, summed elementwise (no BLAS) and
     with no per-edge table, in blocks that stay in the processor's cache: a
     10⁶-vertex outline costs a few passes over memory. The bound is 8 ulps of
     the sum of the terms' magnitudes. ``lengths=False`` skips the three length
-    columns (left as NaN) when only the section is wanted.
+    columns (left as NaN) when only the section is wanted. ``about`` is the
+    point the moments are taken about (the polyline moved by ``−about``, block
+    by block, with no moved copy of the whole array).
 
     >>> v, e = polyline_sums(np.array([[0.0, 0.0], [1.0, 0.0], [1.0, 1.0], [0.0, 1.0], [0.0, 0.0]]))
     >>> [float(v[COL[k]]) for k in ("length", "M00", "M10", "M01", "M11")]
     [4.0, 1.0, 0.5, 0.5, 0.25]
     >>> bool(e[COL["M00"]] < 1e-14)
     True
+    >>> v, e = polyline_sums(np.array([[1.0, 2.0], [2.0, 2.0], [2.0, 3.0], [1.0, 3.0], [1.0, 2.0]]),
+    ...                      about=(1.0, 2.0))
+    >>> [float(v[COL[k]]) for k in ("length_y", "M00", "M10", "M01", "M11")]
+    [2.0, 1.0, 0.5, 0.5, 0.25]
     """
     pts = np.asarray(points, dtype=float)
     acc = np.zeros(len(COLUMNS))
     mag = np.zeros(len(COLUMNS))
     m = len(pts) - 1
+    zx, zy = float(about[0]), float(about[1])
+    first = 0 if lengths else 3
+    size = min(block, max(m, 0))
+    # One table of the block's terms, a row per column: its rows are filled in place and
+    # summed at once (numpy's pairwise sums along each row, no BLAS), so every pass runs
+    # over contiguous memory in the cache and no temporary is allocated per term.
+    terms = np.empty((len(COLUMNS), size))
+    t1, t2, t3 = np.empty(size), np.empty(size), np.empty(size)
     for i in range(0, max(m, 0), block):
         j = min(m, i + block)
-        x0, x1 = pts[i:j, 0], pts[i + 1:j + 1, 0]
-        y0, y1 = pts[i:j, 1], pts[i + 1:j + 1, 1]
-        c = x0 * y1
-        c -= x1 * y0
-        sx = x0 + x1
-        sy = y0 + y1
-        q = y0 * y1
-        syy = sy * sy
-        # Elementwise products summed by numpy (pairwise), not BLAS dot products: the
-        # same speed on any machine, whatever its BLAS thread pool is doing.
-        terms = (c, c * sx, c * sy, c * (sx * sx - x0 * x1), c * (sx * sy + x0 * y0 + x1 * y1),
-                 c * (syy - q), c * (syy * sy - 2 * (sy * q)))
-        for k, t in enumerate(terms, start=3):
-            acc[k] += t.sum()
-            mag[k] += np.abs(t).sum()
+        k = j - i
+        if k < size:
+            terms, t1, t2, t3 = terms[:, :k], t1[:k], t2[:k], t3[:k]
+        xs = np.subtract(pts[i:j + 1, 0], zx)          # contiguous, moved to ``about``
+        ys = np.subtract(pts[i:j + 1, 1], zy)
+        x0, x1, y0, y1 = xs[:-1], xs[1:], ys[:-1], ys[1:]
+        c, sx, sy = terms[3], t1, t2
+        np.multiply(x0, y1, out=c)
+        np.multiply(x1, y0, out=t3)
+        c -= t3                                        # x0 y1 − x1 y0
+        np.add(x0, x1, out=sx)
+        np.add(y0, y1, out=sy)
+        np.multiply(c, sx, out=terms[4])
+        np.multiply(c, sy, out=terms[5])
+        row = terms[6]                                 # c (sx² − x0 x1)
+        np.multiply(sx, sx, out=row)
+        np.multiply(x0, x1, out=t3)
+        row -= t3
+        row *= c
+        row = terms[7]                                 # c (sx sy + x0 y0 + x1 y1)
+        np.multiply(sx, sy, out=row)
+        np.multiply(x0, y0, out=t3)
+        row += t3
+        np.multiply(x1, y1, out=t3)
+        row += t3
+        row *= c
+        q = t3
+        np.multiply(y0, y1, out=q)
+        row = terms[8]                                 # c (sy² − q)
+        np.multiply(sy, sy, out=row)
+        row -= q
+        row9 = terms[9]                                # c sy (sy² − 2q)
+        np.subtract(row, q, out=row9)
+        row9 *= sy
+        row9 *= c
+        row *= c
         if lengths:
-            L = np.hypot(x1 - x0, y1 - y0)
-            for k, t in ((0, L), (1, L * sx), (2, L * sy)):
-                acc[k] += t.sum()
-                mag[k] += np.abs(t).sum()
+            L = terms[0]
+            np.subtract(x1, x0, out=L)
+            np.subtract(y1, y0, out=t3)
+            np.hypot(L, t3, out=L)
+            np.multiply(L, sx, out=terms[1])
+            np.multiply(L, sy, out=terms[2])
+        used = terms[first:]
+        acc[first:] += used.sum(axis=1)
+        np.abs(used, out=used)
+        mag[first:] += used.sum(axis=1)
     scale = np.array([1, 2, 2, 2, 6, 6, 12, 24, 12, 20], dtype=float)
     out, err = acc / scale, 8 * np.finfo(float).eps * mag / scale
     if not lengths:

@@ -96,8 +96,7 @@ def section(prep: PreparedProfile, symbolic: bool = False) -> Section:
     box = np.array([s.bounds() for s in segs], dtype=float).reshape(-1, 4)
     z_ref = float((box[:, 0].min() + box[:, 2].max()) / 2) if box.size else 0.0
     r_ref = float((box[:, 1].min() + box[:, 3].max()) / 2) if box.size else 0.0
-    shifted = [s.translated(-z_ref, -r_ref) for s in segs]
-    res = segment_integrals(shifted, symbolic=symbolic)
+    res = segment_integrals(segs, symbolic=symbolic, about=(z_ref, r_ref))
     vals, errs = res.values, res.errors
     # Loop factors: solid loops count positive, holes negative, whatever their direction.
     factors = []

@@ -98,6 +98,19 @@ class Loop:
         >>> Loop.from_points([]).segments
         ()
         """
+        if hasattr(points, "__array__"):
+            # One copy, already closed: the polyline keeps it (read-only) without another.
+            given = np.asarray(points, dtype=float).reshape(-1, 2)
+            n = len(given)
+            if n >= 2 and given[0, 0] == given[-1, 0] and given[0, 1] == given[-1, 1]:
+                n -= 1
+            if not n:
+                return cls((), where=where)
+            pts = np.empty((n + 1, 2))
+            pts[:n] = given[:n]
+            pts[n] = pts[0]
+            pts.flags.writeable = False
+            return cls((_polyline(pts, face, where),), where=where)
         pts = _point_array(points)
         if len(pts) >= 2 and pts[0, 0] == pts[-1, 0] and pts[0, 1] == pts[-1, 1]:
             pts = pts[:-1]

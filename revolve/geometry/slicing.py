@@ -49,6 +49,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from functools import cached_property
 from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
@@ -160,10 +161,14 @@ class PieceTable:
     """The monotone pieces of a profile's loops as arrays, for the washers.
 
     ``z_from``, ``z_to`` are each piece's axial position at its start and
-    end, ``lo`` and ``hi`` its extent along the axis, and ``sign`` is
-    ``-direction × factor`` (the sign its ``r²`` takes in the slice). The
-    pieces of each kind are contiguous rows, described by ``groups``, each
-    kind's pieces in the order of their segments along the loops.
+    end, ``factor`` its loop's factor (one number when every piece has the
+    same), ``rising`` whether ``z_to > z_from``; ``lo`` and ``hi`` are its
+    extent along the axis, and ``sign`` is ``-direction × factor`` (the sign
+    its ``r²`` takes in the slice): these three are found when first asked for,
+    and :meth:`ends` gives them for some rows only (the washers take them block
+    by block, so no full-size array is made for them). The pieces of each kind
+    are contiguous rows, described by ``groups``, each kind's pieces in the
+    order of their segments along the loops.
 
     >>> from revolve.geometry.profile import Loop, Profile, Axis
     >>> from revolve.geometry.checks import prepare
@@ -171,18 +176,47 @@ class PieceTable:
     >>> t = piece_table(prep, [1.0])
     >>> t.count, t.lo.tolist(), t.hi.tolist(), t.sign.tolist(), [g.kind.kind for g in t.groups]
     (2, [0.0, 0.0], [2.0, 2.0], [-1.0, 1.0], ['polyline'])
+    >>> [v.tolist() for v in t.ends(slice(1, 2))]
+    [[0.0], [2.0], [1.0]]
     """
 
     z_from: np.ndarray
     z_to: np.ndarray
-    lo: np.ndarray
-    hi: np.ndarray
-    sign: np.ndarray
+    factor: object
     groups: Tuple[PieceGroup, ...]
+    rising: np.ndarray
 
     @property
     def count(self) -> int:
-        return int(self.lo.size)
+        return int(self.z_from.size)
+
+    def ends(self, rows):
+        """``(lo, hi, sign)`` of the pieces ``rows`` (a slice or an index array).
+
+        (No piece has ``z_from == z_to``: the lower end is the smaller one,
+        whichever way it runs.)
+        """
+        zf, zt, up = self.z_from[rows], self.z_to[rows], self.rising[rows]
+        f = self.factor if np.isscalar(self.factor) else self.factor[rows]
+        return np.minimum(zf, zt), np.maximum(zf, zt), np.where(up, np.negative(f), f)
+
+    @cached_property
+    def lo(self) -> np.ndarray:
+        return np.minimum(self.z_from, self.z_to)
+
+    @cached_property
+    def hi(self) -> np.ndarray:
+        return np.maximum(self.z_from, self.z_to)
+
+    @cached_property
+    def sign(self) -> np.ndarray:
+        return self.ends(slice(None))[2]
+
+    def extent(self) -> float:
+        """The pieces' total extent along the axis, ``Σ (hi − lo)``."""
+        d = np.subtract(self.z_to, self.z_from)
+        np.abs(d, out=d)
+        return float(d.sum())
 
 
 def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
@@ -242,15 +276,13 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
         start += z_from.size
     if not parts:
         empty = np.zeros(0)
-        return PieceTable(empty, empty, empty, empty, empty, ())
+        return PieceTable(empty, empty, 0.0, (), np.zeros(0, dtype=bool))
     if len(parts) == 1:
         z_from, z_to, factor = parts[0]
     else:
         z_from, z_to, factor = (np.concatenate([np.broadcast_to(v, z.shape) for v, z in
                                                 zip(c, (p[0] for p in parts))]) for c in zip(*parts))
-    rising = z_to > z_from
-    return PieceTable(z_from, z_to, np.where(rising, z_from, z_to), np.where(rising, z_to, z_from),
-                      np.where(rising, -factor, factor), tuple(groups))
+    return PieceTable(z_from, z_to, factor, tuple(groups), z_to > z_from)
 
 
 @dataclass(frozen=True)
@@ -329,7 +361,12 @@ def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.
     # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
     # to the same washer area, without losing digits when a thin section lies far from
     # the axis.
-    val = (r - r_ref) * (r + r_ref)
+    val = np.subtract(r, r_ref)
+    if isinstance(r, np.ndarray) and r.flags.writeable and r.base is None:
+        r += r_ref                    # a fresh array of the kind's: no second temporary
+    else:
+        r = r + r_ref
+    val *= r
     if rule.exact:
         w = rule.weights[:, 0]
         sums = val[:, 0] * w[0]
@@ -366,7 +403,7 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         for p0 in range(0, count.size, block):
             p1 = min(count.size, p0 + block)
             rows = slice(pieces + p0, pieces + p1)
-            _add_parts(first[p0:p1], table.lo[rows], table.hi[rows], table.sign[rows],
+            _add_parts(first[p0:p1], *table.ends(rows),
                        group.params[base + p0:base + p1], *args)
         more = np.flatnonzero(count > 1)
         if more.size:
@@ -386,8 +423,9 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         local = np.repeat(np.arange(p0, p1), own)
         iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
         piece = np.take(pieces, local)
-        lo, hi, sign = (np.take(v, piece) for v in (table.lo, table.hi, table.sign))
-        params = np.take(group.params, piece - group.start, axis=0)
+        lo, hi, sign = table.ends(piece)
+        # indexing, not np.take(axis=0): take copies a strided view (a polyline's rows) whole
+        params = group.params[piece - group.start]
         _add_parts(iv, lo, hi, sign, params, *args)
 
 
@@ -395,8 +433,10 @@ def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r
                out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
     """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
     intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
-    c = np.maximum(np.take(a, iv), lo)
-    d = np.minimum(np.take(b, iv), hi)
+    c = np.take(a, iv)
+    np.maximum(c, lo, out=c)
+    d = np.take(b, iv)
+    np.minimum(d, hi, out=d)
     small = None
     if small_rule is not None:
         small = (d - c) <= SMALL_PART * (hi - lo)
@@ -501,7 +541,7 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 PAIRS_PER_PIECE = 4
 #: When every kind's radius is a polynomial of ``z`` (exact rules, nothing to refine), the
 #: first partition keeps every 2^k-th piece end at least, k = this.
-EXACT_SLICE_SHIFT = 4
+EXACT_SLICE_SHIFT = 6
 
 
 def _partition(table: PieceTable):
@@ -521,12 +561,12 @@ def _partition(table: PieceTable):
     """
     n = table.count
     z_from, z_to = table.z_from, table.z_to
-    linked = np.zeros(n, dtype=bool)
-    linked[:-1] = z_to[:-1] == z_from[1:]
-    values = np.concatenate([z_from, z_to[~linked]])
+    # the pieces that do not end where the next one starts (few: where a loop ends)
+    unlinked = np.append(np.flatnonzero(z_to[:-1] != z_from[1:]), n - 1)
+    values = np.concatenate([z_from, z_to[unlinked]])
     # A real outline runs along the axis in few monotone runs: a merge sort takes them in
     # about one pass. A noisy one turns back at most vertices: quicksort is faster there.
-    rising = z_to > z_from
+    rising = table.rising
     turns = int(np.count_nonzero(rising[1:] != rising[:-1]))
     order = np.argsort(values, kind="stable" if turns * 16 < n else "quicksort")
     ordered = values[order]
@@ -541,19 +581,22 @@ def _partition(table: PieceTable):
     where = np.empty(values.size, dtype=rank_type)
     where[order] = rank
     del order, ordered, new, rising, rank
-    at_from = where[:n]
-    at_to = np.empty(n, dtype=where.dtype)
-    at_to[:-1] = where[1:n]                        # a linked piece ends where the next starts
-    at_to[np.flatnonzero(~linked)] = where[n:]
-    low = np.minimum(at_from, at_to)
-    high = np.maximum(at_from, at_to)
+    # A piece starts at rank where[i] and ends at where[i + 1] (the next one's start), or for
+    # an unlinked piece at its own end's rank, stored after the starts.
+    low = np.empty(n, dtype=where.dtype)
+    high = np.empty(n, dtype=where.dtype)
+    np.minimum(where[:n - 1], where[1:n], out=low[:-1])
+    np.maximum(where[:n - 1], where[1:n], out=high[:-1])
+    ends = where[n:]
+    low[unlinked] = np.minimum(where[unlinked], ends)
+    high[unlinked] = np.maximum(where[unlinked], ends)
     high -= 1                                      # the last elementary interval met
-    del at_from, at_to, where, values, linked
+    del where, values, ends
     limit = PAIRS_PER_PIECE * n + 64
     intervals = breaks.size - 1
     # The pairs with 2^k breaks an interval are at least (P₁ − n) / 2^k for the P₁ pairs of
     # every break (and fall as k grows): start from the first k that bound allows.
-    beyond = int((high - low).sum(dtype=np.int64))
+    beyond = int(high.sum(dtype=np.int64)) - int(low.sum(dtype=np.int64))
     shift = max(0, math.ceil(math.log2(beyond / max(limit - n, 1)))) if beyond else 0
     if all(g.kind.washer_degree() is not None for g in table.groups):
         # Exact rules only: a piece's part of a wider slice is as exact as of a narrow one,
@@ -593,9 +636,8 @@ def first_partition(table: PieceTable) -> np.ndarray:
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
     >>> _, _, _, params = Line.washer_pieces(segs)
-    >>> t = PieceTable(np.array([0.0, 2.0]), np.array([2.0, 0.0]), np.array([0.0, 0.0]),
-    ...                np.array([2.0, 2.0]), np.array([-1.0, 1.0]),
-    ...                (PieceGroup(Line, segs, params, 0, 2),))
+    >>> t = PieceTable(np.array([0.0, 2.0]), np.array([2.0, 0.0]), 1.0,
+    ...                (PieceGroup(Line, segs, params, 0, 2),), np.array([True, False]))
     >>> first_partition(t).tolist()
     [0.0, 2.0]
     """
@@ -685,7 +727,8 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     a, b = breaks[:-1], breaks[1:]
     value = 0.0
     largest = max(abs((r_high - r_ref) * (r_high + r_ref)), abs((r_low - r_ref) * (r_low + r_ref)))
-    error = 16 * np.finfo(float).eps * largest * float((table.hi - table.lo).sum())
+    extent = table.extent()
+    error = 16 * np.finfo(float).eps * largest * extent
     n = 24
     budget = a.size + max_intervals
     used = 0

@@ -86,7 +86,7 @@ def _clockwise(pts):
     return not LinearRing(pts).is_ccw
 
 
-def test_straight_outline_is_sliced_at_every_16th_vertex():
+def test_straight_outline_is_sliced_at_every_64th_vertex():
     # Straight edges take an exact rule on any part of a slice, so the first partition keeps
     # every 2^EXACT_SLICE_SHIFT-th piece end (and the last); the volume is checked against
     # shapely + Pappus above. The 10⁴-gon's vertices have 5001 distinct positions along the axis.

@@ -186,9 +186,15 @@ class Polyline(SegmentKind):
         return sorted(set(at_vertex.tolist()) | set((cross + f).tolist()))
 
     def bounds(self):
-        # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
-        x, y = self.points[:, 0], self.points[:, 1]
-        return (float(x.min()), float(y.min()), float(x.max()), float(y.max()))
+        # Kept once found (the points are read-only): preparing, the section and the washers
+        # each ask for them, and each asking would be a pass over the whole array.
+        box = self.__dict__.get("_bounds")
+        if box is None:
+            # column by column: a reduction along axis 0 of an (n, 2) array is many times slower
+            x, y = self.points[:, 0], self.points[:, 1]
+            box = (float(x.min()), float(y.min()), float(x.max()), float(y.max()))
+            self.__dict__["_bounds"] = box        # frozen: the cache goes straight into the dict
+        return box
 
     def split_at(self, params: Sequence[float]) -> tuple:
         if not len(params):
@@ -215,7 +221,7 @@ class Polyline(SegmentKind):
         return tuple(out)
 
     def transformed(self, matrix=IDENTITY_MATRIX, offset=(0.0, 0.0), exact=None):
-        return replace(self, points=map_points(self.points, matrix, offset), exact=None)
+        return replace(self, points=_owned(map_points(self.points, matrix, offset)), exact=None)
 
     def translated(self, dx: float, dy: float = 0.0):
         if dx == 0 and dy == 0:
@@ -224,11 +230,11 @@ class Polyline(SegmentKind):
         pts = np.empty_like(self.points)
         np.add(self.points[:, 0], dx, out=pts[:, 0])
         np.add(self.points[:, 1], dy, out=pts[:, 1])
-        return replace(self, points=pts, exact=None)
+        return replace(self, points=_owned(pts), exact=None)
 
     def reversed(self) -> "Polyline":
         ex = self.exact
-        return replace(self, points=self.points[::-1].copy(),
+        return replace(self, points=_owned(self.points[::-1].copy()),
                        exact=None if ex is None else PolylineExact(tuple(reversed(ex.points))),
                        lines=None if self.lines is None else self.lines[::-1].copy())
 
@@ -236,10 +242,43 @@ class Polyline(SegmentKind):
         return self.points
 
     def snapped(self, tiny: float):
-        small = np.abs(self.points) < tiny
-        if not small.any():
+        """The polyline with coordinates of magnitude below ``tiny`` set to zero (``+0.0``).
+
+        Only a column whose range comes within ``tiny`` of zero is read, and the
+        array is copied only when some coordinate changes; the copy keeps the
+        bounds, found without another pass.
+
+        >>> p = Polyline(np.array([[1e-20, 1.0], [2.0, 0.0], [-0.0, 3.0]]))
+        >>> q = p.snapped(1e-12)
+        >>> q.points.tolist(), q.bounds(), q.bounds() == Polyline(q.points).bounds()
+        ([[0.0, 1.0], [2.0, 0.0], [0.0, 3.0]], (0.0, 0.0, 2.0, 3.0), True)
+        >>> exact_zeros = Polyline(np.array([[0.0, 1.0], [2.0, 0.0]]))
+        >>> exact_zeros.snapped(1e-12) is exact_zeros            # nothing to change: no copy
+        True
+        """
+        box = list(self.bounds())
+        pts = None
+        for k in (0, 1):
+            lo, hi = box[k], box[k + 2]
+            if not (lo < tiny and hi > -tiny):
+                continue                  # no coordinate of this column is that small
+            col = self.points[:, k]
+            small = np.less(col, tiny)                 # |col| < tiny, no float temporary
+            small &= np.greater(col, -tiny)
+            small = np.flatnonzero(small)
+            small = small[(col[small] != 0.0) | np.signbit(col[small])]     # +0.0 stays as it is
+            if not small.size:
+                continue
+            if pts is None:
+                pts = self.points.copy()
+            pts[small, k] = 0.0
+            box[k] = 0.0 if abs(lo) < tiny else lo
+            box[k + 2] = 0.0 if abs(hi) < tiny else hi
+        if pts is None:
             return self
-        return replace(self, points=np.where(small, 0.0, self.points))
+        out = replace(self, points=_owned(pts))
+        out.__dict__["_bounds"] = tuple(box)
+        return out
 
     def chord_count(self) -> int:
         return len(self.points) - 1
@@ -275,12 +314,26 @@ class Polyline(SegmentKind):
         >>> float(v[0][0]), how
         (4.0, ('closed form',))
         """
+        return cls.integral_rows_about(segments, symbolic)
+
+    @classmethod
+    def integral_rows_about(cls, segments, symbolic: bool = False, about=(0.0, 0.0)):
+        """:meth:`integral_rows` of the polylines moved by ``−about``, with no moved copy.
+
+        (:func:`~revolve.geometry.integrals.segment_integrals` asks for it when
+        the moments are taken about a point other than the origin.)
+
+        >>> square = Polyline(np.array([[1.0, 1.0], [2.0, 1.0], [2.0, 2.0], [1.0, 2.0], [1.0, 1.0]]))
+        >>> v, e, how = Polyline.integral_rows_about([square], about=(1.0, 1.0))
+        >>> float(v[0][3]), float(v[0][4])          # area 1, ∫∫ x dA = 0.5 about (1, 1)
+        (1.0, 0.5)
+        """
         from revolve.geometry.integrals import COLUMNS, polyline_sums
 
         values = np.zeros((len(segments), len(COLUMNS)))
         errors = np.zeros_like(values)
         for i, seg in enumerate(segments):
-            values[i], errors[i] = polyline_sums(seg.points)
+            values[i], errors[i] = polyline_sums(seg.points, about=about)
         return values, errors, ("closed form",) * len(segments)
 
     # -- for meshes and pictures (mesh.py) ----------------------------------------------
@@ -468,7 +521,12 @@ class Polyline(SegmentKind):
         [[2.0]]
         """
         z0, r0, z1, r1 = (params[:, k:k + 1] for k in range(4))
-        return r0 + (z - z0) * ((r1 - r0) / (z1 - z0))
+        slope = np.subtract(r1, r0)
+        slope /= z1 - z0
+        r = np.subtract(z, z0)          # r0 + (z − z0)·slope, in one array
+        r *= slope
+        r += r0
+        return r
 
     @classmethod
     def washer_degree(cls):
@@ -480,7 +538,7 @@ class Polyline(SegmentKind):
         return 1
 
     @classmethod
-    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14, block: int = 1 << 16):
+    def r_ds_rows(cls, segments, n: int = 32, rel_tol: float = 1e-14, block: int = 1 << 14):
         """``∫ r ds`` along each polyline, edge by edge by Gauss–Legendre: ``(values, errors)``.
 
         One value per polyline: the sum over its edges of two nodes per edge,
@@ -496,16 +554,24 @@ class Polyline(SegmentKind):
 
         values = np.zeros(len(segments))
         errors = np.zeros(len(segments))
+        work = np.empty((4, min(block, max((len(s.points) - 1 for s in segments), default=0))))
         for i, seg in enumerate(segments):
             pts = seg.points
             m = len(pts) - 1
             for j in range(0, m, block):
                 k = min(m, j + block)
-                v, e = _r_ds_straight(pts[j:k, 0], pts[j:k, 1], pts[j + 1:k + 1, 0], pts[j + 1:k + 1, 1])
+                v, e = _r_ds_straight(pts[j:k, 0], pts[j:k, 1], pts[j + 1:k + 1, 0], pts[j + 1:k + 1, 1],
+                                      work[:, :k - j])
                 values[i] += float(v.sum())
                 errors[i] += float(e.sum())
         return values, errors
 
+
+
+def _owned(points):
+    """A new array that nothing else holds, made read-only (so the polyline keeps it, no copy)."""
+    points.flags.writeable = False
+    return points
 
 
 def _edge_rows(segments, factors):
