@@ -100,7 +100,6 @@ def _root(
         raise typer.Exit(0)
 
 
-
 def _option_name(param) -> Optional[str]:
     """The name a user knows a parameter by: its long option, or an argument's metavar."""
     if param is None:
