@@ -2,8 +2,10 @@
 
 Each command lives in its own module under :mod:`revolve.cli.commands` and
 exposes ``register(app)``; modules are found automatically, so adding a
-command never edits this file. Command modules must import heavy libraries
-inside their functions: every module is imported at start-up.
+command never edits this file. A run of one command imports the module named
+like it (a name starting with the command's: ``turn`` is in ``turning.py``);
+help, ``--version`` and unknown names import every module. Command modules
+must import heavy libraries inside their functions.
 
 Every error caused by input is printed as one line on standard error,
 ``revolve: error: ...``, with exit code 2 -- never a traceback, never a box.
@@ -50,16 +52,32 @@ app = typer.Typer(
 )
 
 
-def _register_commands() -> None:
+_ALL_REGISTERED = []   # non-empty once every command module is registered on ``app``
+
+
+def _command_modules():
     from revolve.cli import commands
 
-    for info in sorted(pkgutil.iter_modules(commands.__path__), key=lambda m: m.name):
-        if info.name.startswith("_"):
-            continue
-        module = importlib.import_module(f"{commands.__name__}.{info.name}")
+    names = sorted(m.name for m in pkgutil.iter_modules(commands.__path__))
+    return commands.__name__, [n for n in names if not n.startswith("_")]
+
+
+def _register_commands(target=None, modules=None) -> None:
+    """Register the commands of ``modules`` (default: every command module) on ``target``."""
+    package, names = _command_modules()
+    for name in names if modules is None else modules:
+        module = importlib.import_module(f"{package}.{name}")
         register = getattr(module, "register", None)
         if register is not None:
-            register(app)
+            register(app if target is None else target)
+
+
+def _full_app() -> typer.Typer:
+    """``app`` with every command registered (imports every command module once)."""
+    if not _ALL_REGISTERED:
+        _register_commands()
+        _ALL_REGISTERED.append(True)
+    return app
 
 
 def _show_version(value: bool) -> None:
@@ -80,9 +98,6 @@ def _root(
     if ctx.invoked_subcommand is None:      # `revolve` alone: the help, and success
         print(ctx.get_help())
         raise typer.Exit(0)
-
-
-_register_commands()
 
 
 def _option_name(param) -> Optional[str]:
@@ -202,9 +217,19 @@ def _app_for(argv) -> typer.Typer:
     (True, True)
     """
     first = argv[0] if argv else None
-    chosen = [c for c in app.registered_commands if first is not None and c.name == first]
+    chosen = []
+    if first is not None and not _ALL_REGISTERED and first.isidentifier():
+        # A command lives in the module of its name (``turn`` in ``turning``): import only the
+        # modules whose name starts with it, not every command's module.
+        _, names = _command_modules()
+        scratch = typer.Typer()
+        _register_commands(scratch, [n for n in names if n.startswith(first)])
+        chosen = [c for c in scratch.registered_commands if c.name == first]
     if len(chosen) != 1:
-        return app
+        full = _full_app()
+        chosen = [c for c in full.registered_commands if first is not None and c.name == first]
+        if len(chosen) != 1:
+            return full
     one = typer.Typer(name=PROGRAM, help=app.info.help, invoke_without_command=True,
                       add_completion=False, pretty_exceptions_enable=False)
     one.registered_callback = app.registered_callback

@@ -343,6 +343,29 @@ def _number(v: float):
     return Num(int(v)) if v.is_integer() and abs(v) < 2 ** 53 else Num(v)
 
 
+def _ellipse_base(e: _EllipseP, face: str):
+    """The base curve of an ellipse primitive, built and checked once for both heads."""
+    key = (e, face)
+    if key not in _ELLIPSE_BASES:
+        from revolve.expr import Var, call
+        from revolve.geometry.segments import curve_from_expressions
+
+        t = Var("t")
+        au, ar, w = _number(e.a_u), _number(e.a_r), _number(e.offset)
+        c, s = call("cos", (t,)), call("sin", (t,))
+        norm = (ar ** 2 * c ** 2 + au ** 2 * s ** 2) ** Fraction(1, 2)
+        u = au * c + (w * ar * c / norm if e.offset else 0)
+        rho = ar * s + (w * au * s / norm if e.offset else 0)
+        if len(_ELLIPSE_BASES) >= 64:       # bounded: a long-running process builds many vessels
+            _ELLIPSE_BASES.clear()
+        _ELLIPSE_BASES[key] = curve_from_expressions(u, rho, 0.0, math.pi / 2, face=face,
+                                                     exact=(Fraction(0), "pi/2"))
+    return _ELLIPSE_BASES[key]
+
+
+_ELLIPSE_BASES: Dict[Tuple[_EllipseP, str], Any] = {}
+
+
 def _ellipse_curve(e: _EllipseP, head: int, length: float, face: str):
     """The ellipse primitive as a frame curve: head 1 from the pole, head 2 to the pole.
 
@@ -351,17 +374,10 @@ def _ellipse_curve(e: _EllipseP, head: int, length: float, face: str):
     each head is that curve under an affine map (head 1: z = -u; head 2:
     z = L + u with τ = π/2 - t), so the numeric functions are compiled once for both.
     """
-    from revolve.expr import Const, Num, Var, call
-    from revolve.geometry.segments import CurveMap, curve_from_expressions
+    from revolve.expr import Const, Num
+    from revolve.geometry.segments import CurveMap
 
-    t = Var("t")
-    au, ar, w = _number(e.a_u), _number(e.a_r), _number(e.offset)
-    c, s = call("cos", (t,)), call("sin", (t,))
-    norm = (ar ** 2 * c ** 2 + au ** 2 * s ** 2) ** Fraction(1, 2)
-    u = au * c + (w * ar * c / norm if e.offset else 0)
-    rho = ar * s + (w * au * s / norm if e.offset else 0)
-    base = curve_from_expressions(u, rho, 0.0, math.pi / 2, face=face,
-                                  exact=(Fraction(0), "pi/2"))
+    base = _ellipse_base(e, face)
     if head == 1:   # τ = t from the pole (t = 0) to the junction (t = π/2); z = -u
         return base.transformed((-1.0, 0.0, 0.0, 1.0))
     # τ = π/2 - t from the junction (t = 0) to the pole (t = π/2); z = L + u
