@@ -51,7 +51,7 @@ if TYPE_CHECKING:  # pragma: no cover
 
     import sympy
 
-__all__ = ["Expr", "parse_expression", "parse_number", "exact_number", "as_expression",
+__all__ = ["Expr", "parse_expression", "parse_number", "exact_number", "as_expression", "as_sympy",
            "numpy_functions", "constant_float", "FUNCTIONS", "CONSTANTS"]
 
 MAX_DEPTH = 30          # nesting of parentheses and function calls
@@ -1079,6 +1079,47 @@ _SYMPY_FUNCTIONS = {"sin": "sin", "cos": "cos", "tan": "tan", "asin": "asin", "a
                     "exp": "exp", "log": "log", "Abs": "abs", "sign": "sign", "atan2": "atan2"}
 
 
+def as_sympy(value, what: str = "as_sympy"):
+    """A sympy object for a value that is one already, a number, or one of our trees — never text.
+
+    The one door into sympy for values: it never calls ``sympify`` (which would evaluate a
+    string), so text from a profile file reaches sympy only as the whitelist parser's tree
+    (:meth:`Expr.to_sympy`). ``what`` names the caller in the refusal.
+
+    >>> import sympy
+    >>> as_sympy(parse_expression("t^2/2")), as_sympy(Fraction(1, 3)), as_sympy(7)
+    (t**2/2, 1/3, 7)
+    >>> as_sympy(sympy.pi) is sympy.pi, as_sympy(0.5)
+    (True, 0.500000000000000)
+    >>> as_sympy("__import__('os')")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ExpressionError: give expression text to revolve.expr.parse_expression, not to as_sympy
+    >>> as_sympy(True)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.ExpressionError: as_sympy takes a sympy expression, a number or an expression tree, not bool
+    """
+    import numbers
+
+    sp = _sympy()
+    if isinstance(value, Expr):
+        return value.to_sympy()
+    if isinstance(value, sp.Basic):
+        return value
+    if isinstance(value, (str, bytes)):
+        raise ExpressionError(f"give expression text to revolve.expr.parse_expression, not to {what}")
+    if isinstance(value, numbers.Number) and not isinstance(value, bool):
+        if isinstance(value, numbers.Integral):
+            return sp.Integer(int(value))
+        if isinstance(value, Fraction):
+            return sp.Rational(value.numerator, value.denominator)
+        if isinstance(value, numbers.Real):
+            return sp.Float(float(value))
+    raise ExpressionError(f"{what} takes a sympy expression, a number or an expression tree, "
+                          f"not {type(value).__name__}")
+
+
 def from_sympy(value) -> Expr:
     """A tree of a sympy expression made by code (never text): numbers, ``pi``, ``E``,
     symbols, sums, products, rational powers and the parser's functions.
@@ -1101,12 +1142,8 @@ def from_sympy(value) -> Expr:
     """
     if isinstance(value, Expr):
         return value
-    if isinstance(value, (str, bytes)):
-        # Text goes through the whitelist parser only; sympify would evaluate it.
-        raise ExpressionError("give expression text to revolve.expr.parse_expression, not to "
-                              "from_sympy")
+    v = as_sympy(value, "from_sympy")
     sp = _sympy()
-    v = sp.sympify(value, strict=True)   # a number or an expression already: no text
     if v.is_Symbol:
         return Var(v.name)
     if v.is_Rational:

@@ -106,13 +106,13 @@ def run_sympy(tasks, seconds: float):
     import subprocess
     import sys
 
-    import sympy
-
     if not tasks:
         return []
+    from revolve.expr import as_sympy
+
     # The expressions travel pickled between this process and its own worker: no text is
-    # ever parsed (sympify of a string would evaluate it). strict=True refuses strings.
-    payload = pickle.dumps([(str(kind),) + tuple(sympy.sympify(a, strict=True) for a in rest)
+    # ever parsed (as_sympy refuses strings; nothing here calls sympify).
+    payload = pickle.dumps([(str(kind),) + tuple(as_sympy(a) for a in rest)
                             for kind, *rest in tasks])
     # A fixed hash seed: sympy's algorithms walk sets, so the same input gives the same form.
     env = {**os.environ, "PYTHONHASHSEED": "0"}
@@ -309,12 +309,12 @@ def tried_exactly(g, t) -> bool:
     >>> tried_exactly(sympy.sqrt(9 * sympy.sin(t) ** 2 + 4 * sympy.cos(t) ** 2), t)
     False
     """
-    import sympy
-
     from revolve.geometry.integrals import _degree_bound
 
     algebraic = transcendental = False
-    stack = [sympy.sympify(g, strict=True)]
+    from revolve.expr import as_sympy
+
+    stack = [as_sympy(g)]
     while stack:
         node = stack.pop()
         if not node.has(t):

@@ -567,7 +567,9 @@ def _small_polynomial(e, t) -> bool:
     """
     import sympy
 
-    e = sympy.sympify(e, strict=True)   # an expression already: strings are refused
+    from revolve.expr import as_sympy
+
+    e = as_sympy(e)   # an expression already: strings are refused
     if sympy.count_ops(e) > SYMBOLIC_MAX_OPS:
         return False
     degree = _degree_bound(e, t)
@@ -595,7 +597,9 @@ def curve_integrals_symbolic(curve: Curve):
     import sympy
 
     t = sympy.Symbol("t", real=True)
-    x, y = sympy.sympify(curve.x_expr, strict=True), sympy.sympify(curve.y_expr, strict=True)
+    from revolve.expr import as_sympy
+
+    x, y = as_sympy(curve.x_expr), as_sympy(curve.y_expr)
     if not (_small_polynomial(x, t) and _small_polynomial(y, t)):
         return [None] * len(COLUMNS)
     dx, dy = sympy.diff(x, t), sympy.diff(y, t)
