@@ -7,6 +7,11 @@ Names are matched ignoring case, spaces and punctuation, so ``"Stainless
 304"``, ``"stainless-304"`` and ``"STAINLESS_304"`` are the same material.
 A density can also be given directly as text with a unit
 (:func:`density_from_text`). Neither needs pint for the usual cases.
+The density options of every command and the library's ``density``
+arguments go through :func:`parse_density`, :func:`density_value`,
+:func:`material_or_density` and :func:`file_density`: always kg/m³; a bare
+number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities carry
+their unit.
 
 Densities are nominal figures at room temperature: real alloys vary by grade
 and condition, so masses computed from them are estimates. For a lift, the
@@ -26,16 +31,18 @@ Examples
 from __future__ import annotations
 
 import math
+import numbers
 import re
 from dataclasses import dataclass
 from functools import lru_cache
 from typing import Any, Mapping, Optional
 
-from revolve.errors import MaterialError
+from revolve.errors import MaterialError, RevolveError, UnitError, quoted
 from revolve.units import parse_quantity
 
-__all__ = ["GROUPS", "Material", "MaterialError", "density_from_text",
-           "find_material", "load_materials", "parse_materials"]
+__all__ = ["BARE_DENSITY_UNIT", "GROUPS", "Material", "MaterialError", "density_from_text",
+           "density_value", "file_density", "find_material", "load_materials",
+           "material_or_density", "parse_density", "parse_materials"]
 
 #: Material groups; each selects a set of turning cutting data.
 GROUPS = ("steel", "stainless", "cast iron", "aluminium", "copper alloy",
@@ -193,10 +200,9 @@ def parse_materials(text: str, file: str = _FILE) -> tuple[Material, ...]:
     ...
     revolve.errors.MaterialError: extra.toml: material 1 (x): missing field(s) name, aliases, density_kg_m3, group, source
     """
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # Python 3.10
-        import tomli as tomllib
+    from revolve.datafiles import toml
+
+    tomllib = toml()
 
     try:
         document = tomllib.loads(text)
@@ -241,10 +247,9 @@ def load_materials() -> tuple[Material, ...]:
     >>> [m.key for m in table][:3]
     ['water', 'aluminium', 'copper']
     """
-    from importlib.resources import files
+    from revolve.datafiles import bundled_text
 
-    data = files("revolve") / "data" / _FILE
-    return parse_materials(data.read_text(encoding="utf-8"), file=_FILE)
+    return parse_materials(bundled_text(_FILE), file=_FILE)
 
 
 @lru_cache(maxsize=None)
@@ -359,3 +364,137 @@ def density_from_text(text: str, default_unit: Optional[str] = None) -> float:
     if not value > 0.0:
         raise MaterialError(f"a density must be positive, not '{text.strip()}'")
     return value
+
+
+#: The unit of a density option given as a bare number (``--density 7850``), as the help says.
+BARE_DENSITY_UNIT = "kg/m^3"
+
+
+def parse_density(text: str, option: Optional[str] = None) -> float:
+    """A density option in kg/m³: a number with a unit, or a bare number in kg/m³.
+
+    This is the one reader of density options (``--density``,
+    ``--liquid-density``) for every command; errors name ``option``.
+
+    >>> parse_density("7850"), parse_density("7.85 g/cm^3"), round(parse_density("0.284 lb/in^3"))
+    (7850.0, 7850.0, 7861)
+    >>> parse_density("-850", "--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --liquid-density: a density must be positive, not '-850'
+    >>> parse_density("7850 kg", "--density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: --density: 'kg' is a mass unit, not a density unit
+    """
+    try:
+        return density_from_text(text, default_unit=BARE_DENSITY_UNIT)
+    except RevolveError as e:
+        raise e.located(option=option)
+
+
+def material_or_density(material: Optional[str], density: Optional[str], *,
+                        material_option: str = "--material", density_option: str = "--density"):
+    """``(density in kg/m³, label, material key)`` from a material option or a density option.
+
+    ``(None, None, None)`` when neither is given; the key is None for a
+    density. Errors name the option.
+
+    >>> material_or_density("water", None)[0], material_or_density(None, "850")[:2]
+    (998.2, (850.0, '850 kg/m³ (given)'))
+    >>> material_or_density("Stahl", None)  # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: --material: unknown material 'Stahl'...
+    >>> material_or_density("water", "1000", material_option="--liquid",
+    ...                     density_option="--liquid-density")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --liquid-density: give either --liquid or --liquid-density, not both
+    """
+    if material is not None and density is not None:
+        raise RevolveError(f"give either {material_option} or {density_option}, not both",
+                           option=density_option)
+    if material is not None:
+        try:
+            m = find_material(material)
+        except RevolveError as e:
+            raise e.located(option=material_option)
+        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})", m.key
+    if density is not None:
+        d = parse_density(density, density_option)
+        return d, f"{d:g} kg/m³ (given)", None
+    return None, None, None
+
+
+def file_density(doc):
+    """Density in kg/m³ and a label from a document's ``material`` or ``density``; else Nones.
+
+    Examples
+    --------
+    >>> from types import SimpleNamespace
+    >>> file_density(SimpleNamespace(material=None, density=None))
+    (None, None)
+    >>> file_density(SimpleNamespace(material=None, density="1000 kg/m^3", file="t.toml",
+    ...                              line_of=lambda key: 3))
+    (1000.0, '1000 kg/m³ (from the file)')
+    """
+    if doc.material:
+        try:
+            m = find_material(doc.material)
+        except RevolveError as e:
+            raise e.located(file=doc.file, line=doc.line_of("material"), place="material")
+        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})"
+    if doc.density:
+        try:
+            d = density_from_text(doc.density)
+        except RevolveError as e:
+            raise e.located(file=doc.file, line=doc.line_of("density"), place="density")
+        return d, f"{d:g} kg/m³ (from the file)"
+    return None, None
+
+
+def density_value(density: Any, option: Optional[str] = "density"):
+    """``(density in kg/m³, label)`` from text with a unit, a pint quantity or a bare number.
+
+    A bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`, as ``--density 7850``
+    on the command line); text and quantities carry their own unit, never a
+    unit guessed from the profile. None gives ``(None, None)``. Errors are
+    the command line's, naming ``option``.
+
+    Examples
+    --------
+    >>> density_value("7.85 g/cm^3"), density_value(7850)
+    ((7850.0, '7850 kg/m³ (given)'), (7850.0, '7850 kg/m³ (given)'))
+    >>> density_value(None)
+    (None, None)
+    >>> density_value("heavy")                       # doctest: +ELLIPSIS
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: density: ...
+    >>> density_value(0)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.MaterialError: density: a density must be positive, not '0.0'
+    >>> density_value(True)
+    Traceback (most recent call last):
+    ...
+    revolve.errors.UnitError: density: give a density such as "7850 kg/m^3" or a number in kg/m³, got True
+    """
+    if density is None:
+        return None, None
+    if isinstance(density, str):
+        d = parse_density(density, option)
+    elif isinstance(density, numbers.Real) and not isinstance(density, bool):
+        d = parse_density(repr(float(density)), option)
+    elif hasattr(density, "to") and hasattr(density, "magnitude"):   # a pint quantity
+        try:
+            value = float(density.to("kg/m**3").magnitude)
+        except Exception:  # pint's DimensionalityError (pint is the caller's, not imported here)
+            raise UnitError(f"{quoted(str(density))} is not a density; give a mass per volume "
+                            "such as 7850 kg/m^3", option=option) from None
+        d = parse_density(repr(value), option)
+    else:
+        raise UnitError(f'give a density such as "7850 kg/m^3" or a number in kg/m³, '
+                        f"got {density!r}", option=option)
+    return d, f"{d:g} kg/m³ (given)"

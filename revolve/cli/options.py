@@ -103,7 +103,7 @@ def _axis(text: str):
 
 
 def _density(text: str):
-    from revolve.jobs.measuring import parse_density
+    from revolve.materials import parse_density
 
     return parse_density(text, option=None)
 

@@ -231,7 +231,7 @@ def run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], row
     from revolve.cli.tables import csv_text
     from revolve.errors import one_line
     from revolve.jobs import batch
-    from revolve.jobs.measuring import CAUTIONS
+    from revolve.jobs.results import CAUTIONS
     from revolve.render.output import write_outputs
 
     pool = {} if serial_below is None else {"serial_below": serial_below}

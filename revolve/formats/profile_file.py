@@ -107,11 +107,6 @@ import re
 from fractions import Fraction
 from typing import Any, Dict, Iterable, List, Optional, Tuple
 
-try:  # Python 3.11+
-    import tomllib
-except ModuleNotFoundError:  # pragma: no cover - Python 3.10
-    import tomli as tomllib  # type: ignore[no-redef]
-
 from revolve.errors import ExpressionError, FormatError, SegmentError
 from revolve.formats.document import ProfileDocument
 from revolve.formats.files import read_text
@@ -242,6 +237,9 @@ def parse_profile_text(text: str, *, file: Optional[str] = None,
     if len(text) > MAX_TEXT_CHARS:
         raise FormatError(f"the file has {len(text)} characters; a profile file may have at most "
                           f"{MAX_TEXT_CHARS}", file=file)
+    from revolve.datafiles import toml
+
+    tomllib = toml()
     original = text
     text, blocks, shifts = _take_point_lists(text)
     _check_sizes(text, file, shifts)

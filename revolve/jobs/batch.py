@@ -225,7 +225,8 @@ def _pooled(task, items, workers: int, progress, size: int) -> Iterator[PartResu
 # -- measuring many files ------------------------------------------------------------------
 
 
-from revolve.jobs.measuring import PartMeasurement, density_value  # noqa: E402
+from revolve.jobs.measuring import PartMeasurement  # noqa: E402
+from revolve.materials import density_value  # noqa: E402
 
 
 @dataclass(frozen=True)

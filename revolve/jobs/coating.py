@@ -1097,10 +1097,9 @@ def parse_coating_system(text: str, file: Optional[str] = None) -> CoatingSystem
     ...
     revolve.errors.FormatError: s.toml:2: coat 1: unknown key "dft"; did you mean "dft_um"?
     """
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # pragma: no cover - Python 3.10
-        import tomli as tomllib  # type: ignore[no-redef]
+    from revolve.datafiles import toml
+
+    tomllib = toml()
 
     if not text.strip():
         raise FormatError("the coating-system file is empty", file=file)

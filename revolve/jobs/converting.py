@@ -95,7 +95,7 @@ def read_drawing(drawing: Optional[str], path_data: Optional[str], *, path_id=No
 def check_as_measure_would(doc, axis) -> None:
     """Check a document as ``revolve measure`` checks what it reads, without measuring.
 
-    The material or density goes through :func:`revolve.jobs.measuring.file_density`
+    The material or density goes through :func:`revolve.materials.file_density`
     (the lookup ``measure`` uses); the angle and the axis build a
     :class:`~revolve.geometry.profile.Revolution` and the profile is prepared
     against the axis (:func:`revolve.geometry.checks.prepare`: closure, one
@@ -109,7 +109,7 @@ def check_as_measure_would(doc, axis) -> None:
     """
     from revolve.formats.drawings import check_no_crossings
     from revolve.geometry.checks import prepare
-    from revolve.jobs.measuring import file_density
+    from revolve.materials import file_density
     from revolve.geometry.profile import Revolution
 
     file_density(doc)
@@ -147,7 +147,8 @@ def convert_drawing(drawing: Optional[str], output: str, *, path_data: Optional[
 
     from revolve import units as registry
     from revolve.formats import parse_profile_text, profile_text
-    from revolve.jobs.measuring import file_density, parse_axis, part_units
+    from revolve.jobs.measuring import parse_axis, part_units
+    from revolve.materials import file_density
     from revolve.jobs.results import Field, Result, Table
 
     given_axis = parse_axis(axis) if isinstance(axis, str) else axis

@@ -251,10 +251,9 @@ def _load_toml(path: str, what: str) -> Tuple[dict, str]:
     from revolve.formats.files import read_text
     from revolve.formats.source_lines import find_oversize
 
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # pragma: no cover - Python 3.10
-        import tomli as tomllib  # type: ignore[no-redef]
+    from revolve.datafiles import toml
+
+    tomllib = toml()
 
     text = read_text(path)
     if len(text) > MAX_FILE_CHARACTERS:

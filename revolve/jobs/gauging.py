@@ -655,10 +655,9 @@ def parse_expansion(text: str, file: str = _EXPANSION_FILE) -> Tuple[Expansion, 
     ...
     revolve.errors.MaterialError: extra.toml: material 1: missing field(s) name, aliases, alpha_per_kelvin, source, note
     """
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # Python 3.10
-        import tomli as tomllib
+    from revolve.datafiles import toml
+
+    tomllib = toml()
     try:
         doc = tomllib.loads(text)
     except tomllib.TOMLDecodeError as exc:
@@ -698,10 +697,9 @@ def load_expansion() -> Tuple[Expansion, ...]:
     >>> [m.key for m in load_expansion()]
     ['carbon_steel', 'stainless_304', 'stainless_316', 'aluminium']
     """
-    from importlib.resources import files
+    from revolve.datafiles import bundled_text
 
-    data = files("revolve") / "data" / _EXPANSION_FILE
-    return parse_expansion(data.read_text(encoding="utf-8"))
+    return parse_expansion(bundled_text(_EXPANSION_FILE))
 
 
 def find_expansion(name: str) -> Expansion:

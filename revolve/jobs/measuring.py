@@ -7,10 +7,8 @@ both call the functions here, so the library's ``to_dict()`` and the command's
 
 * :func:`parse_axis`, :func:`revolution_for`: the axis and angle rule (the
   given value, else the file's, else the sketch x axis and 360°);
-* :func:`parse_density`, :func:`density_value`, :func:`material_or_density`,
-  :func:`file_density`: densities, always in kg/m³; a
-  bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`), text and pint quantities
-  carry their unit;
+* densities come from :mod:`revolve.materials` (:func:`~revolve.materials.density_value`,
+  :func:`~revolve.materials.material_or_density`, :func:`~revolve.materials.file_density`);
 * :func:`part_units`: the output units of a part (the ``part`` trade's
   defaults of :func:`revolve.jobs.results.trade_units`, then the options);
 * :func:`measure_document`, :func:`measurement_dict`, :func:`part_json`;
@@ -32,7 +30,6 @@ Examples
 
 from __future__ import annotations
 
-import numbers
 import os
 import re
 from dataclasses import dataclass
@@ -41,29 +38,14 @@ from typing import Any, Dict, Optional, Tuple
 
 from revolve.errors import RevolveError, UnitError, quoted
 from revolve.geometry.profile import Axis, Revolution
-from revolve.jobs.results import Result
+from revolve.jobs.results import CAUTIONS, Result
+from revolve.materials import density_value, file_density, material_or_density
 
 #: Relative tolerance of the cross-check unless told otherwise (``--tolerance``).
 DEFAULT_TOLERANCE = 1e-9
 
 #: The sketch x axis with its exact description (as ``--axis x`` gives it).
 X_AXIS_EXACT = ((Fraction(0), Fraction(0)), (Fraction(1), Fraction(0)))
-
-#: The caution texts, by kind, printed (and put in JSON) where they apply.
-CAUTIONS = {
-    "lifting": "Mass and centre of mass are estimates from nominal geometry. Rigging and lifts "
-               "are planned by a competent person under local rules.",
-    "vessel": "Capacity and level tables are geometry only. Wall and head thickness for "
-              "pressure, supports and nozzles are for the applicable code and a licensed "
-              "engineer; tables for custody transfer need certified calibration.",
-    "coating": "Quantities are estimates. Follow the coating's data sheet; ventilation, fire and "
-               "confined-space rules apply to work inside vessels; respect local rules on emissions.",
-    "turning": "Times and costs are estimates; cutting data comes from the tool supplier. Guard "
-               "rotating stock and respect the machine's speed limit for the part's size and balance.",
-    "rotating": "A part spun fast stores energy: balance and speed limits are for the machine "
-                "maker's data and local rules.",
-}
-
 
 #: Largest size of a number in ``--axis``: a coordinate whose cube still fits a float with room.
 AXIS_LIMIT = 1e99
@@ -131,71 +113,6 @@ def parse_axis(text: Optional[str], option: str = "--axis") -> Optional[Axis]:
     return Axis((fl[0], fl[1]), (fl[2], fl[3]), exact=((vals[0], vals[1]), (vals[2], vals[3])))
 
 
-#: The unit of a density option given as a bare number (``--density 7850``), as the help says.
-BARE_DENSITY_UNIT = "kg/m^3"
-
-
-def parse_density(text: str, option: Optional[str] = None) -> float:
-    """A density option in kg/m³: a number with a unit, or a bare number in kg/m³.
-
-    This is the one reader of density options (``--density``,
-    ``--liquid-density``) for every command; errors name ``option``.
-
-    >>> parse_density("7850"), parse_density("7.85 g/cm^3"), round(parse_density("0.284 lb/in^3"))
-    (7850.0, 7850.0, 7861)
-    >>> parse_density("-850", "--liquid-density")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.MaterialError: --liquid-density: a density must be positive, not '-850'
-    >>> parse_density("7850 kg", "--density")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.UnitError: --density: 'kg' is a mass unit, not a density unit
-    """
-    from revolve import materials
-
-    try:
-        return materials.density_from_text(text, default_unit=BARE_DENSITY_UNIT)
-    except RevolveError as e:
-        raise e.located(option=option)
-
-
-def material_or_density(material: Optional[str], density: Optional[str], *,
-                        material_option: str = "--material", density_option: str = "--density"):
-    """``(density in kg/m³, label, material key)`` from a material option or a density option.
-
-    ``(None, None, None)`` when neither is given; the key is None for a
-    density. Errors name the option.
-
-    >>> material_or_density("water", None)[0], material_or_density(None, "850")[:2]
-    (998.2, (850.0, '850 kg/m³ (given)'))
-    >>> material_or_density("Stahl", None)  # doctest: +ELLIPSIS
-    Traceback (most recent call last):
-    ...
-    revolve.errors.MaterialError: --material: unknown material 'Stahl'...
-    >>> material_or_density("water", "1000", material_option="--liquid",
-    ...                     density_option="--liquid-density")
-    Traceback (most recent call last):
-    ...
-    revolve.errors.RevolveError: --liquid-density: give either --liquid or --liquid-density, not both
-    """
-    from revolve import materials
-
-    if material is not None and density is not None:
-        raise RevolveError(f"give either {material_option} or {density_option}, not both",
-                           option=density_option)
-    if material is not None:
-        try:
-            m = materials.find_material(material)
-        except RevolveError as e:
-            raise e.located(option=material_option)
-        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})", m.key
-    if density is not None:
-        d = parse_density(density, density_option)
-        return d, f"{d:g} kg/m³ (given)", None
-    return None, None, None
-
-
 def load_with_unit(path: str, unit: Optional[str] = None, *, exact: bool = False,
                    option: str = "--units"):
     """Read a profile file; ``unit`` is the length unit of files that do not say (``--units``).
@@ -214,81 +131,6 @@ def load_with_unit(path: str, unit: Optional[str] = None, *, exact: bool = False
         except UnitError as e:
             raise e.located(option=option)
     return load_profile(path, unit=unit, exact=exact)
-
-
-def file_density(doc):
-    """Density in kg/m³ and a label from a document's ``material`` or ``density``; else Nones.
-
-    Examples
-    --------
-    >>> from types import SimpleNamespace
-    >>> file_density(SimpleNamespace(material=None, density=None))
-    (None, None)
-    >>> file_density(SimpleNamespace(material=None, density="1000 kg/m^3", file="t.toml",
-    ...                              line_of=lambda key: 3))
-    (1000.0, '1000 kg/m³ (from the file)')
-    """
-    from revolve import materials
-
-    if doc.material:
-        try:
-            m = materials.find_material(doc.material)
-        except RevolveError as e:
-            raise e.located(file=doc.file, line=doc.line_of("material"), place="material")
-        return m.density, f"{m.name}, {m.density:g} kg/m³ ({m.source})"
-    if doc.density:
-        try:
-            d = materials.density_from_text(doc.density)
-        except RevolveError as e:
-            raise e.located(file=doc.file, line=doc.line_of("density"), place="density")
-        return d, f"{d:g} kg/m³ (from the file)"
-    return None, None
-
-
-def density_value(density: Any, option: Optional[str] = "density"):
-    """``(density in kg/m³, label)`` from text with a unit, a pint quantity or a bare number.
-
-    A bare number is kg/m³ (:data:`BARE_DENSITY_UNIT`, as ``--density 7850``
-    on the command line); text and quantities carry their own unit, never a
-    unit guessed from the profile. None gives ``(None, None)``. Errors are
-    the command line's, naming ``option``.
-
-    Examples
-    --------
-    >>> density_value("7.85 g/cm^3"), density_value(7850)
-    ((7850.0, '7850 kg/m³ (given)'), (7850.0, '7850 kg/m³ (given)'))
-    >>> density_value(None)
-    (None, None)
-    >>> density_value("heavy")                       # doctest: +ELLIPSIS
-    Traceback (most recent call last):
-    ...
-    revolve.errors.UnitError: density: ...
-    >>> density_value(0)
-    Traceback (most recent call last):
-    ...
-    revolve.errors.MaterialError: density: a density must be positive, not '0.0'
-    >>> density_value(True)
-    Traceback (most recent call last):
-    ...
-    revolve.errors.UnitError: density: give a density such as "7850 kg/m^3" or a number in kg/m³, got True
-    """
-    if density is None:
-        return None, None
-    if isinstance(density, str):
-        d = parse_density(density, option)
-    elif isinstance(density, numbers.Real) and not isinstance(density, bool):
-        d = parse_density(repr(float(density)), option)
-    elif hasattr(density, "to") and hasattr(density, "magnitude"):   # a pint quantity
-        try:
-            value = float(density.to("kg/m**3").magnitude)
-        except Exception:  # pint's DimensionalityError (pint is the caller's, not imported here)
-            raise UnitError(f"{quoted(str(density))} is not a density; give a mass per volume "
-                            "such as 7850 kg/m^3", option=option) from None
-        d = parse_density(repr(value), option)
-    else:
-        raise UnitError(f'give a density such as "7850 kg/m^3" or a number in kg/m³, '
-                        f"got {density!r}", option=option)
-    return d, f"{d:g} kg/m³ (given)"
 
 
 def x_axis() -> Axis:

@@ -203,20 +203,11 @@ class Rules:
                                place="rules")
 
 
-def _toml():
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # Python 3.10
-        import tomli as tomllib
-    return tomllib
-
-
 @lru_cache(maxsize=None)
 def _table() -> Dict[str, Any]:
-    from importlib.resources import files
+    from revolve.datafiles import bundled_text, toml
 
-    text = (files("revolve") / "data" / _DATA_FILE).read_text(encoding="utf-8")
-    return _toml().loads(text)
+    return toml().loads(bundled_text(_DATA_FILE))
 
 
 def load_rules(system: str = "metric") -> Rules:

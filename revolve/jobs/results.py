@@ -49,7 +49,22 @@ from typing import Any, Dict, Iterable, Mapping, Optional, Tuple
 
 from revolve.errors import RevolveError, UnitError
 
-__all__ = ["ROLES", "OutputUnits", "trade_units", "Field", "Table", "Result", "IMPERIAL_LENGTHS"]
+__all__ = ["CAUTIONS", "ROLES", "OutputUnits", "trade_units", "Field", "Table", "Result", "IMPERIAL_LENGTHS"]
+
+#: The caution texts, by kind, printed (and put in JSON) where they apply.
+CAUTIONS = {
+    "lifting": "Mass and centre of mass are estimates from nominal geometry. Rigging and lifts "
+               "are planned by a competent person under local rules.",
+    "vessel": "Capacity and level tables are geometry only. Wall and head thickness for "
+              "pressure, supports and nozzles are for the applicable code and a licensed "
+              "engineer; tables for custody transfer need certified calibration.",
+    "coating": "Quantities are estimates. Follow the coating's data sheet; ventilation, fire and "
+               "confined-space rules apply to work inside vessels; respect local rules on emissions.",
+    "turning": "Times and costs are estimates; cutting data comes from the tool supplier. Guard "
+               "rotating stock and respect the machine's speed limit for the part's size and balance.",
+    "rotating": "A part spun fast stores energy: balance and speed limits are for the machine "
+                "maker's data and local rules.",
+}
 
 #: The kind of quantity (as :mod:`revolve.units` knows it) behind each role.
 ROLES = {
@@ -335,8 +350,6 @@ class Result:
         for t in self.tables:
             out[t.key] = t.json(self.units)
         out["notes"] = list(self.notes)
-        from revolve.jobs.measuring import CAUTIONS
-
         out["cautions"] = [CAUTIONS.get(c, c) for c in self.cautions]
         return out
 

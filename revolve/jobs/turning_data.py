@@ -96,17 +96,15 @@ def size_text(value: float, unit: str) -> str:
 
 
 def _toml():
-    try:
-        import tomllib
-    except ModuleNotFoundError:  # Python 3.10
-        import tomli as tomllib
-    return tomllib
+    from revolve.datafiles import toml
+
+    return toml()
 
 
 def _read(name: str) -> str:
-    from importlib.resources import files
+    from revolve.datafiles import bundled_text
 
-    return (files("revolve") / "data" / name).read_text(encoding="utf-8")
+    return bundled_text(name)
 
 
 def _number(value: Any, file: str, place: str, *, positive: bool = True) -> float:

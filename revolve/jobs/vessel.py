@@ -842,7 +842,7 @@ def _vessel_length(value, unit: str, option: str) -> float:
 
 def _material(material, density, material_option: str, density_option: str):
     """(kg/m³, label, material key) from a material name or a density (text, number, pint)."""
-    from revolve.jobs.measuring import density_value, material_or_density
+    from revolve.materials import density_value, material_or_density
 
     if density is None or isinstance(density, str) or material is not None:
         return material_or_density(material, density if density is None or isinstance(

@@ -189,7 +189,7 @@ def renderables(r: Result) -> List[Any]:
     for note in r.notes:
         out.append(Text(note))          # plain text: brackets in names stay as written
     if r.cautions:
-        from revolve.jobs.measuring import CAUTIONS
+        from revolve.jobs.results import CAUTIONS
 
         out.append(Panel("\n".join(CAUTIONS.get(c, c) for c in r.cautions), title="Caution",
                          title_align="left", border_style="yellow", expand=False))
@@ -228,7 +228,7 @@ def html(r: Result) -> str:
     for note in r.notes:
         parts.append(f"<p>{escape(note)}</p>")
     if r.cautions:
-        from revolve.jobs.measuring import CAUTIONS
+        from revolve.jobs.results import CAUTIONS
 
         parts.append("<p><strong>Caution:</strong> " + escape(
             " ".join(CAUTIONS.get(c, c) for c in r.cautions)) + "</p>")

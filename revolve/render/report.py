@@ -5,7 +5,7 @@ is inline, pictures are inline SVG text made by matplotlib (:func:`svg_of`),
 no external fonts or scripts. It holds the inputs, the pictures, every table
 of each result with the unit in each heading, the notes (the cross-check
 line), the sources of materials and data, and the cautions
-(:data:`revolve.jobs.measuring.CAUTIONS`).
+(:data:`revolve.jobs.results.CAUTIONS`).
 
 The figures are the terminal's: values come from :meth:`Table.json
 <revolve.jobs.results.Table.json>` through the result's
@@ -239,7 +239,7 @@ def _pictures_html(pictures: Sequence[Tuple[str, str]], prefix: str) -> str:
 
 
 def _cautions_html(cautions: Iterable[str]) -> str:
-    from revolve.jobs.measuring import CAUTIONS
+    from revolve.jobs.results import CAUTIONS
 
     texts = list(dict.fromkeys(CAUTIONS.get(c, c) for c in cautions))
     if not texts:

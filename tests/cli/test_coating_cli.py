@@ -27,7 +27,7 @@ from pathlib import Path
 import pytest
 
 from revolve.cli.app import main
-from revolve.jobs.measuring import CAUTIONS
+from revolve.jobs.results import CAUTIONS
 
 ROOT = Path(__file__).resolve().parents[2]
 SYSTEM = str(ROOT / "examples" / "coating-idler-system.toml")

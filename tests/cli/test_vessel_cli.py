@@ -13,7 +13,7 @@ import math
 import pytest
 
 from revolve.cli.app import main
-from revolve.jobs.measuring import CAUTIONS
+from revolve.jobs.results import CAUTIONS
 
 
 def run(args, capsys):

@@ -132,7 +132,7 @@ def test_tables_hold_the_json_figures_with_units_in_headings():
     assert p.tables["levels"][-1][-1] == "100 %"        # 100.00000000000004 has no float noise
     text = "".join(p.text)
     assert "cross-check (washers): relative difference 3.2e-13 <i>ok</i>" in text
-    from revolve.jobs.measuring import CAUTIONS
+    from revolve.jobs.results import CAUTIONS
     assert CAUTIONS["vessel"] in text and "steel 7850 kg/m³: <from memory>" in text
 
 

@@ -46,8 +46,8 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
     from revolve.cli import common
     from revolve.formats.paths import profile_paths
     from revolve.jobs import batch
-    from revolve.jobs.measuring import (material_or_density, measure_result, parse_axis,
-                                        part_units)
+    from revolve.jobs.measuring import measure_result, parse_axis, part_units
+    from revolve.materials import material_or_density
 
     items = [profile] if isinstance(profile, str) else [os.fspath(p) for p in profile]
     batch.check_workers(workers)

@@ -28,8 +28,8 @@ def run_picture(profile: str, output: str, solid: bool, axis: Any, angle: Option
     from revolve.cli import common
     from revolve.errors import RevolveError
     from revolve.jobs import meshing
-    from revolve.jobs.measuring import (material_or_density, measure_document, parse_axis,
-                                        part_units)
+    from revolve.jobs.measuring import measure_document, parse_axis, part_units
+    from revolve.materials import material_or_density
 
     common.check_output(output, (".png", ".svg"), "pictures", force=force)
     for name, value in (("--width", width), ("--height", height)):
