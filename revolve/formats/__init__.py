@@ -31,6 +31,7 @@ Examples
 >>> doc = load_profile(path)
 >>> doc.profile.unit, len(doc.profile.loops[0].segments), doc.exact
 ('mm', 4, True)
+>>> from revolve.formats import write_profile     # imported on first use
 >>> again = os.path.join(folder, "again.toml")
 >>> write_profile(doc, again)
 >>> load_profile(again).profile.loops == doc.profile.loops
@@ -46,25 +47,63 @@ revolve.errors.FormatError: ...part.step: unknown kind of file ".step"; profiles
 from __future__ import annotations
 
 import os
-from typing import Callable, Dict, Optional
+from typing import TYPE_CHECKING, Any, Callable, Dict, Optional
 
 from revolve.errors import FormatError
-from revolve.formats.document import ProfileDocument
-from revolve.formats.points import POINT_EXTENSIONS, read_points_file
-from revolve.formats.profile_file import parse_profile_text, read_profile_file
-from revolve.formats.writer import profile_text, write_profile
 
-__all__ = ["READERS", "ProfileDocument", "load_profile", "parse_profile_text",
+if TYPE_CHECKING:                         # pragma: no cover - for type checkers only
+    from revolve.formats.document import ProfileDocument
+
+__all__ = ["POINT_EXTENSIONS", "READERS", "ProfileDocument", "load_profile", "parse_profile_text",
            "profile_text", "register_reader", "write_profile"]
 
 #: A reader: ``reader(path, unit=None) -> ProfileDocument``.
-Reader = Callable[..., ProfileDocument]
+Reader = Callable[..., "ProfileDocument"]
 
-#: Readers by file name ending (lower case, with the dot).
-READERS: Dict[str, Reader] = {".toml": read_profile_file}
-READERS.update({extension: read_points_file for extension in POINT_EXTENSIONS})
-from revolve.formats.drawings import DRAWING_READERS  # noqa: E402 (imports no reader yet)
-READERS.update(DRAWING_READERS)
+#: The package's names that live in its modules, imported on first use (PEP 562), so that
+#: reading one kind of file imports only that kind's reader.
+_LAZY = {"ProfileDocument": "revolve.formats.document",
+         "parse_profile_text": "revolve.formats.profile_file",
+         "profile_text": "revolve.formats.writer", "write_profile": "revolve.formats.writer"}
+
+
+def __getattr__(name: str) -> Any:
+    if name in _LAZY:
+        import importlib
+
+        return getattr(importlib.import_module(_LAZY[name]), name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
+
+def _reader(module: str, name: str, takes_exact: bool = False) -> Reader:
+    """The reader ``module.name``, imported when it is first called.
+
+    >>> r = _reader("revolve.formats.points", "read_points_file", takes_exact=True)
+    >>> r.__name__, r.takes_exact
+    ('read_points_file', True)
+    """
+    def read(path, **settings):
+        import importlib
+
+        return getattr(importlib.import_module(module), name)(path, **settings)
+
+    read.__name__ = read.__qualname__ = name
+    read.__doc__ = f"{module}.{name}, imported on first use."
+    read.takes_exact = takes_exact          # type: ignore[attr-defined]
+    return read
+
+
+#: File name endings of plain point lists.
+POINT_EXTENSIONS = (".txt", ".csv", ".xy", ".dat", ".pts")
+
+#: Readers by file name ending (lower case, with the dot): the project's profile file, plain
+#: point lists (:mod:`revolve.formats.points`) and drawings (:mod:`revolve.formats.drawings`).
+READERS: Dict[str, Reader] = {".toml": _reader("revolve.formats.profile_file", "read_profile_file")}
+READERS.update({extension: _reader("revolve.formats.points", "read_points_file", True)
+                for extension in POINT_EXTENSIONS})
+READERS.update({".svg": _reader("revolve.formats.drawings", "read_svg_file"),
+                ".svgpath": _reader("revolve.formats.drawings", "read_svg_path_file"),
+                ".dxf": _reader("revolve.formats.drawings", "read_dxf_file")})
 
 
 def register_reader(extension: str, reader: Reader) -> None:
@@ -79,6 +118,7 @@ def register_reader(extension: str, reader: Reader) -> None:
 
     Examples
     --------
+    >>> from revolve.formats.points import read_points_file
     >>> register_reader("SKETCH", read_points_file)
     >>> READERS[".sketch"] is read_points_file
     True
@@ -90,7 +130,7 @@ def register_reader(extension: str, reader: Reader) -> None:
     READERS[extension] = reader
 
 
-def load_profile(path, *, unit: Optional[str] = None, exact: bool = False) -> ProfileDocument:
+def load_profile(path, *, unit: Optional[str] = None, exact: bool = False) -> "ProfileDocument":
     """Read a profile from a file, choosing the reader by the file name's ending.
 
     Parameters

@@ -3,9 +3,9 @@
 The drawing readers live in :mod:`revolve.formats.svg` (SVG path data and
 SVG files) and :mod:`revolve.formats.dxf` (DXF through ezdxf). Importing
 this module imports neither of them, nor sympy, numpy or ezdxf: the reader
-functions here import the real reader when they are called, so registering
-them costs nothing at start-up. :data:`DRAWING_READERS` maps file endings to
-them, for :func:`revolve.formats.register_reader`.
+functions here import the real reader when they are called.
+:data:`revolve.formats.READERS` names them by file ending and imports this
+module only when a drawing is read.
 
 Each reader returns a :class:`~revolve.formats.document.ProfileDocument`
 and, through its ``*_drawing`` function, a :class:`DrawingReport`: the
@@ -14,8 +14,6 @@ where the unit and the axis came from.
 
 Examples
 --------
->>> sorted(DRAWING_READERS)
-['.dxf', '.svg', '.svgpath']
 >>> report = DrawingReport(source="a.svg", kind="SVG file", unit="mm",
 ...                        unit_source="assumed: the drawing does not say")
 >>> report.as_dict()["loops"], report.summary_line()
@@ -521,6 +519,3 @@ def read_dxf_file(path: str, *, unit: Optional[str] = None) -> ProfileDocument:
 
     return _no_strays(read_dxf(path, unit=unit))
 
-
-#: Readers of drawings by file name ending, for :func:`revolve.formats.register_reader`.
-DRAWING_READERS = {".svg": read_svg_file, ".svgpath": read_svg_path_file, ".dxf": read_dxf_file}

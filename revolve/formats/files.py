@@ -25,8 +25,6 @@ from __future__ import annotations
 
 import errno
 import os
-import shutil
-import tempfile
 from dataclasses import dataclass
 from typing import IO, Callable, Dict, List, Optional
 
@@ -284,6 +282,8 @@ def _remove(name: Optional[str]) -> None:
 
 def _write_temporary(out: _Output) -> None:
     try:
+        import tempfile     # only when writing: reading a file needs none of it
+
         fd, out.temporary = tempfile.mkstemp(prefix=".", suffix=".part", dir=_folder(out.path))
     except OSError as exc:
         raise _cannot(out.path, exc.errno or errno.EIO, out.option) from None
@@ -311,6 +311,8 @@ def _write_temporary(out: _Output) -> None:
 
 def _backup(out: _Output) -> str:
     """A second name for the file now at the target, so that it can be put back."""
+    import tempfile
+
     try:
         fd, name = tempfile.mkstemp(prefix=".", suffix=".old", dir=_folder(out.path))
         os.close(fd)
@@ -321,6 +323,8 @@ def _backup(out: _Output) -> str:
         os.link(out.path, name)
     except OSError:
         try:
+            import shutil
+
             shutil.copy2(out.path, name)
         except OSError as exc:
             _remove(name)

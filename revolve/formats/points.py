@@ -53,9 +53,6 @@ from revolve.formats.values import (LARGEST_NUMBER, MAX_NUMBER_CHARS, PLAIN_NUMB
 from revolve.geometry.profile import Loop, Profile
 from revolve.geometry.segments import Where
 
-#: File name endings read as point lists.
-POINT_EXTENSIONS = (".txt", ".csv", ".xy", ".dat", ".pts")
-
 _SEPARATOR = re.compile(r"\s*[,;]\s*|\s+")
 _NOT_FINITE = re.compile(r"[+-]?(nan|inf|infinity)\Z", re.IGNORECASE)
 #: Characters that str.splitlines takes as line breaks besides \n and \r\n: a file holding

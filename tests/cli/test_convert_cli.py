@@ -32,8 +32,7 @@ import sympy
 from shapely.geometry import Polygon
 
 from revolve.cli.app import main
-from revolve.formats import READERS, load_profile
-from revolve.formats.drawings import DRAWING_READERS
+from revolve.formats import load_profile
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
 from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressions
@@ -41,13 +40,6 @@ from revolve.geometry.segments import Line, arc_from_centre, curve_from_expressi
 ROOT = Path(__file__).resolve().parents[2]
 NOZZLE = str(ROOT / "examples" / "nozzle-outline.svg")
 T = sympy.Symbol("t", real=True)
-
-
-@pytest.fixture(autouse=True)
-def drawing_readers(monkeypatch):
-    """Register the drawing readers as revolve/formats/__init__.py is to do."""
-    for extension, reader in DRAWING_READERS.items():
-        monkeypatch.setitem(READERS, extension, reader)
 
 
 def run(args, capsys):

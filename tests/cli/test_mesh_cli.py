@@ -329,11 +329,6 @@ def test_a_drawing_polyline_meshes_through_its_own_vertices(tmp_path, capsys, mo
     import ezdxf
     from shapely.geometry import Polygon
 
-    from revolve.formats import READERS
-    from revolve.formats.drawings import DRAWING_READERS
-
-    for extension, reader in DRAWING_READERS.items():
-        monkeypatch.setitem(READERS, extension, reader)
     a = np.linspace(0.0, 2 * np.pi, 1000, endpoint=False)
     r = 1.0 + 0.3 * np.sin(7 * a)
     doc = ezdxf.new("R2010", setup=True)

@@ -13,7 +13,7 @@ from pathlib import Path
 
 import pytest
 
-from revolve.cli.commands.measure import JsonRow
+from revolve.cli.rows import JsonRow
 from revolve.errors import RevolveError
 from revolve.jobs import batch
 

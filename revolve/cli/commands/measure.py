@@ -20,11 +20,10 @@ from typing import Any, List, Optional
 import typer
 
 from revolve.cli import options
-from revolve.cli.rows import JsonRow
 from revolve.errors import RevolveError
 from revolve.jobs.measuring import DEFAULT_TOLERANCE
 
-__all__ = ["run_measure", "register", "JsonRow"]
+__all__ = ["run_measure", "register"]
 
 
 def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[str],
@@ -70,7 +69,7 @@ def run_measure(profile, axis: Any, angle: Optional[float], material: Optional[s
                              angle=angle, units=units, density=dens, density_label=dens_label,
                              exact=exact)
     if not single:
-        from revolve.cli.rows import run_batch
+        from revolve.cli.rows import JsonRow, run_batch
 
         code = run_batch(paths, left_out, task, as_json, csv_path,
                          JsonRow(length_unit, area_unit, volume_unit, mass_unit, tolerance),

@@ -343,7 +343,21 @@ class Curve(SegmentKind):
         [1.0]
         >>> Curve(t, t, 0.0, 1.0).turning_parameters(0)               # monotone: none
         []
+
+        The answer is kept on the curve (which is immutable): bounds, washers,
+        clipping and the checks all ask for it, and each search costs some sixty
+        evaluations of the curve.
         """
+        found = self.__dict__.get("_turning")
+        if found is None:
+            found = {}
+            object.__setattr__(self, "_turning", found)    # not a field: copies start afresh
+        key = (coordinate, samples)
+        if key not in found:
+            found[key] = tuple(self._turning_search(coordinate, samples))
+        return list(found[key])
+
+    def _turning_search(self, coordinate: int, samples: int) -> list[float]:
         import numpy as np
 
         which = 2 + coordinate
