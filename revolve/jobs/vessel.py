@@ -348,7 +348,7 @@ def _ellipse_base(e: _EllipseP, face: str):
     key = (e, face)
     if key not in _ELLIPSE_BASES:
         from revolve.expr import Var, call
-        from revolve.geometry.segments import curve_from_expressions
+        from revolve.geometry.segments import Curve
 
         t = Var("t")
         au, ar, w = _number(e.a_u), _number(e.a_r), _number(e.offset)
@@ -358,8 +358,10 @@ def _ellipse_base(e: _EllipseP, face: str):
         rho = ar * s + (w * au * s / norm if e.offset else 0)
         if len(_ELLIPSE_BASES) >= 64:       # bounded: a long-running process builds many vessels
             _ELLIPSE_BASES.clear()
-        _ELLIPSE_BASES[key] = curve_from_expressions(u, rho, 0.0, math.pi / 2, face=face,
-                                                     exact=(Fraction(0), "pi/2"))
+        # Finite for every τ by construction (a_u, a_r > 0, so the norm is never 0): built
+        # directly, without the sampling and pole search that a user's curve goes through.
+        _ELLIPSE_BASES[key] = Curve(u, rho, 0.0, math.pi / 2, face=face,
+                                    exact=(Fraction(0), "pi/2"))
     return _ELLIPSE_BASES[key]
 
 

@@ -308,6 +308,20 @@ class Curve(SegmentKind):
             return self
         return self.transformed(offset=(dx, dy))
 
+    def bounds(self) -> Tuple[float, float, float, float]:
+        """``(x_min, y_min, x_max, y_max)`` through the turning points, kept on the curve.
+
+        >>> import sympy
+        >>> t = sympy.Symbol("t", real=True)
+        >>> Curve(t, (t - 1) ** 2, 0.0, 3.0).bounds()
+        (0.0, 0.0, 3.0, 4.0)
+        """
+        found = self.__dict__.get("_bounds")
+        if found is None:
+            found = super().bounds()
+            object.__setattr__(self, "_bounds", found)     # not a field: copies start afresh
+        return found
+
     @property
     def start(self) -> Point:
         x, y, _, _ = self.evaluate([self.t_start])
