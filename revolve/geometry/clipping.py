@@ -88,7 +88,7 @@ import numpy as np
 
 from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.segments import Line, Segment
-from revolve.geometry.slicing import gauss_legendre
+from revolve.geometry.quadrature import gauss_legendre
 
 #: Face name given to the straight cuts along the level (the liquid surface of a vessel).
 CUT_FACE = "cut at the level"

@@ -81,7 +81,7 @@ from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.clipping import (_arc_moments, _loop_segments, d_minus_sin, kind_groups,
                                        parameters_at_values)
 from revolve.geometry.integrals import _end_weights
-from revolve.geometry.slicing import gauss_legendre
+from revolve.geometry.quadrature import gauss_legendre, legendre_table
 
 PI = math.pi
 #: Steepest cone (|Δz/Δr|) integrated in closed form; steeper ones go to quadrature.
@@ -854,7 +854,7 @@ def _rule(n: int):
     coefficients of degrees n-1 ... n-4 of the integrand's interpolant."""
     if n not in _RULES:
         x, w = gauss_legendre(n)
-        V = np.polynomial.legendre.legvander(x, n - 1)
+        V = legendre_table(x, n - 1)
         coefficients = [(2 * k + 1) / 2.0 * w * V[:, k] for k in (n - 1, n - 2, n - 3, n - 4)]
         _RULES[n] = (x, np.column_stack([w] + coefficients))
     return _RULES[n]

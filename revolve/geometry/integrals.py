@@ -128,7 +128,7 @@ def _flat_arc_integrals(cx, cy, R, a0, d, start, end) -> np.ndarray:
     and each integrand (a trigonometric polynomial of degree at most 5 over a sweep
     below 1e-3 rad) is integrated to rounding by 24 nodes.
     """
-    from revolve.geometry.slicing import gauss_legendre
+    from revolve.geometry.quadrature import gauss_legendre
 
     x, w = gauss_legendre(24)
     h = d / 2
@@ -240,16 +240,16 @@ def _end_weights(n: int):
     """Weights giving the n-node Legendre interpolant's values at -1 and +1 from the node values.
 
     >>> lo, hi = _end_weights(8)
-    >>> from revolve.geometry.slicing import gauss_legendre
+    >>> from revolve.geometry.quadrature import gauss_legendre
     >>> x, _ = gauss_legendre(8)
     >>> round(float(lo @ x ** 7), 12), round(float(hi @ x ** 3), 12)
     (-1.0, 1.0)
     """
     if n not in _END_CACHE:
-        from revolve.geometry.slicing import gauss_legendre
+        from revolve.geometry.quadrature import gauss_legendre, legendre_table
 
         x, w = gauss_legendre(n)
-        P = np.polynomial.legendre.legvander(x, n - 1)        # P_j(x_i)
+        P = legendre_table(x, n - 1)        # P_j(x_i)
         c = (np.arange(n) + 0.5)[None, :] * P * w[:, None]     # node value -> coefficient j
         sign = (-1.0) ** np.arange(n)
         _END_CACHE[n] = (c @ sign, c.sum(axis=1))
@@ -294,7 +294,7 @@ def adaptive_quadrature(f, a: float, b: float, rel_tol: float = 1e-13, n: int = 
     >>> bool(abs(v[0] - 2.0) <= e[0]), bool(e[0] > 1e-6)
     (True, True)
     """
-    from revolve.geometry.slicing import gauss_legendre
+    from revolve.geometry.quadrature import gauss_legendre
 
     x1, w1 = gauss_legendre(n)
     x2, w2 = gauss_legendre(2 * n)

@@ -54,52 +54,8 @@ from typing import Dict, List, Optional, Sequence, Tuple
 
 import numpy as np
 
+from revolve.geometry.quadrature import gauss_legendre
 from revolve.geometry.segments import Segment
-
-_GL_CACHE: dict = {}
-
-
-def gauss_legendre(n: int) -> Tuple[np.ndarray, np.ndarray]:
-    """Gauss–Legendre nodes and weights on [-1, 1] (numpy), cached.
-
-    >>> x, w = gauss_legendre(3)
-    >>> round(float(w.sum()), 14)
-    2.0
-    """
-    if n not in _GL_CACHE:
-        _GL_CACHE[n] = _legendre_nodes(n)
-    return _GL_CACHE[n]
-
-
-def _legendre_nodes(n: int) -> Tuple[np.ndarray, np.ndarray]:
-    """Gauss–Legendre rule of ``n`` nodes, made as ``numpy.polynomial.legendre.leggauss`` makes it.
-
-    The same method — eigenvalues of the symmetric Jacobi matrix (Golub and Welsch 1969),
-    one Newton step on P_n, weights proportional to 1 / (P_{n-1}(x) P_n'(x)) scaled to sum
-    to 2, both made symmetric — without importing ``numpy.polynomial`` (its six modules
-    cost every run of a curve some milliseconds); the tests compare it with ``leggauss``.
-    """
-    if n == 1:
-        return np.zeros(1), np.full(1, 2.0)
-    k = np.arange(1.0, n)
-    off = k / np.sqrt(4.0 * k * k - 1.0)
-    x = np.linalg.eigvalsh(np.diag(off, 1) + np.diag(off, -1))
-
-    def legendre(x):        # P_{n-1}, P_n and P_n' by the three-term recurrences
-        before, p = np.ones_like(x), x.copy()
-        slope_before, slope = np.zeros_like(x), np.ones_like(x)
-        for j in range(2, n + 1):
-            slope = x * slope + j * p          # P_j' = x P_{j-1}' + j P_{j-1}
-            before, p = p, ((2 * j - 1) * x * p - (j - 1) * before) / j
-        return before, p, slope
-
-    _, p, dp = legendre(x)
-    x = x - p / dp
-    before, _, dp = legendre(x)
-    w = 1.0 / (before * dp)
-    x, w = 0.5 * (x - x[::-1]), 0.5 * (w + w[::-1])       # symmetric, as the exact rule is
-    return x, w * (2.0 / w.sum())
-
 
 @dataclass(frozen=True)
 class Piece:

@@ -87,7 +87,7 @@ import numpy as np
 from revolve.errors import RevolveError
 from revolve.geometry.checks import PreparedProfile
 from revolve.geometry.horizontal import segment_area, wetted_arc
-from revolve.geometry.slicing import gauss_legendre
+from revolve.geometry.quadrature import gauss_legendre
 
 PI = math.pi
 ORIENTATIONS = ("vertical", "horizontal")

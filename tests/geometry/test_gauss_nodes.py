@@ -1,7 +1,7 @@
-"""The Gauss–Legendre rule of the engine against numpy's ``leggauss`` and against exactness.
+"""The engine's Gauss–Legendre rule and Legendre tables against numpy and against exactness.
 
-References: ``numpy.polynomial.legendre.leggauss`` (an independent library's rule, made by
-the same published method); an n-node Gauss–Legendre rule integrates every polynomial of
+References: ``numpy.polynomial.legendre.leggauss`` and ``legvander`` (an independent
+library's rule, made by the same published method, and its table of P_j(x)); an n-node Gauss–Legendre rule integrates every polynomial of
 degree at most 2n − 1 exactly on [-1, 1] (Abramowitz and Stegun 25.4.29, from memory),
 ∫ x^k dx = 2 / (k + 1) for even k and 0 for odd k.
 """
@@ -9,7 +9,7 @@ degree at most 2n − 1 exactly on [-1, 1] (Abramowitz and Stegun 25.4.29, from 
 import numpy as np
 import pytest
 
-from revolve.geometry.slicing import _legendre_nodes, gauss_legendre
+from revolve.geometry.quadrature import _legendre_nodes, gauss_legendre, legendre_table
 
 
 @pytest.mark.parametrize("n", list(range(1, 65)) + [100, 128, 200, 400])
@@ -35,8 +35,30 @@ def test_the_rule_is_cached_and_a_run_needs_no_numpy_polynomial():
     import sys
 
     assert gauss_legendre(9) is gauss_legendre(9)
-    code = ("import sys; from revolve.geometry.slicing import gauss_legendre; gauss_legendre(24); "
+    code = ("import sys; from revolve.geometry.quadrature import gauss_legendre; gauss_legendre(24); "
             "print('numpy.polynomial' in sys.modules)")
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                           check=True)
     assert done.stdout.strip() == "False"
+
+
+@pytest.mark.parametrize("degree", [0, 1, 2, 5, 23, 47])
+def test_legendre_table_matches_numpys_vandermonde_matrix(degree):
+    x = np.linspace(-1.0, 1.0, 41)
+    expected = np.polynomial.legendre.legvander(x, degree)
+    assert np.abs(legendre_table(x, degree) - expected).max() <= 4e-15
+
+
+def test_a_curve_measure_imports_no_numpy_polynomial(tmp_path):
+    import subprocess
+    import sys
+    from pathlib import Path
+
+    lid = Path(__file__).resolve().parents[2] / "profiles" / "domed-lid.toml"
+    code = ("import sys; from revolve.cli.app import main\n"
+            "try:\n    main(['measure', sys.argv[1], '--json'])\n"
+            "except SystemExit as stop:\n    assert stop.code == 0, stop.code\n"
+            "print('numpy.polynomial' in sys.modules, file=sys.stderr)")
+    done = subprocess.run([sys.executable, "-c", code, str(lid)], capture_output=True, text=True,
+                          check=True, cwd=tmp_path)
+    assert done.stderr.strip().splitlines()[-1] == "False"

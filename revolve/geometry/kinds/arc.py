@@ -668,7 +668,7 @@ class Arc(SegmentKind):
         """
         import numpy as np
 
-        from revolve.geometry.slicing import gauss_legendre
+        from revolve.geometry.quadrature import gauss_legendre
 
         par = np.array([(a.start[1], a.radius, a.angles()[0], a.sweep()) for a in segments],
                        dtype=float).reshape(-1, 4)

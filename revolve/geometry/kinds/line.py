@@ -414,7 +414,7 @@ def _r_ds_straight(z0, r0, z1, r1, work=None):
     """
     import numpy as np
 
-    from revolve.geometry.slicing import gauss_legendre
+    from revolve.geometry.quadrature import gauss_legendre
 
     # The same operations in the same order as written out plainly, in place: at 10⁶ edges
     # every full-size temporary saved is a pass over memory saved. ``work`` may give four
