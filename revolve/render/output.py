@@ -37,7 +37,6 @@ level (mm) ┃ volume (L) ┃  full
 
 from __future__ import annotations
 
-import json
 import math
 import sys
 from typing import Any, Dict, List, Optional
@@ -77,6 +76,8 @@ def json_text(obj: Any) -> str:
       "unit": "mm³"
     }
     """
+    import json     # only for --json: the tables need none of it
+
     if isinstance(obj, Result):
         obj = obj.to_dict()
     return json.dumps(clean_json(obj), indent=2, ensure_ascii=False)
