@@ -192,8 +192,9 @@ def renderables(r: Result) -> List[Any]:
     if r.cautions:
         from revolve.jobs.results import CAUTIONS
 
-        out.append(Panel("\n".join(CAUTIONS.get(c, c) for c in r.cautions), title="Caution",
-                         title_align="left", border_style="yellow", expand=False))
+        out.append(Panel(Text("\n".join(CAUTIONS.get(c, c) for c in r.cautions)),
+                         title=Text("Caution"), title_align="left", border_style="yellow",
+                         expand=False))
     return out
 
 
@@ -237,13 +238,24 @@ def html(r: Result) -> str:
 
 
 def console(width: Optional[int] = None, file=None):
-    """A rich console (wide enough not to wrap tables in pipes)."""
+    """A rich console (wide enough not to wrap tables in pipes).
+
+    Text is shown as written: no highlighting, and no emoji codes (a part named
+    ``cap :ok:`` keeps its name; rich would otherwise load its emoji table and
+    replace the code).
+
+    >>> import io
+    >>> buffer = io.StringIO()
+    >>> console(40, buffer).print("cap :ok:")
+    >>> buffer.getvalue()
+    'cap :ok:\\n'
+    """
     from rich.console import Console
 
     out = file or sys.stdout
     if width is None and not out.isatty():
         width = 110
-    return Console(width=width, highlight=False, file=out)
+    return Console(width=width, highlight=False, emoji=False, file=out)
 
 
 def text(r: Result, width: int = 110) -> str:
