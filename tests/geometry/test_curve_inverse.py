@@ -1,44 +1,53 @@
-"""Curve.monotone_parameters (the washers' z -> t) against closed-form inverses.
+"""Inverting a curve along one coordinate (the washer cross-check's slices) against closed forms.
 
-References: the ellipse z = -a·cos t, r = b·sin t inverted by hand,
-t = arccos(-z/a), r = b·sqrt(1 - (z/a)²) (from memory), and the parabola
-y = 25 - t²/180 solved for t; ranges run forwards and backwards, targets lie
-at the ends and next to a turning point (where z is flat in t).
+Reference: on the quarter ellipse x = -a cos t, y = b sin t (0 ≤ t ≤ π/2) the parameter at a
+given x is t = arccos(-x / a), and at a given y it is t = arcsin(y / b) (the inverse
+functions, from memory). The targets crowd towards the ends, where the curve turns (x at the
+pole, y at the equator) and a plain Newton step from a straight-line guess is slow.
 """
 
-from __future__ import annotations
+import math
 
 import numpy as np
 import pytest
+import sympy
 
-from revolve.expr import parse_expression
-from revolve.geometry.kinds.curve import Curve
+from revolve.geometry.segments import Curve
 
-
-def curve(x, y, t0, t1):
-    return Curve(parse_expression(x, ["t"]), parse_expression(y, ["t"]), t0, t1)
-
-
-@pytest.mark.parametrize("ta, tb", [(0.0, np.pi / 2), (np.pi / 2, 0.0)])
-def test_ellipse_quarter_both_ways_and_near_its_turn(ta, tb):
-    c = curve("-500*cos(t)", "1000*sin(t)", 0.0, np.pi / 2)    # z turns at t = 0
-    targets = np.array([-500.0, -500.0 + 1e-9, -499.9, -300.0, -1e-6, 0.0])
-    got = c.monotone_parameters(0, ta, tb, targets)
-    # near the turn z is known only to rounding (an ulp of 500), which moves r by about
-    # b·sqrt(2·ulp/a); elsewhere r agrees to 1e-12 of the head's size
-    slack = 1000 * np.sqrt(4 * np.spacing(500.0) / 500)
-    for value, t in zip(targets, got):
-        r_got = float(c.evaluate(np.array([t]))[1][0])
-        r_want = 1000 * np.sqrt(max(0.0, 1 - (value / 500) ** 2))
-        assert r_got == pytest.approx(r_want, abs=1e-9 + slack)
-        if abs(value + 500) > 1e-3:
-            assert r_got == pytest.approx(r_want, rel=1e-12)
-            assert t == pytest.approx(np.arccos(-value / 500), abs=1e-12)
+T = sympy.Symbol("t", real=True)
+A, B = 500.0, 1000.0
+QUARTER = Curve(-A * sympy.cos(T), B * sympy.sin(T), 0.0, math.pi / 2)
 
 
-def test_explicit_curve_run_backwards():
-    c = curve("t", "25 - t^2/180", 60.0, 0.0)                  # y from 5 up to 25 as t runs back
-    targets = np.array([[5.0, 10.0, 20.0, 25.0]])
-    got = c.monotone_parameters(1, np.array([[60.0]]), np.array([[0.0]]), targets)
-    want = np.sqrt((25 - targets) * 180)                         # solved by hand
-    assert np.allclose(got, want, rtol=0, atol=1e-12)
+def _crowded(lo, hi):
+    gaps = np.concatenate([[0.0], np.geomspace(1e-12, 1.0, 60)])
+    return np.unique(np.concatenate([lo + (hi - lo) * gaps, hi - (hi - lo) * gaps]))
+
+
+def test_axial_inverse_matches_arccos_near_the_pole():
+    x = _crowded(-A, 0.0)
+    t = QUARTER.monotone_parameters(0, 0.0, math.pi / 2, x)
+    expected = np.arccos(np.clip(-x / A, -1.0, 1.0))
+    # the value is found to rounding; near the pole t itself is fixed only to √(rounding)
+    assert np.abs(QUARTER.evaluate(t)[0] - x).max() <= 4e-13
+    far = np.abs(x + A) > 1e-6 * A
+    assert np.abs(t - expected)[far].max() <= 1e-9
+
+
+def test_radial_inverse_matches_arcsin_near_the_equator_and_runs_back():
+    y = _crowded(0.0, B)
+    t = QUARTER.monotone_parameters(1, math.pi / 2, 0.0, y)        # from the far end back
+    assert np.abs(QUARTER.evaluate(t)[1] - y).max() <= 8e-13
+    far = np.abs(y - B) > 1e-6 * B
+    assert np.abs(t - np.arcsin(y / B))[far].max() <= 1e-9
+
+
+@pytest.mark.parametrize("coordinate", [0, 1])
+def test_every_target_is_found_inside_its_own_range(coordinate):
+    lo = np.array([[0.0], [0.3], [1.0]])
+    hi = np.array([[0.3], [1.0], [math.pi / 2]])
+    ends = QUARTER.evaluate(np.concatenate([lo, hi]).ravel())[coordinate].reshape(2, 3)
+    targets = ends[0][:, None] + (ends[1] - ends[0])[:, None] * np.linspace(0, 1, 9)[None, :]
+    t = QUARTER.monotone_parameters(coordinate, lo, hi, targets)
+    assert ((t >= lo - 1e-15) & (t <= hi + 1e-15)).all()
+    assert np.abs(QUARTER.evaluate(t)[coordinate] - targets).max() <= 4e-13

@@ -172,6 +172,10 @@ class CurveMap:
 
 IDENTITY = CurveMap()
 
+#: Steps of the grid that narrows each bracket before the Newton steps of
+#: :meth:`Curve.monotone_parameters`.
+_GRID = 16
+
 
 @dataclass(frozen=True)
 class Curve(SegmentKind):
@@ -699,6 +703,33 @@ class Curve(SegmentKind):
             t = np.where(np.isfinite(share), lo + share * (hi - lo), 0.5 * (lo + hi))
             floor = 1e-8 * np.maximum(np.abs(lo), np.abs(hi))   # for a root at t = 0
             level = eps * np.maximum(np.abs(va), np.abs(vb))     # half an ulp of the ends
+            # Narrow every bracket to one step of a grid over its range, all rows in one
+            # evaluation: Newton then starts next to its root and takes a few steps, not a
+            # dozen (each step is an evaluation of every row).
+            share = np.linspace(0.0, 1.0, _GRID + 1)
+            grid = lo[..., None] + share * (hi - lo)[..., None]
+            point = self.evaluate(grid.reshape(-1))
+            values = point[coordinate].reshape(grid.shape)
+            slopes = point[coordinate + 2].reshape(grid.shape)
+            past = np.where(np.asarray(rising)[..., None], values >= targets[..., None],
+                            values <= targets[..., None])
+            j = np.clip(_GRID + 1 - past.sum(axis=-1), 1, _GRID)[..., None]  # first point past
+
+            def at(a, k):
+                return np.take_along_axis(a, k, -1)[..., 0]
+
+            v0, v1, g0, g1 = at(values, j - 1), at(values, j), at(grid, j - 1), at(grid, j)
+            known = np.isfinite(v0) & np.isfinite(v1) & np.isfinite(t)
+            lo, hi = np.where(known, g0, lo), np.where(known, g1, hi)
+            share = np.clip((targets - v0) / (v1 - v0), 0.0, 1.0)
+            # Where the step starts or ends flat (a turning point: the ends of a monotone
+            # range usually are), the value grows as the square of the distance from there.
+            rise = np.abs(v1 - v0)
+            flat0 = np.abs(at(slopes, j - 1) * (g1 - g0)) < 0.25 * rise
+            flat1 = np.abs(at(slopes, j) * (g1 - g0)) < 0.25 * rise
+            share = np.where(flat0 & ~flat1, np.sqrt(share),
+                             np.where(flat1 & ~flat0, 1.0 - np.sqrt(1.0 - share), share))
+            t = np.where(known & np.isfinite(share), g0 + share * (g1 - g0), t)
             for _ in range(iterations):
                 point = self.evaluate(t)
                 value, slope = point[coordinate], point[coordinate + 2]
