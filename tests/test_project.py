@@ -7,6 +7,8 @@ import subprocess
 import sys
 from pathlib import Path
 
+import pytest
+
 ROOT = Path(__file__).resolve().parents[1]
 
 
@@ -45,6 +47,36 @@ def test_measuring_lines_and_arcs_imports_no_heavy_library(tmp_path):
     )
     r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=tmp_path)
     assert "HEAVY []" in r.stderr, r.stderr[-2000:]
+
+
+SHORT_RUNS = {
+    "vessel": ["vessel", "--diameter", "2000", "--length", "5000", "--head", "ellipsoidal",
+               "--thickness", "10"],
+    "measure a curve": ["measure", str(ROOT / "profiles" / "domed-lid.toml")],
+}
+#: Modules a short run does not need (start-up budget, measured in benchmarks/): the quadrature
+#: needs no numpy.polynomial, the data tables no importlib.resources, reading a file no writer
+#: (tempfile) and no other kind's reader, a vessel no measure job, the tables no emoji table.
+NOT_AT_START = ("numpy.polynomial", "importlib.resources", "tempfile", "revolve.formats.drawings",
+                "revolve.formats.writer", "rich._emoji_codes", "revolve.cli.rows")
+
+
+@pytest.mark.parametrize("name", sorted(SHORT_RUNS))
+def test_short_runs_import_only_what_they_use(tmp_path, name):
+    code = (
+        "import sys\n"
+        "from revolve.cli.app import main\n"
+        "try:\n"
+        f"    main({SHORT_RUNS[name]!r})\n"
+        "except SystemExit as stop:\n"
+        "    assert stop.code == 0, stop.code\n"
+        f"loaded = [m for m in {NOT_AT_START!r} if m in sys.modules]\n"
+        f"loaded += ['revolve.jobs.measuring'] if {name == 'vessel'} and "
+        "'revolve.jobs.measuring' in sys.modules else []\n"
+        "print('LOADED', loaded, file=sys.stderr)\n"
+    )
+    r = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True, cwd=tmp_path)
+    assert "LOADED []" in r.stderr, r.stderr[-2000:]
 
 
 def test_no_text_reaches_an_evaluating_parser():
