@@ -16,7 +16,9 @@ profile only decides randomness and storage.
 from __future__ import annotations
 
 import os
+from html.parser import HTMLParser
 
+import pytest
 from hypothesis import HealthCheck, settings
 from hypothesis.database import DirectoryBasedExampleDatabase
 
@@ -41,3 +43,54 @@ _chosen = os.environ.get("HYPOTHESIS_PROFILE", "fixed")
 if os.environ.get("CI"):
     _chosen = "fixed"  # CI never depends on luck or on what an earlier run stored
 settings.load_profile(_chosen)
+
+
+class HtmlPage(HTMLParser):
+    """A page read with the standard library's html.parser: its tables in page order as
+    ``(key, rows of cell texts)`` (the key is the table's ``data-key``, else its class), and
+    every tag, attribute and piece of text seen."""
+
+    def __init__(self):
+        super().__init__(convert_charrefs=True)
+        self.tables, self.tags, self.attrs, self.text = [], [], [], []
+        self._rows, self._row, self._cell = None, None, None
+
+    def handle_starttag(self, tag, attrs):
+        a = dict(attrs)
+        self.tags.append(tag)
+        self.attrs.extend((tag, k, v) for k, v in attrs)
+        if tag == "table":
+            self._rows = []
+            self.tables.append((a.get("data-key") or a.get("class"), self._rows))
+        elif tag == "tr" and self._rows is not None:
+            self._row = []
+            self._rows.append(self._row)
+        elif tag in ("td", "th") and self._row is not None:
+            self._cell = []
+
+    def handle_endtag(self, tag):
+        if tag in ("td", "th") and self._cell is not None:
+            self._row.append("".join(self._cell).strip())
+            self._cell = None
+        elif tag == "table":
+            self._rows = None
+
+    def handle_data(self, data):
+        self.text.append(data)
+        if self._cell is not None:
+            self._cell.append(data)
+
+    def table(self, key, occurrence=0):
+        """Rows of the table with this key (the first, or the ``occurrence``-th)."""
+        return [rows for k, rows in self.tables if k == key][occurrence]
+
+
+@pytest.fixture
+def html_page():
+    """A function that reads HTML text into an :class:`HtmlPage` (the report tests' parser)."""
+    def read(text: str) -> HtmlPage:
+        page = HtmlPage()
+        page.feed(text)
+        page.close()
+        return page
+    return read

@@ -16,7 +16,6 @@ import json
 import re
 import shutil
 import subprocess
-from html.parser import HTMLParser
 from pathlib import Path
 
 import pytest
@@ -42,56 +41,12 @@ def run(args, capsys):
     return exc.value.code, out, err
 
 
-class _Page(HTMLParser):
-    """Tables in page order as (data-key, rows of cell texts), sections, tags and attributes."""
-
-    def __init__(self):
-        super().__init__(convert_charrefs=True)
-        self.tables, self.tags, self.attrs, self.text = [], [], [], []
-        self._rows, self._row, self._cell = None, None, None
-
-    def handle_starttag(self, tag, attrs):
-        a = dict(attrs)
-        self.tags.append(tag)
-        self.attrs.extend((tag, k, v) for k, v in attrs)
-        if tag == "table":
-            self._rows = []
-            self.tables.append((a.get("data-key") or a.get("class"), self._rows))
-        elif tag == "tr" and self._rows is not None:
-            self._row = []
-            self._rows.append(self._row)
-        elif tag in ("td", "th") and self._row is not None:
-            self._cell = []
-
-    def handle_endtag(self, tag):
-        if tag in ("td", "th") and self._cell is not None:
-            self._row.append("".join(self._cell).strip())
-            self._cell = None
-        elif tag == "table":
-            self._rows = None
-
-    def handle_data(self, data):
-        self.text.append(data)
-        if self._cell is not None:
-            self._cell.append(data)
-
-    def table(self, key, occurrence=0):
-        return [rows for k, rows in self.tables if k == key][occurrence]
-
-
-def parse(path) -> _Page:
-    p = _Page()
-    p.feed(Path(path).read_text(encoding="utf-8"))
-    p.close()
-    return p
-
-
 def shown(value, f: Field) -> str:
     text = cell(value, f)
     return text[:-2] if f.style == "percent" and text.endswith(" %") else text
 
 
-def check_tables(p: _Page, result, data, occurrence=0):
+def check_tables(p, result, data, occurrence=0):
     """Every table of ``result`` (its fields) holds ``data``'s figures (the command's JSON)."""
     for t in result.tables:
         rows = p.table(t.key, occurrence)
@@ -106,9 +61,15 @@ def check_tables(p: _Page, result, data, occurrence=0):
                                 for row in data[t.key]], t.key
 
 
-def check_self_contained(path):
+@pytest.fixture
+def self_contained(html_page):
+    """A check that a written report stands alone; it gives the parsed page."""
+    return lambda path: check_self_contained(path, html_page)
+
+
+def check_self_contained(path, html_page):
     page = Path(path).read_text(encoding="utf-8")
-    p = parse(path)
+    p = html_page(page)
     assert page.startswith("<!DOCTYPE html>") and page.rstrip().endswith("</html>")
     assert not re.search(r"https?:|ftp:|file:|//[a-z]", page, re.I)
     assert {"script", "link", "img", "iframe", "object", "embed"}.isdisjoint(p.tags)
@@ -119,13 +80,13 @@ def check_self_contained(path):
     return p
 
 
-def text_of(p: _Page) -> str:
+def text_of(p) -> str:
     return " ".join("".join(p.text).split())
 
 
 # -- each command: one run gives the JSON and the report --------------------------------------
 
-def test_measure_report_holds_the_json_figures(tmp_path, capsys):
+def test_measure_report_holds_the_json_figures(self_contained, tmp_path, capsys):
     import revolve
 
     report = tmp_path / "bushing.html"
@@ -133,7 +94,7 @@ def test_measure_report_holds_the_json_figures(tmp_path, capsys):
                           "--report", str(report)], capsys)
     assert code == 0, err
     data = json.loads(out)
-    p = check_self_contained(report)
+    p = self_contained(report)
     assert p.tags.count("svg") == 1                       # the section picture, inline
     figures = {row[0]: row[1:] for row in p.table("figures")[1:]}
     units = data["units"]
@@ -153,7 +114,8 @@ def test_measure_report_holds_the_json_figures(tmp_path, capsys):
     assert "cross-check" in text.lower()
 
 
-def test_vessel_report_holds_the_json_figures_and_the_liquid_space(tmp_path, capsys):
+def test_vessel_report_holds_the_json_figures_and_the_liquid_space(self_contained, tmp_path,
+                                                                   capsys):
     import revolve
 
     report, profile = tmp_path / "tank.html", tmp_path / "tank.toml"
@@ -161,7 +123,7 @@ def test_vessel_report_holds_the_json_figures_and_the_liquid_space(tmp_path, cap
                           "--output", str(profile)], capsys)
     assert code == 0, err
     data = json.loads(out)
-    p = check_self_contained(report)
+    p = self_contained(report)
     lib = revolve.build_vessel(diameter=1000, length=1500, head="ellipsoidal", thickness=6,
                                material="carbon_steel", liquid="water")
     check_tables(p, lib, data)
@@ -173,7 +135,7 @@ def test_vessel_report_holds_the_json_figures_and_the_liquid_space(tmp_path, cap
     assert "liquid: Water" in text and "metal: Carbon steel" in text
 
 
-def test_turn_report_holds_the_json_figures(tmp_path, capsys):
+def test_turn_report_holds_the_json_figures(self_contained, tmp_path, capsys):
     import revolve
 
     report = tmp_path / "quote.html"
@@ -181,7 +143,7 @@ def test_turn_report_holds_the_json_figures(tmp_path, capsys):
     code, out, err = run(["turn", SHAFT, *settings, "--json", "--report", str(report)], capsys)
     assert code == 0, err
     data = json.loads(out)
-    p = check_self_contained(report)
+    p = self_contained(report)
     lib = revolve.quote_turning(SHAFT, quantity=40, stock_price="2.40/kg", machine_rate="85/h")
     check_tables(p, lib, data)
     text = text_of(p)
@@ -189,7 +151,7 @@ def test_turn_report_holds_the_json_figures(tmp_path, capsys):
     assert f"cutting data: {data['inputs']['cutting_data_source']}" in text
 
 
-def test_turn_report_of_many_parts_has_a_summary_and_a_page_each(tmp_path, capsys):
+def test_turn_report_of_many_parts_has_a_summary_and_a_page_each(self_contained, tmp_path, capsys):
     import revolve
 
     report = tmp_path / "batch.html"
@@ -197,7 +159,7 @@ def test_turn_report_of_many_parts_has_a_summary_and_a_page_each(tmp_path, capsy
                           str(report)], capsys)
     assert code == 0, err
     data = json.loads(out)
-    p = check_self_contained(report)
+    p = self_contained(report)
     page = report.read_text(encoding="utf-8")
     assert page.count('<section class="part') == 2 and p.tags.count("svg") == 2
     summary = p.table("summary")
@@ -212,7 +174,7 @@ def test_turn_report_of_many_parts_has_a_summary_and_a_page_each(tmp_path, capsy
         assert figures[fields["part_mass"].label] == cell(row["part_mass"], fields["part_mass"])
 
 
-def test_coat_report_holds_the_json_figures(tmp_path, capsys):
+def test_coat_report_holds_the_json_figures(self_contained, tmp_path, capsys):
     import revolve
 
     report = tmp_path / "coat.html"
@@ -220,7 +182,7 @@ def test_coat_report_holds_the_json_figures(tmp_path, capsys):
                           "--report", str(report)], capsys)
     assert code == 0, err
     data = json.loads(out)
-    p = check_self_contained(report)
+    p = self_contained(report)
     lib = revolve.estimate_coating([PULLEY, BUSHING], system=SYSTEM, quantity=[10, 20])
     check_tables(p, lib, data)
     text = text_of(p)
@@ -230,7 +192,7 @@ def test_coat_report_holds_the_json_figures(tmp_path, capsys):
         assert caution in text
 
 
-def test_measure_report_of_many_parts(tmp_path, capsys):
+def test_measure_report_of_many_parts(self_contained, tmp_path, capsys):
     folder = tmp_path / "parts"
     folder.mkdir()
     for name in ("flanged-bushing.toml", "grooved-pulley.toml"):
@@ -240,7 +202,7 @@ def test_measure_report_of_many_parts(tmp_path, capsys):
     code, out, err = run(["measure", str(folder), "--json", "--report", str(report)], capsys)
     assert code == 2 and "broken.toml" in err               # the refused part keeps its row
     rows = [json.loads(line) for line in out.splitlines()]
-    p = check_self_contained(report)
+    p = self_contained(report)
     summary = p.table("summary")
     measured = [r for r in rows if "error" not in r]
     assert [row[0] for row in summary[1:]] == [r["file"] for r in measured]

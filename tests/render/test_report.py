@@ -15,7 +15,6 @@ from __future__ import annotations
 import re
 import shutil
 import subprocess
-from html.parser import HTMLParser
 
 import numpy as np
 import pytest
@@ -28,46 +27,6 @@ from revolve.render.output import cell
 from revolve.render.report import report_html, svg_of, write_report
 
 HOSTILE = 'tank "A" <script>alert(1)</script> & <img src=x onerror=alert(2)>.toml'
-
-
-class _Page(HTMLParser):
-    """Tables (by data-key) as lists of rows of cell texts; every tag and attribute seen."""
-
-    def __init__(self):
-        super().__init__(convert_charrefs=True)
-        self.tables, self.tags, self.attrs, self.text = {}, [], [], []
-        self._table, self._row, self._cell = None, None, None
-
-    def handle_starttag(self, tag, attrs):
-        self.tags.append(tag)
-        self.attrs.extend((tag, k, v) for k, v in attrs)
-        if tag == "table":
-            self._table = self.tables.setdefault(dict(attrs).get("data-key") or
-                                                 dict(attrs).get("class"), [])
-        elif tag == "tr" and self._table is not None:
-            self._row = []
-            self._table.append(self._row)
-        elif tag in ("td", "th") and self._row is not None:
-            self._cell = []
-
-    def handle_endtag(self, tag):
-        if tag in ("td", "th") and self._cell is not None:
-            self._row.append("".join(self._cell).strip())
-            self._cell = None
-        elif tag == "table":
-            self._table = None
-
-    def handle_data(self, data):
-        self.text.append(data)
-        if self._cell is not None:
-            self._cell.append(data)
-
-
-def _parse(page: str) -> _Page:
-    p = _Page()
-    p.feed(page)
-    p.close()
-    return p
 
 
 def _vessel_result(n: int = 11, name: str = HOSTILE) -> Result:
@@ -110,9 +69,9 @@ def _expected(r: Result, key: str):
     return [[cell(row[f.key], f) for f in t.fields] for row in data]
 
 
-def _check_tables(p: _Page, r: Result):
+def _check_tables(p, r: Result):
     for t in r.tables:
-        rows = p.tables[t.key]
+        rows = p.table(t.key)
         if t.figures:
             assert [row[1] for row in rows[1:]] == _expected(r, t.key)
             assert [row[0] for row in rows[1:]] == [f.label for f in t.fields]
@@ -120,29 +79,29 @@ def _check_tables(p: _Page, r: Result):
             assert rows[1:] == _expected(r, t.key)
 
 
-def test_tables_hold_the_json_figures_with_units_in_headings():
+def test_tables_hold_the_json_figures_with_units_in_headings(html_page):
     r = _vessel_result()
-    p = _parse(report_html(r, title="Tank T1"))
+    p = html_page(report_html(r, title="Tank T1"))
     _check_tables(p, r)
     # headings carry their units (the JSON's "units" object), as the terminal shows them
-    assert p.tables["levels"][0] == ["level (mm)", "volume (L)", "wetted area (m²)", "full"]
+    assert p.table("levels")[0] == ["level (mm)", "volume (L)", "wetted area (m²)", "full"]
     assert r.to_dict()["units"] == {"capacity": "L", "area": "m²", "level": "mm"}
-    assert p.tables["vessel"][1:3] == [["capacity", "20" + numbers.GROUP + "944", "L"],
+    assert p.table("vessel")[1:3] == [["capacity", "20" + numbers.GROUP + "944", "L"],
                                        ["inside area", "12.5664", "m²"]]
-    assert p.tables["levels"][-1][-1] == "100 %"        # 100.00000000000004 has no float noise
+    assert p.table("levels")[-1][-1] == "100 %"        # 100.00000000000004 has no float noise
     text = "".join(p.text)
     assert "cross-check (washers): relative difference 3.2e-13 <i>ok</i>" in text
     from revolve.jobs.results import CAUTIONS
     assert CAUTIONS["vessel"] in text and "steel 7850 kg/m³: <from memory>" in text
 
 
-def test_nothing_outside_the_file_is_referenced():
+def test_nothing_outside_the_file_is_referenced(html_page):
     fig = level_picture([0, 1, 2], [0, 10, 20], [0.0, 3.0, 6.0], level_unit="m", volume_unit="m³",
                         area_unit="m²", capacity=20.0, profile=([0, 0, 2, 2], [0, 1.2, 1.2, 0]),
                         marks=[(0.4, "bottom tangent line")])
     pictures = [("Level table", svg_of(fig)), ("Again", svg_of(fig))]
     page = report_html(_vessel_result(), title="Tank", pictures=pictures)
-    p = _parse(page)
+    p = html_page(page)
     assert not re.search(r"https?:|ftp:|file:|//[a-z]", page, re.I)
     assert "@import" not in page and "@font-face" not in page
     assert {"script", "link", "img", "iframe", "object", "embed", "image"}.isdisjoint(p.tags)
@@ -164,10 +123,10 @@ def test_nothing_outside_the_file_is_referenced():
     assert p.tags.count("svg") == 2
 
 
-def test_user_text_is_escaped():
+def test_user_text_is_escaped(html_page):
     r = _vessel_result(name=HOSTILE)
     page = report_html([r, _part(HOSTILE, 1e-6)], title=HOSTILE, sources=["<b>bold</b>"])
-    p = _parse(page)
+    p = html_page(page)
     assert "script" not in p.tags and "img" not in p.tags and "b" not in p.tags
     assert "i" not in p.tags
     assert not any(name.startswith("on") for _, name, _ in p.attrs)
@@ -176,11 +135,11 @@ def test_user_text_is_escaped():
     assert "<script>" not in page
 
 
-def test_many_parts_give_a_summary_and_a_page_each():
+def test_many_parts_give_a_summary_and_a_page_each(html_page):
     parts = [_part("a.toml", 1e-6), _part("b.toml", 2.5e-6), _part("c.toml", 1.25e-5)]
     page = report_html(parts, title="Batch")
-    p = _parse(page)
-    summary = p.tables["summary"]
+    p = html_page(page)
+    summary = p.table("summary")
     assert summary[0] == ["part", "volume (mm³)", "mass (kg)", "material cost (EUR)"]
     assert [row[0] for row in summary[1:]] == ["a.toml", "b.toml", "c.toml"]
     for row, r in zip(summary[1:], parts):
@@ -189,12 +148,12 @@ def test_many_parts_give_a_summary_and_a_page_each():
     # a part per page in print; the summary's links point at the parts
     assert "section.part { break-before: page" in page
     # parts in different units: the summary puts each unit beside its figure
-    mixed = _parse(report_html([_part("a.toml", 1e-6), _part("b.toml", 0.0254 ** 3, "in")],
-                               title="Mixed")).tables["summary"]
+    mixed = html_page(report_html([_part("a.toml", 1e-6), _part("b.toml", 0.0254 ** 3, "in")],
+                               title="Mixed")).table("summary")
     assert mixed[0][1] == "volume" and mixed[1][1] == "1000 mm³" and mixed[2][1] == "1 in³"
 
 
-def test_bad_pictures_and_arguments_are_refused():
+def test_bad_pictures_and_arguments_are_refused(html_page):
     r = _vessel_result()
     for svg in ('<svg><script>alert(1)</script></svg>', '<svg onload="x()"></svg>',
                 '<svg><use href="other.svg#a"/></svg>', '<svg><image href="a.png"/></svg>',
@@ -206,7 +165,8 @@ def test_bad_pictures_and_arguments_are_refused():
     fig = Figure(figsize=(2, 2))
     fig.add_subplot().imshow(np.arange(16.0).reshape(4, 4))
     page = report_html(r, title="t", pictures=[("raster", svg_of(fig))])
-    images = [v for tag, name, v in _parse(page).attrs if tag == "image" and name.endswith("href")]
+    images = [v for tag, name, v in html_page(page).attrs
+              if tag == "image" and name.endswith("href")]
     assert len(images) == 1 and images[0].startswith("data:image/png;base64,")
     with pytest.raises(ValueError, match="one list per result"):
         report_html([r, r], title="t", pictures=[[]])
@@ -309,7 +269,7 @@ def _print(page_html: str, tmp_path, name: str):
     return _pdf_pages(pdf)
 
 
-def test_in_a_browser_the_dom_holds_the_json_figures_and_a_screenshot_renders(tmp_path):
+def test_in_a_browser_the_dom_holds_the_json_figures_and_a_screenshot_renders(html_page, tmp_path):
     levels, volumes, areas, profile, marks = _tank()
     fig = level_picture(levels, volumes, areas, level_unit="mm", volume_unit="L", area_unit="m²",
                         capacity=float(volumes[-1]), profile=profile, marks=marks)
@@ -318,7 +278,7 @@ def test_in_a_browser_the_dom_holds_the_json_figures_and_a_screenshot_renders(tm
     source.write_text(report_html(r, title="Tank T1", pictures=[("Level table", svg_of(fig))]),
                       encoding="utf-8")
     run = _browser("--dump-dom", source.as_uri(), cwd=tmp_path)
-    dom = _parse(run.stdout)
+    dom = html_page(run.stdout)
     _check_tables(dom, r)
     assert dom.tags.count("svg") == 1 and "path" in dom.tags
     shot = tmp_path / "shot.png"
