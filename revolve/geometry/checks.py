@@ -324,6 +324,7 @@ class _Chains:
         self.start = starts
         self.length = np.append(starts[1:], n) - starts
         first = chord_vertex(starts)                 # the chain's first vertex along the path
+        self.first = first
         last = first + self.length
         sx, sy, ex, ey = vx[first], vy[first], vx[last], vy[last]
         self.rev = ex < sx                           # x falls along the path
@@ -335,6 +336,42 @@ class _Chains:
         self.x1 = np.maximum(sx, ex) + tol
         self.y0 = np.minimum(sy, ey)
         self.y1 = np.maximum(sy, ey) + tol
+
+    def _end_box(self, a, b):
+        """The box of the monotone run from vertex row ``a`` to ``b`` (padded as a chain's)."""
+        ax, ay, bx, by = self.vx[a], self.vy[a], self.vx[b], self.vy[b]
+        return (np.minimum(ax, bx) - self.tol, np.maximum(ax, bx) + self.tol,
+                np.minimum(ay, by), np.maximum(ay, by) + self.tol)
+
+    def next_apart(self, p, q):
+        """Of chain pairs (p, q), which are consecutive along a path and cannot meet.
+
+        Consecutive chains (``q = p + 1``, sharing p's last vertex) always have
+        overlapping boxes. Every pair of their chords but the two at the shared
+        vertex (never tested: they are adjacent) holds a chord of p without its
+        last chord or one of q without its first, each a monotone run whose box
+        is that of its end vertices: when neither run's box meets the other
+        chain's box, no chord box of p meets one of q (the same comparisons).
+        """
+        lo, hi = np.minimum(p, q), np.maximum(p, q)
+        out = (hi == lo + 1) & (self.first[lo] + self.length[lo] == self.first[hi])   # same path
+        k = np.flatnonzero(out)
+        if not k.size:
+            return out
+        lo, hi = lo[k], hi[k]
+        shared = self.first[hi]
+        meets = np.zeros(k.size, dtype=bool)
+        for run, other, longer in ((lo, hi, self.length[lo] > 1), (hi, lo, self.length[hi] > 1)):
+            # the run: p up to the vertex before the shared one, or q from the vertex after it
+            if run is lo:
+                a, b = self.first[lo], shared - 1
+            else:
+                a, b = shared + 1, shared + self.length[hi]
+            x0, x1, y0, y1 = self._end_box(a, b)
+            meets |= longer & (x0 <= self.x1[other]) & (self.x0[other] <= x1) & \
+                (y0 <= self.y1[other]) & (self.y0[other] <= y1)
+        out[k[meets]] = False
+        return out
 
     def chord(self, c, k):
         """Chord id at sorted position ``k`` of chain ``c``."""
@@ -560,6 +597,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
     # the other's box, and for each of those the run of the other's chords that its box meets.
     for ca_, cb_ in _box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index):
+        apart = ch.next_apart(ca_, cb_)      # consecutive chains whose boxes meet only at their join
+        if apart.any():
+            ca_, cb_ = ca_[~apart], cb_[~apart]
         short = ch.length[cb_] < ch.length[ca_]
         qa, qb = np.where(short, cb_, ca_), np.where(short, ca_, cb_)
         ones = ch.length[qb] == 1          # two single chords: their boxes overlap, test them
