@@ -403,7 +403,8 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         for p0 in range(0, count.size, block):
             p1 = min(count.size, p0 + block)
             rows = slice(pieces + p0, pieces + p1)
-            _add_parts(first[p0:p1], *table.ends(rows),
+            f = table.factor if np.isscalar(table.factor) else table.factor[rows]
+            _add_parts(first[p0:p1], table.z_from[rows], table.z_to[rows], f,
                        group.params[base + p0:base + p1], *args)
         more = np.flatnonzero(count > 1)
         if more.size:
@@ -423,55 +424,72 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         local = np.repeat(np.arange(p0, p1), own)
         iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
         piece = np.take(pieces, local)
-        lo, hi, sign = table.ends(piece)
+        f = table.factor if np.isscalar(table.factor) else table.factor[piece]
         # indexing, not np.take(axis=0): take copies a strided view (a polyline's rows) whole
         params = group.params[piece - group.start]
-        _add_parts(iv, lo, hi, sign, params, *args)
+        _add_parts(iv, table.z_from[piece], table.z_to[piece], f, params, *args)
 
 
-def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r_ref: float,
-               out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
-    """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
-    intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
-    c = np.take(a, iv)
-    np.maximum(c, lo, out=c)
-    d = np.take(b, iv)
-    np.minimum(d, hi, out=d)
+def _add_parts(iv, z_from, z_to, factor, params, group: PieceGroup, a, b, rule: _Rule,
+               r_ref: float, out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
+    """Add the washers of pieces (rows ``z_from, z_to, factor, params``) over their parts of
+    intervals ``iv`` to ``out`` (see :func:`_group_sums`).
+
+    A piece's part of its interval runs from ``p`` (its start, moved into the
+    interval) to ``q`` (its end, likewise); ``(p − q)/2`` is the half-width
+    with the sign the part's ``r²`` takes in the slice (``−direction``), so no
+    ends or signs are sorted out first. The rules' nodes are symmetric, so
+    the nodes ``mid ± half·x`` are the same whichever way the part runs.
+    """
+    lower = np.take(a, iv)
+    upper = np.take(b, iv)
+    p = np.maximum(lower, z_from)
+    np.minimum(p, upper, out=p)
+    q = np.maximum(lower, z_to, out=lower)
+    np.minimum(q, upper, out=q)
+    half = np.subtract(p, q, out=upper)
+    half *= 0.5
     small = None
     if small_rule is not None:
-        small = (d - c) <= SMALL_PART * (hi - lo)
+        # the part no longer than SMALL_PART of its piece: |p − q| ≤ SMALL_PART · |z_to − z_from|
+        small = np.abs(half) * 2 <= SMALL_PART * np.abs(np.subtract(z_to, z_from))
         if small.all():
             rule_here, small = small_rule, None
         elif not small.any():
             rule_here, small = rule, None
     else:
         rule_here = rule
-    half = d - c
-    half *= 0.5
-    c += d
-    c *= 0.5                          # the middle
+    p += q
+    p *= 0.5                          # the middle
     if small is None:
-        sums = _part_sums(group, params, c, half, rule_here, r_ref)
+        sums = _part_sums(group, params, p, half, rule_here, r_ref)
     else:
-        sums = np.empty((c.size, 2))
+        sums = np.empty((p.size, 2))
         for sel, rl in ((small, small_rule), (~small, rule)):
-            sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
-    half *= sign
+            sums[sel] = _part_sums(group, params[sel], p[sel], half[sel], rl, r_ref)
+    if not np.isscalar(factor):
+        half *= factor
     if few:
         lo_iv, span = 0, a.size
     else:                             # the intervals these parts lie in
         lo_iv = int(iv.min())
         span = int(iv.max()) + 1 - lo_iv
         iv = iv - lo_iv
+    scale = float(factor) if np.isscalar(factor) else 1.0      # ±1 (or 0): exact
     if sums.ndim == 1:
         sums *= half
         add = np.bincount(iv, weights=sums, minlength=span)
+        if scale != 1.0:
+            add *= scale
         out[lo_iv:lo_iv + span, 0] += add
         out[lo_iv:lo_iv + span, 1] += add
     else:
         sums *= half[:, None]
         for k in range(2):
-            out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+            add = np.bincount(iv, weights=sums[:, k], minlength=span)
+            if scale != 1.0:
+                add *= scale
+            out[lo_iv:lo_iv + span, k] += add
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
