@@ -361,18 +361,29 @@ def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.
     # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
     # to the same washer area, without losing digits when a thin section lies far from
     # the axis.
+    if rule.exact:
+        # node by node, along the pairs (one column of r each): many times faster than the
+        # same operations on the (pairs, nodes) array, whose rows are a few nodes long
+        w = rule.weights[:, 0]
+        sums = work = None
+        for j in range(w.size):
+            col = r[:, j]
+            val = np.subtract(col, r_ref)
+            work = np.add(col, r_ref, out=work)
+            val *= work
+            if w[j] != 1.0:
+                val *= w[j]
+            if sums is None:
+                sums = val
+            else:
+                sums += val
+        return sums
     val = np.subtract(r, r_ref)
     if isinstance(r, np.ndarray) and r.flags.writeable and r.base is None:
         r += r_ref                    # a fresh array of the kind's: no second temporary
     else:
         r = r + r_ref
     val *= r
-    if rule.exact:
-        w = rule.weights[:, 0]
-        sums = val[:, 0] * w[0]
-        for j in range(1, w.size):
-            sums += val[:, j] * w[j]
-        return sums
     return np.einsum("ij,jk->ik", val, rule.weights)
 
 
