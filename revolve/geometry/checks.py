@@ -247,7 +247,7 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
             break       # the x sweep is already down to three pairs per box: take it
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
-            choices[name] = (int(span.sum()), order, span, None, None)
+            choices[name] = (int(span.sum()), order, span, None, None, name)
     # The grid costs a sort of its registrations: build it only when a sweep is not already
     # down to a few pairs per box (or when asked for).
     few = bool(choices) and min(c[0] for c in choices.values()) <= 16 * n
@@ -255,13 +255,16 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
         if index == "grid" or (index is None and not few) else None
     if grid is not None:
         edge, span, key, cell = grid
-        choices["grid"] = (int(span.sum()), edge, span, key, cell)
+        choices["grid"] = (int(span.sum()), edge, span, key, cell, "grid")
     if not choices:
         order, span = _sweep_order(x0, x1)
-        choices["x"] = (int(span.sum()), order, span, None, None)
-    total, ids, span, key, cell = min(choices.values(), key=lambda c: c[0])
-    # The boxes in the index's order, so that a position's partners are read nearby.
-    bx0, bx1, by0, by1 = x0[ids], x1[ids], y0[ids], y1[ids]
+        choices["x"] = (int(span.sum()), order, span, None, None, "x")
+    total, ids, span, key, cell, name = min(choices.values(), key=lambda c: c[0])
+    # The boxes in the index's order, so that a position's partners are read nearby. A sweep's
+    # partners overlap on its own axis already (each starts between the other's ends there):
+    # only the other axis is compared.
+    bx0, bx1 = (x0[ids], x1[ids]) if name != "x" else (None, None)
+    by0, by1 = (y0[ids], y1[ids]) if name != "y" else (None, None)
     cum = np.cumsum(span)
     start = 0
     while start < len(ids) and total:
@@ -275,7 +278,12 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
         if not p.size:
             continue
         q = p + 1 + (np.arange(p.size) - np.repeat(np.cumsum(sp) - sp, sp))
-        near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p]) & (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+        near = None
+        if bx0 is not None:
+            near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p])
+        if by0 is not None:
+            on_y = (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+            near = on_y if near is None else near & on_y
         p, q = p[near], q[near]
         i, j = ids[p], ids[q]
         keep = i != j
