@@ -293,6 +293,40 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
             yield i[keep], j[keep]
 
 
+def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 16):
+    """The signs of the steps between consecutive rows of ``vx``, ``vy`` (int8), and the rows
+    whose steps are within ``slack`` on both axes; in blocks, with no full-size float array.
+
+    >>> sx, sy, tiny = _step_signs(np.array([0.0, 1.0, 1.0, 0.5]), np.array([0.0, 0.0, 1e-9, 2.0]), 1e-6)
+    >>> sx.tolist(), sy.tolist(), tiny.tolist()
+    ([1, 0, -1], [0, 1, 1], [1])
+    """
+    m = max(vx.size - 1, 0)
+    sx, sy = np.empty(m, dtype=np.int8), np.empty(m, dtype=np.int8)
+    dx, dy, sign = np.empty(min(m, block)), np.empty(min(m, block)), np.empty(min(m, block))
+    small = np.empty(min(m, block), dtype=bool)
+    more = np.empty(min(m, block), dtype=bool)
+    tiny = []
+    for i in range(0, m, block):
+        j = min(m, i + block)
+        k = j - i
+        for v, d, s in ((vx, dx[:k], sx[i:j]), (vy, dy[:k], sy[i:j])):
+            np.subtract(v[i + 1:j + 1], v[i:j], out=d)
+            np.sign(d, out=sign[:k])
+            np.copyto(s, sign[:k], casting="unsafe")
+        sm, mo = small[:k], more[:k]
+        np.less_equal(dx[:k], slack, out=sm)
+        np.greater_equal(dx[:k], -slack, out=mo)
+        sm &= mo
+        if sm.any():
+            np.less_equal(dy[:k], slack, out=mo)
+            sm &= mo
+            np.greater_equal(dy[:k], -slack, out=mo)
+            sm &= mo
+            tiny.append(np.flatnonzero(sm) + i)
+    return sx, sy, (np.concatenate(tiny) if tiny else np.zeros(0, dtype=np.int64))
+
+
 def _turns(d: np.ndarray) -> np.ndarray:
     """Positions k ≥ 1 where step ``d[k]`` runs against the last non-zero step before it.
 
@@ -303,7 +337,15 @@ def _turns(d: np.ndarray) -> np.ndarray:
     >>> _turns(np.array([0.0, 0.0, -1.0, 1.0])).tolist()
     [3]
     """
-    s = (d > 0).view(np.int8) - (d < 0).view(np.int8)
+    return _sign_turns((d > 0).view(np.int8) - (d < 0).view(np.int8))
+
+
+def _sign_turns(s: np.ndarray) -> np.ndarray:
+    """:func:`_turns` of the steps' signs ``s`` (int8: −1, 0 or 1).
+
+    >>> _sign_turns(np.array([1, 1, 0, -1, 0, -1, 0, 1], dtype=np.int8)).tolist()
+    [3, 7]
+    """
     if s.size < 2:
         return np.zeros(0, dtype=np.int64)
     if np.all(s):
@@ -521,14 +563,21 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     single = len(used) == 1
     V = used[0][1] if single else np.concatenate([p for _, p in used])
     vx, vy = V[:, 0], V[:, 1]
+    # Within a chain, two non-adjacent chords meet only across chords shorter than about
+    # 2·tol on both axes: `slack` bounds those (the scale is that of the chains' boxes).
+    x_lo, x_hi = (float(vx.min()), float(vx.max()))
+    y_lo, y_hi = (float(vy.min()), float(vy.max()))
+    scale = max(abs(x_lo - tol), abs(x_hi + tol), abs(y_lo), abs(y_hi + tol))
+    slack = 4 * tol + 16 * np.finfo(float).eps * scale
+    sx, sy, tiny = _step_signs(vx, vy, slack)
     if single:
-        dx, dy = np.diff(vx), np.diff(vy)
-
         def ordinal(i):
             return np.zeros(np.shape(i), dtype=np.int64)
     else:
         junction = offsets[1:-1] + np.arange(len(used) - 1)     # rows joining two paths
-        dx, dy = np.delete(np.diff(vx), junction), np.delete(np.diff(vy), junction)
+        sx, sy = np.delete(sx, junction), np.delete(sy, junction)
+        tiny = tiny[~np.isin(tiny, junction)]
+        tiny -= np.searchsorted(junction, tiny)                 # rows to chord ids
 
         def ordinal(i):
             return np.searchsorted(offsets, i, side="right") - 1
@@ -536,7 +585,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     def chord_vertex(i):                     # vertex row where chord i starts
         return i if single else i + ordinal(i)
 
-    starts = np.sort(np.concatenate([[0], _turns(dx), _turns(dy), offsets[1:-1]]).astype(np.int64))
+    starts = np.sort(np.concatenate([[0], _sign_turns(sx), _sign_turns(sy),
+                                     offsets[1:-1]]).astype(np.int64))
     starts = starts[np.concatenate([[True], starts[1:] != starts[:-1]])]
     if 2 * starts.size > n:
         # A noisy outline turns back at most vertices: chains of a chord or two gain nothing
@@ -581,13 +631,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         found = (int(pa[k]), int(ca[k]), int(pb[k]), int(cb[k]))
         best = found if best is None else min(best, found)
 
-    # Within a chain: runs of chords shorter than about 2·tol on both axes, with a chord on
-    # either side (a superset, put through the same box test as the pairs across chains).
-    scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
-                      np.abs(ch.y1).max()))
-    slack = 4 * tol + 16 * np.finfo(float).eps * scale
-    tiny = np.flatnonzero(_within(dx, slack))
-    tiny = tiny[np.abs(dy[tiny]) <= slack]
+    # Within a chain: runs of chords shorter than about 2·tol on both axes (`tiny`), with a
+    # chord on either side (a superset, put through the same box test as the pairs across
+    # chains).
     if tiny.size:
         gap = np.diff(tiny) > 1
         lo = np.maximum(tiny[np.concatenate([[True], gap])] - 1, 0)

@@ -213,10 +213,16 @@ class PieceTable:
         return self.ends(slice(None))[2]
 
     def extent(self) -> float:
-        """The pieces' total extent along the axis, ``Σ (hi − lo)``."""
-        d = np.subtract(self.z_to, self.z_from)
-        np.abs(d, out=d)
-        return float(d.sum())
+        """The pieces' total extent along the axis, ``Σ (hi − lo)`` (in blocks: no full-size array)."""
+        n, block = self.count, 1 << 16
+        work = np.empty(min(n, block))
+        total = 0.0
+        for i in range(0, n, block):
+            d = work[:min(n, i + block) - i]
+            np.subtract(self.z_to[i:i + block], self.z_from[i:i + block], out=d)
+            np.abs(d, out=d)
+            total += float(d.sum())
+        return total
 
 
 def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
@@ -573,32 +579,40 @@ PAIRS_PER_PIECE = 4
 EXACT_SLICE_SHIFT = 6
 
 
-def _cells(z: np.ndarray, z_lo: float, scale: float, edges: np.ndarray) -> np.ndarray:
+def _cells(z: np.ndarray, z_lo: float, scale: float, edges: np.ndarray,
+           block: int = 1 << 16) -> np.ndarray:
     """The slice ``k`` with ``edges[k] <= z < edges[k + 1]`` of each ``z`` (the last one closed).
 
     ``x = (z − z_lo) · scale`` gives it as ``⌊x⌋`` wherever ``x`` lies farther than
     1/1024 from a whole number: the caller makes the slices at least 2²⁰ spacings of
     its coordinates wide, so rounding moves ``x`` and the edges by far less. The
     few nearer ones are settled by comparing ``z`` with the edges themselves.
+    Worked in blocks of ``block`` values in one buffer (no full-size float array).
 
     >>> _cells(np.array([0.0, 0.5, 1.0, 2.9, 3.0]), 0.0, 1.0, np.array([0.0, 1.0, 2.0, 3.0])).tolist()
     [0, 0, 1, 2, 2]
     """
     last = edges.size - 2
-    x = np.subtract(z, z_lo)
-    x *= scale
-    k = x.astype(np.int32)                       # z ≥ z_lo: truncation is the floor
-    x -= k                                       # |fraction − ½| > ½ − 1/1024: near an edge
-    x -= 0.5
-    np.abs(x, out=x)
-    near = np.flatnonzero(x > 0.5 - 1.0 / 1024)
-    np.minimum(k, last, out=k)
-    if near.size:
-        zn, kn = z[near], k[near]
-        kn -= zn < edges[kn]
-        kn += (zn >= edges[kn + 1]) & (kn < last)
-        k[near] = kn
-    return k
+    out = np.empty(z.size, dtype=np.int32)
+    work = np.empty(min(z.size, block))
+    for i in range(0, z.size, block):
+        zb = z[i:i + block]
+        x = work[:zb.size]
+        k = out[i:i + block]
+        np.subtract(zb, z_lo, out=x)
+        x *= scale
+        np.copyto(k, x, casting="unsafe")        # z ≥ z_lo: truncation is the floor
+        x -= k                                   # |fraction − ½| > ½ − 1/1024: near an edge
+        x -= 0.5
+        np.abs(x, out=x)
+        near = np.flatnonzero(x > 0.5 - 1.0 / 1024)
+        np.minimum(k, last, out=k)
+        if near.size:
+            zn, kn = zb[near], k[near]
+            kn -= zn < edges[kn]
+            kn += (zn >= edges[kn + 1]) & (kn < last)
+            k[near] = kn
+    return out
 
 
 def _even_partition(table: PieceTable):
@@ -637,24 +651,31 @@ def _even_partition(table: PieceTable):
     start = _cells(z_from, z_lo, scale, edges)
     end = _cells(loose, z_lo, scale, edges)
     # A piece starts in slice start[i] and ends in start[i + 1] (the next one's start), or
-    # for an unlinked piece in its own end's slice.
+    # for an unlinked piece in its own end's slice: it meets slices low … low + apart.
     low = np.empty(n, dtype=start.dtype)
-    high = np.empty(n, dtype=start.dtype)
+    apart = np.empty(n, dtype=start.dtype)
     np.minimum(start[:n - 1], start[1:n], out=low[:-1])
-    np.maximum(start[:n - 1], start[1:n], out=high[:-1])
+    np.subtract(start[1:n], start[:n - 1], out=apart[:-1])
+    np.abs(apart, out=apart)
     low[unlinked] = np.minimum(start[unlinked], end)
-    high[unlinked] = np.maximum(start[unlinked], end)
+    apart[unlinked] = np.abs(end - start[unlinked])
     del start, end
     limit = PAIRS_PER_PIECE * n + 64
     shift = 0
-    while True:
-        first = low >> shift if shift else low
-        count = high >> shift if shift else high.copy()
-        count -= first
-        count += 1
-        if int(count.sum(dtype=np.int64)) <= limit or slices >> shift <= 1:
-            break
-        shift += 1
+    if int(apart.sum(dtype=np.int64)) + n > limit:
+        # too many pairs: wider slices (rare: an outline that zigzags along the axis)
+        high = low + apart
+        while slices >> shift > 1:
+            shift += 1
+            if int((high >> shift).sum(dtype=np.int64)) - int((low >> shift).sum(dtype=np.int64)) \
+                    + n <= limit:
+                break
+        np.right_shift(low, shift, out=low)
+        np.right_shift(high, shift, out=high)
+        np.subtract(high, low, out=apart)
+        del high
+    first, count = low, apart
+    count += 1
     edges = edges[::1 << shift]
     return edges, [(g.start, first[g.start:g.stop], count[g.start:g.stop]) for g in table.groups]
 
