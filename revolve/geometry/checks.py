@@ -293,16 +293,18 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
             yield i[keep], j[keep]
 
 
-def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 16):
+def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 16,
+                signs: bool = True):
     """The signs of the steps between consecutive rows of ``vx``, ``vy`` (int8), and the rows
     whose steps are within ``slack`` on both axes; in blocks, with no full-size float array.
+    ``signs=False`` finds the rows only (the signs are None).
 
     >>> sx, sy, tiny = _step_signs(np.array([0.0, 1.0, 1.0, 0.5]), np.array([0.0, 0.0, 1e-9, 2.0]), 1e-6)
     >>> sx.tolist(), sy.tolist(), tiny.tolist()
     ([1, 0, -1], [0, 1, 1], [1])
     """
     m = max(vx.size - 1, 0)
-    sx, sy = np.empty(m, dtype=np.int8), np.empty(m, dtype=np.int8)
+    sx, sy = (np.empty(m, dtype=np.int8), np.empty(m, dtype=np.int8)) if signs else (None, None)
     dx, dy, sign = np.empty(min(m, block)), np.empty(min(m, block)), np.empty(min(m, block))
     small = np.empty(min(m, block), dtype=bool)
     more = np.empty(min(m, block), dtype=bool)
@@ -310,10 +312,11 @@ def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 
     for i in range(0, m, block):
         j = min(m, i + block)
         k = j - i
-        for v, d, s in ((vx, dx[:k], sx[i:j]), (vy, dy[:k], sy[i:j])):
+        for v, d, s in ((vx, dx[:k], sx), (vy, dy[:k], sy)):
             np.subtract(v[i + 1:j + 1], v[i:j], out=d)
-            np.sign(d, out=sign[:k])
-            np.copyto(s, sign[:k], casting="unsafe")
+            if signs:
+                np.sign(d, out=sign[:k])
+                np.copyto(s[i:j], sign[:k], casting="unsafe")
         sm, mo = small[:k], more[:k]
         np.less_equal(dx[:k], slack, out=sm)
         np.greater_equal(dx[:k], -slack, out=mo)
@@ -861,9 +864,8 @@ def _check_path(path, k: int, tol: float) -> None:
             pts = s.flatten()
             # An edge no longer than tol is no longer than tol on either axis: the exact
             # lengths only of those (hypot over every edge costs more than these passes).
-            short = np.flatnonzero(_within(np.diff(pts[:, 0]), tol))
+            short = _step_signs(pts[:, 0], pts[:, 1], tol, signs=False)[2]
             if short.size:
-                short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
                 short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],
                                        pts[short + 1, 1] - pts[short, 1]) <= tol]
             if short.size:
