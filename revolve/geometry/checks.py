@@ -514,8 +514,8 @@ def _expand_blocks(first, stop, block: int):
 
 
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 1 << 16,
-                           index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
+                           chunk: int = 1 << 16, index: Optional[str] = None,
+                           bounds=None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
     ``chains`` holds each path's points (m + 1, 2); "first" is the smallest
@@ -554,6 +554,10 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     (0, 0, 0, 2)
     >>> find_self_intersection([np.zeros((1, 2))], [False], 1e-9) is None   # no chord at all
     True
+
+    ``bounds`` may give a box ``(x_min, y_min, x_max, y_max)`` holding all the
+    points when the caller has one already (it scales the tolerance under which
+    chords count as almost no length: a larger box only adds candidates).
     """
     used = [(k, np.asarray(p, dtype=float)) for k, p in enumerate(chains) if len(p) >= 2]
     if not used:
@@ -568,8 +572,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     vx, vy = V[:, 0], V[:, 1]
     # Within a chain, two non-adjacent chords meet only across chords shorter than about
     # 2·tol on both axes: `slack` bounds those (the scale is that of the chains' boxes).
-    x_lo, x_hi = (float(vx.min()), float(vx.max()))
-    y_lo, y_hi = (float(vy.min()), float(vy.max()))
+    if bounds is None:
+        bounds = (vx.min(), vy.min(), vx.max(), vy.max())
+    x_lo, y_lo, x_hi, y_hi = (float(v) for v in bounds)
     scale = max(abs(x_lo - tol), abs(x_hi + tol), abs(y_lo), abs(y_hi + tol))
     slack = 4 * tol + 16 * np.finfo(float).eps * scale
     sx, sy, tiny = _step_signs(vx, vy, slack)
@@ -794,7 +799,7 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     chords = [fs[0] if len(fs) == 1 else
               (np.concatenate([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2)))
               for fs in flat]
-    hit = find_self_intersection(chords, closed, tol)
+    hit = find_self_intersection(chords, closed, tol, bounds=(lo[0], lo[1], hi[0], hi[1]))
     if hit is not None:
         pa, ca, pb, cb = hit
         sa, ea, na = _chord_place(paths[pa].segments, flat[pa], ca)
