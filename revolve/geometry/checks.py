@@ -132,8 +132,9 @@ def _segments_cross(p, q, r, s, tol):
 
     d1, d2 = orient(r, s, p), orient(r, s, q)
     d3, d4 = orient(p, q, r), orient(p, q, s)
-    len_pq = np.hypot(*(q - p).T)
-    len_rs = np.hypot(*(s - r).T)
+    # √(Δx² + Δy²), not np.hypot (many times slower): |coordinates| ≤ 1e15, no square overflows
+    len_pq = np.sqrt(np.square(q[:, 0] - p[:, 0]) + np.square(q[:, 1] - p[:, 1]))
+    len_rs = np.sqrt(np.square(s[:, 0] - r[:, 0]) + np.square(s[:, 1] - r[:, 1]))
     # Orientation values are areas: compare with tolerance × length.
     t_rs = tol * np.maximum(len_rs, tol)
     t_pq = tol * np.maximum(len_pq, tol)
