@@ -244,8 +244,11 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
     n = len(x0)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
-        if name == "y" and index is None and choices and choices["x"][0] <= 3 * n:
-            break       # the x sweep is already down to three pairs per box: take it
+        if name == "y" and index is None and choices and choices["x"][0] <= 8 * n:
+            # the x sweep is already down to eight pairs per box: take it (a second sweep, a
+            # sort and a search of every box, costs about what expanding a few pairs per box
+            # does, so it could not save more than it costs)
+            break
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
             choices[name] = (int(span.sum()), order, span, None, None, name)
