@@ -309,7 +309,7 @@ def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 
     """
     m = max(vx.size - 1, 0)
     sx, sy = (np.empty(m, dtype=np.int8), np.empty(m, dtype=np.int8)) if signs else (None, None)
-    dx, dy, sign = np.empty(min(m, block)), np.empty(min(m, block)), np.empty(min(m, block))
+    dx, dy = np.empty(min(m, block)), np.empty(min(m, block))
     small = np.empty(min(m, block), dtype=bool)
     more = np.empty(min(m, block), dtype=bool)
     tiny = []
@@ -318,9 +318,10 @@ def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 
         k = j - i
         for v, d, s in ((vx, dx[:k], sx), (vy, dy[:k], sy)):
             np.subtract(v[i + 1:j + 1], v[i:j], out=d)
-            if signs:
-                np.sign(d, out=sign[:k])
-                np.copyto(s[i:j], sign[:k], casting="unsafe")
+            if signs:                                 # (d > 0) − (d < 0), as int8
+                np.greater(d, 0.0, out=small[:k])
+                np.less(d, 0.0, out=more[:k])
+                np.subtract(small[:k].view(np.int8), more[:k].view(np.int8), out=s[i:j])
         sm, mo = small[:k], more[:k]
         np.less_equal(dx[:k], slack, out=sm)
         np.greater_equal(dx[:k], -slack, out=mo)
