@@ -536,7 +536,10 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     or a uniform grid, whichever gives the fewest pairs, counted beforehand;
     ``index`` forces one, for tests); for each pair of overlapping chains the
     chords of the shorter that meet the other's box are found, then for each
-    of those the run of the other's chords that its box meets. Within one
+    of those the run of the other's chords that its box meets (consecutive
+    chains, whose boxes always meet at their shared vertex, are first compared
+    by the boxes of their runs without the two chords at that vertex, which
+    leaves out almost all of them; :meth:`_Chains.next_apart`). Within one
     chain, two non-adjacent chords can overlap only across chords shorter than
     about 2·tol on both axes (each step along a chain moves away on both
     axes): those few pairs are added directly. On a real outline the cost is

@@ -13,9 +13,10 @@ quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
 rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
 crossings (a noisy outline), or when every crossing takes an exact rule (an
-outline of straight edges), the intervals may be coarser than the vertices
-(:func:`first_partition`); the pieces and intervals are arrays, and the work is
-O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
+outline of straight edges: equal slices, about one per 64 pieces, found with no
+sort), the intervals may be coarser than the vertices (:func:`first_partition`);
+the pieces and intervals are arrays, and the work is O(n log n) for n vertices
+on real outlines (O(n) on straight ones; see :func:`_interval_sums`).
 
 Surface is ∫ r ds along every segment by Gauss–Legendre quadrature of the
 parametrisation, again comparing two orders.
@@ -693,6 +694,11 @@ def _partition(table: PieceTable):
     ``step`` are counted in O(n) without any search. ``step`` doubles from 1
     until the pairs fit :data:`PAIRS_PER_PIECE` per piece.
 
+    When every kind takes an exact rule the slices are equal instead, with no
+    sort (:func:`_even_partition`), unless the profile is too short along the
+    axis for its position to be cut that finely; then every
+    2^:data:`EXACT_SLICE_SHIFT`-th piece end at least is kept.
+
     Returns ``(edges, runs)`` as :func:`_interval_sums` takes them.
     """
     if all(g.kind.washer_degree() is not None for g in table.groups):
@@ -771,9 +777,11 @@ def first_partition(table: PieceTable) -> np.ndarray:
     parts of the pieces that cross it, each piece integrated over its own part
     (its kinks stay at the ends of its parts). When every kind's radius is a
     polynomial of ``z`` (straight pieces: exact rules, no interval is ever
-    halved) every 2^:data:`EXACT_SLICE_SHIFT`-th end at least is kept, so
-    fewer pieces are cut and fewer slice values summed. The cost of the choice
-    is one sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
+    halved) the slices need not end at piece ends at all: the axis is cut into
+    equal slices, at most one per 2^:data:`EXACT_SLICE_SHIFT` pieces, and each
+    piece end is located by arithmetic, in O(n) with no sort
+    (:func:`_even_partition`). Otherwise the cost of the choice is one sort and
+    O(n) per try, with at most log₂ n tries (:func:`_partition`).
 
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
@@ -851,7 +859,8 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     extent along the axis (a bound on the sum of the magnitudes of all the
     (piece, interval) values).
 
-    The first partition costs one sort of the piece ends (:func:`_partition`);
+    The first partition costs one sort of the piece ends, or O(n) with no
+    sort when every piece takes an exact rule (:func:`_partition`);
     each later round costs O(m log m) for the m intervals left plus the work of
     :func:`_interval_sums` on the pairs of pieces and intervals, only for the
     pieces that met an unresolved interval in the round before (found from
