@@ -459,6 +459,10 @@ def _add_parts(iv, z_from, z_to, factor, params, group: PieceGroup, a, b, rule: 
     ends or signs are sorted out first. The rules' nodes are symmetric, so
     the nodes ``mid ± half·x`` are the same whichever way the part runs.
     """
+    # Contiguous copies first: numpy's vector loops skip strided operands (a polyline's rows
+    # are a view of its vertex array), and each index array is converted once, not per use.
+    iv = np.asarray(iv, dtype=np.intp)
+    z_from, z_to = np.ascontiguousarray(z_from), np.ascontiguousarray(z_to)
     lower = np.take(a, iv)
     upper = np.take(b, iv)
     p = np.maximum(lower, z_from)
