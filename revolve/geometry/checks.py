@@ -132,8 +132,9 @@ def _segments_cross(p, q, r, s, tol):
 
     d1, d2 = orient(r, s, p), orient(r, s, q)
     d3, d4 = orient(p, q, r), orient(p, q, s)
-    len_pq = np.hypot(*(q - p).T)
-    len_rs = np.hypot(*(s - r).T)
+    # √(Δx² + Δy²), not np.hypot (many times slower): |coordinates| ≤ 1e15, no square overflows
+    len_pq = np.sqrt(np.square(q[:, 0] - p[:, 0]) + np.square(q[:, 1] - p[:, 1]))
+    len_rs = np.sqrt(np.square(s[:, 0] - r[:, 0]) + np.square(s[:, 1] - r[:, 1]))
     # Orientation values are areas: compare with tolerance × length.
     t_rs = tol * np.maximum(len_rs, tol)
     t_pq = tol * np.maximum(len_pq, tol)
@@ -243,11 +244,14 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
     n = len(x0)
     choices = {}
     for name, lo, hi in (("x", x0, x1), ("y", y0, y1)):
-        if name == "y" and index is None and choices and choices["x"][0] <= 3 * n:
-            break       # the x sweep is already down to three pairs per box: take it
+        if name == "y" and index is None and choices and choices["x"][0] <= 8 * n:
+            # the x sweep is already down to eight pairs per box: take it (a second sweep, a
+            # sort and a search of every box, costs about what expanding a few pairs per box
+            # does, so it could not save more than it costs)
+            break
         if index in (None, name):
             order, span = _sweep_order(lo, hi)
-            choices[name] = (int(span.sum()), order, span, None, None)
+            choices[name] = (int(span.sum()), order, span, None, None, name)
     # The grid costs a sort of its registrations: build it only when a sweep is not already
     # down to a few pairs per box (or when asked for).
     few = bool(choices) and min(c[0] for c in choices.values()) <= 16 * n
@@ -255,13 +259,16 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
         if index == "grid" or (index is None and not few) else None
     if grid is not None:
         edge, span, key, cell = grid
-        choices["grid"] = (int(span.sum()), edge, span, key, cell)
+        choices["grid"] = (int(span.sum()), edge, span, key, cell, "grid")
     if not choices:
         order, span = _sweep_order(x0, x1)
-        choices["x"] = (int(span.sum()), order, span, None, None)
-    total, ids, span, key, cell = min(choices.values(), key=lambda c: c[0])
-    # The boxes in the index's order, so that a position's partners are read nearby.
-    bx0, bx1, by0, by1 = x0[ids], x1[ids], y0[ids], y1[ids]
+        choices["x"] = (int(span.sum()), order, span, None, None, "x")
+    total, ids, span, key, cell, name = min(choices.values(), key=lambda c: c[0])
+    # The boxes in the index's order, so that a position's partners are read nearby. A sweep's
+    # partners overlap on its own axis already (each starts between the other's ends there):
+    # only the other axis is compared.
+    bx0, bx1 = (x0[ids], x1[ids]) if name != "x" else (None, None)
+    by0, by1 = (y0[ids], y1[ids]) if name != "y" else (None, None)
     cum = np.cumsum(span)
     start = 0
     while start < len(ids) and total:
@@ -275,7 +282,12 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
         if not p.size:
             continue
         q = p + 1 + (np.arange(p.size) - np.repeat(np.cumsum(sp) - sp, sp))
-        near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p]) & (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+        near = None
+        if bx0 is not None:
+            near = (bx0[p] <= bx1[q]) & (bx0[q] <= bx1[p])
+        if by0 is not None:
+            on_y = (by0[p] <= by1[q]) & (by0[q] <= by1[p])
+            near = on_y if near is None else near & on_y
         p, q = p[near], q[near]
         i, j = ids[p], ids[q]
         keep = i != j
@@ -283,6 +295,44 @@ def _box_pairs(x0, x1, y0, y1, chunk: int, index: Optional[str] = None):
             keep &= cell(np.maximum(x0[i], x0[j]), np.maximum(y0[i], y0[j])) == key[p]
         if keep.any():
             yield i[keep], j[keep]
+
+
+def _step_signs(vx: np.ndarray, vy: np.ndarray, slack: float, block: int = 1 << 16,
+                signs: bool = True):
+    """The signs of the steps between consecutive rows of ``vx``, ``vy`` (int8), and the rows
+    whose steps are within ``slack`` on both axes; in blocks, with no full-size float array.
+    ``signs=False`` finds the rows only (the signs are None).
+
+    >>> sx, sy, tiny = _step_signs(np.array([0.0, 1.0, 1.0, 0.5]), np.array([0.0, 0.0, 1e-9, 2.0]), 1e-6)
+    >>> sx.tolist(), sy.tolist(), tiny.tolist()
+    ([1, 0, -1], [0, 1, 1], [1])
+    """
+    m = max(vx.size - 1, 0)
+    sx, sy = (np.empty(m, dtype=np.int8), np.empty(m, dtype=np.int8)) if signs else (None, None)
+    dx, dy = np.empty(min(m, block)), np.empty(min(m, block))
+    small = np.empty(min(m, block), dtype=bool)
+    more = np.empty(min(m, block), dtype=bool)
+    tiny = []
+    for i in range(0, m, block):
+        j = min(m, i + block)
+        k = j - i
+        for v, d, s in ((vx, dx[:k], sx), (vy, dy[:k], sy)):
+            np.subtract(v[i + 1:j + 1], v[i:j], out=d)
+            if signs:                                 # (d > 0) − (d < 0), as int8
+                np.greater(d, 0.0, out=small[:k])
+                np.less(d, 0.0, out=more[:k])
+                np.subtract(small[:k].view(np.int8), more[:k].view(np.int8), out=s[i:j])
+        sm, mo = small[:k], more[:k]
+        np.less_equal(dx[:k], slack, out=sm)
+        np.greater_equal(dx[:k], -slack, out=mo)
+        sm &= mo
+        if sm.any():
+            np.less_equal(dy[:k], slack, out=mo)
+            sm &= mo
+            np.greater_equal(dy[:k], -slack, out=mo)
+            sm &= mo
+            tiny.append(np.flatnonzero(sm) + i)
+    return sx, sy, (np.concatenate(tiny) if tiny else np.zeros(0, dtype=np.int64))
 
 
 def _turns(d: np.ndarray) -> np.ndarray:
@@ -295,7 +345,15 @@ def _turns(d: np.ndarray) -> np.ndarray:
     >>> _turns(np.array([0.0, 0.0, -1.0, 1.0])).tolist()
     [3]
     """
-    s = (d > 0).view(np.int8) - (d < 0).view(np.int8)
+    return _sign_turns((d > 0).view(np.int8) - (d < 0).view(np.int8))
+
+
+def _sign_turns(s: np.ndarray) -> np.ndarray:
+    """:func:`_turns` of the steps' signs ``s`` (int8: −1, 0 or 1).
+
+    >>> _sign_turns(np.array([1, 1, 0, -1, 0, -1, 0, 1], dtype=np.int8)).tolist()
+    [3, 7]
+    """
     if s.size < 2:
         return np.zeros(0, dtype=np.int64)
     if np.all(s):
@@ -324,6 +382,7 @@ class _Chains:
         self.start = starts
         self.length = np.append(starts[1:], n) - starts
         first = chord_vertex(starts)                 # the chain's first vertex along the path
+        self.first = first
         last = first + self.length
         sx, sy, ex, ey = vx[first], vy[first], vx[last], vy[last]
         self.rev = ex < sx                           # x falls along the path
@@ -335,6 +394,42 @@ class _Chains:
         self.x1 = np.maximum(sx, ex) + tol
         self.y0 = np.minimum(sy, ey)
         self.y1 = np.maximum(sy, ey) + tol
+
+    def _end_box(self, a, b):
+        """The box of the monotone run from vertex row ``a`` to ``b`` (padded as a chain's)."""
+        ax, ay, bx, by = self.vx[a], self.vy[a], self.vx[b], self.vy[b]
+        return (np.minimum(ax, bx) - self.tol, np.maximum(ax, bx) + self.tol,
+                np.minimum(ay, by), np.maximum(ay, by) + self.tol)
+
+    def next_apart(self, p, q):
+        """Of chain pairs (p, q), which are consecutive along a path and cannot meet.
+
+        Consecutive chains (``q = p + 1``, sharing p's last vertex) always have
+        overlapping boxes. Every pair of their chords but the two at the shared
+        vertex (never tested: they are adjacent) holds a chord of p without its
+        last chord or one of q without its first, each a monotone run whose box
+        is that of its end vertices: when neither run's box meets the other
+        chain's box, no chord box of p meets one of q (the same comparisons).
+        """
+        lo, hi = np.minimum(p, q), np.maximum(p, q)
+        out = (hi == lo + 1) & (self.first[lo] + self.length[lo] == self.first[hi])   # same path
+        k = np.flatnonzero(out)
+        if not k.size:
+            return out
+        lo, hi = lo[k], hi[k]
+        shared = self.first[hi]
+        meets = np.zeros(k.size, dtype=bool)
+        for run, other, longer in ((lo, hi, self.length[lo] > 1), (hi, lo, self.length[hi] > 1)):
+            # the run: p up to the vertex before the shared one, or q from the vertex after it
+            if run is lo:
+                a, b = self.first[lo], shared - 1
+            else:
+                a, b = shared + 1, shared + self.length[hi]
+            x0, x1, y0, y1 = self._end_box(a, b)
+            meets |= longer & (x0 <= self.x1[other]) & (self.x0[other] <= x1) & \
+                (y0 <= self.y1[other]) & (self.y0[other] <= y1)
+        out[k[meets]] = False
+        return out
 
     def chord(self, c, k):
         """Chord id at sorted position ``k`` of chain ``c``."""
@@ -424,8 +519,8 @@ def _expand_blocks(first, stop, block: int):
 
 
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
-                           chunk: int = 1 << 16,
-                           index: Optional[str] = None) -> Optional[Tuple[int, int, int, int]]:
+                           chunk: int = 1 << 16, index: Optional[str] = None,
+                           bounds=None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
     ``chains`` holds each path's points (m + 1, 2); "first" is the smallest
@@ -441,7 +536,10 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     or a uniform grid, whichever gives the fewest pairs, counted beforehand;
     ``index`` forces one, for tests); for each pair of overlapping chains the
     chords of the shorter that meet the other's box are found, then for each
-    of those the run of the other's chords that its box meets. Within one
+    of those the run of the other's chords that its box meets (consecutive
+    chains, whose boxes always meet at their shared vertex, are first compared
+    by the boxes of their runs without the two chords at that vertex, which
+    leaves out almost all of them; :meth:`_Chains.next_apart`). Within one
     chain, two non-adjacent chords can overlap only across chords shorter than
     about 2·tol on both axes (each step along a chain moves away on both
     axes): those few pairs are added directly. On a real outline the cost is
@@ -464,6 +562,10 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     (0, 0, 0, 2)
     >>> find_self_intersection([np.zeros((1, 2))], [False], 1e-9) is None   # no chord at all
     True
+
+    ``bounds`` may give a box ``(x_min, y_min, x_max, y_max)`` holding all the
+    points when the caller has one already (it scales the tolerance under which
+    chords count as almost no length: a larger box only adds candidates).
     """
     used = [(k, np.asarray(p, dtype=float)) for k, p in enumerate(chains) if len(p) >= 2]
     if not used:
@@ -476,14 +578,22 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     single = len(used) == 1
     V = used[0][1] if single else np.concatenate([p for _, p in used])
     vx, vy = V[:, 0], V[:, 1]
+    # Within a chain, two non-adjacent chords meet only across chords shorter than about
+    # 2·tol on both axes: `slack` bounds those (the scale is that of the chains' boxes).
+    if bounds is None:
+        bounds = (vx.min(), vy.min(), vx.max(), vy.max())
+    x_lo, y_lo, x_hi, y_hi = (float(v) for v in bounds)
+    scale = max(abs(x_lo - tol), abs(x_hi + tol), abs(y_lo), abs(y_hi + tol))
+    slack = 4 * tol + 16 * np.finfo(float).eps * scale
+    sx, sy, tiny = _step_signs(vx, vy, slack)
     if single:
-        dx, dy = np.diff(vx), np.diff(vy)
-
         def ordinal(i):
             return np.zeros(np.shape(i), dtype=np.int64)
     else:
         junction = offsets[1:-1] + np.arange(len(used) - 1)     # rows joining two paths
-        dx, dy = np.delete(np.diff(vx), junction), np.delete(np.diff(vy), junction)
+        sx, sy = np.delete(sx, junction), np.delete(sy, junction)
+        tiny = tiny[~np.isin(tiny, junction)]
+        tiny -= np.searchsorted(junction, tiny)                 # rows to chord ids
 
         def ordinal(i):
             return np.searchsorted(offsets, i, side="right") - 1
@@ -491,7 +601,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     def chord_vertex(i):                     # vertex row where chord i starts
         return i if single else i + ordinal(i)
 
-    starts = np.sort(np.concatenate([[0], _turns(dx), _turns(dy), offsets[1:-1]]).astype(np.int64))
+    starts = np.sort(np.concatenate([[0], _sign_turns(sx), _sign_turns(sy),
+                                     offsets[1:-1]]).astype(np.int64))
     starts = starts[np.concatenate([[True], starts[1:] != starts[:-1]])]
     if 2 * starts.size > n:
         # A noisy outline turns back at most vertices: chains of a chord or two gain nothing
@@ -536,13 +647,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
         found = (int(pa[k]), int(ca[k]), int(pb[k]), int(cb[k]))
         best = found if best is None else min(best, found)
 
-    # Within a chain: runs of chords shorter than about 2·tol on both axes, with a chord on
-    # either side (a superset, put through the same box test as the pairs across chains).
-    scale = float(max(np.abs(ch.x0).max(), np.abs(ch.x1).max(), np.abs(ch.y0).max(),
-                      np.abs(ch.y1).max()))
-    slack = 4 * tol + 16 * np.finfo(float).eps * scale
-    tiny = np.flatnonzero(_within(dx, slack))
-    tiny = tiny[np.abs(dy[tiny]) <= slack]
+    # Within a chain: runs of chords shorter than about 2·tol on both axes (`tiny`), with a
+    # chord on either side (a superset, put through the same box test as the pairs across
+    # chains).
     if tiny.size:
         gap = np.diff(tiny) > 1
         lo = np.maximum(tiny[np.concatenate([[True], gap])] - 1, 0)
@@ -560,6 +667,9 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
     # the other's box, and for each of those the run of the other's chords that its box meets.
     for ca_, cb_ in _box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index):
+        apart = ch.next_apart(ca_, cb_)      # consecutive chains whose boxes meet only at their join
+        if apart.any():
+            ca_, cb_ = ca_[~apart], cb_[~apart]
         short = ch.length[cb_] < ch.length[ca_]
         qa, qb = np.where(short, cb_, ca_), np.where(short, ca_, cb_)
         ones = ch.length[qb] == 1          # two single chords: their boxes overlap, test them
@@ -697,7 +807,7 @@ def prepare(profile: Profile, axis: Axis) -> PreparedProfile:
     chords = [fs[0] if len(fs) == 1 else
               (np.concatenate([fs[0]] + [f[1:] for f in fs[1:]]) if fs else np.zeros((0, 2)))
               for fs in flat]
-    hit = find_self_intersection(chords, closed, tol)
+    hit = find_self_intersection(chords, closed, tol, bounds=(lo[0], lo[1], hi[0], hi[1]))
     if hit is not None:
         pa, ca, pb, cb = hit
         sa, ea, na = _chord_place(paths[pa].segments, flat[pa], ca)
@@ -767,9 +877,8 @@ def _check_path(path, k: int, tol: float) -> None:
             pts = s.flatten()
             # An edge no longer than tol is no longer than tol on either axis: the exact
             # lengths only of those (hypot over every edge costs more than these passes).
-            short = np.flatnonzero(_within(np.diff(pts[:, 0]), tol))
+            short = _step_signs(pts[:, 0], pts[:, 1], tol, signs=False)[2]
             if short.size:
-                short = short[np.abs(pts[short + 1, 1] - pts[short, 1]) <= tol]
                 short = short[np.hypot(pts[short + 1, 0] - pts[short, 0],
                                        pts[short + 1, 1] - pts[short, 1]) <= tol]
             if short.size:

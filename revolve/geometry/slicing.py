@@ -13,9 +13,10 @@ quadratic in ``z``, takes the two-node rule in ``z``, which is exact (its
 rounding is bounded instead). Each crossing's part of a slice interval
 is integrated between its own ends there, so when the slices would cut too many
 crossings (a noisy outline), or when every crossing takes an exact rule (an
-outline of straight edges), the intervals may be coarser than the vertices
-(:func:`first_partition`); the pieces and intervals are arrays, and the work is
-O(n log n) for n vertices on real outlines (see :func:`_interval_sums`).
+outline of straight edges: equal slices, about one per 64 pieces, found with no
+sort), the intervals may be coarser than the vertices (:func:`first_partition`);
+the pieces and intervals are arrays, and the work is O(n log n) for n vertices
+on real outlines (O(n) on straight ones; see :func:`_interval_sums`).
 
 Surface is ∫ r ds along every segment by Gauss–Legendre quadrature of the
 parametrisation, again comparing two orders.
@@ -199,10 +200,16 @@ class PieceTable:
         return self.ends(slice(None))[2]
 
     def extent(self) -> float:
-        """The pieces' total extent along the axis, ``Σ (hi − lo)``."""
-        d = np.subtract(self.z_to, self.z_from)
-        np.abs(d, out=d)
-        return float(d.sum())
+        """The pieces' total extent along the axis, ``Σ (hi − lo)`` (in blocks: no full-size array)."""
+        n, block = self.count, 1 << 16
+        work = np.empty(min(n, block))
+        total = 0.0
+        for i in range(0, n, block):
+            d = work[:min(n, i + block) - i]
+            np.subtract(self.z_to[i:i + block], self.z_from[i:i + block], out=d)
+            np.abs(d, out=d)
+            total += float(d.sum())
+        return total
 
 
 def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
@@ -347,18 +354,29 @@ def _part_sums(group: PieceGroup, params: np.ndarray, mid: np.ndarray, half: np.
     # Every loop crosses a slice as often going one way as the other, so r² − r_ref² sums
     # to the same washer area, without losing digits when a thin section lies far from
     # the axis.
+    if rule.exact:
+        # node by node, along the pairs (one column of r each): many times faster than the
+        # same operations on the (pairs, nodes) array, whose rows are a few nodes long
+        w = rule.weights[:, 0]
+        sums = work = None
+        for j in range(w.size):
+            col = r[:, j]
+            val = np.subtract(col, r_ref)
+            work = np.add(col, r_ref, out=work)
+            val *= work
+            if w[j] != 1.0:
+                val *= w[j]
+            if sums is None:
+                sums = val
+            else:
+                sums += val
+        return sums
     val = np.subtract(r, r_ref)
     if isinstance(r, np.ndarray) and r.flags.writeable and r.base is None:
         r += r_ref                    # a fresh array of the kind's: no second temporary
     else:
         r = r + r_ref
     val *= r
-    if rule.exact:
-        w = rule.weights[:, 0]
-        sums = val[:, 0] * w[0]
-        for j in range(1, w.size):
-            sums += val[:, j] * w[j]
-        return sums
     return np.einsum("ij,jk->ik", val, rule.weights)
 
 
@@ -389,7 +407,8 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         for p0 in range(0, count.size, block):
             p1 = min(count.size, p0 + block)
             rows = slice(pieces + p0, pieces + p1)
-            _add_parts(first[p0:p1], *table.ends(rows),
+            f = table.factor if np.isscalar(table.factor) else table.factor[rows]
+            _add_parts(first[p0:p1], table.z_from[rows], table.z_to[rows], f,
                        group.params[base + p0:base + p1], *args)
         more = np.flatnonzero(count > 1)
         if more.size:
@@ -409,55 +428,76 @@ def _group_sums(table: PieceTable, group: PieceGroup, pieces, first: np.ndarray,
         local = np.repeat(np.arange(p0, p1), own)
         iv = np.take(first, local) + (np.arange(q0, q1) - np.take(starts, local))
         piece = np.take(pieces, local)
-        lo, hi, sign = table.ends(piece)
+        f = table.factor if np.isscalar(table.factor) else table.factor[piece]
         # indexing, not np.take(axis=0): take copies a strided view (a polyline's rows) whole
         params = group.params[piece - group.start]
-        _add_parts(iv, lo, hi, sign, params, *args)
+        _add_parts(iv, table.z_from[piece], table.z_to[piece], f, params, *args)
 
 
-def _add_parts(iv, lo, hi, sign, params, group: PieceGroup, a, b, rule: _Rule, r_ref: float,
-               out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
-    """Add the washers of pieces (rows ``lo, hi, sign, params``) over their parts of
-    intervals ``iv`` to ``out`` (see :func:`_group_sums`)."""
-    c = np.take(a, iv)
-    np.maximum(c, lo, out=c)
-    d = np.take(b, iv)
-    np.minimum(d, hi, out=d)
+def _add_parts(iv, z_from, z_to, factor, params, group: PieceGroup, a, b, rule: _Rule,
+               r_ref: float, out: np.ndarray, small_rule: Optional[_Rule], few: bool) -> None:
+    """Add the washers of pieces (rows ``z_from, z_to, factor, params``) over their parts of
+    intervals ``iv`` to ``out`` (see :func:`_group_sums`).
+
+    A piece's part of its interval runs from ``p`` (its start, moved into the
+    interval) to ``q`` (its end, likewise); ``(p − q)/2`` is the half-width
+    with the sign the part's ``r²`` takes in the slice (``−direction``), so no
+    ends or signs are sorted out first. The rules' nodes are symmetric, so
+    the nodes ``mid ± half·x`` are the same whichever way the part runs.
+    """
+    # Contiguous copies first: numpy's vector loops skip strided operands (a polyline's rows
+    # are a view of its vertex array), and each index array is converted once, not per use.
+    iv = np.asarray(iv, dtype=np.intp)
+    z_from, z_to = np.ascontiguousarray(z_from), np.ascontiguousarray(z_to)
+    lower = np.take(a, iv)
+    upper = np.take(b, iv)
+    p = np.maximum(lower, z_from)
+    np.minimum(p, upper, out=p)
+    q = np.maximum(lower, z_to, out=lower)
+    np.minimum(q, upper, out=q)
+    half = np.subtract(p, q, out=upper)
+    half *= 0.5
     small = None
     if small_rule is not None:
-        small = (d - c) <= SMALL_PART * (hi - lo)
+        # the part no longer than SMALL_PART of its piece: |p − q| ≤ SMALL_PART · |z_to − z_from|
+        small = np.abs(half) * 2 <= SMALL_PART * np.abs(np.subtract(z_to, z_from))
         if small.all():
             rule_here, small = small_rule, None
         elif not small.any():
             rule_here, small = rule, None
     else:
         rule_here = rule
-    half = d - c
-    half *= 0.5
-    c += d
-    c *= 0.5                          # the middle
+    p += q
+    p *= 0.5                          # the middle
     if small is None:
-        sums = _part_sums(group, params, c, half, rule_here, r_ref)
+        sums = _part_sums(group, params, p, half, rule_here, r_ref)
     else:
-        sums = np.empty((c.size, 2))
+        sums = np.empty((p.size, 2))
         for sel, rl in ((small, small_rule), (~small, rule)):
-            sums[sel] = _part_sums(group, params[sel], c[sel], half[sel], rl, r_ref)
-    half *= sign
+            sums[sel] = _part_sums(group, params[sel], p[sel], half[sel], rl, r_ref)
+    if not np.isscalar(factor):
+        half *= factor
     if few:
         lo_iv, span = 0, a.size
     else:                             # the intervals these parts lie in
         lo_iv = int(iv.min())
         span = int(iv.max()) + 1 - lo_iv
         iv = iv - lo_iv
+    scale = float(factor) if np.isscalar(factor) else 1.0      # ±1 (or 0): exact
     if sums.ndim == 1:
         sums *= half
         add = np.bincount(iv, weights=sums, minlength=span)
+        if scale != 1.0:
+            add *= scale
         out[lo_iv:lo_iv + span, 0] += add
         out[lo_iv:lo_iv + span, 1] += add
     else:
         sums *= half[:, None]
         for k in range(2):
-            out[lo_iv:lo_iv + span, k] += np.bincount(iv, weights=sums[:, k], minlength=span)
+            add = np.bincount(iv, weights=sums[:, k], minlength=span)
+            if scale != 1.0:
+                add *= scale
+            out[lo_iv:lo_iv + span, k] += add
 
 
 def _interval_sums(table: PieceTable, a: np.ndarray, b: np.ndarray, runs, n: int = 24,
@@ -526,8 +566,109 @@ def _runs(table: PieceTable, a: np.ndarray, b: np.ndarray, pieces=None):
 #: Most (piece, interval) pairs per piece the first partition of the washers may give.
 PAIRS_PER_PIECE = 4
 #: When every kind's radius is a polynomial of ``z`` (exact rules, nothing to refine), the
-#: first partition keeps every 2^k-th piece end at least, k = this.
+#: first partition cuts the axis into equal slices, at most one per 2^k pieces, k = this.
 EXACT_SLICE_SHIFT = 6
+
+
+def _cells(z: np.ndarray, z_lo: float, scale: float, edges: np.ndarray,
+           block: int = 1 << 16) -> np.ndarray:
+    """The slice ``k`` with ``edges[k] <= z < edges[k + 1]`` of each ``z`` (the last one closed).
+
+    ``x = (z − z_lo) · scale`` gives it as ``⌊x⌋`` wherever ``x`` lies farther than
+    1/1024 from a whole number: the caller makes the slices at least 2²⁰ spacings of
+    its coordinates wide, so rounding moves ``x`` and the edges by far less. The
+    few nearer ones are settled by comparing ``z`` with the edges themselves.
+    Worked in blocks of ``block`` values in one buffer (no full-size float array).
+
+    >>> _cells(np.array([0.0, 0.5, 1.0, 2.9, 3.0]), 0.0, 1.0, np.array([0.0, 1.0, 2.0, 3.0])).tolist()
+    [0, 0, 1, 2, 2]
+    """
+    last = edges.size - 2
+    out = np.empty(z.size, dtype=np.int32)
+    work = np.empty(min(z.size, block))
+    for i in range(0, z.size, block):
+        zb = z[i:i + block]
+        x = work[:zb.size]
+        k = out[i:i + block]
+        np.subtract(zb, z_lo, out=x)
+        x *= scale
+        np.copyto(k, x, casting="unsafe")        # z ≥ z_lo: truncation is the floor
+        x -= k                                   # |fraction − ½| > ½ − 1/1024: near an edge
+        x -= 0.5
+        np.abs(x, out=x)
+        near = np.flatnonzero(x > 0.5 - 1.0 / 1024)
+        np.minimum(k, last, out=k)
+        if near.size:
+            zn, kn = zb[near], k[near]
+            kn -= zn < edges[kn]
+            kn += (zn >= edges[kn + 1]) & (kn < last)
+            k[near] = kn
+    return out
+
+
+def _even_partition(table: PieceTable):
+    """Equal slices along the axis and the run of them each piece meets, with no sort.
+
+    For tables whose every kind takes an exact rule (:func:`_partition`). The
+    slices start at one per 2^:data:`EXACT_SLICE_SHIFT` pieces (a power of two
+    of them) and are doubled in width until the (piece, slice) pairs fit
+    :data:`PAIRS_PER_PIECE` per piece; a piece's ends are located by
+    arithmetic (:func:`_cells`), O(n) in all. None when the axis extent is too
+    short against its position to be cut that finely in floating point.
+
+    >>> from revolve.geometry.segments import Line
+    >>> segs = (Line((0.0, 1.0), (4.0, 1.0)), Line((4.0, 3.0), (0.0, 3.0)))
+    >>> _, _, _, params = Line.washer_pieces(segs)
+    >>> t = PieceTable(np.array([0.0, 4.0]), np.array([4.0, 0.0]), 1.0,
+    ...                (PieceGroup(Line, segs, params, 0, 2),), np.array([True, False]))
+    >>> edges, [(start, first, count)] = _even_partition(t)
+    >>> edges.tolist(), first.tolist(), count.tolist()
+    ([0.0, 4.0], [0, 0], [1, 1])
+    """
+    n = table.count
+    z_from, z_to = table.z_from, table.z_to
+    # the pieces that do not end where the next one starts (few: where a loop ends)
+    unlinked = np.append(np.flatnonzero(z_to[:-1] != z_from[1:]), n - 1)
+    loose = z_to[unlinked]
+    z_lo = min(float(z_from.min()), float(loose.min()))
+    z_hi = max(float(z_from.max()), float(loose.max()))
+    slices = 1 << max(0, (n >> EXACT_SLICE_SHIFT).bit_length() - 1)      # a power of two
+    width = (z_hi - z_lo) / slices
+    if not width > 2.0 ** 20 * np.spacing(max(abs(z_lo), abs(z_hi))):
+        return None
+    edges = z_lo + width * np.arange(slices + 1)
+    edges[-1] = z_hi
+    scale = slices / (z_hi - z_lo)
+    start = _cells(z_from, z_lo, scale, edges)
+    end = _cells(loose, z_lo, scale, edges)
+    # A piece starts in slice start[i] and ends in start[i + 1] (the next one's start), or
+    # for an unlinked piece in its own end's slice: it meets slices low … low + apart.
+    low = np.empty(n, dtype=start.dtype)
+    apart = np.empty(n, dtype=start.dtype)
+    np.minimum(start[:n - 1], start[1:n], out=low[:-1])
+    np.subtract(start[1:n], start[:n - 1], out=apart[:-1])
+    np.abs(apart, out=apart)
+    low[unlinked] = np.minimum(start[unlinked], end)
+    apart[unlinked] = np.abs(end - start[unlinked])
+    del start, end
+    limit = PAIRS_PER_PIECE * n + 64
+    shift = 0
+    if int(apart.sum(dtype=np.int64)) + n > limit:
+        # too many pairs: wider slices (rare: an outline that zigzags along the axis)
+        high = low + apart
+        while slices >> shift > 1:
+            shift += 1
+            if int((high >> shift).sum(dtype=np.int64)) - int((low >> shift).sum(dtype=np.int64)) \
+                    + n <= limit:
+                break
+        np.right_shift(low, shift, out=low)
+        np.right_shift(high, shift, out=high)
+        np.subtract(high, low, out=apart)
+        del high
+    first, count = low, apart
+    count += 1
+    edges = edges[::1 << shift]
+    return edges, [(g.start, first[g.start:g.stop], count[g.start:g.stop]) for g in table.groups]
 
 
 def _partition(table: PieceTable):
@@ -543,8 +684,19 @@ def _partition(table: PieceTable):
     ``step`` are counted in O(n) without any search. ``step`` doubles from 1
     until the pairs fit :data:`PAIRS_PER_PIECE` per piece.
 
+    When every kind takes an exact rule the slices are equal instead, with no
+    sort (:func:`_even_partition`), unless the profile is too short along the
+    axis for its position to be cut that finely; then every
+    2^:data:`EXACT_SLICE_SHIFT`-th piece end at least is kept.
+
     Returns ``(edges, runs)`` as :func:`_interval_sums` takes them.
     """
+    if all(g.kind.washer_degree() is not None for g in table.groups):
+        # Exact rules only: a piece's part of any slice is as exact as of another, and no
+        # interval will be halved: equal slices, found without a sort, serve as well.
+        even = _even_partition(table)
+        if even is not None:
+            return even
     n = table.count
     z_from, z_to = table.z_from, table.z_to
     # the pieces that do not end where the next one starts (few: where a loop ends)
@@ -615,9 +767,11 @@ def first_partition(table: PieceTable) -> np.ndarray:
     parts of the pieces that cross it, each piece integrated over its own part
     (its kinks stay at the ends of its parts). When every kind's radius is a
     polynomial of ``z`` (straight pieces: exact rules, no interval is ever
-    halved) every 2^:data:`EXACT_SLICE_SHIFT`-th end at least is kept, so
-    fewer pieces are cut and fewer slice values summed. The cost of the choice
-    is one sort and O(n) per try, with at most log₂ n tries (:func:`_partition`).
+    halved) the slices need not end at piece ends at all: the axis is cut into
+    equal slices, at most one per 2^:data:`EXACT_SLICE_SHIFT` pieces, and each
+    piece end is located by arithmetic, in O(n) with no sort
+    (:func:`_even_partition`). Otherwise the cost of the choice is one sort and
+    O(n) per try, with at most log₂ n tries (:func:`_partition`).
 
     >>> from revolve.geometry.segments import Line
     >>> segs = (Line((0.0, 1.0), (2.0, 1.0)), Line((2.0, 3.0), (0.0, 3.0)))
@@ -695,7 +849,8 @@ def washer_volume(prep, loop_factors: Sequence[float], angle: float,
     extent along the axis (a bound on the sum of the magnitudes of all the
     (piece, interval) values).
 
-    The first partition costs one sort of the piece ends (:func:`_partition`);
+    The first partition costs one sort of the piece ends, or O(n) with no
+    sort when every piece takes an exact rule (:func:`_partition`);
     each later round costs O(m log m) for the m intervals left plus the work of
     :func:`_interval_sums` on the pairs of pieces and intervals, only for the
     pieces that met an unresolved interval in the round before (found from

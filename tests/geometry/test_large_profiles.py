@@ -86,18 +86,59 @@ def _clockwise(pts):
     return not LinearRing(pts).is_ccw
 
 
-def test_straight_outline_is_sliced_at_every_64th_vertex():
-    # Straight edges take an exact rule on any part of a slice, so the first partition keeps
-    # every 2^EXACT_SLICE_SHIFT-th piece end (and the last); the volume is checked against
-    # shapely + Pappus above. The 10⁴-gon's vertices have 5001 distinct positions along the axis.
-    from revolve.geometry.slicing import EXACT_SLICE_SHIFT
+def test_straight_outline_is_cut_into_equal_slices():
+    # Straight edges take an exact rule on any part of a slice, so the first partition cuts
+    # the axis into equal slices (a power of two of them, at most one per 2^EXACT_SLICE_SHIFT
+    # pieces), found without a sort; every piece's run of slices holds both its ends. The
+    # volume is checked against shapely + Pappus above.
+    from revolve.geometry.slicing import EXACT_SLICE_SHIFT, _partition
 
     prep = prepare(Profile(loops=(Loop.from_points(torus_section().tolist()),)), Axis.x())
     table = piece_table(prep, [1.0])
+    edges, [(start, first, count)] = _partition(table)
+    slices = edges.size - 1
+    assert slices & (slices - 1) == 0 and 1 < slices <= table.count >> EXACT_SLICE_SHIFT
+    assert edges[0] == table.lo.min() and edges[-1] == table.hi.max()
+    width = np.diff(edges)
+    assert np.all(np.abs(width - width.mean()) <= 1e-12 * width.mean())
+    last = first + count - 1
+    assert start == 0 and np.all(count >= 1)
+    assert np.all((edges[first] <= table.lo) & (table.lo <= edges[first + 1]))
+    assert np.all((edges[last] <= table.hi) & (table.hi <= edges[last + 1]))
+
+
+def test_slice_of_each_position_matches_a_binary_search():
+    # Reference: numpy.searchsorted over the slice edges (a binary search, no arithmetic),
+    # on positions at the edges, one spacing either side of them, and between them.
+    from revolve.geometry.slicing import _cells
+
+    z_lo, z_hi, slices = 0.1, 0.1 + 0.3 * 1024, 1024
+    edges = z_lo + (z_hi - z_lo) / slices * np.arange(slices + 1)
+    edges[-1] = z_hi
+    rng = np.random.default_rng(5)
+    z = np.concatenate([edges, np.nextafter(edges, np.inf), np.nextafter(edges, -np.inf),
+                        rng.uniform(z_lo, z_hi, 5000)])
+    z = np.clip(z, z_lo, z_hi)
+    expected = np.minimum(np.searchsorted(edges, z, side="right") - 1, slices - 1)
+    assert _cells(z, z_lo, slices / (z_hi - z_lo), edges).tolist() == expected.tolist()
+
+
+def test_straight_outline_too_short_for_equal_slices_is_sliced_at_its_piece_ends():
+    # Far along the axis, 10⁻³ long: equal slices would be narrower than 2²⁰ spacings of the
+    # coordinates, so the partition keeps every 2^EXACT_SLICE_SHIFT-th piece end instead;
+    # the washers still agree with the closed forms (Pappus), themselves checked above, as
+    # far as positions that carry only about seven digits of the extent allow.
+    from revolve.geometry.slicing import EXACT_SLICE_SHIFT
+
+    pts = torus_section(R=2.0, r=1e-3) + [1e9, 0.0]
+    prep = prepare(Profile(loops=(Loop.from_points(pts.tolist()),)), Axis.x())
+    table = piece_table(prep, [1.0])
     ends = np.unique(np.concatenate([table.lo, table.hi]))
-    edges = first_partition(table)
     step = 2 ** EXACT_SLICE_SHIFT
+    edges = first_partition(table)
     assert edges.tolist() == ends[::step].tolist() + ([ends[-1]] if (ends.size - 1) % step else [])
+    m = measure(Revolution(Profile(loops=(Loop.from_points(pts.tolist()),)), Axis.x()))
+    assert abs(m.crosscheck.volume - m.volume) <= 1e-6 * m.volume
 
 
 def test_outline_of_arcs_is_sliced_at_every_piece_end():

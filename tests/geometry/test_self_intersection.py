@@ -110,6 +110,11 @@ def polyline(draw):
 @example([([(0, 0), (1, 0), (2, 0), (3, 0), (4, 0), (5, 0), (5, 1), (3, 1), (3, 0)], False)],
          0, 0, 3)                                                          # a long chain, searched
 @example([([(0, 0), (1, 1), (2, 2), (3, 3), (3, 1), (6, 1)], False)], 2, 0, 500_000)
+# Repeated points in a later path (its chords of no length are numbered after the first path's):
+@example([([(10, 10), (11, 10), (12, 10), (13, 10)], False),
+          ([(0, 0), (1, 1), (1, 1), (1, 1), (0, 0)], True)], 0, 16, 500_000)
+@example([([(6, 6), (6, 5), (6, 4)], False), ([(0, 0), (2, 0), (2, 0), (2, 0), (1, 0)], False)],
+         0, 0, 500_000)
 def test_finder_agrees_with_brute_force_all_pairs(paths, scale_exponent, few_pairs, chunk):
     expected = brute_force_first_meeting([p for p, _ in paths], [c for _, c in paths])
     got = run_finder([p for p, _ in paths], [c for _, c in paths], scale_exponent, few_pairs, chunk)
