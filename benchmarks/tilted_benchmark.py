@@ -1,17 +1,18 @@
 """Tilted level tables: speed beside the untilted tables, and agreement with the cross-check.
 
-Run:  python benchmarks/tilted_benchmark.py [--levels N]
+Run:  python benchmarks/tilted_benchmark.py [--levels N] [--quick]
 
 For each bundled vessel profile and both orientations, in one run: a table of
 N levels (default 1000) by the existing untilted table
-(:func:`revolve.jobs.levels.level_table`), by
+(:func:`revolve.jobs.levels.table_at_levels`), by
 :func:`revolve.geometry.tilted.tilted_levels` at no tilt and at 2°, and the
 independent cross-check :func:`revolve.geometry.tilted.tilted_crosscheck` at 2°
 (best of three each). Printed: times as ratios to the untilted table, the
 largest difference at no tilt (relative to the capacity), the largest error
 estimate, and the cross-check's largest difference. Also a surveyed wall of
 999 polyline edges (an invented test shape) for scale. Ratios, never absolute
-promises: the machines are shared and noisy.
+promises: the machines are shared and noisy. ``--quick`` (a smoke run) is 20
+levels, each timing run once.
 """
 
 from __future__ import annotations
@@ -31,12 +32,16 @@ from revolve.geometry.profile import Axis, Loop, Profile  # noqa: E402
 from revolve.geometry.segments import Line, Polyline  # noqa: E402
 from revolve.geometry.tilted import (tilted_crosscheck, tilted_levels, tilted_pieces,  # noqa: E402
                                      tilted_range)
-from revolve.jobs.levels import level_table, liquid_space  # noqa: E402
+from revolve.jobs.levels import liquid_space, table_at_levels  # noqa: E402
 
 VESSELS = ("vessel-brew-kettle.toml", "vessel-diesel-day-tank.toml", "vessel-rainwater-tank.toml")
 
 
-def best(fn, runs=3):
+RUNS = 3
+
+
+def best(fn, runs=None):
+    runs = RUNS if runs is None else runs
     out, t = None, float("inf")
     for _ in range(runs):
         t0 = time.perf_counter()
@@ -57,7 +62,7 @@ def surveyed_space():
 
 def row(label, space, orientation, n):
     lv = np.linspace(0.0, space.height, n)
-    ref, t_ref = best(lambda: level_table(space, lv))
+    ref, t_ref = best(lambda: table_at_levels(space, lv))
     pc = tilted_pieces(space.prepared)
     (v0, e0, _), t0 = best(lambda: tilted_levels(space.prepared, lv, 0.0, orientation, pieces=pc))
     lo, hi = tilted_range(space.prepared, 2.0, orientation, pieces=pc)
@@ -75,8 +80,13 @@ def row(label, space, orientation, n):
 def main():
     parser = argparse.ArgumentParser()
     parser.add_argument("--levels", type=int, default=1000)
-    n = parser.parse_args().levels
-    print(f"{n} levels; times as ratios to the untilted table (best of three)")
+    parser.add_argument("--quick", action="store_true", help="a smoke run: 20 levels, one run each")
+    args = parser.parse_args()
+    global RUNS
+    n = args.levels
+    if args.quick:
+        n, RUNS = 20, 1
+    print(f"{n} levels; times as ratios to the untilted table (best of {RUNS})")
     print(f"{'profile':<34} {'drawn':<10} {'untilted':>9} {'tilt 0':>9} {'tilt 2°':>9}"
           f" {'x-check':>9}   {'Δ tilt 0':>9} {'err est':>9} {'Δ x-chk':>9}")
     print(f"{'':<34} {'':<10} {'ms':>9} {'':>9} {'':>9} {'(n/20)':>9}   {'/cap':>9}"
