@@ -119,6 +119,9 @@ class TiltedPieces:
     ``segment`` (index into ``segments``), ``pa``, ``pb`` (parameter range),
     ``factor`` (the loop's factor, solid +1, hole −1) and ``straight``
     (``z`` and ``r`` linear in the parameter: a line or a polyline edge).
+    ``ends`` holds each piece's end points ``(z, r)`` at ``pa`` and ``pb``
+    (shape (n, 4)): a straight piece is evaluated from them as arrays, with
+    no call to its segment.
     """
 
     segments: tuple
@@ -130,17 +133,45 @@ class TiltedPieces:
     z_min: float
     z_max: float
     r_max: float
+    ends: Optional[np.ndarray] = None
 
     def __len__(self) -> int:
         return int(self.segment.size)
 
+    def straight_geometry(self, rows, p):
+        """:meth:`geometry` of straight pieces: ``z`` and ``r`` interpolated between the ends."""
+        p = np.asarray(p, dtype=float)
+        pa = self.pa[rows]
+        span = self.pb[rows] - pa
+        e = self.ends[rows]
+        dz, dr = e[:, 2] - e[:, 0], e[:, 3] - e[:, 1]
+        if p.ndim == 2:
+            pa, span, dz, dr = pa[:, None], span[:, None], dz[:, None], dr[:, None]
+            z0, r0 = e[:, 0, None], e[:, 1, None]
+        else:
+            z0, r0 = e[:, 0], e[:, 1]
+        f = (p - pa) / span
+        return (z0 + dz * f, r0 + dr * f, np.broadcast_to(dz / span, p.shape),
+                np.broadcast_to(dr / span, p.shape))
+
     def geometry(self, rows, p):
         """``z, r, dz/dp, dr/dp`` at parameters ``p`` (shape (k, m)) of pieces ``rows`` (k,)."""
         p = np.asarray(p, dtype=float)
+        rows = np.asarray(rows)
+        if self.ends is not None:
+            st = self.straight[rows]
+            if st.all():
+                return self.straight_geometry(rows, p)
         out = [np.empty(p.shape) for _ in range(4)]
-        seg = self.segment[rows]
+        todo = np.arange(rows.size)
+        if self.ends is not None and st.any():
+            sel = np.flatnonzero(st)
+            for o, v in zip(out, self.straight_geometry(rows[sel], p[sel])):
+                o[sel] = v
+            todo = np.flatnonzero(~st)
+        seg = self.segment[rows[todo]]
         for s in np.unique(seg):
-            sel = np.flatnonzero(seg == s)
+            sel = todo[seg == s]
             flat = p[sel].ravel()
             pts = np.asarray(self.segments[int(s)].points_at(flat), dtype=float)
             tan = np.asarray(self.segments[int(s)].tangents_at(flat), dtype=float)
@@ -209,8 +240,9 @@ def tilted_pieces(prep: PreparedProfile) -> TiltedPieces:
     rows = np.arange(len(pc))
     u = np.linspace(0.0, 1.0, 65)
     z, r, _, _ = pc.geometry(rows, pc.pa[:, None] + (pc.pb - pc.pa)[:, None] * u[None, :])
+    ends = np.column_stack([z[:, 0], r[:, 0], z[:, -1], r[:, -1]])
     return TiltedPieces(pc.segments, pc.segment, pc.pa, pc.pb, pc.factor, pc.straight,
-                        float(z.min()), float(z.max()), float(r.max()))
+                        float(z.min()), float(z.max()), float(r.max()), ends)
 
 
 # -- the plane -------------------------------------------------------------------------------
@@ -398,30 +430,78 @@ def _map(mapping, pa, pb, u):
     return p, dp
 
 
-def _integrate(pc, jobs, c, a, b, n):
-    """Volume and wetted-area integrals of each job with ``n`` Gauss–Legendre nodes."""
+def _integrate(pc, jobs, c, a, b, n, wet, with_area=True):
+    """Volume and wetted-area integrals of each job with ``n`` Gauss–Legendre nodes.
+
+    ``wet``: every job is a wholly wet interval (π r², 2π r), else every job is cut
+    by the chord (circular segments). ``with_area=False`` skips the wetted area
+    (returned as None).
+    """
     x, w = gauss_legendre(n)
     ua, ub = jobs["ua"], jobs["ub"]
     half = 0.5 * (ub - ua)
     u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
-    p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
+    if not jobs["mapping"].any():       # every job STRAIGHT: p linear in u
+        span = (jobs["pb"] - jobs["pa"])[:, None]
+        p = jobs["pa"][:, None] + span * u
+        jac = span * half[:, None]
+    else:
+        p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
+        jac = dp * half[:, None]
     z, r, dz, dr = pc.geometry(jobs["row"], p)
-    jac = dp * half[:, None]
-    ds = np.hypot(dz, dr) * np.abs(jac)
-    wet = jobs["wet"][:, None]
-    e = c[jobs["level"]][:, None] - b * z
-    s = a * r
-    # a lean of a hair gives a tiny a: y overflows to ±inf only where the circle is wholly wet
-    # or dry (np.where picks π r², 2π r there), never where the chord cuts it (|y| < r)
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-        rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-        y = e / a if a > 0 else np.zeros_like(r)
-        area = np.where(wet, PI * r * r, segment_area(r, y, rpy, rmy))
-        arc = np.where(wet, 2.0 * PI * r, wetted_arc(r, y, rpy, rmy))
-    gv = np.nan_to_num(area * dz * jac)
-    ga = np.nan_to_num(arc * ds)
+    if wet:
+        area = PI * r * r
+        arc = 2.0 * PI * r if with_area else None
+    else:
+        e = c[jobs["level"]][:, None] - b * z
+        s = a * r
+        # a lean of a hair gives a tiny a: (s ± e)/a overflows only where the circle is wholly
+        # wet or dry, never in a job cut by the chord (|e| < s); a = 0 has no such job
+        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
+            rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
+            rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
+            area, arc = _segment_and_arc(r, rpy, rmy, with_area)
+    with np.errstate(invalid="ignore"):
+        gv = np.nan_to_num(area * dz * jac)
+        if not with_area:
+            return gv @ w, None
+        ga = np.nan_to_num(arc * np.hypot(dz, dr) * np.abs(jac))
     return gv @ w, ga @ w
+
+
+def _segment_and_arc(r, rpy, rmy, with_arc=True):
+    """Circular segment area below the chord and wetted arc, from ``r + y`` and ``r − y`` (≥ 0).
+
+    The formulas of :func:`revolve.geometry.horizontal.segment_area` and
+    ``wetted_arc``, sharing one angle: ``φ = 2 asin √(min(r ± y)/2r)`` is half the
+    central angle of the smaller part, whose area is ``r² (2φ − sin 2φ)/2``
+    (``2φ − sin 2φ`` by series below 0.5, so a depth a hair above the bottom keeps
+    its digits).
+
+    >>> a, w = _segment_and_arc(np.array([1.0, 1.0, 2.0]), np.array([1.0, 0.3, 0.0]),
+    ...                         np.array([1.0, 1.7, 4.0]))
+    >>> ref = math.acos(0.7) - 0.7 * math.sqrt(1 - 0.49)        # CRC: r² acos((r-h)/r) - …
+    >>> round(float(a[0]) / math.pi, 15), abs(float(a[1]) - ref) < 1e-15, float(a[2])
+    (0.5, True, 0.0)
+    >>> round(float(w[0]) / math.pi, 15), float(w[2])
+    (1.0, 0.0)
+    """
+    below = rpy <= rmy
+    q = np.divide(np.minimum(rpy, rmy), 2.0 * r, out=np.zeros(r.shape), where=r > 0)
+    phi = 2.0 * np.arcsin(np.sqrt(np.minimum(q, 1.0)))
+    d = 2.0 * phi
+    small = d - np.sin(d)
+    few = d < 0.5
+    if few.any():
+        t = d[few]
+        t2 = t * t
+        small[few] = t * t2 / 6.0 * (1 - t2 / 20.0 * (1 - t2 / 42.0 * (1 - t2 / 72.0 * (
+            1 - t2 / 110.0 * (1 - t2 / 156.0)))))
+    small *= 0.5 * r * r
+    area = np.where(below, small, PI * r * r - small)
+    if not with_arc:
+        return area, None
+    return area, 2.0 * r * np.where(below, phi, PI - phi)
 
 
 def tilted_levels(prep: PreparedProfile, levels, tilt_degrees: float, orientation: str,
@@ -524,6 +604,18 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
     part = (np.abs(e) < s)
     live = wet | part
     row, lev, p0, p1, r0, r1, wet, part = (v[live] for v in (row, lev, p0, p1, r0, r1, wet, part))
+    # a wholly wet interval of a straight piece is a frustum: π r² dz and 2π r ds in closed form
+    frustum = wet & pc.straight[row]
+    if frustum.any():
+        k = row[frustum]
+        za, ra, _, _ = pc.straight_geometry(k, p0[frustum])
+        zb, rb, _, _ = pc.straight_geometry(k, p1[frustum])
+        vol = PI / 3.0 * (ra * ra + ra * rb + rb * rb) * (zb - za)
+        V -= np.bincount(lev[frustum], pc.factor[k] * vol, minlength=nL)
+        A += np.bincount(lev[frustum], PI * (ra + rb) * np.hypot(zb - za, rb - ra), minlength=nL)
+        keep = ~frustum
+        row, lev, p0, p1, r0, r1, wet, part = (v[keep] for v in (row, lev, p0, p1, r0, r1, wet,
+                                                                  part))
     # cut intervals with a root at both ends are halved so each half gathers nodes at its root
     both = part & r0 & r1
     mid = 0.5 * (p0 + p1)
@@ -544,20 +636,25 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
             break
         work += jobs["row"].size
         v1, v2, a2 = (np.empty(jobs["row"].size) for _ in range(3))
-        # a straight piece away from a tangency has a smooth, slowly varying integrand
+        # a straight piece away from a tangency has a smooth, slowly varying integrand; groups
+        # of one kind of job each (wholly wet or cut by the chord, plain or gathered nodes)
         plain = pc.straight[jobs["row"]] & (jobs["mapping"] == STRAIGHT)
         for sel, (n1, n2) in ((plain, STRAIGHT_ORDERS), (~plain, ORDERS)):
-            if sel.any():
-                sub = {k: v[sel] for k, v in jobs.items()}
-                v1[sel] = _integrate(pc, sub, c, a, b, n1)[0]
-                v2[sel], a2[sel] = _integrate(pc, sub, c, a, b, n2)
+            for wet_group in (False, True):
+                part_sel = sel & (jobs["wet"] == wet_group)
+                if not part_sel.any():
+                    continue
+                sub = {k: v[part_sel] for k, v in jobs.items()}
+                v1[part_sel] = _integrate(pc, sub, c, a, b, n1, wet_group, False)[0]
+                v2[part_sel], a2[part_sel] = _integrate(pc, sub, c, a, b, n2, wet_group, True)
         err = np.abs(v2 - v1)
         final = round_no == MAX_ROUNDS or work > MAX_WORK
         good = (err <= share) | final | ((jobs["ub"] - jobs["ua"]) < 2.0 ** -30)
         f = pc.factor[jobs["row"]]
-        np.add.at(V, jobs["level"][good], -f[good] * v2[good])
-        np.add.at(A, jobs["level"][good], a2[good])
-        np.add.at(E, jobs["level"][good], err[good])
+        g_lev = jobs["level"][good]
+        V -= np.bincount(g_lev, f[good] * v2[good], minlength=nL)
+        A += np.bincount(g_lev, a2[good], minlength=nL)
+        E += np.bincount(g_lev, err[good], minlength=nL)
         bad = ~good
         if not bad.any():
             break
