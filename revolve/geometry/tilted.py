@@ -102,7 +102,11 @@ SAMPLES = 17
 MAX_ROUNDS = 24
 MAX_WORK = 2_000_000
 #: Most (piece, level) pairs handled at once; more levels are taken in chunks.
-PAIR_CHUNK = 200_000
+PAIR_CHUNK = 8192
+#: Most nodes (intervals × nodes of both orders) evaluated at once: each temporary array stays
+#: small, in the cache and below the size (128 KiB) above which the C allocator maps fresh
+#: pages for it and gives them back when it is freed (page faults on every array otherwise).
+BLOCK_NODES = 12_000
 #: Largest tilt accepted, in degrees (a vessel tipped further is not "tilted").
 MAX_TILT = 45.0
 
@@ -138,8 +142,11 @@ class TiltedPieces:
     def __len__(self) -> int:
         return int(self.segment.size)
 
-    def straight_geometry(self, rows, p):
-        """:meth:`geometry` of straight pieces: ``z`` and ``r`` interpolated between the ends."""
+    def straight_geometry(self, rows, p, per_row=False):
+        """:meth:`geometry` of straight pieces: ``z`` and ``r`` interpolated between the ends.
+
+        ``per_row``: ``dz/dp`` and ``dr/dp`` as one column (k, 1) for a 2-D ``p``.
+        """
         p = np.asarray(p, dtype=float)
         pa = self.pa[rows]
         span = self.pb[rows] - pa
@@ -151,6 +158,8 @@ class TiltedPieces:
         else:
             z0, r0 = e[:, 0], e[:, 1]
         f = (p - pa) / span
+        if per_row and p.ndim == 2:
+            return z0 + dz * f, r0 + dr * f, dz / span, dr / span
         return (z0 + dz * f, r0 + dr * f, np.broadcast_to(dz / span, p.shape),
                 np.broadcast_to(dr / span, p.shape))
 
@@ -430,46 +439,75 @@ def _map(mapping, pa, pb, u):
     return p, dp
 
 
-def _integrate(pc, jobs, c, a, b, n, wet, with_area=True):
-    """Volume and wetted-area integrals of each job with ``n`` Gauss–Legendre nodes.
+def _rule(n1: int, n2: int):
+    """Nodes of two Gauss–Legendre orders on [-1, 1] side by side, weights as (n1 + n2, 2)."""
+    key = (n1, n2)
+    if key not in _RULES:
+        (x1, w1), (x2, w2) = gauss_legendre(n1), gauss_legendre(n2)
+        weights = np.zeros((n1 + n2, 2))
+        weights[:n1, 0], weights[n1:, 1] = w1, w2
+        _RULES[key] = (np.concatenate([x1, x2]), weights)
+    return _RULES[key]
+
+
+_RULES: dict = {}
+
+
+def _integrate(pc, jobs, c, a, b, orders, wet):
+    """Volume integrals of each job by both ``orders`` of Gauss–Legendre, wetted area by the second.
 
     ``wet``: every job is a wholly wet interval (π r², 2π r), else every job is cut
-    by the chord (circular segments). ``with_area=False`` skips the wetted area
-    (returned as None).
+    by the chord (circular segments). The nodes of both orders are evaluated in one
+    pass; on straight pieces ``dz/dp`` and ``dr/dp`` are one number per job.
+    Returns ``(v1, v2, area2)``.
     """
-    x, w = gauss_legendre(n)
+    n1, _ = orders
+    x, weights = _rule(*orders)
     ua, ub = jobs["ua"], jobs["ub"]
     half = 0.5 * (ub - ua)
     u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
-    if not jobs["mapping"].any():       # every job STRAIGHT: p linear in u
+    linear = not jobs["mapping"].any()          # every job STRAIGHT: p linear in u
+    if linear:
         span = (jobs["pb"] - jobs["pa"])[:, None]
         p = jobs["pa"][:, None] + span * u
         jac = span * half[:, None]
     else:
         p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
         jac = dp * half[:, None]
-    z, r, dz, dr = pc.geometry(jobs["row"], p)
+    if pc.ends is not None and pc.straight[jobs["row"]].all():
+        z, r, dz, dr = pc.straight_geometry(jobs["row"], p, per_row=True)
+    else:
+        z, r, dz, dr = pc.geometry(jobs["row"], p)
     if wet:
         area = PI * r * r
-        arc = 2.0 * PI * r if with_area else None
-    else:
-        e = c[jobs["level"]][:, None] - b * z
-        s = a * r
-        # a lean of a hair gives a tiny a: (s ± e)/a overflows only where the circle is wholly
-        # wet or dry, never in a job cut by the chord (|e| < s); a = 0 has no such job
-        with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-            rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-            rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-            area, arc = _segment_and_arc(r, rpy, rmy, with_area)
-    with np.errstate(invalid="ignore"):
-        gv = np.nan_to_num(area * dz * jac)
-        if not with_area:
-            return gv @ w, None
-        ga = np.nan_to_num(arc * np.hypot(dz, dr) * np.abs(jac))
-    return gv @ w, ga @ w
+        arc = 2.0 * PI * r
+    elif a > 0:
+        # y = (c − b z)/a, the chord's height across the slice; r ± y ≥ 0 (heights of the
+        # segment and of the rest). A lean of a hair gives a tiny a: y overflows only where the
+        # circle is wholly wet or dry, never in a job cut by the chord (|y| < r)
+        with np.errstate(over="ignore", invalid="ignore"):
+            y = np.multiply(z, -b / a)
+            y += (c[jobs["level"]] / a)[:, None]
+            rpy = np.add(r, y)
+            np.maximum(rpy, 0.0, out=rpy)
+            rmy = np.subtract(r, y, out=y)
+            np.maximum(rmy, 0.0, out=rmy)
+            area, arc = _segment_and_arc(r, rpy, rmy)
+    else:                                       # a = 0 (no lean): no job is cut by a chord
+        area = arc = np.zeros_like(r)
+    with np.errstate(invalid="ignore", over="ignore"):
+        gv = area * (dz * jac)
+        ds = np.hypot(dz, dr) * np.abs(jac)         # (k, 1) on straight pieces mapped linearly
+        ga = arc[:, n1:] * (ds if ds.shape[1] == 1 else ds[:, n1:])
+        v = gv @ weights
+        w2 = ga @ weights[n1:, 1]
+        if not (np.isfinite(v).all() and np.isfinite(w2).all()):    # a node off the space
+            v = np.nan_to_num(gv) @ weights
+            w2 = np.nan_to_num(ga) @ weights[n1:, 1]
+    return v[:, 0], v[:, 1], w2
 
 
-def _segment_and_arc(r, rpy, rmy, with_arc=True):
+def _segment_and_arc(r, rpy, rmy):
     """Circular segment area below the chord and wetted arc, from ``r + y`` and ``r − y`` (≥ 0).
 
     The formulas of :func:`revolve.geometry.horizontal.segment_area` and
@@ -487,21 +525,28 @@ def _segment_and_arc(r, rpy, rmy, with_arc=True):
     (1.0, 0.0)
     """
     below = rpy <= rmy
-    q = np.divide(np.minimum(rpy, rmy), 2.0 * r, out=np.zeros(r.shape), where=r > 0)
-    phi = 2.0 * np.arcsin(np.sqrt(np.minimum(q, 1.0)))
+    q = np.minimum(rpy, rmy)
+    np.divide(q, 2.0 * r, out=q, where=r > 0)
+    q[r <= 0] = 0.0
+    np.minimum(q, 1.0, out=q)
+    phi = np.sqrt(q, out=q)
+    np.arcsin(phi, out=phi)
+    phi *= 2.0
     d = 2.0 * phi
-    small = d - np.sin(d)
+    small = np.sin(d)
+    np.subtract(d, small, out=small)
     few = d < 0.5
     if few.any():
         t = d[few]
         t2 = t * t
         small[few] = t * t2 / 6.0 * (1 - t2 / 20.0 * (1 - t2 / 42.0 * (1 - t2 / 72.0 * (
             1 - t2 / 110.0 * (1 - t2 / 156.0)))))
+    disc = PI * r * r
     small *= 0.5 * r * r
-    area = np.where(below, small, PI * r * r - small)
-    if not with_arc:
-        return area, None
-    return area, 2.0 * r * np.where(below, phi, PI - phi)
+    area = np.where(below, small, np.subtract(disc, small, out=disc))
+    arc = np.where(below, phi, np.subtract(PI, phi, out=d))
+    arc *= 2.0 * r
+    return area, arc
 
 
 def tilted_levels(prep: PreparedProfile, levels, tilt_degrees: float, orientation: str,
@@ -641,12 +686,12 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
         plain = pc.straight[jobs["row"]] & (jobs["mapping"] == STRAIGHT)
         for sel, (n1, n2) in ((plain, STRAIGHT_ORDERS), (~plain, ORDERS)):
             for wet_group in (False, True):
-                part_sel = sel & (jobs["wet"] == wet_group)
-                if not part_sel.any():
-                    continue
-                sub = {k: v[part_sel] for k, v in jobs.items()}
-                v1[part_sel] = _integrate(pc, sub, c, a, b, n1, wet_group, False)[0]
-                v2[part_sel], a2[part_sel] = _integrate(pc, sub, c, a, b, n2, wet_group, True)
+                group = np.flatnonzero(sel & (jobs["wet"] == wet_group))
+                block = max(1, BLOCK_NODES // (n1 + n2))
+                for first in range(0, group.size, block):
+                    ii = group[first:first + block]
+                    sub = {k: v[ii] for k, v in jobs.items()}
+                    v1[ii], v2[ii], a2[ii] = _integrate(pc, sub, c, a, b, (n1, n2), wet_group)
         err = np.abs(v2 - v1)
         final = round_no == MAX_ROUNDS or work > MAX_WORK
         good = (err <= share) | final | ((jobs["ub"] - jobs["ua"]) < 2.0 ** -30)
