@@ -653,8 +653,8 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
     frustum = wet & pc.straight[row]
     if frustum.any():
         k = row[frustum]
-        za, ra, _, _ = pc.straight_geometry(k, p0[frustum])
-        zb, rb, _, _ = pc.straight_geometry(k, p1[frustum])
+        zr = pc.geometry(k, np.column_stack([p0[frustum], p1[frustum]]))
+        za, zb, ra, rb = zr[0][:, 0], zr[0][:, 1], zr[1][:, 0], zr[1][:, 1]
         vol = PI / 3.0 * (ra * ra + ra * rb + rb * rb) * (zb - za)
         V -= np.bincount(lev[frustum], pc.factor[k] * vol, minlength=nL)
         A += np.bincount(lev[frustum], PI * (ra + rb) * np.hypot(zb - za, rb - ra), minlength=nL)
