@@ -38,6 +38,14 @@ difference is its error estimate, intervals above their share of the
 tolerance are halved (a bounded number of rounds), and the sum of the
 estimates is returned with each volume.
 
+Many pieces (a surveyed wall of a thousand polyline edges) are handled as
+arrays: every (piece, level) pair at once, levels in chunks of
+:data:`PAIR_CHUNK` pairs. A straight piece (a line, a polyline edge) keeps its
+end points and is evaluated from them with no call to its segment; where such
+a piece is wholly wet between two cuts its integrals are those of a frustum,
+in closed form. The nodes of both orders are evaluated in one pass, in blocks
+of at most :data:`BLOCK_NODES`, so that no temporary array is large.
+
 The level and the gauge point
 -----------------------------
 A level ``h`` is the plumb height of the liquid surface above a reference
