@@ -634,18 +634,26 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
     pair_level = np.tile(np.arange(nL), nP)
     rows_r, p_r = _roots(pc, pair_piece, c[pair_level], a, b)
     n_pairs = pair_piece.size
-    cut_pair = np.concatenate([np.arange(n_pairs), np.arange(n_pairs), rows_r])
-    cut_p = np.concatenate([pc.pa[pair_piece], pc.pb[pair_piece], p_r])
-    is_root = np.concatenate([np.zeros(2 * n_pairs, dtype=bool), np.ones(rows_r.size, dtype=bool)])
+    rooted = np.zeros(n_pairs, dtype=bool)
+    rooted[rows_r] = True
+    whole = np.flatnonzero(~rooted)             # most pairs: one interval, the whole piece
+    rooted = np.flatnonzero(rooted)
+    cut_pair = np.concatenate([rooted, rooted, rows_r])
+    cut_p = np.concatenate([pc.pa[pair_piece[rooted]], pc.pb[pair_piece[rooted]], p_r])
+    is_root = np.concatenate([np.zeros(2 * rooted.size, dtype=bool),
+                              np.ones(rows_r.size, dtype=bool)])
     # order cuts along each piece's own direction (pa may exceed pb)
     direction = np.sign(pc.pb - pc.pa)[pair_piece][cut_pair]
     order = np.lexsort((direction * cut_p, cut_pair))
     cut_pair, cut_p, is_root = cut_pair[order], cut_p[order], is_root[order]
     same = cut_pair[:-1] == cut_pair[1:]
     ia = np.flatnonzero(same)
-    pair = cut_pair[ia]
-    p0, p1 = cut_p[ia], cut_p[ia + 1]
-    r0, r1 = is_root[ia], is_root[ia + 1]
+    pair = np.concatenate([whole, cut_pair[ia]])
+    p0 = np.concatenate([pc.pa[pair_piece[whole]], cut_p[ia]])
+    p1 = np.concatenate([pc.pb[pair_piece[whole]], cut_p[ia + 1]])
+    no_root = np.zeros(whole.size, dtype=bool)
+    r0 = np.concatenate([no_root, is_root[ia]])
+    r1 = np.concatenate([no_root, is_root[ia + 1]])
     keep = p0 != p1
     pair, p0, p1, r0, r1 = pair[keep], p0[keep], p1[keep], r0[keep], r1[keep]
     row, lev = pair_piece[pair], pair_level[pair]
