@@ -473,19 +473,34 @@ def _integrate(pc, jobs, c, a, b, orders, wet):
     x, weights = _rule(*orders)
     ua, ub = jobs["ua"], jobs["ub"]
     half = 0.5 * (ub - ua)
-    u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
     linear = not jobs["mapping"].any()          # every job STRAIGHT: p linear in u
-    if linear:
-        span = (jobs["pb"] - jobs["pa"])[:, None]
-        p = jobs["pa"][:, None] + span * u
-        jac = span * half[:, None]
+    straight = pc.ends is not None and pc.straight[jobs["row"]].all()
+    if linear and straight:
+        # z and r linear in the node x: z = z₀ + Δz (F₀ + F₁ x), F the fraction along the piece
+        rows = jobs["row"]
+        e = pc.ends[rows]
+        pa_piece = pc.pa[rows]
+        span_piece = pc.pb[rows] - pa_piece
+        span = jobs["pb"] - jobs["pa"]
+        f0 = (jobs["pa"] + span * (0.5 * (ua + ub)) - pa_piece) / span_piece
+        f1 = span * half / span_piece
+        dz, dr = e[:, 2] - e[:, 0], e[:, 3] - e[:, 1]
+        z = (e[:, 0] + dz * f0)[:, None] + (dz * f1)[:, None] * x[None, :]
+        r = (e[:, 1] + dr * f0)[:, None] + (dr * f1)[:, None] * x[None, :]
+        dz, dr, jac = dz[:, None], dr[:, None], f1[:, None]     # dz/dx = Δz F₁: jac folded in
     else:
-        p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
-        jac = dp * half[:, None]
-    if pc.ends is not None and pc.straight[jobs["row"]].all():
-        z, r, dz, dr = pc.straight_geometry(jobs["row"], p, per_row=True)
-    else:
-        z, r, dz, dr = pc.geometry(jobs["row"], p)
+        u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
+        if linear:
+            span = (jobs["pb"] - jobs["pa"])[:, None]
+            p = jobs["pa"][:, None] + span * u
+            jac = span * half[:, None]
+        else:
+            p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
+            jac = dp * half[:, None]
+        if straight:
+            z, r, dz, dr = pc.straight_geometry(jobs["row"], p, per_row=True)
+        else:
+            z, r, dz, dr = pc.geometry(jobs["row"], p)
     if wet:
         area = PI * r * r
         arc = 2.0 * PI * r
@@ -534,8 +549,8 @@ def _segment_and_arc(r, rpy, rmy):
     """
     below = rpy <= rmy
     q = np.minimum(rpy, rmy)
-    np.divide(q, 2.0 * r, out=q, where=r > 0)
-    q[r <= 0] = 0.0
+    with np.errstate(divide="ignore", invalid="ignore"):
+        q /= 2.0 * r                    # r = 0 only on a piece along the axis, never cut by a chord
     np.minimum(q, 1.0, out=q)
     phi = np.sqrt(q, out=q)
     np.arcsin(phi, out=phi)
