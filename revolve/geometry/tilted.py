@@ -94,7 +94,6 @@ import numpy as np
 
 from revolve.errors import RevolveError
 from revolve.geometry.checks import PreparedProfile
-from revolve.geometry.horizontal import segment_area, wetted_arc
 from revolve.geometry.slicing import gauss_legendre
 
 PI = math.pi
@@ -106,7 +105,7 @@ ORDERS = (8, 14)
 STRAIGHT_ORDERS = (4, 7)
 #: Samples per curved piece when looking for the places where a circle becomes wet or dry.
 SAMPLES = 17
-#: Rounds of halving, and the most intervals evaluated in one call (bounded work).
+#: Rounds of halving, and the most intervals evaluated for one chunk of levels (bounded work).
 MAX_ROUNDS = 24
 MAX_WORK = 2_000_000
 #: Most (piece, level) pairs handled at once; more levels are taken in chunks.

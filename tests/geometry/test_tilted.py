@@ -434,3 +434,17 @@ def test_straight_pieces_as_arrays_agree_with_their_segments(name, orientation):
                           pieces=dataclasses.replace(pc, ends=None))
     for x, y in zip(fast[::2], plain[::2]):       # volume, wetted area
         assert np.max(np.abs(x - y)) <= 1e-13 * max(float(np.max(np.abs(y))), 1.0)
+
+
+def test_segment_area_and_wetted_arc_against_crc():
+    # circular segment of height h: r² acos((r-h)/r) - (r-h) √(2rh - h²); its arc 2 r acos((r-h)/r)
+    # (CRC Standard Mathematical Tables, from memory), for depths across the whole circle
+    from revolve.geometry.tilted import _segment_and_arc
+
+    r = 1.7
+    h = np.concatenate([np.geomspace(1e-3, 1.0, 40) * r, r * (2.0 - np.geomspace(1e-3, 1.0, 40))])
+    area, arc = _segment_and_arc(np.full(h.size, r), h.copy(), 2 * r - h)
+    ref = np.array([_crc_segment(r, x) for x in h])
+    ref_arc = 2 * r * np.arccos((r - h) / r)
+    assert np.max(np.abs(area - ref)) <= 1e-13 * math.pi * r * r
+    assert np.max(np.abs(arc - ref_arc)) <= 1e-13 * 2 * math.pi * r
