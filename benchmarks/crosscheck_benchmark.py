@@ -34,7 +34,9 @@ Prints ratios, never absolute promises: the machines are shared and noisy.
 from __future__ import annotations
 
 import argparse
+import atexit
 import math
+import shutil
 import sys
 import tempfile
 import time
@@ -91,6 +93,7 @@ def main(argv=None):
     import shapely
 
     work = Path(tempfile.mkdtemp(prefix="revolve-crosscheck-"))
+    atexit.register(shutil.rmtree, work, True)      # no files left behind
     print("washer_volume + surface_by_quadrature on one polyline, against shapely.Polygon(...).area "
           "and numpy.loadtxt of the same vertices (best of %d)" % args.repeats)
     print(f"{'shape':>7} {'vertices':>9} {'washers s':>10} {'surface s':>10} {'check s':>8} "

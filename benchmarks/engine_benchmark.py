@@ -1,6 +1,9 @@
 """Engine speed and accuracy, side by side with reference computations in one run.
 
-Run:  python benchmarks/engine_benchmark.py  (needs the test extras: shapely)
+Run:  python benchmarks/engine_benchmark.py [--quick]  (needs the test extras: shapely)
+
+``--quick`` (a smoke run) stops the polylines at 10⁴ vertices, repeats each timing
+once and the start-up twice.
 
 Prints ratios, never absolute promises: the machines are shared and noisy.
 
@@ -62,13 +65,13 @@ def shapely_section(x, y):
     return p.area, c.x, c.y
 
 
-def section_benchmark():
+def section_benchmark(sizes=(10 ** 3, 10 ** 4, 10 ** 5, 10 ** 6), repeats=None):
     print("1. section integrals of an n-vertex polyline: engine vs shapely (area + centroid)")
     print(f"{'vertices':>10} {'engine s':>10} {'shapely s':>10} {'engine/shapely':>15} {'area rel. diff':>15} "
           f"{'centroid diff':>14}")
-    for n in (10 ** 3, 10 ** 4, 10 ** 5, 10 ** 6):
+    for n in sizes:
         x, y = wavy_ring(n)
-        reps = 7 if n < 10 ** 6 else 5
+        reps = repeats or (7 if n < 10 ** 6 else 5)
         # alternate the two so that both see the same load on a shared machine
         te, ts = float("inf"), float("inf")
         for _ in range(reps):
@@ -129,7 +132,19 @@ def startup_benchmark(repeats=7):
     print(f"   at a 0.26 s floor this ratio gives       {0.26 * run[0] / base[0]:.2f} s (target 0.6 s)")
 
 
-if __name__ == "__main__":
-    section_benchmark()
+def main():
+    import argparse
+
+    ap = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    ap.add_argument("--quick", action="store_true", help="a smoke run: small sizes, few repeats")
+    quick = ap.parse_args().quick
+    if quick:
+        section_benchmark((10 ** 3, 10 ** 4), repeats=1)
+    else:
+        section_benchmark()
     arc_benchmark()
-    startup_benchmark()
+    startup_benchmark(2 if quick else 7)
+
+
+if __name__ == "__main__":
+    main()

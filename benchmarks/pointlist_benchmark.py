@@ -41,7 +41,9 @@ Prints ratios, never absolute promises: the machines are shared and noisy.
 from __future__ import annotations
 
 import argparse
+import atexit
 import os
+import shutil
 import subprocess
 import sys
 import tempfile
@@ -193,6 +195,7 @@ def main(argv=None):
     sizes = [int(s) for s in args.sizes.split(",")]
     shapes = args.shapes.split(",")
     work = Path(tempfile.mkdtemp(prefix="revolve-bench-"))
+    atexit.register(shutil.rmtree, work, True)      # no files left behind
     py = sys.executable
     print(f"revolve measure PTS --json: after = {ROOT}, before = {args.before or '(not given)'}")
     if args.before:

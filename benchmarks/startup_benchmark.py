@@ -1,6 +1,6 @@
 """Start-up of curve commands as ratios to a bare ``python -c "import numpy, typer"``, one run.
 
-Run:  python benchmarks/startup_benchmark.py [--before PATH] [--runs N]
+Run:  python benchmarks/startup_benchmark.py [--before PATH] [--runs N] [--quick]
 
 Issue 10's target: ``revolve vessel`` with ellipsoidal or torispherical heads, and
 ``revolve measure`` of a curve profile without ``--exact``, within 1.7× of the bare
@@ -14,7 +14,8 @@ are shared and noisy). Byte code is compiled once first, into a private cache
 (``PYTHONPYCACHEPREFIX``), so the figures are what an installed package costs and not
 the compilation of its sources on every run (``PYTHONDONTWRITEBYTECODE`` is unset
 for the children). With ``--before PATH`` (another checkout, e.g. the main branch
-before a change) its times are printed beside this checkout's.
+before a change) its times are printed beside this checkout's. ``--quick`` (a smoke
+run) is one run each and leaves out the ``--exact`` comparison (seconds of sympy).
 """
 
 from __future__ import annotations
@@ -72,7 +73,13 @@ def main() -> None:
     ap.add_argument("--before", type=Path, default=None,
                     help="a checkout of the code before the change (its root directory)")
     ap.add_argument("--runs", type=int, default=7)
+    ap.add_argument("--quick", action="store_true",
+                    help="a smoke run: one run each, without the --exact comparison")
     args = ap.parse_args()
+    commands = dict(COMMANDS)
+    if args.quick:
+        args.runs = 1
+        commands = {k: v for k, v in commands.items() if "--exact" not in v}
     variants = {"after": ROOT}
     if args.before is not None:
         variants["before"] = args.before.resolve()
@@ -80,14 +87,14 @@ def main() -> None:
     with tempfile.TemporaryDirectory() as tmp:
         cache = str(Path(tmp) / "pycache")
         for path in variants.values():              # compile byte code once, untimed
-            for argv in COMMANDS.values():
+            for argv in commands.values():
                 run(argv, path, tmp, cache)
         run(BARE, None, tmp, cache)
         print(f"python {sys.version.split()[0]}; median of {args.runs} runs, each a new "
               "process; ratio = command / bare start-up (target for the first four: ≤ 1.7×)")
         bare_all = []
         rows = []
-        for name, argv in COMMANDS.items():
+        for name, argv in commands.items():
             times = {"bare": []} | {v: [] for v in variants}
             for _ in range(args.runs):
                 times["bare"].append(run(BARE, None, tmp, cache))

@@ -38,6 +38,14 @@ difference is its error estimate, intervals above their share of the
 tolerance are halved (a bounded number of rounds), and the sum of the
 estimates is returned with each volume.
 
+Many pieces (a surveyed wall of a thousand polyline edges) are handled as
+arrays: every (piece, level) pair at once, levels in chunks of
+:data:`PAIR_CHUNK` pairs. A straight piece (a line, a polyline edge) keeps its
+end points and is evaluated from them with no call to its segment; where such
+a piece is wholly wet between two cuts its integrals are those of a frustum,
+in closed form. The nodes of both orders are evaluated in one pass, in blocks
+of at most :data:`BLOCK_NODES`, so that no temporary array is large.
+
 The level and the gauge point
 -----------------------------
 A level ``h`` is the plumb height of the liquid surface above a reference
@@ -86,7 +94,6 @@ import numpy as np
 
 from revolve.errors import RevolveError
 from revolve.geometry.checks import PreparedProfile
-from revolve.geometry.horizontal import segment_area, wetted_arc
 from revolve.geometry.quadrature import gauss_legendre
 
 PI = math.pi
@@ -98,11 +105,15 @@ ORDERS = (8, 14)
 STRAIGHT_ORDERS = (4, 7)
 #: Samples per curved piece when looking for the places where a circle becomes wet or dry.
 SAMPLES = 17
-#: Rounds of halving, and the most intervals evaluated in one call (bounded work).
+#: Rounds of halving, and the most intervals evaluated for one chunk of levels (bounded work).
 MAX_ROUNDS = 24
 MAX_WORK = 2_000_000
 #: Most (piece, level) pairs handled at once; more levels are taken in chunks.
-PAIR_CHUNK = 200_000
+PAIR_CHUNK = 8192
+#: Most nodes (intervals × nodes of both orders) evaluated at once: each temporary array stays
+#: small, in the cache and below the size (128 KiB) above which the C allocator maps fresh
+#: pages for it and gives them back when it is freed (page faults on every array otherwise).
+BLOCK_NODES = 12_000
 #: Largest tilt accepted, in degrees (a vessel tipped further is not "tilted").
 MAX_TILT = 45.0
 
@@ -119,6 +130,9 @@ class TiltedPieces:
     ``segment`` (index into ``segments``), ``pa``, ``pb`` (parameter range),
     ``factor`` (the loop's factor, solid +1, hole −1) and ``straight``
     (``z`` and ``r`` linear in the parameter: a line or a polyline edge).
+    ``ends`` holds each piece's end points ``(z, r)`` at ``pa`` and ``pb``
+    (shape (n, 4)): a straight piece is evaluated from them as arrays, with
+    no call to its segment.
     """
 
     segments: tuple
@@ -130,17 +144,50 @@ class TiltedPieces:
     z_min: float
     z_max: float
     r_max: float
+    ends: Optional[np.ndarray] = None
 
     def __len__(self) -> int:
         return int(self.segment.size)
 
+    def straight_geometry(self, rows, p, per_row=False):
+        """:meth:`geometry` of straight pieces: ``z`` and ``r`` interpolated between the ends.
+
+        ``per_row``: ``dz/dp`` and ``dr/dp`` as one column (k, 1) for a 2-D ``p``.
+        """
+        p = np.asarray(p, dtype=float)
+        pa = self.pa[rows]
+        span = self.pb[rows] - pa
+        e = self.ends[rows]
+        dz, dr = e[:, 2] - e[:, 0], e[:, 3] - e[:, 1]
+        if p.ndim == 2:
+            pa, span, dz, dr = pa[:, None], span[:, None], dz[:, None], dr[:, None]
+            z0, r0 = e[:, 0, None], e[:, 1, None]
+        else:
+            z0, r0 = e[:, 0], e[:, 1]
+        f = (p - pa) / span
+        if per_row and p.ndim == 2:
+            return z0 + dz * f, r0 + dr * f, dz / span, dr / span
+        return (z0 + dz * f, r0 + dr * f, np.broadcast_to(dz / span, p.shape),
+                np.broadcast_to(dr / span, p.shape))
+
     def geometry(self, rows, p):
         """``z, r, dz/dp, dr/dp`` at parameters ``p`` (shape (k, m)) of pieces ``rows`` (k,)."""
         p = np.asarray(p, dtype=float)
+        rows = np.asarray(rows)
+        if self.ends is not None:
+            st = self.straight[rows]
+            if st.all():
+                return self.straight_geometry(rows, p)
         out = [np.empty(p.shape) for _ in range(4)]
-        seg = self.segment[rows]
+        todo = np.arange(rows.size)
+        if self.ends is not None and st.any():
+            sel = np.flatnonzero(st)
+            for o, v in zip(out, self.straight_geometry(rows[sel], p[sel])):
+                o[sel] = v
+            todo = np.flatnonzero(~st)
+        seg = self.segment[rows[todo]]
         for s in np.unique(seg):
-            sel = np.flatnonzero(seg == s)
+            sel = todo[seg == s]
             flat = p[sel].ravel()
             pts = np.asarray(self.segments[int(s)].points_at(flat), dtype=float)
             tan = np.asarray(self.segments[int(s)].tangents_at(flat), dtype=float)
@@ -209,8 +256,9 @@ def tilted_pieces(prep: PreparedProfile) -> TiltedPieces:
     rows = np.arange(len(pc))
     u = np.linspace(0.0, 1.0, 65)
     z, r, _, _ = pc.geometry(rows, pc.pa[:, None] + (pc.pb - pc.pa)[:, None] * u[None, :])
+    ends = np.column_stack([z[:, 0], r[:, 0], z[:, -1], r[:, -1]])
     return TiltedPieces(pc.segments, pc.segment, pc.pa, pc.pb, pc.factor, pc.straight,
-                        float(z.min()), float(z.max()), float(r.max()))
+                        float(z.min()), float(z.max()), float(r.max()), ends)
 
 
 # -- the plane -------------------------------------------------------------------------------
@@ -398,30 +446,129 @@ def _map(mapping, pa, pb, u):
     return p, dp
 
 
-def _integrate(pc, jobs, c, a, b, n):
-    """Volume and wetted-area integrals of each job with ``n`` Gauss–Legendre nodes."""
-    x, w = gauss_legendre(n)
+def _rule(n1: int, n2: int):
+    """Nodes of two Gauss–Legendre orders on [-1, 1] side by side, weights as (n1 + n2, 2)."""
+    key = (n1, n2)
+    if key not in _RULES:
+        (x1, w1), (x2, w2) = gauss_legendre(n1), gauss_legendre(n2)
+        weights = np.zeros((n1 + n2, 2))
+        weights[:n1, 0], weights[n1:, 1] = w1, w2
+        _RULES[key] = (np.concatenate([x1, x2]), weights)
+    return _RULES[key]
+
+
+_RULES: dict = {}
+
+
+def _integrate(pc, jobs, c, a, b, orders, wet):
+    """Volume integrals of each job by both ``orders`` of Gauss–Legendre, wetted area by the second.
+
+    ``wet``: every job is a wholly wet interval (π r², 2π r), else every job is cut
+    by the chord (circular segments). The nodes of both orders are evaluated in one
+    pass; on straight pieces ``dz/dp`` and ``dr/dp`` are one number per job.
+    Returns ``(v1, v2, area2)``.
+    """
+    n1, _ = orders
+    x, weights = _rule(*orders)
     ua, ub = jobs["ua"], jobs["ub"]
     half = 0.5 * (ub - ua)
-    u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
-    p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
-    z, r, dz, dr = pc.geometry(jobs["row"], p)
-    jac = dp * half[:, None]
-    ds = np.hypot(dz, dr) * np.abs(jac)
-    wet = jobs["wet"][:, None]
-    e = c[jobs["level"]][:, None] - b * z
-    s = a * r
-    # a lean of a hair gives a tiny a: y overflows to ±inf only where the circle is wholly wet
-    # or dry (np.where picks π r², 2π r there), never where the chord cuts it (|y| < r)
-    with np.errstate(divide="ignore", invalid="ignore", over="ignore"):
-        rpy = np.clip((s + e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-        rmy = np.clip((s - e) / a, 0.0, None) if a > 0 else np.zeros_like(r)
-        y = e / a if a > 0 else np.zeros_like(r)
-        area = np.where(wet, PI * r * r, segment_area(r, y, rpy, rmy))
-        arc = np.where(wet, 2.0 * PI * r, wetted_arc(r, y, rpy, rmy))
-    gv = np.nan_to_num(area * dz * jac)
-    ga = np.nan_to_num(arc * ds)
-    return gv @ w, ga @ w
+    linear = not jobs["mapping"].any()          # every job STRAIGHT: p linear in u
+    straight = pc.ends is not None and pc.straight[jobs["row"]].all()
+    if linear and straight:
+        # z and r linear in the node x: z = z₀ + Δz (F₀ + F₁ x), F the fraction along the piece
+        rows = jobs["row"]
+        e = pc.ends[rows]
+        pa_piece = pc.pa[rows]
+        span_piece = pc.pb[rows] - pa_piece
+        span = jobs["pb"] - jobs["pa"]
+        f0 = (jobs["pa"] + span * (0.5 * (ua + ub)) - pa_piece) / span_piece
+        f1 = span * half / span_piece
+        dz, dr = e[:, 2] - e[:, 0], e[:, 3] - e[:, 1]
+        z = (e[:, 0] + dz * f0)[:, None] + (dz * f1)[:, None] * x[None, :]
+        r = (e[:, 1] + dr * f0)[:, None] + (dr * f1)[:, None] * x[None, :]
+        dz, dr, jac = dz[:, None], dr[:, None], f1[:, None]     # dz/dx = Δz F₁: jac folded in
+    else:
+        u = 0.5 * (ua + ub)[:, None] + half[:, None] * x[None, :]
+        if linear:
+            span = (jobs["pb"] - jobs["pa"])[:, None]
+            p = jobs["pa"][:, None] + span * u
+            jac = span * half[:, None]
+        else:
+            p, dp = _map(jobs["mapping"], jobs["pa"], jobs["pb"], u)
+            jac = dp * half[:, None]
+        if straight:
+            z, r, dz, dr = pc.straight_geometry(jobs["row"], p, per_row=True)
+        else:
+            z, r, dz, dr = pc.geometry(jobs["row"], p)
+    if wet:
+        area = PI * r * r
+        arc = 2.0 * PI * r
+    elif a > 0:
+        # y = (c − b z)/a, the chord's height across the slice; r ± y ≥ 0 (heights of the
+        # segment and of the rest). A lean of a hair gives a tiny a: y overflows only where the
+        # circle is wholly wet or dry, never in a job cut by the chord (|y| < r)
+        with np.errstate(over="ignore", invalid="ignore"):
+            y = np.multiply(z, -b / a)
+            y += (c[jobs["level"]] / a)[:, None]
+            rpy = np.add(r, y)
+            np.maximum(rpy, 0.0, out=rpy)
+            rmy = np.subtract(r, y, out=y)
+            np.maximum(rmy, 0.0, out=rmy)
+            area, arc = _segment_and_arc(r, rpy, rmy)
+    else:                                       # a = 0 (no lean): no job is cut by a chord
+        area = arc = np.zeros_like(r)
+    with np.errstate(invalid="ignore", over="ignore"):
+        gv = area * (dz * jac)
+        ds = np.hypot(dz, dr) * np.abs(jac)         # (k, 1) on straight pieces mapped linearly
+        ga = arc[:, n1:] * (ds if ds.shape[1] == 1 else ds[:, n1:])
+        v = gv @ weights
+        w2 = ga @ weights[n1:, 1]
+        if not (np.isfinite(v).all() and np.isfinite(w2).all()):    # a node off the space
+            v = np.nan_to_num(gv) @ weights
+            w2 = np.nan_to_num(ga) @ weights[n1:, 1]
+    return v[:, 0], v[:, 1], w2
+
+
+def _segment_and_arc(r, rpy, rmy):
+    """Circular segment area below the chord and wetted arc, from ``r + y`` and ``r − y`` (≥ 0).
+
+    The formulas of :func:`revolve.geometry.horizontal.segment_area` and
+    ``wetted_arc``, sharing one angle: ``φ = 2 asin √(min(r ± y)/2r)`` is half the
+    central angle of the smaller part, whose area is ``r² (2φ − sin 2φ)/2``
+    (``2φ − sin 2φ`` by series below 0.5, so a depth a hair above the bottom keeps
+    its digits).
+
+    >>> a, w = _segment_and_arc(np.array([1.0, 1.0, 2.0]), np.array([1.0, 0.3, 0.0]),
+    ...                         np.array([1.0, 1.7, 4.0]))
+    >>> ref = math.acos(0.7) - 0.7 * math.sqrt(1 - 0.49)        # CRC: r² acos((r-h)/r) - …
+    >>> round(float(a[0]) / math.pi, 15), abs(float(a[1]) - ref) < 1e-15, float(a[2])
+    (0.5, True, 0.0)
+    >>> round(float(w[0]) / math.pi, 15), float(w[2])
+    (1.0, 0.0)
+    """
+    below = rpy <= rmy
+    q = np.minimum(rpy, rmy)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        q /= 2.0 * r                    # r = 0 only on a piece along the axis, never cut by a chord
+    np.minimum(q, 1.0, out=q)
+    phi = np.sqrt(q, out=q)
+    np.arcsin(phi, out=phi)
+    phi *= 2.0
+    d = 2.0 * phi
+    small = np.sin(d)
+    np.subtract(d, small, out=small)
+    few = d < 0.5
+    if few.any():
+        t = d[few]
+        t2 = t * t
+        small[few] = t * t2 / 6.0 * (1 - t2 / 20.0 * (1 - t2 / 42.0 * (1 - t2 / 72.0 * (
+            1 - t2 / 110.0 * (1 - t2 / 156.0)))))
+    disc = PI * r * r
+    small *= 0.5 * r * r
+    area = np.where(below, small, np.subtract(disc, small, out=disc))
+    arc = np.where(below, phi, np.subtract(PI, phi, out=d))
+    arc *= 2.0 * r
+    return area, arc
 
 
 def tilted_levels(prep: PreparedProfile, levels, tilt_degrees: float, orientation: str,
@@ -501,18 +648,26 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
     pair_level = np.tile(np.arange(nL), nP)
     rows_r, p_r = _roots(pc, pair_piece, c[pair_level], a, b)
     n_pairs = pair_piece.size
-    cut_pair = np.concatenate([np.arange(n_pairs), np.arange(n_pairs), rows_r])
-    cut_p = np.concatenate([pc.pa[pair_piece], pc.pb[pair_piece], p_r])
-    is_root = np.concatenate([np.zeros(2 * n_pairs, dtype=bool), np.ones(rows_r.size, dtype=bool)])
+    rooted = np.zeros(n_pairs, dtype=bool)
+    rooted[rows_r] = True
+    whole = np.flatnonzero(~rooted)             # most pairs: one interval, the whole piece
+    rooted = np.flatnonzero(rooted)
+    cut_pair = np.concatenate([rooted, rooted, rows_r])
+    cut_p = np.concatenate([pc.pa[pair_piece[rooted]], pc.pb[pair_piece[rooted]], p_r])
+    is_root = np.concatenate([np.zeros(2 * rooted.size, dtype=bool),
+                              np.ones(rows_r.size, dtype=bool)])
     # order cuts along each piece's own direction (pa may exceed pb)
     direction = np.sign(pc.pb - pc.pa)[pair_piece][cut_pair]
     order = np.lexsort((direction * cut_p, cut_pair))
     cut_pair, cut_p, is_root = cut_pair[order], cut_p[order], is_root[order]
     same = cut_pair[:-1] == cut_pair[1:]
     ia = np.flatnonzero(same)
-    pair = cut_pair[ia]
-    p0, p1 = cut_p[ia], cut_p[ia + 1]
-    r0, r1 = is_root[ia], is_root[ia + 1]
+    pair = np.concatenate([whole, cut_pair[ia]])
+    p0 = np.concatenate([pc.pa[pair_piece[whole]], cut_p[ia]])
+    p1 = np.concatenate([pc.pb[pair_piece[whole]], cut_p[ia + 1]])
+    no_root = np.zeros(whole.size, dtype=bool)
+    r0 = np.concatenate([no_root, is_root[ia]])
+    r1 = np.concatenate([no_root, is_root[ia + 1]])
     keep = p0 != p1
     pair, p0, p1, r0, r1 = pair[keep], p0[keep], p1[keep], r0[keep], r1[keep]
     row, lev = pair_piece[pair], pair_level[pair]
@@ -524,6 +679,18 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
     part = (np.abs(e) < s)
     live = wet | part
     row, lev, p0, p1, r0, r1, wet, part = (v[live] for v in (row, lev, p0, p1, r0, r1, wet, part))
+    # a wholly wet interval of a straight piece is a frustum: π r² dz and 2π r ds in closed form
+    frustum = wet & pc.straight[row]
+    if frustum.any():
+        k = row[frustum]
+        zr = pc.geometry(k, np.column_stack([p0[frustum], p1[frustum]]))
+        za, zb, ra, rb = zr[0][:, 0], zr[0][:, 1], zr[1][:, 0], zr[1][:, 1]
+        vol = PI / 3.0 * (ra * ra + ra * rb + rb * rb) * (zb - za)
+        V -= np.bincount(lev[frustum], pc.factor[k] * vol, minlength=nL)
+        A += np.bincount(lev[frustum], PI * (ra + rb) * np.hypot(zb - za, rb - ra), minlength=nL)
+        keep = ~frustum
+        row, lev, p0, p1, r0, r1, wet, part = (v[keep] for v in (row, lev, p0, p1, r0, r1, wet,
+                                                                  part))
     # cut intervals with a root at both ends are halved so each half gathers nodes at its root
     both = part & r0 & r1
     mid = 0.5 * (p0 + p1)
@@ -544,20 +711,25 @@ def _tilted_chunk(pc, d, a, b, orientation, gauge_point, rel_tol):
             break
         work += jobs["row"].size
         v1, v2, a2 = (np.empty(jobs["row"].size) for _ in range(3))
-        # a straight piece away from a tangency has a smooth, slowly varying integrand
+        # a straight piece away from a tangency has a smooth, slowly varying integrand; groups
+        # of one kind of job each (wholly wet or cut by the chord, plain or gathered nodes)
         plain = pc.straight[jobs["row"]] & (jobs["mapping"] == STRAIGHT)
         for sel, (n1, n2) in ((plain, STRAIGHT_ORDERS), (~plain, ORDERS)):
-            if sel.any():
-                sub = {k: v[sel] for k, v in jobs.items()}
-                v1[sel] = _integrate(pc, sub, c, a, b, n1)[0]
-                v2[sel], a2[sel] = _integrate(pc, sub, c, a, b, n2)
+            for wet_group in (False, True):
+                group = np.flatnonzero(sel & (jobs["wet"] == wet_group))
+                block = max(1, BLOCK_NODES // (n1 + n2))
+                for first in range(0, group.size, block):
+                    ii = group[first:first + block]
+                    sub = {k: v[ii] for k, v in jobs.items()}
+                    v1[ii], v2[ii], a2[ii] = _integrate(pc, sub, c, a, b, (n1, n2), wet_group)
         err = np.abs(v2 - v1)
         final = round_no == MAX_ROUNDS or work > MAX_WORK
         good = (err <= share) | final | ((jobs["ub"] - jobs["ua"]) < 2.0 ** -30)
         f = pc.factor[jobs["row"]]
-        np.add.at(V, jobs["level"][good], -f[good] * v2[good])
-        np.add.at(A, jobs["level"][good], a2[good])
-        np.add.at(E, jobs["level"][good], err[good])
+        g_lev = jobs["level"][good]
+        V -= np.bincount(g_lev, f[good] * v2[good], minlength=nL)
+        A += np.bincount(g_lev, a2[good], minlength=nL)
+        E += np.bincount(g_lev, err[good], minlength=nL)
         bad = ~good
         if not bad.any():
             break

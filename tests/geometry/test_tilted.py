@@ -370,3 +370,81 @@ def test_empty_level_of_a_leaning_vessel_with_a_hemispherical_bottom(tilt):
     a = math.radians(tilt)
     assert lo == pytest.approx(-R * (1 - math.cos(a)), abs=1e-12)
     assert hi == pytest.approx((R + L) * math.cos(a) + R * abs(math.sin(a)), rel=1e-12)
+
+
+# -- walls of many pieces (arrays, several chunks of pairs and blocks of nodes) ---------------
+
+def _polyline_cylinder(R, L, edges, along):
+    """A cylinder whose wall is one polyline of ``edges`` collinear edges (a surveyed wall)."""
+    from revolve.geometry.segments import Line, Polyline
+
+    t = np.linspace(0.0, L, edges + 1)
+    if along == "x":
+        wall = Polyline(np.column_stack([t, np.full_like(t, R)]))
+        loop = Loop((Line((0.0, 0.0), (0.0, R)), wall, Line((L, R), (L, 0.0)),
+                     Line((L, 0.0), (0.0, 0.0))))
+        return prepare(Profile(loops=(loop,)), Axis.x())
+    wall = Polyline(np.column_stack([np.full_like(t, R), t]))
+    loop = Loop((Line((0.0, 0.0), (R, 0.0)), wall, Line((R, L), (0.0, L)),
+                 Line((0.0, L), (0.0, 0.0))))
+    return prepare(Profile(loops=(loop,)), Axis.y())
+
+
+def test_many_edge_wall_tilted_horizontal_against_scipy_dblquad():
+    # reference: scipy.integrate.dblquad (see _horizontal_reference); 400 edges × 60 levels are
+    # more pairs than one chunk holds, so the chunks and blocks of nodes are exercised
+    R, L, tilt = 0.8, 5.0, 2.0
+    prep = _polyline_cylinder(R, L, 400, "x")
+    lo, hi = tilted_range(prep, tilt, "horizontal")
+    levels = np.linspace(lo, hi, 60)
+    v, err, _ = tilted_levels(prep, levels, tilt, "horizontal")
+    cap = math.pi * R * R * L
+    some = [1, 7, 20, 31, 45, 58]
+    ref = np.array([_horizontal_reference(R, L, tilt, levels[i], L / 2) for i in some])
+    assert np.max(np.abs(v[some] - ref)) <= 1e-12 * cap
+    assert np.max(err) <= 1e-11 * cap
+    assert v[0] == 0.0 and abs(v[-1] - cap) <= 1e-12 * cap
+
+
+def test_many_edge_wall_leaning_vertical_plane_across_the_shell_only():
+    # geometry as in test_leaning_vertical_cylinder_plane_across_the_shell_only: π r² s, the
+    # slices below the plane wholly wet (frusta in closed form), the others cut by the chord
+    R, L, tilt = 1.0, 3.0, 10.0
+    a = math.radians(tilt)
+    prep = _polyline_cylinder(R, L, 300, "y")
+    s = np.linspace(0.3, 2.7, 41)
+    v = tilted_levels(prep, s * math.cos(a), tilt, "vertical")[0]
+    assert np.max(np.abs(v - math.pi * R * R * s)) <= 1e-12 * math.pi * R * R * L
+
+
+@pytest.mark.parametrize("name, orientation", [("vessel-brew-kettle.toml", "vertical"),
+                                               ("vessel-diesel-day-tank.toml", "horizontal")])
+def test_straight_pieces_as_arrays_agree_with_their_segments(name, orientation):
+    # the same table with every piece evaluated through its segment (points_at, tangents_at;
+    # no end points kept): the array path is only a faster way to the same numbers
+    import dataclasses
+
+    space = _space(name, orientation)
+    pc = tilted_pieces(space.prepared)
+    assert pc.straight.any()
+    lo, hi = tilted_range(space.prepared, 2.0, orientation, pieces=pc)
+    levels = np.linspace(lo, hi, 41)
+    fast = tilted_levels(space.prepared, levels, 2.0, orientation, pieces=pc)
+    plain = tilted_levels(space.prepared, levels, 2.0, orientation,
+                          pieces=dataclasses.replace(pc, ends=None))
+    for x, y in zip(fast[::2], plain[::2]):       # volume, wetted area
+        assert np.max(np.abs(x - y)) <= 1e-13 * max(float(np.max(np.abs(y))), 1.0)
+
+
+def test_segment_area_and_wetted_arc_against_crc():
+    # circular segment of height h: r² acos((r-h)/r) - (r-h) √(2rh - h²); its arc 2 r acos((r-h)/r)
+    # (CRC Standard Mathematical Tables, from memory), for depths across the whole circle
+    from revolve.geometry.tilted import _segment_and_arc
+
+    r = 1.7
+    h = np.concatenate([np.geomspace(1e-3, 1.0, 40) * r, r * (2.0 - np.geomspace(1e-3, 1.0, 40))])
+    area, arc = _segment_and_arc(np.full(h.size, r), h.copy(), 2 * r - h)
+    ref = np.array([_crc_segment(r, x) for x in h])
+    ref_arc = 2 * r * np.arccos((r - h) / r)
+    assert np.max(np.abs(area - ref)) <= 1e-13 * math.pi * r * r
+    assert np.max(np.abs(arc - ref_arc)) <= 1e-13 * 2 * math.pi * r
