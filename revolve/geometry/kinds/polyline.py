@@ -552,7 +552,7 @@ class Polyline(SegmentKind):
         >>> v.tolist(), e.tolist()      # 2·1 + 2·2 + 2·3 + 2·2
         ([16.0], [0.0])
         """
-        from revolve.geometry.slicing import gauss_legendre
+        from revolve.geometry.quadrature import gauss_legendre
 
         (x1,), (w1,) = gauss_legendre(1)
         x2, w2 = gauss_legendre(2)
