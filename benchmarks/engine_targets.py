@@ -39,6 +39,7 @@ import argparse
 import math
 import os
 import resource
+import shutil
 import subprocess
 import sys
 import tempfile
@@ -241,6 +242,14 @@ def main():
     big = 100_000 if args.quick else 1_000_000
     parts = 200 if args.quick else 1000
     work = Path(tempfile.mkdtemp(prefix="revolve-targets-"))
+    try:
+        run_targets(args, big, parts, work)
+    finally:
+        shutil.rmtree(work, ignore_errors=True)
+
+
+def run_targets(args, big, parts, work):
+    """Every row (or the rows of ``--only``), in one run."""
     rep = args.repeats
     if args.only == "3":
         library_rows(big, rep, args.before, work)

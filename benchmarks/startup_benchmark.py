@@ -8,20 +8,23 @@ start-up. Plain measuring imports no sympy (and no mpmath or scipy); only ``--ex
 does, so the ``--exact`` line is printed for comparison, not as a target.
 
 Each command runs as a fresh process N times (default 7), alternating with the bare
-start-up and the other variants so that load on the machine falls on all of them
-alike; the median is kept and printed as a ratio, never as a promise (the machines
-are shared and noisy). Byte code is compiled once first, into a private cache
-(``PYTHONPYCACHEPREFIX``), so the figures are what an installed package costs and not
-the compilation of its sources on every run (``PYTHONDONTWRITEBYTECODE`` is unset
-for the children). With ``--before PATH`` (another checkout, e.g. the main branch
-before a change) its times are printed beside this checkout's. ``--quick`` (a smoke
-run) is one run each and leaves out the ``--exact`` comparison (seconds of sympy).
+start-up and the other variants so that load on the machine falls on all of them alike;
+the median is kept and printed as a ratio, never as a promise (the machines are shared
+and noisy); the last columns give the same ratio in CPU time (user + system) of the
+child processes, which other work on the machine moves less. Byte code is compiled once
+first, into a private cache (``PYTHONPYCACHEPREFIX``), so the figures are what an
+installed package costs and not the compilation of its sources on every run
+(``PYTHONDONTWRITEBYTECODE`` is unset for the children). With ``--before PATH`` (another
+checkout, e.g. the main branch before a change) its times are printed beside this
+checkout's. ``--quick`` (a smoke run) is one run each and leaves out the ``--exact``
+comparison (seconds of sympy).
 """
 
 from __future__ import annotations
 
 import argparse
 import os
+import resource
 import statistics
 import subprocess
 import sys
@@ -58,14 +61,17 @@ def run(argv, pythonpath, cwd, cache):
     else:
         env["PYTHONPATH"] = str(pythonpath)
         argv = [a.replace("{root}", str(pythonpath)) for a in argv]
+    used = resource.getrusage(resource.RUSAGE_CHILDREN)
     t0 = time.perf_counter()
     done = subprocess.run([sys.executable] + argv, cwd=cwd, env=env,
                           stdout=subprocess.PIPE, stderr=subprocess.PIPE)
     elapsed = time.perf_counter() - t0
+    after = resource.getrusage(resource.RUSAGE_CHILDREN)
     if done.returncode != 0:
         raise SystemExit(f"{' '.join(argv)} failed ({done.returncode}):\n"
                          + done.stderr.decode(errors="replace")[-2000:])
-    return elapsed
+    cpu = (after.ru_utime - used.ru_utime) + (after.ru_stime - used.ru_stime)
+    return elapsed, cpu
 
 
 def main() -> None:
@@ -100,19 +106,21 @@ def main() -> None:
                 times["bare"].append(run(BARE, None, tmp, cache))
                 for v, path in variants.items():
                     times[v].append(run(argv, path, tmp, cache))
-            bare_all += times["bare"]
-            med = {k: statistics.median(v) for k, v in times.items()}
-            rows.append((name, med))
+            bare_all += [wall for wall, _ in times["bare"]]
+            med = {k: statistics.median(wall for wall, _ in v) for k, v in times.items()}
+            cpu = {k: statistics.median(c for _, c in v) for k, v in times.items()}
+            rows.append((name, med, cpu))
         print(f"\nbare start-up (python -c \"import numpy, typer\"): "
               f"{statistics.median(bare_all):.3f} s (median of all its runs)\n")
         header = f"{'command':58s} {'bare':>7s}"
         for v in variants:
             header += f" {v:>8s} {'ratio':>6s}"
-        print(header)
-        for name, med in rows:
+        print(header + "   CPU-time ratio" + (" (" + ", ".join(variants) + ")"))
+        for name, med, cpu in rows:
             line = f"{name:58s} {med['bare']:6.3f}s"
             for v in variants:
                 line += f" {med[v]:7.3f}s {med[v] / med['bare']:5.2f}×"
+            line += "   " + " ".join(f"{cpu[v] / cpu['bare']:5.2f}×" for v in variants)
             print(line)
 
 
