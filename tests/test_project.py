@@ -144,3 +144,26 @@ def test_no_algorithm_asks_which_segment_kind_it_holds():
             if asks.search(line):
                 found.append(f"{path.relative_to(ROOT)}:{no}: {line.strip()}")
     assert not found, "\n".join(found)
+
+
+def test_the_command_line_runs_blas_on_one_thread_unless_told(tmp_path):
+    """A command-line process sets one BLAS thread before numpy loads (numpy reads the
+    setting then); the user's own setting wins; a process that has numpy already is left
+    alone. (Project rule: small linear algebra, process-pool batches.)"""
+    import os
+
+    code = ("import os, sys\n"
+            "from revolve.cli.app import BLAS_THREAD_SETTINGS, _one_blas_thread\n"
+            "_one_blas_thread()\n"
+            "print(','.join(os.environ.get(n, '-') for n in BLAS_THREAD_SETTINGS))\n")
+    env = {k: v for k, v in os.environ.items() if k not in ("OPENBLAS_NUM_THREADS",
+                                                             "MKL_NUM_THREADS")}
+    fresh = subprocess.run([sys.executable, "-c", code], env=env, capture_output=True,
+                           text=True, check=True, cwd=tmp_path)
+    assert fresh.stdout.strip() == "1,1"
+    told = subprocess.run([sys.executable, "-c", code], env={**env, "OPENBLAS_NUM_THREADS": "2"},
+                          capture_output=True, text=True, check=True, cwd=tmp_path)
+    assert told.stdout.strip() == "2,1"
+    loaded = subprocess.run([sys.executable, "-c", "import numpy\n" + code], env=env,
+                            capture_output=True, text=True, check=True, cwd=tmp_path)
+    assert loaded.stdout.strip() == "-,-"

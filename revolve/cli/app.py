@@ -237,6 +237,26 @@ def _app_for(argv) -> typer.Typer:
     return one
 
 
+#: numpy's BLAS libraries read their thread count from these when numpy is first imported.
+BLAS_THREAD_SETTINGS = ("OPENBLAS_NUM_THREADS", "MKL_NUM_THREADS")
+
+
+def _one_blas_thread() -> None:
+    """Run numpy's BLAS on one thread in a command-line process, unless the user says otherwise.
+
+    The commands' linear algebra is small (quadrature rules, 2 × 2 maps) and a batch uses the
+    cores through a process pool, so BLAS threads only spin beside the work (about a tenth
+    of a short run on a two-core machine) and would oversubscribe the pool's cores. Set
+    before numpy is first imported, i.e. only when the command line starts a process;
+    a process that imported numpy already (a notebook, the tests) is left alone.
+    """
+    if "numpy" not in sys.modules:
+        import os
+
+        for name in BLAS_THREAD_SETTINGS:
+            os.environ.setdefault(name, "1")
+
+
 def main(argv=None) -> None:
     """Entry point of the console script: run the app; input errors become one line and exit 2.
 
@@ -246,6 +266,7 @@ def main(argv=None) -> None:
     """
     from typer._click import exceptions as ce
 
+    _one_blas_thread()
     try:
         code = _app_for(sys.argv[1:] if argv is None else list(argv))(
             args=argv, prog_name=PROGRAM, standalone_mode=False)
