@@ -7,17 +7,16 @@ Issue 10's target: ``revolve vessel`` with ellipsoidal or torispherical heads, a
 start-up. Plain measuring imports no sympy (and no mpmath or scipy); only ``--exact``
 does, so the ``--exact`` line is printed for comparison, not as a target.
 
-Each command runs as a fresh process N times (default 7), alternating with the bare
-start-up and the other variants so that load on the machine falls on all of them alike;
-the median is kept and printed as a ratio, never as a promise (the machines are shared
-and noisy); the last columns give the same ratio in CPU time (user + system) of the
-child processes, which other work on the machine moves less. Byte code is compiled once
-first, into a private cache (``PYTHONPYCACHEPREFIX``), so the figures are what an
-installed package costs and not the compilation of its sources on every run
-(``PYTHONDONTWRITEBYTECODE`` is unset for the children). With ``--before PATH`` (another
-checkout, e.g. the main branch before a change) its times are printed beside this
-checkout's. ``--quick`` (a smoke run) is one run each and leaves out the ``--exact``
-comparison (seconds of sympy).
+Each command runs as a fresh process in N rounds (default 7), each run right after a
+bare start-up, so that each ratio compares two runs under the same load; the median of
+the rounds' ratios is printed, never as a promise (the machines are shared and noisy);
+the last columns give the same ratio in CPU time (user + system) of the child processes,
+which other work on the machine moves less. Byte code is compiled once first, into a
+private cache (``PYTHONPYCACHEPREFIX``), so the figures are what an installed package
+costs and not the compilation of its sources on every run (``PYTHONDONTWRITEBYTECODE``
+is unset for the children). With ``--before PATH`` (another checkout, e.g. the main
+branch before a change) its times are printed beside this checkout's. ``--quick`` (a
+smoke run) is one run each and leaves out the ``--exact`` comparison (seconds of sympy).
 """
 
 from __future__ import annotations
@@ -39,6 +38,8 @@ COMMANDS = {
                                                 "{root}/profiles/domed-lid.toml", "--json"],
     "vessel, two ellipsoidal heads": ["-m", "revolve", "vessel", "--diameter", "2000",
                                       "--length", "5000", "--head", "ellipsoidal"],
+    "vessel, two torispherical heads": ["-m", "revolve", "vessel", "--diameter", "2000",
+                                        "--length", "5000", "--head", "torispherical"],
     "vessel, torispherical heads, 10 mm wall": ["-m", "revolve", "vessel", "--diameter", "2000",
                                                 "--length", "5000", "--head", "torispherical",
                                                 "--thickness", "10"],
@@ -96,33 +97,34 @@ def main() -> None:
             for argv in commands.values():
                 run(argv, path, tmp, cache)
         run(BARE, None, tmp, cache)
-        print(f"python {sys.version.split()[0]}; median of {args.runs} runs, each a new "
-              "process; ratio = command / bare start-up (target for the first four: ≤ 1.7×)")
-        bare_all = []
-        rows = []
-        for name, argv in commands.items():
-            times = {"bare": []} | {v: [] for v in variants}
-            for _ in range(args.runs):
-                times["bare"].append(run(BARE, None, tmp, cache))
+        print(f"python {sys.version.split()[0]}; {args.runs} rounds, each command a new process "
+              "right after a bare start-up; ratio = median over the rounds of command / that "
+              "bare start-up (target for all but --exact: ≤ 1.7×)")
+        times = {name: {"bare": []} | {v: [] for v in variants} for name in commands}
+        for _ in range(args.runs):                   # rounds: every command, each beside a bare run
+            for name, argv in commands.items():
                 for v, path in variants.items():
-                    times[v].append(run(argv, path, tmp, cache))
-            bare_all += [wall for wall, _ in times["bare"]]
-            med = {k: statistics.median(wall for wall, _ in v) for k, v in times.items()}
-            cpu = {k: statistics.median(c for _, c in v) for k, v in times.items()}
-            rows.append((name, med, cpu))
+                    times[name]["bare"].append(run(BARE, None, tmp, cache))
+                    times[name][v].append(run(argv, path, tmp, cache))
+        bare_all = [wall for name in commands for wall, _ in times[name]["bare"]]
         print(f"\nbare start-up (python -c \"import numpy, typer\"): "
               f"{statistics.median(bare_all):.3f} s (median of all its runs)\n")
-        header = f"{'command':58s} {'bare':>7s}"
+        header = f"{'command':58s}"
         for v in variants:
             header += f" {v:>8s} {'ratio':>6s}"
         print(header + "   CPU-time ratio" + (" (" + ", ".join(variants) + ")"))
-        for name, med, cpu in rows:
-            line = f"{name:58s} {med['bare']:6.3f}s"
-            for v in variants:
-                line += f" {med[v]:7.3f}s {med[v] / med['bare']:5.2f}×"
-            line += "   " + " ".join(f"{cpu[v] / cpu['bare']:5.2f}×" for v in variants)
+        for name in commands:
+            t = times[name]
+            k = len(variants)
+            line = f"{name:58s}"
+            for i, v in enumerate(variants):
+                pairs = list(zip(t["bare"][i::k], t[v]))          # (bare, command) of each round
+                wall = statistics.median(c[0] / b[0] for b, c in pairs)
+                line += f" {statistics.median(c[0] for _, c in pairs):7.3f}s {wall:5.2f}×"
+            for i, v in enumerate(variants):
+                pairs = list(zip(t["bare"][i::k], t[v]))
+                line += f"   {statistics.median(c[1] / b[1] for b, c in pairs):5.2f}×"
             print(line)
-
 
 if __name__ == "__main__":
     main()

@@ -76,13 +76,15 @@ _NUMPY_NAMES = {"asin": "arcsin", "acos": "arccos", "atan": "arctan", "atan2": "
 _SYMPY_NAMES = {"abs": "Abs"}
 _HALF = Fraction(1, 2)
 
-_TOKEN = re.compile(r"""
+# Patterns as text: ``re`` compiles each on its first use and keeps it (a run that parses no
+# expression text pays nothing for them).
+_TOKEN = r"""(?x)
     (?P<space>[ \t\r\n]+)
   | (?P<number>(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][+-]?[0-9]+)?)
   | (?P<name>[A-Za-z_][A-Za-z0-9_]*)
   | (?P<op>\*\*|[-+*/^(),])
-""", re.VERBOSE)
-_DECIMAL = re.compile(r"([+-]?)([0-9]*)(?:\.([0-9]*))?(?:[eE]([+-]?[0-9]+))?")
+"""
+_DECIMAL = r"([+-]?)([0-9]*)(?:\.([0-9]*))?(?:[eE]([+-]?[0-9]+))?"
 
 
 def _sympy():
@@ -92,7 +94,7 @@ def _sympy():
 
 def _fraction(text: str) -> Fraction:
     """Exact Fraction of decimal text such as ``-1.5e-3`` (no float on the way)."""
-    sign, whole, fraction, exponent = _DECIMAL.fullmatch(text).groups()
+    sign, whole, fraction, exponent = re.fullmatch(_DECIMAL, text).groups()
     fraction = fraction or ""
     shift = int(exponent or 0) - len(fraction)
     numerator = int((whole + fraction) or "0") * (10 ** max(shift, 0))
@@ -1213,9 +1215,9 @@ def _tokenize(text: str, max_length: int) -> list[tuple[str, str, int]]:
     if len(text) > max_length:
         raise ExpressionError(f"the expression is {len(text)} characters long; "
                               f"the limit is {max_length}")
-    tokens, position = [], 0
+    tokens, position, token = [], 0, re.compile(_TOKEN)
     while position < len(text):
-        match = _TOKEN.match(text, position)
+        match = token.match(text, position)
         column = position + 1
         if match is None:
             char = text[position]

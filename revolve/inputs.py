@@ -61,11 +61,11 @@ _FRACTION = r"\d{1,9}/\d{1,9}"
 # a plain number, a fraction, or a whole number and a fraction ("3 1/2", "3-1/2")
 _AMOUNT = rf"(?:\d{{1,9}}(?:\s+|-){_FRACTION}|{_FRACTION}|{_DECIMAL})"
 _UNIT = r"[A-Za-zµ_][A-Za-zµ_0-9²³^]*"
-_SIMPLE = re.compile(rf"\s*(?P<sign>[+-]?)\s*(?P<amount>{_AMOUNT})\s*(?P<unit>{_UNIT})?\s*\Z")
+# Patterns as text: ``re`` compiles each on its first use and keeps it.
+_SIMPLE = rf"\s*(?P<sign>[+-]?)\s*(?P<amount>{_AMOUNT})\s*(?P<unit>{_UNIT})?\s*\Z"
 # feet and inches: 3' 4 1/8"   3'   4 1/8"   3 ft 4 in   3ft
-_FEET_INCHES = re.compile(
-    rf"\s*(?P<sign>[+-]?)\s*(?:(?P<feet>{_AMOUNT})\s*(?:'|′|ft\b))?\s*"
-    rf"(?:(?P<inches>{_AMOUNT})\s*(?:\"|″|''|in\b))?\s*\Z")
+_FEET_INCHES = (rf"\s*(?P<sign>[+-]?)\s*(?:(?P<feet>{_AMOUNT})\s*(?:'|′|ft\b))?\s*"
+                rf"(?:(?P<inches>{_AMOUNT})\s*(?:\"|″|''|in\b))?\s*\Z")
 
 
 class Length(NamedTuple):
@@ -135,7 +135,7 @@ def parse_length(text: str) -> Length:
         raise RevolveError(f"a length must be text or a number, not {type(text).__name__}")
     if len(text) > MAX_TEXT:
         raise RevolveError(f"a length of {len(text)} characters is too long")
-    simple = _SIMPLE.fullmatch(text)
+    simple = re.fullmatch(_SIMPLE, text)
     if simple is not None:
         value = _amount(simple.group("amount"), text.strip())
         if simple.group("sign") == "-":
@@ -144,7 +144,7 @@ def parse_length(text: str) -> Length:
         if unit is not None:
             units.factor(unit, "length")      # refuses a unit that is not a length
         return Length(_finite(value, text), unit)
-    fi = _FEET_INCHES.fullmatch(text)
+    fi = re.fullmatch(_FEET_INCHES, text)
     if fi is not None and (fi.group("feet") or fi.group("inches")):
         inches = Fraction(0)
         if fi.group("feet"):
@@ -204,8 +204,8 @@ class Money(NamedTuple):
     currency: Optional[str]
 
 
-_MONEY = re.compile(rf"\s*(?:(?P<before>[A-Za-z]{{3}})\s*)?(?P<amount>{_DECIMAL})"
-                    rf"\s*(?P<after>[A-Za-z]{{3}})?\s*\Z")
+_MONEY = (rf"\s*(?:(?P<before>[A-Za-z]{{3}})\s*)?(?P<amount>{_DECIMAL})"
+          rf"\s*(?P<after>[A-Za-z]{{3}})?\s*\Z")
 
 
 def parse_money(text: str) -> Money:
@@ -218,7 +218,7 @@ def parse_money(text: str) -> Money:
     ...
     revolve.errors.RevolveError: '-3 EUR' is not an amount of money; write a number of zero or more with an optional currency code, such as '12.50 EUR'
     """
-    m = _MONEY.fullmatch(text) if isinstance(text, str) and len(text) <= MAX_TEXT else None
+    m = re.fullmatch(_MONEY, text) if isinstance(text, str) and len(text) <= MAX_TEXT else None
     if m is None or (m.group("before") and m.group("after")):
         raise RevolveError(f"{quoted(str(text).strip())} is not an amount of money; write a number "
                            f"of zero or more with an optional currency code, such as '12.50 EUR'")

@@ -32,7 +32,6 @@ revolve: error: --angel: no such option of 'revolve measure'; did you mean --ang
 from __future__ import annotations
 
 import importlib
-import pkgutil
 import sys
 from typing import Optional
 
@@ -56,9 +55,13 @@ _ALL_REGISTERED = []   # non-empty once every command module is registered on ``
 
 
 def _command_modules():
+    """The package of the command modules and their names (``*.py`` files of its folder)."""
+    import os
+
     from revolve.cli import commands
 
-    names = sorted(m.name for m in pkgutil.iter_modules(commands.__path__))
+    names = sorted({os.path.splitext(f)[0] for folder in commands.__path__
+                    for f in os.listdir(folder) if f.endswith(".py")})
     return commands.__name__, [n for n in names if not n.startswith("_")]
 
 
