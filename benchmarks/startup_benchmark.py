@@ -91,40 +91,55 @@ def main() -> None:
     if args.before is not None:
         variants["before"] = args.before.resolve()
 
+    print(f"python {sys.version.split()[0]}; {args.runs} rounds, each command a new process "
+          "right after a bare start-up; ratio = median over the rounds of command / that "
+          "bare start-up (target for all but --exact: ≤ 1.7×)")
+    ratios, bare = paired_ratios(commands, variants, args.runs)
+    print(f"\nbare start-up (python -c \"import numpy, typer\"): {bare:.3f} s (median of all "
+          "its runs)\n")
+    header = f"{'command':58s}"
+    for v in variants:
+        header += f" {v:>8s} {'ratio':>6s}"
+    print(header + "   CPU-time ratio" + (" (" + ", ".join(variants) + ")"))
+    for name in commands:
+        line = f"{name:58s}"
+        for v in variants:
+            wall, ratio, _ = ratios[name][v]
+            line += f" {wall:7.3f}s {ratio:5.2f}×"
+        line += "   " + " ".join(f"{ratios[name][v][2]:5.2f}×" for v in variants)
+        print(line)
+
+
+def paired_ratios(commands, variants, runs):
+    """``{name: {variant: (median wall s, median wall ratio, median CPU ratio)}}``, bare median.
+
+    ``commands`` maps a name to the arguments after ``python`` (``{root}`` is the tree's
+    folder); ``variants`` maps a name to a tree whose package runs them. Byte code is
+    compiled once, untimed, into a private cache; then in each of ``runs`` rounds every
+    command runs right after its own bare start-up, and each ratio is taken in its pair.
+    """
     with tempfile.TemporaryDirectory() as tmp:
         cache = str(Path(tmp) / "pycache")
         for path in variants.values():              # compile byte code once, untimed
             for argv in commands.values():
                 run(argv, path, tmp, cache)
         run(BARE, None, tmp, cache)
-        print(f"python {sys.version.split()[0]}; {args.runs} rounds, each command a new process "
-              "right after a bare start-up; ratio = median over the rounds of command / that "
-              "bare start-up (target for all but --exact: ≤ 1.7×)")
-        times = {name: {"bare": []} | {v: [] for v in variants} for name in commands}
-        for _ in range(args.runs):                   # rounds: every command, each beside a bare run
+        times = {name: {v: [] for v in variants} for name in commands}
+        for _ in range(runs):                       # rounds: every command, each beside a bare run
             for name, argv in commands.items():
                 for v, path in variants.items():
-                    times[name]["bare"].append(run(BARE, None, tmp, cache))
-                    times[name][v].append(run(argv, path, tmp, cache))
-        bare_all = [wall for name in commands for wall, _ in times[name]["bare"]]
-        print(f"\nbare start-up (python -c \"import numpy, typer\"): "
-              f"{statistics.median(bare_all):.3f} s (median of all its runs)\n")
-        header = f"{'command':58s}"
-        for v in variants:
-            header += f" {v:>8s} {'ratio':>6s}"
-        print(header + "   CPU-time ratio" + (" (" + ", ".join(variants) + ")"))
-        for name in commands:
-            t = times[name]
-            k = len(variants)
-            line = f"{name:58s}"
-            for i, v in enumerate(variants):
-                pairs = list(zip(t["bare"][i::k], t[v]))          # (bare, command) of each round
-                wall = statistics.median(c[0] / b[0] for b, c in pairs)
-                line += f" {statistics.median(c[0] for _, c in pairs):7.3f}s {wall:5.2f}×"
-            for i, v in enumerate(variants):
-                pairs = list(zip(t["bare"][i::k], t[v]))
-                line += f"   {statistics.median(c[1] / b[1] for b, c in pairs):5.2f}×"
-            print(line)
+                    times[name][v].append((run(BARE, None, tmp, cache),
+                                           run(argv, path, tmp, cache)))
+    out = {}
+    for name, by_variant in times.items():
+        out[name] = {}
+        for v, pairs in by_variant.items():
+            out[name][v] = (statistics.median(c[0] for _, c in pairs),
+                            statistics.median(c[0] / b[0] for b, c in pairs),
+                            statistics.median(c[1] / b[1] for b, c in pairs))
+    bare = statistics.median(b[0] for by in times.values() for pairs in by.values()
+                             for b, _ in pairs)
+    return out, bare
 
 if __name__ == "__main__":
     main()
