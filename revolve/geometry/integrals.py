@@ -212,17 +212,15 @@ def arc_integrals(cx, cy, radius, start_angle, sweep, start=None, end=None) -> n
 
 # -- curves --------------------------------------------------------------------------
 
-def _curve_integrand(curve: Curve, length_only: bool = False):
-    def f(t):
-        x, y, dx, dy = curve.evaluate(np.atleast_1d(t))
-        ds = np.hypot(dx, dy)
-        if length_only:
-            return ds[:, None]
-        w = x * dy - y * dx
-        cols = [ds, x * ds, y * ds]
-        cols += [x ** a * y ** b * w / (a + b + 2) for a, b in EXPONENTS]
-        return np.stack(cols, axis=-1)[0] if np.ndim(t) == 0 else np.stack(cols, axis=-1)
-    return f
+def _integrand_columns(x, y, dx, dy, length_only: bool = False) -> np.ndarray:
+    """The integrands of :data:`COLUMNS` (or of the length alone) at points of a curve, (m, k)."""
+    ds = np.hypot(dx, dy)
+    if length_only:
+        return ds[:, None]
+    w = x * dy - y * dx
+    cols = [ds, x * ds, y * ds]
+    cols += [x ** a * y ** b * w / (a + b + 2) for a, b in EXPONENTS]
+    return np.stack(cols, axis=-1)
 
 
 #: Most intervals :func:`adaptive_quadrature` evaluates for one integral (each costs 5n + 2
@@ -397,7 +395,6 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13, *, length_only
     >>> round(float(v[0]), 12) == round(math.pi, 12)
     True
     """
-    f = _curve_integrand(curve, length_only)
     t0, t1 = curve.t_start, curve.t_end
     half = (t1 - t0) / 2
     width = 1 if length_only else len(COLUMNS)
@@ -409,8 +406,11 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13, *, length_only
                         t1 - 2 * half * np.sin((math.pi - phi) / 2) ** 2)
 
     def raw(phi):
+        """Parameters, the curve's points there and the integrands (one evaluation)."""
         t = t_at(phi)
-        return t, f(t) * (half * np.sin(phi))[:, None]
+        x, y, dx, dy = curve.evaluate(t)
+        return t, (x, y), _integrand_columns(x, y, dx, dy, length_only) \
+            * (half * np.sin(phi))[:, None]
 
     def next_to(end, sign):
         # The integrand at the first φ whose t differs from the end: where t still rounds
@@ -420,7 +420,7 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13, *, length_only
         base = 0.0 if sign > 0 else math.pi
         for _ in range(64):
             p = np.array([base + sign * phi])
-            t, v = raw(p)
+            t, _, v = raw(p)
             if t[0] != end and np.all(np.isfinite(v)):
                 return v[0]
             phi *= 2
@@ -429,8 +429,7 @@ def curve_integrals_numeric(curve: Curve, rel_tol: float = 1e-13, *, length_only
     edge: dict = {}
 
     def g(phi):
-        t, v = raw(phi)
-        x, y, _, _ = curve.evaluate(t)
+        t, (x, y), v = raw(phi)
         bad = ~(np.isfinite(x) & np.isfinite(y)) & (t != t0) & (t != t1)
         if bad.any():
             raise not_finite_near(curve, float(t[np.argmax(bad)]))
