@@ -690,28 +690,29 @@ class Curve(SegmentKind):
         targets = np.asarray(targets, dtype=float)
         ta = np.asarray(t_from, dtype=float)
         tb = np.asarray(t_to, dtype=float)
-        va, vb = self.evaluate(ta)[coordinate], self.evaluate(tb)[coordinate]
-        rising = vb > va
         lo = np.array(np.broadcast_to(ta, targets.shape), dtype=float)
         hi = np.array(np.broadcast_to(tb, targets.shape), dtype=float)
         if not targets.size:
             return 0.5 * (lo + hi)
         eps = np.finfo(float).eps
         with np.errstate(all="ignore"):
+            # A grid over every row's range, all rows in one evaluation (its ends are the
+            # range's ends): it gives the ends' values and narrows every bracket to one step,
+            # so Newton starts next to its root and takes a few steps, not a dozen (each step
+            # is an evaluation of every row).
+            grid = lo[..., None] + np.linspace(0.0, 1.0, _GRID + 1) * (hi - lo)[..., None]
+            grid[..., -1] = hi
+            point = self.evaluate(grid.reshape(-1))
+            values = point[coordinate].reshape(grid.shape)
+            slopes = point[coordinate + 2].reshape(grid.shape)
+            va, vb = values[..., 0], values[..., -1]
+            rising = vb > va
             # start where the chord between the ends reaches the target (inside the bracket)
             share = np.clip((targets - va) / (vb - va), 0.0, 1.0)
             t = np.where(np.isfinite(share), lo + share * (hi - lo), 0.5 * (lo + hi))
             floor = 1e-8 * np.maximum(np.abs(lo), np.abs(hi))   # for a root at t = 0
             level = eps * np.maximum(np.abs(va), np.abs(vb))     # half an ulp of the ends
-            # Narrow every bracket to one step of a grid over its range, all rows in one
-            # evaluation: Newton then starts next to its root and takes a few steps, not a
-            # dozen (each step is an evaluation of every row).
-            share = np.linspace(0.0, 1.0, _GRID + 1)
-            grid = lo[..., None] + share * (hi - lo)[..., None]
-            point = self.evaluate(grid.reshape(-1))
-            values = point[coordinate].reshape(grid.shape)
-            slopes = point[coordinate + 2].reshape(grid.shape)
-            past = np.where(np.asarray(rising)[..., None], values >= targets[..., None],
+            past = np.where(rising[..., None], values >= targets[..., None],
                             values <= targets[..., None])
             j = np.clip(_GRID + 1 - past.sum(axis=-1), 1, _GRID)[..., None]  # first point past
 
