@@ -518,9 +518,124 @@ def _expand_blocks(first, stop, block: int):
         start = end
 
 
+#: The block path of :func:`find_self_intersection` (outlines whose chords' boxes meet by the
+#: hundred): chords per block, and directions (over half a turn) onto which blocks are projected.
+BLOCK = 8
+DIRECTIONS = 8
+#: The block path is taken when the box index would give more than this many pairs a chord.
+BLOCK_FROM = 64
+
+
+def _block_pairs(vx, vy, n: int, chord_vertex, box, margin: float, chunk: int, budget: int):
+    """Pairs of chords to test on an outline whose chords' boxes meet by the hundred, or ``None``.
+
+    Consecutive chords are grouped in blocks of :data:`BLOCK`; each block is
+    projected onto :data:`DIRECTIONS` directions (its extent on each, a
+    polytope around it). Blocks whose boxes overlap are then tried for a gap of
+    more than ``margin`` on the direction of the line between their centres and
+    the two either side of it: blocks apart on one direction have no chords
+    that come within ``margin`` of each other, so none of their chords meet
+    (a zigzag outline's spikes are thin across, so neighbouring blocks are apart
+    though their boxes overlap). The chords of the blocks not found apart, and
+    of each block with itself, are yielded in pairs (the same box test as
+    everywhere else: a superset of the pairs that meet). ``None`` — take the box
+    index instead — when the blocks' boxes meet too often, or when the pairs
+    left would be more than ``budget`` (the box index's own count), so the worst
+    case costs about what the box index does.
+    """
+    nb = -(-n // BLOCK)
+    fc = np.arange(nb, dtype=np.int64) * BLOCK
+    lc = np.minimum(fc + BLOCK, n) - 1
+    rs, re = chord_vertex(fc), chord_vertex(lc) + 1
+    # The rows of block k are rs[k] … re[k]: reduceat takes rs[k] … rs[k + 1] − 1 (which
+    # ends at re[k], or at re[k] − 1 where the next block starts on the same vertex).
+
+    def extent(v):
+        return (np.minimum(np.minimum.reduceat(v, rs), v[re]),
+                np.maximum(np.maximum.reduceat(v, rs), v[re]))
+
+    bx0, bx1 = extent(vx)
+    by0, by1 = extent(vy)
+    bx0, by0 = bx0 - margin, by0 - margin
+    bx1, by1 = bx1 + margin, by1 + margin
+    count = min(int(_sweep_order(bx0, bx1)[1].sum()), int(_sweep_order(by0, by1)[1].sum()))
+    if count * 4 > budget:
+        return None
+    angle = np.arange(DIRECTIONS) * (math.pi / DIRECTIONS)
+    lo = np.empty((DIRECTIONS, nb))
+    hi = np.empty((DIRECTIONS, nb))
+    for k, (c, s) in enumerate(zip(np.cos(angle), np.sin(angle))):
+        lo[k], hi[k] = extent(vx * c + vy * s)
+    cx, cy = (bx0 + bx1) / 2, (by0 + by1) / 2
+    # Each block's main direction (of its vertices' spread: along a zigzag's spikes), for a
+    # second try of the pairs the polytopes leave: their exact extents across it.
+    rows = re - rs + 1
+    width = int(rows.max())
+    take = np.minimum(rs[:, None] + np.arange(width), re[:, None])     # rows, the last repeated
+    px, py = vx[take], vy[take]
+    px -= px.mean(axis=1, keepdims=True)
+    py -= py.mean(axis=1, keepdims=True)
+    sxx, syy, sxy = (px * px).sum(axis=1), (py * py).sum(axis=1), (px * py).sum(axis=1)
+    main = 0.5 * np.arctan2(2 * sxy, sxx - syy)
+    ux, uy = np.cos(main), np.sin(main)
+    del px, py
+    kept_a, kept_b = [], []
+    for a, b in _box_pairs(bx0, bx1, by0, by1, chunk):
+        theta = np.arctan2(cy[b] - cy[a], cx[b] - cx[a])
+        near = np.rint(theta * (DIRECTIONS / math.pi)).astype(np.int64)
+        live = np.arange(a.size)
+        for shift in (0, 1, -1, 2, -2):
+            k = (near[live] + shift) % DIRECTIONS
+            aa, bb = a[live], b[live]
+            apart = (hi[k, aa] + margin < lo[k, bb]) | (hi[k, bb] + margin < lo[k, aa])
+            live = live[~apart]
+        if live.size:
+            # across the blocks' mean main direction (the second's turned to agree with the first's)
+            aa, bb = a[live], b[live]
+            flip = np.where(ux[aa] * ux[bb] + uy[aa] * uy[bb] < 0, -1.0, 1.0)
+            nx, ny = -(uy[aa] + flip * uy[bb]), ux[aa] + flip * ux[bb]
+            ra, rb = take[aa], take[bb]
+            qa = vx[ra] * nx[:, None] + vy[ra] * ny[:, None]
+            qb = vx[rb] * nx[:, None] + vy[rb] * ny[:, None]
+            # n is not of unit length (|n| ≤ 2): the margin scales with it
+            m = margin * np.sqrt(nx * nx + ny * ny)
+            apart = (qa.max(axis=1) + m < qb.min(axis=1)) | (qb.max(axis=1) + m < qa.min(axis=1))
+            live = live[~apart]
+        kept_a.append(a[live])
+        kept_b.append(b[live])
+    a = np.concatenate(kept_a + [np.arange(nb)])
+    b = np.concatenate(kept_b + [np.arange(nb)])
+    size = lc - fc + 1
+    if int((size[a] * size[b]).sum()) > budget:
+        return None
+    return _chords_of_blocks(a, b, fc, size, box, chunk)
+
+
+def _chords_of_blocks(a, b, fc, size, box, chunk: int):
+    """Every pair of chords, one of block ``a[k]`` and one of block ``b[k]`` (of a block with
+    itself: each pair once), whose boxes overlap; in pieces of about ``chunk`` pairs."""
+    cum = np.cumsum(size[a] * size[b])
+    start = 0
+    while start < a.size:
+        done = int(cum[start - 1]) if start else 0
+        stop = max(start + 1, int(np.searchsorted(cum, done + chunk, side="right")))
+        pa_, pb_ = a[start:stop], b[start:stop]
+        start = stop
+        pair, i = _expand(fc[pa_], fc[pa_] + size[pa_])
+        entry, j = _expand(np.zeros(pair.size, dtype=np.int64), size[pb_][pair])
+        i, j = i[entry], j + fc[pb_][pair[entry]]
+        keep = (pa_[pair[entry]] != pb_[pair[entry]]) | (i < j)
+        i, j = i[keep], j[keep]
+        x0i, x1i, y0i, y1i = box(i)
+        x0j, x1j, y0j, y1j = box(j)
+        near = (x0i <= x1j) & (x0j <= x1i) & (y0i <= y1j) & (y0j <= y1i)
+        if near.any():
+            yield i[near], j[near]
+
+
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
                            chunk: int = 1 << 16, index: Optional[str] = None,
-                           bounds=None) -> Optional[Tuple[int, int, int, int]]:
+                           bounds=None, blocks: Optional[bool] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
     ``chains`` holds each path's points (m + 1, 2); "first" is the smallest
@@ -664,9 +779,20 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
                 if near.any():
                     test(i[near], j[near])
 
+    # Chains of one chord each (a zigzag outline) whose boxes meet by the hundred: blocks of
+    # chords kept apart by a direction across them (_block_pairs), unless that would not pay.
+    pairs = None
+    if (starts.size == n or blocks) and index is None and blocks is not False:
+        count = min(int(_sweep_order(ch.x0, ch.x1)[1].sum()), int(_sweep_order(ch.y0, ch.y1)[1].sum()))
+        if blocks or count > BLOCK_FROM * n:
+            pairs = _block_pairs(vx, vy, n, chord_vertex, box, 4 * slack, chunk,
+                                 np.iinfo(np.int64).max if blocks else count)
+    if pairs is not None:
+        for i, j in pairs:
+            test(i, j)
     # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
     # the other's box, and for each of those the run of the other's chords that its box meets.
-    for ca_, cb_ in _box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index):
+    for ca_, cb_ in (_box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index) if pairs is None else ()):
         apart = ch.next_apart(ca_, cb_)      # consecutive chains whose boxes meet only at their join
         if apart.any():
             ca_, cb_ = ca_[~apart], cb_[~apart]
