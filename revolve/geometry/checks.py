@@ -519,96 +519,169 @@ def _expand_blocks(first, stop, block: int):
 
 
 #: The block path of :func:`find_self_intersection` (outlines whose chords' boxes meet by the
-#: hundred): chords per block, and directions (over half a turn) onto which blocks are projected.
+#: hundred): chords in the finest blocks, blocks of a level in one of the level above, and
+#: directions (over half a turn) onto which every block is projected.
 BLOCK = 8
+FAN = 4
 DIRECTIONS = 8
+#: A level of blocks above is built while the box index would give more than this many pairs a block.
+LEVEL_FROM = 16
 #: The block path is taken when the box index would give more than this many pairs a chord.
 BLOCK_FROM = 64
+
+
+class _Blocks:
+    """Blocks of ``size`` consecutive chords, with what tells two of them apart.
+
+    Per block: its box (padded by ``margin``), its extents on :data:`DIRECTIONS`
+    directions (a polytope around it), its main direction (of its vertices'
+    spread) with its extent across it, and a centre with the radius of a disc
+    about it that holds the block. Coordinates are taken from ``origin``.
+    """
+
+    def __init__(self, vx, vy, n, chord_vertex, size, margin, origin):
+        nb = -(-n // size)
+        self.nb = nb
+        self.fc = np.arange(nb, dtype=np.int64) * size
+        lc = np.minimum(self.fc + size, n) - 1
+        self.size = lc - self.fc + 1
+        rs, re = chord_vertex(self.fc), chord_vertex(lc) + 1
+        # The rows of block k are rs[k] … re[k]: reduceat takes rs[k] … rs[k + 1] − 1 (which
+        # ends at re[k], or at re[k] − 1 where the next block starts on the same vertex).
+
+        def extent(v):
+            return (np.minimum(np.minimum.reduceat(v, rs), v[re]),
+                    np.maximum(np.maximum.reduceat(v, rs), v[re]))
+
+        x0, x1 = extent(vx)
+        y0, y1 = extent(vy)
+        self.x0, self.x1, self.y0, self.y1 = x0 - margin, x1 + margin, y0 - margin, y1 + margin
+        angle = np.arange(DIRECTIONS) * (math.pi / DIRECTIONS)
+        self.lo = np.empty((DIRECTIONS, nb))
+        self.hi = np.empty((DIRECTIONS, nb))
+        for k, (c, s) in enumerate(zip(np.cos(angle), np.sin(angle))):
+            self.lo[k], self.hi[k] = extent(vx * c + vy * s)
+        px, py = vx - origin[0], vy - origin[1]
+        count = np.diff(np.append(rs, vx.size))
+        row_block = np.repeat(np.arange(nb), count)
+        mx = np.add.reduceat(px, rs) / count
+        my = np.add.reduceat(py, rs) / count
+        dx, dy = px - mx[row_block], py - my[row_block]
+        sxx = np.add.reduceat(dx * dx, rs)
+        syy = np.add.reduceat(dy * dy, rs)
+        sxy = np.add.reduceat(dx * dy, rs)
+        main = 0.5 * np.arctan2(2 * sxy, sxx - syy)
+        self.nx, self.ny = -np.sin(main), np.cos(main)            # across the main direction
+        self.a0, self.a1 = extent(px * self.nx[row_block] + py * self.ny[row_block])
+        end = px[re] * self.nx + py[re] * self.ny
+        self.a0, self.a1 = np.minimum(self.a0, end), np.maximum(self.a1, end)
+        self.mx, self.my = mx, my
+        ex, ey = px[re] - mx, py[re] - my
+        self.radius = np.sqrt(np.maximum(np.maximum.reduceat(dx * dx + dy * dy, rs),
+                                         ex * ex + ey * ey))
+        self.margin = margin
+        # Each block's rows (the last repeated to fill: about n in all), for exact extents.
+        self.rows = np.minimum(rs[:, None] + np.arange(int((re - rs).max()) + 1), re[:, None])
+        self.vx, self.vy = vx, vy
+
+    def count(self) -> int:
+        """Pairs of blocks the box index would give (the fewer of the sweeps over x and y)."""
+        return min(int(_sweep_order(self.x0, self.x1)[1].sum()),
+                   int(_sweep_order(self.y0, self.y1)[1].sum()))
+
+    def apart(self, a, b):
+        """Of block pairs (a, b), which are apart by more than the margin on some direction
+        (so that no point of one comes within the margin of a point of the other)."""
+        m = self.margin
+        out = ~((self.x0[a] <= self.x1[b]) & (self.x0[b] <= self.x1[a]) &
+                (self.y0[a] <= self.y1[b]) & (self.y0[b] <= self.y1[a]))
+        # the polytopes, on the directions nearest that of the line between the centres
+        theta = np.arctan2(self.my[b] - self.my[a], self.mx[b] - self.mx[a])
+        near = np.rint(theta * (DIRECTIONS / math.pi)).astype(np.int64)
+        for shift in (0, 1, -1):
+            k = (near + shift) % DIRECTIONS
+            out |= (self.hi[k, a] + m < self.lo[k, b]) | (self.hi[k, b] + m < self.lo[k, a])
+        # across either block's main direction: its own extent there, and the other's within
+        # the other's own extent, moved by (its centre and its radius) × the turn between them
+        for p, q in ((a, b), (b, a)):
+            flip = np.where(self.nx[p] * self.nx[q] + self.ny[p] * self.ny[q] < 0, -1.0, 1.0)
+            dx = self.nx[p] - flip * self.nx[q]
+            dy = self.ny[p] - flip * self.ny[q]
+            shift = self.mx[q] * dx + self.my[q] * dy
+            slack = self.radius[q] * np.sqrt(dx * dx + dy * dy)
+            q0 = np.where(flip > 0, self.a0[q], -self.a1[q]) + shift - slack
+            q1 = np.where(flip > 0, self.a1[q], -self.a0[q]) + shift + slack
+            out |= (self.a1[p] + m < q0) | (q1 + m < self.a0[p])
+        # The pairs left: exact extents of both across their mean main direction (the second's
+        # turned to agree), in pieces of about 2²⁰ rows.
+        live = np.flatnonzero(~out)
+        step = max(1, (1 << 20) // self.rows.shape[1])
+        for k in range(0, live.size, step):
+            piece = live[k:k + step]
+            pa, pb = a[piece], b[piece]
+            flip = np.where(self.nx[pa] * self.nx[pb] + self.ny[pa] * self.ny[pb] < 0, -1.0, 1.0)
+            nx, ny = self.nx[pa] + flip * self.nx[pb], self.ny[pa] + flip * self.ny[pb]
+            ra, rb = self.rows[pa], self.rows[pb]
+            qa = self.vx[ra] * nx[:, None] + self.vy[ra] * ny[:, None]
+            qb = self.vx[rb] * nx[:, None] + self.vy[rb] * ny[:, None]
+            mm = m * np.sqrt(nx * nx + ny * ny)               # |n| is up to 2: the margin with it
+            out[piece] = (qa.max(axis=1) + mm < qb.min(axis=1)) | \
+                (qb.max(axis=1) + mm < qa.min(axis=1))
+        return out
 
 
 def _block_pairs(vx, vy, n: int, chord_vertex, box, margin: float, chunk: int, budget: int):
     """Pairs of chords to test on an outline whose chords' boxes meet by the hundred, or ``None``.
 
-    Consecutive chords are grouped in blocks of :data:`BLOCK`; each block is
-    projected onto :data:`DIRECTIONS` directions (its extent on each, a
-    polytope around it). Blocks whose boxes overlap are then tried for a gap of
-    more than ``margin`` on the direction of the line between their centres and
-    the two either side of it: blocks apart on one direction have no chords
-    that come within ``margin`` of each other, so none of their chords meet
-    (a zigzag outline's spikes are thin across, so neighbouring blocks are apart
-    though their boxes overlap). The chords of the blocks not found apart, and
-    of each block with itself, are yielded in pairs (the same box test as
-    everywhere else: a superset of the pairs that meet). ``None`` — take the box
-    index instead — when the blocks' boxes meet too often, or when the pairs
-    left would be more than ``budget`` (the box index's own count), so the worst
-    case costs about what the box index does.
+    Consecutive chords are grouped in blocks of :data:`BLOCK`, those in blocks
+    of :data:`FAN` blocks, and so on up to a level where the blocks' boxes meet
+    a few times a block (:class:`_Blocks`). There the pairs of blocks whose
+    boxes overlap are tried for a gap of more than ``margin`` on a direction
+    (:meth:`_Blocks.apart`): the polytopes' directions nearest the line between
+    their centres, and across either block's main direction. Blocks apart have
+    no chords that come within ``margin`` of each other, so none of their
+    chords meet; a zigzag outline's spikes are thin across, so only
+    neighbouring blocks are left. The blocks in the pairs left (and each block
+    with itself) are paired a level down and tried again, down to the finest
+    blocks, whose chords are yielded in pairs (the same box test as everywhere
+    else: a superset of the pairs that meet). ``None`` — take the box index
+    instead — when the pairs would be more than ``budget`` (the box index's own
+    count), so the worst case costs about what the box index does.
     """
-    nb = -(-n // BLOCK)
-    fc = np.arange(nb, dtype=np.int64) * BLOCK
-    lc = np.minimum(fc + BLOCK, n) - 1
-    rs, re = chord_vertex(fc), chord_vertex(lc) + 1
-    # The rows of block k are rs[k] … re[k]: reduceat takes rs[k] … rs[k + 1] − 1 (which
-    # ends at re[k], or at re[k] − 1 where the next block starts on the same vertex).
-
-    def extent(v):
-        return (np.minimum(np.minimum.reduceat(v, rs), v[re]),
-                np.maximum(np.maximum.reduceat(v, rs), v[re]))
-
-    bx0, bx1 = extent(vx)
-    by0, by1 = extent(vy)
-    bx0, by0 = bx0 - margin, by0 - margin
-    bx1, by1 = bx1 + margin, by1 + margin
-    count = min(int(_sweep_order(bx0, bx1)[1].sum()), int(_sweep_order(by0, by1)[1].sum()))
-    if count * 4 > budget:
+    origin = ((float(vx.min()) + float(vx.max())) / 2, (float(vy.min()) + float(vy.max())) / 2)
+    levels = [_Blocks(vx, vy, n, chord_vertex, BLOCK, margin, origin)]
+    size = BLOCK
+    while levels[-1].nb > FAN and levels[-1].count() > LEVEL_FROM * levels[-1].nb:
+        size *= FAN
+        levels.append(_Blocks(vx, vy, n, chord_vertex, size, margin, origin))
+    top = levels[-1]
+    if top.count() * 4 > budget:
         return None
-    angle = np.arange(DIRECTIONS) * (math.pi / DIRECTIONS)
-    lo = np.empty((DIRECTIONS, nb))
-    hi = np.empty((DIRECTIONS, nb))
-    for k, (c, s) in enumerate(zip(np.cos(angle), np.sin(angle))):
-        lo[k], hi[k] = extent(vx * c + vy * s)
-    cx, cy = (bx0 + bx1) / 2, (by0 + by1) / 2
-    # Each block's main direction (of its vertices' spread: along a zigzag's spikes), for a
-    # second try of the pairs the polytopes leave: their exact extents across it.
-    rows = re - rs + 1
-    width = int(rows.max())
-    take = np.minimum(rs[:, None] + np.arange(width), re[:, None])     # rows, the last repeated
-    px, py = vx[take], vy[take]
-    px -= px.mean(axis=1, keepdims=True)
-    py -= py.mean(axis=1, keepdims=True)
-    sxx, syy, sxy = (px * px).sum(axis=1), (py * py).sum(axis=1), (px * py).sum(axis=1)
-    main = 0.5 * np.arctan2(2 * sxy, sxx - syy)
-    ux, uy = np.cos(main), np.sin(main)
-    del px, py
     kept_a, kept_b = [], []
-    for a, b in _box_pairs(bx0, bx1, by0, by1, chunk):
-        theta = np.arctan2(cy[b] - cy[a], cx[b] - cx[a])
-        near = np.rint(theta * (DIRECTIONS / math.pi)).astype(np.int64)
-        live = np.arange(a.size)
-        for shift in (0, 1, -1, 2, -2):
-            k = (near[live] + shift) % DIRECTIONS
-            aa, bb = a[live], b[live]
-            apart = (hi[k, aa] + margin < lo[k, bb]) | (hi[k, bb] + margin < lo[k, aa])
-            live = live[~apart]
-        if live.size:
-            # across the blocks' mean main direction (the second's turned to agree with the first's)
-            aa, bb = a[live], b[live]
-            flip = np.where(ux[aa] * ux[bb] + uy[aa] * uy[bb] < 0, -1.0, 1.0)
-            nx, ny = -(uy[aa] + flip * uy[bb]), ux[aa] + flip * ux[bb]
-            ra, rb = take[aa], take[bb]
-            qa = vx[ra] * nx[:, None] + vy[ra] * ny[:, None]
-            qb = vx[rb] * nx[:, None] + vy[rb] * ny[:, None]
-            # n is not of unit length (|n| ≤ 2): the margin scales with it
-            m = margin * np.sqrt(nx * nx + ny * ny)
-            apart = (qa.max(axis=1) + m < qb.min(axis=1)) | (qb.max(axis=1) + m < qa.min(axis=1))
-            live = live[~apart]
-        kept_a.append(a[live])
-        kept_b.append(b[live])
-    a = np.concatenate(kept_a + [np.arange(nb)])
-    b = np.concatenate(kept_b + [np.arange(nb)])
-    size = lc - fc + 1
-    if int((size[a] * size[b]).sum()) > budget:
+    for a, b in _box_pairs(top.x0, top.x1, top.y0, top.y1, chunk):
+        keep = ~top.apart(a, b)
+        kept_a.append(a[keep])
+        kept_b.append(b[keep])
+    a = np.concatenate(kept_a + [np.arange(top.nb)])
+    b = np.concatenate(kept_b + [np.arange(top.nb)])
+    for level in reversed(levels[:-1]):
+        # children: blocks FAN·A … FAN·A + FAN − 1 of the level below
+        pair, ca = _expand(a * FAN, np.minimum(a * FAN + FAN, level.nb))
+        entry, cb = _expand(np.zeros(pair.size, dtype=np.int64),
+                            np.minimum(b[pair] * FAN + FAN, level.nb) - b[pair] * FAN)
+        ca, cb = ca[entry], cb + b[pair[entry]] * FAN
+        same = a[pair[entry]] == b[pair[entry]]
+        ca, cb, same = ca[~same | (ca <= cb)], cb[~same | (ca <= cb)], same[~same | (ca <= cb)]
+        if ca.size * 4 > budget:
+            return None
+        test = ca != cb
+        keep = np.ones(ca.size, dtype=bool)
+        keep[test] = ~level.apart(ca[test], cb[test])
+        a, b = ca[keep], cb[keep]
+    finest = levels[0]
+    if int((finest.size[a] * finest.size[b]).sum()) > budget:
         return None
-    return _chords_of_blocks(a, b, fc, size, box, chunk)
+    return _chords_of_blocks(a, b, finest.fc, finest.size, box, chunk)
 
 
 def _chords_of_blocks(a, b, fc, size, box, chunk: int):
