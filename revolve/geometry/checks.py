@@ -737,10 +737,11 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     that of the chords' boxes in the index, which grows as
     (total length)² / area where the zigzags truly overlap: when the index
     would give more than :data:`BLOCK_FROM` pairs a chord (counted first),
-    blocks of :data:`BLOCK` consecutive chords are paired instead and kept
-    apart by a direction across them (:func:`_block_pairs`; a zigzag's spikes
-    are thin across, so only neighbouring blocks are left, about 10 pairs a
-    chord), unless that would leave more pairs than the index. ``blocks``
+    blocks of consecutive chords, in levels (blocks of blocks), are paired
+    instead and kept apart by a direction across them (:func:`_block_pairs`;
+    a zigzag's spikes are thin across, so only neighbouring blocks are left,
+    level after level: about 10 pairs a chord), unless that would leave more
+    pairs than the index. ``blocks``
     forces that path on (on any outline) or off, for tests. The exact
     orientation test runs vectorised on the candidates, in blocks of about
     ``chunk`` pairs.
