@@ -518,9 +518,197 @@ def _expand_blocks(first, stop, block: int):
         start = end
 
 
+#: The block path of :func:`find_self_intersection` (outlines whose chords' boxes meet by the
+#: hundred): chords in the finest blocks, blocks of a level in one of the level above, and
+#: directions (over half a turn) onto which every block is projected.
+BLOCK = 8
+FAN = 4
+DIRECTIONS = 8
+#: A level of blocks above is built while the box index would give more than this many pairs a block.
+LEVEL_FROM = 16
+#: The block path is taken when the box index would give more than this many pairs a chord.
+BLOCK_FROM = 64
+
+
+class _Blocks:
+    """Blocks of ``size`` consecutive chords, with what tells two of them apart.
+
+    Per block: its box (padded by ``margin``), its extents on :data:`DIRECTIONS`
+    directions (a polytope around it), its main direction (of its vertices'
+    spread) with its extent across it, and a centre with the radius of a disc
+    about it that holds the block. Coordinates are taken from ``origin``.
+    """
+
+    def __init__(self, vx, vy, n, chord_vertex, size, margin, origin):
+        nb = -(-n // size)
+        self.nb = nb
+        self.fc = np.arange(nb, dtype=np.int64) * size
+        lc = np.minimum(self.fc + size, n) - 1
+        self.size = lc - self.fc + 1
+        rs, re = chord_vertex(self.fc), chord_vertex(lc) + 1
+        # The rows of block k are rs[k] … re[k]: reduceat takes rs[k] … rs[k + 1] − 1 (which
+        # ends at re[k], or at re[k] − 1 where the next block starts on the same vertex).
+
+        def extent(v):
+            return (np.minimum(np.minimum.reduceat(v, rs), v[re]),
+                    np.maximum(np.maximum.reduceat(v, rs), v[re]))
+
+        x0, x1 = extent(vx)
+        y0, y1 = extent(vy)
+        self.x0, self.x1, self.y0, self.y1 = x0 - margin, x1 + margin, y0 - margin, y1 + margin
+        angle = np.arange(DIRECTIONS) * (math.pi / DIRECTIONS)
+        self.lo = np.empty((DIRECTIONS, nb))
+        self.hi = np.empty((DIRECTIONS, nb))
+        for k, (c, s) in enumerate(zip(np.cos(angle), np.sin(angle))):
+            self.lo[k], self.hi[k] = extent(vx * c + vy * s)
+        px, py = vx - origin[0], vy - origin[1]
+        count = np.diff(np.append(rs, vx.size))
+        row_block = np.repeat(np.arange(nb), count)
+        mx = np.add.reduceat(px, rs) / count
+        my = np.add.reduceat(py, rs) / count
+        dx, dy = px - mx[row_block], py - my[row_block]
+        sxx = np.add.reduceat(dx * dx, rs)
+        syy = np.add.reduceat(dy * dy, rs)
+        sxy = np.add.reduceat(dx * dy, rs)
+        main = 0.5 * np.arctan2(2 * sxy, sxx - syy)
+        self.nx, self.ny = -np.sin(main), np.cos(main)            # across the main direction
+        self.a0, self.a1 = extent(px * self.nx[row_block] + py * self.ny[row_block])
+        end = px[re] * self.nx + py[re] * self.ny
+        self.a0, self.a1 = np.minimum(self.a0, end), np.maximum(self.a1, end)
+        self.mx, self.my = mx, my
+        ex, ey = px[re] - mx, py[re] - my
+        self.radius = np.sqrt(np.maximum(np.maximum.reduceat(dx * dx + dy * dy, rs),
+                                         ex * ex + ey * ey))
+        self.margin = margin
+        # Each block's rows (the last repeated to fill: about n in all), for exact extents.
+        self.rows = np.minimum(rs[:, None] + np.arange(int((re - rs).max()) + 1), re[:, None])
+        self.vx, self.vy = vx, vy
+
+    def count(self) -> int:
+        """Pairs of blocks the box index would give (the fewer of the sweeps over x and y)."""
+        return min(int(_sweep_order(self.x0, self.x1)[1].sum()),
+                   int(_sweep_order(self.y0, self.y1)[1].sum()))
+
+    def apart(self, a, b):
+        """Of block pairs (a, b), which are apart by more than the margin on some direction
+        (so that no point of one comes within the margin of a point of the other)."""
+        m = self.margin
+        out = ~((self.x0[a] <= self.x1[b]) & (self.x0[b] <= self.x1[a]) &
+                (self.y0[a] <= self.y1[b]) & (self.y0[b] <= self.y1[a]))
+        # the polytopes, on the directions nearest that of the line between the centres
+        theta = np.arctan2(self.my[b] - self.my[a], self.mx[b] - self.mx[a])
+        near = np.rint(theta * (DIRECTIONS / math.pi)).astype(np.int64)
+        for shift in (0, 1, -1):
+            k = (near + shift) % DIRECTIONS
+            out |= (self.hi[k, a] + m < self.lo[k, b]) | (self.hi[k, b] + m < self.lo[k, a])
+        # across either block's main direction: its own extent there, and the other's within
+        # the other's own extent, moved by (its centre and its radius) × the turn between them
+        for p, q in ((a, b), (b, a)):
+            flip = np.where(self.nx[p] * self.nx[q] + self.ny[p] * self.ny[q] < 0, -1.0, 1.0)
+            dx = self.nx[p] - flip * self.nx[q]
+            dy = self.ny[p] - flip * self.ny[q]
+            shift = self.mx[q] * dx + self.my[q] * dy
+            slack = self.radius[q] * np.sqrt(dx * dx + dy * dy)
+            q0 = np.where(flip > 0, self.a0[q], -self.a1[q]) + shift - slack
+            q1 = np.where(flip > 0, self.a1[q], -self.a0[q]) + shift + slack
+            out |= (self.a1[p] + m < q0) | (q1 + m < self.a0[p])
+        # The pairs left: exact extents of both across their mean main direction (the second's
+        # turned to agree), in pieces of about 2²⁰ rows.
+        live = np.flatnonzero(~out)
+        step = max(1, (1 << 20) // self.rows.shape[1])
+        for k in range(0, live.size, step):
+            piece = live[k:k + step]
+            pa, pb = a[piece], b[piece]
+            flip = np.where(self.nx[pa] * self.nx[pb] + self.ny[pa] * self.ny[pb] < 0, -1.0, 1.0)
+            nx, ny = self.nx[pa] + flip * self.nx[pb], self.ny[pa] + flip * self.ny[pb]
+            ra, rb = self.rows[pa], self.rows[pb]
+            qa = self.vx[ra] * nx[:, None] + self.vy[ra] * ny[:, None]
+            qb = self.vx[rb] * nx[:, None] + self.vy[rb] * ny[:, None]
+            mm = m * np.sqrt(nx * nx + ny * ny)               # |n| is up to 2: the margin with it
+            out[piece] = (qa.max(axis=1) + mm < qb.min(axis=1)) | \
+                (qb.max(axis=1) + mm < qa.min(axis=1))
+        return out
+
+
+def _block_pairs(vx, vy, n: int, chord_vertex, box, margin: float, chunk: int, budget: int):
+    """Pairs of chords to test on an outline whose chords' boxes meet by the hundred, or ``None``.
+
+    Consecutive chords are grouped in blocks of :data:`BLOCK`, those in blocks
+    of :data:`FAN` blocks, and so on up to a level where the blocks' boxes meet
+    a few times a block (:class:`_Blocks`). There the pairs of blocks whose
+    boxes overlap are tried for a gap of more than ``margin`` on a direction
+    (:meth:`_Blocks.apart`): the polytopes' directions nearest the line between
+    their centres, and across either block's main direction. Blocks apart have
+    no chords that come within ``margin`` of each other, so none of their
+    chords meet; a zigzag outline's spikes are thin across, so only
+    neighbouring blocks are left. The blocks in the pairs left (and each block
+    with itself) are paired a level down and tried again, down to the finest
+    blocks, whose chords are yielded in pairs (the same box test as everywhere
+    else: a superset of the pairs that meet). ``None`` — take the box index
+    instead — when the pairs would be more than ``budget`` (the box index's own
+    count), so the worst case costs about what the box index does.
+    """
+    origin = ((float(vx.min()) + float(vx.max())) / 2, (float(vy.min()) + float(vy.max())) / 2)
+    levels = [_Blocks(vx, vy, n, chord_vertex, BLOCK, margin, origin)]
+    size = BLOCK
+    while levels[-1].nb > FAN and levels[-1].count() > LEVEL_FROM * levels[-1].nb:
+        size *= FAN
+        levels.append(_Blocks(vx, vy, n, chord_vertex, size, margin, origin))
+    top = levels[-1]
+    if top.count() * 4 > budget:
+        return None
+    kept_a, kept_b = [], []
+    for a, b in _box_pairs(top.x0, top.x1, top.y0, top.y1, chunk):
+        keep = ~top.apart(a, b)
+        kept_a.append(a[keep])
+        kept_b.append(b[keep])
+    a = np.concatenate(kept_a + [np.arange(top.nb)])
+    b = np.concatenate(kept_b + [np.arange(top.nb)])
+    for level in reversed(levels[:-1]):
+        # children: blocks FAN·A … FAN·A + FAN − 1 of the level below
+        pair, ca = _expand(a * FAN, np.minimum(a * FAN + FAN, level.nb))
+        entry, cb = _expand(np.zeros(pair.size, dtype=np.int64),
+                            np.minimum(b[pair] * FAN + FAN, level.nb) - b[pair] * FAN)
+        ca, cb = ca[entry], cb + b[pair[entry]] * FAN
+        same = a[pair[entry]] == b[pair[entry]]
+        ca, cb, same = ca[~same | (ca <= cb)], cb[~same | (ca <= cb)], same[~same | (ca <= cb)]
+        if ca.size * 4 > budget:
+            return None
+        test = ca != cb
+        keep = np.ones(ca.size, dtype=bool)
+        keep[test] = ~level.apart(ca[test], cb[test])
+        a, b = ca[keep], cb[keep]
+    finest = levels[0]
+    if int((finest.size[a] * finest.size[b]).sum()) > budget:
+        return None
+    return _chords_of_blocks(a, b, finest.fc, finest.size, box, chunk)
+
+
+def _chords_of_blocks(a, b, fc, size, box, chunk: int):
+    """Every pair of chords, one of block ``a[k]`` and one of block ``b[k]`` (of a block with
+    itself: each pair once), whose boxes overlap; in pieces of about ``chunk`` pairs."""
+    cum = np.cumsum(size[a] * size[b])
+    start = 0
+    while start < a.size:
+        done = int(cum[start - 1]) if start else 0
+        stop = max(start + 1, int(np.searchsorted(cum, done + chunk, side="right")))
+        pa_, pb_ = a[start:stop], b[start:stop]
+        start = stop
+        pair, i = _expand(fc[pa_], fc[pa_] + size[pa_])
+        entry, j = _expand(np.zeros(pair.size, dtype=np.int64), size[pb_][pair])
+        i, j = i[entry], j + fc[pb_][pair[entry]]
+        keep = (pa_[pair[entry]] != pb_[pair[entry]]) | (i < j)
+        i, j = i[keep], j[keep]
+        x0i, x1i, y0i, y1i = box(i)
+        x0j, x1j, y0j, y1j = box(j)
+        near = (x0i <= x1j) & (x0j <= x1i) & (y0i <= y1j) & (y0j <= y1i)
+        if near.any():
+            yield i[near], j[near]
+
+
 def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool], tol: float,
                            chunk: int = 1 << 16, index: Optional[str] = None,
-                           bounds=None) -> Optional[Tuple[int, int, int, int]]:
+                           bounds=None, blocks: Optional[bool] = None) -> Optional[Tuple[int, int, int, int]]:
     """First pair of non-adjacent chords that meet, as (path_a, chord_a, path_b, chord_b).
 
     ``chains`` holds each path's points (m + 1, 2); "first" is the smallest
@@ -547,7 +735,14 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     the outline turns back, noise included). On a noisy outline whose zigzags
     turn at almost every vertex the chains are single chords and the work is
     that of the chords' boxes in the index, which grows as
-    (total length)² / area where the zigzags truly overlap. The exact
+    (total length)² / area where the zigzags truly overlap: when the index
+    would give more than :data:`BLOCK_FROM` pairs a chord (counted first),
+    blocks of consecutive chords, in levels (blocks of blocks), are paired
+    instead and kept apart by a direction across them (:func:`_block_pairs`;
+    a zigzag's spikes are thin across, so only neighbouring blocks are left,
+    level after level: about 10 pairs a chord), unless that would leave more
+    pairs than the index. ``blocks``
+    forces that path on (on any outline) or off, for tests. The exact
     orientation test runs vectorised on the candidates, in blocks of about
     ``chunk`` pairs.
 
@@ -664,9 +859,20 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
                 if near.any():
                     test(i[near], j[near])
 
+    # Chains of one chord each (a zigzag outline) whose boxes meet by the hundred: blocks of
+    # chords kept apart by a direction across them (_block_pairs), unless that would not pay.
+    pairs = None
+    if (starts.size == n or blocks) and index is None and blocks is not False:
+        count = min(int(_sweep_order(ch.x0, ch.x1)[1].sum()), int(_sweep_order(ch.y0, ch.y1)[1].sum()))
+        if blocks or count > BLOCK_FROM * n:
+            pairs = _block_pairs(vx, vy, n, chord_vertex, box, 4 * slack, chunk,
+                                 np.iinfo(np.int64).max if blocks else count)
+    if pairs is not None:
+        for i, j in pairs:
+            test(i, j)
     # Across chains: overlapping chain boxes; then the chords of the shorter chain that meet
     # the other's box, and for each of those the run of the other's chords that its box meets.
-    for ca_, cb_ in _box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index):
+    for ca_, cb_ in (_box_pairs(ch.x0, ch.x1, ch.y0, ch.y1, chunk, index) if pairs is None else ()):
         apart = ch.next_apart(ca_, cb_)      # consecutive chains whose boxes meet only at their join
         if apart.any():
             ca_, cb_ = ca_[~apart], cb_[~apart]

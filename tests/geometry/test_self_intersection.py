@@ -66,17 +66,23 @@ def brute_force_first_meeting(paths, closed):
     return min(pairs)
 
 
-def run_finder(paths, closed, scale_exponent, few_pairs, chunk):
+def run_finder(paths, closed, scale_exponent, few_pairs, chunk, block=0, deep=False):
+    """The finder; ``block`` > 0 forces the block path with blocks of that many chords
+    (``deep``: with every level of blocks of two there can be)."""
     scale = 2.0 ** scale_exponent
     chords = [np.asarray(p, dtype=float).reshape(-1, 2) * scale for p in paths]
     everything = np.concatenate(chords)
     size = float(np.hypot(*(everything.max(axis=0) - everything.min(axis=0)))) or scale
-    saved = checks.FEW_PAIRS
+    saved = checks.FEW_PAIRS, checks.BLOCK, checks.FAN, checks.LEVEL_FROM
     checks.FEW_PAIRS = few_pairs          # 0: every pair of chains through the binary searches
+    checks.BLOCK = block or checks.BLOCK
+    if deep:
+        checks.FAN, checks.LEVEL_FROM = 2, -1
     try:
-        return find_self_intersection(chords, closed, 1e-9 * size, chunk=chunk)
+        return find_self_intersection(chords, closed, 1e-9 * size, chunk=chunk,
+                                      blocks=True if block else None)
     finally:
-        checks.FEW_PAIRS = saved
+        checks.FEW_PAIRS, checks.BLOCK, checks.FAN, checks.LEVEL_FROM = saved
 
 
 point = st.tuples(st.integers(0, 6), st.integers(0, 6))
@@ -118,6 +124,25 @@ def polyline(draw):
 def test_finder_agrees_with_brute_force_all_pairs(paths, scale_exponent, few_pairs, chunk):
     expected = brute_force_first_meeting([p for p, _ in paths], [c for _, c in paths])
     got = run_finder([p for p, _ in paths], [c for _, c in paths], scale_exponent, few_pairs, chunk)
+    assert got == expected
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(polyline(), min_size=1, max_size=3), st.integers(-3, 3), st.sampled_from([3, 500_000]),
+       st.sampled_from([1, 2, 3, 8]), st.booleans())
+@example([([(0, 0), (0, 2), (0, 1), (0, 3)], False)], 0, 500_000, 1, True)   # vertical back-and-forth
+@example([([(0, 0), (4, 0), (4, 1), (2, 0), (1, 0)], False)], 0, 3, 2, False)   # collinear overlap
+@example([([(0, 0), (4, 0), (4, 1), (2, 1), (2, 0)], False)], 0, 500_000, 2, True)   # end on a middle
+@example([([(0, 0), (1, 1), (1, 1), (1, 1), (0, 0)], True)], -3, 3, 1, True)   # repeated points
+@example([([(6, 6), (6, 5), (6, 4)], False), ([(0, 0), (2, 0), (2, 0), (2, 0), (1, 0)], False)],
+         0, 500_000, 3, False)                                            # blocks across two paths
+def test_block_path_agrees_with_brute_force_all_pairs(paths, scale_exponent, chunk, block, deep):
+    # The block path (blocks of `block` chords, kept apart by directions across them; `deep`:
+    # in every level of blocks of two blocks there can be) forced on every outline in place of
+    # the chains' box index: the same first pair as the brute force.
+    expected = brute_force_first_meeting([p for p, _ in paths], [c for _, c in paths])
+    got = run_finder([p for p, _ in paths], [c for _, c in paths], scale_exponent, 16, chunk, block,
+                     deep)
     assert got == expected
 
 
