@@ -228,11 +228,10 @@ def run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], row
     run holds only the small rows of the table or the CSV. The exit code: 2
     when a part was refused, 1 when a cross-check disagrees, else 0.
     """
-    from revolve.cli.tables import csv_text
     from revolve.errors import one_line
     from revolve.jobs import batch
     from revolve.jobs.results import CAUTIONS
-    from revolve.render.output import write_outputs
+    from revolve.render.output import rows_csv_text, write_outputs
 
     pool = {} if serial_below is None else {"serial_below": serial_below}
     maker = RowMaker(row, json=as_json, table=not as_json, csv=csv_path is not None)
@@ -257,7 +256,7 @@ def run_batch(paths, left_out, task, as_json: bool, csv_path: Optional[str], row
                 cells.append(b.cells if r.ok else [r.file, f"error: {r.error}"])
                 any_mass = any_mass or (r.ok and b.has_mass)
     if csv_path is not None:
-        write_outputs({csv_path: (csv_text(csv_rows, BATCH_CSV_COLUMNS), "--csv")}, force=force)
+        write_outputs({csv_path: (rows_csv_text(csv_rows, BATCH_CSV_COLUMNS), "--csv")}, force=force)
     not_profiles = [f"left out {other}: not a profile (no [[loop]] or [[chain]])"
                     for other in left_out]
     if as_json:

@@ -129,6 +129,35 @@ def _csv_cell(value: Any) -> str:
     return str(value)
 
 
+def rows_csv_text(rows, columns=None) -> str:
+    """Plain rows (dicts) as CSV: for rows that carry their own units, such as ``revolve
+    measure`` over many files (each part in its own drawing's units, a unit column beside
+    each figure). Columns are ``columns`` if given, else every key in order of first
+    appearance; cells as in :func:`csv_text` (every digit; None and NaN empty).
+
+    >>> print(rows_csv_text([{"a": 1, "b": "x, y"}, {"a": float("nan"), "c": True}]), end="")
+    a,b,c
+    1,"x, y",
+    ,,true
+    >>> rows_csv_text([])
+    ''
+    """
+    import csv
+    import io
+
+    rows = list(rows)
+    if columns is None:
+        columns = list(dict.fromkeys(str(k) for row in rows for k in row))
+    if not columns:
+        return ""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\n")
+    writer.writerow(columns)
+    for row in rows:
+        writer.writerow([_csv_cell(row.get(c)) for c in columns])
+    return buffer.getvalue()
+
+
 def csv_text(r: Result, key: Optional[str] = None) -> str:
     """One table of ``r`` (``key``, else the first table of rows) as CSV, every digit kept."""
     import csv
