@@ -245,3 +245,22 @@ def parse_percent(text: str, low: float = 0.0, high: float = 100.0) -> float:
     if not (low <= v <= high):
         raise RevolveError(f"{quoted(str(text).strip())} is not a percentage from {low:g} to {high:g}")
     return v
+
+
+def checked_number(value, place: str, *, zero: bool = False) -> float:
+    """A number given as a number (not text, not a bool): finite and positive, or ≥ 0 with
+    ``zero``; otherwise a :class:`~revolve.errors.RevolveError` naming ``place``.
+
+    >>> checked_number(2, "feed"), checked_number(0, "scrap", zero=True)
+    (2.0, 0.0)
+    >>> checked_number(True, "feed")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: feed: must be a positive number, got True
+    """
+    ok = (not isinstance(value, bool) and isinstance(value, (int, float))
+          and math.isfinite(value) and (value >= 0 if zero else value > 0))
+    if not ok:
+        raise RevolveError(f"must be a {'non-negative' if zero else 'positive'} number, "
+                           f"got {value!r}", place=place)
+    return float(value)

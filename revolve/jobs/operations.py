@@ -48,6 +48,7 @@ from functools import lru_cache
 from typing import Any, Dict, Mapping, Optional, Tuple
 
 from revolve.errors import FormatError, RevolveError
+from revolve.inputs import checked_number
 
 #: The operations in the order they are done.
 OPERATIONS = ("face", "rough turn", "finish turn", "centre drill", "drill", "bore", "groove",
@@ -78,13 +79,6 @@ CAUTIONS = (
 )
 
 
-def _positive(value: Any, what: str, *, zero: bool = False) -> float:
-    ok = (not isinstance(value, bool) and isinstance(value, (int, float))
-          and math.isfinite(value) and (value >= 0 if zero else value > 0))
-    if not ok:
-        raise RevolveError(f"must be a {'non-negative' if zero else 'positive'} number, "
-                           f"got {value!r}", place=what)
-    return float(value)
 
 
 # --------------------------------------------------------------------------- data
@@ -122,10 +116,10 @@ class OperationData:
     depth_of_cut: Optional[float] = None
 
     def __post_init__(self):
-        object.__setattr__(self, "cutting_speed", _positive(self.cutting_speed, "cutting speed vc"))
-        object.__setattr__(self, "feed", _positive(self.feed, "feed f"))
+        object.__setattr__(self, "cutting_speed", checked_number(self.cutting_speed, "cutting speed vc"))
+        object.__setattr__(self, "feed", checked_number(self.feed, "feed f"))
         if self.depth_of_cut is not None:
-            object.__setattr__(self, "depth_of_cut", _positive(self.depth_of_cut, "depth of cut ap"))
+            object.__setattr__(self, "depth_of_cut", checked_number(self.depth_of_cut, "depth of cut ap"))
 
     @classmethod
     def from_metric(cls, vc_m_per_min: float, f_mm_per_rev: float,
@@ -191,7 +185,7 @@ class Rules:
 
     def __post_init__(self):
         for key in _RULE_KEYS:
-            object.__setattr__(self, key, _positive(getattr(self, key), key.replace("_", " ")))
+            object.__setattr__(self, key, checked_number(getattr(self, key), key.replace("_", " ")))
         if not self.drill_point_angle < math.pi:
             raise RevolveError("the drill point angle must be below 180°", place="rules")
         if self.largest_drill <= self.min_boring_bar_diameter:
@@ -232,9 +226,9 @@ def load_rules(system: str = "metric") -> Rules:
         if system == "inch" and "inch" in row:
             from revolve.units import factor
 
-            values[key] = _positive(row["inch"], f"rules.{key}.inch") * factor("in", "length")
+            values[key] = checked_number(row["inch"], f"rules.{key}.inch") * factor("in", "length")
         else:
-            values[key] = _positive(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
+            values[key] = checked_number(row.get("value"), f"rules.{key}") * _RULE_UNITS[row["unit"]]
         sources[key] = row["source"]
     return Rules(**values, sources=sources)
 
@@ -435,8 +429,8 @@ class OuterStep:
     length: float
 
     def __post_init__(self):
-        _positive(self.diameter, "outer step diameter")
-        _positive(self.length, "outer step length")
+        checked_number(self.diameter, "outer step diameter")
+        checked_number(self.length, "outer step length")
 
 
 @dataclass(frozen=True)
@@ -452,9 +446,9 @@ class Grooves:
         if isinstance(self.count, bool) or not isinstance(self.count, int) or self.count < 0:
             raise RevolveError(f"must be a whole number of zero or more, got {self.count!r}",
                                place="groove count")
-        _positive(self.width, "groove width")
-        _positive(self.depth, "groove depth")
-        _positive(self.diameter, "groove diameter")
+        checked_number(self.width, "groove width")
+        checked_number(self.depth, "groove depth")
+        checked_number(self.diameter, "groove diameter")
         if 2 * self.depth >= self.diameter:
             raise RevolveError("the groove is deeper than the radius it is cut in",
                                place="groove depth")
@@ -496,8 +490,8 @@ class Features:
         object.__setattr__(self, "outer_steps", tuple(self.outer_steps))
         if not self.outer_steps:
             raise RevolveError("a turned part needs at least one outer diameter", place="features")
-        _positive(self.bore_diameter, "bore diameter", zero=True)
-        _positive(self.bore_depth, "bore depth", zero=True)
+        checked_number(self.bore_diameter, "bore diameter", zero=True)
+        checked_number(self.bore_depth, "bore depth", zero=True)
         if (self.bore_diameter > 0) != (self.bore_depth > 0):
             raise RevolveError("give both the bore diameter and its depth, or neither",
                                place="bore")
@@ -508,7 +502,7 @@ class Features:
         if self.bore_depth > self.length * (1 + _SLACK):
             raise RevolveError("the bore is deeper than the part is long", place="bore depth")
         if self.part_off_diameter is not None:
-            _positive(self.part_off_diameter, "part-off diameter")
+            checked_number(self.part_off_diameter, "part-off diameter")
 
     @property
     def length(self) -> float:
@@ -701,14 +695,14 @@ def plan_operations(features: Features, stock_diameter: float,
     missing = [op for op in OPERATIONS if op not in data]
     if missing:
         raise RevolveError(f"no cutting data for {', '.join(missing)}", place="cutting data")
-    stock = _positive(stock_diameter, "stock diameter")
-    stock_bore = _positive(stock_bore, "stock bore", zero=True)
+    stock = checked_number(stock_diameter, "stock diameter")
+    stock_bore = checked_number(stock_bore, "stock bore", zero=True)
     if stock_bore > 0 and (features.bore_diameter < stock_bore * (1 - _SLACK)
                            or not features.through_bore):
         raise RevolveError(f"the stock's bore ⌀{_mm(stock_bore, unit)} is larger than the part's bore "
                            f"or the part has no through bore", place="stock bore")
     if speed_limit is not None:
-        speed_limit = _positive(speed_limit, "speed limit")
+        speed_limit = checked_number(speed_limit, "speed limit")
     largest = max(s.diameter for s in features.outer_steps)
     if stock < largest * (1 - _SLACK):
         raise RevolveError(f"the stock ({_mm(stock, unit)}) is smaller than the part ({_mm(largest, unit)})",
@@ -726,7 +720,7 @@ def plan_operations(features: Features, stock_diameter: float,
     # face the bar end
     face = data["face"]
     n = spindle_speed(face.cutting_speed, stock, limit)
-    facings = max(1, equal_passes(_positive(facing_allowance, "facing allowance", zero=True),
+    facings = max(1, equal_passes(checked_number(facing_allowance, "facing allowance", zero=True),
                                   face.depth_of_cut, "face"))
     ops.append(Operation("face", facings * radial_pass_time(stock / 2, stock_bore / 2,
                                                             face.cutting_speed, face.feed, limit),
@@ -846,7 +840,7 @@ def warnings(features: Features, stock_diameter: float, data: Mapping[str, Opera
     """
     rules = rules or load_rules()
     out = []
-    length = features.length if overhang is None else _positive(overhang, "overhang")
+    length = features.length if overhang is None else checked_number(overhang, "overhang")
     thinnest = min(s.diameter for s in features.outer_steps)
     ratio = length / thinnest
     tag = "(rule of thumb, common practice, no source)"
@@ -1004,12 +998,12 @@ def price_batch(cycle_time: float, quantity: int, machine_rate: float, *,
     if isinstance(quantity, bool) or not isinstance(quantity, int) or quantity < 1:
         raise RevolveError(f"must be a whole number of 1 or more, got {quantity!r}",
                            place="quantity")
-    cycle = _positive(cycle_time, "cycle time", zero=True)
-    rate = _positive(machine_rate, "machine rate", zero=True)
-    setup = _positive(setup_time, "set-up time", zero=True)
-    scrap = _positive(scrap_percent, "scrap allowance", zero=True)
-    overhead_p = _positive(overhead_percent, "overhead", zero=True)
-    margin_p = _positive(margin_percent, "margin", zero=True)
+    cycle = checked_number(cycle_time, "cycle time", zero=True)
+    rate = checked_number(machine_rate, "machine rate", zero=True)
+    setup = checked_number(setup_time, "set-up time", zero=True)
+    scrap = checked_number(scrap_percent, "scrap allowance", zero=True)
+    overhead_p = checked_number(overhead_percent, "overhead", zero=True)
+    margin_p = checked_number(margin_percent, "margin", zero=True)
     if margin_p >= 100:
         raise RevolveError(f"must be from 0 up to (not including) 100 %, got {margin_p:g}",
                            place="margin")
@@ -1027,12 +1021,12 @@ def price_batch(cycle_time: float, quantity: int, machine_rate: float, *,
                                place="parts per bar")
         bars = math.ceil(started / parts_per_bar)
         if bar_price is not None:
-            material = bars * _positive(bar_price, "bar price", zero=True)
+            material = bars * checked_number(bar_price, "bar price", zero=True)
     if material_per_part is not None:
         if bar_price is not None:
             raise RevolveError("give a bar price or a material price per part, not both",
                                place="material")
-        material = started * _positive(material_per_part, "material per part", zero=True)
+        material = started * checked_number(material_per_part, "material per part", zero=True)
     if bar_price is None and material_per_part is None:
         notes.append("no material price given: the cost is machine time only")
     machine = rate * (setup + started * cycle) / 3600.0

@@ -39,6 +39,7 @@ from dataclasses import dataclass, field
 from typing import Any, Dict, Iterable, Mapping, Optional, Sequence, Tuple
 
 from revolve.errors import RevolveError
+from revolve.inputs import checked_number
 
 #: The rules :func:`choose_packs` knows.
 RULES = ("cheapest", "fewest", "least left over")
@@ -62,12 +63,8 @@ CAUTIONS = (
 
 
 def _number(value, what: str, *, zero: bool = True) -> float:
-    ok = (not isinstance(value, bool) and isinstance(value, (int, float))
-          and math.isfinite(value) and (value >= 0 if zero else value > 0))
-    if not ok:
-        raise RevolveError(f"must be a {'non-negative' if zero else 'positive'} number, "
-                           f"got {value!r}", place=what)
-    return float(value)
+    """:func:`revolve.inputs.checked_number`, where zero is allowed unless said otherwise."""
+    return checked_number(value, what, zero=zero)
 
 
 def _litres(v: float) -> str:
