@@ -94,6 +94,7 @@ import numpy as np
 
 from revolve.errors import RevolveError
 from revolve.geometry.checks import PreparedProfile
+from revolve.geometry.clipping import _loop_segments
 from revolve.geometry.quadrature import gauss_legendre
 
 PI = math.pi
@@ -213,41 +214,34 @@ def tilted_pieces(prep: PreparedProfile) -> TiltedPieces:
     (4, np.True_, (0.0, 4.0, 1.0))
     """
     segments, seg_rows, pa, pb, fac, straight = [], [], [], [], [], []
-    factors = prep.loop_factors
-    k = 0
-    for path, closed in zip(prep.paths, prep.closed):
-        if not closed:
-            continue
-        f = float(factors[k])
-        k += 1
-        for s in path:
-            index = len(segments)
-            segments.append(s)
-            p0, p1 = (float(v) for v in s.parameter_range())
-            cuts = [np.array([p0, p1])]
-            for coordinate in (0, 1):
-                cuts.append(np.asarray(s.turning_parameters(coordinate), dtype=float))
-            edges = int(s.edge_count())
-            if edges > 1:
-                cuts.append(np.linspace(p0, p1, edges + 1))
-            c = np.unique(np.concatenate(cuts))
-            c = c[(c >= min(p0, p1)) & (c <= max(p0, p1))]
-            if p1 < p0:
-                c = c[::-1]
-            line = s.washer_degree() == 1
-            if line:
-                # confirm z and r are linear in the parameter on each edge (a third-point check)
-                t = c[:-1] + (c[1:] - c[:-1]) / 3.0
-                ends = np.asarray(s.points_at(np.concatenate([c[:-1], c[1:]])), dtype=float)
-                mid = np.asarray(s.points_at(t), dtype=float)
-                n = c.size - 1
-                lin = ends[:n] + (ends[n:] - ends[:n]) / 3.0
-                line = bool(np.all(np.abs(mid - lin) <= 1e-12 * max(prep.size, 1e-300)))
-            seg_rows.append(np.full(c.size - 1, index))
-            pa.append(c[:-1])
-            pb.append(c[1:])
-            fac.append(np.full(c.size - 1, f))
-            straight.append(np.full(c.size - 1, line))
+    for s, f in _loop_segments(prep, prep.loop_factors):
+        index = len(segments)
+        segments.append(s)
+        p0, p1 = (float(v) for v in s.parameter_range())
+        cuts = [np.array([p0, p1])]
+        for coordinate in (0, 1):
+            cuts.append(np.asarray(s.turning_parameters(coordinate), dtype=float))
+        edges = int(s.edge_count())
+        if edges > 1:
+            cuts.append(np.linspace(p0, p1, edges + 1))
+        c = np.unique(np.concatenate(cuts))
+        c = c[(c >= min(p0, p1)) & (c <= max(p0, p1))]
+        if p1 < p0:
+            c = c[::-1]
+        line = s.washer_degree() == 1
+        if line:
+            # confirm z and r are linear in the parameter on each edge (a third-point check)
+            t = c[:-1] + (c[1:] - c[:-1]) / 3.0
+            ends = np.asarray(s.points_at(np.concatenate([c[:-1], c[1:]])), dtype=float)
+            mid = np.asarray(s.points_at(t), dtype=float)
+            n = c.size - 1
+            lin = ends[:n] + (ends[n:] - ends[:n]) / 3.0
+            line = bool(np.all(np.abs(mid - lin) <= 1e-12 * max(prep.size, 1e-300)))
+        seg_rows.append(np.full(c.size - 1, index))
+        pa.append(c[:-1])
+        pb.append(c[1:])
+        fac.append(np.full(c.size - 1, f))
+        straight.append(np.full(c.size - 1, line))
     if not segments:
         raise RevolveError("the profile has no closed loop to hold liquid")
     pc = TiltedPieces(tuple(segments), np.concatenate(seg_rows), np.concatenate(pa),
