@@ -481,16 +481,12 @@ DEFAULT_COUNT = 10
 #: Largest relative difference allowed between the capacity and its cross-check.
 DEFAULT_TOLERANCE = 1e-9
 #: The library's names of the settings (the command line passes its option names instead).
-LIBRARY_NAMES = {"orientation": "orientation", "axis": "axis", "step": "step", "count": "count",
-                 "at": "at", "volumes": "volumes", "percent": "percent",
-                 "level_unit": "level_unit", "volume_unit": "volume_unit",
-                 "area_unit": "area_unit", "units": "units", "tolerance": "tolerance",
-                 "tilt": "tilt", "gauge_point": "gauge_point",
-                 "reference_height": "reference_height", "ullage": "ullage",
-                 "datum_offset": "datum_offset", "level_format": "level_format",
-                 "deadwood": "deadwood", "shell_temperature": "shell_temperature",
-                 "base_temperature": "base_temperature", "shell_material": "shell_material",
-                 "expansion": "expansion", "uncertainty": "uncertainty"}
+LIBRARY_NAMES = {key: key for key in ("orientation", "axis", "step", "count", "at", "volumes",
+                                      "percent", "level_unit", "volume_unit", "area_unit", "units",
+                                      "tolerance", "tilt", "gauge_point", "reference_height",
+                                      "ullage", "datum_offset", "level_format", "deadwood",
+                                      "shell_temperature", "base_temperature", "shell_material",
+                                      "expansion", "uncertainty")}
 #: How levels may be written: "auto" is feet-inches for in and ft level units, else decimal.
 LEVEL_FORMATS = ("auto", "decimal", "feet-inches")
 

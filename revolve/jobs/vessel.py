@@ -728,13 +728,11 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
 #: Largest relative difference allowed between the two computations.
 DEFAULT_TOLERANCE = 1e-9
 #: The library's names of the settings (the command line passes its option names instead).
-LIBRARY_NAMES = {"diameter": "diameter", "length": "length", "head": "head",
-                 "head_1": "head_1", "head_2": "head_2", "units": "units",
-                 "dimensions": "dimensions", "thickness": "thickness", "material": "material",
-                 "density": "density", "liquid": "liquid", "liquid_density": "liquid_density",
-                 "orientation": "orientation", "length_unit": "length_unit",
-                 "volume_unit": "volume_unit", "area_unit": "area_unit",
-                 "mass_unit": "mass_unit", "tolerance": "tolerance", "name": "name"}
+LIBRARY_NAMES = {key: key for key in ("diameter", "length", "head", "head_1", "head_2", "units",
+                                      "dimensions", "thickness", "material", "density", "liquid",
+                                      "liquid_density", "orientation", "length_unit",
+                                      "volume_unit", "area_unit", "mass_unit", "tolerance",
+                                      "name")}
 _HEAD_HELP = ("flat, hemispherical, ellipsoidal, torispherical, torispherical-10, "
               "torispherical-80, conical:angle=A")
 
