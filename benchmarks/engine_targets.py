@@ -285,7 +285,7 @@ def run_targets(args, big, parts, work):
     # with a bare start-up, byte code compiled once; median of the pairs' ratios).
     from startup_benchmark import COMMANDS, paired_ratios
 
-    chosen = {k: v for k, v in COMMANDS.items() if "--exact" not in v}
+    chosen = {k: v for k, v in COMMANDS.items() if "comparison" not in k}
     ratios, _ = paired_ratios(chosen, {"after": ROOT}, max(rep, 5))
     for name in chosen:
         wall, ratio, cpu = ratios[name]["after"]

@@ -167,3 +167,45 @@ def test_the_command_line_runs_blas_on_one_thread_unless_told(tmp_path):
     loaded = subprocess.run([sys.executable, "-c", "import numpy\n" + code], env=env,
                             capture_output=True, text=True, check=True, cwd=tmp_path)
     assert loaded.stdout.strip() == "-,-"
+
+
+def test_the_program_ends_without_a_collection_pass_and_main_leaves_the_collector_alone(tmp_path):
+    """The ``revolve`` script and ``python -m revolve`` run ``cli.app.run``, which freezes the
+    collector's objects as the process ends (shutdown then skips a cycle search over them, see
+    ``run``); calling ``main`` in a process of one's own (the tests, a notebook) freezes
+    nothing. Checked with ``gc.get_freeze_count`` in an exit handler, which runs after both."""
+    import tomllib
+
+    scripts = tomllib.loads((ROOT / "pyproject.toml").read_text())["project"]["scripts"]
+    assert scripts == {"revolve": "revolve.cli.app:run"}
+    assert "run()" in (ROOT / "revolve" / "__main__.py").read_text()
+    vessel = ["vessel", "--diameter", "1000", "--length", "2000", "--head", "flat"]
+    watch = ("import atexit, gc, sys\n"
+             "atexit.register(lambda: print('FROZEN', gc.get_freeze_count() > 0, file=sys.stderr))\n"
+             "from revolve.cli import app\n")
+    for call, frozen in ((f"sys.argv[1:] = {vessel!r}; app.run()", True),
+                         (f"app.main({vessel!r})", False)):
+        r = subprocess.run([sys.executable, "-c", watch + call], capture_output=True, text=True,
+                           cwd=tmp_path)
+        assert r.returncode == 0 and f"FROZEN {frozen}" in r.stderr, (call, r.stderr[-2000:])
+
+
+def test_records_holding_arrays_compare_by_identity():
+    """A dataclass that holds numpy arrays has ``eq=False``: the generated field-wise ``==``
+    would raise ("truth value of an array is ambiguous") and its hash would fail. (Project
+    rule, as numpy's own arrays refuse ``bool(a == b)``; the scan reads every module.)"""
+    import dataclasses
+    import importlib
+
+    wrong = []
+    for path in sorted((ROOT / "revolve").rglob("*.py")):
+        name = ".".join(path.relative_to(ROOT).with_suffix("").parts)
+        if name.endswith(("__main__", "__init__")):
+            continue
+        module = importlib.import_module(name)
+        for value in vars(module).values():
+            if (isinstance(value, type) and dataclasses.is_dataclass(value)
+                    and value.__module__ == name and value.__dataclass_params__.eq
+                    and any("ndarray" in str(f.type) for f in dataclasses.fields(value))):
+                wrong.append(f"{name}.{value.__name__}")
+    assert wrong == []

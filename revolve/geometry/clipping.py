@@ -263,7 +263,7 @@ class ParametricPieces:
         return float(sum(abs(f) * c.error for f, c in zip(self.factor, self.cumulative(r_ref))))
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class AxialPieces:
     """A prepared profile's closed loops as tables of pieces monotone in ``z``.
 
@@ -690,7 +690,7 @@ class _Cumulative:
 
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class VerticalLevels:
     """Volume and wetted inside area below each level (arrays, profile units)."""
 

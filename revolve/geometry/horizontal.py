@@ -697,7 +697,7 @@ class ParametricRows(_SplitRows):
         return 0.0
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class HorizontalPieces:
     """The closed loops of a prepared profile, ready for level integrals.
 
@@ -771,7 +771,7 @@ def _line_washer(z0, r0, z1, r1):
 STRAIGHT, TOWARDS_START, TOWARDS_END, COSINE = 0, 1, 2, 3
 
 
-@dataclass
+@dataclass(eq=False)
 class _Jobs:
     """Intervals still to integrate: table and row, level, parameter map, u range."""
 
@@ -949,7 +949,7 @@ def _arc_angle_at_r(cz, cr, R, a, b, rr):
 
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class HorizontalLevels:
     """Volume and wetted inside area at each depth (arrays, profile units).
 

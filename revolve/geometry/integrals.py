@@ -55,7 +55,7 @@ EXPONENTS = ((0, 0), (1, 0), (0, 1), (2, 0), (1, 1), (0, 2), (0, 3))
 COL = {name: i for i, name in enumerate(COLUMNS)}
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class SegmentIntegrals:
     """Per-segment integrals: ``values`` and absolute ``errors``, both shape (n, 10).
 

@@ -229,7 +229,7 @@ def flatten_segment(segment: Segment, tolerance: float, *, most_pieces: int = 1_
     return segment.flatten_to_tolerance(tolerance, most_pieces)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class FlatPath:
     """A path of the profile as points in the axis frame (``z``, ``r``).
 
@@ -394,7 +394,7 @@ def _bridge(xy: np.ndarray, outer: np.ndarray, holes: Sequence[np.ndarray], eps:
     return poly
 
 
-@dataclass
+@dataclass(eq=False)
 class _Corners:
     """Working state of ear clipping: the polygon's corners, what blocks, what is an ear.
 

@@ -127,7 +127,7 @@ def curve_parameter_at(curve, ta: float, tb: float, targets, coordinate: int = 0
     return curve.monotone_parameters(coordinate, ta, tb, targets, iterations)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class PieceGroup:
     """The pieces of one segment kind: rows ``start:stop`` of a :class:`PieceTable`.
 
@@ -143,7 +143,7 @@ class PieceGroup:
     stop: int
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class PieceTable:
     """The monotone pieces of a profile's loops as arrays, for the washers.
 
@@ -278,7 +278,7 @@ def piece_table(prep, loop_factors: Sequence[float]) -> PieceTable:
     return PieceTable(z_from, z_to, factor, tuple(groups), z_to > z_from)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class _Rule:
     """Quadrature nodes for one kind's pieces on a slice part [c, d]: ``z = mid + half·x``.
 

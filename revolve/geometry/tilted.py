@@ -123,7 +123,7 @@ STRAIGHT, TOWARDS_START, TOWARDS_END = 0, 1, 2
 
 # -- the pieces of the boundary ------------------------------------------------------------
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class TiltedPieces:
     """The boundary of the liquid space cut into smooth pieces (arrays, one row per piece).
 

@@ -899,7 +899,7 @@ class Tolerance:
         return self.half_width / _DIVISORS[self.distribution]
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class Uncertainty:
     """The result of :func:`combined_uncertainty` (the model's units throughout).
 

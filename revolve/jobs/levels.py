@@ -262,7 +262,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
                        height, bottom, r_max, pieces)
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, eq=False)
 class LevelTable:
     """Rows of a level table (arrays, profile units; percent of the capacity).
 
