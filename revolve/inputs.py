@@ -247,6 +247,26 @@ def parse_percent(text: str, low: float = 0.0, high: float = 100.0) -> float:
     return v
 
 
+def positive_tolerance(value, option: str) -> float:
+    """The cross-check's relative tolerance: a number (or its text) above zero, else an error
+    naming ``option`` (the library's argument or the command line's option).
+
+    >>> positive_tolerance("1e-6", "tolerance")
+    1e-06
+    >>> positive_tolerance(0, "--tolerance")
+    Traceback (most recent call last):
+    ...
+    revolve.errors.RevolveError: --tolerance: the tolerance must be a positive number
+    """
+    try:
+        tolerance = float(value)
+    except (TypeError, ValueError):
+        tolerance = float("nan")
+    if not tolerance > 0:
+        raise RevolveError("the tolerance must be a positive number", option=option)
+    return tolerance
+
+
 def checked_number(value, place: str, *, zero: bool = False) -> float:
     """A number given as a number (not text, not a bool): finite and positive, or ≥ 0 with
     ``zero``; otherwise a :class:`~revolve.errors.RevolveError` naming ``place``.

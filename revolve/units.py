@@ -175,10 +175,10 @@ _AMBIGUOUS = {
 
 _SUPERSCRIPTS = str.maketrans({"²": "^2", "³": "^3", "µ": "u", "μ": "u",
                                "\u2009": " ", "\u00a0": " "})
-_POWER_SUFFIX = re.compile(r"^(.*?[A-Za-z])\^?([23])$")
-_SPACES_AROUND = re.compile(r"\s*([/^])\s*")
-_NUMBER = re.compile(
-    r"\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*$", re.S)
+# Patterns are compiled on first use (re keeps them): a short run needs few of them.
+_POWER_SUFFIX = r"^(.*?[A-Za-z])\^?([23])$"
+_SPACES_AROUND = r"\s*([/^])\s*"
+_NUMBER = r"(?s)\s*([+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?)\s*(.*?)\s*$"
 
 _LOOKUP_CACHE: dict[str, Optional[_Unit]] = {}
 _PINT_CACHE: dict[tuple[str, str], float] = {}
@@ -214,7 +214,9 @@ def registry() -> Any:
 def _normalise(unit: str) -> str:
     """Spelling used for fast-table look-up ('mm ^ 2' -> 'mm^2', 'µm' -> 'um')."""
     text = unit.translate(_SUPERSCRIPTS).replace("**", "^").strip()
-    text = _SPACES_AROUND.sub(r"\1", text)
+    if not any(ch.isspace() for ch in text):     # nothing to join (most spellings)
+        return text
+    text = re.sub(_SPACES_AROUND, r"\1", text)
     return re.sub(r"\s+", "_", text)
 
 
@@ -231,7 +233,7 @@ def _lookup(key: str) -> Optional[_Unit]:
             found = _Unit("density", num, den,
                           f"{top.display}/{bottom.display}")
     if found is None and "/" not in key:
-        match = _POWER_SUFFIX.match(key)
+        match = re.match(_POWER_SUFFIX, key)
         if match:
             base = _SYMBOLS.get(match.group(1)) or _NAMES.get(
                 match.group(1).lower())
@@ -324,8 +326,8 @@ def _refuse_ambiguous(unit: str, key: str, kind: Optional[str] = None) -> None:
             raise UnitError(f"{quoted(unit)} is ambiguous: {_AMBIGUOUS[word]}")
 
 
-_POWER_OP = re.compile(r"\^|\*\*")
-_SAFE_EXPONENT = re.compile(r"\s*\(?\s*[+-]?\d(?:\.\d+)?\s*\)?")
+_POWER_OP = r"\^|\*\*"
+_SAFE_EXPONENT = r"\s*\(?\s*[+-]?\d(?:\.\d+)?\s*\)?"
 
 
 def _guard_for_pint(text: str, what: str) -> None:
@@ -336,13 +338,13 @@ def _guard_for_pint(text: str, what: str) -> None:
     """
     if len(text) > 100:
         raise UnitError(f"{what} is too long ({len(text)} characters)")
-    for match in _POWER_OP.finditer(text):
+    for match in re.finditer(_POWER_OP, text):
         before = text[:match.start()].rstrip()
         after = text[match.end():]
-        exponent = _SAFE_EXPONENT.match(after)
+        exponent = re.match(_SAFE_EXPONENT, after)
         if (not before or not (before[-1].isalpha() or before[-1] == ")")
                 or exponent is None
-                or _POWER_OP.match(after[exponent.end():].lstrip())):
+                or re.match(_POWER_OP, after[exponent.end():].lstrip())):
             raise UnitError(f"{what} has a power that is not a single digit "
                             f"on a unit name: {quoted(text.strip())}")
 
@@ -360,8 +362,8 @@ _PINT_NAMES = {
     "h": "hour",
 }
 # A word: not the exponent of a number such as 1e3.
-_WORD = re.compile(r"(?<![0-9.])[A-Za-z_]\w*"
-                   r"|(?<=[0-9.])(?![eE][+-]?\d)[A-Za-z_]\w*")
+_WORD = (r"(?<![0-9.])[A-Za-z_]\w*"
+         r"|(?<=[0-9.])(?![eE][+-]?\d)[A-Za-z_]\w*")
 
 
 def _pint_text(unit: str, what: str) -> str:
@@ -375,7 +377,7 @@ def _pint_text(unit: str, what: str) -> str:
         found = _SYMBOLS.get(word) or _NAMES.get(word.lower())
         return _PINT_NAMES[found.display] if found is not None else word
 
-    return _WORD.sub(rename, text)
+    return re.sub(_WORD, rename, text)
 
 
 def _pint_factor(unit: str, kind: str) -> float:
@@ -629,7 +631,7 @@ def parse_quantity(text: str, kind: str,
     if not isinstance(text, str):
         raise UnitError(f"{_a(kind)} must be given as text, not "
                         f"{type(text).__name__}")
-    match = _NUMBER.fullmatch(text)
+    match = re.fullmatch(_NUMBER, text)
     if match is not None:
         number, unit = match.groups()
         if not unit:

@@ -292,8 +292,9 @@ def run() -> None:
     Before the interpreter shuts down, every object is moved to the garbage collector's
     permanent generation (``gc.freeze``), so the shutdown does not search them all for
     reference cycles, work that would be thrown away with the process (a tenth of a short
-    run, measured by ``benchmarks/startup_benchmark.py``). Objects are still released as
-    their modules are cleared, files are closed and standard output is flushed as usual.
+    run, measured by ``benchmarks/startup_benchmark.py``). Objects outside cycles are still
+    released as their modules are cleared, and standard output and error are flushed as
+    usual; every file a command writes is closed (and moved into place) before it returns.
     A process that calls :func:`main` itself (the tests, a notebook) is left alone.
     """
     import gc

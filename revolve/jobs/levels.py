@@ -247,7 +247,7 @@ def liquid_space(profile: Profile, axis: Axis, angle_degrees: float = 360.0,
         raise ProfileError("the profile has no closed loop or chain to hold liquid")
     m = measure(Revolution(closed, axis, 360.0), symbolic=False)
     prep = m.prepared or prepare(closed, axis)     # the measurement's, not again
-    factors = prep.loop_factors
+    factors = m.section.loop_factors               # the measurement's, not worked out again
     if orientation == "vertical":
         pieces = axial_pieces(prep, factors)
         bottom, top = pieces.z_min, pieces.z_max
@@ -726,12 +726,9 @@ def level_table(profile_or_path, *, orientation: Optional[str] = None, axis=None
         if orientation not in ORIENTATIONS:
             raise RevolveError(f"give vertical or horizontal, got {orientation!r}",
                                option=n["orientation"])
-    try:
-        tolerance = float(tolerance)
-    except (TypeError, ValueError):
-        tolerance = float("nan")
-    if not tolerance > 0:
-        raise RevolveError("the tolerance must be a positive number", option=n["tolerance"])
+    from revolve.inputs import positive_tolerance
+
+    tolerance = positive_tolerance(tolerance, n["tolerance"])
     if count is not None and (isinstance(count, bool) or not isinstance(count, (int, np.integer))
                               or count < 1):
         raise RevolveError(f"the count must be 1 or more, got {count!r}", option=n["count"])

@@ -86,7 +86,7 @@ TORISPHERICAL_PROPORTIONS = {
 _KEYS = {"flat": (), "hemispherical": (), "ellipsoidal": (),
          "torispherical": ("crown", "knuckle"), "torispherical-10": ("crown", "knuckle"),
          "torispherical-80": ("crown", "knuckle"), "conical": ("angle", "knuckle")}
-_PLAIN = re.compile(r"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$")
+_PLAIN = r"^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$"   # compiled on first use (re keeps it)
 #: Largest mismatch allowed in the tangency checks, relative to the diameter.
 TANGENCY_TOLERANCE = 1e-9
 
@@ -129,7 +129,7 @@ def _value(text: str, diameter: float, what: str, place: str, allow_percent: boo
         if not allow_percent:
             raise RevolveError(f"{what} is an angle in degrees, not a percentage", place=place)
         t = t[:-1].strip()
-    if _PLAIN.match(t):
+    if re.match(_PLAIN, t):
         v = float(t)
     else:
         from revolve.expr import constant_float, parse_number
@@ -681,7 +681,7 @@ def summarise(design: VesselDesign, metal_density: Optional[float] = None,
     inside_profile = Profile(loops=(design.inside,), unit=design.unit)
     m_in = measure(Revolution(inside_profile, axis), symbolic=False)
     prep = m_in.prepared or prepare(inside_profile, axis)   # the measurement's, not again
-    below = vertical_levels(prep, [0.0, design.length])
+    below = vertical_levels(prep, [0.0, design.length], m_in.section.loop_factors)
     v_head1 = float(below.volume[0])
     v_head2 = m_in.volume - float(below.volume[1])
     shell_volume = float(below.volume[1]) - v_head1
@@ -842,6 +842,8 @@ def _vessel_length(value, unit: str, option: str) -> float:
 
 def _material(material, density, material_option: str, density_option: str):
     """(kg/m³, label, material key) from a material name or a density (text, number, pint)."""
+    if material is None and density is None:       # nothing to look up (nor to import)
+        return None, None, None
     from revolve.materials import density_value, material_or_density
 
     if density is None or isinstance(density, str) or material is not None:
@@ -940,12 +942,9 @@ def build_vessel(diameter, length, *, head: Optional[str] = None, head_1: Option
     dimensions = str(dimensions or "inside").strip().lower()
     if dimensions not in ("inside", "outside"):
         raise RevolveError(f"give inside or outside, got {dimensions!r}", option=n["dimensions"])
-    try:
-        tolerance = float(tolerance)
-    except (TypeError, ValueError):
-        tolerance = float("nan")
-    if not tolerance > 0:
-        raise RevolveError("the tolerance must be a positive number", option=n["tolerance"])
+    from revolve.inputs import positive_tolerance
+
+    tolerance = positive_tolerance(tolerance, n["tolerance"])
     D = _vessel_length(diameter, unit, n["diameter"])
     L = _vessel_length(length, unit, n["length"])
     if not D > 0:
