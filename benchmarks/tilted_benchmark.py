@@ -25,7 +25,6 @@ capacity).
 from __future__ import annotations
 
 import argparse
-import json
 import os
 import subprocess
 import sys

@@ -555,10 +555,10 @@ def test_ullage_is_at_reference_height_minus_ullage_and_round_trips(tmp_path, ca
                        "--ullage", "1 ft,3 1/4 in,20 in", "--volume-unit", "in^3"], capsys)
     by_innage = _json([path, "--reference-height", "2 ft", "--datum-offset", "1/2 in",
                        "--at", "12 in,20 3/4 in,4 in", "--volume-unit", "in^3"], capsys)
-    for u, i, given in zip(by_ullage["levels"], by_innage["levels"], (12, 3.25, 20)):
-        assert u["ullage"] == pytest.approx(given, abs=1e-12)
-        assert u["innage"] == pytest.approx(24 - given, abs=1e-12)
-        assert u["level"] == pytest.approx(24 - given + 0.5, abs=1e-12)
+    for u, i, asked in zip(by_ullage["levels"], by_innage["levels"], (12, 3.25, 20)):
+        assert u["ullage"] == pytest.approx(asked, abs=1e-12)
+        assert u["innage"] == pytest.approx(24 - asked, abs=1e-12)
+        assert u["level"] == pytest.approx(24 - asked + 0.5, abs=1e-12)
         assert i["ullage"] == pytest.approx(u["ullage"], abs=1e-12)     # and back
         assert u["volume"] == pytest.approx(i["volume"], rel=1e-14)
         assert u["volume"] == pytest.approx(math.pi * 100 * u["level"], rel=1e-13)
