@@ -288,6 +288,8 @@ def _poly_expr(coefficients, scale: float):
 
 @dataclass(frozen=True)
 class _Piece:
+    """Segments read from one drawing entity, with its label and number for messages."""
+
     segments: Tuple[Any, ...]
     label: str
     number: int

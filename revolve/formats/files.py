@@ -165,6 +165,8 @@ def check_target(path: str, option: Optional[str] = None, *, replace: bool = Tru
 
 @dataclass
 class _Output:
+    """One file of an output set: its target, writer and where it stands."""
+
     path: str
     write: Callable[[IO], object]
     binary: bool

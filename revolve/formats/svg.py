@@ -484,6 +484,8 @@ def _one_transform(name: str, v: Sequence[Fraction]) -> Affine:
 
 @dataclass
 class _Subpath:
+    """One subpath of an SVG path being read: where it starts, its items, whether it closes."""
+
     start: Point
     position: int
     items: List[tuple]

@@ -106,17 +106,6 @@ def _box(segs) -> Tuple[float, float, float, float]:
     return float(b[:, 0].min()), float(b[:, 1].min()), float(b[:, 2].max()), float(b[:, 3].max())
 
 
-def _extent(seg: Segment) -> float:
-    """The larger side of ``seg``'s box, a lower bound of its length (no quadrature for a curve).
-
-    >>> from revolve.geometry.segments import Line
-    >>> _extent(Line((0.0, 1.0), (3.0, 5.0)))
-    4.0
-    """
-    z0, r0, z1, r1 = seg.bounds()
-    return max(z1 - z0, r1 - r0)
-
-
 def _place(seg: Segment, path_no: int, seg_no: int, closed: bool) -> str:
     return f"{'loop' if closed else 'chain'} {path_no}, segment {seg_no}"
 
@@ -1102,7 +1091,7 @@ def _check_path(path, k: int, tol: float) -> None:
                 e = int(short[0])
                 raise _fail_at("this segment has zero length; remove it", s, e,
                                _place(None, k, number + e + 1, path.closed))
-        elif _extent(s) <= tol and s.length() <= tol:   # a segment spans its box: length ≥ extent
+        elif math.dist(s.start, s.end) <= tol and s.length() <= tol:   # length ≥ chord
             raise _fail("this segment has zero length; remove it", s,
                         _place(s, k, number + 1, path.closed))
         if j > 0:

@@ -210,12 +210,16 @@ def parse_head(text: str, diameter: float, place: str = "head") -> HeadSpec:
 
 @dataclass(frozen=True)
 class _LineP:
+    """A straight piece of a head, in local coordinates."""
+
     start: Tuple[float, float]
     end: Tuple[float, float]
 
 
 @dataclass(frozen=True)
 class _ArcP:
+    """A circular piece of a head (crown or knuckle), in local coordinates."""
+
     centre: Tuple[float, float]
     radius: float
     start: Tuple[float, float]
