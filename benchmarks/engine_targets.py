@@ -286,7 +286,8 @@ def run_targets(args, big, parts, work):
     from startup_benchmark import COMMANDS, paired_ratios
 
     chosen = {k: v for k, v in COMMANDS.items() if "comparison" not in k}
-    ratios, _ = paired_ratios(chosen, {"after": ROOT}, max(rep, 5))
+    # At least 15 pairs (one with --quick): with 5 the median moved by ±0.15× from run to run.
+    ratios, _ = paired_ratios(chosen, {"after": ROOT}, 1 if args.quick else max(rep, 15))
     for name in chosen:
         wall, ratio, cpu = ratios[name]["after"]
         print(f"4. {name:57s} {wall:.3f} s, ratio {ratio:6.2f}× (CPU time {cpu:.2f}×)  "
