@@ -26,12 +26,14 @@ absolute promises, and nothing here is asserted in the test suite.
 3b. Library, as row 3, on a *noisy* outline of 10⁵ vertices (radial noise ±0.5, so its
    zigzags are ~400 point spacings long and each chord's box meets hundreds of others):
    the self-intersection test and the washers' worst case on outlines met in practice.
+3c. The same with the noise on half the outline only (a scan noisy in places): long smooth
+   chains beside chains of a chord or two.
 
 ``--quick`` uses 10⁵ instead of 10⁶ vertices and 200 parts (for a smoke run).
-``--only 3`` runs rows 3 and 3b only. ``--before REF`` also runs rows 3 and 3b on the
+``--only 3`` runs rows 3, 3b and 3c only. ``--before REF`` also runs rows 3, 3b and 3c on the
 package as it was at git revision REF (exported to a temporary folder), each tree in its
 own child process, alternated, and prints both ratios and after/before side by side; in
-rows 3 and 3b shapely's best time over both trees' runs is the one reference.
+rows 3, 3b and 3c shapely's best time over both trees' runs is the one reference.
 ``--only 12`` runs rows 1 and 2 only (with ``--before REF``, REF's package alternated too).
 """
 
@@ -113,12 +115,18 @@ def ring(n):
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
 
 
-def noisy(n):
-    """A star-shaped ring with radial noise ±0.5 (zigzags far longer than the point spacing)."""
+def noisy(n, part=1.0):
+    """A star-shaped ring with radial noise ±0.5 (zigzags far longer than the point spacing)
+    on the first ``part`` of its outline (a scan noisy in places when ``part`` < 1)."""
     rng = np.random.default_rng(0)
     a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
-    r = 20 + 2 * np.sin(7 * a) + rng.uniform(-0.5, 0.5, n)
+    r = 20 + 2 * np.sin(7 * a) + np.where(a < 2 * np.pi * part, rng.uniform(-0.5, 0.5, n), 0.0)
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
+
+
+def half_noisy(n):
+    """:func:`noisy` on half of its outline, smooth on the other half."""
+    return noisy(n, 0.5)
 
 
 #: One library row in a child process: best-of-``repeats`` seconds of revolve's measure (from
@@ -127,13 +135,13 @@ LIBRARY_ROW = """
 import json, math, sys, time
 sys.path.insert(0, sys.argv[2])
 import numpy as np, shapely
-from engine_targets import noisy, ring       # (puts this tree on the path: the tree goes first)
+from engine_targets import half_noisy, noisy, ring   # (puts this tree on the path: it goes first)
 sys.path.insert(0, sys.argv[1])
 import revolve
 assert revolve.__file__.startswith(sys.argv[1]), revolve.__file__
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
-xy = (ring if sys.argv[3] == "ring" else noisy)(int(sys.argv[4]))
+xy = {"ring": ring, "noisy": noisy, "half_noisy": half_noisy}[sys.argv[3]](int(sys.argv[4]))
 t_lib = t_sh = math.inf
 for _ in range(int(sys.argv[5])):
     t0 = time.perf_counter()
@@ -184,7 +192,7 @@ def cli_rows(big, repeats, before, work):
 
 
 def library_rows(big, repeats, before, work):
-    """Rows 3 and 3b; with ``before`` (a git revision) the old package too, side by side."""
+    """Rows 3, 3b and 3c; with ``before`` (a git revision) the old package too, side by side."""
     import json
 
     trees = [("after", ROOT)]
@@ -192,7 +200,9 @@ def library_rows(big, repeats, before, work):
         trees.insert(0, (f"before ({before})", export(before, work)))
     for label, shape, n in ((f"3. library measure of {big:,} vertices vs shapely", "ring", big),
                             ("3b. library measure of a 100,000-vertex noisy outline vs shapely",
-                             "noisy", 100_000)):
+                             "noisy", 100_000),
+                            ("3c. library measure of a 100,000-vertex outline noisy on half its "
+                             "length vs shapely", "half_noisy", 100_000)):
         best = {}
         for _ in range(repeats):                 # alternate the trees, each best of 2 inside
             for name, tree in trees:
@@ -278,7 +288,7 @@ def run_targets(args, big, parts, work):
          python("-m", "revolve", "measure", str(four), "--json")], rep, work)
     row("2. measure 10,000-vertex point list vs four-line profile", t_small, t_four, "≤ 1.5×")
 
-    # 3, 3b: library against shapely (child processes; with --before, the old tree too).
+    # 3, 3b, 3c: library against shapely (child processes; with --before, the old tree too).
     library_rows(big, rep, args.before, work)
 
     # 4: start-up with curves, as benchmarks/startup_benchmark.py measures it (each run paired

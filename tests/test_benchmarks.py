@@ -39,7 +39,8 @@ SMOKE = {
     "engine_targets.py": (
         ["--quick", "--repeats", "1"],
         ["1. measure 100,000-vertex point list", "2. measure 10,000-vertex point list",
-         "3. library measure", "3b. library measure", "4. vessel, two ellipsoidal heads",
+         "3. library measure", "3b. library measure", "3c. library measure",
+         "4. vessel, two ellipsoidal heads",
          "4. measure domed-lid.toml --json (a curve)", "5. vertical 1000-level table",
          "5. horizontal 1000-level table", "6. measure over a folder"]),
     "levels_benchmark.py": (

@@ -526,7 +526,7 @@ FAN = 4
 DIRECTIONS = 8
 #: A level of blocks above is built while the box index would give more than this many pairs a block.
 LEVEL_FROM = 16
-#: The block path is taken when the box index would give more than this many pairs a chord.
+#: The block path is taken when the box index would give more than this many pairs a chain.
 BLOCK_FROM = 64
 
 
@@ -736,7 +736,8 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
     turn at almost every vertex the chains are single chords and the work is
     that of the chords' boxes in the index, which grows as
     (total length)² / area where the zigzags truly overlap: when the index
-    would give more than :data:`BLOCK_FROM` pairs a chord (counted first),
+    would give more than :data:`BLOCK_FROM` pairs a chain (counted first; an
+    outline noisy only in places has such chains too),
     blocks of consecutive chords, in levels (blocks of blocks), are paired
     instead and kept apart by a direction across them (:func:`_block_pairs`;
     a zigzag's spikes are thin across, so only neighbouring blocks are left,
@@ -859,12 +860,13 @@ def find_self_intersection(chains: Sequence[np.ndarray], closed: Sequence[bool],
                 if near.any():
                     test(i[near], j[near])
 
-    # Chains of one chord each (a zigzag outline) whose boxes meet by the hundred: blocks of
-    # chords kept apart by a direction across them (_block_pairs), unless that would not pay.
+    # Chains whose boxes meet by the hundred (a zigzag outline, or a noisy stretch of one, whose
+    # chains are a chord or two): blocks of chords kept apart by a direction across them
+    # (_block_pairs), unless that would not pay.
     pairs = None
-    if (starts.size == n or blocks) and index is None and blocks is not False:
+    if index is None and blocks is not False:
         count = min(int(_sweep_order(ch.x0, ch.x1)[1].sum()), int(_sweep_order(ch.y0, ch.y1)[1].sum()))
-        if blocks or count > BLOCK_FROM * n:
+        if blocks or count > BLOCK_FROM * starts.size:
             pairs = _block_pairs(vx, vy, n, chord_vertex, box, 4 * slack, chunk,
                                  np.iinfo(np.int64).max if blocks else count)
     if pairs is not None:

@@ -30,6 +30,16 @@ def noisy_star(n, seed, noise=0.5):
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
 
 
+def partly_noisy_star(n, seed, part, noise=0.5):
+    """:func:`noisy_star` with its noise only on the first ``part`` (0…1) of the outline: a scan
+    noisy in places (an invented shape). Its chains are long where it is smooth and a chord or
+    two where it is noisy."""
+    rng = np.random.default_rng(seed)
+    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
+    r = 20 + 2 * np.sin(7 * a) + np.where(a < 2 * np.pi * part, rng.uniform(-noise, noise, n), 0)
+    return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
+
+
 def finder(xy, blocks):
     ring = np.vstack([xy, xy[:1]])
     size = float(np.hypot(*(ring.max(axis=0) - ring.min(axis=0))))
@@ -115,3 +125,35 @@ def test_touching_within_tolerance_is_found_on_either_path():
     out = xy.copy()
     out[8000] = (xy[9000] + xy[9001]) / 2
     assert all_three(out) is not None
+
+
+@pytest.mark.parametrize("n, part", [(20_000, 0.5), (60_000, 0.15)])
+def test_partly_noisy_outline_takes_the_block_path_and_agrees_with_shapely(n, part, monkeypatch):
+    # Noise on half (or less) of the outline: the smooth stretch is a few long chains, the
+    # noisy one chains of a chord or two whose boxes meet by the hundred. The finder takes the
+    # block path there too (the box index's pairs grow as the square of the noisy stretch),
+    # and says what shapely says, planted crossings in the noisy stretch and from either
+    # stretch across the ring included, on either path.
+    from revolve.geometry import checks
+
+    taken = []
+    original = checks._block_pairs
+
+    def watched(*args, **kwargs):
+        taken.append(True)
+        return original(*args, **kwargs)
+
+    monkeypatch.setattr(checks, "_block_pairs", watched)
+    xy = partly_noisy_star(n, 7, part)
+    assert shapely.LinearRing(xy).is_simple                    # shapely: simple
+    assert finder(xy, None) is None and taken                  # chosen, not forced
+    assert all_three(xy) is None
+    noisy_end = int(n * part)
+    smooth = (noisy_end + n) // 2
+    for i, j in ((noisy_end // 3, noisy_end // 3 + 40),         # within the noisy stretch
+                 (smooth, (smooth + n // 2) % n),               # from the smooth one, across
+                 (noisy_end // 2, (noisy_end // 2 + n // 2) % n)):   # from the noisy one, across
+        bent = planted_crossing(xy, i, j)
+        assert not shapely.LinearRing(bent).is_simple          # shapely: it crosses itself
+        hit = all_three(bent)
+        assert hit is not None and {(i - 1) % n, i} & {hit[1], hit[3]}
