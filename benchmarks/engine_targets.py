@@ -124,24 +124,20 @@ def noisy(n, part=1.0):
     return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
 
 
-def half_noisy(n):
-    """:func:`noisy` on half of its outline, smooth on the other half."""
-    return noisy(n, 0.5)
-
-
 #: One library row in a child process: best-of-``repeats`` seconds of revolve's measure (from
 #: the arrays, cross-check included) and of shapely's area + centroid, as JSON.
 LIBRARY_ROW = """
 import json, math, sys, time
 sys.path.insert(0, sys.argv[2])
 import numpy as np, shapely
-from engine_targets import half_noisy, noisy, ring   # (puts this tree on the path: it goes first)
+from engine_targets import noisy, ring       # (puts this tree on the path: the tree goes first)
 sys.path.insert(0, sys.argv[1])
 import revolve
 assert revolve.__file__.startswith(sys.argv[1]), revolve.__file__
 from revolve.geometry.measure import measure
 from revolve.geometry.profile import Axis, Loop, Profile, Revolution
-xy = {"ring": ring, "noisy": noisy, "half_noisy": half_noisy}[sys.argv[3]](int(sys.argv[4]))
+shapes = {"ring": ring, "noisy": noisy, "half_noisy": lambda n: noisy(n, 0.5)}
+xy = shapes[sys.argv[3]](int(sys.argv[4]))
 t_lib = t_sh = math.inf
 for _ in range(int(sys.argv[5])):
     t0 = time.perf_counter()

@@ -38,17 +38,16 @@ ROOT = Path(__file__).resolve().parents[1]
 
 #: What the ``revolve`` script that pip installs runs (``[project.scripts]``), as ``python -c``
 #: (a checkout has no script of its own); an older checkout without ``run`` calls ``main``.
-SCRIPT = ["-c", "import sys; from revolve.cli import app; sys.exit(getattr(app, 'run', app.main)())"]
-ELLIPSOIDAL = ["vessel", "--diameter", "2000", "--length", "5000", "--head", "ellipsoidal"]
+SCRIPT = ["-c", "import sys; from revolve.cli import app; "
+                "sys.exit(getattr(app, 'run', app.main)())"]
+VESSEL = ["vessel", "--diameter", "2000", "--length", "5000", "--head"]
+ELLIPSOIDAL, TORISPHERICAL = VESSEL + ["ellipsoidal"], VESSEL + ["torispherical"]
 COMMANDS = {
-    "measure domed-lid.toml --json (a curve)": SCRIPT + ["measure",
-                                                         "{root}/profiles/domed-lid.toml", "--json"],
+    "measure domed-lid.toml --json (a curve)":
+        SCRIPT + ["measure", "{root}/profiles/domed-lid.toml", "--json"],
     "vessel, two ellipsoidal heads": SCRIPT + ELLIPSOIDAL,
-    "vessel, two torispherical heads": SCRIPT + ["vessel", "--diameter", "2000", "--length", "5000",
-                                                 "--head", "torispherical"],
-    "vessel, torispherical heads, 10 mm wall": SCRIPT + ["vessel", "--diameter", "2000",
-                                                         "--length", "5000", "--head",
-                                                         "torispherical", "--thickness", "10"],
+    "vessel, two torispherical heads": SCRIPT + TORISPHERICAL,
+    "vessel, torispherical heads, 10 mm wall": SCRIPT + TORISPHERICAL + ["--thickness", "10"],
     "vessel, ellipsoidal heads, 10 mm wall": SCRIPT + ELLIPSOIDAL + ["--thickness", "10"],
     "python -m revolve vessel, ellipsoidal heads (for comparison)": ["-m", "revolve"] + ELLIPSOIDAL,
     "measure domed-lid.toml --json --exact (for comparison)": SCRIPT + [

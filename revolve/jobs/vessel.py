@@ -846,8 +846,6 @@ def _vessel_length(value, unit: str, option: str) -> float:
 
 def _material(material, density, material_option: str, density_option: str):
     """(kg/m³, label, material key) from a material name or a density (text, number, pint)."""
-    if material is None and density is None:       # nothing to look up (nor to import)
-        return None, None, None
     from revolve.materials import density_value, material_or_density
 
     if density is None or isinstance(density, str) or material is not None:

@@ -22,18 +22,10 @@ from revolve.geometry.profile import Axis, Loop, Profile
 shapely = pytest.importorskip("shapely")
 
 
-def noisy_star(n, seed, noise=0.5):
-    """A seven-pointed star of radius about 20 with radial noise ±``noise`` (an invented shape)."""
-    rng = np.random.default_rng(seed)
-    a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
-    r = 20 + 2 * np.sin(7 * a) + rng.uniform(-noise, noise, n)
-    return np.column_stack([r * np.cos(a), 50 + r * np.sin(a)])
-
-
-def partly_noisy_star(n, seed, part, noise=0.5):
-    """:func:`noisy_star` with its noise only on the first ``part`` (0…1) of the outline: a scan
-    noisy in places (an invented shape). Its chains are long where it is smooth and a chord or
-    two where it is noisy."""
+def noisy_star(n, seed, noise=0.5, part=1.0):
+    """A seven-pointed star of radius about 20 with radial noise ±``noise`` (an invented shape),
+    on the first ``part`` (0…1) of its outline only when ``part`` < 1: a scan noisy in places,
+    whose chains are long where it is smooth and a chord or two where it is noisy."""
     rng = np.random.default_rng(seed)
     a = np.linspace(0.0, 2 * np.pi, n, endpoint=False)
     r = 20 + 2 * np.sin(7 * a) + np.where(a < 2 * np.pi * part, rng.uniform(-noise, noise, n), 0)
@@ -144,7 +136,7 @@ def test_partly_noisy_outline_takes_the_block_path_and_agrees_with_shapely(n, pa
         return original(*args, **kwargs)
 
     monkeypatch.setattr(checks, "_block_pairs", watched)
-    xy = partly_noisy_star(n, 7, part)
+    xy = noisy_star(n, 7, part=part)
     assert shapely.LinearRing(xy).is_simple                    # shapely: simple
     assert finder(xy, None) is None and taken                  # chosen, not forced
     assert all_three(xy) is None
